@@ -1,0 +1,51 @@
+//! Command-line definitions (clap derive). Each subcommand's options live beside its code in
+//! `commands/`.
+
+use clap::{Parser, Subcommand};
+
+use crate::commands;
+
+const EXAMPLES: &str = "\
+Examples:
+  rolltriage                                   open the terminal UI on a new case
+  rolltriage tui cases/harbour_newsprint_telescoping.yaml
+  rolltriage stress cases/harbour_newsprint_telescoping.yaml --units us
+  rolltriage diagnose cases/harbour_newsprint_telescoping.yaml --top 3
+  rolltriage case check cases/*.yaml
+  rolltriage rules check rules/
+
+Exit codes: 0 ok, 1 bad input or failed work, 2 usage error.";
+
+#[derive(Debug, Parser)]
+#[command(name = "rolltriage", version, about = "Why is this roll defective, and what do we change?", after_help = EXAMPLES)]
+pub struct Cli {
+    #[command(subcommand)]
+    pub command: Option<Command>,
+}
+
+#[derive(Debug, Subcommand)]
+pub enum Command {
+    /// Compute the stress state inside the wound roll and print its profile.
+    Stress(commands::stress::StressArgs),
+    /// Rank likely causes of the observed defects and list the remedies.
+    Diagnose(commands::diagnose::DiagnoseArgs),
+    /// Write a complaint report (Markdown, HTML with plots, JSON).
+    Report(commands::report::ReportArgs),
+    /// Guided training walk-throughs with scoring.
+    Train(commands::train::TrainArgs),
+    /// Fit material parameters from measurements.
+    Calibrate(commands::calibrate::CalibrateArgs),
+    /// Design a tension/taper schedule that keeps the roll out of every risk zone.
+    Taper(commands::taper::TaperArgs),
+    /// Work with rule bases.
+    Rules(commands::rules::RulesArgs),
+    /// Create and check case files.
+    Case(commands::case::CaseArgs),
+    /// Open the terminal UI, optionally on a case file.
+    Tui(commands::tui::TuiArgs),
+    /// Print shell completions.
+    Completions {
+        /// bash, zsh, fish, elvish or powershell
+        shell: clap_complete::Shell,
+    },
+}

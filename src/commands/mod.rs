@@ -1,0 +1,12 @@
+//! One module per subcommand: its clap options and its `run` function. Errors are reported by
+//! `main` with context.
+
+pub mod calibrate;
+pub mod case;
+pub mod diagnose;
+pub mod report;
+pub mod rules;
+pub mod stress;
+pub mod taper;
+pub mod train;
+pub mod tui;

@@ -1,0 +1,1 @@
+//! Complaint reports: Markdown, self-contained HTML with SVG plots, JSON, CSV.
