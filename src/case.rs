@@ -265,3 +265,72 @@ pub struct AssumedValue {
     /// Where it came from: preset ID and the value's source note.
     pub source: String,
 }
+
+/// Errors reading, validating, resolving or saving a case file. Every message names the file
+/// (or origin), the field and what is accepted.
+#[derive(Debug, thiserror::Error)]
+pub enum CaseError {
+    #[error("{origin}: {message}")]
+    Invalid { origin: String, message: String },
+    #[error(transparent)]
+    Unit(#[from] crate::units::UnitError),
+    #[error("cannot read {path}: {source}")]
+    Read {
+        path: std::path::PathBuf,
+        source: std::io::Error,
+    },
+    #[error(transparent)]
+    Save(#[from] crate::fsutil::SaveError),
+}
+
+impl Case {
+    /// Parse a case from YAML text; `origin` (usually the file name) is used in messages.
+    pub fn from_yaml_str(_text: &str, origin: &str) -> Result<Case, CaseError> {
+        Err(CaseError::Invalid {
+            origin: origin.to_string(),
+            message: "case parsing not implemented yet".into(),
+        })
+    }
+
+    /// Read and parse a case file.
+    pub fn load(path: &std::path::Path) -> Result<Case, CaseError> {
+        let text = std::fs::read_to_string(path).map_err(|source| CaseError::Read {
+            path: path.to_path_buf(),
+            source,
+        })?;
+        Case::from_yaml_str(&text, &path.display().to_string())
+    }
+
+    /// Resolve units and presets into SI; lists the assumed values.
+    pub fn resolve(&self) -> Result<ResolvedCase, CaseError> {
+        Err(CaseError::Invalid {
+            origin: self.title.clone(),
+            message: "case resolution not implemented yet".into(),
+        })
+    }
+}
+
+impl ResolvedCase {
+    /// The mechanics problem for this case.
+    pub fn problem(&self, options: crate::model::SolverOptions) -> crate::model::WindingProblem {
+        crate::model::WindingProblem {
+            core_radius: self.core.outside_diameter / 2.0,
+            outer_radius: self.roll.outer_diameter / 2.0,
+            thickness: self.web.thickness,
+            tangential_modulus: self.web.tangential_modulus,
+            radial_stiffness: self.web.radial_stiffness,
+            poisson_ratio: self.web.poisson_ratio,
+            core: self.core.stiffness,
+            winding: crate::model::WindingSetup {
+                method: self.winding.method,
+                tension: self.winding.tension.clone(),
+                nip_load: self.winding.nip_load,
+                friction: self.web.friction,
+                speed: self.winding.speed,
+                // Two contacting surfaces of the same web: RMS roughnesses add in quadrature.
+                combined_roughness: self.web.roughness * std::f64::consts::SQRT_2,
+            },
+            options,
+        }
+    }
+}

@@ -79,3 +79,33 @@ pub struct Caution {
     pub title: String,
     pub text: String,
 }
+
+/// Errors of the diagnosis layer.
+#[derive(Debug, thiserror::Error)]
+pub enum DiagnoseError {
+    #[error(transparent)]
+    Rules(#[from] rules::RuleError),
+    #[error(transparent)]
+    Model(#[from] crate::model::ModelError),
+    #[error("{0}")]
+    Input(String),
+}
+
+/// Options of a diagnosis.
+#[derive(Debug, Clone, PartialEq, Default)]
+pub struct DiagnoseOptions {
+    /// Keep at most this many causes (0 = all with positive belief).
+    pub top: usize,
+    /// Re-solve remedies that change a winder setting (the what-if check).
+    pub what_if: bool,
+}
+
+/// Diagnose a resolved case whose profile is already computed.
+pub fn diagnose(
+    _rules: &rules::RuleBase,
+    _case: &crate::case::ResolvedCase,
+    _profile: &crate::model::Profile,
+    _options: &DiagnoseOptions,
+) -> Result<Diagnosis, DiagnoseError> {
+    Err(DiagnoseError::Input("diagnosis not implemented yet".into()))
+}
