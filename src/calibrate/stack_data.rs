@@ -91,41 +91,15 @@ fn unit_factor(
     kind: QuantityKind,
 ) -> Result<f64, CalibrateError> {
     let field = format!("{origin} column {column} header \"{header}\"");
-    match parse_quantity(&field, &format!("1 {unit}"), kind) {
-        Ok(v) if v.is_finite() && v > 0.0 => Ok(v),
-        Ok(_) => Err(CalibrateError::Header {
+    let value = parse_quantity(&field, &format!("1 {unit}"), kind)?;
+    if value.is_finite() && value > 0.0 {
+        Ok(value)
+    } else {
+        Err(CalibrateError::Header {
             origin: origin.to_string(),
             column,
             message: format!("unit \"{unit}\" in \"{header}\" is not a plain scale factor"),
-        }),
-        Err(error) => fallback_unit_factor(unit, kind).ok_or(CalibrateError::Unit(error)),
-    }
-}
-
-/// Units a stack test uses, for builds where the units module cannot parse them yet.
-/// Factors are exact definitions (NIST SP 811: 1 in = 25.4 mm, 1 lbf = 4.448 221 615 260 5 N).
-fn fallback_unit_factor(unit: &str, kind: QuantityKind) -> Option<f64> {
-    const PSI: f64 = 4.448_221_615_260_5 / (0.0254 * 0.0254);
-    let u = unit.trim();
-    match kind {
-        QuantityKind::Stress => match u {
-            "Pa" => Some(1.0),
-            "kPa" => Some(1e3),
-            "MPa" => Some(1e6),
-            "GPa" => Some(1e9),
-            "psi" => Some(PSI),
-            "ksi" => Some(1e3 * PSI),
-            _ => None,
-        },
-        QuantityKind::Length => match u {
-            "m" => Some(1.0),
-            "mm" => Some(1e-3),
-            "um" | "µm" | "μm" => Some(1e-6),
-            "in" => Some(0.0254),
-            "mil" => Some(0.0254e-3),
-            _ => None,
-        },
-        _ => None,
+        })
     }
 }
 
@@ -267,20 +241,7 @@ pub fn parse_stack_csv(
         && let Some(text) = metadata.get("initial_height")
     {
         let field = format!("{origin} comment \"initial_height\"");
-        let value = parse_quantity(&field, text, QuantityKind::Length).or_else(|error| {
-            let (num, unit) = text.trim().split_at(
-                text.trim()
-                    .find(|c: char| c.is_alphabetic() || c == 'µ')
-                    .unwrap_or(text.trim().len()),
-            );
-            match (
-                num.trim().parse::<f64>(),
-                fallback_unit_factor(unit, QuantityKind::Length),
-            ) {
-                (Ok(n), Some(f)) => Ok(n * f),
-                _ => Err(CalibrateError::Unit(error)),
-            }
-        })?;
+        let value = parse_quantity(&field, text, QuantityKind::Length)?;
         initial_height = Some(value);
     }
     let mut layers = options.layers;

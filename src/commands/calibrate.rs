@@ -7,7 +7,7 @@ use rolltriage::calibrate::{
     self, FitOptions, MaterialEntry, MaterialLibrary, PfeifferFit, StackReadOptions, StackTest,
     Weighting,
 };
-use rolltriage::units::{QuantityKind, parse_quantity};
+use rolltriage::units::{QuantityKind, UnitSystem, format_quantity, parse_quantity};
 
 #[derive(Debug, clap::Args)]
 pub struct CalibrateArgs {
@@ -145,13 +145,15 @@ fn run_stack(args: &StackArgs) -> anyhow::Result<()> {
     Ok(())
 }
 
+/// 1 psi in Pa (NIST SP 811: 1 lbf = 4.448 221 615 260 5 N, 1 in = 0.0254 m).
 const PSI: f64 = 4.448_221_615_260_5 / (0.0254 * 0.0254);
 
 fn pressure_text(pa: f64, units: UnitsArg) -> String {
-    match units {
-        UnitsArg::Si => format!("{:.4} kPa", pa / 1e3),
-        UnitsArg::Us => format!("{:.4} psi", pa / PSI),
-    }
+    let system = match units {
+        UnitsArg::Si => UnitSystem::Si,
+        UnitsArg::Us => UnitSystem::Us,
+    };
+    format_quantity(pa, QuantityKind::Stress, system)
 }
 
 /// The fit as a plain-text report: parameters, quality, warnings, residuals.
