@@ -476,18 +476,140 @@ impl Case {
     }
 }
 
+/// A complete starting case for `web` and `core`, as commented YAML: every value written out
+/// with its unit and, in a comment, where it came from. Edit the values you know.
+pub fn starter_yaml(web: &presets::WebPreset, core: &presets::CorePreset) -> String {
+    let q = |value: f64, kind: QuantityKind| format_quantity(value, kind, UnitSystem::Si);
+    let line =
+        |key: &str, value: String, source: &str| format!("  {key}: \"{value}\"  # {source}\n");
+    let plain = |key: &str, value: f64, source: &str| format!("  {key}: {value}  # {source}\n");
+    let mut out = String::new();
+    out.push_str(
+        "# rolltriage case file. Quantities are strings with a unit (\"76 um\", \"1.5 pli\")\n",
+    );
+    out.push_str("# or plain numbers in SI (m, N/m, Pa, m/s). See docs/case-format.md.\n");
+    out.push_str(
+        "# Values below come from generic presets: replace them with your own where you can.\n",
+    );
+    out.push_str("title: New case\n");
+    out.push_str("description: What was seen, on which rolls, since when.\n");
+    out.push_str(&format!("web:\n  preset: {}  # {}\n", web.id, web.name));
+    out.push_str(&format!(
+        "  material: {}  # paper, board, film, foil, nonwoven, laminate\n",
+        web.material
+    ));
+    out.push_str(&line(
+        "thickness",
+        q(web.thickness.value, QuantityKind::Length),
+        web.thickness.source,
+    ));
+    out.push_str(&line(
+        "width",
+        q(presets::DEFAULT_WIDTH.value, QuantityKind::Length),
+        presets::DEFAULT_WIDTH.source,
+    ));
+    out.push_str(&line(
+        "tangential_modulus",
+        q(web.tangential_modulus.value, QuantityKind::Stress),
+        web.tangential_modulus.source,
+    ));
+    out.push_str("  radial_stiffness:  # Pfeiffer (1966): P = K1·(exp(K2·strain) − 1)\n    law: pfeiffer  # pfeiffer, constant or power_law\n");
+    out.push_str(&format!(
+        "  {}",
+        line("k1", q(web.k1.value, QuantityKind::Stress), web.k1.source)
+    ));
+    out.push_str(&format!("  {}", plain("k2", web.k2.value, web.k2.source)));
+    out.push_str(&plain(
+        "poisson_ratio",
+        web.poisson_ratio.value,
+        web.poisson_ratio.source,
+    ));
+    out.push_str(&plain("friction", web.friction.value, web.friction.source));
+    out.push_str(&line(
+        "roughness",
+        q(web.roughness.value, QuantityKind::Length),
+        web.roughness.source,
+    ));
+    out.push_str(&line(
+        "strength",
+        q(web.strength.value, QuantityKind::ForcePerWidth),
+        web.strength.source,
+    ));
+    out.push_str(&format!("core:\n  preset: {}  # {}\n", core.id, core.name));
+    out.push_str(&format!(
+        "  material: {}  # paper, steel, aluminium, plastic, rigid\n",
+        core.material
+    ));
+    out.push_str(&line(
+        "inside_diameter",
+        q(core.inside_diameter.value, QuantityKind::Length),
+        core.inside_diameter.source,
+    ));
+    out.push_str(&line(
+        "outside_diameter",
+        q(core.outside_diameter.value, QuantityKind::Length),
+        core.outside_diameter.source,
+    ));
+    out.push_str(&line(
+        "modulus",
+        q(core.modulus.value, QuantityKind::Stress),
+        core.modulus.source,
+    ));
+    out.push_str(&plain(
+        "poisson_ratio",
+        core.poisson_ratio.value,
+        core.poisson_ratio.source,
+    ));
+    out.push_str(&line(
+        "crush_pressure",
+        q(core.crush_pressure.value, QuantityKind::Stress),
+        core.crush_pressure.source,
+    ));
+    out.push_str("roll:\n");
+    out.push_str(&line(
+        "diameter",
+        q(presets::DEFAULT_ROLL_DIAMETER.value, QuantityKind::Length),
+        "finished roll diameter; or give length instead",
+    ));
+    out.push_str("winding:\n  method: centre  # centre, surface or centre_surface\n");
+    out.push_str(&line(
+        "tension",
+        q(web.typical_tension.value, QuantityKind::ForcePerWidth),
+        web.typical_tension.source,
+    ));
+    out.push_str("  taper:\n    kind: linear  # none, linear, hyperbolic or steps\n    amount: \"20 %\"  # share of the starting tension taken off by the outside\n");
+    out.push_str(
+        "  nip_load: \"0 N/m\"  # rider or lay-on roll load per width; 0 when there is none\n",
+    );
+    out.push_str(&line(
+        "speed",
+        q(presets::DEFAULT_SPEED.value, QuantityKind::Speed),
+        presets::DEFAULT_SPEED.source,
+    ));
+    out.push_str("  # upsets:  # bands wound at a different tension, e.g. after a splice\n");
+    out.push_str(
+        "  #   - {from_diameter: \"600 mm\", to_diameter: \"620 mm\", tension: \"3 pli\"}\n",
+    );
+    out.push_str("symptoms:  # IDs: ");
+    out.push_str(&crate::vocabulary::SYMPTOM_IDS.join(", "));
+    out.push_str("\n  - id: telescoping\n    where: body  # core, body, outside, edges or whole_roll\n    notes: How it looks and how many rolls.\n");
+    out.push_str("notes: Anything else (shift, grade change, splice, storage).\n");
+    out
+}
+
 /// Turn a YAML error into a message with line and column, rewriting serde's wording where a
 /// winder operator would not follow it.
 fn yaml_error(origin: &str, text: &str, error: &yaml::Error) -> CaseError {
     let mut message = error.to_string();
-    let (line, column) = error
-        .location()
-        .map(|l| (l.line(), l.column()))
-        .or_else(|| duplicate_key_location(text, &message))
+    // Some duplicate-key errors come without a usable position (line 1, column 1).
+    let (line, column) = duplicate_key_location(text, &message)
+        .or_else(|| error.location().map(|l| (l.line(), l.column())))
         .unwrap_or((1, 1));
-    // serde_norway appends " at line L column C"; we print the location ourselves.
-    if let Some(at) = message.rfind(" at line ") {
-        message.truncate(at);
+    // serde_norway and libyaml put " at line L column C" into the text; we print the location
+    // ourselves, once.
+    while let Some(at) = message.find(" at line ") {
+        let end = message[at..].find(',').map_or(message.len(), |i| at + i);
+        message.replace_range(at..end, "");
     }
     // "web: unknown field `thikness`, expected one of `preset`, `material`, ..."
     if let Some(at) = message.find("unknown field `") {
@@ -661,8 +783,9 @@ const SPEED: Range = above(0.0, 60.0, QuantityKind::Speed);
 const TEMPERATURE: Range = from(-60.0, 300.0, QuantityKind::Temperature);
 const ACCELERATION: Range = plain_above(0.0, 3600.0);
 const TAPER: Range = from(0.0, 1.0, QuantityKind::Percent);
-/// Layer count above which a roll is refused as absurd (a 5 m roll of 0.5 µm web).
-pub const MAX_LAYERS: f64 = 1e7;
+/// Layer count above which a roll is refused as absurd: two million layers is already a 2 m
+/// roll of 0.5 µm capacitor film.
+pub const MAX_LAYERS: f64 = 2e6;
 
 const WEB_MATERIALS: [&str; 6] = ["paper", "board", "film", "foil", "nonwoven", "laminate"];
 const CORE_MATERIALS: [&str; 5] = ["paper", "steel", "aluminium", "plastic", "rigid"];
@@ -869,12 +992,7 @@ impl Resolver {
             None => {
                 let p =
                     presets::default_web_for_material(web.material.as_deref().unwrap_or("paper"));
-                self.assume(
-                    "web.preset",
-                    p.id.to_string(),
-                    "",
-                    "default preset for the web material; name one with web.preset",
-                );
+                // Not listed itself: every value taken from it names the preset.
                 p
             }
         };
@@ -1092,12 +1210,7 @@ impl Resolver {
             },
             None => {
                 let p = presets::default_core_for(material_given, &web.material, outside_given);
-                self.assume(
-                    "core.preset",
-                    p.id.to_string(),
-                    "",
-                    "default core for the materials and size given; name one with core.preset",
-                );
+                // Not listed itself: every value taken from it names the preset.
                 p
             }
         };
