@@ -23,7 +23,7 @@ fn outcome(path: &Path) -> Result<CaseError, String> {
 
 /// The kind of error a corpus file must produce.
 #[derive(Debug, Clone, Copy)]
-enum Kind {
+enum Expect {
     MissingUnit,
     UnknownUnit,
     WrongKind,
@@ -36,151 +36,155 @@ enum Kind {
     NotUtf8,
 }
 
-fn kind_matches(kind: Kind, error: &CaseError) -> bool {
+fn kind_matches(kind: Expect, error: &CaseError) -> bool {
     match (kind, error) {
-        (Kind::MissingUnit, CaseError::Quantity { source, .. }) => {
+        (Expect::MissingUnit, CaseError::Quantity { source, .. }) => {
             matches!(**source, UnitError::MissingUnit { .. })
         }
-        (Kind::UnknownUnit, CaseError::Quantity { source, .. }) => {
+        (Expect::UnknownUnit, CaseError::Quantity { source, .. }) => {
             matches!(**source, UnitError::UnknownUnit { .. })
         }
-        (Kind::WrongKind, CaseError::Quantity { source, .. }) => {
+        (Expect::WrongKind, CaseError::Quantity { source, .. }) => {
             matches!(**source, UnitError::WrongKind { .. })
         }
-        (Kind::NotANumber, CaseError::Quantity { source, .. }) => {
+        (Expect::NotANumber, CaseError::Quantity { source, .. }) => {
             matches!(**source, UnitError::NotANumber { .. })
         }
-        (Kind::Syntax, CaseError::Syntax { .. })
-        | (Kind::UnknownKey, CaseError::UnknownKey { .. })
-        | (Kind::OutOfRange, CaseError::OutOfRange { .. })
-        | (Kind::UnknownName, CaseError::UnknownName { .. })
-        | (Kind::Invalid, CaseError::Invalid { .. })
-        | (Kind::NotUtf8, CaseError::NotUtf8 { .. }) => true,
+        (Expect::Syntax, CaseError::Syntax { .. })
+        | (Expect::UnknownKey, CaseError::UnknownKey { .. })
+        | (Expect::OutOfRange, CaseError::OutOfRange { .. })
+        | (Expect::UnknownName, CaseError::UnknownName { .. })
+        | (Expect::Invalid, CaseError::Invalid { .. })
+        | (Expect::NotUtf8, CaseError::NotUtf8 { .. }) => true,
         _ => false,
     }
 }
 
 /// (file, kind of error, fragments the message must contain).
-const CORPUS: &[(&str, Kind, &[&str])] = &[
+const CORPUS: &[(&str, Expect, &[&str])] = &[
     // Wrong, missing or unknown units.
     (
         "wrong_unit_thickness.yaml",
-        Kind::WrongKind,
+        Expect::WrongKind,
         &["web.thickness", "76 pli", "a length is needed", "mil"],
     ),
     (
         "tension_in_psi.yaml",
-        Kind::WrongKind,
+        Expect::WrongKind,
         &["winding.tension", "stress or pressure", "pli"],
     ),
     (
         "thickness_without_unit.yaml",
-        Kind::MissingUnit,
+        Expect::MissingUnit,
         &["web.thickness", "has no unit", "um"],
     ),
     (
         "unknown_unit.yaml",
-        Kind::UnknownUnit,
+        Expect::UnknownUnit,
         &["winding.speed", "furlongs", "fpm"],
     ),
     (
         "not_a_number.yaml",
-        Kind::NotANumber,
+        Expect::NotANumber,
         &["web.width", "wide"],
     ),
     // Missing or empty fields, wrong shapes.
     (
         "missing_title.yaml",
-        Kind::Syntax,
+        Expect::Syntax,
         &["missing field `title`"],
     ),
-    ("empty_file.yaml", Kind::Syntax, &["missing field `title`"]),
-    ("empty_title.yaml", Kind::Invalid, &["title is empty"]),
+    (
+        "empty_file.yaml",
+        Expect::Syntax,
+        &["missing field `title`"],
+    ),
+    ("empty_title.yaml", Expect::Invalid, &["title is empty"]),
     (
         "not_a_mapping.yaml",
-        Kind::Syntax,
+        Expect::Syntax,
         &["line 1", "invalid type: sequence"],
     ),
     (
         "two_documents.yaml",
-        Kind::Syntax,
+        Expect::Syntax,
         &["more than one document"],
     ),
     (
         "quantity_wrong_type.yaml",
-        Kind::Syntax,
+        Expect::Syntax,
         &["line 3", "expected a quantity", "76 um"],
     ),
     (
         "yaml_syntax_error.yaml",
-        Kind::Syntax,
+        Expect::Syntax,
         &["line 4, column 1", "flow sequence"],
     ),
     (
         "pfeiffer_missing_k2.yaml",
-        Kind::Invalid,
+        Expect::Invalid,
         &["web.radial_stiffness.k2 is required", "pfeiffer"],
     ),
     (
         "steps_with_linear_kind.yaml",
-        Kind::Invalid,
+        Expect::Invalid,
         &["winding.taper.steps", "kind `steps`"],
     ),
     // Negative, zero and absurd values.
     (
         "negative_thickness.yaml",
-        Kind::OutOfRange,
+        Expect::OutOfRange,
         &["web.thickness = -76 µm", "at least 0.5 µm"],
     ),
     (
         "zero_width.yaml",
-        Kind::OutOfRange,
+        Expect::OutOfRange,
         &["web.width = 0 m", "at least 1 mm"],
     ),
     (
         "negative_friction.yaml",
-        Kind::OutOfRange,
+        Expect::OutOfRange,
         &["web.friction = -0.3", "more than 0"],
     ),
     (
         "absurd_roll_diameter.yaml",
-        Kind::OutOfRange,
+        Expect::OutOfRange,
         &["roll.diameter = 50 m", "at most 5 m"],
     ),
     (
         "absurd_layer_count.yaml",
-        Kind::OutOfRange,
+        Expect::OutOfRange,
         &["roll.diameter", "layers"],
     ),
     (
         "below_absolute_zero.yaml",
-        Kind::OutOfRange,
+        Expect::OutOfRange,
         &["winding.temperature = -300 °C", "-60 °C"],
     ),
     (
         "core_poisson_too_large.yaml",
-        Kind::OutOfRange,
+        Expect::OutOfRange,
         &["core.poisson_ratio = 0.6", "0.49"],
     ),
     (
         "nan_number.yaml",
-        Kind::OutOfRange,
+        Expect::OutOfRange,
         &["web.thickness = NaN", "finite"],
     ),
     (
         "tension_above_strength.yaml",
-        Kind::OutOfRange,
+        Expect::OutOfRange,
         &["winding.tension = 50 kN/m", "web strength", "break"],
     ),
     // Geometry that cannot be.
     (
         "core_bigger_than_roll.yaml",
-        Kind::OutOfRange,
+        Expect::OutOfRange,
         &["roll.diameter = 400 mm", "core is bigger than the roll"],
     ),
     (
         "core_bore_not_smaller.yaml",
-        Kind::OutOfRange,
+        Expect::OutOfRange,
         &[
             "core.inside_diameter",
             "less than the core outside diameter",
@@ -188,12 +192,12 @@ const CORPUS: &[(&str, Kind, &[&str])] = &[
     ),
     (
         "upset_outside_roll.yaml",
-        Kind::OutOfRange,
+        Expect::OutOfRange,
         &["winding.upsets[0].to_diameter = 2 m", "at most 1 m"],
     ),
     (
         "steps_not_ascending.yaml",
-        Kind::OutOfRange,
+        Expect::OutOfRange,
         &[
             "winding.taper.steps[1].from_diameter",
             "from the core outward",
@@ -202,73 +206,73 @@ const CORPUS: &[(&str, Kind, &[&str])] = &[
     // Taper over 100 % and below 0 %.
     (
         "taper_over_100_percent.yaml",
-        Kind::OutOfRange,
+        Expect::OutOfRange,
         &["winding.taper.amount = 120 %", "100 %"],
     ),
     (
         "taper_negative.yaml",
-        Kind::OutOfRange,
+        Expect::OutOfRange,
         &["winding.taper.amount = -10 %", "at least 0 %"],
     ),
     // Unknown keys and names, with the closest valid one suggested.
     (
         "unknown_top_level_key.yaml",
-        Kind::UnknownKey,
+        Expect::UnknownKey,
         &["line 2", "`symptom`", "did you mean `symptoms`"],
     ),
     (
         "unknown_nested_key.yaml",
-        Kind::UnknownKey,
+        Expect::UnknownKey,
         &["line 3", "in winding", "did you mean `tension`"],
     ),
     (
         "unknown_symptom.yaml",
-        Kind::UnknownName,
+        Expect::UnknownName,
         &["symptoms[0].id", "did you mean `telescoping`"],
     ),
     (
         "unknown_place.yaml",
-        Kind::UnknownName,
+        Expect::UnknownName,
         &["symptoms[0].where", "middle", "whole_roll"],
     ),
     (
         "unknown_radial_law.yaml",
-        Kind::UnknownName,
+        Expect::UnknownName,
         &["web.radial_stiffness.law", "did you mean `pfeiffer`"],
     ),
     (
         "unknown_winding_method.yaml",
-        Kind::UnknownName,
+        Expect::UnknownName,
         &["winding.method", "turret", "centre_surface"],
     ),
     (
         "unknown_web_preset.yaml",
-        Kind::UnknownName,
+        Expect::UnknownName,
         &["web.preset", "did you mean `newsprint`"],
     ),
     // Duplicate keys, also where a typed map would silently keep the last one.
     (
         "duplicate_key.yaml",
-        Kind::Syntax,
+        Expect::Syntax,
         &["line 4", "duplicate entry with key \"web\""],
     ),
     (
         "duplicate_answer.yaml",
-        Kind::Syntax,
+        Expect::Syntax,
         &["line 4", "duplicate entry with key \"splice_nearby\""],
     ),
     // Hostile files: alias bomb, deep nesting, not UTF-8.
     (
         "alias_bomb.yaml",
-        Kind::Syntax,
+        Expect::Syntax,
         &["repetition limit exceeded", "alias"],
     ),
     (
         "deep_nesting.yaml",
-        Kind::Syntax,
+        Expect::Syntax,
         &["recursion limit exceeded", "nested too deeply"],
     ),
-    ("not_utf8.yaml", Kind::NotUtf8, &["line 2", "not UTF-8"]),
+    ("not_utf8.yaml", Expect::NotUtf8, &["line 2", "not UTF-8"]),
 ];
 
 #[test]
