@@ -395,3 +395,36 @@ mod never_panics {
         }
     }
 }
+
+/// The YAML parser itself must keep its guards: if a dependency update removed them, these
+/// fail before any case file could exhaust memory or the stack.
+mod parser_limits {
+    #[test]
+    fn alias_expansion_is_limited() {
+        let mut text = String::from("a: &a [x, x, x, x, x, x, x, x, x, x]\n");
+        let mut previous = 'a';
+        for name in "bcdefghij".chars() {
+            let refs = vec![format!("*{previous}"); 10].join(", ");
+            text.push_str(&format!("{name}: &{name} [{refs}]\n"));
+            previous = name;
+        }
+        let error = yaml::from_str::<yaml::Value>(&text).unwrap_err();
+        assert!(
+            error.to_string().contains("repetition limit exceeded"),
+            "{error}"
+        );
+    }
+
+    #[test]
+    fn nesting_depth_is_limited() {
+        let text = format!("{}{}", "[".repeat(10_000), "]".repeat(10_000));
+        let error = yaml::from_str::<yaml::Value>(&text).unwrap_err();
+        assert!(
+            error.to_string().contains("recursion limit exceeded"),
+            "{error}"
+        );
+        // Nesting within the limit is fine.
+        let shallow = format!("{}{}", "[".repeat(100), "]".repeat(100));
+        assert!(yaml::from_str::<yaml::Value>(&shallow).is_ok());
+    }
+}
