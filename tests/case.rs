@@ -348,3 +348,51 @@ fn resolved_case_builds_a_problem() {
     assert_relative_eq!(problem.outer_radius, 0.5, max_relative = 1e-12);
     assert_relative_eq!(problem.thickness, 76e-6, max_relative = 1e-12);
 }
+
+mod properties {
+    use approx::assert_relative_eq;
+    use proptest::prelude::*;
+    use rolltriage::case::Case;
+
+    proptest! {
+        #![proptest_config(ProptestConfig::with_cases(64))]
+
+        /// Diameter → length (L = π(R² − rc²)/h) → diameter returns the diameter.
+        #[test]
+        fn diameter_and_length_are_inverse(
+            thickness_um in 5.0f64..500.0,
+            diameter_mm in 150.0f64..2000.0,
+        ) {
+            let by_diameter = format!(
+                "title: t\nweb: {{thickness: \"{thickness_um} um\"}}\ncore: {{preset: paper_3in}}\nroll: {{diameter: \"{diameter_mm} mm\"}}\n"
+            );
+            let resolved = Case::from_yaml_str(&by_diameter, "p").unwrap().resolve().unwrap();
+            let by_length = format!(
+                "title: t\nweb: {{thickness: \"{thickness_um} um\"}}\ncore: {{preset: paper_3in}}\nroll: {{length: {}}}\n",
+                resolved.roll.length
+            );
+            let back = Case::from_yaml_str(&by_length, "p").unwrap().resolve().unwrap();
+            assert_relative_eq!(back.roll.outer_diameter, diameter_mm / 1000.0, max_relative = 1e-9);
+        }
+
+        /// Save then load gives the same case, whatever the quantities look like.
+        #[test]
+        fn save_load_round_trip(
+            thickness in prop::sample::select(vec!["76 um", "3 mil", "0.08 mm"]),
+            tension in 0.1f64..5.0,
+            taper in 0u32..=100,
+            notes in "[a-zA-Z0-9 .,'\"-]{0,40}",
+        ) {
+            let text = format!(
+                "title: round trip\nweb: {{thickness: \"{thickness}\"}}\nwinding: {{tension: \"{tension} pli\", taper: {{kind: linear, amount: \"{taper} %\"}}}}\nnotes: {notes:?}\n"
+            );
+            let case = Case::from_yaml_str(&text, "p").unwrap();
+            let dir = tempfile::tempdir().unwrap();
+            let path = dir.path().join("c.yaml");
+            case.save(&path).unwrap();
+            let back = Case::load(&path).unwrap();
+            prop_assert_eq!(&back, &case);
+            prop_assert_eq!(back.resolve().unwrap(), case.resolve().unwrap());
+        }
+    }
+}
