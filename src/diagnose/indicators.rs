@@ -230,6 +230,18 @@ pub const INDICATORS: &[IndicatorSpec] = &[
         "web tension at the start of the roll divided by the web thickness",
     ),
     spec(
+        "winding_strain",
+        Dimension::Fraction,
+        ZoneUse::None,
+        "machine-direction strain of the web at winding: web tension / (tangential modulus × thickness)",
+    ),
+    spec(
+        "nip_wit_share",
+        Dimension::Fraction,
+        ZoneUse::None,
+        "share of the wound-in tension that comes from the nip (friction × nip load), 0 without a nip",
+    ),
+    spec(
         "tension_strength_share",
         Dimension::Fraction,
         ZoneUse::None,
@@ -405,6 +417,13 @@ impl Indicators {
         self.set("web_tension", None, tension);
         if thickness > 0.0 {
             self.set("web_stress", None, tension / thickness);
+            if case.web.tangential_modulus > 0.0 {
+                self.set(
+                    "winding_strain",
+                    None,
+                    tension / (thickness * case.web.tangential_modulus),
+                );
+            }
         }
         if case.web.strength > 0.0 {
             self.set("tension_strength_share", None, tension / case.web.strength);
@@ -413,6 +432,11 @@ impl Indicators {
         self.set("nip_load", None, nip);
         if tension > 0.0 {
             self.set("nip_to_tension", None, nip / tension);
+        }
+        // Wound-in tension from the nip ≈ μ·N on top of the web tension (Good, Wu & Fikes 1994).
+        let nip_part = case.web.friction * nip;
+        if tension + nip_part > 0.0 {
+            self.set("nip_wit_share", None, nip_part / (tension + nip_part));
         }
         self.set("taper", None, taper_percent(case));
         if let Some(t) = case.winding.temperature {

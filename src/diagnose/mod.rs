@@ -106,6 +106,26 @@ pub struct DiagnoseOptions {
     pub what_if: bool,
     /// Numerical options of every solve (the case's own and the what-if re-solves).
     pub solver: crate::model::SolverOptions,
+    /// Solver to use instead of `model::solve` (alternative solvers, tests); `None` = the
+    /// crate's solver.
+    pub solve_with: Option<SolveFn>,
+}
+
+/// A stress solver: `model::solve` or a stand-in with the same contract.
+pub type SolveFn =
+    fn(&crate::model::WindingProblem) -> Result<crate::model::Profile, crate::model::ModelError>;
+
+impl DiagnoseOptions {
+    /// Solve `problem` with the configured solver.
+    pub fn solve(
+        &self,
+        problem: &crate::model::WindingProblem,
+    ) -> Result<crate::model::Profile, crate::model::ModelError> {
+        match self.solve_with {
+            Some(f) => f(problem),
+            None => crate::model::solve(problem),
+        }
+    }
 }
 
 /// The observed symptom IDs of a case, deduplicated in case order; unknown IDs are errors with
@@ -195,7 +215,7 @@ pub fn diagnose(
                 &indicators,
                 &causes,
                 remedy,
-                options.solver,
+                options,
             );
         }
     }
@@ -228,7 +248,7 @@ pub fn triage(
     // Check the cheap things before the solve.
     observed_symptoms(rules, case)?;
     check_answers(rules, &case.answers)?;
-    let profile = crate::model::solve(&case.problem(options.solver))?;
+    let profile = options.solve(&case.problem(options.solver))?;
     let diagnosis = diagnose(rules, case, &profile, options)?;
     Ok((profile, diagnosis))
 }

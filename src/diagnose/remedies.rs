@@ -8,7 +8,7 @@ use super::rank::{evaluate, rank};
 use super::rules::{Comparison, RuleBase, SettingChange, Test};
 use super::{MergedRemedy, RankedCause, WhatIf};
 use crate::case::ResolvedCase;
-use crate::model::{CoreStiffness, SolverOptions, Taper, UpsetBand};
+use crate::model::{CoreStiffness, Taper, UpsetBand};
 
 /// A cause counts as likely (its remedies are listed) from this belief up.
 pub const LIKELY_BELIEF: f64 = 0.15;
@@ -211,7 +211,7 @@ pub fn what_if(
     indicators: &Indicators,
     causes: &[RankedCause],
     remedy: &MergedRemedy,
-    solver: SolverOptions,
+    options: &super::DiagnoseOptions,
 ) -> Option<WhatIf> {
     let changes = &rules.remedies.get(&remedy.id)?.changes;
     if changes.is_empty() {
@@ -222,7 +222,7 @@ pub fn what_if(
         .iter()
         .any(|c| !matches!(c, SettingChange::CoreCrushScale(_)));
     let profile = if needs_solve {
-        match crate::model::solve(&changed.problem(solver)) {
+        match options.solve(&changed.problem(options.solver)) {
             Ok(p) => p,
             Err(e) => {
                 return Some(WhatIf {
@@ -235,8 +235,7 @@ pub fn what_if(
             }
         }
     } else {
-        // Only the rating changes: the stress state is the same, re-use the case's profile
-        // figures by recomputing from an unchanged solve is unnecessary.
+        // Only the rating changes: the stress state is the same, no re-solve needed.
         return Some(rating_only(case, &changed, indicators, remedy, causes));
     };
     let after_indicators = Indicators::compute(&changed, &profile);

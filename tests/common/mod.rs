@@ -12,7 +12,7 @@ use std::collections::BTreeMap;
 
 use rolltriage::case::{ObservedSymptom, ResolvedCase, ResolvedCore, ResolvedRoll, ResolvedWeb, ResolvedWinding};
 use rolltriage::model::{
-    CoreStiffness, Profile, ProfileSummary, RadialStiffness, Taper, TensionSchedule, UpsetBand,
+    CoreStiffness, ModelError, WindingProblem, Profile, ProfileSummary, RadialStiffness, Taper, TensionSchedule, UpsetBand,
     WindingMethod, Zone, ZoneName,
 };
 
@@ -30,8 +30,8 @@ pub fn newsprint(title: &str) -> ResolvedCase {
             poisson_ratio: 0.01,
             friction: 0.4,
             roughness: 3.0e-6,
-            // ~2.2 kN/m machine-direction tensile strength (from memory for 45 g/m² newsprint).
-            strength: 2200.0,
+            // ~2.7 kN/m machine-direction tensile strength (tensile index ~60 N·m/g × 45 g/m², from memory).
+            strength: 2700.0,
         },
         core: paper_core(0.0762, 0.1016, 2.0e9, 2.5e6),
         roll: ResolvedRoll {
@@ -45,7 +45,7 @@ pub fn newsprint(title: &str) -> ResolvedCase {
                 taper: Taper::Linear { fraction: 0.2 },
                 upsets: vec![],
             },
-            nip_load: Some(1750.0),
+            nip_load: Some(350.0),
             speed: 15.0,
             temperature: None,
             acceleration_time: None,
@@ -67,8 +67,8 @@ pub fn pet_film(title: &str) -> ResolvedCase {
             width: 1.2,
             tangential_modulus: 4.5e9,
             radial_stiffness: RadialStiffness::Pfeiffer {
-                k1: 20.0e3,
-                k2: 300.0,
+                k1: 30.0e3,
+                k2: 120.0,
             },
             poisson_ratio: 0.01,
             friction: 0.35,
@@ -88,7 +88,7 @@ pub fn pet_film(title: &str) -> ResolvedCase {
                 taper: Taper::Linear { fraction: 0.25 },
                 upsets: vec![],
             },
-            nip_load: Some(900.0),
+            nip_load: Some(350.0),
             speed: 4.0,
             temperature: Some(25.0),
             acceleration_time: None,
@@ -152,13 +152,17 @@ pub fn upset(mut case: ResolvedCase, from_d: f64, to_d: f64, tension: f64) -> Re
 /// The stress profile of a case: the crate's solver, or the stand-alone fallback while the
 /// solver is not implemented.
 pub fn profile(case: &ResolvedCase) -> Profile {
-    let problem = case.problem(Default::default());
-    match rolltriage::model::solve(&problem) {
-        Ok(p) => p,
-        Err(rolltriage::model::ModelError::NotConverged(m)) if m.contains("not implemented") => {
-            fallback_solve(case, 400)
+    solve(&case.problem(Default::default())).expect("solve")
+}
+
+/// Same contract as `model::solve`; falls back to [`fallback_solve`] while the crate's solver is
+/// not implemented.
+pub fn solve(problem: &WindingProblem) -> Result<Profile, ModelError> {
+    match rolltriage::model::solve(problem) {
+        Err(ModelError::NotConverged(m)) if m.contains("not implemented") => {
+            Ok(fallback_solve(problem, 300))
         }
-        Err(e) => panic!("solve failed: {e}"),
+        other => other,
     }
 }
 
@@ -185,21 +189,79 @@ fn scheduled_tension(s: &TensionSchedule, rc: f64, ro: f64, r: f64) -> f64 {
     }
 }
 
-/// Stand-alone grouped-layer Hakiel solve with `elements` elements (explicit Er update).
-pub fn fallback_solve(case: &ResolvedCase, elements: usize) -> Profile {
-    let rc = case.core.outside_diameter / 2.0;
-    let ro = case.roll.outer_diameter / 2.0;
-    let h = case.web.thickness;
+fn strain_of(law: &RadialStiffness, p: f64) -> f64 {
+    match *law {
+        RadialStiffness::Pfeiffer { k1, k2 } => (1.0 + p.max(0.0) / k1).ln() / k2,
+        RadialStiffness::Constant { modulus } => p / modulus,
+        RadialStiffness::PowerLaw { .. } => 0.0,
+    }
+}
+
+/// Secant radial modulus between pressures `p0` and `p1` (tangent when they coincide).
+fn secant_modulus(law: &RadialStiffness, p0: f64, p1: f64) -> f64 {
+    if p1 - p0 > 1e-9 * (1.0 + p0) {
+        let de = strain_of(law, p1) - strain_of(law, p0);
+        if de > 0.0 {
+            return ((p1 - p0) / de).max(1.0);
+        }
+    }
+    law.modulus_at(p0).max(1.0)
+}
+
+/// One accretion increment on nodes `0..=k` (node k is the new outer element).
+fn solve_increment(radius: &[f64], er: &[f64], e_t: f64, core_term: f64, dr: f64, load: f64) -> Vec<f64> {
+    let n = radius.len();
+    let k = n - 1;
+    let mut a = vec![0.0; n];
+    let mut b = vec![0.0; n];
+    let mut c = vec![0.0; n];
+    let mut d = vec![0.0; n];
+    for i in 0..k {
+        let r = radius[i];
+        let g2 = e_t / er[i];
+        let lo = r * r / (dr * dr) - 3.0 * r / (2.0 * dr);
+        let mid = -2.0 * r * r / (dr * dr) + (1.0 - g2);
+        let hi = r * r / (dr * dr) + 3.0 * r / (2.0 * dr);
+        if i == 0 {
+            // Ghost node from r·p' = c·p: p(−1) = p(1) − 2·dr·c·p(0)/r.
+            b[0] = mid - lo * 2.0 * dr * core_term / r;
+            c[0] = hi + lo;
+        } else {
+            a[i] = lo;
+            b[i] = mid;
+            c[i] = hi;
+        }
+    }
+    b[k] = 1.0;
+    d[k] = load;
+    for i in 1..n {
+        let w = a[i] / b[i - 1];
+        b[i] -= w * c[i - 1];
+        d[i] -= w * d[i - 1];
+    }
+    let mut x = vec![0.0; n];
+    x[n - 1] = d[n - 1] / b[n - 1];
+    for i in (0..n - 1).rev() {
+        x[i] = (d[i] - c[i] * x[i + 1]) / b[i];
+    }
+    x
+}
+
+/// Stand-alone grouped-layer Hakiel solve with `elements` elements (secant Er over each increment).
+pub fn fallback_solve(problem: &WindingProblem, elements: usize) -> Profile {
+    let rc = problem.core_radius;
+    let ro = problem.outer_radius;
+    let h = problem.thickness;
     let layers = ((ro - rc) / h).round().max(1.0) as usize;
     let m = elements.min(layers).max(2);
     let dr = (ro - rc) / m as f64;
     let layers_per = layers as f64 / m as f64;
-    let e_t = case.web.tangential_modulus;
-    let nu = case.web.poisson_ratio;
-    let ec = case.core.stiffness.effective_stiffness();
+    let e_t = problem.tangential_modulus;
+    let nu = problem.poisson_ratio;
+    let ec = problem.core.effective_stiffness();
     let core_term = if ec.is_finite() { e_t / ec } else { 0.0 } - 1.0 + nu;
-    let friction = case.web.friction;
-    let nip = case.winding.nip_load.unwrap_or(0.0);
+    let friction = problem.winding.friction;
+    let nip = problem.winding.nip_load.unwrap_or(0.0);
     let radius: Vec<f64> = (0..=m).map(|i| rc + i as f64 * dr).collect();
     let mut p = vec![0.0; m + 1];
     let mut sigma_t = vec![0.0; m + 1];
@@ -207,7 +269,7 @@ pub fn fallback_solve(case: &ResolvedCase, elements: usize) -> Profile {
     // Node 0 is the first wrap on the core.
     for k in 1..=m {
         // Wound-in tension of the new element: web tension plus the nip-induced part μ·N.
-        let t_web = scheduled_tension(&case.winding.tension, rc, ro, radius[k]);
+        let t_web = scheduled_tension(&problem.winding.tension, rc, ro, radius[k]);
         let t_wit = t_web + friction * nip;
         wit[k] = t_wit;
         sigma_t[k] = t_wit / h;
@@ -215,41 +277,14 @@ pub fn fallback_solve(case: &ResolvedCase, elements: usize) -> Profile {
             wit[0] = t_wit;
             sigma_t[0] = t_wit / h;
         }
-        // Solve r² δp'' + 3r δp' + (1 − g²) δp = 0 on nodes 0..=k with δp(k) = N·T/r.
-        let n = k + 1;
-        let mut a = vec![0.0; n];
-        let mut b = vec![0.0; n];
-        let mut c = vec![0.0; n];
-        let mut d = vec![0.0; n];
-        for i in 0..k {
-            let r = radius[i];
-            let er = case.web.radial_stiffness.modulus_at(p[i]).max(1.0);
-            let g2 = e_t / er;
-            let lo = r * r / (dr * dr) - 3.0 * r / (2.0 * dr);
-            let mid = -2.0 * r * r / (dr * dr) + (1.0 - g2);
-            let hi = r * r / (dr * dr) + 3.0 * r / (2.0 * dr);
-            if i == 0 {
-                // Ghost node from r·p' = c·p: p(−1) = p(1) − 2·dr·c·p(0)/r.
-                b[0] = mid - lo * 2.0 * dr * core_term / r;
-                c[0] = hi + lo;
-            } else {
-                a[i] = lo;
-                b[i] = mid;
-                c[i] = hi;
-            }
-        }
-        b[k] = 1.0;
-        d[k] = layers_per * t_wit / radius[k];
-        // Thomas algorithm.
-        for i in 1..n {
-            let w = a[i] / b[i - 1];
-            b[i] -= w * c[i - 1];
-            d[i] -= w * d[i - 1];
-        }
-        let mut dp = vec![0.0; n];
-        dp[n - 1] = d[n - 1] / b[n - 1];
-        for i in (0..n - 1).rev() {
-            dp[i] = (d[i] - c[i] * dp[i + 1]) / b[i];
+        // Solve r² δp'' + 3r δp' + (1 − g²) δp = 0 on nodes 0..=k with δp(k) = N·T/r, with
+        // Er taken as the secant modulus over the increment (two fixed-point passes).
+        let mut dp: Vec<f64> = vec![0.0; k + 1];
+        for _pass in 0..3 {
+            let er: Vec<f64> = (0..=k)
+                .map(|i| secant_modulus(&problem.radial_stiffness, p[i], p[i] + dp[i].max(0.0)))
+                .collect();
+            dp = solve_increment(&radius[..=k], &er, e_t, core_term, dr, layers_per * t_wit / radius[k]);
         }
         for i in 0..k {
             let deriv = if i == 0 {
@@ -260,16 +295,9 @@ pub fn fallback_solve(case: &ResolvedCase, elements: usize) -> Profile {
             p[i] += dp[i];
             sigma_t[i] -= dp[i] + radius[i] * deriv;
         }
+        p[k] += dp[k];
     }
-    p[m] = 0.0;
-    let radial_strain: Vec<f64> = p
-        .iter()
-        .map(|&pi| match case.web.radial_stiffness {
-            RadialStiffness::Pfeiffer { k1, k2 } => (1.0 + pi / k1).ln() / k2,
-            RadialStiffness::Constant { modulus } => pi / modulus,
-            RadialStiffness::PowerLaw { .. } => 0.0,
-        })
-        .collect();
+    let radial_strain: Vec<f64> = p.iter().map(|&pi| strain_of(&problem.radial_stiffness, pi)).collect();
     let cuts = [0.0, 0.05, 0.3, 0.7, 0.95, 1.0001];
     let zones = ZoneName::ALL
         .iter()
