@@ -245,6 +245,8 @@ pub struct App {
     pub status: Option<String>,
     /// Spinner frame counter.
     pub tick: u64,
+    /// First line shown in the help popup.
+    pub help_scroll: u16,
     pub should_quit: bool,
     /// Whether a report can be exported from the UI.
     pub can_export: bool,
@@ -286,6 +288,7 @@ impl App {
             running_what_if: None,
             status: None,
             tick: 0,
+            help_scroll: 0,
             should_quit: false,
             can_export: false,
             requests: Vec::new(),
@@ -527,7 +530,10 @@ impl App {
             Key::BackTab if self.inputs.editing.is_none() => {
                 return self.go_to(self.screen.previous());
             }
-            Key::F(1) => return self.popup = Some(Popup::Help),
+            Key::F(1) => {
+                self.help_scroll = 0;
+                return self.popup = Some(Popup::Help);
+            }
             Key::F(n @ 2..=5) => return self.go_to(Screen::ALL[usize::from(n - 2)]),
             Key::Ctrl('s') => return self.save(),
             Key::Ctrl('q') | Key::Ctrl('c') => return self.ask(PendingAction::Quit),
@@ -547,7 +553,10 @@ impl App {
         }
         if !self.is_typing() {
             match key {
-                Key::Char('?') => return self.popup = Some(Popup::Help),
+                Key::Char('?') => {
+                    self.help_scroll = 0;
+                    return self.popup = Some(Popup::Help);
+                }
                 Key::Char('q') => return self.ask(PendingAction::Quit),
                 _ => {}
             }
@@ -636,6 +645,14 @@ impl App {
         };
         match popup {
             Popup::Help => {
+                match key {
+                    Key::Up => self.help_scroll = self.help_scroll.saturating_sub(1),
+                    Key::Down => self.help_scroll = self.help_scroll.saturating_add(1).min(60),
+                    Key::PageUp => self.help_scroll = self.help_scroll.saturating_sub(10),
+                    Key::PageDown => self.help_scroll = self.help_scroll.saturating_add(10).min(60),
+                    Key::Home => self.help_scroll = 0,
+                    _ => {}
+                }
                 if !matches!(
                     key,
                     Key::Esc | Key::F(1) | Key::Char('?') | Key::Char('q') | Key::Enter
@@ -1256,7 +1273,7 @@ impl App {
     /// Keys for the always-visible help line: (key, what it does), most useful first.
     pub fn key_hints(&self) -> Vec<(&'static str, &'static str)> {
         let mut hints: Vec<(&'static str, &'static str)> = match self.popup {
-            Some(Popup::Help) => vec![("Esc", "close help")],
+            Some(Popup::Help) => vec![("↑↓ PgUp PgDn", "scroll"), ("Esc", "close help")],
             Some(Popup::Confirm(_)) => {
                 vec![("s", "save first"), ("d", "discard"), ("Esc", "cancel")]
             }
@@ -1271,39 +1288,26 @@ impl App {
             }
             None => match self.screen {
                 Screen::Symptoms => match self.symptoms.focus {
-                    SymptomFocus::List => vec![
-                        ("type", "search"),
-                        ("↑↓", "move"),
-                        ("Enter", "pick"),
-                        ("→", "where/questions"),
-                    ],
+                    SymptomFocus::List => {
+                        vec![("type", "search"), ("↑↓ Enter", "pick"), ("→", "details")]
+                    }
                     SymptomFocus::Details => vec![
                         ("↑↓", "row"),
-                        ("←→", "change"),
+                        ("←→", "set"),
                         ("y/n/u", "answer"),
                         ("Esc", "back"),
                     ],
                 },
                 Screen::Inputs => match self.inputs.editing {
-                    Some(_) => vec![
-                        ("type", "value+unit"),
-                        ("Enter", "accept"),
-                        ("Esc", "cancel"),
-                    ],
+                    Some(_) => vec![("type", "value+unit"), ("Enter", "ok"), ("Esc", "cancel")],
                     None => vec![
-                        ("↑↓", "field"),
-                        ("type/Enter", "edit"),
+                        ("↑↓", "move"),
+                        ("type", "edit"),
                         ("←→", "choose"),
                         ("Del", "clear"),
-                        ("^L", "load file"),
                     ],
                 },
-                Screen::Results => vec![
-                    ("↑↓", "move"),
-                    ("←→", "causes/remedies"),
-                    ("Enter", "reasons/try"),
-                    ("^R", "re-solve"),
-                ],
+                Screen::Results => vec![("↑↓", "move"), ("←→", "pane"), ("Enter", "reasons/try")],
                 Screen::WhatIf => vec![
                     ("↑↓", "setting"),
                     ("←→", "change"),
@@ -1314,7 +1318,7 @@ impl App {
         };
         if self.popup.is_none() {
             hints.extend([
-                ("Tab", "screen"),
+                ("Tab", "screens"),
                 ("F1", "help"),
                 ("^S", "save"),
                 ("^Q", "quit"),

@@ -12,19 +12,8 @@ use crate::tui::fields::{self, FIELDS, FieldKind};
 use crate::tui::theme::Theme;
 
 fn accepted_text(kind: FieldKind) -> String {
-    use crate::units::QuantityKind as Q;
     match kind {
-        FieldKind::Quantity(q) => match q {
-            Q::Length => "m, mm, um, in, mil, ft",
-            Q::ForcePerWidth => "N/m, kN/m, pli",
-            Q::Stress => "Pa, kPa, MPa, GPa, psi, ksi",
-            Q::Speed => "m/s, m/min, fpm, ft/min",
-            Q::Force => "N, kN, lbf",
-            Q::Torque => "N·m, lbf·ft, lbf·in",
-            Q::Temperature => "°C, K, °F",
-            Q::Percent => "%, or a fraction",
-        }
-        .to_string(),
+        FieldKind::Quantity(q) => q.accepted().to_string(),
         FieldKind::Number { min, max } => format!("a plain number {min}…{max}"),
         FieldKind::Choice(options) => format!("←→: {}", options.join(" / ")),
         FieldKind::Preset(_) => "←→ through the presets, or type an ID".to_string(),
@@ -38,15 +27,16 @@ pub fn render(app: &App, theme: Theme, area: Rect, buf: &mut Buffer) {
     let inner_height = usize::from(table.height.saturating_sub(2)).max(1);
     // The error line under the selected field takes one row.
     let room = if state.error.is_some() {
-        inner_height.saturating_sub(1).max(1)
+        inner_height.saturating_sub(2).max(1)
     } else {
         inner_height
     };
     let first = state.selected.saturating_sub(room - 1);
     let label_width = 18;
-    let value_width = usize::from(table.width)
-        .saturating_sub(label_width + 14)
-        .clamp(10, 60);
+    // group (8) + label + two spaces + tag (8) inside the borders.
+    let value_width = usize::from(table.width.saturating_sub(2))
+        .saturating_sub(8 + label_width + 2 + 8)
+        .clamp(8, 60);
     let mut lines = Vec::new();
     let mut last_group = "";
     for (row, spec) in FIELDS.iter().enumerate().skip(first).take(room) {
@@ -100,6 +90,7 @@ pub fn render(app: &App, theme: Theme, area: Rect, buf: &mut Buffer) {
         }
     }
     Paragraph::new(lines)
+        .wrap(Wrap { trim: false })
         .block(Block::bordered().title(" Roll and winding inputs — entered, assumed or blank "))
         .render(table, buf);
 

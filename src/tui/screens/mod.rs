@@ -64,7 +64,7 @@ impl Widget for AppView<'_> {
         if let Some(running) = app.running_baseline.or(app.running_what_if) {
             let frame = SPINNER[(app.tick as usize) % SPINNER.len()];
             right.push_str(&format!(
-                "{frame} solving {:>3.0}%  ",
+                "{frame} solving{:>4.0}%  ",
                 running.fraction * 100.0
             ));
         }
@@ -73,10 +73,10 @@ impl Widget for AppView<'_> {
             .as_ref()
             .and_then(|p| p.file_name())
             .map(|n| n.to_string_lossy().into_owned())
-            .unwrap_or_else(|| "unsaved case".into());
+            .unwrap_or_else(|| "new case".into());
         right.push_str(&name);
         if app.dirty {
-            right.push_str(" (modified)");
+            right.push_str(" *changed");
         }
         let tabs_width: usize = tab_labels().iter().map(|l| l.chars().count() + 1).sum();
         let room = usize::from(header.width).saturating_sub(tabs_width + 1);

@@ -17,15 +17,20 @@ pub fn render(app: &App, popup: &Popup, theme: Theme, area: Rect, buf: &mut Buff
                 lines.push(Line::from(Span::styled(section, theme.title())));
                 for (key, what) in keys {
                     lines.push(Line::from(vec![
-                        Span::styled(format!("  {key:<22}"), theme.key()),
+                        Span::styled(format!("  {key:<24}"), theme.key()),
                         Span::raw(what),
                     ]));
                 }
             }
-            let rect = centred(area, 78, area.height.saturating_sub(2));
+            let rect = centred(area, 80, area.height.saturating_sub(2));
+            let room = usize::from(rect.height.saturating_sub(2));
+            let last_start = lines.len().saturating_sub(room) as u16;
+            let scroll = app.help_scroll.min(last_start);
+            let more = if scroll < last_start { " ↓ more" } else { "" };
             Clear.render(rect, buf);
             Paragraph::new(lines)
-                .block(Block::bordered().title(" Keys — Esc closes "))
+                .scroll((scroll, 0))
+                .block(Block::bordered().title(format!(" Keys — ↑↓ scroll, Esc closes{more} ")))
                 .render(rect, buf);
         }
         Popup::Confirm(action) => {

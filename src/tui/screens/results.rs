@@ -297,7 +297,7 @@ fn render_causes(app: &App, diagnosis: &Diagnosis, theme: Theme, area: Rect, buf
     Paragraph::new(lines)
         .wrap(Wrap { trim: false })
         .scroll((scroll_for(target, height), 0))
-        .block(Block::bordered().title(" Ranked causes — Enter shows reasons "))
+        .block(Block::bordered().title(" Ranked causes "))
         .render(area, buf);
 }
 
@@ -384,6 +384,6 @@ fn render_remedies(app: &App, diagnosis: &Diagnosis, theme: Theme, area: Rect, b
     Paragraph::new(lines)
         .wrap(Wrap { trim: false })
         .scroll((scroll_for(target, height), 0))
-        .block(Block::bordered().title(" Remedies, in the order to try — Enter tries one "))
+        .block(Block::bordered().title(" Remedies, in the order to try "))
         .render(area, buf);
 }

@@ -27,7 +27,7 @@ pub fn render(app: &App, theme: Theme, area: Rect, buf: &mut Buffer) {
         Span::styled("› ", theme.key()),
         Span::raw(format!("{}{cursor}", state.query)),
     ]))
-    .block(Block::bordered().title(" Find a symptom (type a name or a word you use) "))
+    .block(Block::bordered().title(" Find a symptom "))
     .render(search, buf);
 
     // Keep the highlighted row in view.
@@ -103,9 +103,9 @@ fn render_details(app: &App, theme: Theme, area: Rect, buf: &mut Buffer) {
     let state = &app.symptoms;
     let details_focus = state.focus == SymptomFocus::Details;
     let block = Block::bordered().title(if details_focus {
-        " About this symptom — ←→ change the highlighted row "
+        " About this symptom — ←→ changes the row "
     } else {
-        " About this symptom — → to say where and answer "
+        " About this symptom "
     });
     let Some(symptom) = app.highlighted_symptom() else {
         Paragraph::new("").block(block).render(area, buf);

@@ -54,7 +54,7 @@ pub fn comparison(
             change(sb.peak_pressure, sa.peak_pressure),
         ],
         [
-            "most compressive σθ".into(),
+            "lowest σθ".into(),
             compact_stress(sb.min_tangential_stress, units),
             compact_stress(sa.min_tangential_stress, units),
             change(sb.min_tangential_stress, sa.min_tangential_stress),
@@ -99,7 +99,7 @@ pub fn comparison(
             rows.insert(
                 3 + i,
                 [
-                    format!("belief: {}", cause.title),
+                    format!("belief {}", cause.id),
                     format!("{:.0}%", cause.belief * 100.0),
                     format!("{:.0}%", after_belief * 100.0),
                     format!("{:+.0} pts", (after_belief - cause.belief) * 100.0),
@@ -190,18 +190,24 @@ pub fn render(app: &App, theme: Theme, area: Rect, buf: &mut Buffer) {
     if let (Some(before), Some(after)) = (before, after) {
         let rows = comparison(before, after, app.units);
         let width = usize::from(compare.width.saturating_sub(2));
-        let name_width = width.saturating_sub(34).clamp(12, 40);
+        let name_width = width.saturating_sub(28).clamp(10, 48);
         text.push(Line::from(Span::styled(
             format!(
-                "{:<name_width$} {:>10} {:>10} {:>8}",
+                "{:<name_width$} {:>9} {:>9} {:>7}",
                 "", "before", "after", "change"
             ),
             theme.dim(),
         )));
         for [name, b, a, c] in rows {
-            let name: String = name.chars().take(name_width).collect();
+            let name: String = if name.chars().count() > name_width {
+                let mut short: String = name.chars().take(name_width - 1).collect();
+                short.push('…');
+                short
+            } else {
+                name
+            };
             text.push(Line::from(format!(
-                "{name:<name_width$} {b:>10} {a:>10} {c:>8}"
+                "{name:<name_width$} {b:>9} {a:>9} {c:>7}"
             )));
         }
     }
