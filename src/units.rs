@@ -1,5 +1,20 @@
 //! Quantities with units at the edges, SI inside: parse "2.5 pli", "48 mil", "1200 fpm",
 //! "60 psi" and print values in SI or US trade units.
+//!
+//! Conventions:
+//! - Every kind returns its SI value (m, N/m, Pa, m/s, N, N·m), except temperature, which is
+//!   returned in degrees Celsius (the case and the model store °C; differences equal kelvin),
+//!   and percent, which is returned as a fraction (`"25 %"` → 0.25).
+//! - Text must carry a unit. A bare number in text is [`UnitError::MissingUnit`], except a bare
+//!   `0` (zero is zero in every unit; not for temperature) and a bare number for
+//!   [`QuantityKind::Percent`], which is read as a fraction (`0.25`).
+//! - A plain YAML number (not a string) in a case file is SI by contract; that is handled by
+//!   `case::QuantityText::Number`, not here.
+//! - Unit symbols are matched without regard to case (`"mpa"` is MPa: milli-pascal is not a
+//!   unit anyone uses for a web, so there is no ambiguity among the accepted symbols).
+//!
+//! Conversion factors are the exact or rounded values of NIST Special Publication 811 (2008),
+//! Appendix B (the tests check each against it).
 
 /// The physical kind a field expects; decides which units are accepted.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
@@ -20,6 +35,48 @@ pub enum QuantityKind {
     Temperature,
     /// %, or a plain fraction
     Percent,
+}
+
+impl QuantityKind {
+    /// Every kind, in a stable order.
+    pub const ALL: [QuantityKind; 8] = [
+        QuantityKind::Length,
+        QuantityKind::ForcePerWidth,
+        QuantityKind::Stress,
+        QuantityKind::Speed,
+        QuantityKind::Force,
+        QuantityKind::Torque,
+        QuantityKind::Temperature,
+        QuantityKind::Percent,
+    ];
+
+    /// Plain-words name used in messages ("a length", "a stress or pressure").
+    pub fn name(self) -> &'static str {
+        match self {
+            QuantityKind::Length => "length",
+            QuantityKind::ForcePerWidth => "force per width (tension, nip load)",
+            QuantityKind::Stress => "stress or pressure",
+            QuantityKind::Speed => "speed",
+            QuantityKind::Force => "force",
+            QuantityKind::Torque => "torque",
+            QuantityKind::Temperature => "temperature",
+            QuantityKind::Percent => "percentage",
+        }
+    }
+
+    /// The unit symbols accepted for this kind, for messages and help text.
+    pub fn accepted(self) -> &'static str {
+        match self {
+            QuantityKind::Length => "m, cm, mm, um (µm), in, mil, ft",
+            QuantityKind::ForcePerWidth => "N/m, N/mm, kN/m, pli (lbf/in)",
+            QuantityKind::Stress => "Pa, kPa, MPa, GPa, N/mm2, bar, psi, ksi",
+            QuantityKind::Speed => "m/s, m/min, fpm (ft/min), ft/s",
+            QuantityKind::Force => "N, kN, lbf",
+            QuantityKind::Torque => "N·m (N m, Nm), kN·m, lbf·ft, lbf·in",
+            QuantityKind::Temperature => "°C (C, degC), K, °F (F, degF)",
+            QuantityKind::Percent => "% (or a plain fraction such as 0.25)",
+        }
+    }
 }
 
 /// Which unit system to print in.
@@ -61,18 +118,393 @@ pub enum UnitError {
     },
 }
 
-/// Parse `text` as a quantity of `kind` for the field `field`; returns the SI value.
-pub fn parse_quantity(field: &str, text: &str, kind: QuantityKind) -> Result<f64, UnitError> {
-    let _ = kind;
-    Err(UnitError::NotANumber {
-        field: field.to_string(),
-        given: text.to_string(),
-        accepted: "not implemented yet".into(),
-    })
+// NIST SP 811 (2008), Appendix B.8/B.9 factors.
+/// 1 in = 0.0254 m exactly.
+pub const METRES_PER_INCH: f64 = 0.0254;
+/// 1 ft = 0.3048 m exactly.
+pub const METRES_PER_FOOT: f64 = 0.3048;
+/// 1 mil = 0.001 in = 2.54e-5 m exactly.
+pub const METRES_PER_MIL: f64 = 2.54e-5;
+/// 1 lbf = 4.448 221 615 260 5 N (standard gravity times the avoirdupois pound, exact).
+pub const NEWTONS_PER_POUND_FORCE: f64 = 4.448_221_615_260_5;
+/// 1 pli = 1 lbf/in.
+pub const NEWTONS_PER_METRE_PER_PLI: f64 = NEWTONS_PER_POUND_FORCE / METRES_PER_INCH;
+/// 1 psi = 1 lbf/in².
+pub const PASCALS_PER_PSI: f64 = NEWTONS_PER_POUND_FORCE / (METRES_PER_INCH * METRES_PER_INCH);
+/// 1 ft/min = 0.00508 m/s exactly.
+pub const METRES_PER_SECOND_PER_FPM: f64 = METRES_PER_FOOT / 60.0;
+
+/// How a unit maps to the internal value: `internal = given · factor + offset`.
+struct Unit {
+    symbols: &'static [&'static str],
+    kind: QuantityKind,
+    factor: f64,
+    offset: f64,
 }
 
-/// Format an SI value of `kind` in `system` with a sensible number of digits and its unit.
+const fn unit(symbols: &'static [&'static str], kind: QuantityKind, factor: f64) -> Unit {
+    Unit {
+        symbols,
+        kind,
+        factor,
+        offset: 0.0,
+    }
+}
+
+/// Every accepted unit. Symbols are compared after lower-casing and removing spaces, `·`, `*`,
+/// `-` between the factors of a product unit (so "N·m", "N m", "N-m" and "Nm" are one unit).
+const UNITS: &[Unit] = &[
+    // Length
+    unit(
+        &["m", "metre", "metres", "meter", "meters"],
+        QuantityKind::Length,
+        1.0,
+    ),
+    unit(&["cm"], QuantityKind::Length, 0.01),
+    unit(&["mm"], QuantityKind::Length, 0.001),
+    unit(
+        &["um", "µm", "μm", "micron", "microns"],
+        QuantityKind::Length,
+        1e-6,
+    ),
+    unit(&["nm"], QuantityKind::Length, 1e-9),
+    unit(
+        &["in", "inch", "inches", "\""],
+        QuantityKind::Length,
+        METRES_PER_INCH,
+    ),
+    unit(
+        &["mil", "mils", "thou"],
+        QuantityKind::Length,
+        METRES_PER_MIL,
+    ),
+    unit(
+        &["ft", "foot", "feet", "'"],
+        QuantityKind::Length,
+        METRES_PER_FOOT,
+    ),
+    // Force per width
+    unit(&["n/m"], QuantityKind::ForcePerWidth, 1.0),
+    unit(&["n/mm"], QuantityKind::ForcePerWidth, 1000.0),
+    unit(&["n/cm"], QuantityKind::ForcePerWidth, 100.0),
+    unit(&["kn/m"], QuantityKind::ForcePerWidth, 1000.0),
+    unit(
+        &["pli", "lbf/in", "lb/in", "lbs/in"],
+        QuantityKind::ForcePerWidth,
+        NEWTONS_PER_METRE_PER_PLI,
+    ),
+    // Stress and pressure
+    unit(&["pa", "n/m2", "n/m²"], QuantityKind::Stress, 1.0),
+    unit(&["kpa"], QuantityKind::Stress, 1e3),
+    unit(&["mpa", "n/mm2", "n/mm²"], QuantityKind::Stress, 1e6),
+    unit(&["gpa"], QuantityKind::Stress, 1e9),
+    // NIST SP 811 B.8: 1 bar = 1e5 Pa exactly.
+    unit(&["bar"], QuantityKind::Stress, 1e5),
+    unit(
+        &["psi", "lbf/in2", "lbf/in²"],
+        QuantityKind::Stress,
+        PASCALS_PER_PSI,
+    ),
+    unit(&["ksi"], QuantityKind::Stress, 1e3 * PASCALS_PER_PSI),
+    // Speed
+    unit(&["m/s"], QuantityKind::Speed, 1.0),
+    unit(&["m/min", "mpm"], QuantityKind::Speed, 1.0 / 60.0),
+    unit(
+        &["fpm", "ft/min", "feet/min"],
+        QuantityKind::Speed,
+        METRES_PER_SECOND_PER_FPM,
+    ),
+    unit(&["ft/s", "fps"], QuantityKind::Speed, METRES_PER_FOOT),
+    // Force
+    unit(&["n", "newton", "newtons"], QuantityKind::Force, 1.0),
+    unit(&["kn"], QuantityKind::Force, 1e3),
+    unit(&["lbf"], QuantityKind::Force, NEWTONS_PER_POUND_FORCE),
+    // Torque (the product symbols lose their separators before matching)
+    unit(&["nm"], QuantityKind::Torque, 1.0),
+    unit(&["knm"], QuantityKind::Torque, 1e3),
+    unit(
+        &["lbfft", "ftlbf", "lbft", "ftlb"],
+        QuantityKind::Torque,
+        NEWTONS_PER_POUND_FORCE * METRES_PER_FOOT,
+    ),
+    unit(
+        &["lbfin", "inlbf", "lbin", "inlb"],
+        QuantityKind::Torque,
+        NEWTONS_PER_POUND_FORCE * METRES_PER_INCH,
+    ),
+    // Temperature, returned in °C.
+    unit(
+        &["°c", "ºc", "c", "degc", "celsius"],
+        QuantityKind::Temperature,
+        1.0,
+    ),
+    Unit {
+        symbols: &["k", "kelvin"],
+        kind: QuantityKind::Temperature,
+        factor: 1.0,
+        offset: -273.15,
+    },
+    // NIST SP 811 B.9: t/°C = (t/°F − 32)/1.8
+    Unit {
+        symbols: &["°f", "ºf", "f", "degf", "fahrenheit"],
+        kind: QuantityKind::Temperature,
+        factor: 1.0 / 1.8,
+        offset: -32.0 / 1.8,
+    },
+    // Percent, returned as a fraction.
+    unit(&["%", "percent", "pct"], QuantityKind::Percent, 0.01),
+];
+
+/// Normalise a unit symbol for lookup: lower case, no spaces or product separators.
+/// "nm" is both nanometre (length) and newton-metre (torque); the lookup prefers the unit of the
+/// kind the field expects, so "12 nm" is a torque in a torque field and a length elsewhere.
+fn normalise_unit(unit: &str) -> String {
+    unit.trim()
+        .to_lowercase()
+        .chars()
+        .filter(|c| !matches!(c, ' ' | '·' | '⋅' | '*' | '-' | '\u{a0}' | '.'))
+        .collect()
+}
+
+fn find_unit(symbol: &str, expected: QuantityKind) -> Option<&'static Unit> {
+    let matches = |u: &&Unit| u.symbols.iter().any(|s| normalise_unit(s) == symbol);
+    UNITS
+        .iter()
+        .filter(|u| u.kind == expected)
+        .find(matches)
+        .or_else(|| UNITS.iter().find(matches))
+}
+
+/// Split "12.5e-3 mm" into its number text and unit text. `None` when it does not start with a
+/// plain decimal number (no "inf", "NaN", hex or thousands separators).
+fn split_number(text: &str) -> Option<(&str, &str)> {
+    let bytes = text.as_bytes();
+    let mut i = 0;
+    if i < bytes.len() && (bytes[i] == b'+' || bytes[i] == b'-') {
+        i += 1;
+    }
+    let digits_start = i;
+    while i < bytes.len() && bytes[i].is_ascii_digit() {
+        i += 1;
+    }
+    let mut digits = i - digits_start;
+    if i < bytes.len() && bytes[i] == b'.' {
+        i += 1;
+        let fraction_start = i;
+        while i < bytes.len() && bytes[i].is_ascii_digit() {
+            i += 1;
+        }
+        digits += i - fraction_start;
+    }
+    if digits == 0 {
+        return None;
+    }
+    // An exponent only when followed by digits, so "5 e" stays a (bad) unit.
+    if i < bytes.len() && (bytes[i] == b'e' || bytes[i] == b'E') {
+        let mut j = i + 1;
+        if j < bytes.len() && (bytes[j] == b'+' || bytes[j] == b'-') {
+            j += 1;
+        }
+        let exponent_start = j;
+        while j < bytes.len() && bytes[j].is_ascii_digit() {
+            j += 1;
+        }
+        if j > exponent_start {
+            i = j;
+        }
+    }
+    Some((&text[..i], &text[i..]))
+}
+
+/// Parse `text` as a quantity of `kind` for the field `field`; returns the SI value (°C for
+/// temperature, a fraction for percent; see the module docs).
+pub fn parse_quantity(field: &str, text: &str, kind: QuantityKind) -> Result<f64, UnitError> {
+    let trimmed = text.trim();
+    let not_a_number = || UnitError::NotANumber {
+        field: field.to_string(),
+        given: text.to_string(),
+        accepted: kind.accepted().to_string(),
+    };
+    let (number_text, unit_text) = split_number(trimmed).ok_or_else(not_a_number)?;
+    let number: f64 = number_text.parse().map_err(|_| not_a_number())?;
+    if !number.is_finite() {
+        return Err(not_a_number());
+    }
+    let symbol = normalise_unit(unit_text);
+    if symbol.is_empty() {
+        return match kind {
+            QuantityKind::Percent => Ok(number),
+            QuantityKind::Temperature => Err(UnitError::MissingUnit {
+                field: field.to_string(),
+                given: text.to_string(),
+                accepted: kind.accepted().to_string(),
+            }),
+            _ if number == 0.0 => Ok(0.0),
+            _ => Err(UnitError::MissingUnit {
+                field: field.to_string(),
+                given: text.to_string(),
+                accepted: kind.accepted().to_string(),
+            }),
+        };
+    }
+    let Some(found) = find_unit(&symbol, kind) else {
+        return Err(UnitError::UnknownUnit {
+            field: field.to_string(),
+            given: text.to_string(),
+            unit: unit_text.trim().to_string(),
+            accepted: kind.accepted().to_string(),
+        });
+    };
+    if found.kind != kind {
+        return Err(UnitError::WrongKind {
+            field: field.to_string(),
+            given: text.to_string(),
+            found: found.kind.name().to_string(),
+            expected: kind.name().to_string(),
+            accepted: kind.accepted().to_string(),
+        });
+    }
+    let value = number * found.factor + found.offset;
+    if !value.is_finite() {
+        return Err(not_a_number());
+    }
+    Ok(value)
+}
+
+/// Round to four significant digits and drop trailing zeros: 0.0760 → "0.076", 1234.5 → "1235".
+fn format_number(value: f64) -> String {
+    if value == 0.0 || !value.is_finite() {
+        return format!("{}", if value == 0.0 { 0.0 } else { value });
+    }
+    let magnitude = value.abs().log10().floor() as i32;
+    if !(-4..=9).contains(&magnitude) {
+        // Far from the usual sizes: scientific notation keeps four significant digits.
+        let text = format!("{value:.3e}");
+        let (mantissa, exponent) = text.split_once('e').unwrap_or((&text, "0"));
+        let mantissa = mantissa.trim_end_matches('0').trim_end_matches('.');
+        return format!("{mantissa}e{exponent}");
+    }
+    let decimals = (3 - magnitude).max(0) as usize;
+    let mut text = format!("{value:.decimals$}");
+    if text.contains('.') {
+        while text.ends_with('0') {
+            text.pop();
+        }
+        if text.ends_with('.') {
+            text.pop();
+        }
+    }
+    if text == "-0" {
+        text = "0".into();
+    }
+    text
+}
+
+/// Pick the display unit for `value` (internal units) and return (scaled value, symbol).
+fn display_unit(value: f64, kind: QuantityKind, system: UnitSystem) -> (f64, &'static str) {
+    let size = value.abs();
+    match (kind, system) {
+        (QuantityKind::Length, UnitSystem::Si) => {
+            if size == 0.0 || size >= 1.0 {
+                (value, "m")
+            } else if size >= 1e-3 {
+                (value * 1e3, "mm")
+            } else {
+                (value * 1e6, "µm")
+            }
+        }
+        (QuantityKind::Length, UnitSystem::Us) => {
+            // Caliper in mil, everything else (cores, roll diameters, widths) in inches.
+            if size != 0.0 && size < 0.1 * METRES_PER_INCH {
+                (value / METRES_PER_MIL, "mil")
+            } else {
+                (value / METRES_PER_INCH, "in")
+            }
+        }
+        (QuantityKind::ForcePerWidth, UnitSystem::Si) => {
+            if size >= 1e4 {
+                (value / 1e3, "kN/m")
+            } else {
+                (value, "N/m")
+            }
+        }
+        (QuantityKind::ForcePerWidth, UnitSystem::Us) => (value / NEWTONS_PER_METRE_PER_PLI, "pli"),
+        (QuantityKind::Stress, UnitSystem::Si) => {
+            if size >= 1e9 {
+                (value / 1e9, "GPa")
+            } else if size >= 1e6 {
+                (value / 1e6, "MPa")
+            } else if size >= 1e3 {
+                (value / 1e3, "kPa")
+            } else {
+                (value, "Pa")
+            }
+        }
+        (QuantityKind::Stress, UnitSystem::Us) => {
+            if size >= 1e4 * PASCALS_PER_PSI {
+                (value / (1e3 * PASCALS_PER_PSI), "ksi")
+            } else {
+                (value / PASCALS_PER_PSI, "psi")
+            }
+        }
+        // Winders read line speed per minute in both systems.
+        (QuantityKind::Speed, UnitSystem::Si) => (value * 60.0, "m/min"),
+        (QuantityKind::Speed, UnitSystem::Us) => (value / METRES_PER_SECOND_PER_FPM, "fpm"),
+        (QuantityKind::Force, UnitSystem::Si) => {
+            if size >= 1e4 {
+                (value / 1e3, "kN")
+            } else {
+                (value, "N")
+            }
+        }
+        (QuantityKind::Force, UnitSystem::Us) => (value / NEWTONS_PER_POUND_FORCE, "lbf"),
+        (QuantityKind::Torque, UnitSystem::Si) => (value, "N·m"),
+        (QuantityKind::Torque, UnitSystem::Us) => (
+            value / (NEWTONS_PER_POUND_FORCE * METRES_PER_FOOT),
+            "lbf·ft",
+        ),
+        (QuantityKind::Temperature, UnitSystem::Si) => (value, "°C"),
+        (QuantityKind::Temperature, UnitSystem::Us) => (value * 1.8 + 32.0, "°F"),
+        (QuantityKind::Percent, _) => (value * 100.0, "%"),
+    }
+}
+
+/// Format an internal value of `kind` (SI; °C for temperature; a fraction for percent) in
+/// `system` with four significant digits and its unit. The text parses back with
+/// [`parse_quantity`].
 pub fn format_quantity(value: f64, kind: QuantityKind, system: UnitSystem) -> String {
-    let _ = (kind, system);
-    format!("{value}")
+    let (scaled, symbol) = display_unit(value, kind, system);
+    format!("{} {symbol}", format_number(scaled))
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn splits_numbers_and_units() {
+        assert_eq!(split_number("12.5e-3 mm"), Some(("12.5e-3", " mm")));
+        assert_eq!(split_number(".5in"), Some((".5", "in")));
+        assert_eq!(split_number("5 e"), Some(("5", " e")));
+        assert_eq!(split_number("inf m"), None);
+        assert_eq!(split_number("-.e3"), None);
+    }
+
+    #[test]
+    fn nm_is_torque_in_a_torque_field_and_length_elsewhere() {
+        let torque = parse_quantity("t", "12 Nm", QuantityKind::Torque).unwrap();
+        assert_eq!(torque, 12.0);
+        let length = parse_quantity("l", "12 nm", QuantityKind::Length).unwrap();
+        assert!((length - 12e-9).abs() < 1e-20);
+    }
+
+    #[test]
+    fn format_trims_to_four_digits() {
+        assert_eq!(format_number(0.076), "0.076");
+        assert_eq!(format_number(1234.56), "1235");
+        assert_eq!(format_number(-0.0001234567), "-0.0001235");
+        assert_eq!(format_number(-0.00001234567), "-1.235e-5");
+        assert_eq!(format_number(2.0e12), "2e12");
+        assert_eq!(format_number(0.0), "0");
+    }
 }
