@@ -598,6 +598,18 @@ fn window_layers(problem: &WindingProblem) -> usize {
     (layers as usize).clamp(WINDOW_MIN, WINDOW_MAX)
 }
 
+/// Per-wrap window (wraps) for a wrap at `radius` under `pressure`: a few decay lengths
+/// λ = r·√(Er(P)/Eθ).
+/// Never more than needed to reach elements that resolve the surface decay length, i.e. at
+/// most max(3·λ(0), 2 elements).
+fn window_at(problem: &WindingProblem, radius: f64, pressure: f64, group: usize) -> usize {
+    let g = problem.tangential_modulus / problem.radial_stiffness.modulus_at(pressure);
+    let decay = radius / g.max(1.0).sqrt();
+    let layers = (WINDOW_DECAY_LENGTHS * decay / problem.thickness).ceil() as usize;
+    let cap = window_layers(problem).max(2 * group);
+    layers.min(cap).clamp(WINDOW_MIN, WINDOW_MAX)
+}
+
 /// Wraps per increment in grouped resolution (see [`BATCH_DECAY_SHARE`]).
 fn batch_layers(problem: &WindingProblem) -> usize {
     let g = problem.tangential_modulus / problem.radial_stiffness.modulus_at(0.0);
@@ -617,7 +629,7 @@ fn run(
     let h = problem.thickness;
     let rc = problem.core_radius;
     let outer = rc + layers as f64 * h;
-    let window = if group > 1 { window_layers(problem) } else { 0 };
+    let mut window = if group > 1 { window_layers(problem) } else { 0 };
     let capacity = layers.div_ceil(group) + 2 * window + 2;
     let mut solver = Solver::new(problem, capacity);
     let winding = &problem.winding;
@@ -655,11 +667,20 @@ fn run(
             solver.pressure[first_node + (wrap - layer)] += above;
         }
         layer = end;
-        if group > 1 && solver.len() > compacted_to + 2 * window {
-            // Wraps more than `window` below the top leave the per-wrap window.
-            let until = solver.len() - window;
+        if group > 1 && solver.len() > compacted_to + window + window / 4 + 1 {
+            // Wraps more than `window` below the top leave the per-wrap window. The window
+            // follows the decay length at the pressure its deepest wrap has reached (Er grows
+            // with pressure, so increments reach deeper as the wraps settle).
+            let bottom = solver.len() - 1 - window;
+            window = window_at(
+                problem,
+                solver.radius[bottom],
+                solver.pressure[bottom],
+                group,
+            );
+            let until = solver.len().saturating_sub(window).max(compacted_to);
             solver.compact(compacted_to, until);
-            compacted_to = solver.len() - window;
+            compacted_to = solver.len().saturating_sub(window).max(1);
         }
         if layer >= next_report {
             next_report += report_every;
