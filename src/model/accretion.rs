@@ -43,7 +43,7 @@ pub const SKIP_THRESHOLD: f64 = 1e-13;
 
 /// Convergence tolerance of the iterated and secant modulus updates, relative to the
 /// increment's outer load.
-pub const MODULUS_TOLERANCE: f64 = 1e-10;
+pub const MODULUS_TOLERANCE: f64 = 1e-7;
 
 /// Iteration cap of the modulus update of one increment.
 pub const MAX_MODULUS_ITERATIONS: usize = 60;
