@@ -934,7 +934,13 @@ impl Resolver {
             return Err(self.invalid("title is empty; give the case a short title"));
         }
         let web = self.web(&case.web)?;
+        if case.web.preset.is_none() {
+            self.note_default_preset("web", web.preset.as_deref());
+        }
         let core = self.core(&case.core, &web)?;
+        if case.core.preset.is_none() {
+            self.note_default_preset("core", core.preset.as_deref());
+        }
         let roll = self.roll(&case.roll, &web, &core)?;
         let winding = self.winding(&case.winding, &web, &core, &roll)?;
         for (index, symptom) in case.symptoms.iter().enumerate() {
@@ -969,6 +975,26 @@ impl Resolver {
         })
     }
 
+    /// A preset chosen by default is listed as assumed only when some value actually came from
+    /// it, so a case that gives every value resolves with nothing assumed.
+    fn note_default_preset(&mut self, section: &str, id: Option<&str>) {
+        let Some(id) = id else { return };
+        let from = format!("preset {id}:");
+        let prefix = format!("{section}.");
+        let used = self
+            .assumed
+            .iter()
+            .any(|a| a.field.starts_with(&prefix) && a.source.starts_with(&from));
+        if used {
+            self.assume(
+                &format!("{section}.preset"),
+                id.to_string(),
+                "",
+                &format!("default {section} preset for the material and size given; name one with {section}.preset"),
+            );
+        }
+    }
+
     fn web(&mut self, web: &WebInput) -> Result<ResolvedWeb, CaseError> {
         if let Some(material) = &web.material
             && !WEB_MATERIALS.contains(&material.as_str())
@@ -989,12 +1015,7 @@ impl Resolver {
                     return Err(self.unknown_name("web.preset", "web preset", id, &ids));
                 }
             },
-            None => {
-                let p =
-                    presets::default_web_for_material(web.material.as_deref().unwrap_or("paper"));
-                // Not listed itself: every value taken from it names the preset.
-                p
-            }
+            None => presets::default_web_for_material(web.material.as_deref().unwrap_or("paper")),
         };
         let from = format!("preset {}", preset.id);
         let material = match &web.material {
@@ -1208,11 +1229,7 @@ impl Resolver {
                     return Err(self.unknown_name("core.preset", "core preset", id, &ids));
                 }
             },
-            None => {
-                let p = presets::default_core_for(material_given, &web.material, outside_given);
-                // Not listed itself: every value taken from it names the preset.
-                p
-            }
+            None => presets::default_core_for(material_given, &web.material, outside_given),
         };
         if let Some(m) = material_given
             && m != "rigid"
@@ -1526,7 +1543,7 @@ impl Resolver {
         let taper = match &winding.taper {
             None => {
                 self.assume(
-                    "winding.taper",
+                    "winding.taper.kind",
                     "none".to_string(),
                     "",
                     "default: constant tension",
