@@ -644,10 +644,17 @@ fn yaml_error(origin: &str, text: &str, error: &yaml::Error) -> CaseError {
             };
         }
     }
-    if message.contains("did not match any variant of untagged enum QuantityText") {
-        message = message.replace(
-            "data did not match any variant of untagged enum QuantityText",
-            "expected a quantity: a string with its unit such as \"76 um\" or \"2 pli\", or a plain number in SI units",
+    const UNTAGGED: &str = "data did not match any variant of untagged enum QuantityText";
+    if let Some(at) = message.find(UNTAGGED) {
+        // The parser loses the field name here but points at its key: read it from the text.
+        let section = message[..at].trim_end_matches(": ").trim().to_string();
+        let field = match key_at(text, line, column) {
+            Some(key) if section.is_empty() => key,
+            Some(key) => format!("{section}.{key}"),
+            None => section,
+        };
+        message = format!(
+            "{field}: expected a quantity: a string with its unit such as \"76 um\" or \"2 pli\", or a plain number in SI units"
         );
     }
     if message.contains("repetition limit exceeded") {
@@ -662,6 +669,15 @@ fn yaml_error(origin: &str, text: &str, error: &yaml::Error) -> CaseError {
         column,
         message,
     }
+}
+
+/// The mapping key starting at 1-based `line`, `column`, if there is one.
+fn key_at(text: &str, line: usize, column: usize) -> Option<String> {
+    let row = text.lines().nth(line.checked_sub(1)?)?;
+    let rest = row.get(column.checked_sub(1)?..)?;
+    let key = rest.split(':').next()?.trim();
+    let plain = !key.is_empty() && key.chars().all(|c| c.is_ascii_alphanumeric() || c == '_');
+    plain.then(|| key.to_string())
 }
 
 /// The parser reports some duplicate keys without a position: find the second line that
