@@ -98,7 +98,7 @@ pub enum DiagnoseError {
 }
 
 /// Options of a diagnosis.
-#[derive(Debug, Clone, PartialEq, Default)]
+#[derive(Debug, Clone, Default)]
 pub struct DiagnoseOptions {
     /// Keep at most this many causes (0 = all with positive belief).
     pub top: usize,
@@ -114,6 +114,17 @@ pub struct DiagnoseOptions {
 /// A stress solver: `model::solve` or a stand-in with the same contract.
 pub type SolveFn =
     fn(&crate::model::WindingProblem) -> Result<crate::model::Profile, crate::model::ModelError>;
+
+impl PartialEq for DiagnoseOptions {
+    // Function pointers have no meaningful identity; two options are equal when they agree on
+    // everything else and on whether a stand-in solver is set.
+    fn eq(&self, other: &Self) -> bool {
+        self.top == other.top
+            && self.what_if == other.what_if
+            && self.solver == other.solver
+            && self.solve_with.is_some() == other.solve_with.is_some()
+    }
+}
 
 impl DiagnoseOptions {
     /// Solve `problem` with the configured solver.

@@ -10,10 +10,12 @@
 
 use std::collections::BTreeMap;
 
-use rolltriage::case::{ObservedSymptom, ResolvedCase, ResolvedCore, ResolvedRoll, ResolvedWeb, ResolvedWinding};
+use rolltriage::case::{
+    ObservedSymptom, ResolvedCase, ResolvedCore, ResolvedRoll, ResolvedWeb, ResolvedWinding,
+};
 use rolltriage::model::{
-    CoreStiffness, ModelError, WindingProblem, Profile, ProfileSummary, RadialStiffness, Taper, TensionSchedule, UpsetBand,
-    WindingMethod, Zone, ZoneName,
+    CoreStiffness, ModelError, Profile, ProfileSummary, RadialStiffness, Taper, TensionSchedule,
+    UpsetBand, WindingMethod, WindingProblem, Zone, ZoneName,
 };
 
 /// Newsprint-like paper, 45 g/m², 75 µm; values typical of the grade (from memory).
@@ -26,7 +28,10 @@ pub fn newsprint(title: &str) -> ResolvedCase {
             thickness: 75e-6,
             width: 1.6,
             tangential_modulus: 4.0e9,
-            radial_stiffness: RadialStiffness::Pfeiffer { k1: 5.0e3, k2: 60.0 },
+            radial_stiffness: RadialStiffness::Pfeiffer {
+                k1: 5.0e3,
+                k2: 60.0,
+            },
             poisson_ratio: 0.01,
             friction: 0.4,
             roughness: 3.0e-6,
@@ -182,8 +187,7 @@ fn scheduled_tension(s: &TensionSchedule, rc: f64, ro: f64, r: f64) -> f64 {
         Taper::Hyperbolic { fraction } => t0 * (1.0 - fraction * (1.0 - rc / r)),
         Taper::Steps { steps } => steps
             .iter()
-            .filter(|st| st.radius <= r)
-            .next_back()
+            .rfind(|st| st.radius <= r)
             .map(|st| st.tension)
             .unwrap_or(t0),
     }
@@ -209,7 +213,14 @@ fn secant_modulus(law: &RadialStiffness, p0: f64, p1: f64) -> f64 {
 }
 
 /// One accretion increment on nodes `0..=k` (node k is the new outer element).
-fn solve_increment(radius: &[f64], er: &[f64], e_t: f64, core_term: f64, dr: f64, load: f64) -> Vec<f64> {
+fn solve_increment(
+    radius: &[f64],
+    er: &[f64],
+    e_t: f64,
+    core_term: f64,
+    dr: f64,
+    load: f64,
+) -> Vec<f64> {
     let n = radius.len();
     let k = n - 1;
     let mut a = vec![0.0; n];
@@ -284,7 +295,14 @@ pub fn fallback_solve(problem: &WindingProblem, elements: usize) -> Profile {
             let er: Vec<f64> = (0..=k)
                 .map(|i| secant_modulus(&problem.radial_stiffness, p[i], p[i] + dp[i].max(0.0)))
                 .collect();
-            dp = solve_increment(&radius[..=k], &er, e_t, core_term, dr, layers_per * t_wit / radius[k]);
+            dp = solve_increment(
+                &radius[..=k],
+                &er,
+                e_t,
+                core_term,
+                dr,
+                layers_per * t_wit / radius[k],
+            );
         }
         for i in 0..k {
             let deriv = if i == 0 {
@@ -297,7 +315,10 @@ pub fn fallback_solve(problem: &WindingProblem, elements: usize) -> Profile {
         }
         p[k] += dp[k];
     }
-    let radial_strain: Vec<f64> = p.iter().map(|&pi| strain_of(&problem.radial_stiffness, pi)).collect();
+    let radial_strain: Vec<f64> = p
+        .iter()
+        .map(|&pi| strain_of(&problem.radial_stiffness, pi))
+        .collect();
     let cuts = [0.0, 0.05, 0.3, 0.7, 0.95, 1.0001];
     let zones = ZoneName::ALL
         .iter()
@@ -350,4 +371,56 @@ pub fn fallback_solve(problem: &WindingProblem, elements: usize) -> Profile {
         air_film: None,
         warnings: vec![],
     }
+}
+
+/// Always the stand-alone solve (snapshots stay stable whatever the crate's solver does).
+pub fn fallback_only(problem: &WindingProblem) -> Result<Profile, ModelError> {
+    Ok(fallback_solve(problem, 300))
+}
+
+/// The Harbour Point W3 telescoping demo (cases/harbour_newsprint_telescoping.yaml) built in
+/// Rust: 76 µm newsprint at 0.5 pli, no taper, rider nearly lifted, 900 m/min.
+pub fn harbour_telescoping_demo() -> ResolvedCase {
+    let mut case = newsprint("Harbour Point PM3 newsprint — telescoped reels for Quaymoor Press");
+    case.web.thickness = 76e-6;
+    case.web.width = 1.68;
+    case.web.tangential_modulus = 4.8e9;
+    case.web.radial_stiffness = RadialStiffness::Pfeiffer {
+        k1: 5.0e3,
+        k2: 50.0,
+    };
+    case.web.friction = 0.45;
+    case.web.strength = 2400.0;
+    case.core = paper_core(0.0762, 0.1016, 1.2e9, 4.0e6);
+    case.winding.method = WindingMethod::CentreSurface;
+    case.winding.tension.start_tension = 87.6;
+    case.winding.tension.taper = Taper::None;
+    case.winding.nip_load = Some(150.0);
+    case.winding.speed = 15.0;
+    at(with_symptoms(case, &["telescoping"]), "telescoping", "body")
+}
+
+/// The coated-paper starring + crushed core demo (cases/harbour_coated_starring_no_taper.yaml)
+/// built in Rust: 55 µm coated paper, 3.5 pli constant tension, 1400 mm roll.
+pub fn harbour_coated_no_taper_demo() -> ResolvedCase {
+    let mut case = newsprint("Harbour Point coated paper — starred rolls with crushed cores");
+    case.web.thickness = 55e-6;
+    case.web.width = 1.45;
+    case.web.tangential_modulus = 6.0e9;
+    case.web.radial_stiffness = RadialStiffness::Pfeiffer {
+        k1: 30.0e3,
+        k2: 80.0,
+    };
+    case.web.friction = 0.35;
+    case.web.roughness = 1.0e-6;
+    case.web.strength = 3000.0;
+    case.core = paper_core(0.0762, 0.1016, 1.2e9, 4.0e6);
+    case.roll.outer_diameter = 1.4;
+    case.winding.method = WindingMethod::CentreSurface;
+    case.winding.tension.start_tension = 613.0;
+    case.winding.tension.taper = Taper::None;
+    case.winding.nip_load = Some(1000.0);
+    case.winding.speed = 20.0;
+    let case = with_symptoms(case, &["starring", "crushed_core"]);
+    at(at(case, "starring", "core"), "crushed_core", "core")
 }
