@@ -49,6 +49,8 @@ pub fn prepare(
         &DiagnoseOptions {
             top: 0,
             what_if: true,
+            solver: options.solver,
+            ..DiagnoseOptions::default()
         },
     )?;
     let remedy = match &options.remedy {
