@@ -227,14 +227,25 @@ fn causes_expand_and_remedies_lead_to_what_if() {
     app.resolved = Ok(resolved("Sample"));
     app.handle_key(Key::Enter);
     assert_eq!(app.screen, Screen::WhatIf);
-    let change = app.what_if.change.unwrap();
-    assert_eq!(change.setting, Setting::Tension);
-    assert_eq!(change.steps, 1);
-    // "store_rolls_on_end" is not a winder setting.
-    assert_eq!(
-        rolltriage::tui::app::remedy_change("store_rolls_on_end"),
-        None
-    );
+    assert_eq!(app.what_if.remedy.as_deref(), Some("raise_tension"));
+    // The trial solves the resolved case with the rule's change: tension ×1.15.
+    let request = app
+        .take_requests()
+        .into_iter()
+        .find(|r| r.purpose == Purpose::WhatIf)
+        .unwrap();
+    let trial = request
+        .resolved
+        .expect("remedy trials carry the changed resolved case");
+    assert!((trial.winding.tension.start_tension - 525.0 * 1.15).abs() < 1e-9);
+    // Keeping it writes the new tension into the case.
+    app.handle_key(Key::Char('a'));
+    match app.case.winding.tension {
+        Some(rolltriage::case::QuantityText::Number(v)) => assert!((v - 603.75).abs() < 1e-9),
+        ref other => panic!("unexpected tension {other:?}"),
+    }
+    // "store_rolls_on_end" changes no winder setting.
+    assert!(!app.remedy_is_tryable("store_rolls_on_end"));
 }
 
 #[test]
@@ -432,4 +443,20 @@ fn help_line_fits_80_columns_on_every_screen() {
     app.handle_key(Key::F(3));
     app.handle_key(Key::Char('3'));
     check(&app);
+}
+
+#[test]
+fn a_blank_case_shows_preset_values_as_assumed_not_entered() {
+    let app = app();
+    // The case layer resolves a blank case from presets and defaults; every field it fills
+    // is listed as assumed, and the form shows it so.
+    let resolved = app
+        .resolved
+        .as_ref()
+        .expect("a blank case resolves from presets");
+    assert!(!resolved.assumed.is_empty());
+    for field in ["web.thickness", "winding.method"] {
+        assert!(app.assumed(field).is_some(), "{field} should be assumed");
+        assert_eq!(rolltriage::tui::fields::get(&app.case, field), None);
+    }
 }

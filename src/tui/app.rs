@@ -3,7 +3,9 @@
 //! can be tested without a terminal. Solves are not run here — the app queues [`JobRequest`]s
 //! that the runtime hands to the background job.
 
-use std::collections::BTreeSet;
+use std::collections::{BTreeMap, BTreeSet};
+
+use crate::diagnose::rules::SettingChange as RuleChange;
 use std::path::{Path, PathBuf};
 
 use crate::case::{Case, ObservedSymptom, QuantityText, ResolvedCase, TaperInput};
@@ -198,6 +200,8 @@ pub struct WhatIfState {
     /// 0..5 = settings, 5.. = remedies that change a setting.
     pub row: usize,
     pub change: Option<SettingChange>,
+    /// A remedy being tried instead (its changes come from the rule base).
+    pub remedy: Option<String>,
     /// Plain words for the change ("Web tension 525 N/m → 578 N/m").
     pub description: Option<String>,
     pub outcome: Option<(u64, Box<SolveOutcome>)>,
@@ -248,6 +252,8 @@ pub struct App {
     /// First line shown in the help popup.
     pub help_scroll: u16,
     pub should_quit: bool,
+    /// Setting changes of each remedy, from the rule base (what the what-if applies).
+    pub remedy_changes: BTreeMap<String, Vec<RuleChange>>,
     /// Whether a report can be exported from the UI.
     pub can_export: bool,
     requests: Vec<JobRequest>,
@@ -291,6 +297,7 @@ impl App {
             help_scroll: 0,
             should_quit: false,
             can_export: false,
+            remedy_changes: BTreeMap::new(),
             requests: Vec::new(),
             next_job_id: 1,
         };
@@ -388,6 +395,10 @@ impl App {
     }
 
     fn queue(&mut self, purpose: Purpose, case: Case) {
+        self.queue_resolved(purpose, case, None);
+    }
+
+    fn queue_resolved(&mut self, purpose: Purpose, case: Case, resolved: Option<ResolvedCase>) {
         let id = self.next_job_id;
         self.next_job_id += 1;
         let running = Some(Running {
@@ -404,6 +415,7 @@ impl App {
             purpose,
             generation: self.generation,
             case,
+            resolved: resolved.map(Box::new),
         });
     }
 
@@ -861,7 +873,11 @@ impl App {
             return;
         };
         if self.symptoms.detail_row == 0 {
-            let places: Vec<String> = PLACES.iter().map(|p| p.to_string()).collect();
+            let places: Vec<String> = if symptom.places.is_empty() {
+                PLACES.iter().map(|p| p.to_string()).collect()
+            } else {
+                symptom.places.clone()
+            };
             let current = self
                 .case
                 .symptoms
@@ -1049,15 +1065,13 @@ impl App {
                         .and_then(|d| d.remedies.get(self.results.remedy))
                         .map(|r| r.id.clone());
                     if let Some(id) = remedy {
-                        match remedy_change(&id) {
-                            Some(change) => {
-                                self.go_to(Screen::WhatIf);
-                                self.set_what_if(change);
-                            }
-                            None => {
-                                self.status =
-                                    Some(format!("{id}: not a winder setting the what-if can try"))
-                            }
+                        if self.remedy_is_tryable(&id) {
+                            self.go_to(Screen::WhatIf);
+                            self.try_remedy(&id);
+                        } else {
+                            self.status = Some(format!(
+                                "{id}: not a winder setting change the what-if can try"
+                            ));
                         }
                     }
                 }
@@ -1069,14 +1083,22 @@ impl App {
 
     // ----- what-if -------------------------------------------------------------------------
 
-    /// Remedies in the current diagnosis that map to a setting change.
-    pub fn what_if_remedies(&self) -> Vec<(String, String, SettingChange)> {
+    /// True when the rule base gives `remedy` a machine-readable setting change.
+    pub fn remedy_is_tryable(&self, remedy: &str) -> bool {
+        self.remedy_changes
+            .get(remedy)
+            .is_some_and(|changes| !changes.is_empty())
+    }
+
+    /// Remedies in the current diagnosis that change a winder setting: (ID, text).
+    pub fn what_if_remedies(&self) -> Vec<(String, String)> {
         self.latest_outcome()
             .and_then(|o| o.diagnosis.as_ref().ok())
             .map(|d| {
                 d.remedies
                     .iter()
-                    .filter_map(|r| remedy_change(&r.id).map(|c| (r.id.clone(), r.text.clone(), c)))
+                    .filter(|r| self.remedy_is_tryable(&r.id))
+                    .map(|r| (r.id.clone(), r.text.clone()))
                     .collect()
             })
             .unwrap_or_default()
@@ -1101,13 +1123,11 @@ impl App {
                     }
                 }
             }
-            Key::Enter => {
+            Key::Enter if self.what_if.row >= Setting::ALL.len() => {
                 let remedies = self.what_if_remedies();
-                if let Some((_, _, change)) =
-                    remedies.get(self.what_if.row.saturating_sub(Setting::ALL.len()))
-                    && self.what_if.row >= Setting::ALL.len()
-                {
-                    self.set_what_if(*change);
+                if let Some((id, _)) = remedies.get(self.what_if.row - Setting::ALL.len()) {
+                    let id = id.clone();
+                    self.try_remedy(&id);
                 }
             }
             Key::Char('r') | Key::Esc => self.clear_what_if(),
@@ -1118,6 +1138,7 @@ impl App {
 
     fn clear_what_if(&mut self) {
         self.what_if.change = None;
+        self.what_if.remedy = None;
         self.what_if.description = None;
         self.what_if.outcome = None;
         self.what_if.error = None;
@@ -1127,6 +1148,7 @@ impl App {
     /// Apply `change` to a copy of the case and queue its solve.
     pub fn set_what_if(&mut self, change: SettingChange) {
         self.what_if.change = Some(change);
+        self.what_if.remedy = None;
         if let Some(row) = Setting::ALL.iter().position(|s| *s == change.setting)
             && self.what_if.row < Setting::ALL.len()
         {
@@ -1135,7 +1157,37 @@ impl App {
         self.run_what_if();
     }
 
+    /// Try a remedy's own setting changes (from the rule base) on the case.
+    pub fn try_remedy(&mut self, remedy: &str) {
+        self.what_if.change = None;
+        self.what_if.remedy = Some(remedy.to_string());
+        self.run_what_if();
+    }
+
     fn run_what_if(&mut self) {
+        if let Some(remedy) = self.what_if.remedy.clone() {
+            let changes = self
+                .remedy_changes
+                .get(&remedy)
+                .cloned()
+                .unwrap_or_default();
+            match &self.resolved {
+                Ok(resolved) => {
+                    let trial = crate::diagnose::remedies::apply_changes(resolved, &changes);
+                    let words: Vec<String> = changes.iter().map(describe_change).collect();
+                    self.what_if.description = Some(format!("{remedy}: {}", words.join(", ")));
+                    self.what_if.error = None;
+                    self.ensure_baseline();
+                    self.queue_resolved(Purpose::WhatIf, self.case.clone(), Some(trial));
+                }
+                Err(error) => {
+                    self.what_if.description = None;
+                    self.what_if.error = Some(format!("fix the inputs first: {error}"));
+                    self.what_if.outcome = None;
+                }
+            }
+            return;
+        }
         let Some(change) = self.what_if.change else {
             return;
         };
@@ -1156,6 +1208,26 @@ impl App {
 
     /// Keep the what-if change: it becomes part of the case.
     fn adopt_what_if(&mut self) {
+        if let Some(remedy) = self.what_if.remedy.clone() {
+            let changes = self
+                .remedy_changes
+                .get(&remedy)
+                .cloned()
+                .unwrap_or_default();
+            let result = match &self.resolved {
+                Ok(resolved) => keep_changes(&self.case, resolved, &changes),
+                Err(error) => Err(format!("fix the inputs first: {error}")),
+            };
+            match result {
+                Ok(case) => {
+                    self.case = case;
+                    self.changed();
+                    self.status = Some(format!("Kept: {remedy}"));
+                }
+                Err(error) => self.status = Some(error),
+            }
+            return;
+        }
         let Some(change) = self.what_if.change else {
             self.status = Some("No change to keep; use ←/→ on a setting first".into());
             return;
@@ -1328,37 +1400,85 @@ impl App {
     }
 }
 
-/// The setting change a remedy asks for, read from its ID's words ("reduce_tension",
-/// "add_taper", "lower_nip_load", "use_stiffer_core", "slow_down" ...). Remedies that are not a
-/// winder setting (material, handling) give `None`.
-pub fn remedy_change(id: &str) -> Option<SettingChange> {
-    let words: Vec<&str> = id.split(|c: char| !c.is_ascii_alphanumeric()).collect();
-    let has = |w: &[&str]| words.iter().any(|x| w.contains(x));
-    let up = has(&[
-        "raise", "increase", "more", "higher", "add", "stiffer", "stronger", "heavier", "faster",
-    ]);
-    let down = has(&[
-        "reduce", "lower", "less", "decrease", "remove", "softer", "slow", "slower", "drop",
-    ]);
-    let steps = match (up, down) {
-        (true, false) => 1,
-        (false, true) => -1,
-        _ => return None,
-    };
-    let setting = if has(&["taper"]) {
-        Setting::Taper
-    } else if has(&["nip", "rider"]) {
-        Setting::NipLoad
-    } else if has(&["tension"]) {
-        Setting::Tension
-    } else if has(&["core"]) && has(&["stiffer", "stronger", "heavier", "softer"]) {
-        Setting::Core
-    } else if has(&["speed", "slow", "slower", "faster"]) {
-        Setting::Speed
-    } else {
-        return None;
-    };
-    Some(SettingChange { setting, steps })
+/// A rule-base setting change in plain words ("tension ×1.15", "taper +15 points").
+pub fn describe_change(change: &RuleChange) -> String {
+    match *change {
+        RuleChange::TensionScale(f) => format!("tension ×{f}"),
+        RuleChange::TaperBy(p) => format!("taper {p:+} points"),
+        RuleChange::TaperTo(p) => format!("taper to {p} %"),
+        RuleChange::NipScale(f) => format!("nip load ×{f}"),
+        RuleChange::SpeedScale(f) => format!("speed ×{f}"),
+        RuleChange::CoreStiffnessScale(f) => format!("core stiffness ×{f}"),
+        RuleChange::CoreCrushScale(f) => format!("core crush rating ×{f}"),
+        RuleChange::ClearUpsets => "no tension upsets".to_string(),
+        RuleChange::CoreZoneTensionScale(f) => format!("core-zone tension ×{f}"),
+    }
+}
+
+/// The case with a remedy's changes written into its inputs, for the changes a case file can
+/// say directly; the others are refused with a reason.
+pub fn keep_changes(
+    case: &Case,
+    resolved: &ResolvedCase,
+    changes: &[RuleChange],
+) -> Result<Case, String> {
+    let mut out = case.clone();
+    let trial = crate::diagnose::remedies::apply_changes(resolved, changes);
+    for change in changes {
+        match change {
+            RuleChange::TensionScale(_) => {
+                if !matches!(trial.winding.tension.taper, Taper::Steps { .. })
+                    && trial.winding.tension.upsets.is_empty()
+                {
+                    out.winding.tension =
+                        Some(QuantityText::Number(trial.winding.tension.start_tension));
+                } else {
+                    return Err("tension steps or upset bands: change them in the case file".into());
+                }
+            }
+            RuleChange::TaperBy(_) | RuleChange::TaperTo(_) => {
+                let (kind, fraction) = match trial.winding.tension.taper {
+                    Taper::None => ("none", 0.0),
+                    Taper::Linear { fraction } => ("linear", fraction),
+                    Taper::Hyperbolic { fraction } => ("hyperbolic", fraction),
+                    Taper::Steps { .. } => {
+                        return Err(
+                            "the taper is a list of steps: change it in the case file".into()
+                        );
+                    }
+                };
+                out.winding.taper = Some(TaperInput {
+                    kind: kind.into(),
+                    amount: Some(QuantityText::Text(format!(
+                        "{} %",
+                        super::screens::sig3(fraction * 100.0)
+                    ))),
+                    steps: Vec::new(),
+                });
+            }
+            RuleChange::NipScale(_) => {
+                out.winding.nip_load = trial.winding.nip_load.map(QuantityText::Number);
+            }
+            RuleChange::SpeedScale(_) => {
+                out.winding.speed = Some(QuantityText::Number(trial.winding.speed));
+            }
+            RuleChange::CoreCrushScale(_) => {
+                out.core.crush_pressure = Some(QuantityText::Number(trial.core.crush_pressure));
+            }
+            RuleChange::CoreStiffnessScale(_) => {
+                let stiffness = trial.core.stiffness.effective_stiffness();
+                if !stiffness.is_finite() {
+                    return Err("the core is rigid already".into());
+                }
+                out.core.stiffness = Some(QuantityText::Number(stiffness));
+            }
+            RuleChange::ClearUpsets => out.winding.upsets.clear(),
+            RuleChange::CoreZoneTensionScale(_) => {
+                return Err("a core-zone tension band cannot be kept automatically: add it to the case file".into());
+            }
+        }
+    }
+    Ok(out)
 }
 
 /// Case files in `cases/` and the current folder, for the open prompt.
@@ -1397,6 +1517,5 @@ pub fn suggested_file_name(title: &str) -> String {
 
 /// Write the case atomically (temporary file, then rename).
 pub fn save_case(case: &Case, path: &Path) -> Result<(), String> {
-    let text = yaml::to_string(case).map_err(|e| format!("{}: {e}", path.display()))?;
-    crate::fsutil::save_atomic(path, text.as_bytes()).map_err(|e| e.to_string())
+    case.save(path).map_err(|e| e.to_string())
 }

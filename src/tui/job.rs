@@ -28,6 +28,9 @@ pub struct JobRequest {
     /// shown as out of date).
     pub generation: u64,
     pub case: Case,
+    /// Already resolved (and changed) inputs to solve instead of resolving `case` — a remedy
+    /// tried on the what-if screen changes the resolved case directly.
+    pub resolved: Option<Box<ResolvedCase>>,
 }
 
 /// Everything one solve produces.
@@ -57,10 +60,14 @@ pub enum JobMessage {
 /// false cancels the solve.
 pub fn run_pipeline(
     case: &Case,
+    resolved: Option<&ResolvedCase>,
     rules: &RuleBase,
     progress: &mut dyn FnMut(f64) -> bool,
 ) -> Result<SolveOutcome, String> {
-    let resolved = case.resolve().map_err(|e| format!("inputs: {e}"))?;
+    let resolved = match resolved {
+        Some(resolved) => resolved.clone(),
+        None => case.resolve().map_err(|e| format!("inputs: {e}"))?,
+    };
     let problem = resolved.problem(SolverOptions::default());
     let profile = crate::model::solve_with_progress(&problem, progress)
         .map_err(|e| format!("stress solve: {e}"))?;
@@ -144,7 +151,12 @@ impl JobRunner {
                 };
                 // A panic in the numerics must not take the UI down with it.
                 let result = std::panic::catch_unwind(std::panic::AssertUnwindSafe(|| {
-                    run_pipeline(&request.case, &rules, &mut progress)
+                    run_pipeline(
+                        &request.case,
+                        request.resolved.as_deref(),
+                        &rules,
+                        &mut progress,
+                    )
                 }))
                 .unwrap_or_else(|payload| Err(panic_text(payload.as_ref())));
                 let _ = sender.send(JobMessage::Finished {

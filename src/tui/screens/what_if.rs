@@ -90,22 +90,26 @@ pub fn comparison(
         }
         indicator_rows.sort_by(|x, y| y.0.total_cmp(&x.0));
         rows.extend(indicator_rows.into_iter().map(|(_, row)| row));
-        for (i, cause) in db.causes.iter().take(3).enumerate() {
+        // Beliefs first (only those that moved), then indicators by size of change.
+        let mut belief_rows = Vec::new();
+        for cause in db.causes.iter().take(5) {
             let after_belief = da
                 .causes
                 .iter()
                 .find(|c| c.id == cause.id)
                 .map_or(0.0, |c| c.belief);
-            rows.insert(
-                3 + i,
-                [
+            if ((after_belief - cause.belief) * 100.0).abs() >= 0.5 {
+                belief_rows.push([
                     format!("belief {}", cause.id),
                     format!("{:.0}%", cause.belief * 100.0),
                     format!("{:.0}%", after_belief * 100.0),
                     format!("{:+.0} pts", (after_belief - cause.belief) * 100.0),
-                ],
-            );
+                ]);
+            }
         }
+        let indicators = rows.split_off(3);
+        rows.extend(belief_rows);
+        rows.extend(indicators);
     }
     rows
 }
@@ -148,14 +152,19 @@ pub fn render(app: &App, theme: Theme, area: Rect, buf: &mut Buffer) {
             theme.title(),
         )));
     }
-    for (i, (_, text, _)) in remedies.iter().enumerate() {
+    for (i, (id, text)) in remedies.iter().enumerate() {
         let row = Setting::ALL.len() + i;
         let style = if row == app.what_if.row {
             theme.selected()
         } else {
             theme.plain()
         };
-        lines.push(Line::from(Span::styled(format!("• {text}"), style)));
+        let mark = if app.what_if.remedy.as_deref() == Some(id) {
+            "▶"
+        } else {
+            "•"
+        };
+        lines.push(Line::from(Span::styled(format!("{mark} {text}"), style)));
     }
     let step_help = Setting::ALL
         .get(app.what_if.row)
