@@ -170,3 +170,14 @@ fn plots_label_every_zone_and_the_reference_lines_at_120_columns() {
         assert!(screen.contains(label), "missing {label}:\n{screen}");
     }
 }
+
+#[test]
+fn training_picker() {
+    let mut app = app();
+    app.walkthroughs = rolltriage::training::library::embedded().unwrap();
+    app.handle_key(Key::Ctrl('t'));
+    // Draw only the first size: the list itself follows the shipped walk-throughs.
+    let screen = draw(&app, 80, 24);
+    assert!(screen.contains("Training walk-throughs"), "{screen}");
+    assert!(screen.contains(&app.walkthroughs[0].walkthrough.title), "{screen}");
+}

@@ -460,3 +460,60 @@ fn a_blank_case_shows_preset_values_as_assumed_not_entered() {
         assert_eq!(rolltriage::tui::fields::get(&app.case, field), None);
     }
 }
+
+#[test]
+fn export_writes_a_report_of_the_results_in_the_format_of_the_file_name() {
+    let folder = tempfile::tempdir().unwrap();
+    let mut app = app();
+    app.set_case(sample_case(), None);
+    finish_requests(&mut app, &outcome(1.0), &outcome(1.0));
+    app.handle_key(Key::Ctrl('e'));
+    match &app.popup {
+        Some(Popup::Export { input, .. }) => assert!(input.ends_with("_report.md"), "{input}"),
+        other => panic!("expected the export prompt, got {other:?}"),
+    }
+    app.popup = None;
+    for (name, needle) in [
+        ("r.md", "Web tension too low for this web"),
+        ("r.json", "tension_too_low"),
+    ] {
+        let path = folder.path().join(name);
+        app.export_to(&path).unwrap();
+        let text = std::fs::read_to_string(&path).unwrap();
+        assert!(text.contains(needle), "{name}: {text}");
+    }
+}
+
+#[test]
+fn export_refuses_out_of_date_results() {
+    let folder = tempfile::tempdir().unwrap();
+    let mut app = app();
+    app.set_case(sample_case(), None);
+    finish_requests(&mut app, &outcome(1.0), &outcome(1.0));
+    app.handle_key(Key::F(2));
+    app.handle_key(Key::Enter); // the case changes
+    assert!(app.export_to(&folder.path().join("r.md")).is_err());
+}
+
+#[test]
+fn training_walkthroughs_open_their_case_with_the_introduction() {
+    let mut app = app();
+    app.walkthroughs = rolltriage::training::library::embedded().unwrap();
+    assert!(!app.walkthroughs.is_empty());
+    app.handle_key(Key::Ctrl('t'));
+    assert_eq!(app.popup, Some(Popup::Training { selected: 0 }));
+    app.handle_key(Key::Enter);
+    match &app.popup {
+        Some(Popup::Notice { title, .. }) => {
+            assert_eq!(title, &app.walkthroughs[0].walkthrough.title)
+        }
+        other => panic!(
+            "expected the introduction, got {other:?} ({:?})",
+            app.status
+        ),
+    }
+    assert!(!app.case.symptoms.is_empty());
+    // Any key closes the introduction.
+    app.handle_key(Key::Char('x'));
+    assert_eq!(app.popup, None);
+}

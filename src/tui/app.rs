@@ -72,6 +72,8 @@ pub enum PendingAction {
     Quit,
     NewCase,
     Open(PathBuf),
+    /// Open a training walk-through's case (index into `App::walkthroughs`).
+    Training(usize),
 }
 
 /// What an open-file prompt loads.
@@ -101,6 +103,20 @@ pub enum Popup {
     SaveAs {
         input: String,
         error: Option<String>,
+    },
+    /// Export a report; the format follows the file's extension (.md, .html, .json).
+    Export {
+        input: String,
+        error: Option<String>,
+    },
+    /// Pick a training walk-through (index into `App::walkthroughs`).
+    Training {
+        selected: usize,
+    },
+    /// A message; any key closes it.
+    Notice {
+        title: String,
+        text: String,
     },
 }
 
@@ -254,8 +270,8 @@ pub struct App {
     pub should_quit: bool,
     /// Setting changes of each remedy, from the rule base (what the what-if applies).
     pub remedy_changes: BTreeMap<String, Vec<RuleChange>>,
-    /// Whether a report can be exported from the UI.
-    pub can_export: bool,
+    /// Training walk-throughs offered by ^T.
+    pub walkthroughs: Vec<crate::training::LoadedWalkthrough>,
     requests: Vec<JobRequest>,
     next_job_id: u64,
 }
@@ -296,7 +312,7 @@ impl App {
             tick: 0,
             help_scroll: 0,
             should_quit: false,
-            can_export: false,
+            walkthroughs: Vec::new(),
             remedy_changes: BTreeMap::new(),
             requests: Vec::new(),
             next_job_id: 1,
@@ -554,6 +570,7 @@ impl App {
             Key::Ctrl('l') => return self.open_prompt(OpenPurpose::InputsOnly),
             Key::Ctrl('r') => return self.resolve_again(),
             Key::Ctrl('e') => return self.export(),
+            Key::Ctrl('t') | Key::F(6) => return self.open_training(),
             Key::Ctrl('u') => {
                 self.units = match self.units {
                     UnitSystem::Si => UnitSystem::Us,
@@ -606,6 +623,7 @@ impl App {
                     self.status = Some(error);
                 }
             }
+            PendingAction::Training(index) => self.open_walkthrough(index),
         }
     }
 
@@ -644,11 +662,104 @@ impl App {
     }
 
     fn export(&mut self) {
-        self.status = Some(if self.can_export {
-            "Report export is not wired yet".into()
-        } else {
-            "Report export is not available from the UI yet; use `rolltriage report`".into()
+        if self.current_outcome().is_none() {
+            self.status = Some("Nothing to export yet: solve the case first (F4, or ^R)".into());
+            return;
+        }
+        let stem = self
+            .case_path
+            .as_ref()
+            .and_then(|p| p.file_stem())
+            .map(|s| s.to_string_lossy().into_owned())
+            .unwrap_or_else(|| {
+                suggested_file_name(&self.case.title)
+                    .trim_end_matches(".yaml")
+                    .to_string()
+            });
+        self.popup = Some(Popup::Export {
+            input: format!("{stem}_report.md"),
+            error: None,
         });
+    }
+
+    /// Write a report of the current results (and the remedy being tried, if any) to `path`.
+    pub fn export_to(&mut self, path: &Path) -> Result<(), String> {
+        let outcome = self
+            .current_outcome()
+            .ok_or("the results are out of date: solve again first")?;
+        let diagnosis = outcome
+            .diagnosis
+            .as_ref()
+            .map_err(|e| format!("no diagnosis to report: {e}"))?;
+        let format = crate::report::Format::from_path(path).unwrap_or_default();
+        let remedy = match (&self.what_if.remedy, &self.what_if.outcome) {
+            (Some(id), Some((generation, after))) if *generation == self.generation => {
+                Some(crate::report::RemedyComparison {
+                    remedy_id: id.clone(),
+                    remedy_text: diagnosis
+                        .remedies
+                        .iter()
+                        .find(|r| &r.id == id)
+                        .map_or_else(|| id.clone(), |r| r.text.clone()),
+                    change: self.what_if.description.clone().unwrap_or_default(),
+                    after_case: after.resolved.clone(),
+                    after: after.profile.clone(),
+                })
+            }
+            _ => None,
+        };
+        let input = crate::report::ReportInput {
+            case: self.case.clone(),
+            resolved: outcome.resolved.clone(),
+            profile: outcome.profile.clone(),
+            diagnosis: diagnosis.clone(),
+            remedy,
+            meta: crate::report::ReportMeta::now(
+                self.case_path.as_ref().map(|p| p.display().to_string()),
+            ),
+            units: self.units,
+        };
+        let text = crate::report::render(&input, format).map_err(|e| e.to_string())?;
+        crate::fsutil::save_atomic(path, text.as_bytes()).map_err(|e| e.to_string())?;
+        self.status = Some(format!(
+            "Report written to {} ({})",
+            path.display(),
+            format.as_str()
+        ));
+        Ok(())
+    }
+
+    fn open_training(&mut self) {
+        if self.walkthroughs.is_empty() {
+            self.status = Some("No training walk-throughs are available".into());
+        } else {
+            self.popup = Some(Popup::Training { selected: 0 });
+        }
+    }
+
+    /// Open a walk-through's case and show its introduction.
+    pub fn open_walkthrough(&mut self, index: usize) {
+        let Some(loaded) = self.walkthroughs.get(index).cloned() else {
+            return;
+        };
+        match crate::training::load_case(&loaded) {
+            Ok(case) => {
+                self.set_case(case, None);
+                // The walk-through is about finding the cause: start on the picture, not the answer.
+                let w = &loaded.walkthrough;
+                let mut text = w.introduction.clone().unwrap_or_default();
+                text.push_str(&format!(
+                    "\n\n{} questions go with this case; `rolltriage train {}` asks them and scores the answers.",
+                    w.questions.len(),
+                    w.id
+                ));
+                self.popup = Some(Popup::Notice {
+                    title: w.title.clone(),
+                    text: text.trim().to_string(),
+                });
+            }
+            Err(error) => self.status = Some(format!("Cannot open the walk-through: {error}")),
+        }
     }
 
     fn handle_popup_key(&mut self, key: Key) {
@@ -737,6 +848,49 @@ impl App {
                     self.popup = Some(Popup::Open(prompt));
                 }
                 _ => self.popup = Some(Popup::Open(prompt)),
+            },
+            Popup::Notice { .. } => {}
+            Popup::Training { selected } => match key {
+                Key::Up => {
+                    self.popup = Some(Popup::Training {
+                        selected: selected.saturating_sub(1),
+                    })
+                }
+                Key::Down => {
+                    self.popup = Some(Popup::Training {
+                        selected: (selected + 1).min(self.walkthroughs.len().saturating_sub(1)),
+                    })
+                }
+                Key::Enter => {
+                    if self.dirty {
+                        self.popup = Some(Popup::Confirm(PendingAction::Training(selected)));
+                    } else {
+                        self.open_walkthrough(selected);
+                    }
+                }
+                Key::Esc => {}
+                _ => self.popup = Some(Popup::Training { selected }),
+            },
+            Popup::Export { mut input, .. } => match key {
+                Key::Esc => {}
+                Key::Enter => {
+                    let text = input.trim().to_string();
+                    if let Err(error) = self.export_to(Path::new(&text)) {
+                        self.popup = Some(Popup::Export {
+                            input,
+                            error: Some(error),
+                        });
+                    }
+                }
+                Key::Backspace => {
+                    input.pop();
+                    self.popup = Some(Popup::Export { input, error: None });
+                }
+                Key::Char(c) => {
+                    input.push(c);
+                    self.popup = Some(Popup::Export { input, error: None });
+                }
+                _ => self.popup = Some(Popup::Export { input, error: None }),
             },
             Popup::SaveAs { mut input, .. } => match key {
                 Key::Esc => {}
@@ -1355,6 +1509,19 @@ impl App {
                 ("Enter", "open"),
                 ("Esc", "cancel"),
             ],
+            Some(Popup::Export { .. }) => vec![
+                ("type", "file (.md .html .json)"),
+                ("Enter", "write"),
+                ("Esc", "cancel"),
+            ],
+            Some(Popup::Training { .. }) => {
+                vec![
+                    ("↑↓", "pick"),
+                    ("Enter", "open its case"),
+                    ("Esc", "cancel"),
+                ]
+            }
+            Some(Popup::Notice { .. }) => vec![("any key", "close")],
             Some(Popup::SaveAs { .. }) => {
                 vec![("type", "file name"), ("Enter", "save"), ("Esc", "cancel")]
             }

@@ -65,6 +65,8 @@ pub fn build_app(options: &Options, rules: Arc<RuleBase>) -> Result<app::App, Tu
         core,
     );
     app.units = options.units;
+    // Walk-throughs are optional extras: a broken one must not keep the UI from opening.
+    app.walkthroughs = crate::training::library::embedded().unwrap_or_default();
     app.remedy_changes = rules
         .remedies
         .iter()

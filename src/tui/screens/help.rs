@@ -14,7 +14,8 @@ pub fn sections() -> Vec<(&'static str, Vec<(&'static str, &'static str)>)> {
             ("Ctrl-L", "take the inputs from a saved case, keep the symptoms"),
             ("Ctrl-R", "solve again"),
             ("Ctrl-U", "SI / US units"),
-            ("Ctrl-E", "export a report"),
+            ("Ctrl-E", "export a report (.md, .html or .json by the file name)"),
+            ("Ctrl-T / F6", "training walk-throughs: open a guided case"),
             ("Ctrl-Q (q off text)", "quit — asks when there are unsaved changes"),
         ]),
         ("Symptoms", vec![
