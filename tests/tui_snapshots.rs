@@ -179,5 +179,8 @@ fn training_picker() {
     // Draw only the first size: the list itself follows the shipped walk-throughs.
     let screen = draw(&app, 80, 24);
     assert!(screen.contains("Training walk-throughs"), "{screen}");
-    assert!(screen.contains(&app.walkthroughs[0].walkthrough.title), "{screen}");
+    assert!(
+        screen.contains(&app.walkthroughs[0].walkthrough.title),
+        "{screen}"
+    );
 }

@@ -517,3 +517,45 @@ fn training_walkthroughs_open_their_case_with_the_introduction() {
     app.handle_key(Key::Char('x'));
     assert_eq!(app.popup, None);
 }
+
+#[test]
+fn taper_design_runs_as_a_background_job_and_can_be_kept() {
+    let mut app = app();
+    app.set_case(sample_case(), None);
+    finish_requests(&mut app, &outcome(1.0), &outcome(1.0));
+    // A small roll (about 260 wraps) keeps the many solves of the design quick in debug builds.
+    let mut small = resolved("Sample");
+    small.roll.outer_diameter = 0.14;
+    app.resolved = Ok(small);
+    app.handle_key(Key::F(5));
+    app.handle_key(Key::Char('d'));
+    let request = app.take_requests().pop().unwrap();
+    assert_eq!(request.task, rolltriage::tui::job::Task::DesignTaper);
+    assert!(app.is_solving());
+    // Run the real design on the sample case, as the worker thread would.
+    let design =
+        rolltriage::taper_design::design(request.resolved.as_ref().unwrap(), &Default::default())
+            .unwrap();
+    app.on_job(rolltriage::tui::job::JobMessage::DesignFinished {
+        id: request.id,
+        generation: request.generation,
+        result: Ok(Box::new(design.clone())),
+    });
+    assert!(!app.is_solving());
+    assert!(
+        app.what_if
+            .description
+            .as_deref()
+            .unwrap()
+            .starts_with("Designed taper")
+    );
+    app.handle_key(Key::Char('a'));
+    assert!(app.dirty);
+    match &app.case.winding.tension {
+        Some(rolltriage::case::QuantityText::Number(v)) => {
+            assert!((v - design.start_tension).abs() < 1e-9)
+        }
+        other => panic!("unexpected tension {other:?}"),
+    }
+    assert!(app.case.winding.taper.is_some());
+}

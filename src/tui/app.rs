@@ -221,6 +221,8 @@ pub struct WhatIfState {
     /// Plain words for the change ("Web tension 525 N/m → 578 N/m").
     pub description: Option<String>,
     pub outcome: Option<(u64, Box<SolveOutcome>)>,
+    /// A designed taper schedule (what-if `d`), with the generation it was made for.
+    pub design: Option<(u64, Box<crate::taper_design::TaperDesign>)>,
     pub error: Option<String>,
 }
 
@@ -432,6 +434,7 @@ impl App {
             generation: self.generation,
             case,
             resolved: resolved.map(Box::new),
+            task: super::job::Task::Solve,
         });
     }
 
@@ -474,6 +477,23 @@ impl App {
                 {
                     if running.id == id {
                         running.fraction = fraction.clamp(0.0, 1.0);
+                    }
+                }
+            }
+            JobMessage::DesignFinished {
+                id,
+                generation,
+                result,
+            } => {
+                if self.running_what_if.is_some_and(|r| r.id == id) {
+                    self.running_what_if = None;
+                    match result {
+                        Ok(design) => {
+                            self.what_if.description = Some(design_summary(&design, self.units));
+                            self.what_if.design = Some((generation, design));
+                            self.what_if.error = None;
+                        }
+                        Err(error) => self.what_if.error = Some(error),
                     }
                 }
             }
@@ -1285,12 +1305,42 @@ impl App {
                 }
             }
             Key::Char('r') | Key::Esc => self.clear_what_if(),
+            Key::Char('d') => self.design_taper(),
             Key::Char('a') => self.adopt_what_if(),
             _ => {}
         }
     }
 
+    /// Ask for a taper schedule that keeps the roll inside every limit (`taper_design`).
+    pub fn design_taper(&mut self) {
+        let resolved = match &self.resolved {
+            Ok(resolved) => resolved.clone(),
+            Err(error) => {
+                self.what_if.error = Some(format!("fix the inputs first: {error}"));
+                return;
+            }
+        };
+        self.clear_what_if();
+        self.what_if.description = Some("Designing a taper schedule (many solves)…".into());
+        let id = self.next_job_id;
+        self.next_job_id += 1;
+        self.running_what_if = Some(Running {
+            id,
+            generation: self.generation,
+            fraction: 0.0,
+        });
+        self.requests.push(JobRequest {
+            id,
+            purpose: Purpose::WhatIf,
+            generation: self.generation,
+            case: self.case.clone(),
+            resolved: Some(Box::new(resolved)),
+            task: super::job::Task::DesignTaper,
+        });
+    }
+
     fn clear_what_if(&mut self) {
+        self.what_if.design = None;
         self.what_if.change = None;
         self.what_if.remedy = None;
         self.what_if.description = None;
@@ -1362,6 +1412,28 @@ impl App {
 
     /// Keep the what-if change: it becomes part of the case.
     fn adopt_what_if(&mut self) {
+        if let Some((_, design)) = self.what_if.design.clone() {
+            if design.steps.is_some() {
+                self.status = Some("A stepped schedule: enter its steps in the case file".into());
+                return;
+            }
+            let kind = match design.shape {
+                crate::taper_design::TaperShape::Linear => "linear",
+                crate::taper_design::TaperShape::Hyperbolic => "hyperbolic",
+            };
+            self.case.winding.tension = Some(QuantityText::Number(design.start_tension));
+            self.case.winding.taper = Some(TaperInput {
+                kind: kind.into(),
+                amount: Some(QuantityText::Text(format!(
+                    "{} %",
+                    super::screens::sig3(design.taper_fraction * 100.0)
+                ))),
+                steps: Vec::new(),
+            });
+            self.changed();
+            self.status = Some("Kept the designed taper schedule".into());
+            return;
+        }
         if let Some(remedy) = self.what_if.remedy.clone() {
             let changes = self
                 .remedy_changes
@@ -1548,10 +1620,10 @@ impl App {
                 },
                 Screen::Results => vec![("↑↓", "move"), ("←→", "pane"), ("Enter", "reasons/try")],
                 Screen::WhatIf => vec![
-                    ("↑↓", "setting"),
+                    ("↑↓", "pick"),
                     ("←→", "change"),
+                    ("d", "taper"),
                     ("a", "keep"),
-                    ("r", "reset"),
                 ],
             },
         };
@@ -1565,6 +1637,28 @@ impl App {
         }
         hints
     }
+}
+
+/// One line about a taper design: the schedule, and whether it meets every limit.
+pub fn design_summary(design: &crate::taper_design::TaperDesign, units: UnitSystem) -> String {
+    let shape = match design.shape {
+        crate::taper_design::TaperShape::Linear => "linear",
+        crate::taper_design::TaperShape::Hyperbolic => "hyperbolic",
+    };
+    let verdict = if design.feasible {
+        "meets every limit"
+    } else {
+        "no schedule meets every limit (closest shown)"
+    };
+    format!(
+        "Designed taper: start {}, {shape} {} % — {verdict}",
+        crate::units::format_quantity(
+            design.start_tension,
+            crate::units::QuantityKind::ForcePerWidth,
+            units
+        ),
+        super::screens::sig3(design.taper_fraction * 100.0)
+    )
 }
 
 /// A rule-base setting change in plain words ("tension ×1.15", "taper +15 points").

@@ -43,7 +43,8 @@ pub fn sections() -> Vec<(&'static str, Vec<(&'static str, &'static str)>)> {
             ("↑ ↓", "pick a setting or a remedy"),
             ("← →", "change the setting one step down / up"),
             ("Enter", "try the highlighted remedy"),
-            ("a / r", "keep the change in the case / reset"),
+            ("d", "design a taper that keeps the roll inside every limit"),
+            ("a / r", "keep the change (or the designed taper) in the case / reset"),
         ]),
         ("Reading the plots", vec![
             ("core inner middle outer", "zones of the roll, named on the top row"),
