@@ -66,7 +66,10 @@ proptest! {
 #[test]
 fn removing_a_symptom_never_raises_a_cause_only_it_supports() {
     let rules = rules();
-    let mut case = with_symptoms(newsprint("three symptoms"), &["starring", "crushed_core", "telescoping"]);
+    let mut case = with_symptoms(
+        newsprint("three symptoms"),
+        &["starring", "crushed_core", "telescoping"],
+    );
     case.winding.tension.taper = Taper::None;
     let profile = profile(&case);
     let indicators = Indicators::compute(&case, &profile);
@@ -76,12 +79,26 @@ fn removing_a_symptom_never_raises_a_cause_only_it_supports() {
         let rest: Vec<String> = all.iter().filter(|s| *s != removed).cloned().collect();
         let after = rank(&rules, &rest, &case, &indicators);
         let rule_causes = |s: &str| -> Vec<String> {
-            rules.symptom(s).unwrap().rules.iter().map(|r| r.cause.clone()).collect()
+            rules
+                .symptom(s)
+                .unwrap()
+                .rules
+                .iter()
+                .map(|r| r.cause.clone())
+                .collect()
         };
         let others: Vec<String> = rest.iter().flat_map(|s| rule_causes(s)).collect();
         for cause in rule_causes(removed).iter().filter(|c| !others.contains(c)) {
-            let b = before.iter().find(|c2| &c2.id == cause).map(|c2| c2.belief).unwrap_or(0.0);
-            let a = after.iter().find(|c2| &c2.id == cause).map(|c2| c2.belief).unwrap_or(0.0);
+            let b = before
+                .iter()
+                .find(|c2| &c2.id == cause)
+                .map(|c2| c2.belief)
+                .unwrap_or(0.0);
+            let a = after
+                .iter()
+                .find(|c2| &c2.id == cause)
+                .map(|c2| c2.belief)
+                .unwrap_or(0.0);
             assert!(a <= b, "removing {removed} raised {cause}: {b} → {a}");
             assert_eq!(a, 0.0, "{cause} is only supported by {removed}");
         }
@@ -119,8 +136,16 @@ fn every_cause_can_lead_somewhere() {
 #[test]
 fn diagnosis_is_deterministic_and_reasons_add_up() {
     let rules = rules();
-    let case = upset(with_symptoms(newsprint("upset"), &["starring", "wrinkles"]), 0.4, 0.45, 100.0);
-    let options = DiagnoseOptions { solve_with: Some(common::solve), ..Default::default() };
+    let case = upset(
+        with_symptoms(newsprint("upset"), &["starring", "wrinkles"]),
+        0.4,
+        0.45,
+        100.0,
+    );
+    let options = DiagnoseOptions {
+        solve_with: Some(common::solve),
+        ..Default::default()
+    };
     let (_, a) = diagnose::triage(&rules, &case, &options).unwrap();
     let (_, b) = diagnose::triage(&rules, &case, &options).unwrap();
     assert_eq!(a, b);
@@ -131,10 +156,19 @@ fn diagnosis_is_deterministic_and_reasons_add_up() {
         let mut symptoms: Vec<&str> = cause.reasons.iter().map(|r| r.symptom.as_str()).collect();
         symptoms.dedup();
         for s in symptoms {
-            let w: Vec<f64> = cause.reasons.iter().filter(|r| r.symptom == s).map(|r| r.weight).collect();
+            let w: Vec<f64> = cause
+                .reasons
+                .iter()
+                .filter(|r| r.symptom == s)
+                .map(|r| r.weight)
+                .collect();
             per_symptom.push(combine(&w));
         }
-        assert!((combine(&per_symptom) - cause.belief).abs() < 1e-12, "{}", cause.id);
+        assert!(
+            (combine(&per_symptom) - cause.belief).abs() < 1e-12,
+            "{}",
+            cause.id
+        );
         assert!(cause.reasons.iter().any(|r| r.test == "prior"));
     }
 }
@@ -147,7 +181,10 @@ fn remedies_are_merged_grouped_and_answer_likely_causes() {
     case.winding.tension.start_tension = 700.0;
     case.winding.tension.taper = Taper::None;
     case.core.crush_pressure = 1.2e6;
-    let options = DiagnoseOptions { solve_with: Some(common::solve), ..Default::default() };
+    let options = DiagnoseOptions {
+        solve_with: Some(common::solve),
+        ..Default::default()
+    };
     let (_, d) = diagnose::triage(&rules, &case, &options).unwrap();
     let ids: Vec<&str> = d.remedies.iter().map(|r| r.id.as_str()).collect();
     let mut unique = ids.clone();
@@ -159,7 +196,12 @@ fn remedies_are_merged_grouped_and_answer_likely_causes() {
     assert!(add_taper.answers.contains(&"taper_missing".to_string()));
     assert!(add_taper.answers.len() >= 2);
     for pair in d.remedies.windows(2) {
-        assert!(pair[0].answers.len() >= pair[1].answers.len(), "{} before {}", pair[0].id, pair[1].id);
+        assert!(
+            pair[0].answers.len() >= pair[1].answers.len(),
+            "{} before {}",
+            pair[0].id,
+            pair[1].id
+        );
     }
     for r in &d.remedies {
         assert!(!r.answers.is_empty());
@@ -177,10 +219,17 @@ fn what_if_adding_taper_lowers_core_pressure() {
     case.winding.tension.start_tension = 700.0;
     case.winding.tension.taper = Taper::None;
     case.core.crush_pressure = 1.2e6;
-    let options = DiagnoseOptions { what_if: true, solve_with: Some(common::solve), ..Default::default() };
+    let options = DiagnoseOptions {
+        what_if: true,
+        solve_with: Some(common::solve),
+        ..Default::default()
+    };
     let (_, d) = diagnose::triage(&rules, &case, &options).unwrap();
     let add_taper = d.remedies.iter().find(|r| r.id == "add_taper").unwrap();
-    let w = add_taper.what_if.as_ref().expect("what-if for a setting change");
+    let w = add_taper
+        .what_if
+        .as_ref()
+        .expect("what-if for a setting change");
     assert!(!w.worse, "{w:?}");
     assert!(w.note.contains("belief in taper_missing"), "{}", w.note);
     // Remedies without a setting change get no what-if.
@@ -189,12 +238,19 @@ fn what_if_adding_taper_lowers_core_pressure() {
         assert!(g.what_if.is_none());
     }
     // The stronger core only moves the ratio.
-    let core = d.remedies.iter().find(|r| r.id == "use_stronger_core").unwrap();
+    let core = d
+        .remedies
+        .iter()
+        .find(|r| r.id == "use_stronger_core")
+        .unwrap();
     let w = core.what_if.as_ref().unwrap();
     assert_eq!(w.indicator, "core_pressure_ratio");
     let before: f64 = w.before.parse().unwrap();
     let after: f64 = w.after.parse().unwrap();
-    assert!((after - before / 1.5).abs() < 0.02 * before, "{before} → {after}");
+    assert!(
+        (after - before / 1.5).abs() < 0.02 * before,
+        "{before} → {after}"
+    );
 }
 
 #[test]
@@ -217,23 +273,52 @@ fn what_if_warns_when_a_change_makes_it_worse() {
         cautions: vec![],
         what_if: None,
     };
-    let options = DiagnoseOptions { solve_with: Some(common::solve), ..Default::default() };
-    let w = rolltriage::diagnose::remedies::what_if(&rules, &ids, &case, &indicators, &causes, &wrong, &options).unwrap();
+    let options = DiagnoseOptions {
+        solve_with: Some(common::solve),
+        ..Default::default()
+    };
+    let w = rolltriage::diagnose::remedies::what_if(
+        &rules,
+        &ids,
+        &case,
+        &indicators,
+        &causes,
+        &wrong,
+        &options,
+    )
+    .unwrap();
     assert!(w.worse, "reducing tension on a slack roll must warn: {w:?}");
 }
 
 #[test]
 fn unknown_symptoms_and_answers_are_rejected_with_suggestions() {
     let rules = rules();
-    let options = DiagnoseOptions { solve_with: Some(common::solve), ..Default::default() };
+    let options = DiagnoseOptions {
+        solve_with: Some(common::solve),
+        ..Default::default()
+    };
     let case = with_symptoms(newsprint("typo"), &["telescopng"]);
-    let e = diagnose::triage(&rules, &case, &options).unwrap_err().to_string();
+    let e = diagnose::triage(&rules, &case, &options)
+        .unwrap_err()
+        .to_string();
     assert!(e.contains("did you mean `telescoping`"), "{e}");
-    let case = answer(with_symptoms(newsprint("typo"), &["starring"]), "starring.after_splise", "yes");
-    let e = diagnose::triage(&rules, &case, &options).unwrap_err().to_string();
+    let case = answer(
+        with_symptoms(newsprint("typo"), &["starring"]),
+        "starring.after_splise",
+        "yes",
+    );
+    let e = diagnose::triage(&rules, &case, &options)
+        .unwrap_err()
+        .to_string();
     assert!(e.contains("did you mean `starring.after_splice`"), "{e}");
-    let case = answer(with_symptoms(newsprint("typo"), &["starring"]), "starring.depth", "deep");
-    let e = diagnose::triage(&rules, &case, &options).unwrap_err().to_string();
+    let case = answer(
+        with_symptoms(newsprint("typo"), &["starring"]),
+        "starring.depth",
+        "deep",
+    );
+    let e = diagnose::triage(&rules, &case, &options)
+        .unwrap_err()
+        .to_string();
     assert!(e.contains("near_core"), "{e}");
 }
 
@@ -241,9 +326,20 @@ fn unknown_symptoms_and_answers_are_rejected_with_suggestions() {
 fn symptom_search_finds_trade_words() {
     let rules = rules();
     // Words people use at the winder (aliases in the rule files).
-    for (word, id) in [("coning", "telescoping"), ("stars", "starring"), ("sticking", "blocking"), ("flat spots", "out_of_round"), ("spoking", "starring"), ("ridges", "gauge_bands")] {
+    for (word, id) in [
+        ("coning", "telescoping"),
+        ("stars", "starring"),
+        ("sticking", "blocking"),
+        ("flat spots", "out_of_round"),
+        ("spoking", "starring"),
+        ("ridges", "gauge_bands"),
+    ] {
         let hits = diagnose::search_symptoms(&rules, word);
-        assert_eq!(hits.first().map(|h| h.id.as_str()), Some(id), "{word}: {hits:?}");
+        assert_eq!(
+            hits.first().map(|h| h.id.as_str()),
+            Some(id),
+            "{word}: {hits:?}"
+        );
         assert_eq!(diagnose::resolve_symptom(&rules, word).unwrap(), id);
     }
     let e = diagnose::resolve_symptom(&rules, "telescopng").unwrap_err();

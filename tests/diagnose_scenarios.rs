@@ -41,19 +41,35 @@ fn listing(d: &Diagnosis) -> String {
 
 #[track_caller]
 fn assert_first(d: &Diagnosis, cause: &str) {
-    assert_eq!(d.causes.first().map(|c| c.id.as_str()), Some(cause), "ranking: {}", listing(d));
+    assert_eq!(
+        d.causes.first().map(|c| c.id.as_str()),
+        Some(cause),
+        "ranking: {}",
+        listing(d)
+    );
 }
 
 #[track_caller]
 fn assert_top3(d: &Diagnosis, cause: &str) {
-    assert!(rank_of(d, cause).is_some_and(|r| r < 3), "{cause} not in top 3: {}", listing(d));
+    assert!(
+        rank_of(d, cause).is_some_and(|r| r < 3),
+        "{cause} not in top 3: {}",
+        listing(d)
+    );
 }
 
 #[track_caller]
 fn assert_cites(d: &Diagnosis, cause: &str, indicator: &str) {
-    let c = d.causes.iter().find(|c| c.id == cause).unwrap_or_else(|| panic!("{cause} missing: {}", listing(d)));
+    let c = d
+        .causes
+        .iter()
+        .find(|c| c.id == cause)
+        .unwrap_or_else(|| panic!("{cause} missing: {}", listing(d)));
     assert!(
-        c.reasons.iter().any(|r| r.test == indicator && r.weight > 0.0 && r.value.is_some() && r.threshold.is_some()),
+        c.reasons.iter().any(|r| r.test == indicator
+            && r.weight > 0.0
+            && r.value.is_some()
+            && r.threshold.is_some()),
         "{cause} does not cite {indicator}: {:?}",
         c.reasons.iter().map(|r| &r.test).collect::<Vec<_>>()
     );
@@ -85,7 +101,10 @@ fn harbour_newsprint_telescoping_from_low_tension() {
 #[test]
 fn kestrel_film_telescoping_from_air_at_speed() {
     // Kestrel Films line 3: 23 µm PET, smooth (0.05 µm RMS), no lay-on roll, 480 m/min.
-    let mut case = with_symptoms(pet_film("Kestrel PET at speed, no lay-on roll"), &["telescoping"]);
+    let mut case = with_symptoms(
+        pet_film("Kestrel PET at speed, no lay-on roll"),
+        &["telescoping"],
+    );
     case.winding.nip_load = None;
     case.winding.speed = 8.0;
     let d = run(&case);
@@ -147,7 +166,10 @@ fn harbour_newsprint_starring_from_tension_upset() {
 #[test]
 fn harbour_big_roll_starring_without_taper() {
     // 1.5 m newsprint roll on a 100 mm core, constant 600 N/m.
-    let mut case = with_symptoms(newsprint("Harbour 1.5 m roll, constant tension"), &["starring"]);
+    let mut case = with_symptoms(
+        newsprint("Harbour 1.5 m roll, constant tension"),
+        &["starring"],
+    );
     case.roll.outer_diameter = 1.5;
     case.winding.tension.start_tension = 600.0;
     case.winding.tension.taper = Taper::None;
@@ -159,12 +181,29 @@ fn harbour_big_roll_starring_without_taper() {
 #[test]
 fn starring_answers_move_belief_like_evidence() {
     // Same upset roll; an operator saying "no upset at that diameter" must lower the belief.
-    let base = upset(with_symptoms(newsprint("upset"), &["starring"]), 0.40, 0.45, 100.0);
+    let base = upset(
+        with_symptoms(newsprint("upset"), &["starring"]),
+        0.40,
+        0.45,
+        100.0,
+    );
     let said_no = answer(base.clone(), "starring.after_splice", "no");
     let said_yes = answer(base.clone(), "starring.after_splice", "yes");
     let unknown = answer(base.clone(), "starring.after_splice", "unknown");
-    let belief = |c: &ResolvedCase| run(c).causes.iter().find(|x| x.id == "tension_upset").unwrap().belief;
-    let (b0, bn, by, bu) = (belief(&base), belief(&said_no), belief(&said_yes), belief(&unknown));
+    let belief = |c: &ResolvedCase| {
+        run(c)
+            .causes
+            .iter()
+            .find(|x| x.id == "tension_upset")
+            .unwrap()
+            .belief
+    };
+    let (b0, bn, by, bu) = (
+        belief(&base),
+        belief(&said_no),
+        belief(&said_yes),
+        belief(&unknown),
+    );
     assert!(bn < b0 && b0 < by, "no {bn} < none {b0} < yes {by}");
     assert!((bu - b0).abs() < 1e-12, "unknown is neutral");
 }
@@ -204,7 +243,10 @@ fn brackwater_crushed_core_from_hard_wind_on_big_roll() {
 
 #[test]
 fn kestrel_blocking_from_hot_web() {
-    let mut case = with_symptoms(pet_film("Kestrel PET off the coater at 55 °C"), &["blocking"]);
+    let mut case = with_symptoms(
+        pet_film("Kestrel PET off the coater at 55 °C"),
+        &["blocking"],
+    );
     case.winding.temperature = Some(55.0);
     let d = run(&case);
     assert_first(&d, "winding_too_hot");
@@ -264,7 +306,10 @@ fn harbour_cinching_from_slack_wind() {
 
 #[test]
 fn harbour_soft_roll_from_air_without_rider() {
-    let mut case = with_symptoms(newsprint("Harbour, rider roll lifted, 1200 m/min"), &["soft_roll"]);
+    let mut case = with_symptoms(
+        newsprint("Harbour, rider roll lifted, 1200 m/min"),
+        &["soft_roll"],
+    );
     case.winding.nip_load = None;
     case.winding.speed = 20.0;
     let d = run(&case);
@@ -385,9 +430,19 @@ fn two_symptoms_reinforce_air_entrainment() {
     one.winding.speed = 8.0;
     let mut two = one.clone();
     two = with_symptoms(two, &["telescoping", "soft_roll"]);
-    let b1 = run(&one).causes.iter().find(|c| c.id == "air_entrainment").unwrap().belief;
+    let b1 = run(&one)
+        .causes
+        .iter()
+        .find(|c| c.id == "air_entrainment")
+        .unwrap()
+        .belief;
     let d2 = run(&two);
-    let b2 = d2.causes.iter().find(|c| c.id == "air_entrainment").unwrap().belief;
+    let b2 = d2
+        .causes
+        .iter()
+        .find(|c| c.id == "air_entrainment")
+        .unwrap()
+        .belief;
     assert!(b2 > b1, "two symptoms {b2} should beat one {b1}");
     assert_first(&d2, "air_entrainment");
 }
@@ -398,7 +453,12 @@ fn surface_winding_has_no_tension_torque_for_cinching() {
     let mut case = with_symptoms(newsprint("Harbour two-drum winder"), &["cinching"]);
     case.winding.method = WindingMethod::Surface;
     let d = run(&case);
-    let margin = d.indicators.iter().find(|i| i.id == "slip_margin").unwrap().value;
+    let margin = d
+        .indicators
+        .iter()
+        .find(|i| i.id == "slip_margin")
+        .unwrap()
+        .value;
     assert!(margin > 10.0, "slip margin {margin}");
 }
 
@@ -407,7 +467,12 @@ fn rigid_core_counts_as_very_stiff() {
     let mut case = with_symptoms(newsprint("steel core"), &["starring"]);
     case.core.stiffness = CoreStiffness::Rigid;
     let d = run(&case);
-    let ratio = d.indicators.iter().find(|i| i.id == "core_stiffness_ratio").unwrap().value;
+    let ratio = d
+        .indicators
+        .iter()
+        .find(|i| i.id == "core_stiffness_ratio")
+        .unwrap()
+        .value;
     assert!(ratio > 1.0e3);
     assert_below(&d, "core_too_soft", "taper_missing");
 }

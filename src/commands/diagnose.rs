@@ -41,19 +41,23 @@ pub struct DiagnoseArgs {
 /// The rule base: `--rules DIR` or the shipped one.
 pub fn load_rules(dir: Option<&PathBuf>) -> anyhow::Result<RuleBase> {
     match dir {
-        Some(d) => RuleBase::load_dir(d).with_context(|| format!("loading rules from {}", d.display())),
+        Some(d) => {
+            RuleBase::load_dir(d).with_context(|| format!("loading rules from {}", d.display()))
+        }
         None => RuleBase::embedded().context("loading the shipped rule base"),
     }
 }
 
 pub fn run(args: &DiagnoseArgs) -> anyhow::Result<()> {
     let rules = load_rules(args.rules.as_ref())?;
-    let case = Case::load(&args.case).with_context(|| format!("reading {}", args.case.display()))?;
+    let case =
+        Case::load(&args.case).with_context(|| format!("reading {}", args.case.display()))?;
     let mut resolved = case
         .resolve()
         .with_context(|| format!("resolving {}", args.case.display()))?;
     for word in &args.symptoms {
-        let id = diagnose::resolve_symptom(&rules, word).map_err(|m| anyhow::anyhow!("--symptom: {m}"))?;
+        let id = diagnose::resolve_symptom(&rules, word)
+            .map_err(|m| anyhow::anyhow!("--symptom: {m}"))?;
         if !resolved.symptoms.iter().any(|s| s.id == id) {
             resolved.symptoms.push(ObservedSymptom {
                 id,

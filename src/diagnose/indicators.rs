@@ -352,7 +352,11 @@ pub fn format_value(value: f64, dimension: Dimension) -> String {
 /// Three significant digits, no trailing zeros, no exponent for everyday magnitudes.
 fn sig(value: f64) -> String {
     if !value.is_finite() {
-        return if value > 0.0 { "∞".into() } else { "—".into() };
+        return if value > 0.0 {
+            "∞".into()
+        } else {
+            "—".into()
+        };
     }
     if value == 0.0 {
         return "0".into();
@@ -550,11 +554,7 @@ impl Indicators {
                 zone,
                 share(&|i| pp[i] < LOW_PRESSURE_LIMIT),
             );
-            self.set(
-                "compressive_band_extent",
-                zone,
-                share(&|i| ss[i] < 0.0),
-            );
+            self.set("compressive_band_extent", zone, share(&|i| ss[i] < 0.0));
             if web_stress > 0.0 {
                 self.set(
                     "compressive_stress_ratio",
@@ -723,7 +723,8 @@ fn acceleration_torque_per_width(case: &ResolvedCase, core_r: f64, outer_r: f64)
     };
     // Solid annulus: J per width = ρ·π·(R⁴ − rc⁴)/2; α = v / (R·t).
     let inertia =
-        density(&case.web.material) * std::f64::consts::PI * (outer_r.powi(4) - core_r.powi(4)) / 2.0;
+        density(&case.web.material) * std::f64::consts::PI * (outer_r.powi(4) - core_r.powi(4))
+            / 2.0;
     let angular_acceleration = case.winding.speed / (outer_r * time);
     inertia * angular_acceleration
 }
@@ -748,8 +749,16 @@ fn foil_bearing_ratio(case: &ResolvedCase, outer_r: f64) -> f64 {
 fn radial_weights(r: &[f64], start: usize, end: usize) -> Vec<f64> {
     (start..end)
         .map(|i| {
-            let left = if i > start { (r[i] - r[i - 1]) / 2.0 } else { 0.0 };
-            let right = if i + 1 < end { (r[i + 1] - r[i]) / 2.0 } else { 0.0 };
+            let left = if i > start {
+                (r[i] - r[i - 1]) / 2.0
+            } else {
+                0.0
+            };
+            let right = if i + 1 < end {
+                (r[i + 1] - r[i]) / 2.0
+            } else {
+                0.0
+            };
             (left + right).max(0.0)
         })
         .collect()
@@ -760,15 +769,17 @@ fn argmax(values: &[f64]) -> (usize, f64) {
         .iter()
         .copied()
         .enumerate()
-        .fold((0, f64::NEG_INFINITY), |b, (i, v)| if v > b.1 { (i, v) } else { b })
+        .fold(
+            (0, f64::NEG_INFINITY),
+            |b, (i, v)| if v > b.1 { (i, v) } else { b },
+        )
 }
 
 fn argmin(values: &[f64]) -> (usize, f64) {
-    values
-        .iter()
-        .copied()
-        .enumerate()
-        .fold((0, f64::INFINITY), |b, (i, v)| if v < b.1 { (i, v) } else { b })
+    values.iter().copied().enumerate().fold(
+        (0, f64::INFINITY),
+        |b, (i, v)| if v < b.1 { (i, v) } else { b },
+    )
 }
 
 /// Parse a rule threshold written as a number or "number unit" for an indicator of `dimension`.

@@ -98,7 +98,7 @@ pub enum DiagnoseError {
 }
 
 /// Options of a diagnosis.
-#[derive(Debug, Clone, PartialEq, Default)]
+#[derive(Debug, Clone, Default)]
 pub struct DiagnoseOptions {
     /// Keep at most this many causes (0 = all with positive belief).
     pub top: usize,

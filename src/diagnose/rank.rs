@@ -188,11 +188,7 @@ pub fn rank(
             })
         })
         .collect();
-    out.sort_by(|a, b| {
-        b.belief
-            .total_cmp(&a.belief)
-            .then_with(|| a.id.cmp(&b.id))
-    });
+    out.sort_by(|a, b| b.belief.total_cmp(&a.belief).then_with(|| a.id.cmp(&b.id)));
     out.retain(|c| c.belief > 0.0);
     out
 }

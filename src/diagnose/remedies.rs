@@ -186,8 +186,8 @@ fn driving_test<'a>(
                 if ev.weight <= 0.0 || !matches!(ev.test, Test::Indicator { .. }) {
                     continue;
                 }
-                let holds = evaluate(&ev.test, &symptom.id, case, indicators)
-                    .is_some_and(|(h, _, _)| h);
+                let holds =
+                    evaluate(&ev.test, &symptom.id, case, indicators).is_some_and(|(h, _, _)| h);
                 let better = match best {
                     None => true,
                     Some((_, w, h)) => (holds && !h) || (holds == h && ev.weight > w),
@@ -303,8 +303,12 @@ pub fn what_if(
                 };
                 (
                     name,
-                    before.map(|v| format_value(v, *dimension)).unwrap_or_default(),
-                    after.map(|v| format_value(v, *dimension)).unwrap_or_default(),
+                    before
+                        .map(|v| format_value(v, *dimension))
+                        .unwrap_or_default(),
+                    after
+                        .map(|v| format_value(v, *dimension))
+                        .unwrap_or_default(),
                 )
             }
             _ => (
@@ -342,13 +346,23 @@ fn rating_only(
     };
     WhatIf {
         indicator: "core_pressure_ratio".into(),
-        before: before.map(|v| format_value(v, dimension)).unwrap_or_default(),
-        after: after.map(|v| format_value(v, dimension)).unwrap_or_default(),
+        before: before
+            .map(|v| format_value(v, dimension))
+            .unwrap_or_default(),
+        after: after
+            .map(|v| format_value(v, dimension))
+            .unwrap_or_default(),
         worse: false,
         note: format!(
             "rated crush pressure {} → {} for remedy {}",
-            format_value(case.core.crush_pressure, super::indicators::Dimension::Pressure),
-            format_value(changed.core.crush_pressure, super::indicators::Dimension::Pressure),
+            format_value(
+                case.core.crush_pressure,
+                super::indicators::Dimension::Pressure
+            ),
+            format_value(
+                changed.core.crush_pressure,
+                super::indicators::Dimension::Pressure
+            ),
             remedy.id
         ),
     }

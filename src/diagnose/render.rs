@@ -36,7 +36,11 @@ fn reason_line(r: &super::Reason) -> String {
     if r.test == "prior" {
         return format!("{:+.2}  [{}] {}", r.weight, r.symptom, r.text);
     }
-    let zone = r.zone.as_ref().map(|z| format!(" in {z}")).unwrap_or_default();
+    let zone = r
+        .zone
+        .as_ref()
+        .map(|z| format!(" in {z}"))
+        .unwrap_or_default();
     let value = r.value.clone().unwrap_or_default();
     let threshold = r.threshold.clone().unwrap_or_default();
     format!(
@@ -50,10 +54,20 @@ pub fn render_text(title: &str, diagnosis: &Diagnosis) -> String {
     let mut out = String::new();
     let _ = writeln!(out, "Diagnosis: {title}\n");
     if diagnosis.causes.is_empty() {
-        let _ = writeln!(out, "No cause reached positive belief. Add symptoms or answers.");
+        let _ = writeln!(
+            out,
+            "No cause reached positive belief. Add symptoms or answers."
+        );
     }
     for (i, c) in diagnosis.causes.iter().enumerate() {
-        let _ = writeln!(out, "{}. {} ({}) — belief {:.2}", i + 1, c.title, c.id, c.belief);
+        let _ = writeln!(
+            out,
+            "{}. {} ({}) — belief {:.2}",
+            i + 1,
+            c.title,
+            c.id,
+            c.belief
+        );
         let _ = writeln!(out, "   {}", c.mechanism);
         for r in &c.reasons {
             let _ = writeln!(out, "     {}", reason_line(r));
@@ -71,7 +85,11 @@ pub fn render_text(title: &str, diagnosis: &Diagnosis) -> String {
                     let _ = writeln!(out, "      cautions: {}", r.cautions.join(", "));
                 }
                 if let Some(w) = &r.what_if {
-                    let flag = if w.worse { "  WARNING: makes it worse" } else { "" };
+                    let flag = if w.worse {
+                        "  WARNING: makes it worse"
+                    } else {
+                        ""
+                    };
                     let _ = writeln!(
                         out,
                         "      what-if: {} {} → {}{flag} ({})",
@@ -109,7 +127,10 @@ pub fn render_markdown(title: &str, diagnosis: &Diagnosis) -> String {
             c.belief
         );
         let _ = writeln!(out, "{}\n", c.mechanism);
-        let _ = writeln!(out, "| weight | symptom | test | zone | value | threshold | why |");
+        let _ = writeln!(
+            out,
+            "| weight | symptom | test | zone | value | threshold | why |"
+        );
         let _ = writeln!(out, "|---:|---|---|---|---|---|---|");
         for r in &c.reasons {
             let _ = writeln!(
@@ -137,7 +158,11 @@ pub fn render_markdown(title: &str, diagnosis: &Diagnosis) -> String {
                     let _ = writeln!(out, "  - cautions: {}", r.cautions.join(", "));
                 }
                 if let Some(w) = &r.what_if {
-                    let flag = if w.worse { " — **warning: makes it worse**" } else { "" };
+                    let flag = if w.worse {
+                        " — **warning: makes it worse**"
+                    } else {
+                        ""
+                    };
                     let _ = writeln!(
                         out,
                         "  - what-if: {} {} → {}{flag} ({})",

@@ -33,20 +33,35 @@ const EMBEDDED: &[(&str, &str)] = &[
     ("causes.yaml", include_str!("../../rules/causes.yaml")),
     ("remedies.yaml", include_str!("../../rules/remedies.yaml")),
     ("cautions.yaml", include_str!("../../rules/cautions.yaml")),
-    ("telescoping.yaml", include_str!("../../rules/telescoping.yaml")),
+    (
+        "telescoping.yaml",
+        include_str!("../../rules/telescoping.yaml"),
+    ),
     ("starring.yaml", include_str!("../../rules/starring.yaml")),
     ("blocking.yaml", include_str!("../../rules/blocking.yaml")),
-    ("crushed_core.yaml", include_str!("../../rules/crushed_core.yaml")),
+    (
+        "crushed_core.yaml",
+        include_str!("../../rules/crushed_core.yaml"),
+    ),
     ("bulk_loss.yaml", include_str!("../../rules/bulk_loss.yaml")),
     ("cinching.yaml", include_str!("../../rules/cinching.yaml")),
     ("soft_roll.yaml", include_str!("../../rules/soft_roll.yaml")),
-    ("out_of_round.yaml", include_str!("../../rules/out_of_round.yaml")),
+    (
+        "out_of_round.yaml",
+        include_str!("../../rules/out_of_round.yaml"),
+    ),
     ("wrinkles.yaml", include_str!("../../rules/wrinkles.yaml")),
-    ("gauge_bands.yaml", include_str!("../../rules/gauge_bands.yaml")),
+    (
+        "gauge_bands.yaml",
+        include_str!("../../rules/gauge_bands.yaml"),
+    ),
     ("dishing.yaml", include_str!("../../rules/dishing.yaml")),
     ("bursts.yaml", include_str!("../../rules/bursts.yaml")),
     ("core_slip.yaml", include_str!("../../rules/core_slip.yaml")),
-    ("tin_canning.yaml", include_str!("../../rules/tin_canning.yaml")),
+    (
+        "tin_canning.yaml",
+        include_str!("../../rules/tin_canning.yaml"),
+    ),
 ];
 
 // ---------------------------------------------------------------------------------------------
@@ -423,10 +438,7 @@ impl RuleBase {
         let mut names: Vec<std::path::PathBuf> = std::fs::read_dir(path)
             .map_err(read_error)?
             .filter_map(|e| e.ok().map(|e| e.path()))
-            .filter(|p| {
-                p.extension()
-                    .is_some_and(|x| x == "yaml" || x == "yml")
-            })
+            .filter(|p| p.extension().is_some_and(|x| x == "yaml" || x == "yml"))
             .collect();
         names.sort();
         let mut files = Vec::new();
@@ -484,7 +496,11 @@ impl RuleBase {
             }
         }
         match find("cautions.yaml") {
-            None => problems.add("cautions.yaml", 1, "the rule directory has no cautions.yaml"),
+            None => problems.add(
+                "cautions.yaml",
+                1,
+                "the rule directory has no cautions.yaml",
+            ),
             Some((file, text)) => {
                 if let Some(raw) = parse::<RawCautionFile>(file, text, &mut problems) {
                     base.sources.extend(raw.sources);
@@ -502,12 +518,17 @@ impl RuleBase {
             }
         }
         match find("remedies.yaml") {
-            None => problems.add("remedies.yaml", 1, "the rule directory has no remedies.yaml"),
+            None => problems.add(
+                "remedies.yaml",
+                1,
+                "the rule directory has no remedies.yaml",
+            ),
             Some((file, text)) => {
                 if let Some(raw) = parse::<RawRemedyFile>(file, text, &mut problems) {
                     base.sources.extend(raw.sources);
                     for (id, r) in raw.remedies {
-                        if let Some(remedy) = compile_remedy(&id, r, file, text, &base, &mut problems)
+                        if let Some(remedy) =
+                            compile_remedy(&id, r, file, text, &base, &mut problems)
                         {
                             base.remedies.insert(id, remedy);
                         }
@@ -582,7 +603,9 @@ impl RuleBase {
             .collect();
         for id in self.remedies.keys() {
             if !referenced.contains(id.as_str()) {
-                out.push(format!("remedy `{id}` is not referenced by any cause or rule"));
+                out.push(format!(
+                    "remedy `{id}` is not referenced by any cause or rule"
+                ));
             }
         }
         let cautioned: BTreeSet<&str> = self
@@ -633,7 +656,11 @@ impl RuleBase {
             .flat_map(|s| s.rules.iter())
             .filter(|r| r.cause == cause)
             .flat_map(|r| r.remedies.iter());
-        let from_catalogue = self.causes.get(cause).into_iter().flat_map(|c| c.remedies.iter());
+        let from_catalogue = self
+            .causes
+            .get(cause)
+            .into_iter()
+            .flat_map(|c| c.remedies.iter());
         for id in from_rules.chain(from_catalogue) {
             if !out.contains(&id.as_str()) {
                 out.push(id);
@@ -729,7 +756,8 @@ fn line_of_after(text: &str, needle: &str, after: usize) -> usize {
         while let Some(pos) = rest.find(needle) {
             let before = rest[..pos].chars().next_back();
             let after_c = rest[pos + needle.len()..].chars().next();
-            let word = |c: Option<char>| c.is_some_and(|c| c.is_alphanumeric() || c == '_' || c == '.');
+            let word =
+                |c: Option<char>| c.is_some_and(|c| c.is_alphanumeric() || c == '_' || c == '.');
             if !word(before) && !word(after_c) {
                 return i + 1;
             }
@@ -840,7 +868,9 @@ fn compile_remedy(
             "tension" => factor(problems, (0.3, 2.0)).map(SettingChange::TensionScale),
             "nip_load" => factor(problems, (0.0, 3.0)).map(SettingChange::NipScale),
             "speed" => factor(problems, (0.1, 2.0)).map(SettingChange::SpeedScale),
-            "core_stiffness" => factor(problems, (0.1, 100.0)).map(SettingChange::CoreStiffnessScale),
+            "core_stiffness" => {
+                factor(problems, (0.1, 100.0)).map(SettingChange::CoreStiffnessScale)
+            }
             "core_crush_rating" => factor(problems, (0.1, 10.0)).map(SettingChange::CoreCrushScale),
             "core_zone_tension" => {
                 factor(problems, (0.3, 2.0)).map(SettingChange::CoreZoneTensionScale)
@@ -848,7 +878,11 @@ fn compile_remedy(
             "tension_upsets" => match change.clear {
                 Some(true) => Some(SettingChange::ClearUpsets),
                 _ => {
-                    problems.add(file, at, &format!("remedy `{id}`: `tension_upsets` needs `clear: true`"));
+                    problems.add(
+                        file,
+                        at,
+                        &format!("remedy `{id}`: `tension_upsets` needs `clear: true`"),
+                    );
                     None
                 }
             },
@@ -1032,7 +1066,8 @@ fn compile_symptom(
                 .or(ev.question.as_deref())
                 .unwrap_or("weight");
             evidence_line = line_of_after(text, key, evidence_line);
-            if let Some(e) = compile_evidence(ev, &raw.symptom, &questions, file, evidence_line, problems)
+            if let Some(e) =
+                compile_evidence(ev, &raw.symptom, &questions, file, evidence_line, problems)
             {
                 evidence.push(e);
             }
@@ -1198,7 +1233,9 @@ fn compile_evidence(
                     problems.add(
                         file,
                         line,
-                        &format!("question evidence `{question}` needs `is:` (one answer or a list)"),
+                        &format!(
+                            "question evidence `{question}` needs `is:` (one answer or a list)"
+                        ),
                     );
                 }
                 let accepted: Vec<&str> = q.choices.iter().map(|c| c.id.as_str()).collect();

@@ -67,6 +67,7 @@ pub fn run_pipeline(
     let options = DiagnoseOptions {
         top: 0,
         what_if: false,
+        ..DiagnoseOptions::default()
     };
     let diagnosis = crate::diagnose::diagnose(rules, &resolved, &profile, &options)
         .map_err(|e| format!("diagnosis: {e}"));

@@ -10,10 +10,12 @@
 
 use std::collections::BTreeMap;
 
-use rolltriage::case::{ObservedSymptom, ResolvedCase, ResolvedCore, ResolvedRoll, ResolvedWeb, ResolvedWinding};
+use rolltriage::case::{
+    ObservedSymptom, ResolvedCase, ResolvedCore, ResolvedRoll, ResolvedWeb, ResolvedWinding,
+};
 use rolltriage::model::{
-    CoreStiffness, ModelError, WindingProblem, Profile, ProfileSummary, RadialStiffness, Taper, TensionSchedule, UpsetBand,
-    WindingMethod, Zone, ZoneName,
+    CoreStiffness, ModelError, Profile, ProfileSummary, RadialStiffness, Taper, TensionSchedule,
+    UpsetBand, WindingMethod, WindingProblem, Zone, ZoneName,
 };
 
 /// Newsprint-like paper, 45 g/m², 75 µm; values typical of the grade (from memory).
@@ -26,7 +28,10 @@ pub fn newsprint(title: &str) -> ResolvedCase {
             thickness: 75e-6,
             width: 1.6,
             tangential_modulus: 4.0e9,
-            radial_stiffness: RadialStiffness::Pfeiffer { k1: 5.0e3, k2: 60.0 },
+            radial_stiffness: RadialStiffness::Pfeiffer {
+                k1: 5.0e3,
+                k2: 60.0,
+            },
             poisson_ratio: 0.01,
             friction: 0.4,
             roughness: 3.0e-6,
@@ -209,7 +214,14 @@ fn secant_modulus(law: &RadialStiffness, p0: f64, p1: f64) -> f64 {
 }
 
 /// One accretion increment on nodes `0..=k` (node k is the new outer element).
-fn solve_increment(radius: &[f64], er: &[f64], e_t: f64, core_term: f64, dr: f64, load: f64) -> Vec<f64> {
+fn solve_increment(
+    radius: &[f64],
+    er: &[f64],
+    e_t: f64,
+    core_term: f64,
+    dr: f64,
+    load: f64,
+) -> Vec<f64> {
     let n = radius.len();
     let k = n - 1;
     let mut a = vec![0.0; n];
@@ -284,7 +296,14 @@ pub fn fallback_solve(problem: &WindingProblem, elements: usize) -> Profile {
             let er: Vec<f64> = (0..=k)
                 .map(|i| secant_modulus(&problem.radial_stiffness, p[i], p[i] + dp[i].max(0.0)))
                 .collect();
-            dp = solve_increment(&radius[..=k], &er, e_t, core_term, dr, layers_per * t_wit / radius[k]);
+            dp = solve_increment(
+                &radius[..=k],
+                &er,
+                e_t,
+                core_term,
+                dr,
+                layers_per * t_wit / radius[k],
+            );
         }
         for i in 0..k {
             let deriv = if i == 0 {
@@ -297,7 +316,10 @@ pub fn fallback_solve(problem: &WindingProblem, elements: usize) -> Profile {
         }
         p[k] += dp[k];
     }
-    let radial_strain: Vec<f64> = p.iter().map(|&pi| strain_of(&problem.radial_stiffness, pi)).collect();
+    let radial_strain: Vec<f64> = p
+        .iter()
+        .map(|&pi| strain_of(&problem.radial_stiffness, pi))
+        .collect();
     let cuts = [0.0, 0.05, 0.3, 0.7, 0.95, 1.0001];
     let zones = ZoneName::ALL
         .iter()
