@@ -3,9 +3,9 @@
 
 use super::{RemedyComparison, ReportError, ReportInput, ReportMeta};
 use crate::case::{Case, ResolvedCase};
-use crate::diagnose::{DiagnoseOptions, diagnose, rules::RuleBase};
 use crate::diagnose::remedies::apply_changes;
 use crate::diagnose::rules::SettingChange;
+use crate::diagnose::{DiagnoseOptions, diagnose, rules::RuleBase};
 use crate::model::{SolverOptions, Taper, solve};
 use crate::units::{QuantityKind, UnitSystem, format_quantity};
 
@@ -115,7 +115,10 @@ pub fn apply_remedy(
         });
     }
     let after = apply_changes(resolved, &remedy.changes);
-    Ok((after.clone(), describe_changes(resolved, &after, &remedy.changes, units)))
+    Ok((
+        after.clone(),
+        describe_changes(resolved, &after, &remedy.changes, units),
+    ))
 }
 
 /// The changes in words, with the before and after values.
@@ -148,8 +151,16 @@ fn describe_changes(
             ),
             SettingChange::NipScale(_) => format!(
                 "nip load {} → {}",
-                before.winding.nip_load.map(tension).unwrap_or_else(|| "none".into()),
-                after.winding.nip_load.map(tension).unwrap_or_else(|| "none".into())
+                before
+                    .winding
+                    .nip_load
+                    .map(tension)
+                    .unwrap_or_else(|| "none".into()),
+                after
+                    .winding
+                    .nip_load
+                    .map(tension)
+                    .unwrap_or_else(|| "none".into())
             ),
             SettingChange::SpeedScale(_) => format!(
                 "line speed {} → {}",
