@@ -1,8 +1,97 @@
-//! `rolltriage diagnose`.
+//! `rolltriage diagnose`: ranked causes with reasons, the merged remedy list and cautions.
+
+use std::path::PathBuf;
+
+use anyhow::{Context, bail};
+use rolltriage::case::{Case, ObservedSymptom};
+use rolltriage::diagnose::{self, DiagnoseOptions, rules::RuleBase};
+
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Default, clap::ValueEnum)]
+pub enum Format {
+    #[default]
+    Text,
+    Json,
+    Markdown,
+}
 
 #[derive(Debug, clap::Args)]
-pub struct DiagnoseArgs {}
+pub struct DiagnoseArgs {
+    /// Case file (YAML).
+    pub case: PathBuf,
+    /// Output format.
+    #[arg(long, value_enum, default_value_t = Format::Text)]
+    pub format: Format,
+    /// Show at most N causes (0 = all with positive belief).
+    #[arg(long, value_name = "N", default_value_t = 5)]
+    pub top: usize,
+    /// Add an observed symptom (ID or a word people use, e.g. "coning"); repeatable.
+    #[arg(long = "symptom", value_name = "ID")]
+    pub symptoms: Vec<String>,
+    /// Answer a symptom question, e.g. `starring.after_splice=yes`; repeatable.
+    #[arg(long = "answer", value_name = "QUESTION=VALUE")]
+    pub answers: Vec<String>,
+    /// Use the rule base in DIR instead of the shipped one.
+    #[arg(long = "rules", value_name = "DIR")]
+    pub rules: Option<PathBuf>,
+    /// Skip the what-if re-solves of setting changes.
+    #[arg(long)]
+    pub no_what_if: bool,
+}
 
-pub fn run(_args: &DiagnoseArgs) -> anyhow::Result<()> {
-    anyhow::bail!("`rolltriage diagnose` is not available yet")
+/// The rule base: `--rules DIR` or the shipped one.
+pub fn load_rules(dir: Option<&PathBuf>) -> anyhow::Result<RuleBase> {
+    match dir {
+        Some(d) => {
+            RuleBase::load_dir(d).with_context(|| format!("loading rules from {}", d.display()))
+        }
+        None => RuleBase::embedded().context("loading the shipped rule base"),
+    }
+}
+
+pub fn run(args: &DiagnoseArgs) -> anyhow::Result<()> {
+    let rules = load_rules(args.rules.as_ref())?;
+    let case =
+        Case::load(&args.case).with_context(|| format!("reading {}", args.case.display()))?;
+    let mut resolved = case
+        .resolve()
+        .with_context(|| format!("resolving {}", args.case.display()))?;
+    for word in &args.symptoms {
+        let id = diagnose::resolve_symptom(&rules, word)
+            .map_err(|m| anyhow::anyhow!("--symptom: {m}"))?;
+        if !resolved.symptoms.iter().any(|s| s.id == id) {
+            resolved.symptoms.push(ObservedSymptom {
+                id,
+                place: None,
+                notes: None,
+            });
+        }
+    }
+    for pair in &args.answers {
+        let Some((question, value)) = pair.split_once('=') else {
+            bail!("--answer {pair}: expected QUESTION=VALUE, e.g. starring.after_splice=yes");
+        };
+        resolved
+            .answers
+            .insert(question.trim().to_string(), value.trim().to_string());
+    }
+    if resolved.symptoms.is_empty() {
+        bail!(
+            "{}: no symptoms observed; add `symptoms:` to the case or use --symptom ID",
+            args.case.display()
+        );
+    }
+    let options = DiagnoseOptions {
+        top: args.top,
+        what_if: !args.no_what_if,
+        ..DiagnoseOptions::default()
+    };
+    let (_profile, diagnosis) = diagnose::triage(&rules, &resolved, &options)
+        .with_context(|| format!("diagnosing {}", args.case.display()))?;
+    let text = match args.format {
+        Format::Text => diagnose::render::render_text(&resolved.title, &diagnosis),
+        Format::Markdown => diagnose::render::render_markdown(&resolved.title, &diagnosis),
+        Format::Json => serde_json::to_string_pretty(&diagnosis)? + "\n",
+    };
+    print!("{text}");
+    Ok(())
 }

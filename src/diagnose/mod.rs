@@ -4,7 +4,11 @@
 pub mod indicators;
 pub mod rank;
 pub mod remedies;
+pub mod render;
 pub mod rules;
+pub mod search;
+
+pub use search::{SymptomMatch, resolve_symptom, search_symptoms};
 
 use serde::{Deserialize, Serialize};
 
@@ -55,6 +59,8 @@ pub struct MergedRemedy {
     pub text: String,
     /// winder_setting, equipment, material_or_core, handling_and_storage, process_upstream.
     pub group: String,
+    /// Cost to try: low, medium, high.
+    pub cost: String,
     /// Cause IDs this remedy answers.
     pub answers: Vec<String>,
     /// Caution IDs that apply.
@@ -92,20 +98,157 @@ pub enum DiagnoseError {
 }
 
 /// Options of a diagnosis.
-#[derive(Debug, Clone, PartialEq, Default)]
+#[derive(Debug, Clone, Default)]
 pub struct DiagnoseOptions {
     /// Keep at most this many causes (0 = all with positive belief).
     pub top: usize,
     /// Re-solve remedies that change a winder setting (the what-if check).
     pub what_if: bool,
+    /// Numerical options of every solve (the case's own and the what-if re-solves).
+    pub solver: crate::model::SolverOptions,
+    /// Solver to use instead of `model::solve` (alternative solvers, tests); `None` = the
+    /// crate's solver.
+    pub solve_with: Option<SolveFn>,
+}
+
+/// A stress solver: `model::solve` or a stand-in with the same contract.
+pub type SolveFn =
+    fn(&crate::model::WindingProblem) -> Result<crate::model::Profile, crate::model::ModelError>;
+
+impl DiagnoseOptions {
+    /// Solve `problem` with the configured solver.
+    pub fn solve(
+        &self,
+        problem: &crate::model::WindingProblem,
+    ) -> Result<crate::model::Profile, crate::model::ModelError> {
+        match self.solve_with {
+            Some(f) => f(problem),
+            None => crate::model::solve(problem),
+        }
+    }
+}
+
+/// The observed symptom IDs of a case, deduplicated in case order; unknown IDs are errors with
+/// a "did you mean".
+pub fn observed_symptoms(
+    rules: &rules::RuleBase,
+    case: &crate::case::ResolvedCase,
+) -> Result<Vec<String>, DiagnoseError> {
+    let mut out: Vec<String> = Vec::new();
+    for symptom in &case.symptoms {
+        if rules.symptom(&symptom.id).is_none() {
+            let known = rules.symptoms.iter().map(|s| s.id.as_str());
+            let hint = crate::vocabulary::closest(&symptom.id, known)
+                .map(|c| format!(" (did you mean `{c}`?)"))
+                .unwrap_or_default();
+            return Err(DiagnoseError::Input(format!(
+                "symptoms: unknown symptom `{}`{hint}",
+                symptom.id
+            )));
+        }
+        if let Some(place) = &symptom.place
+            && !crate::vocabulary::PLACES.contains(&place.as_str())
+        {
+            return Err(DiagnoseError::Input(format!(
+                "symptoms: `{}` where = `{place}` is not one of {}",
+                symptom.id,
+                crate::vocabulary::PLACES.join(", ")
+            )));
+        }
+        if !out.contains(&symptom.id) {
+            out.push(symptom.id.clone());
+        }
+    }
+    Ok(out)
+}
+
+/// Check every answer names a known question and an accepted value.
+pub fn check_answers(
+    rules: &rules::RuleBase,
+    answers: &std::collections::BTreeMap<String, String>,
+) -> Result<(), DiagnoseError> {
+    for (question, value) in answers {
+        let Some(q) = rules.question(question) else {
+            let ids = rules.question_ids();
+            let hint = crate::vocabulary::closest(question, ids.iter().copied())
+                .map(|c| format!(" (did you mean `{c}`?)"))
+                .unwrap_or_default();
+            return Err(DiagnoseError::Input(format!(
+                "answers: unknown question `{question}`{hint}"
+            )));
+        };
+        let accepted = q.accepted();
+        if !accepted.contains(&value.as_str()) {
+            let hint = crate::vocabulary::closest(value, accepted.iter().copied())
+                .map(|c| format!(" (did you mean `{c}`?)"))
+                .unwrap_or_default();
+            return Err(DiagnoseError::Input(format!(
+                "answers: `{question}` = `{value}` is not accepted; accepted: {}{hint}",
+                accepted.join(", ")
+            )));
+        }
+    }
+    Ok(())
 }
 
 /// Diagnose a resolved case whose profile is already computed.
 pub fn diagnose(
-    _rules: &rules::RuleBase,
-    _case: &crate::case::ResolvedCase,
-    _profile: &crate::model::Profile,
-    _options: &DiagnoseOptions,
+    rules: &rules::RuleBase,
+    case: &crate::case::ResolvedCase,
+    profile: &crate::model::Profile,
+    options: &DiagnoseOptions,
 ) -> Result<Diagnosis, DiagnoseError> {
-    Err(DiagnoseError::Input("diagnosis not implemented yet".into()))
+    let symptoms = observed_symptoms(rules, case)?;
+    check_answers(rules, &case.answers)?;
+    let indicators = indicators::Indicators::compute(case, profile);
+    let mut causes = rank::rank(rules, &symptoms, case, &indicators);
+    if options.top > 0 {
+        causes.truncate(options.top);
+    }
+    let mut remedies = remedies::merge(rules, &symptoms, &causes);
+    if options.what_if {
+        for remedy in remedies.iter_mut() {
+            remedy.what_if = remedies::what_if(
+                rules,
+                &symptoms,
+                case,
+                &indicators,
+                &causes,
+                remedy,
+                options,
+            );
+        }
+    }
+    let mut cautions: Vec<Caution> = Vec::new();
+    for id in rules.cautions.keys() {
+        if remedies.iter().any(|r| r.cautions.contains(id))
+            && let Some(c) = rules.cautions.get(id)
+        {
+            cautions.push(Caution {
+                id: c.id.clone(),
+                title: c.title.clone(),
+                text: c.text.clone(),
+            });
+        }
+    }
+    Ok(Diagnosis {
+        causes,
+        remedies,
+        cautions,
+        indicators: indicators.values(),
+    })
+}
+
+/// Solve the case's stress state and diagnose it: the one call the UI and the CLI need.
+pub fn triage(
+    rules: &rules::RuleBase,
+    case: &crate::case::ResolvedCase,
+    options: &DiagnoseOptions,
+) -> Result<(crate::model::Profile, Diagnosis), DiagnoseError> {
+    // Check the cheap things before the solve.
+    observed_symptoms(rules, case)?;
+    check_answers(rules, &case.answers)?;
+    let profile = options.solve(&case.problem(options.solver))?;
+    let diagnosis = diagnose(rules, case, &profile, options)?;
+    Ok((profile, diagnosis))
 }
