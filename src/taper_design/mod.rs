@@ -647,6 +647,59 @@ pub fn design_with(
     let before = evaluate(case, &case.winding.tension, limits, verify)?;
     solves += 1;
 
+    // The current schedule already has the requested shape and meets every limit with the
+    // design margin: it is the answer (the criterion's distance is zero), no search needed.
+    let current_fraction = match (&case.winding.tension.taper, options.shape) {
+        (Taper::None, _) => Some(0.0),
+        (Taper::Linear { fraction }, TaperShape::Linear)
+        | (Taper::Hyperbolic { fraction }, TaperShape::Hyperbolic) => Some(*fraction),
+        _ => None,
+    };
+    if let Some(fraction) = current_fraction
+        && options.steps.is_none()
+        && case.winding.tension.upsets.is_empty()
+        && fraction <= max_taper
+        && before.all_met()
+        && before.worst_margin() >= options.design_margin
+    {
+        let start = case.winding.tension.start_tension;
+        let trial = Trial {
+            start,
+            fraction,
+            raw: [0.0; 4],
+            band: 0.0,
+        };
+        let schedule = build_schedule(options.shape, None, start, fraction, rc, big_r);
+        let after = Evaluation {
+            schedule: schedule.clone(),
+            checks: before.checks.clone(),
+            profile: before.profile.clone(),
+        };
+        let binding: Vec<Limit> = after
+            .checks
+            .iter()
+            .filter(|c| c.margin < options.design_margin + 0.05)
+            .map(|c| c.limit)
+            .collect();
+        let explanation = explain(case, &before, &after, true, &binding, None, trial, start);
+        return Ok(TaperDesign {
+            feasible: true,
+            shape: options.shape,
+            steps: None,
+            start_tension: start,
+            taper_fraction: fraction,
+            table: operator_table(&schedule, rc, big_r, None),
+            schedule,
+            limits: *limits,
+            before,
+            after,
+            binding,
+            conflict: None,
+            explanation,
+            solves,
+        });
+    }
+
     // Search range of the start tension: from a tenth of the lower of (current, allowed) up to
     // 1.2 × the allowed wound-in tension, so infeasible corners are explored too.
     let allowed_tension = limits.tension_share * case.web.strength;
@@ -1170,6 +1223,16 @@ fn explain(
                     "Binding: {} ({:.0} % to spare): {why}.",
                     limit.title(),
                     100.0 * c.margin
+                ));
+            }
+        }
+        if binding.contains(&Limit::WoundInTension)
+            && let (Some(nip), Some(wit)) = (case.winding.nip_load, after.check(Limit::WoundInTension))
+        {
+            let nip_part = nip * case.web.friction;
+            if nip_part > 0.25 * wit.value {
+                out.push(format!(
+                    "The nip adds about {nip_part:.0} N/m (friction × nip load) to the wound-in tension; a lighter nip would leave room for more web tension."
                 ));
             }
         }
