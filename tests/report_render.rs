@@ -64,6 +64,7 @@ fn synthetic_profile(core_pressure: f64, surface_stress: f64) -> Profile {
         physical_layers: 5910,
         elements: 100,
         layers_per_element: 59,
+        ..ProfileSummary::default()
     };
     profile
 }

@@ -361,7 +361,9 @@ pub fn fallback_solve(problem: &WindingProblem, elements: usize) -> Profile {
             physical_layers: layers,
             elements: m,
             layers_per_element: layers_per.round() as usize,
+            ..ProfileSummary::default()
         },
+        thickness: problem.thickness,
         radius,
         pressure: p,
         tangential_stress: sigma_t,
