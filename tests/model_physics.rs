@@ -223,3 +223,36 @@ fn bad_inputs_are_typed_errors() {
     problem.winding.tension.start_tension = f64::NAN;
     assert!(solve(&problem).is_err());
 }
+
+#[test]
+fn power_law_and_constant_stiffness_solve_consistently() {
+    use rolltriage::model::{ModulusUpdate, RadialStiffness};
+    // A power law Er = C·P^n with n → 0 is the constant law Er = C.
+    let mut problem = stiff_film(600);
+    problem.radial_stiffness = RadialStiffness::Constant { modulus: 5e7 };
+    let constant = solve(&problem).unwrap().summary.core_pressure;
+    problem.radial_stiffness = RadialStiffness::PowerLaw {
+        coefficient: 5e7,
+        exponent: 0.0,
+    };
+    let power = solve(&problem).unwrap().summary.core_pressure;
+    assert!((power - constant).abs() < 1e-9 * constant);
+    // A stiffening power law: every modulus update gives a positive, finite profile close to the
+    // secant one.
+    problem.radial_stiffness = RadialStiffness::PowerLaw {
+        coefficient: 2e4,
+        exponent: 0.6,
+    };
+    let mut results = Vec::new();
+    for update in [
+        ModulusUpdate::Explicit,
+        ModulusUpdate::Iterated,
+        ModulusUpdate::Secant,
+    ] {
+        problem.options.modulus_update = update;
+        let p = solve(&problem).unwrap();
+        assert!(p.pressure.iter().all(|&x| x.is_finite() && x >= 0.0));
+        results.push(p.summary.core_pressure);
+    }
+    assert!((results[1] - results[2]).abs() < 0.01 * results[2]);
+}
