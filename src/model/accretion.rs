@@ -601,12 +601,12 @@ fn window_layers(problem: &WindingProblem) -> usize {
 /// Per-wrap window (wraps) for a wrap at `radius` under `pressure`: a few decay lengths
 /// λ = r·√(Er(P)/Eθ).
 /// Never more than needed to reach elements that resolve the surface decay length, i.e. at
-/// most max(3·λ(0), 2 elements).
+/// most max(λ(0), 2 elements).
 fn window_at(problem: &WindingProblem, radius: f64, pressure: f64, group: usize) -> usize {
     let g = problem.tangential_modulus / problem.radial_stiffness.modulus_at(pressure);
     let decay = radius / g.max(1.0).sqrt();
     let layers = (WINDOW_DECAY_LENGTHS * decay / problem.thickness).ceil() as usize;
-    let cap = window_layers(problem).max(2 * group);
+    let cap = (window_layers(problem) / 3).max(2 * group);
     layers.min(cap).clamp(WINDOW_MIN, WINDOW_MAX)
 }
 
