@@ -372,6 +372,7 @@ pub fn fallback_solve(problem: &WindingProblem, elements: usize) -> Profile {
         zones,
         air_film: None,
         warnings: vec![],
+        ..Profile::default()
     }
 }
 
