@@ -148,3 +148,31 @@ fn per_layer_explicit_core_pressure_matches_scipy() {
         assert!(error < 0.01, "{}: {error}", case["name"]);
     }
 }
+
+#[test]
+fn grouped_core_and_peak_pressure_match_scipy() {
+    for result in results() {
+        let case = &result["case"];
+        let profile = solve(&problem_from(
+            case,
+            ModulusUpdate::Secant,
+            Resolution::Grouped { layers: 10 },
+        ))
+        .unwrap();
+        let reference = column(&result, "pressure");
+        let error = (profile.summary.core_pressure - reference[0]).abs() / reference[0];
+        eprintln!("{} grouped: core pressure {error:.2e}", case["name"]);
+        assert!(error < 0.01, "{}: {error}", case["name"]);
+        // Pressure along the roll, interpolated at the grouped nodes.
+        let radius = column(&result, "radius");
+        let peak = reference.iter().fold(0.0f64, |m, v| m.max(*v));
+        for (r, p) in profile.radius.iter().zip(&profile.pressure) {
+            let expected = rolltriage::model::Profile::interpolate(&reference, &radius, *r);
+            assert!(
+                (p - expected).abs() < 0.01 * peak,
+                "{} at r = {r}",
+                case["name"]
+            );
+        }
+    }
+}
