@@ -11,7 +11,9 @@ Examples:
   rolltriage tui cases/harbour_newsprint_telescoping.yaml
   rolltriage stress cases/harbour_newsprint_telescoping.yaml --units us
   rolltriage diagnose cases/harbour_newsprint_telescoping.yaml --top 3
+  rolltriage case new --web pet_film --core paper_6in -o my_case.yaml
   rolltriage case check cases/*.yaml
+  rolltriage case presets --units us
   rolltriage rules check rules/
 
 Exit codes: 0 ok, 1 bad input or failed work, 2 usage error.";

@@ -2,6 +2,10 @@
 
 use std::io::Write;
 use std::path::{Path, PathBuf};
+use std::sync::atomic::{AtomicU64, Ordering};
+
+/// Distinguishes temporary files of concurrent saves within one process.
+static SAVE_COUNTER: AtomicU64 = AtomicU64::new(0);
 
 /// Failure to save a file; the previous file (if any) is left untouched.
 #[derive(Debug, thiserror::Error)]
@@ -29,9 +33,14 @@ pub fn save_atomic(path: &Path, contents: &[u8]) -> Result<(), SaveError> {
         .file_name()
         .map(|n| n.to_string_lossy().into_owned())
         .unwrap_or_else(|| "rolltriage".to_string());
-    let temp = folder.join(format!(".{name}.{}.tmp", std::process::id()));
+    let serial = SAVE_COUNTER.fetch_add(1, Ordering::Relaxed);
+    let temp = folder.join(format!(".{name}.{}.{serial}.tmp", std::process::id()));
     let write = || -> std::io::Result<()> {
-        let mut file = std::fs::File::create(&temp)?;
+        // create_new: never follow or reuse something already at the temporary path.
+        let mut file = std::fs::File::options()
+            .write(true)
+            .create_new(true)
+            .open(&temp)?;
         file.write_all(contents)?;
         file.sync_all()?;
         Ok(())
@@ -47,5 +56,41 @@ pub fn save_atomic(path: &Path, contents: &[u8]) -> Result<(), SaveError> {
             source,
         });
     }
+    // Make the rename itself durable where the platform allows syncing a folder; the new file
+    // is complete either way, so a failure here is not an error.
+    #[cfg(unix)]
+    if let Ok(dir) = std::fs::File::open(&folder) {
+        let _ = dir.sync_all();
+    }
     Ok(())
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn saves_replace_and_leave_no_temporary_files() {
+        let dir = tempfile::tempdir().unwrap();
+        let path = dir.path().join("a.yaml");
+        save_atomic(&path, b"one").unwrap();
+        save_atomic(&path, b"two").unwrap();
+        assert_eq!(std::fs::read(&path).unwrap(), b"two");
+        assert_eq!(std::fs::read_dir(dir.path()).unwrap().count(), 1);
+    }
+
+    #[test]
+    fn concurrent_saves_do_not_collide() {
+        let dir = tempfile::tempdir().unwrap();
+        let path = dir.path().join("shared.yaml");
+        std::thread::scope(|scope| {
+            for i in 0..8 {
+                let path = path.clone();
+                scope.spawn(move || save_atomic(&path, format!("writer {i}").as_bytes()).unwrap());
+            }
+        });
+        let text = std::fs::read_to_string(&path).unwrap();
+        assert!(text.starts_with("writer "), "{text}");
+        assert_eq!(std::fs::read_dir(dir.path()).unwrap().count(), 1);
+    }
 }

@@ -1,1 +1,497 @@
-//! (to be written)
+//! Generic material and core presets: approximate starting values for what a case file leaves
+//! out. Every number carries its source: a named publication, `common practice`, or
+//! `(from memory)` (recalled, not checked against a publication — calibrate before trusting).
+//!
+//! These are generic grades, not any supplier's product. Values are SI (m, Pa, N/m).
+//!
+//! Pfeiffer's radial law (Pfeiffer, TAPPI J. 49(8):342, 1966) is P = K1·(e^(K2·ε) − 1), so the
+//! radial modulus is Er = K2·(P + K1). Published fits vary by a factor of several between
+//! grades and test methods; the K1/K2 below give the right order of radial softness for each
+//! kind of web and nothing more. Measure a stack (see `rolltriage calibrate`) when it matters.
+
+use serde::Serialize;
+
+/// One preset number with where it came from.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+pub struct Sourced {
+    pub value: f64,
+    pub source: &'static str,
+}
+
+const fn sourced(value: f64, source: &'static str) -> Sourced {
+    Sourced { value, source }
+}
+
+/// Source note for values recalled without checking a publication.
+const MEMORY: &str = "(from memory)";
+/// Pfeiffer constants: order of magnitude only.
+const PFEIFFER_MEMORY: &str =
+    "(from memory) order of magnitude of published Pfeiffer (1966) fits for this kind of web";
+/// Tension rule of thumb per mil of caliper for films and foil.
+const FILM_TENSION_RULE: &str = "(from memory) trade rule of thumb for this film in pli per mil of caliper; common practice is 10–25 % of tensile strength at most";
+/// Tension rule of thumb for paper grades.
+const PAPER_TENSION_RULE: &str =
+    "(from memory) trade rule of thumb about 0.5 pli per 10 lb of basis weight (3300 ft² ream)";
+/// Poisson ratio of the wound stack used by accretion models.
+const STACK_POISSON: &str = "(from memory) small value usual in Hakiel-type accretion models; results are insensitive to it";
+
+/// A generic web kind.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+pub struct WebPreset {
+    pub id: &'static str,
+    pub name: &'static str,
+    /// paper, board, film, foil, nonwoven.
+    pub material: &'static str,
+    /// Caliper of one layer (m).
+    pub thickness: Sourced,
+    /// Machine-direction (tangential) modulus Eθ (Pa).
+    pub tangential_modulus: Sourced,
+    /// Pfeiffer K1 (Pa).
+    pub k1: Sourced,
+    /// Pfeiffer K2 (dimensionless).
+    pub k2: Sourced,
+    /// Poisson ratio of the wound stack (ν_θr).
+    pub poisson_ratio: Sourced,
+    /// Web-to-web friction coefficient.
+    pub friction: Sourced,
+    /// RMS roughness of one surface (m).
+    pub roughness: Sourced,
+    /// Machine-direction tensile strength per width (N/m).
+    pub strength: Sourced,
+    /// Typical winding tension per width (N/m).
+    pub typical_tension: Sourced,
+}
+
+/// A generic core kind.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+pub struct CorePreset {
+    pub id: &'static str,
+    pub name: &'static str,
+    /// paper, steel, aluminium, plastic, rigid.
+    pub material: &'static str,
+    /// Bore (m).
+    pub inside_diameter: Sourced,
+    /// Outside diameter where winding starts (m).
+    pub outside_diameter: Sourced,
+    /// Modulus of the core material for the hollow-cylinder (Lamé) stiffness (Pa).
+    pub modulus: Sourced,
+    pub poisson_ratio: Sourced,
+    /// Typical external radial pressure the core carries before crushing (Pa).
+    pub crush_pressure: Sourced,
+}
+
+const INCH: f64 = 0.0254;
+const PLI: f64 = 4.448_221_615_260_5 / INCH;
+
+const WEB_PRESETS: [WebPreset; 9] = [
+    WebPreset {
+        id: "newsprint",
+        name: "Newsprint-like paper (about 45 g/m²)",
+        material: "paper",
+        thickness: sourced(
+            76e-6,
+            "common practice: newsprint caliper about 3 mil (76 µm)",
+        ),
+        tangential_modulus: sourced(4.5e9, MEMORY),
+        k1: sourced(5e3, PFEIFFER_MEMORY),
+        k2: sourced(50.0, PFEIFFER_MEMORY),
+        poisson_ratio: sourced(0.01, STACK_POISSON),
+        friction: sourced(0.4, "(from memory) paper-to-paper static friction 0.3–0.5"),
+        roughness: sourced(4e-6, "(from memory) uncoated mechanical paper, Rq a few µm"),
+        strength: sourced(
+            2.3e3,
+            "(from memory) MD tensile index about 50 N·m/g at 45 g/m²",
+        ),
+        typical_tension: sourced(1.5 * PLI, PAPER_TENSION_RULE),
+    },
+    WebPreset {
+        id: "soft_paper_reference",
+        name: "Soft paper-like reference web (engine checks; not a measured grade)",
+        material: "paper",
+        thickness: sourced(76e-6, "rolltriage reference web used by the engine tests"),
+        tangential_modulus: sourced(4.5e9, MEMORY),
+        k1: sourced(5e3, "rolltriage reference web used by the engine tests"),
+        k2: sourced(50.0, "rolltriage reference web used by the engine tests"),
+        poisson_ratio: sourced(0.01, STACK_POISSON),
+        friction: sourced(0.4, "(from memory) paper-to-paper static friction 0.3–0.5"),
+        roughness: sourced(4e-6, "(from memory) uncoated mechanical paper, Rq a few µm"),
+        strength: sourced(
+            2.3e3,
+            "(from memory) MD tensile index about 50 N·m/g at 45 g/m²",
+        ),
+        typical_tension: sourced(1.5 * PLI, PAPER_TENSION_RULE),
+    },
+    WebPreset {
+        id: "coated_paper",
+        name: "Coated printing paper (about 90 g/m²)",
+        material: "paper",
+        thickness: sourced(80e-6, MEMORY),
+        tangential_modulus: sourced(6e9, MEMORY),
+        k1: sourced(10e3, PFEIFFER_MEMORY),
+        k2: sourced(100.0, PFEIFFER_MEMORY),
+        poisson_ratio: sourced(0.01, STACK_POISSON),
+        friction: sourced(
+            0.3,
+            "(from memory) coated paper slides more easily than uncoated",
+        ),
+        roughness: sourced(
+            1e-6,
+            "(from memory) calendered coated surface, Rq about 1 µm",
+        ),
+        strength: sourced(4e3, MEMORY),
+        typical_tension: sourced(3.0 * PLI, PAPER_TENSION_RULE),
+    },
+    WebPreset {
+        id: "board",
+        name: "Folding boxboard (about 16 pt)",
+        material: "board",
+        thickness: sourced(400e-6, "common practice: 16 pt board is 0.016 in (406 µm)"),
+        tangential_modulus: sourced(6e9, MEMORY),
+        k1: sourced(15e3, PFEIFFER_MEMORY),
+        k2: sourced(40.0, PFEIFFER_MEMORY),
+        poisson_ratio: sourced(0.01, STACK_POISSON),
+        friction: sourced(0.4, MEMORY),
+        roughness: sourced(3e-6, MEMORY),
+        strength: sourced(15e3, MEMORY),
+        typical_tension: sourced(
+            1e3,
+            "(from memory) several pli for board, under 10 % of strength",
+        ),
+    },
+    WebPreset {
+        id: "pet_film",
+        name: "PET (polyester) film, 23 µm",
+        material: "film",
+        thickness: sourced(23e-6, "common practice: 92 gauge packaging polyester"),
+        tangential_modulus: sourced(4.5e9, "(from memory) biaxially oriented PET 4–5 GPa"),
+        k1: sourced(3e3, PFEIFFER_MEMORY),
+        k2: sourced(300.0, PFEIFFER_MEMORY),
+        poisson_ratio: sourced(0.01, STACK_POISSON),
+        friction: sourced(0.4, "(from memory) film-to-film with slip additive 0.3–0.5"),
+        roughness: sourced(50e-9, "(from memory) filled PET film surface Rq tens of nm"),
+        strength: sourced(
+            23e-6 * 200e6,
+            "(from memory) MD tensile strength about 200 MPa",
+        ),
+        typical_tension: sourced(0.75 * PLI * 23.0 / 25.4, FILM_TENSION_RULE),
+    },
+    WebPreset {
+        id: "bopp_film",
+        name: "BOPP (oriented polypropylene) film, 20 µm",
+        material: "film",
+        thickness: sourced(20e-6, "common practice: 20 µm packaging BOPP"),
+        tangential_modulus: sourced(2.2e9, "(from memory) BOPP MD modulus about 2 GPa"),
+        k1: sourced(3e3, PFEIFFER_MEMORY),
+        k2: sourced(250.0, PFEIFFER_MEMORY),
+        poisson_ratio: sourced(0.01, STACK_POISSON),
+        friction: sourced(0.3, MEMORY),
+        roughness: sourced(100e-9, MEMORY),
+        strength: sourced(
+            20e-6 * 150e6,
+            "(from memory) MD tensile strength about 150 MPa",
+        ),
+        typical_tension: sourced(0.375 * PLI * 20.0 / 25.4, FILM_TENSION_RULE),
+    },
+    WebPreset {
+        id: "ldpe_film",
+        name: "LDPE (low-density polyethylene) film, 50 µm",
+        material: "film",
+        thickness: sourced(50e-6, "common practice: 2 mil blown film"),
+        tangential_modulus: sourced(0.2e9, "(from memory) LDPE 0.1–0.3 GPa"),
+        k1: sourced(2e3, PFEIFFER_MEMORY),
+        k2: sourced(150.0, PFEIFFER_MEMORY),
+        poisson_ratio: sourced(0.01, STACK_POISSON),
+        friction: sourced(
+            0.5,
+            "(from memory) polyethylene film-to-film is grippy, 0.4–0.7",
+        ),
+        roughness: sourced(300e-9, MEMORY),
+        strength: sourced(
+            50e-6 * 20e6,
+            "(from memory) MD tensile strength about 20 MPa",
+        ),
+        typical_tension: sourced(0.175 * PLI * 50.0 / 25.4, FILM_TENSION_RULE),
+    },
+    WebPreset {
+        id: "aluminium_foil",
+        name: "Aluminium foil, 9 µm (soft temper)",
+        material: "foil",
+        thickness: sourced(9e-6, "common practice: 9 µm converter foil"),
+        tangential_modulus: sourced(
+            69e9,
+            "(from memory) handbook modulus of aluminium about 69 GPa",
+        ),
+        k1: sourced(10e3, PFEIFFER_MEMORY),
+        k2: sourced(400.0, PFEIFFER_MEMORY),
+        poisson_ratio: sourced(0.01, STACK_POISSON),
+        friction: sourced(0.3, MEMORY),
+        roughness: sourced(200e-9, MEMORY),
+        strength: sourced(
+            9e-6 * 70e6,
+            "(from memory) annealed foil tensile strength 50–100 MPa",
+        ),
+        typical_tension: sourced(1.0 * PLI * 9.0 / 25.4, FILM_TENSION_RULE),
+    },
+    WebPreset {
+        id: "spunbond_nonwoven",
+        name: "Spunbond polypropylene nonwoven (about 20 g/m²)",
+        material: "nonwoven",
+        thickness: sourced(200e-6, MEMORY),
+        tangential_modulus: sourced(0.05e9, MEMORY),
+        k1: sourced(1e3, PFEIFFER_MEMORY),
+        k2: sourced(20.0, PFEIFFER_MEMORY),
+        poisson_ratio: sourced(0.01, STACK_POISSON),
+        friction: sourced(0.5, MEMORY),
+        roughness: sourced(20e-6, "(from memory) fibrous surface, Rq tens of µm"),
+        strength: sourced(800.0, "(from memory) about 40 N per 50 mm strip MD"),
+        typical_tension: sourced(
+            0.2 * PLI,
+            "(from memory) nonwovens wind at a fraction of a pli",
+        ),
+    },
+];
+
+/// Paperboard cores: hoop stress at the bore of a thick-walled (Lamé) cylinder under external
+/// pressure P is 2·P·b²/(b² − a²); the crush ratings below are the P at which that reaches a
+/// compressive strength of about 20 MPa for laminated paperboard (from memory).
+const PAPER_CORE_CRUSH: &str = "estimate: Lamé bore hoop stress reaching ~20 MPa paperboard compressive strength (from memory)";
+const PAPER_CORE_MODULUS: &str =
+    "(from memory) effective modulus of spiral-wound paperboard cores 1–3 GPa";
+
+const CORE_PRESETS: [CorePreset; 7] = [
+    CorePreset {
+        id: "paper_3in",
+        name: "Paper core, 3 in bore, 1/2 in wall",
+        material: "paper",
+        inside_diameter: sourced(3.0 * INCH, "common practice: 3 in (76.2 mm) bore"),
+        outside_diameter: sourced(4.0 * INCH, "common practice: 1/2 in wall"),
+        modulus: sourced(2e9, PAPER_CORE_MODULUS),
+        poisson_ratio: sourced(0.3, MEMORY),
+        crush_pressure: sourced(4e6, PAPER_CORE_CRUSH),
+    },
+    CorePreset {
+        id: "paper_3in_thin",
+        name: "Paper core, 3 in bore, 1/4 in wall",
+        material: "paper",
+        inside_diameter: sourced(3.0 * INCH, "common practice: 3 in (76.2 mm) bore"),
+        outside_diameter: sourced(3.5 * INCH, "common practice: 1/4 in wall"),
+        modulus: sourced(2e9, PAPER_CORE_MODULUS),
+        poisson_ratio: sourced(0.3, MEMORY),
+        crush_pressure: sourced(2e6, PAPER_CORE_CRUSH),
+    },
+    CorePreset {
+        id: "paper_6in",
+        name: "Paper core, 6 in bore, 1/2 in wall",
+        material: "paper",
+        inside_diameter: sourced(6.0 * INCH, "common practice: 6 in (152.4 mm) bore"),
+        outside_diameter: sourced(7.0 * INCH, "common practice: 1/2 in wall"),
+        modulus: sourced(2e9, PAPER_CORE_MODULUS),
+        poisson_ratio: sourced(0.3, MEMORY),
+        crush_pressure: sourced(2.5e6, PAPER_CORE_CRUSH),
+    },
+    CorePreset {
+        id: "paper_6in_heavy",
+        name: "Paper core, 6 in bore, 3/4 in wall",
+        material: "paper",
+        inside_diameter: sourced(6.0 * INCH, "common practice: 6 in (152.4 mm) bore"),
+        outside_diameter: sourced(7.5 * INCH, "common practice: 3/4 in wall"),
+        modulus: sourced(2e9, PAPER_CORE_MODULUS),
+        poisson_ratio: sourced(0.3, MEMORY),
+        crush_pressure: sourced(3.5e6, PAPER_CORE_CRUSH),
+    },
+    CorePreset {
+        id: "steel_6in",
+        name: "Steel core or spool, 6 in bore, 1/4 in wall",
+        material: "steel",
+        inside_diameter: sourced(6.0 * INCH, "common practice: 6 in bore"),
+        outside_diameter: sourced(6.5 * INCH, "common practice: 1/4 in wall"),
+        modulus: sourced(
+            200e9,
+            "(from memory) handbook modulus of carbon steel about 200 GPa",
+        ),
+        poisson_ratio: sourced(0.3, "(from memory) handbook value for steel"),
+        crush_pressure: sourced(
+            18e6,
+            "estimate: Lamé bore hoop stress reaching 250 MPa yield (from memory)",
+        ),
+    },
+    CorePreset {
+        id: "aluminium_6in",
+        name: "Aluminium core, 6 in bore, 1/4 in wall",
+        material: "aluminium",
+        inside_diameter: sourced(6.0 * INCH, "common practice: 6 in bore"),
+        outside_diameter: sourced(6.5 * INCH, "common practice: 1/4 in wall"),
+        modulus: sourced(
+            69e9,
+            "(from memory) handbook modulus of aluminium alloys about 69 GPa",
+        ),
+        poisson_ratio: sourced(0.33, "(from memory) handbook value for aluminium"),
+        crush_pressure: sourced(
+            15e6,
+            "estimate: Lamé bore hoop stress reaching about 200 MPa yield (from memory)",
+        ),
+    },
+    CorePreset {
+        id: "plastic_3in",
+        name: "Plastic (ABS) core, 3 in bore, 6 mm wall",
+        material: "plastic",
+        inside_diameter: sourced(3.0 * INCH, "common practice: 3 in bore"),
+        outside_diameter: sourced(3.0 * INCH + 0.012, MEMORY),
+        modulus: sourced(2.3e9, "(from memory) ABS modulus about 2–2.5 GPa"),
+        poisson_ratio: sourced(0.35, MEMORY),
+        crush_pressure: sourced(
+            3e6,
+            "estimate: Lamé bore stress well below ABS compressive strength, allowing for creep (from memory)",
+        ),
+    },
+];
+
+/// Line speed used when a case gives none (m/s).
+pub const DEFAULT_SPEED: Sourced =
+    sourced(5.0, "common practice: a moderate 300 m/min rewinding speed");
+/// Web width used when a case gives none (m). Stresses are per unit width, so it only scales
+/// totals (forces, torques).
+pub const DEFAULT_WIDTH: Sourced = sourced(1.0, "default: results are per unit width");
+/// Finished roll diameter used when a case gives neither diameter nor length (m).
+pub const DEFAULT_ROLL_DIAMETER: Sourced = sourced(1.0, "common practice: a 1 m finished roll");
+
+/// All web presets.
+pub fn web_presets() -> &'static [WebPreset] {
+    &WEB_PRESETS
+}
+
+/// All core presets.
+pub fn core_presets() -> &'static [CorePreset] {
+    &CORE_PRESETS
+}
+
+/// The web preset with this ID.
+pub fn web_preset(id: &str) -> Option<&'static WebPreset> {
+    WEB_PRESETS.iter().find(|p| p.id == id)
+}
+
+/// The core preset with this ID.
+pub fn core_preset(id: &str) -> Option<&'static CorePreset> {
+    CORE_PRESETS.iter().find(|p| p.id == id)
+}
+
+/// The closest web preset ID to an unknown `id`, for "did you mean".
+pub fn suggest_web(id: &str) -> Option<&'static str> {
+    crate::vocabulary::closest(id, WEB_PRESETS.iter().map(|p| p.id))
+}
+
+/// The closest core preset ID to an unknown `id`, for "did you mean".
+pub fn suggest_core(id: &str) -> Option<&'static str> {
+    crate::vocabulary::closest(id, CORE_PRESETS.iter().map(|p| p.id))
+}
+
+/// The web preset used for a material kind when the case names no preset.
+pub fn default_web_for_material(material: &str) -> &'static WebPreset {
+    let id = match material {
+        "board" => "board",
+        "film" | "laminate" => "pet_film",
+        "foil" => "aluminium_foil",
+        "nonwoven" => "spunbond_nonwoven",
+        _ => "newsprint",
+    };
+    web_preset(id).unwrap_or(&WEB_PRESETS[0])
+}
+
+/// The core preset used when the case names none: by core material, then by the web kind
+/// (films and foil usually run on 6 in cores, paper on 3 in), and the one whose outside
+/// diameter is nearest to `outside_diameter` when that is given.
+pub fn default_core_for(
+    core_material: Option<&str>,
+    web_material: &str,
+    outside_diameter: Option<f64>,
+) -> &'static CorePreset {
+    let material = match core_material {
+        Some("rigid") | Some("steel") => "steel",
+        Some(m) => m,
+        None => "paper",
+    };
+    let candidates: Vec<&'static CorePreset> = CORE_PRESETS
+        .iter()
+        .filter(|p| p.material == material)
+        .collect();
+    if let (Some(d), false) = (outside_diameter, candidates.is_empty()) {
+        let nearest = candidates.iter().min_by(|a, b| {
+            (a.outside_diameter.value - d)
+                .abs()
+                .total_cmp(&(b.outside_diameter.value - d).abs())
+        });
+        if let Some(p) = nearest {
+            return p;
+        }
+    }
+    let id = match (material, web_material) {
+        ("paper", "film" | "foil" | "laminate") => "paper_6in",
+        ("paper", _) => "paper_3in",
+        ("steel", _) => "steel_6in",
+        ("aluminium", _) => "aluminium_6in",
+        ("plastic", _) => "plastic_3in",
+        _ => "paper_3in",
+    };
+    core_preset(id).unwrap_or(&CORE_PRESETS[0])
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn every_value_has_a_source() {
+        for p in web_presets() {
+            for s in [
+                p.thickness,
+                p.tangential_modulus,
+                p.k1,
+                p.k2,
+                p.poisson_ratio,
+                p.friction,
+                p.roughness,
+                p.strength,
+                p.typical_tension,
+            ] {
+                assert!(s.value.is_finite() && s.value > 0.0, "{}", p.id);
+                assert!(!s.source.trim().is_empty(), "{}", p.id);
+            }
+            // Common practice: winding tension stays well under the web's strength.
+            assert!(p.typical_tension.value < 0.3 * p.strength.value, "{}", p.id);
+        }
+        for p in core_presets() {
+            assert!(
+                p.inside_diameter.value < p.outside_diameter.value,
+                "{}",
+                p.id
+            );
+            for s in [p.modulus, p.poisson_ratio, p.crush_pressure] {
+                assert!(s.value > 0.0 && !s.source.is_empty(), "{}", p.id);
+            }
+        }
+    }
+
+    #[test]
+    fn soft_reference_web_matches_the_engine_reference() {
+        let p = web_preset("soft_paper_reference").unwrap();
+        assert_eq!(p.k1.value, 5e3);
+        assert_eq!(p.k2.value, 50.0);
+        assert_eq!(p.thickness.value, 76e-6);
+    }
+
+    #[test]
+    fn suggestions_and_defaults() {
+        assert_eq!(suggest_web("newsprnt"), Some("newsprint"));
+        assert_eq!(suggest_core("paper_3inch"), Some("paper_3in"));
+        assert_eq!(default_web_for_material("film").id, "pet_film");
+        assert_eq!(default_core_for(None, "film", None).id, "paper_6in");
+        assert_eq!(
+            default_core_for(Some("paper"), "paper", Some(0.18)).id,
+            "paper_6in"
+        );
+        assert_eq!(
+            default_core_for(Some("steel"), "paper", None).id,
+            "steel_6in"
+        );
+    }
+}

@@ -1,4 +1,4 @@
-"""Generate the invented Harbour Mill stack-compression demo files (seeded, reproducible).
+"""Generate the invented Harbour Point mill stack-compression demo files (seeded, reproducible).
 
 The materials, parameters and noise levels are invented for the demo; they are not measurements
 of any real product. Run once; the CSVs are committed.
@@ -27,7 +27,7 @@ p_meas = p * (1 + rng.normal(0, 0.005, p.size))
 p_un = p[::-2][1:8]
 e_un = e[-1] - 0.35 * (e[-1] - strain_at(p_un, k1, k2))  # recovers only part of the strain
 with open("harbour_news_45.csv", "w") as f:
-    f.write("# Harbour Mill, 45 g/m2 newsprint, stack test (invented demo data)\n")
+    f.write("# Harbour Point mill, 45 g/m2 newsprint, stack test (invented demo data)\n")
     f.write("# sample: PM2 reel 4471, 24 sheets 100 mm x 100 mm\n")
     f.write("strain,pressure [kPa]\n")
     f.write("0.00000,0.000\n")
@@ -44,7 +44,7 @@ e = strain_at(p, k1, k2) * (1 + rng.normal(0, 0.008, p.size))
 e = np.maximum.accumulate(e + np.arange(p.size) * 1e-7)
 h = h0 * (1 - e)
 with open("harbour_lwc_60_height.csv", "w") as f:
-    f.write("# Harbour Mill, 60 g/m2 coated LWC, stack test (invented demo data)\n")
+    f.write("# Harbour Point mill, 60 g/m2 coated LWC, stack test (invented demo data)\n")
     f.write("# initial_height: 12.00 mm\n")
     f.write("# layers: 200\n")
     f.write("height [mm],pressure [psi]\n")
@@ -57,7 +57,7 @@ p = loading_levels(14, 5e3, 2.0e6)
 e = strain_at(p, k1, k2) * (1 + rng.normal(0, 0.01, p.size))
 e = np.maximum.accumulate(e + np.arange(p.size) * 1e-7)
 with open("harbour_bopp_25.csv", "w") as f:
-    f.write("# Harbour Films, 25 um oriented polypropylene, stack test (invented demo data)\n")
+    f.write("# Harbour Point film plant, 25 um oriented polypropylene, stack test (invented demo data)\n")
     f.write("# layers: 400\n")
     f.write("strain [%],pressure [kPa]\n")
     for a, b in zip(e, p * (1 + rng.normal(0, 0.005, p.size))):

@@ -1,8 +1,237 @@
-//! `rolltriage case`.
+//! `rolltriage case`: start a case file from presets, check case files, list the presets.
+
+use std::path::PathBuf;
+
+use anyhow::{Context, bail};
+use rolltriage::case::{Case, starter_yaml};
+use rolltriage::presets::{self, Sourced};
+use rolltriage::units::{QuantityKind, UnitSystem, format_quantity};
+
+const EXAMPLES: &str = "\
+Examples:
+  rolltriage case new --web pet_film --core paper_6in -o cases/my_film.yaml
+  rolltriage case check cases/*.yaml
+  rolltriage case check --assumed cases/harbour_newsprint_telescoping.yaml
+  rolltriage case presets --units us";
 
 #[derive(Debug, clap::Args)]
-pub struct CaseArgs {}
+#[command(after_help = EXAMPLES)]
+pub struct CaseArgs {
+    #[command(subcommand)]
+    pub what: CaseCommand,
+}
 
-pub fn run(_args: &CaseArgs) -> anyhow::Result<()> {
-    anyhow::bail!("`rolltriage case` is not available yet")
+#[derive(Debug, clap::Subcommand)]
+pub enum CaseCommand {
+    /// Write a complete starting case from a web and a core preset (values commented with
+    /// their sources).
+    New(NewArgs),
+    /// Check case files: parse, apply presets, validate every value. Exit 1 if any fails.
+    Check(CheckArgs),
+    /// List the web and core presets with every value's source.
+    Presets(PresetsArgs),
+}
+
+#[derive(Debug, clap::Args)]
+pub struct NewArgs {
+    /// Web preset ID (see `rolltriage case presets`).
+    #[arg(long, default_value = "newsprint", value_name = "PRESET")]
+    pub web: String,
+    /// Core preset ID; by default the usual core for the web's material.
+    #[arg(long, value_name = "PRESET")]
+    pub core: Option<String>,
+    /// Where to write the case; prints to standard output when omitted.
+    #[arg(short, long, value_name = "FILE")]
+    pub output: Option<PathBuf>,
+    /// Replace FILE if it already exists.
+    #[arg(long)]
+    pub force: bool,
+}
+
+#[derive(Debug, clap::Args)]
+pub struct CheckArgs {
+    /// Case files to check.
+    #[arg(required = true, value_name = "FILE")]
+    pub files: Vec<PathBuf>,
+    /// Also list the values taken from presets or defaults.
+    #[arg(long)]
+    pub assumed: bool,
+}
+
+#[derive(Debug, clap::Args)]
+pub struct PresetsArgs {
+    /// Units to print in.
+    #[arg(long, value_enum, default_value_t = UnitsArg::Si)]
+    pub units: UnitsArg,
+    /// Print the presets as JSON (values in SI) instead of text.
+    #[arg(long)]
+    pub json: bool,
+}
+
+#[derive(Debug, Clone, Copy, PartialEq, Eq, clap::ValueEnum)]
+pub enum UnitsArg {
+    Si,
+    Us,
+}
+
+pub fn run(args: &CaseArgs) -> anyhow::Result<()> {
+    match &args.what {
+        CaseCommand::New(a) => new(a),
+        CaseCommand::Check(a) => check(a),
+        CaseCommand::Presets(a) => list_presets(a),
+    }
+}
+
+fn new(args: &NewArgs) -> anyhow::Result<()> {
+    let web = presets::web_preset(&args.web).with_context(|| {
+        unknown_preset_message("web", &args.web, presets::suggest_web(&args.web))
+    })?;
+    let core = match &args.core {
+        Some(id) => presets::core_preset(id)
+            .with_context(|| unknown_preset_message("core", id, presets::suggest_core(id)))?,
+        None => presets::default_core_for(None, web.material, None),
+    };
+    let text = starter_yaml(web, core);
+    // The starting case must itself pass the check.
+    Case::from_yaml_str(&text, "starting case")
+        .and_then(|c| c.resolve_as("starting case"))
+        .context("internal error: the starting case does not check")?;
+    match &args.output {
+        None => print!("{text}"),
+        Some(path) => {
+            if path.exists() && !args.force {
+                bail!(
+                    "{} already exists; use --force to replace it",
+                    path.display()
+                );
+            }
+            rolltriage::fsutil::save_atomic(path, text.as_bytes())
+                .with_context(|| format!("cannot write {}", path.display()))?;
+            eprintln!(
+                "wrote {} (web {}, core {}); edit it, then run `rolltriage case check {}`",
+                path.display(),
+                web.id,
+                core.id,
+                path.display()
+            );
+        }
+    }
+    Ok(())
+}
+
+fn unknown_preset_message(what: &str, id: &str, suggestion: Option<&str>) -> String {
+    let ids: Vec<&str> = if what == "web" {
+        presets::web_presets().iter().map(|p| p.id).collect()
+    } else {
+        presets::core_presets().iter().map(|p| p.id).collect()
+    };
+    let hint = suggestion
+        .map(|s| format!(" (did you mean `{s}`?)"))
+        .unwrap_or_default();
+    format!(
+        "unknown {what} preset \"{id}\"{hint}; accepted: {}",
+        ids.join(", ")
+    )
+}
+
+fn check(args: &CheckArgs) -> anyhow::Result<()> {
+    let mut failed = 0usize;
+    for path in &args.files {
+        match Case::load_resolved(path) {
+            Ok(resolved) => {
+                println!(
+                    "ok      {}  ({} symptom(s), {} value(s) assumed)",
+                    path.display(),
+                    resolved.symptoms.len(),
+                    resolved.assumed.len()
+                );
+                if args.assumed {
+                    for a in &resolved.assumed {
+                        println!("          {} = {}  [{}]", a.field, a.value, a.source);
+                    }
+                }
+            }
+            Err(error) => {
+                failed += 1;
+                println!("FAILED  {}", path.display());
+                eprintln!("error: {error}");
+            }
+        }
+    }
+    if failed > 0 {
+        bail!(
+            "{failed} of {} case file(s) failed the check",
+            args.files.len()
+        );
+    }
+    Ok(())
+}
+
+fn list_presets(args: &PresetsArgs) -> anyhow::Result<()> {
+    if args.json {
+        let all = serde_json::json!({
+            "units": "SI (m, Pa, N/m)",
+            "webs": presets::web_presets(),
+            "cores": presets::core_presets(),
+        });
+        println!("{}", serde_json::to_string_pretty(&all)?);
+        return Ok(());
+    }
+    let system = match args.units {
+        UnitsArg::Si => UnitSystem::Si,
+        UnitsArg::Us => UnitSystem::Us,
+    };
+    let show = |label: &str, value: Sourced, kind: Option<QuantityKind>| {
+        let text = match kind {
+            Some(kind) => format_quantity(value.value, kind, system),
+            None => format!("{}", value.value),
+        };
+        println!("    {label:<20} {text:<14} {}", value.source);
+    };
+    println!("Web presets (generic grades; approximate — calibrate before trusting):");
+    for p in presets::web_presets() {
+        println!("\n  {}  — {} [{}]", p.id, p.name, p.material);
+        show("thickness", p.thickness, Some(QuantityKind::Length));
+        show(
+            "tangential modulus",
+            p.tangential_modulus,
+            Some(QuantityKind::Stress),
+        );
+        show("Pfeiffer K1", p.k1, Some(QuantityKind::Stress));
+        show("Pfeiffer K2", p.k2, None);
+        show("Poisson ratio", p.poisson_ratio, None);
+        show("friction", p.friction, None);
+        show("roughness (RMS)", p.roughness, Some(QuantityKind::Length));
+        show("strength", p.strength, Some(QuantityKind::ForcePerWidth));
+        show(
+            "typical tension",
+            p.typical_tension,
+            Some(QuantityKind::ForcePerWidth),
+        );
+    }
+    println!("\nCore presets:");
+    for p in presets::core_presets() {
+        println!("\n  {}  — {} [{}]", p.id, p.name, p.material);
+        show(
+            "inside diameter",
+            p.inside_diameter,
+            Some(QuantityKind::Length),
+        );
+        show(
+            "outside diameter",
+            p.outside_diameter,
+            Some(QuantityKind::Length),
+        );
+        show("modulus", p.modulus, Some(QuantityKind::Stress));
+        show("Poisson ratio", p.poisson_ratio, None);
+        show(
+            "crush pressure",
+            p.crush_pressure,
+            Some(QuantityKind::Stress),
+        );
+    }
+    println!(
+        "\nA core with `material: rigid` is infinitely stiff; `stiffness:` gives a measured Ec."
+    );
+    Ok(())
 }

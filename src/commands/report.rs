@@ -1,8 +1,106 @@
-//! `rolltriage report`.
+//! `rolltriage report`: write a complaint report for a case (Markdown, HTML with plots, JSON).
+
+use std::path::PathBuf;
+
+use anyhow::Context;
+
+use rolltriage::diagnose::rules::RuleBase;
+use rolltriage::report::{Format, PrepareOptions, prepare_from_path, render};
+use rolltriage::units::UnitSystem;
 
 #[derive(Debug, clap::Args)]
-pub struct ReportArgs {}
+#[command(after_help = "Examples:
+  rolltriage report cases/harbour_newsprint_telescoping.yaml -o complaint.html
+  rolltriage report cases/harbour_coated_crushed_core.yaml -o r.md --remedy add_taper
+  rolltriage report CASE.yaml -o - --format json      (JSON to standard output)")]
+pub struct ReportArgs {
+    /// The case file to report on.
+    pub case: PathBuf,
+    /// Output file; its extension (.md, .html, .json) sets the format unless --format is given.
+    /// `-` writes to standard output.
+    #[arg(short, long)]
+    pub output: PathBuf,
+    /// markdown, html or json.
+    #[arg(long)]
+    pub format: Option<String>,
+    /// Apply this remedy (by ID), re-solve and show before/after.
+    #[arg(long)]
+    pub remedy: Option<String>,
+    /// Date printed in the report (YYYY-MM-DD); today (UTC) by default.
+    #[arg(long)]
+    pub date: Option<String>,
+    /// Print quantities in SI (default) or US trade units: si or us.
+    #[arg(long, default_value = "si")]
+    pub units: String,
+    /// Rule directory to use instead of the shipped rule base.
+    #[arg(long)]
+    pub rules: Option<PathBuf>,
+}
 
-pub fn run(_args: &ReportArgs) -> anyhow::Result<()> {
-    anyhow::bail!("`rolltriage report` is not available yet")
+fn parse_units(text: &str) -> anyhow::Result<UnitSystem> {
+    match text.to_ascii_lowercase().as_str() {
+        "si" | "metric" => Ok(UnitSystem::Si),
+        "us" | "imperial" => Ok(UnitSystem::Us),
+        other => anyhow::bail!("--units: \"{other}\" is not known; accepted: si, us"),
+    }
+}
+
+fn check_date(text: &str) -> anyhow::Result<()> {
+    let parts: Vec<&str> = text.split('-').collect();
+    let ok = parts.len() == 3
+        && parts[0].len() == 4
+        && parts[1].len() == 2
+        && parts[2].len() == 2
+        && parts.iter().all(|p| p.chars().all(|c| c.is_ascii_digit()))
+        && (1..=12).contains(&parts[1].parse::<u32>().unwrap_or(0))
+        && (1..=31).contains(&parts[2].parse::<u32>().unwrap_or(0));
+    if ok {
+        Ok(())
+    } else {
+        anyhow::bail!("--date: \"{text}\" is not a date; accepted: YYYY-MM-DD, e.g. 2026-12-02")
+    }
+}
+
+pub fn run(args: &ReportArgs) -> anyhow::Result<()> {
+    let to_stdout = args.output.as_os_str() == "-";
+    let format = match &args.format {
+        Some(text) => text.parse::<Format>()?,
+        None if to_stdout => Format::Markdown,
+        None => Format::from_path(&args.output).with_context(|| {
+            format!(
+                "cannot tell the report format from \"{}\"; use an extension .md, .html or .json, or --format markdown|html|json",
+                args.output.display()
+            )
+        })?,
+    };
+    if let Some(date) = &args.date {
+        check_date(date)?;
+    }
+    let rules = match &args.rules {
+        Some(dir) => RuleBase::load_dir(dir)
+            .with_context(|| format!("loading the rule base from {}", dir.display()))?,
+        None => RuleBase::embedded().context("loading the shipped rule base")?,
+    };
+    let options = PrepareOptions {
+        remedy: args.remedy.clone(),
+        date: args.date.clone(),
+        source_file: Some(args.case.display().to_string()),
+        units: parse_units(&args.units)?,
+        ..PrepareOptions::default()
+    };
+    let input = prepare_from_path(&args.case, &rules, &options)
+        .with_context(|| format!("preparing the report for {}", args.case.display()))?;
+    let text = render(&input, format).context("rendering the report")?;
+    if to_stdout {
+        print!("{text}");
+    } else {
+        rolltriage::fsutil::save_atomic(&args.output, text.as_bytes())
+            .with_context(|| format!("saving the report to {}", args.output.display()))?;
+        eprintln!(
+            "wrote {} report to {}",
+            format.as_str(),
+            args.output.display()
+        );
+    }
+    Ok(())
 }

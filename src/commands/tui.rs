@@ -1,8 +1,45 @@
-//! `rolltriage tui`.
+//! `rolltriage tui [CASE.yaml]`: open the terminal UI (also what `rolltriage` alone does).
+
+use std::path::PathBuf;
+
+use anyhow::Context;
+
+/// Unit system for figures on screen.
+#[derive(Debug, Clone, Copy, Default, PartialEq, Eq, clap::ValueEnum)]
+pub enum Units {
+    #[default]
+    Si,
+    Us,
+}
 
 #[derive(Debug, Default, clap::Args)]
-pub struct TuiArgs {}
+pub struct TuiArgs {
+    /// Case file to open; without it the UI starts on a new case.
+    pub case: Option<PathBuf>,
+    /// Rule directory to use instead of the shipped rules.
+    #[arg(long, value_name = "DIR")]
+    pub rules: Option<PathBuf>,
+    /// Units for figures on screen (Ctrl-U switches while running).
+    #[arg(long, value_enum, default_value_t = Units::Si)]
+    pub units: Units,
+    /// Capture the mouse: wheel scrolls, a click on a tab switches screen.
+    #[arg(long)]
+    pub mouse: bool,
+}
 
-pub fn run(_args: &TuiArgs) -> anyhow::Result<()> {
-    anyhow::bail!("`rolltriage tui` is not available yet")
+pub fn run(args: &TuiArgs) -> anyhow::Result<()> {
+    let options = rolltriage::tui::Options {
+        case: args.case.clone(),
+        rules: args.rules.clone(),
+        units: match args.units {
+            Units::Si => rolltriage::units::UnitSystem::Si,
+            Units::Us => rolltriage::units::UnitSystem::Us,
+        },
+        mouse: args.mouse,
+    };
+    let what = match &args.case {
+        Some(path) => format!("opening the terminal UI on {}", path.display()),
+        None => "opening the terminal UI".to_string(),
+    };
+    rolltriage::tui::run(&options).with_context(|| what)
 }

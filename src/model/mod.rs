@@ -14,7 +14,7 @@ pub mod wound_in;
 pub use accretion::{solve, solve_with_progress};
 pub use core::CoreStiffness;
 pub use material::RadialStiffness;
-pub use profile::{Profile, ProfileSummary, Zone, ZoneName};
+pub use profile::{Band, Profile, ProfileSummary, Zone, ZoneName, ZoneStats};
 pub use schedule::{Taper, TensionSchedule, UpsetBand};
 pub use wound_in::{AirFilm, WindingMethod, WindingSetup};
 

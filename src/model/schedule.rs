@@ -39,3 +39,140 @@ pub struct TensionSchedule {
     pub taper: Taper,
     pub upsets: Vec<UpsetBand>,
 }
+
+impl TensionSchedule {
+    /// A constant tension with no taper and no upsets.
+    pub fn constant(tension: f64) -> Self {
+        TensionSchedule {
+            start_tension: tension,
+            taper: Taper::None,
+            upsets: Vec::new(),
+        }
+    }
+
+    /// Web tension (N/m) at radius `radius` of a roll wound from `core_radius` to `outer_radius`.
+    ///
+    /// * linear: T = T0·(1 − f·(r − rc)/(R − rc)), so the outermost wrap runs at (1 − f)·T0;
+    /// * hyperbolic: T = T0·(1 − f·(1 − rc/r)); f = 1 is constant torque (T·r constant);
+    /// * steps: T0 until the first step radius, then each step's tension from its radius outward;
+    /// * an upset band overrides the schedule for from_radius ≤ r < to_radius (last band wins).
+    pub fn tension_at(&self, radius: f64, core_radius: f64, outer_radius: f64) -> f64 {
+        let t0 = self.start_tension;
+        let mut tension = match &self.taper {
+            Taper::None => t0,
+            Taper::Linear { fraction } => {
+                let span = (outer_radius - core_radius).max(f64::MIN_POSITIVE);
+                let build = ((radius - core_radius) / span).clamp(0.0, 1.0);
+                t0 * (1.0 - fraction * build)
+            }
+            Taper::Hyperbolic { fraction } => {
+                t0 * (1.0 - fraction * (1.0 - core_radius / radius.max(core_radius)))
+            }
+            Taper::Steps { steps } => {
+                let mut value = t0;
+                let mut best = f64::NEG_INFINITY;
+                for step in steps {
+                    if step.radius <= radius && step.radius >= best {
+                        best = step.radius;
+                        value = step.tension;
+                    }
+                }
+                value
+            }
+        };
+        for band in &self.upsets {
+            if radius >= band.from_radius && radius < band.to_radius {
+                tension = band.tension;
+            }
+        }
+        tension.max(0.0)
+    }
+
+    /// Check the schedule; names the field and the accepted range on failure.
+    pub fn validate(&self) -> Result<(), super::ModelError> {
+        use super::ModelError::OutOfRange;
+        let tension = |field: &'static str, value: f64| {
+            if value.is_finite() && value >= 0.0 {
+                Ok(())
+            } else {
+                Err(OutOfRange {
+                    field,
+                    value,
+                    accepted: "a finite tension ≥ 0 N/m",
+                })
+            }
+        };
+        tension("winding.tension", self.start_tension)?;
+        match &self.taper {
+            Taper::None => {}
+            Taper::Linear { fraction } | Taper::Hyperbolic { fraction } => {
+                if !(fraction.is_finite() && (0.0..=1.0).contains(fraction)) {
+                    return Err(OutOfRange {
+                        field: "winding.taper.amount",
+                        value: *fraction,
+                        accepted: "0 to 100 %",
+                    });
+                }
+            }
+            Taper::Steps { steps } => {
+                for step in steps {
+                    tension("winding.taper.steps.tension", step.tension)?;
+                    if !(step.radius.is_finite() && step.radius >= 0.0) {
+                        return Err(OutOfRange {
+                            field: "winding.taper.steps.from_diameter",
+                            value: step.radius,
+                            accepted: "a finite diameter ≥ 0",
+                        });
+                    }
+                }
+            }
+        }
+        for band in &self.upsets {
+            tension("winding.upsets.tension", band.tension)?;
+            if !(band.from_radius.is_finite()
+                && band.to_radius.is_finite()
+                && band.to_radius > band.from_radius)
+            {
+                return Err(OutOfRange {
+                    field: "winding.upsets.to_diameter",
+                    value: band.to_radius,
+                    accepted: "a finite diameter larger than from_diameter",
+                });
+            }
+        }
+        Ok(())
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn schedules_give_the_documented_tensions() {
+        let rc = 0.05;
+        let big_r = 0.2;
+        let mut s = TensionSchedule::constant(200.0);
+        assert_eq!(s.tension_at(0.1, rc, big_r), 200.0);
+        s.taper = Taper::Linear { fraction: 0.25 };
+        assert!((s.tension_at(big_r, rc, big_r) - 150.0).abs() < 1e-9);
+        s.taper = Taper::Hyperbolic { fraction: 1.0 };
+        // Constant torque: T·r constant.
+        assert!((s.tension_at(0.1, rc, big_r) * 0.1 - 200.0 * rc).abs() < 1e-9);
+        s.taper = Taper::Steps {
+            steps: vec![TensionStep {
+                radius: 0.1,
+                tension: 120.0,
+            }],
+        };
+        assert_eq!(s.tension_at(0.099, rc, big_r), 200.0);
+        assert_eq!(s.tension_at(0.1, rc, big_r), 120.0);
+        s.upsets.push(UpsetBand {
+            from_radius: 0.15,
+            to_radius: 0.16,
+            tension: 400.0,
+        });
+        assert_eq!(s.tension_at(0.155, rc, big_r), 400.0);
+        assert_eq!(s.tension_at(0.16, rc, big_r), 120.0);
+    }
+}

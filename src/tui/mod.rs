@@ -1,2 +1,117 @@
-//! Terminal UI (the only module that imports ratatui/crossterm): app state, events, screens;
-//! the solver runs off the UI thread.
+//! Terminal UI (the only module that imports ratatui/crossterm): app state ([`app`]), input
+//! events ([`event`]), one file per screen ([`screens`]), the background solver ([`job`]) and
+//! terminal setup with a panic hook ([`terminal`]).
+
+pub mod app;
+pub mod catalogue;
+pub mod event;
+pub mod fields;
+pub mod job;
+pub mod screens;
+pub mod terminal;
+pub mod theme;
+
+use std::path::PathBuf;
+use std::sync::Arc;
+use std::time::Duration;
+
+use ratatui::crossterm::event as ct;
+
+use crate::diagnose::rules::RuleBase;
+
+/// Errors starting or running the terminal UI.
+#[derive(Debug, thiserror::Error)]
+pub enum TuiError {
+    #[error("terminal: {0}")]
+    Terminal(#[from] std::io::Error),
+    #[error("{0}")]
+    Case(String),
+    #[error(transparent)]
+    Rules(#[from] crate::diagnose::rules::RuleError),
+}
+
+/// How the UI is started.
+#[derive(Debug, Clone, Default)]
+pub struct Options {
+    /// Case file to open; a new case when `None`.
+    pub case: Option<PathBuf>,
+    /// Rule directory overriding the shipped rules.
+    pub rules: Option<PathBuf>,
+    pub units: crate::units::UnitSystem,
+    /// Capture the mouse (wheel scrolls, click on a tab switches screen).
+    pub mouse: bool,
+}
+
+/// Web and core preset IDs offered on the preset rows.
+pub fn preset_ids() -> (Vec<String>, Vec<String>) {
+    // The preset table does not list its IDs yet.
+    (Vec::new(), Vec::new())
+}
+
+/// Build the app for `options` without touching the terminal (also used by tests).
+pub fn build_app(options: &Options, rules: &RuleBase) -> Result<app::App, TuiError> {
+    let (web, core) = preset_ids();
+    let mut app = app::App::new(catalogue::Catalogue::from_rules(rules), web, core);
+    app.units = options.units;
+    if let Some(path) = &options.case {
+        let case = crate::case::Case::load(path).map_err(|e| TuiError::Case(e.to_string()))?;
+        app.set_case(case, Some(path.clone()));
+    }
+    Ok(app)
+}
+
+/// Run the UI until the user quits. The terminal is restored on every exit path, panics
+/// included.
+pub fn run(options: &Options) -> Result<(), TuiError> {
+    let rules = match &options.rules {
+        Some(dir) => RuleBase::load_dir(dir)?,
+        None => RuleBase::embedded()?,
+    };
+    // Load the case before touching the terminal, so a bad file is a plain error message.
+    let mut app = build_app(options, &rules)?;
+    let theme = theme::Theme::from_env();
+    let mut jobs = job::JobRunner::new(Arc::new(rules));
+    let mut terminal = terminal::setup(options.mouse)?;
+    let result = event_loop(&mut terminal, &mut app, &mut jobs, theme);
+    jobs.cancel_all();
+    terminal::restore(options.mouse);
+    result
+}
+
+fn event_loop(
+    terminal: &mut terminal::UiTerminal,
+    app: &mut app::App,
+    jobs: &mut job::JobRunner,
+    theme: theme::Theme,
+) -> Result<(), TuiError> {
+    // Short poll so progress and the spinner keep moving while a solve runs.
+    let tick = Duration::from_millis(100);
+    let mut last_tick = std::time::Instant::now();
+    while !app.should_quit {
+        for request in app.take_requests() {
+            jobs.start(request);
+        }
+        terminal.draw(|frame| {
+            frame.render_widget(screens::AppView { app, theme }, frame.area());
+        })?;
+        if ct::poll(tick)? {
+            // Drain everything queued so fast typing never lags behind the screen.
+            loop {
+                if let Some(event) = event::from_crossterm(&ct::read()?) {
+                    app.handle_event(event);
+                }
+                if app.should_quit || !ct::poll(Duration::ZERO)? {
+                    break;
+                }
+            }
+        }
+        while let Some(message) = jobs.try_recv() {
+            app.on_job(message);
+        }
+        if last_tick.elapsed() >= tick {
+            app.on_tick();
+            last_tick = std::time::Instant::now();
+        }
+    }
+    Ok(())
+}

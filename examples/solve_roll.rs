@@ -1,0 +1,82 @@
+//! Solve one of the standard test rolls and print timing and key figures; used to measure run
+//! time and peak memory (`/usr/bin/time -v`) outside the test suite.
+//!
+//! Usage: cargo run --release --example solve_roll -- film|paper|big [per_layer|grouped:K|auto]
+//!        [explicit|iterated|secant]
+
+use std::time::Instant;
+
+use rolltriage::model::{
+    CoreStiffness, ModulusUpdate, RadialStiffness, Resolution, SolverOptions, TensionSchedule,
+    WindingMethod, WindingProblem, WindingSetup, solve,
+};
+
+fn roll(name: &str) -> WindingProblem {
+    let (rc, h, et, k1, k2, wit, layers) = match name {
+        // The 8,000-layer film roll of the speed targets.
+        "film" => (0.0762, 23e-6, 4.5e9, 10e3, 300.0, 175.0, 8000usize),
+        // Soft paper-like web.
+        "paper" => (0.05, 76e-6, 5.0e9, 5e3, 50.0, 350.0, 2000),
+        // 100,000-layer thin-film roll.
+        _ => (0.0762, 12e-6, 4.5e9, 10e3, 300.0, 120.0, 100_000),
+    };
+    WindingProblem {
+        core_radius: rc,
+        outer_radius: rc + layers as f64 * h,
+        thickness: h,
+        tangential_modulus: et,
+        radial_stiffness: RadialStiffness::Pfeiffer { k1, k2 },
+        poisson_ratio: 0.01,
+        core: CoreStiffness::Rigid,
+        winding: WindingSetup {
+            method: WindingMethod::Centre,
+            tension: TensionSchedule::constant(wit),
+            nip_load: None,
+            friction: 0.3,
+            speed: 0.0,
+            combined_roughness: 1e-6,
+        },
+        options: SolverOptions::default(),
+    }
+}
+
+fn main() {
+    let args: Vec<String> = std::env::args().collect();
+    let mut problem = roll(args.get(1).map_or("film", |s| s.as_str()));
+    problem.options.resolution = match args.get(2).map(|s| s.as_str()) {
+        Some("per_layer") | None => Resolution::PerLayer,
+        Some("auto") => Resolution::Auto,
+        Some(other) => Resolution::Grouped {
+            layers: other.trim_start_matches("grouped:").parse().unwrap_or(20),
+        },
+    };
+    problem.options.modulus_update = match args.get(3).map(|s| s.as_str()) {
+        Some("explicit") => ModulusUpdate::Explicit,
+        Some("iterated") => ModulusUpdate::Iterated,
+        _ => ModulusUpdate::Secant,
+    };
+    let start = Instant::now();
+    let profile = match solve(&problem) {
+        Ok(p) => p,
+        Err(e) => {
+            eprintln!("error: {e}");
+            std::process::exit(1);
+        }
+    };
+    let s = &profile.summary;
+    println!(
+        "{:?} {:?}: {:.4} s, core pressure {:.6e} Pa, peak {:.6e}, min σθ {:.6e}, layers {}, \
+         elements {}, k {}, increments {}, solves {}",
+        problem.options.resolution,
+        problem.options.modulus_update,
+        start.elapsed().as_secs_f64(),
+        s.core_pressure,
+        s.peak_pressure,
+        s.min_tangential_stress,
+        s.physical_layers,
+        s.elements,
+        s.layers_per_element,
+        s.increments,
+        s.solves
+    );
+}

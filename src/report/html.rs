@@ -1,0 +1,338 @@
+//! Self-contained HTML rendering: one file, inline CSS, inline SVG plots, no scripts, no links.
+
+use std::fmt::Write;
+
+use super::document::ReportDocument;
+
+/// Escape text for HTML element content and attribute values.
+pub(crate) fn escape(text: &str) -> String {
+    let mut out = String::with_capacity(text.len());
+    for c in text.chars() {
+        match c {
+            '&' => out.push_str("&amp;"),
+            '<' => out.push_str("&lt;"),
+            '>' => out.push_str("&gt;"),
+            '"' => out.push_str("&quot;"),
+            '\'' => out.push_str("&#39;"),
+            _ => out.push(c),
+        }
+    }
+    out
+}
+
+const STYLE: &str = "body{font-family:sans-serif;max-width:60em;margin:2em auto;padding:0 1em;\
+color:#222;line-height:1.4}table{border-collapse:collapse;margin:0.5em 0 1em}\
+th,td{border:1px solid #bbb;padding:0.25em 0.6em;text-align:left;vertical-align:top}\
+th{background:#eee}.assumed{color:#8a4b00}.worse{color:#a00000;font-weight:bold}\
+figure{margin:1em 0}figcaption{font-size:0.9em;color:#555}.meta{color:#555}\
+.caution{border-left:4px solid #c80;padding-left:0.6em}";
+
+pub(super) fn render(doc: &ReportDocument, pressure_svg: &str, tangential_svg: &str) -> String {
+    let mut out = String::new();
+    let _ = write_report(&mut out, doc, pressure_svg, tangential_svg);
+    out
+}
+
+fn write_report(
+    out: &mut String,
+    doc: &ReportDocument,
+    pressure_svg: &str,
+    tangential_svg: &str,
+) -> std::fmt::Result {
+    let case = &doc.case;
+    writeln!(out, "<!DOCTYPE html>")?;
+    writeln!(out, "<html lang=\"en\">")?;
+    writeln!(out, "<head>")?;
+    writeln!(out, "<meta charset=\"utf-8\">")?;
+    writeln!(
+        out,
+        "<title>Roll complaint report: {}</title>",
+        escape(&case.title)
+    )?;
+    writeln!(out, "<style>{STYLE}</style>")?;
+    writeln!(out, "</head>")?;
+    writeln!(out, "<body>")?;
+    writeln!(
+        out,
+        "<h1>Roll complaint report: {}</h1>",
+        escape(&case.title)
+    )?;
+    writeln!(
+        out,
+        "<p class=\"meta\">Made {} with {} {}{}.</p>",
+        escape(&doc.meta.date),
+        escape(&doc.meta.tool),
+        escape(&doc.meta.tool_version),
+        doc.meta
+            .source_file
+            .as_ref()
+            .map(|f| format!(" from <code>{}</code>", escape(f)))
+            .unwrap_or_default()
+    )?;
+
+    writeln!(out, "<h2 id=\"case\">Case</h2>")?;
+    if let Some(description) = &case.description {
+        writeln!(out, "<p>{}</p>", escape(description))?;
+    }
+    writeln!(out, "<p>Observed symptoms:</p>")?;
+    writeln!(out, "<ul>")?;
+    for symptom in &case.symptoms {
+        write!(out, "<li><strong>{}</strong>", escape(&symptom.id))?;
+        if let Some(place) = &symptom.place {
+            write!(out, " (at {})", escape(place))?;
+        }
+        if let Some(notes) = &symptom.notes {
+            write!(out, ": {}", escape(notes.trim()))?;
+        }
+        writeln!(out, "</li>")?;
+    }
+    writeln!(out, "</ul>")?;
+    if !case.answers.is_empty() {
+        writeln!(out, "<p>Answers to the symptom questions:</p>")?;
+        writeln!(out, "<ul>")?;
+        for (question, answer) in &case.answers {
+            writeln!(out, "<li>{}: {}</li>", escape(question), escape(answer))?;
+        }
+        writeln!(out, "</ul>")?;
+    }
+    if let Some(notes) = &case.notes {
+        writeln!(out, "<p>Notes: {}</p>", escape(notes))?;
+    }
+    writeln!(out, "<h3>Inputs</h3>")?;
+    writeln!(out, "<table id=\"inputs\">")?;
+    writeln!(
+        out,
+        "<tr><th>Input</th><th>Value</th><th>Given or assumed</th></tr>"
+    )?;
+    for line in &case.inputs {
+        let (class, origin) = match (&line.assumed, &line.source) {
+            (true, Some(source)) => (" class=\"assumed\"", format!("assumed: {source}")),
+            (true, None) => (" class=\"assumed\"", "assumed".to_string()),
+            (false, _) => ("", "given".to_string()),
+        };
+        writeln!(
+            out,
+            "<tr{class}><td>{}</td><td>{}</td><td>{}</td></tr>",
+            escape(&line.label),
+            escape(&line.value),
+            escape(&origin)
+        )?;
+    }
+    writeln!(out, "</table>")?;
+
+    let stress = &doc.stress;
+    writeln!(out, "<h2 id=\"stress\">Stress inside the roll</h2>")?;
+    writeln!(out, "<table id=\"stress-summary\">")?;
+    writeln!(out, "<tr><th>Figure</th><th>Value</th></tr>")?;
+    writeln!(
+        out,
+        "<tr><td>Pressure on the core</td><td>{} ({:.0} % of the rated {})</td></tr>",
+        escape(&stress.core_pressure.text),
+        stress.core_pressure_ratio * 100.0,
+        escape(&stress.core_crush_pressure.text)
+    )?;
+    writeln!(
+        out,
+        "<tr><td>Peak interlayer pressure</td><td>{} at radius {}</td></tr>",
+        escape(&stress.peak_pressure.text),
+        escape(&stress.peak_pressure_radius.text)
+    )?;
+    writeln!(
+        out,
+        "<tr><td>Most compressive tangential stress</td><td>{} at radius {}</td></tr>",
+        escape(&stress.min_tangential_stress.text),
+        escape(&stress.min_tangential_radius.text)
+    )?;
+    writeln!(
+        out,
+        "<tr><td>Wound-in tension, core → outside</td><td>{} → {}</td></tr>",
+        escape(&stress.wound_in_tension_start.text),
+        escape(&stress.wound_in_tension_end.text)
+    )?;
+    if let Some((start, end)) = stress.air_film_ratio {
+        writeln!(
+            out,
+            "<tr><td>Air film / combined roughness, start → outside</td><td>{start} → {end}</td></tr>"
+        )?;
+    }
+    writeln!(out, "</table>")?;
+    if !stress.zones.is_empty() {
+        writeln!(out, "<table id=\"zones\">")?;
+        writeln!(
+            out,
+            "<tr><th>Zone</th><th>Radius from</th><th>to</th><th>Pressure min</th><th>mean</th>\
+             <th>max</th><th>Lowest tangential stress</th></tr>"
+        )?;
+        for zone in &stress.zones {
+            writeln!(
+                out,
+                "<tr><td>{}</td><td>{}</td><td>{}</td><td>{}</td><td>{}</td><td>{}</td><td>{}</td></tr>",
+                escape(&zone.zone),
+                escape(&zone.inner_radius.text),
+                escape(&zone.outer_radius.text),
+                escape(&zone.pressure_min.text),
+                escape(&zone.pressure_mean.text),
+                escape(&zone.pressure_max.text),
+                escape(&zone.tangential_stress_min.text)
+            )?;
+        }
+        writeln!(out, "</table>")?;
+    }
+    for warning in &stress.warnings {
+        writeln!(out, "<p class=\"worse\">Warning: {}</p>", escape(warning))?;
+    }
+    let after_note = if doc.remedy_comparison.is_some() {
+        " Dashed: after the chosen remedy."
+    } else {
+        ""
+    };
+    writeln!(out, "<figure id=\"pressure-plot\">")?;
+    writeln!(out, "{pressure_svg}")?;
+    writeln!(
+        out,
+        "<figcaption>Interlayer pressure against radius, zones shaded.{after_note}</figcaption>"
+    )?;
+    writeln!(out, "</figure>")?;
+    writeln!(out, "<figure id=\"tangential-plot\">")?;
+    writeln!(out, "{tangential_svg}")?;
+    writeln!(
+        out,
+        "<figcaption>Tangential (hoop) stress against radius, zones shaded; below zero the layers \
+         are in compression.{after_note}</figcaption>"
+    )?;
+    writeln!(out, "</figure>")?;
+
+    writeln!(out, "<h2 id=\"causes\">Likely causes</h2>")?;
+    if doc.causes.is_empty() {
+        writeln!(out, "<p>No cause reached a positive belief.</p>")?;
+    }
+    for cause in &doc.causes {
+        writeln!(
+            out,
+            "<h3>{}. {} (<code>{}</code>, belief {:.2})</h3>",
+            cause.rank,
+            escape(&cause.title),
+            escape(&cause.id),
+            cause.belief
+        )?;
+        if !cause.mechanism.is_empty() {
+            writeln!(out, "<p>{}</p>", escape(cause.mechanism.trim()))?;
+        }
+        writeln!(out, "<ul>")?;
+        for reason in &cause.reasons {
+            let mut tested = reason.test.clone();
+            if let Some(zone) = &reason.zone {
+                tested.push_str(&format!(" in the {zone} zone"));
+            }
+            let detail = match (&reason.value, &reason.threshold) {
+                (Some(value), Some(threshold)) => {
+                    format!("{tested} = {value}, rule: {threshold}")
+                }
+                (Some(value), None) => format!("{tested} = {value}"),
+                _ => format!("{tested}, from the {} rule", reason.symptom),
+            };
+            writeln!(
+                out,
+                "<li>{:+.2} — {} ({})</li>",
+                reason.weight,
+                escape(reason.text.trim()),
+                escape(&detail)
+            )?;
+        }
+        writeln!(out, "</ul>")?;
+    }
+
+    writeln!(
+        out,
+        "<h2 id=\"remedies\">Remedies, in the order to try</h2>"
+    )?;
+    writeln!(out, "<ol>")?;
+    for remedy in &doc.remedies {
+        write!(
+            out,
+            "<li><strong>{}</strong> [{}] — answers {}.",
+            escape(remedy.text.trim()),
+            escape(&remedy.group),
+            escape(&remedy.answers.join(", "))
+        )?;
+        if let Some(what_if) = &remedy.what_if {
+            write!(
+                out,
+                "<br>Predicted effect: {} {} → {}",
+                escape(&what_if.indicator),
+                escape(&what_if.before),
+                escape(&what_if.after)
+            )?;
+            if what_if.worse {
+                write!(
+                    out,
+                    " <span class=\"worse\">WORSE, do not apply without checking</span>"
+                )?;
+            }
+            write!(out, ". {}", escape(what_if.note.trim()))?;
+        }
+        if !remedy.cautions.is_empty() {
+            write!(
+                out,
+                "<br>Cautions: {}.",
+                escape(&remedy.cautions.join(", "))
+            )?;
+        }
+        writeln!(out, "</li>")?;
+    }
+    writeln!(out, "</ol>")?;
+
+    if let Some(comparison) = &doc.remedy_comparison {
+        writeln!(
+            out,
+            "<h2 id=\"what-if\">What if: {}</h2>",
+            escape(comparison.remedy_text.trim())
+        )?;
+        writeln!(
+            out,
+            "<p>Change applied and re-solved: {}.</p>",
+            escape(&comparison.change)
+        )?;
+        writeln!(out, "<table id=\"comparison\">")?;
+        writeln!(out, "<tr><th>Figure</th><th>Before</th><th>After</th></tr>")?;
+        for figure in &comparison.figures {
+            writeln!(
+                out,
+                "<tr><td>{}</td><td>{}</td><td>{}</td></tr>",
+                escape(&figure.label),
+                escape(&figure.before.text),
+                escape(&figure.after.text)
+            )?;
+        }
+        writeln!(out, "</table>")?;
+    }
+
+    writeln!(out, "<h2 id=\"cautions\">Cautions</h2>")?;
+    writeln!(out, "<ul>")?;
+    if doc.cautions.is_empty() {
+        writeln!(
+            out,
+            "<li class=\"caution\">Work on or near a running winder only as your site procedures \
+             allow; follow local codes, site procedures and lockout/tagout practice.</li>"
+        )?;
+    }
+    for caution in &doc.cautions {
+        writeln!(
+            out,
+            "<li class=\"caution\"><strong>{}</strong>: {}</li>",
+            escape(&caution.title),
+            escape(caution.text.trim())
+        )?;
+    }
+    writeln!(out, "</ul>")?;
+
+    writeln!(out, "<h2 id=\"limits\">Limits of the model</h2>")?;
+    writeln!(out, "<ul>")?;
+    for limit in &doc.model_limits {
+        writeln!(out, "<li>{}</li>", escape(limit))?;
+    }
+    writeln!(out, "</ul>")?;
+    writeln!(out, "</body>")?;
+    writeln!(out, "</html>")?;
+    Ok(())
+}

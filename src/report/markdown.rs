@@ -1,0 +1,263 @@
+//! Markdown rendering of a report document.
+
+use std::fmt::Write;
+
+use super::document::ReportDocument;
+
+/// Markdown table cells may not contain pipes or line breaks.
+fn cell(text: &str) -> String {
+    text.replace('|', "\\|").replace('\n', " ")
+}
+
+pub(super) fn render(doc: &ReportDocument) -> String {
+    let mut out = String::new();
+    let _ = write_report(&mut out, doc);
+    out
+}
+
+fn write_report(out: &mut String, doc: &ReportDocument) -> std::fmt::Result {
+    let case = &doc.case;
+    writeln!(out, "# Roll complaint report: {}", case.title)?;
+    writeln!(out)?;
+    writeln!(
+        out,
+        "Made {} with {} {}{}.",
+        doc.meta.date,
+        doc.meta.tool,
+        doc.meta.tool_version,
+        doc.meta
+            .source_file
+            .as_ref()
+            .map(|f| format!(" from `{f}`"))
+            .unwrap_or_default()
+    )?;
+    writeln!(out)?;
+
+    writeln!(out, "## Case")?;
+    writeln!(out)?;
+    if let Some(description) = &case.description {
+        writeln!(out, "{description}")?;
+        writeln!(out)?;
+    }
+    writeln!(out, "Observed symptoms:")?;
+    writeln!(out)?;
+    for symptom in &case.symptoms {
+        write!(out, "- **{}**", symptom.id)?;
+        if let Some(place) = &symptom.place {
+            write!(out, " (at {place})")?;
+        }
+        if let Some(notes) = &symptom.notes {
+            write!(out, ": {}", notes.trim())?;
+        }
+        writeln!(out)?;
+    }
+    writeln!(out)?;
+    if !case.answers.is_empty() {
+        writeln!(out, "Answers to the symptom questions:")?;
+        writeln!(out)?;
+        for (question, answer) in &case.answers {
+            writeln!(out, "- {question}: {answer}")?;
+        }
+        writeln!(out)?;
+    }
+    if let Some(notes) = &case.notes {
+        writeln!(out, "Notes: {notes}")?;
+        writeln!(out)?;
+    }
+    writeln!(out, "### Inputs")?;
+    writeln!(out)?;
+    writeln!(out, "| Input | Value | Given or assumed |")?;
+    writeln!(out, "|---|---|---|")?;
+    for line in &case.inputs {
+        let origin = match (&line.assumed, &line.source) {
+            (true, Some(source)) => format!("assumed: {source}"),
+            (true, None) => "assumed".to_string(),
+            (false, _) => "given".to_string(),
+        };
+        writeln!(
+            out,
+            "| {} | {} | {} |",
+            cell(&line.label),
+            cell(&line.value),
+            cell(&origin)
+        )?;
+    }
+    let assumed = case.inputs.iter().filter(|l| l.assumed).count();
+    writeln!(out)?;
+    writeln!(
+        out,
+        "{assumed} of {} inputs were assumed from presets or defaults.",
+        case.inputs.len()
+    )?;
+    writeln!(out)?;
+
+    let stress = &doc.stress;
+    writeln!(out, "## Stress inside the roll")?;
+    writeln!(out)?;
+    writeln!(out, "| Figure | Value |")?;
+    writeln!(out, "|---|---|")?;
+    writeln!(
+        out,
+        "| Pressure on the core | {} ({:.0} % of the rated {}) |",
+        stress.core_pressure.text,
+        stress.core_pressure_ratio * 100.0,
+        stress.core_crush_pressure.text
+    )?;
+    writeln!(
+        out,
+        "| Peak interlayer pressure | {} at radius {} |",
+        stress.peak_pressure.text, stress.peak_pressure_radius.text
+    )?;
+    writeln!(
+        out,
+        "| Most compressive tangential stress | {} at radius {} |",
+        stress.min_tangential_stress.text, stress.min_tangential_radius.text
+    )?;
+    writeln!(
+        out,
+        "| Wound-in tension, core → outside | {} → {} |",
+        stress.wound_in_tension_start.text, stress.wound_in_tension_end.text
+    )?;
+    if let Some((start, end)) = stress.air_film_ratio {
+        writeln!(
+            out,
+            "| Air film / combined roughness, start → outside | {start} → {end} |"
+        )?;
+    }
+    writeln!(
+        out,
+        "| Layers (elements × layers per element) | {} ({} × {}) |",
+        stress.physical_layers, stress.elements, stress.layers_per_element
+    )?;
+    writeln!(out)?;
+    if !stress.zones.is_empty() {
+        writeln!(
+            out,
+            "| Zone | Radius from | to | Pressure min | mean | max | Lowest tangential stress |"
+        )?;
+        writeln!(out, "|---|---|---|---|---|---|---|")?;
+        for zone in &stress.zones {
+            writeln!(
+                out,
+                "| {} | {} | {} | {} | {} | {} | {} |",
+                zone.zone,
+                zone.inner_radius.text,
+                zone.outer_radius.text,
+                zone.pressure_min.text,
+                zone.pressure_mean.text,
+                zone.pressure_max.text,
+                zone.tangential_stress_min.text
+            )?;
+        }
+        writeln!(out)?;
+    }
+    for warning in &stress.warnings {
+        writeln!(out, "> Warning: {warning}")?;
+        writeln!(out)?;
+    }
+
+    writeln!(out, "## Likely causes")?;
+    writeln!(out)?;
+    if doc.causes.is_empty() {
+        writeln!(out, "No cause reached a positive belief.")?;
+        writeln!(out)?;
+    }
+    for cause in &doc.causes {
+        writeln!(
+            out,
+            "### {}. {} (`{}`, belief {:.2})",
+            cause.rank, cause.title, cause.id, cause.belief
+        )?;
+        writeln!(out)?;
+        if !cause.mechanism.is_empty() {
+            writeln!(out, "{}", cause.mechanism.trim())?;
+            writeln!(out)?;
+        }
+        for reason in &cause.reasons {
+            write!(out, "- {:+.2} — {}", reason.weight, reason.text.trim())?;
+            let mut tested = reason.test.clone();
+            if let Some(zone) = &reason.zone {
+                tested.push_str(&format!(" in the {zone} zone"));
+            }
+            match (&reason.value, &reason.threshold) {
+                (Some(value), Some(threshold)) => {
+                    write!(out, " ({tested} = {value}, rule: {threshold})")?
+                }
+                (Some(value), None) => write!(out, " ({tested} = {value})")?,
+                _ => write!(out, " ({tested}, from the {} rule)", reason.symptom)?,
+            }
+            writeln!(out)?;
+        }
+        writeln!(out)?;
+    }
+
+    writeln!(out, "## Remedies, in the order to try")?;
+    writeln!(out)?;
+    for remedy in &doc.remedies {
+        writeln!(
+            out,
+            "{}. **{}** [{}] — answers {}.",
+            remedy.rank,
+            remedy.text.trim(),
+            remedy.group,
+            remedy.answers.join(", ")
+        )?;
+        if let Some(what_if) = &remedy.what_if {
+            writeln!(
+                out,
+                "   Predicted effect: {} {} → {}{}. {}",
+                what_if.indicator,
+                what_if.before,
+                what_if.after,
+                if what_if.worse {
+                    " — WORSE, do not apply without checking"
+                } else {
+                    ""
+                },
+                what_if.note.trim()
+            )?;
+        }
+        if !remedy.cautions.is_empty() {
+            writeln!(out, "   Cautions: {}.", remedy.cautions.join(", "))?;
+        }
+    }
+    writeln!(out)?;
+
+    if let Some(comparison) = &doc.remedy_comparison {
+        writeln!(out, "## What if: {}", comparison.remedy_text.trim())?;
+        writeln!(out)?;
+        writeln!(out, "Change applied and re-solved: {}.", comparison.change)?;
+        writeln!(out)?;
+        writeln!(out, "| Figure | Before | After |")?;
+        writeln!(out, "|---|---|---|")?;
+        for figure in &comparison.figures {
+            writeln!(
+                out,
+                "| {} | {} | {} |",
+                figure.label, figure.before.text, figure.after.text
+            )?;
+        }
+        writeln!(out)?;
+    }
+
+    writeln!(out, "## Cautions")?;
+    writeln!(out)?;
+    if doc.cautions.is_empty() {
+        writeln!(
+            out,
+            "- Work on or near a running winder only as your site procedures allow; follow local \
+             codes, site procedures and lockout/tagout practice."
+        )?;
+    }
+    for caution in &doc.cautions {
+        writeln!(out, "- **{}**: {}", caution.title, caution.text.trim())?;
+    }
+    writeln!(out)?;
+
+    writeln!(out, "## Limits of the model")?;
+    writeln!(out)?;
+    for limit in &doc.model_limits {
+        writeln!(out, "- {limit}")?;
+    }
+    Ok(())
+}

@@ -1,0 +1,962 @@
+//! Taper design: find a tension schedule (start tension and taper, linear or hyperbolic,
+//! optionally in steps) that keeps the finished roll inside four limits at once:
+//!
+//! * **core pressure** at most a chosen share of the core's rated crush pressure;
+//! * **starring**: no band with compressive tangential stress and low pressure (pressure below a
+//!   share of the roll's peak pressure — the same definition the profile summary uses);
+//! * **outer pressure**: the lowest pressure in the `outer` zone at least a threshold, so the
+//!   outside resists telescoping;
+//! * **wound-in tension** at most a safe share of the web's strength.
+//!
+//! Criterion (documented in docs/taper-design.md): among schedules that meet every limit with the
+//! design margin, keep the start tension as close as possible to the one the winder runs now
+//! (capped at the tension limit) and use as little taper as needed. The search is a grid over
+//! (start tension, taper) followed by a bounded Nelder–Mead refinement, on the grouped solver
+//! resolution; the chosen schedule is re-solved at the normal resolution and checked again.
+//! When no schedule meets every limit the pairs of limits that cannot hold together are found
+//! from the same evaluations and the most conflicting pair is named with what to relax.
+
+pub mod nelder_mead;
+
+use serde::Serialize;
+
+use crate::case::ResolvedCase;
+use crate::model::{
+    ModelError, Profile, Resolution, SolverOptions, Taper, TensionSchedule, ZoneName,
+    schedule::TensionStep,
+};
+
+/// Default share of the rated crush pressure the core may carry. Common practice: keep a
+/// margin below the maker's rating because ratings are short-term tests and cores creep.
+pub const DEFAULT_CORE_SHARE: f64 = 0.8;
+/// Default minimum pressure in the outer zone, Pa (14 kPa ≈ 2 psi). Our choice, common practice:
+/// trade articles note that about 1 psi (7 kPa) may not hold a roll together against winding and
+/// handling forces (Walker, "Winding Process Fundamentals, Pt. 3", PFFC Web Lines, 2013); we
+/// double it. Set it from your own roll-handling experience.
+pub const DEFAULT_MIN_OUTER_PRESSURE: f64 = 14e3;
+/// Default share of the peak pressure below which a compressive band counts as starring risk:
+/// the model's own low-pressure share (see `model::profile`).
+pub const DEFAULT_STARRING_PRESSURE_SHARE: f64 = 0.25;
+/// Default largest wound-in tension as a share of the web's tensile strength. Common practice
+/// (from memory): winding tension is usually set at 10–25 % of the web's tensile strength.
+pub const DEFAULT_TENSION_SHARE: f64 = 0.25;
+/// Default design margin: every limit is met with this share to spare in the search, so the
+/// re-solve at full resolution still meets it.
+pub const DEFAULT_DESIGN_MARGIN: f64 = 0.05;
+
+/// The limits a designed schedule must meet.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+pub struct TaperLimits {
+    /// Core pressure ≤ core_share × rated crush pressure (0 < share ≤ 1.5).
+    pub core_share: f64,
+    /// Lowest pressure in the outer zone ≥ this, Pa.
+    pub min_outer_pressure: f64,
+    /// A node with compressive tangential stress and pressure below this share of the peak
+    /// pressure is starring risk (0 < share < 1).
+    pub starring_pressure_share: f64,
+    /// Largest wound-in tension ≤ tension_share × web strength (0 < share ≤ 1).
+    pub tension_share: f64,
+}
+
+impl Default for TaperLimits {
+    fn default() -> Self {
+        TaperLimits {
+            core_share: DEFAULT_CORE_SHARE,
+            min_outer_pressure: DEFAULT_MIN_OUTER_PRESSURE,
+            starring_pressure_share: DEFAULT_STARRING_PRESSURE_SHARE,
+            tension_share: DEFAULT_TENSION_SHARE,
+        }
+    }
+}
+
+/// Shape of the continuous taper.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Default, Serialize)]
+#[serde(rename_all = "snake_case")]
+pub enum TaperShape {
+    /// T = T0·(1 − f·(r − rc)/(R − rc)).
+    #[default]
+    Linear,
+    /// T = T0·(1 − f·(1 − rc/r)); f = 1 is constant torque.
+    Hyperbolic,
+}
+
+/// How the search runs.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+pub struct DesignOptions {
+    pub shape: TaperShape,
+    /// Wind the taper as this many equal-build steps (2..=50) instead of a continuous ramp.
+    pub steps: Option<usize>,
+    /// Largest taper fraction searched (0 < f ≤ 1); default 0.8 linear, 1.0 hyperbolic.
+    pub max_taper: Option<f64>,
+    /// Share by which every limit must be met in the search.
+    pub design_margin: f64,
+    /// Elements of the grouped resolution used in the search.
+    pub search_elements: usize,
+    /// Grid points over start tension and over taper.
+    pub grid: (usize, usize),
+}
+
+impl Default for DesignOptions {
+    fn default() -> Self {
+        DesignOptions {
+            shape: TaperShape::Linear,
+            steps: None,
+            max_taper: None,
+            design_margin: DEFAULT_DESIGN_MARGIN,
+            search_elements: 120,
+            grid: (11, 9),
+        }
+    }
+}
+
+/// The four limits.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash, PartialOrd, Ord, Serialize)]
+#[serde(rename_all = "snake_case")]
+pub enum Limit {
+    CorePressure,
+    Starring,
+    OuterPressure,
+    WoundInTension,
+}
+
+impl Limit {
+    pub const ALL: [Limit; 4] = [
+        Limit::CorePressure,
+        Limit::Starring,
+        Limit::OuterPressure,
+        Limit::WoundInTension,
+    ];
+    fn index(self) -> usize {
+        self as usize
+    }
+    /// Plain-words name.
+    pub fn title(self) -> &'static str {
+        match self {
+            Limit::CorePressure => "core pressure",
+            Limit::Starring => "no starring band",
+            Limit::OuterPressure => "outer-zone pressure (telescoping)",
+            Limit::WoundInTension => "wound-in tension",
+        }
+    }
+    /// The `rolltriage taper` option that sets it.
+    pub fn option(self) -> &'static str {
+        match self {
+            Limit::CorePressure => "--core-share",
+            Limit::Starring => "--starring-share",
+            Limit::OuterPressure => "--min-outer-pressure",
+            Limit::WoundInTension => "--tension-share",
+        }
+    }
+}
+
+/// One limit checked on one profile.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+pub struct LimitCheck {
+    pub limit: Limit,
+    /// Core pressure (Pa); starring band extent (share of the build); lowest outer-zone pressure
+    /// (Pa); largest wound-in tension (N/m).
+    pub value: f64,
+    /// The allowed maximum (core, starring, tension) or minimum (outer pressure), same unit.
+    pub allowed: f64,
+    /// Relative margin, positive when met (e.g. 0.1 = 10 % to spare).
+    pub margin: f64,
+    pub met: bool,
+}
+
+/// A schedule and the roll it winds.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct Evaluation {
+    pub schedule: TensionSchedule,
+    pub checks: Vec<LimitCheck>,
+    pub profile: Profile,
+}
+
+impl Evaluation {
+    pub fn all_met(&self) -> bool {
+        self.checks.iter().all(|c| c.met)
+    }
+    pub fn check(&self, limit: Limit) -> Option<&LimitCheck> {
+        self.checks.iter().find(|c| c.limit == limit)
+    }
+    pub fn worst_margin(&self) -> f64 {
+        self.checks
+            .iter()
+            .map(|c| c.margin)
+            .fold(f64::INFINITY, f64::min)
+    }
+}
+
+/// One row of the operator's table.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+pub struct ScheduleRow {
+    /// Roll diameter, m.
+    pub diameter: f64,
+    /// Web tension to set from this diameter on, N/m.
+    pub tension: f64,
+}
+
+/// Two limits that no searched schedule meets together, and what to relax.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct Conflict {
+    pub first: Limit,
+    /// Equal to `first` when one limit cannot be met on its own.
+    pub second: Limit,
+    /// Best worst-margin of the pair over every searched schedule (negative).
+    pub best_margin: f64,
+    /// Plain-words advice: which option to change and to what.
+    pub advice: Vec<String>,
+}
+
+/// The result of a design.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct TaperDesign {
+    /// True when the designed schedule meets every limit when re-solved at normal resolution.
+    pub feasible: bool,
+    pub shape: TaperShape,
+    pub steps: Option<usize>,
+    /// Start tension of the continuous ramp, N/m.
+    pub start_tension: f64,
+    /// Taper fraction of the continuous ramp.
+    pub taper_fraction: f64,
+    /// The schedule to wind (a ramp, or steps).
+    pub schedule: TensionSchedule,
+    pub limits: TaperLimits,
+    /// The case's own schedule.
+    pub before: Evaluation,
+    /// The designed schedule (or, when infeasible, the one closest to meeting every limit).
+    pub after: Evaluation,
+    /// Limits that stop the design from staying closer to the current start tension or from
+    /// using less taper (their margin is at the design margin).
+    pub binding: Vec<Limit>,
+    pub conflict: Option<Conflict>,
+    pub table: Vec<ScheduleRow>,
+    /// Plain-words explanation, one sentence per item.
+    pub explanation: Vec<String>,
+    /// Solver runs used.
+    pub solves: usize,
+}
+
+/// Errors of the taper design.
+#[derive(Debug, thiserror::Error)]
+pub enum TaperError {
+    #[error("{field} = {value} is out of range: accepted {accepted}")]
+    OutOfRange {
+        field: &'static str,
+        value: f64,
+        accepted: &'static str,
+    },
+    #[error("the case cannot be designed for: {0}")]
+    Case(String),
+    #[error(transparent)]
+    Model(#[from] ModelError),
+}
+
+impl TaperLimits {
+    /// Check every limit's range.
+    pub fn validate(&self) -> Result<(), TaperError> {
+        let check = |field, value: f64, ok: bool, accepted| {
+            if value.is_finite() && ok {
+                Ok(())
+            } else {
+                Err(TaperError::OutOfRange {
+                    field,
+                    value,
+                    accepted,
+                })
+            }
+        };
+        check(
+            "core_share",
+            self.core_share,
+            self.core_share > 0.0 && self.core_share <= 1.5,
+            "0 < share ≤ 1.5",
+        )?;
+        check(
+            "min_outer_pressure",
+            self.min_outer_pressure,
+            self.min_outer_pressure >= 0.0,
+            "a pressure ≥ 0",
+        )?;
+        check(
+            "starring_pressure_share",
+            self.starring_pressure_share,
+            self.starring_pressure_share > 0.0 && self.starring_pressure_share < 1.0,
+            "0 < share < 1",
+        )?;
+        check(
+            "tension_share",
+            self.tension_share,
+            self.tension_share > 0.0 && self.tension_share <= 1.0,
+            "0 < share ≤ 1",
+        )
+    }
+}
+
+/// Tension of a continuous ramp at radius `r` (N/m); the forms the model documents.
+pub fn ramp_tension(
+    shape: TaperShape,
+    start: f64,
+    fraction: f64,
+    r: f64,
+    rc: f64,
+    big_r: f64,
+) -> f64 {
+    let t = match shape {
+        TaperShape::Linear => {
+            let span = (big_r - rc).max(f64::MIN_POSITIVE);
+            start * (1.0 - fraction * ((r - rc) / span).clamp(0.0, 1.0))
+        }
+        TaperShape::Hyperbolic => start * (1.0 - fraction * (1.0 - rc / r.max(rc))),
+    };
+    t.max(0.0)
+}
+
+/// The schedule for a ramp (or its steps): steps split the build into equal radial bands, each
+/// wound at the ramp's tension at the band's middle.
+pub fn build_schedule(
+    shape: TaperShape,
+    steps: Option<usize>,
+    start: f64,
+    fraction: f64,
+    rc: f64,
+    big_r: f64,
+) -> TensionSchedule {
+    match steps {
+        None => TensionSchedule {
+            start_tension: start,
+            taper: match shape {
+                TaperShape::Linear => Taper::Linear { fraction },
+                TaperShape::Hyperbolic => Taper::Hyperbolic { fraction },
+            },
+            upsets: Vec::new(),
+        },
+        Some(n) => {
+            let n = n.max(1);
+            let band = (big_r - rc) / n as f64;
+            let mid = |k: usize| rc + band * (k as f64 + 0.5);
+            TensionSchedule {
+                start_tension: ramp_tension(shape, start, fraction, mid(0), rc, big_r),
+                taper: Taper::Steps {
+                    steps: (1..n)
+                        .map(|k| TensionStep {
+                            radius: rc + band * k as f64,
+                            tension: ramp_tension(shape, start, fraction, mid(k), rc, big_r),
+                        })
+                        .collect(),
+                },
+                upsets: Vec::new(),
+            }
+        }
+    }
+}
+
+/// Web tension of a schedule at radius `r` (N/m), for tables; upsets are ignored.
+pub fn schedule_tension(schedule: &TensionSchedule, r: f64, rc: f64, big_r: f64) -> f64 {
+    let t0 = schedule.start_tension;
+    match &schedule.taper {
+        Taper::None => t0,
+        Taper::Linear { fraction } => ramp_tension(TaperShape::Linear, t0, *fraction, r, rc, big_r),
+        Taper::Hyperbolic { fraction } => {
+            ramp_tension(TaperShape::Hyperbolic, t0, *fraction, r, rc, big_r)
+        }
+        Taper::Steps { steps } => {
+            let mut value = t0;
+            let mut best = f64::NEG_INFINITY;
+            for s in steps {
+                if s.radius <= r && s.radius >= best {
+                    best = s.radius;
+                    value = s.tension;
+                }
+            }
+            value
+        }
+    }
+}
+
+/// Check the four limits on a profile.
+pub fn check_limits(
+    case: &ResolvedCase,
+    profile: &Profile,
+    limits: &TaperLimits,
+) -> Vec<LimitCheck> {
+    let n = profile.pressure.len();
+    let core_pressure = if profile.summary.core_pressure > 0.0 || n == 0 {
+        profile.summary.core_pressure
+    } else {
+        profile.pressure[0]
+    };
+    let core_allowed = limits.core_share * case.core.crush_pressure;
+    let core = LimitCheck {
+        limit: Limit::CorePressure,
+        value: core_pressure,
+        allowed: core_allowed,
+        margin: 1.0 - core_pressure / core_allowed,
+        met: core_pressure <= core_allowed,
+    };
+
+    // Starring: nodes with σθ < 0 and P below the share of the peak. The margin is +1 when there
+    // is none; otherwise minus the depth of the worst node into the risk set, so the search can
+    // tell a slight band from a deep one.
+    let peak = profile.pressure.iter().cloned().fold(0.0, f64::max);
+    let low = limits.starring_pressure_share * peak;
+    let stress_scale = (limits.tension_share * case.web.strength / case.web.thickness).max(1.0);
+    let risk = |i: usize| profile.tangential_stress[i] < 0.0 && profile.pressure[i] < low;
+    let mut depth: f64 = 0.0;
+    let mut longest = 0.0_f64;
+    let mut run_start: Option<usize> = None;
+    let span = match (profile.radius.first(), profile.radius.last()) {
+        (Some(a), Some(b)) if b > a => b - a,
+        _ => 1.0,
+    };
+    for i in 0..=n {
+        let hit = i < n && risk(i);
+        if hit {
+            let d = (-profile.tangential_stress[i] / stress_scale)
+                .min(1.0 - profile.pressure[i] / low.max(f64::MIN_POSITIVE));
+            depth = depth.max(d);
+            run_start.get_or_insert(i);
+        } else if let Some(s) = run_start.take() {
+            let outer = profile.radius[i.min(n - 1)];
+            longest = longest.max((outer - profile.radius[s]) / span);
+        }
+    }
+    let starring = LimitCheck {
+        limit: Limit::Starring,
+        value: longest,
+        allowed: 0.0,
+        margin: if depth > 0.0 { -depth } else { 1.0 },
+        met: depth <= 0.0,
+    };
+
+    let (start, end) = match profile.zone(ZoneName::Outer) {
+        Some(z) if z.end > z.start && z.end <= n => (z.start, z.end),
+        // Fallback when a profile carries no zones: 70 % to 90 % of the build.
+        _ => {
+            let r0 = profile.radius.first().copied().unwrap_or(0.0);
+            let idx = |f: f64| profile.radius.partition_point(|&r| r < r0 + f * span);
+            (idx(0.70), idx(0.90).max(idx(0.70) + 1).min(n))
+        }
+    };
+    let outer_min = profile.pressure[start.min(n)..end.min(n)]
+        .iter()
+        .cloned()
+        .fold(f64::INFINITY, f64::min);
+    let outer_min = if outer_min.is_finite() {
+        outer_min
+    } else {
+        0.0
+    };
+    let outer = LimitCheck {
+        limit: Limit::OuterPressure,
+        value: outer_min,
+        allowed: limits.min_outer_pressure,
+        margin: if limits.min_outer_pressure > 0.0 {
+            outer_min / limits.min_outer_pressure - 1.0
+        } else {
+            1.0
+        },
+        met: outer_min >= limits.min_outer_pressure,
+    };
+
+    let wit_max = profile.wound_in_tension.iter().cloned().fold(0.0, f64::max);
+    let wit_allowed = limits.tension_share * case.web.strength;
+    let tension = LimitCheck {
+        limit: Limit::WoundInTension,
+        value: wit_max,
+        allowed: wit_allowed,
+        margin: 1.0 - wit_max / wit_allowed,
+        met: wit_max <= wit_allowed,
+    };
+    vec![core, starring, outer, tension]
+}
+
+/// Solve a case with another schedule and check the limits.
+pub fn evaluate(
+    case: &ResolvedCase,
+    schedule: &TensionSchedule,
+    limits: &TaperLimits,
+    resolution: Resolution,
+) -> Result<Evaluation, TaperError> {
+    let mut problem = case.problem(SolverOptions {
+        resolution,
+        ..SolverOptions::default()
+    });
+    problem.winding.tension = schedule.clone();
+    let profile = crate::model::solve(&problem)?;
+    let checks = check_limits(case, &profile, limits);
+    Ok(Evaluation {
+        schedule: schedule.clone(),
+        checks,
+        profile,
+    })
+}
+
+/// Design with the default search options.
+pub fn design(case: &ResolvedCase, limits: &TaperLimits) -> Result<TaperDesign, TaperError> {
+    design_with(case, limits, &DesignOptions::default())
+}
+
+/// One searched schedule.
+#[derive(Debug, Clone, Copy)]
+struct Trial {
+    start: f64,
+    fraction: f64,
+    margins: [f64; 4],
+    values: [f64; 4],
+}
+
+impl Trial {
+    fn worst(&self) -> f64 {
+        self.margins.iter().cloned().fold(f64::INFINITY, f64::min)
+    }
+}
+
+/// Design a schedule; see the module documentation for the criterion.
+pub fn design_with(
+    case: &ResolvedCase,
+    limits: &TaperLimits,
+    options: &DesignOptions,
+) -> Result<TaperDesign, TaperError> {
+    limits.validate()?;
+    if !(case.core.crush_pressure.is_finite() && case.core.crush_pressure > 0.0) {
+        return Err(TaperError::Case(
+            "core.crush_pressure must be a positive pressure to design against it".into(),
+        ));
+    }
+    if !(case.web.strength.is_finite() && case.web.strength > 0.0) {
+        return Err(TaperError::Case(
+            "web.strength must be a positive tension to design against it".into(),
+        ));
+    }
+    if let Some(n) = options.steps
+        && !(2..=50).contains(&n)
+    {
+        return Err(TaperError::OutOfRange {
+            field: "steps",
+            value: n as f64,
+            accepted: "2 to 50 steps",
+        });
+    }
+    let max_taper = options.max_taper.unwrap_or(match options.shape {
+        TaperShape::Linear => 0.8,
+        TaperShape::Hyperbolic => 1.0,
+    });
+    if !(max_taper > 0.0 && max_taper <= 1.0) {
+        return Err(TaperError::OutOfRange {
+            field: "max_taper",
+            value: max_taper,
+            accepted: "0 < fraction ≤ 1",
+        });
+    }
+    let rc = case.core.outside_diameter / 2.0;
+    let big_r = case.roll.outer_diameter / 2.0;
+    if !(big_r > rc && case.web.thickness > 0.0) {
+        return Err(TaperError::Case(
+            "the roll diameter must exceed the core's outside diameter".into(),
+        ));
+    }
+    let mut solves = 0usize;
+
+    let before = evaluate(case, &case.winding.tension, limits, Resolution::Auto)?;
+    solves += 1;
+
+    // Search range of the start tension: from a tenth of the lower of (current, allowed) up to
+    // 1.2 × the allowed wound-in tension, so infeasible corners are explored too.
+    let allowed_tension = limits.tension_share * case.web.strength;
+    let current = case
+        .winding
+        .tension
+        .start_tension
+        .max(1e-3 * allowed_tension);
+    let t_low = 0.1 * current.min(allowed_tension);
+    let t_high = (1.2 * allowed_tension).max(1.05 * current);
+    let target = current.min(allowed_tension * (1.0 - options.design_margin));
+    let start_of = |u: f64| t_low * (t_high / t_low).powf(u);
+    let layers = ((big_r - rc) / case.web.thickness).ceil().max(1.0) as usize;
+    let group = (layers / options.search_elements.max(10)).max(1);
+    let search_resolution = if group > 1 {
+        Resolution::Grouped { layers: group }
+    } else {
+        Resolution::PerLayer
+    };
+
+    let mut trials: Vec<Trial> = Vec::new();
+    let mut failure: Option<TaperError> = None;
+    let mut run = |start: f64, fraction: f64, trials: &mut Vec<Trial>| -> Option<Trial> {
+        let schedule = build_schedule(options.shape, options.steps, start, fraction, rc, big_r);
+        match evaluate(case, &schedule, limits, search_resolution) {
+            Ok(e) => {
+                let mut t = Trial {
+                    start,
+                    fraction,
+                    margins: [0.0; 4],
+                    values: [0.0; 4],
+                };
+                for c in &e.checks {
+                    t.margins[c.limit.index()] = c.margin;
+                    t.values[c.limit.index()] = c.value;
+                }
+                trials.push(t);
+                Some(t)
+            }
+            Err(e) => {
+                failure.get_or_insert(e);
+                None
+            }
+        }
+    };
+    let margin = options.design_margin;
+    // Objective (minimised): distance of the start tension from the target in log terms, a
+    // small price per unit of taper, and a steep penalty for any limit short of the margin.
+    let objective = |t: &Trial| -> f64 {
+        let shortfall = (margin - t.worst()).max(0.0);
+        (t.start / target).ln().abs() + 0.05 * t.fraction / max_taper + 20.0 * shortfall
+    };
+
+    let (nu, nv) = (options.grid.0.max(3), options.grid.1.max(2));
+    for i in 0..nu {
+        for j in 0..nv {
+            let u = i as f64 / (nu - 1) as f64;
+            let v = j as f64 / (nv - 1) as f64;
+            run(start_of(u), v * max_taper, &mut trials);
+        }
+    }
+    // Also the target itself with each taper, so "keep the start tension" is tried exactly.
+    for j in 0..nv {
+        run(target, j as f64 / (nv - 1) as f64 * max_taper, &mut trials);
+    }
+    if trials.is_empty() {
+        return Err(
+            failure.unwrap_or_else(|| TaperError::Case("no schedule could be solved".into()))
+        );
+    }
+    let best_grid = *trials
+        .iter()
+        .min_by(|a, b| objective(a).total_cmp(&objective(b)))
+        .unwrap_or(&trials[0]);
+    let to_u = |start: f64| ((start / t_low).ln() / (t_high / t_low).ln()).clamp(0.0, 1.0);
+    {
+        let mut f = |x: &[f64]| -> f64 {
+            match run(start_of(x[0]), x[1] * max_taper, &mut trials) {
+                Some(t) => objective(&t),
+                None => f64::INFINITY,
+            }
+        };
+        let step = 0.5 / (nu - 1) as f64;
+        nelder_mead::minimise(
+            &mut f,
+            &[to_u(best_grid.start), best_grid.fraction / max_taper],
+            step,
+            1e-4,
+            60,
+        );
+    }
+    solves += trials.len();
+
+    // Candidates in order of the objective; the first that meets every limit at the normal
+    // resolution wins (a grouped search can be a little optimistic near a limit).
+    let mut order: Vec<Trial> = trials.clone();
+    order.sort_by(|a, b| objective(a).total_cmp(&objective(b)));
+    let mut chosen: Option<(Trial, Evaluation)> = None;
+    let mut first_checked: Option<(Trial, Evaluation)> = None;
+    for t in order.iter().filter(|t| t.worst() >= 0.0).take(4) {
+        let schedule = build_schedule(options.shape, options.steps, t.start, t.fraction, rc, big_r);
+        let e = evaluate(case, &schedule, limits, Resolution::Auto)?;
+        solves += 1;
+        if e.all_met() {
+            chosen = Some((*t, e));
+            break;
+        }
+        first_checked.get_or_insert((*t, e));
+    }
+    let feasible = chosen.is_some();
+    let (trial, after) = match chosen.or(first_checked) {
+        Some(c) => c,
+        None => {
+            // Nothing feasible: show the schedule with the best worst margin.
+            let t = *trials
+                .iter()
+                .max_by(|a, b| a.worst().total_cmp(&b.worst()))
+                .unwrap_or(&best_grid);
+            let schedule =
+                build_schedule(options.shape, options.steps, t.start, t.fraction, rc, big_r);
+            let e = evaluate(case, &schedule, limits, Resolution::Auto)?;
+            solves += 1;
+            (t, e)
+        }
+    };
+
+    let binding: Vec<Limit> = if feasible {
+        after
+            .checks
+            .iter()
+            .filter(|c| c.margin < margin + 0.05 && c.margin < 1.0)
+            .map(|c| c.limit)
+            .collect()
+    } else {
+        Vec::new()
+    };
+    let conflict = if feasible {
+        None
+    } else {
+        Some(find_conflict(case, limits, &trials))
+    };
+    let table = operator_table(&after.schedule, rc, big_r, options.steps);
+    let explanation = explain(
+        case,
+        limits,
+        &before,
+        &after,
+        feasible,
+        &binding,
+        conflict.as_ref(),
+        trial,
+        target,
+    );
+
+    Ok(TaperDesign {
+        feasible,
+        shape: options.shape,
+        steps: options.steps,
+        start_tension: trial.start,
+        taper_fraction: trial.fraction,
+        schedule: after.schedule.clone(),
+        limits: *limits,
+        before,
+        after,
+        binding,
+        conflict,
+        table,
+        explanation,
+        solves,
+    })
+}
+
+/// Find the pair of limits that no searched schedule meets together (the most conflicting one),
+/// and what each would have to be relaxed to.
+fn find_conflict(case: &ResolvedCase, limits: &TaperLimits, trials: &[Trial]) -> Conflict {
+    let best_pair = |a: Limit, b: Limit| {
+        trials
+            .iter()
+            .map(|t| t.margins[a.index()].min(t.margins[b.index()]))
+            .fold(f64::NEG_INFINITY, f64::max)
+    };
+    // A limit that fails on its own comes first.
+    let mut worst: Option<(Limit, Limit, f64)> = None;
+    for a in Limit::ALL {
+        let m = best_pair(a, a);
+        if m < 0.0 && worst.is_none_or(|w| m < w.2) {
+            worst = Some((a, a, m));
+        }
+    }
+    if worst.is_none() {
+        for (i, a) in Limit::ALL.iter().enumerate() {
+            for b in Limit::ALL.iter().skip(i + 1) {
+                let m = best_pair(*a, *b);
+                if worst.is_none_or(|w| m < w.2) {
+                    worst = Some((*a, *b, m));
+                }
+            }
+        }
+    }
+    let (first, second, best_margin) =
+        worst.unwrap_or((Limit::CorePressure, Limit::OuterPressure, 0.0));
+    let mut advice = Vec::new();
+    if first == second {
+        advice.push(format!(
+            "{} cannot be met by any searched schedule on its own (best margin {:.0} %); relax {} or change the roll (core, web or roll size)",
+            first.title(),
+            100.0 * best_margin,
+            first.option()
+        ));
+    } else {
+        for (relax, keep) in [(first, second), (second, first)] {
+            // Best value of `relax` among schedules that meet `keep`.
+            let best = trials
+                .iter()
+                .filter(|t| t.margins[keep.index()] >= 0.0)
+                .max_by(|x, y| x.margins[relax.index()].total_cmp(&y.margins[relax.index()]));
+            if let Some(t) = best {
+                advice.push(relax_advice(
+                    case,
+                    limits,
+                    relax,
+                    keep,
+                    t.values[relax.index()],
+                ));
+            }
+        }
+        if best_margin > -0.0 {
+            advice.push(
+                "each pair can be met, but not all four together; relax either of the named limits"
+                    .into(),
+            );
+        }
+    }
+    Conflict {
+        first,
+        second,
+        best_margin,
+        advice,
+    }
+}
+
+fn kpa(p: f64) -> String {
+    crate::units::format_quantity(
+        p,
+        crate::units::QuantityKind::Stress,
+        crate::units::UnitSystem::Si,
+    )
+}
+
+fn relax_advice(
+    case: &ResolvedCase,
+    limits: &TaperLimits,
+    relax: Limit,
+    keep: Limit,
+    best: f64,
+) -> String {
+    let keeping = format!("while {} is met", keep.title());
+    match relax {
+        Limit::CorePressure => {
+            let share = best / case.core.crush_pressure;
+            format!(
+                "{keeping}, the core pressure is at least {}: raise {} to {:.2} (now {:.2}) or use a core rated for {} or more",
+                kpa(best),
+                relax.option(),
+                share,
+                limits.core_share,
+                kpa(best / limits.core_share)
+            )
+        }
+        Limit::OuterPressure => format!(
+            "{keeping}, the outer-zone pressure reaches at most {}: lower {} to that (now {})",
+            kpa(best),
+            relax.option(),
+            kpa(limits.min_outer_pressure)
+        ),
+        Limit::WoundInTension => format!(
+            "{keeping}, the wound-in tension must reach {:.0} N/m: raise {} to {:.2} (now {:.2}) if the web's strength allows it",
+            best,
+            relax.option(),
+            best / case.web.strength,
+            limits.tension_share
+        ),
+        Limit::Starring => format!(
+            "{keeping}, a compressive low-pressure band of {:.0} % of the build remains: relax the other limit, or change the core or web",
+            100.0 * best
+        ),
+    }
+}
+
+/// Tension against diameter for the operator: one row per step, or eleven rows across the build.
+pub fn operator_table(
+    schedule: &TensionSchedule,
+    rc: f64,
+    big_r: f64,
+    steps: Option<usize>,
+) -> Vec<ScheduleRow> {
+    match (&schedule.taper, steps) {
+        (Taper::Steps { steps }, _) => {
+            let mut rows = vec![ScheduleRow {
+                diameter: 2.0 * rc,
+                tension: schedule.start_tension,
+            }];
+            rows.extend(steps.iter().map(|s| ScheduleRow {
+                diameter: 2.0 * s.radius,
+                tension: s.tension,
+            }));
+            rows
+        }
+        _ => (0..=10)
+            .map(|k| {
+                let r = rc + (big_r - rc) * k as f64 / 10.0;
+                ScheduleRow {
+                    diameter: 2.0 * r,
+                    tension: schedule_tension(schedule, r, rc, big_r),
+                }
+            })
+            .collect(),
+    }
+}
+
+#[allow(clippy::too_many_arguments)]
+fn explain(
+    case: &ResolvedCase,
+    limits: &TaperLimits,
+    before: &Evaluation,
+    after: &Evaluation,
+    feasible: bool,
+    binding: &[Limit],
+    conflict: Option<&Conflict>,
+    trial: Trial,
+    target: f64,
+) -> Vec<String> {
+    let mut out = Vec::new();
+    if before.all_met() {
+        out.push("The current schedule already meets every limit.".to_string());
+    } else {
+        let failed: Vec<&str> = before
+            .checks
+            .iter()
+            .filter(|c| !c.met)
+            .map(|c| c.limit.title())
+            .collect();
+        out.push(format!(
+            "The current schedule fails: {}.",
+            failed.join(", ")
+        ));
+    }
+    if feasible {
+        out.push(format!(
+            "Designed: start {:.0} N/m with {:.0} % taper (the current start is {:.0} N/m); it meets every limit when re-solved.",
+            trial.start,
+            100.0 * trial.fraction,
+            case.winding.tension.start_tension
+        ));
+        if (trial.start / target - 1.0).abs() < 0.02 {
+            out.push(
+                "The start tension is kept; the taper is the least that meets the limits.".into(),
+            );
+        }
+        for limit in binding {
+            let why = match limit {
+                Limit::CorePressure => {
+                    "more start tension or less taper would load the core beyond the chosen share of its crush rating"
+                }
+                Limit::OuterPressure => {
+                    "less tension at the outside (lower start or more taper) would leave the outer zone too loose to resist telescoping"
+                }
+                Limit::WoundInTension => {
+                    "a higher start tension would exceed the web's safe share of its strength"
+                }
+                Limit::Starring => {
+                    "a different taper would open a band of compressive tangential stress at low pressure"
+                }
+            };
+            if let Some(c) = after.check(*limit) {
+                out.push(format!(
+                    "Binding: {} ({:.0} % to spare): {why}.",
+                    limit.title(),
+                    100.0 * c.margin
+                ));
+            }
+        }
+    } else if let Some(c) = conflict {
+        if c.first == c.second {
+            out.push(format!(
+                "No schedule meets every limit: {} cannot be met.",
+                c.first.title()
+            ));
+        } else {
+            out.push(format!(
+                "No schedule meets every limit: {} and {} conflict — what one needs, the other forbids.",
+                c.first.title(),
+                c.second.title()
+            ));
+        }
+        out.extend(c.advice.iter().cloned());
+    }
+    let _ = limits;
+    out
+}

@@ -1,0 +1,188 @@
+//! The symptom list the picker searches: names, aliases, descriptions and the questions asked
+//! about each symptom, plus the one fuzzy-matching function the UI uses.
+//!
+//! The catalogue is built from the vocabulary of symptom IDs; names, aliases, descriptions and
+//! questions are filled from the rule base when it provides them (see [`Catalogue::from_rules`]).
+
+use fuzzy_matcher::FuzzyMatcher;
+use fuzzy_matcher::skim::SkimMatcherV2;
+
+/// One question asked about a symptom; the answer is stored in `Case::answers[id]`.
+#[derive(Debug, Clone, PartialEq)]
+pub struct QuestionInfo {
+    pub id: String,
+    pub text: String,
+    /// Choice IDs; empty means the answer is yes / no / unknown.
+    pub choices: Vec<String>,
+}
+
+impl QuestionInfo {
+    /// The answers offered, in the order Enter cycles through them.
+    pub fn options(&self) -> Vec<String> {
+        if self.choices.is_empty() {
+            YES_NO_UNKNOWN.iter().map(|s| s.to_string()).collect()
+        } else {
+            let mut options = self.choices.clone();
+            options.push("unknown".to_string());
+            options
+        }
+    }
+}
+
+/// Answers of a plain question.
+pub const YES_NO_UNKNOWN: [&str; 3] = ["yes", "no", "unknown"];
+
+/// One symptom (roll defect) as the picker shows it.
+#[derive(Debug, Clone, PartialEq)]
+pub struct SymptomInfo {
+    pub id: String,
+    pub name: String,
+    pub aliases: Vec<String>,
+    pub description: String,
+    pub questions: Vec<QuestionInfo>,
+}
+
+/// A search hit: which symptom, its score, and the alias that matched best (if not the name).
+#[derive(Debug, Clone, PartialEq)]
+pub struct Match {
+    pub index: usize,
+    pub score: i64,
+    pub via_alias: Option<String>,
+}
+
+/// Every symptom the picker offers.
+#[derive(Debug, Clone, PartialEq, Default)]
+pub struct Catalogue {
+    pub symptoms: Vec<SymptomInfo>,
+}
+
+/// Fuzzy score of `pattern` against `text` (higher is better), `None` when it does not match.
+/// The only place the UI calls the fuzzy matcher.
+pub fn fuzzy_score(pattern: &str, text: &str) -> Option<i64> {
+    SkimMatcherV2::default()
+        .ignore_case()
+        .fuzzy_match(text, pattern.trim())
+}
+
+/// "crushed_core" → "Crushed core".
+pub fn plain_name(id: &str) -> String {
+    let words = id.replace('_', " ");
+    let mut chars = words.chars();
+    match chars.next() {
+        Some(first) => first.to_uppercase().chain(chars).collect(),
+        None => String::new(),
+    }
+}
+
+impl Catalogue {
+    /// Built from the symptom IDs alone (plain names, no aliases or questions): the fallback
+    /// when the rule base says nothing about a symptom.
+    pub fn from_vocabulary() -> Catalogue {
+        Catalogue {
+            symptoms: crate::vocabulary::SYMPTOM_IDS
+                .iter()
+                .map(|id| SymptomInfo {
+                    id: id.to_string(),
+                    name: plain_name(id),
+                    aliases: Vec::new(),
+                    description: String::new(),
+                    questions: Vec::new(),
+                })
+                .collect(),
+        }
+    }
+
+    /// Built from the rule base: titles, aliases, descriptions and questions of each symptom.
+    pub fn from_rules(_rules: &crate::diagnose::rules::RuleBase) -> Catalogue {
+        // The rule base does not expose symptom listings yet; fall back to the vocabulary.
+        Catalogue::from_vocabulary()
+    }
+
+    pub fn get(&self, id: &str) -> Option<&SymptomInfo> {
+        self.symptoms.iter().find(|s| s.id == id)
+    }
+
+    /// Symptoms matching `query` by name, ID or alias, best first; all symptoms in catalogue
+    /// order when the query is empty.
+    pub fn search(&self, query: &str) -> Vec<Match> {
+        if query.trim().is_empty() {
+            return (0..self.symptoms.len())
+                .map(|index| Match {
+                    index,
+                    score: 0,
+                    via_alias: None,
+                })
+                .collect();
+        }
+        let mut hits: Vec<Match> = Vec::new();
+        for (index, symptom) in self.symptoms.iter().enumerate() {
+            let mut best: Option<(i64, Option<String>)> = None;
+            for text in [&symptom.name, &symptom.id] {
+                if let Some(score) = fuzzy_score(query, text)
+                    && best.as_ref().is_none_or(|(b, _)| score > *b)
+                {
+                    best = Some((score, None));
+                }
+            }
+            for alias in &symptom.aliases {
+                if let Some(score) = fuzzy_score(query, alias)
+                    && best.as_ref().is_none_or(|(b, _)| score > *b)
+                {
+                    best = Some((score, Some(alias.clone())));
+                }
+            }
+            if let Some((score, via_alias)) = best {
+                hits.push(Match {
+                    index,
+                    score,
+                    via_alias,
+                });
+            }
+        }
+        // Stable sort keeps catalogue order between equal scores: deterministic lists.
+        hits.sort_by_key(|hit| std::cmp::Reverse(hit.score));
+        hits
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    fn sample() -> Catalogue {
+        let mut catalogue = Catalogue::from_vocabulary();
+        if let Some(s) = catalogue.symptoms.iter_mut().find(|s| s.id == "starring") {
+            s.aliases = vec!["stars".into(), "spoking".into()];
+        }
+        catalogue
+    }
+
+    #[test]
+    fn empty_query_lists_everything_in_order() {
+        let c = sample();
+        let hits = c.search("");
+        assert_eq!(hits.len(), crate::vocabulary::SYMPTOM_IDS.len());
+        assert_eq!(hits[0].index, 0);
+    }
+
+    #[test]
+    fn alias_finds_symptom_and_says_so() {
+        let c = sample();
+        let hits = c.search("spok");
+        let first = &hits[0];
+        assert_eq!(c.symptoms[first.index].id, "starring");
+        assert_eq!(first.via_alias.as_deref(), Some("spoking"));
+    }
+
+    #[test]
+    fn fuzzy_name_match_tolerates_gaps() {
+        let c = sample();
+        let hits = c.search("tlscp");
+        assert_eq!(c.symptoms[hits[0].index].id, "telescoping");
+    }
+
+    #[test]
+    fn plain_names_read_as_words() {
+        assert_eq!(plain_name("crushed_core"), "Crushed core");
+    }
+}

@@ -1,0 +1,182 @@
+//! The background solver: resolve the case, solve the wound-roll stresses, diagnose — on a
+//! worker thread, reporting progress and the result over a channel so the UI never waits.
+//! A newer request of the same purpose cancels the older one.
+
+use std::sync::Arc;
+use std::sync::atomic::{AtomicBool, Ordering};
+use std::sync::mpsc::{Receiver, Sender, channel};
+
+use crate::case::{Case, ResolvedCase};
+use crate::diagnose::{DiagnoseOptions, Diagnosis, rules::RuleBase};
+use crate::model::{Profile, SolverOptions};
+
+/// Why a solve was asked for; results are filed under their purpose.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash)]
+pub enum Purpose {
+    /// The case as it stands (results screen).
+    Baseline,
+    /// The case with one setting changed (what-if screen).
+    WhatIf,
+}
+
+/// A solve the app asks the runtime to start.
+#[derive(Debug, Clone, PartialEq)]
+pub struct JobRequest {
+    pub id: u64,
+    pub purpose: Purpose,
+    /// The app's case generation the request was made from (results older than the case are
+    /// shown as out of date).
+    pub generation: u64,
+    pub case: Case,
+}
+
+/// Everything one solve produces.
+#[derive(Debug, Clone, PartialEq)]
+pub struct SolveOutcome {
+    pub resolved: ResolvedCase,
+    pub profile: Profile,
+    /// The diagnosis can fail on its own (e.g. rule trouble) while the stresses are fine.
+    pub diagnosis: Result<Diagnosis, String>,
+}
+
+#[derive(Debug, Clone, PartialEq)]
+pub enum JobMessage {
+    Progress {
+        id: u64,
+        fraction: f64,
+    },
+    Finished {
+        id: u64,
+        purpose: Purpose,
+        generation: u64,
+        result: Result<Box<SolveOutcome>, String>,
+    },
+}
+
+/// Resolve, solve and diagnose `case` on the calling thread. `progress(fraction)` returning
+/// false cancels the solve.
+pub fn run_pipeline(
+    case: &Case,
+    rules: &RuleBase,
+    progress: &mut dyn FnMut(f64) -> bool,
+) -> Result<SolveOutcome, String> {
+    let resolved = case.resolve().map_err(|e| format!("inputs: {e}"))?;
+    let problem = resolved.problem(SolverOptions::default());
+    let profile = crate::model::solve_with_progress(&problem, progress)
+        .map_err(|e| format!("stress solve: {e}"))?;
+    let options = DiagnoseOptions {
+        top: 0,
+        what_if: false,
+        ..DiagnoseOptions::default()
+    };
+    let diagnosis = crate::diagnose::diagnose(rules, &resolved, &profile, &options)
+        .map_err(|e| format!("diagnosis: {e}"));
+    Ok(SolveOutcome {
+        resolved,
+        profile,
+        diagnosis,
+    })
+}
+
+/// Name of solver threads; the panic hook leaves the terminal alone for panics on them (they
+/// are caught and reported in the UI).
+pub const SOLVER_THREAD_NAME: &str = "rolltriage-solver";
+
+fn panic_text(payload: &(dyn std::any::Any + Send)) -> String {
+    let detail = payload
+        .downcast_ref::<&str>()
+        .map(|s| s.to_string())
+        .or_else(|| payload.downcast_ref::<String>().cloned())
+        .unwrap_or_default();
+    format!("the solver stopped unexpectedly (internal error) {detail}")
+        .trim_end()
+        .to_string()
+}
+
+/// Starts solves on worker threads and collects their messages.
+pub struct JobRunner {
+    rules: Arc<RuleBase>,
+    sender: Sender<JobMessage>,
+    receiver: Receiver<JobMessage>,
+    running: Vec<(Purpose, u64, Arc<AtomicBool>)>,
+}
+
+impl JobRunner {
+    pub fn new(rules: Arc<RuleBase>) -> JobRunner {
+        let (sender, receiver) = channel();
+        JobRunner {
+            rules,
+            sender,
+            receiver,
+            running: Vec::new(),
+        }
+    }
+
+    /// Start `request` on a new thread, cancelling an older solve of the same purpose.
+    pub fn start(&mut self, request: JobRequest) {
+        for (purpose, _, cancel) in &self.running {
+            if *purpose == request.purpose {
+                cancel.store(true, Ordering::Relaxed);
+            }
+        }
+        self.running
+            .retain(|(purpose, _, _)| *purpose != request.purpose);
+        let cancel = Arc::new(AtomicBool::new(false));
+        self.running
+            .push((request.purpose, request.id, Arc::clone(&cancel)));
+        let rules = Arc::clone(&self.rules);
+        let sender = self.sender.clone();
+        let id = request.id;
+        let purpose = request.purpose;
+        let generation = request.generation;
+        let failure_sender = self.sender.clone();
+        let spawned = std::thread::Builder::new()
+            .name(SOLVER_THREAD_NAME.into())
+            .spawn(move || {
+                let mut last_sent = -1.0;
+                let mut progress = |fraction: f64| {
+                    // Throttle: a message per percent is plenty for a spinner.
+                    if fraction - last_sent >= 0.01 {
+                        last_sent = fraction;
+                        let _ = sender.send(JobMessage::Progress { id, fraction });
+                    }
+                    !cancel.load(Ordering::Relaxed)
+                };
+                // A panic in the numerics must not take the UI down with it.
+                let result = std::panic::catch_unwind(std::panic::AssertUnwindSafe(|| {
+                    run_pipeline(&request.case, &rules, &mut progress)
+                }))
+                .unwrap_or_else(|payload| Err(panic_text(payload.as_ref())));
+                let _ = sender.send(JobMessage::Finished {
+                    id,
+                    purpose,
+                    generation,
+                    result: result.map(Box::new),
+                });
+            });
+        if let Err(error) = spawned {
+            let _ = failure_sender.send(JobMessage::Finished {
+                id,
+                purpose,
+                generation,
+                result: Err(format!("cannot start the solver thread: {error}")),
+            });
+        }
+    }
+
+    /// The next message, if one is waiting.
+    pub fn try_recv(&mut self) -> Option<JobMessage> {
+        let message = self.receiver.try_recv().ok()?;
+        if let JobMessage::Finished { id, .. } = &message {
+            self.running.retain(|(_, running_id, _)| running_id != id);
+        }
+        Some(message)
+    }
+
+    /// Ask every running solve to stop (on quit).
+    pub fn cancel_all(&self) {
+        for (_, _, cancel) in &self.running {
+            cancel.store(true, Ordering::Relaxed);
+        }
+    }
+}

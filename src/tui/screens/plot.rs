@@ -1,0 +1,299 @@
+//! A small line plot of a quantity against radius, drawn cell by cell: zones of the roll as
+//! labelled bands (alternate bands dotted, so they read without colour), horizontal reference
+//! lines (zero, core crush rating), one curve in braille dots and an optional comparison curve
+//! in bullets.
+
+use ratatui::buffer::Buffer;
+use ratatui::layout::Rect;
+use ratatui::style::Style;
+use ratatui::text::Line;
+use ratatui::widgets::{Block, Paragraph, Widget};
+
+/// How a curve is drawn.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Glyph {
+    /// Braille dots, 2×4 per cell.
+    Braille,
+    /// One bullet per cell.
+    Bullet,
+}
+
+#[derive(Debug, Clone, PartialEq)]
+pub struct Series {
+    pub points: Vec<(f64, f64)>,
+    pub glyph: Glyph,
+    pub style: Style,
+}
+
+#[derive(Debug, Clone, PartialEq)]
+pub struct ReferenceLine {
+    pub y: f64,
+    pub label: String,
+    pub glyph: char,
+    pub style: Style,
+}
+
+#[derive(Debug, Clone, PartialEq)]
+pub struct Band {
+    pub label: String,
+    pub from: f64,
+    pub to: f64,
+}
+
+pub struct ZonePlot<'a> {
+    pub block: Block<'a>,
+    pub series: Vec<Series>,
+    pub bands: Vec<Band>,
+    pub lines: Vec<ReferenceLine>,
+    pub format_y: &'a dyn Fn(f64) -> String,
+    pub format_x: &'a dyn Fn(f64) -> String,
+    pub band_style: Style,
+    pub axis_style: Style,
+}
+
+const BRAILLE_BITS: [[u8; 4]; 2] = [[0x01, 0x02, 0x04, 0x40], [0x08, 0x10, 0x20, 0x80]];
+
+fn range_of(values: impl Iterator<Item = f64>) -> Option<(f64, f64)> {
+    values
+        .filter(|v| v.is_finite())
+        .fold(None, |acc, v| match acc {
+            None => Some((v, v)),
+            Some((lo, hi)) => Some((lo.min(v), hi.max(v))),
+        })
+}
+
+/// A short label for a band `width` cells wide.
+fn fitted_label(label: &str, width: usize) -> String {
+    let len = label.chars().count();
+    if len <= width {
+        label.to_string()
+    } else if width >= 3 {
+        label.chars().take(3).collect()
+    } else if width >= 1 {
+        label.chars().take(1).collect::<String>().to_uppercase()
+    } else {
+        String::new()
+    }
+}
+
+impl Widget for ZonePlot<'_> {
+    fn render(self, area: Rect, buf: &mut Buffer) {
+        let inner = self.block.inner(area);
+        self.block.render(area, buf);
+        if inner.width < 16 || inner.height < 5 {
+            Paragraph::new("(enlarge the window to see this plot)").render(inner, buf);
+            return;
+        }
+        let Some((x0, x1)) = range_of(
+            self.series
+                .iter()
+                .flat_map(|s| s.points.iter().map(|p| p.0))
+                .chain(self.bands.iter().flat_map(|b| [b.from, b.to])),
+        ) else {
+            Paragraph::new("no data").render(inner, buf);
+            return;
+        };
+        let x1 = if x1 > x0 { x1 } else { x0 + 1.0 };
+        let data = range_of(
+            self.series
+                .iter()
+                .flat_map(|s| s.points.iter().map(|p| p.1))
+                .chain(std::iter::once(0.0)),
+        )
+        .unwrap_or((0.0, 1.0));
+        // Reference lines far above the data would flatten the curves: note them instead.
+        let span = (data.1 - data.0).abs().max(f64::MIN_POSITIVE);
+        let (shown_lines, off_plot): (Vec<_>, Vec<_>) = self
+            .lines
+            .iter()
+            .partition(|l| l.y >= data.0 - span && l.y <= data.1 + span);
+        let (mut y0, mut y1) = range_of(
+            std::iter::once(data.0)
+                .chain(std::iter::once(data.1))
+                .chain(shown_lines.iter().map(|l| l.y)),
+        )
+        .unwrap_or((0.0, 1.0));
+        if y1 <= y0 {
+            y1 = y0 + 1.0;
+        }
+        let pad = (y1 - y0) * 0.05;
+        y0 -= if y0 < 0.0 { pad } else { 0.0 };
+        y1 += pad;
+
+        let label_rows = [y1, y0];
+        let y_label_width = label_rows
+            .iter()
+            .chain(std::iter::once(&0.0))
+            .map(|v| (self.format_y)(*v).chars().count())
+            .max()
+            .unwrap_or(4) as u16
+            + 1;
+        let plot = Rect {
+            x: inner.x + y_label_width,
+            y: inner.y + 1,
+            width: inner.width.saturating_sub(y_label_width),
+            height: inner.height.saturating_sub(2),
+        };
+        if plot.width < 4 || plot.height < 2 {
+            return;
+        }
+        let w = usize::from(plot.width);
+        let h = usize::from(plot.height);
+        let column_x = |c: usize| x0 + (c as f64 + 0.5) / w as f64 * (x1 - x0);
+        let row_of = |y: f64| -> Option<usize> {
+            let f = (y1 - y) / (y1 - y0);
+            (0.0..=1.0)
+                .contains(&f)
+                .then(|| ((f * h as f64) as usize).min(h - 1))
+        };
+
+        // Bands: dotted background in alternate bands, a boundary mark, labels on the top row.
+        let band_of = |x: f64| self.bands.iter().position(|b| x >= b.from && x <= b.to);
+        let mut spans: Vec<(usize, usize, usize)> = Vec::new(); // band, first col, last col
+        for c in 0..w {
+            if let Some(b) = band_of(column_x(c)) {
+                match spans.last_mut() {
+                    Some(last) if last.0 == b => last.2 = c,
+                    _ => spans.push((b, c, c)),
+                }
+                if b % 2 == 1 {
+                    for r in 0..h {
+                        buf[(plot.x + c as u16, plot.y + r as u16)]
+                            .set_char('·')
+                            .set_style(self.band_style);
+                    }
+                }
+            }
+        }
+        for (i, &(b, first, last)) in spans.iter().enumerate() {
+            if i > 0 {
+                for r in 0..h {
+                    buf[(plot.x + first as u16, plot.y + r as u16)]
+                        .set_char('┆')
+                        .set_style(self.band_style);
+                }
+            }
+            let width = last - first + 1;
+            let text = fitted_label(&self.bands[b].label, width);
+            let offset = (width.saturating_sub(text.chars().count())) / 2;
+            buf.set_string(
+                plot.x + (first + offset) as u16,
+                inner.y,
+                &text,
+                self.band_style,
+            );
+        }
+        if let Some(line) = off_plot.first() {
+            let text = format!("↑ {} {}", line.label, (self.format_y)(line.y));
+            let x = inner.right().saturating_sub(text.chars().count() as u16);
+            buf.set_string(x.max(plot.x), inner.y, &text, line.style);
+        }
+
+        // Reference lines with their labels at the right end.
+        for line in &shown_lines {
+            if let Some(r) = row_of(line.y) {
+                for c in 0..w {
+                    buf[(plot.x + c as u16, plot.y + r as u16)]
+                        .set_char(line.glyph)
+                        .set_style(line.style);
+                }
+                if !line.label.is_empty() && line.label.chars().count() + 2 < w {
+                    let x = plot.right() - line.label.chars().count() as u16;
+                    buf.set_string(x, plot.y + r as u16, &line.label, line.style);
+                }
+            }
+        }
+
+        // Curves: comparison bullets first, then the braille curve on top.
+        let dot_x = |x: f64| ((x - x0) / (x1 - x0) * (w * 2) as f64).clamp(0.0, (w * 2 - 1) as f64);
+        let dot_y = |y: f64| ((y1 - y) / (y1 - y0) * (h * 4) as f64).clamp(0.0, (h * 4 - 1) as f64);
+        for series in self.series.iter().filter(|s| s.glyph == Glyph::Bullet) {
+            for pair in series.points.windows(2) {
+                let (ax, ay, bx, by) = (
+                    dot_x(pair[0].0),
+                    dot_y(pair[0].1),
+                    dot_x(pair[1].0),
+                    dot_y(pair[1].1),
+                );
+                let steps = ((bx - ax).abs().max((by - ay).abs()) / 2.0).ceil().max(1.0) as usize;
+                for s in 0..=steps {
+                    let t = s as f64 / steps as f64;
+                    let c = ((ax + t * (bx - ax)) / 2.0) as usize;
+                    let r = ((ay + t * (by - ay)) / 4.0) as usize;
+                    buf[(plot.x + c.min(w - 1) as u16, plot.y + r.min(h - 1) as u16)]
+                        .set_char('•')
+                        .set_style(series.style);
+                }
+            }
+        }
+        for series in self.series.iter().filter(|s| s.glyph == Glyph::Braille) {
+            let mut cells = vec![0u8; w * h];
+            let mut set = |dx: f64, dy: f64| {
+                let (dx, dy) = (dx as usize, dy as usize);
+                let cell = (dy / 4).min(h - 1) * w + (dx / 2).min(w - 1);
+                cells[cell] |= BRAILLE_BITS[dx % 2][dy % 4];
+            };
+            if series.points.len() == 1 {
+                set(dot_x(series.points[0].0), dot_y(series.points[0].1));
+            }
+            for pair in series.points.windows(2) {
+                let (ax, ay, bx, by) = (
+                    dot_x(pair[0].0),
+                    dot_y(pair[0].1),
+                    dot_x(pair[1].0),
+                    dot_y(pair[1].1),
+                );
+                let steps = (bx - ax).abs().max((by - ay).abs()).ceil().max(1.0) as usize;
+                for s in 0..=steps {
+                    let t = s as f64 / steps as f64;
+                    set(ax + t * (bx - ax), ay + t * (by - ay));
+                }
+            }
+            for (i, bits) in cells.iter().enumerate() {
+                if *bits != 0 {
+                    let ch = char::from_u32(0x2800 + u32::from(*bits)).unwrap_or('•');
+                    buf[(plot.x + (i % w) as u16, plot.y + (i / w) as u16)]
+                        .set_char(ch)
+                        .set_style(series.style);
+                }
+            }
+        }
+
+        // Axes: y labels at top, bottom and zero; x labels at both ends and the middle.
+        let mut y_marks = vec![(0usize, y1), (h - 1, y0)];
+        if let Some(r) = row_of(0.0)
+            && r != 0
+            && r != h - 1
+        {
+            y_marks.push((r, 0.0));
+        }
+        for (r, v) in y_marks {
+            let text = (self.format_y)(v);
+            let x =
+                inner.x + y_label_width - 1 - (text.chars().count() as u16).min(y_label_width - 1);
+            buf.set_string(x, plot.y + r as u16, &text, self.axis_style);
+        }
+        let bottom = inner.bottom() - 1;
+        let left = (self.format_x)(x0);
+        let right = (self.format_x)(x1);
+        let middle = format!("radius {}", (self.format_x)((x0 + x1) / 2.0));
+        buf.set_string(plot.x, bottom, &left, self.axis_style);
+        let rx = plot.right().saturating_sub(right.chars().count() as u16);
+        buf.set_string(rx, bottom, &right, self.axis_style);
+        let mid_len = middle.chars().count() as u16;
+        let mx = plot.x + plot.width.saturating_sub(mid_len) / 2;
+        if mx > plot.x + left.chars().count() as u16 && mx + mid_len < rx {
+            buf.set_string(mx, bottom, &middle, self.axis_style);
+        }
+    }
+}
+
+/// A legend line for a plot title.
+pub fn legend(items: &[(&str, &str)]) -> Line<'static> {
+    let text = items
+        .iter()
+        .map(|(glyph, what)| format!("{glyph} {what}"))
+        .collect::<Vec<_>>()
+        .join("  ");
+    Line::from(text)
+}

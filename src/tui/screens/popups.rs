@@ -1,0 +1,130 @@
+//! Popups drawn over the screen: help, "unsaved changes", open a file, save as.
+
+use ratatui::buffer::Buffer;
+use ratatui::layout::Rect;
+use ratatui::text::{Line, Span};
+use ratatui::widgets::{Block, Clear, Paragraph, Widget, Wrap};
+
+use super::{centred, help};
+use crate::tui::app::{App, OpenPurpose, PendingAction, Popup};
+use crate::tui::theme::Theme;
+
+pub fn render(app: &App, popup: &Popup, theme: Theme, area: Rect, buf: &mut Buffer) {
+    match popup {
+        Popup::Help => {
+            let mut lines = Vec::new();
+            for (section, keys) in help::sections() {
+                lines.push(Line::from(Span::styled(section, theme.title())));
+                for (key, what) in keys {
+                    lines.push(Line::from(vec![
+                        Span::styled(format!("  {key:<24}"), theme.key()),
+                        Span::raw(what),
+                    ]));
+                }
+            }
+            let rect = centred(area, 80, area.height.saturating_sub(2));
+            let room = usize::from(rect.height.saturating_sub(2));
+            let last_start = lines.len().saturating_sub(room) as u16;
+            let scroll = app.help_scroll.min(last_start);
+            let more = if scroll < last_start { " ↓ more" } else { "" };
+            Clear.render(rect, buf);
+            Paragraph::new(lines)
+                .scroll((scroll, 0))
+                .block(Block::bordered().title(format!(" Keys — ↑↓ scroll, Esc closes{more} ")))
+                .render(rect, buf);
+        }
+        Popup::Confirm(action) => {
+            let doing = match action {
+                PendingAction::Quit => "quitting".to_string(),
+                PendingAction::NewCase => "starting a blank case".to_string(),
+                PendingAction::Open(path) => format!("opening {}", path.display()),
+            };
+            let lines = vec![
+                Line::from(format!("The case has unsaved changes. Before {doing}:")),
+                Line::from(""),
+                Line::from(vec![
+                    Span::styled("  s ", theme.key()),
+                    Span::raw("save, then continue"),
+                ]),
+                Line::from(vec![
+                    Span::styled("  d ", theme.key()),
+                    Span::raw("discard the changes and continue"),
+                ]),
+                Line::from(vec![
+                    Span::styled("  Esc ", theme.key()),
+                    Span::raw("go back"),
+                ]),
+            ];
+            let rect = centred(area, 60, 7);
+            Clear.render(rect, buf);
+            Paragraph::new(lines)
+                .wrap(Wrap { trim: false })
+                .block(Block::bordered().title(" Unsaved changes "))
+                .render(rect, buf);
+        }
+        Popup::Open(prompt) => {
+            let title = match prompt.purpose {
+                OpenPurpose::WholeCase => " Open a case file ",
+                OpenPurpose::InputsOnly => " Take the inputs from a case file (symptoms kept) ",
+            };
+            let mut lines = vec![Line::from(vec![
+                Span::styled("file: ", theme.key()),
+                Span::raw(format!("{}▏", prompt.input)),
+            ])];
+            if let Some(error) = &prompt.error {
+                lines.push(Line::from(Span::styled(error.clone(), theme.error())));
+            }
+            lines.push(Line::from(Span::styled(
+                "found nearby (↑↓ then Enter):",
+                theme.dim(),
+            )));
+            let rect = centred(area, 72, area.height.saturating_sub(4).min(16));
+            let room = usize::from(rect.height.saturating_sub(2)).saturating_sub(lines.len());
+            let first = prompt
+                .selected
+                .unwrap_or(0)
+                .saturating_sub(room.saturating_sub(1));
+            for (i, name) in prompt.suggestions.iter().enumerate().skip(first).take(room) {
+                let style = if prompt.selected == Some(i) {
+                    theme.selected()
+                } else {
+                    theme.plain()
+                };
+                lines.push(Line::from(Span::styled(format!("  {name}"), style)));
+            }
+            if prompt.suggestions.is_empty() {
+                lines.push(Line::from(Span::styled(
+                    "  (no .yaml files in ./cases or here)",
+                    theme.dim(),
+                )));
+            }
+            Clear.render(rect, buf);
+            Paragraph::new(lines)
+                .wrap(Wrap { trim: false })
+                .block(Block::bordered().title(title))
+                .render(rect, buf);
+        }
+        Popup::SaveAs { input, error } => {
+            let mut lines = vec![Line::from(vec![
+                Span::styled("file: ", theme.key()),
+                Span::raw(format!("{input}▏")),
+            ])];
+            if let Some(error) = error {
+                lines.push(Line::from(Span::styled(error.clone(), theme.error())));
+            }
+            lines.push(Line::from(Span::styled(
+                format!(
+                    "The case \"{}\" is written to a temporary file, then renamed.",
+                    app.case.title
+                ),
+                theme.dim(),
+            )));
+            let rect = centred(area, 64, 6);
+            Clear.render(rect, buf);
+            Paragraph::new(lines)
+                .wrap(Wrap { trim: false })
+                .block(Block::bordered().title(" Save the case as "))
+                .render(rect, buf);
+        }
+    }
+}

@@ -1,0 +1,389 @@
+//! Results: summary figures, the pressure and tangential-stress plots with the roll's zones, the
+//! ranked causes (Enter shows each reason: indicator, value, threshold) and the merged remedy
+//! list with its groups and cautions.
+
+use ratatui::buffer::Buffer;
+use ratatui::layout::{Constraint, Layout, Rect};
+use ratatui::text::{Line, Span};
+use ratatui::widgets::{Block, Paragraph, Widget, Wrap};
+
+use super::plot::{Band, Glyph, ReferenceLine, Series, ZonePlot, legend};
+use super::{compact_length, compact_stress};
+use crate::diagnose::Diagnosis;
+use crate::model::Profile;
+use crate::tui::app::{App, ResultsFocus};
+use crate::tui::job::SolveOutcome;
+use crate::tui::theme::Theme;
+use crate::units::UnitSystem;
+
+/// What to draw when there is nothing to show yet (or the result is out of date).
+pub fn waiting_text(app: &App) -> Option<String> {
+    if let Some(running) = app.running_baseline {
+        return Some(format!(
+            "Solving the wound-roll stresses… {:.0}% (the screen stays live; keep working)",
+            running.fraction * 100.0
+        ));
+    }
+    match &app.baseline {
+        None => Some(match &app.resolved {
+            Err(e) if !e.is_empty() => format!("Inputs are not complete yet: {e}"),
+            _ => "No results yet: ^R solves the case.".into(),
+        }),
+        Some(b) => b.result.as_ref().err().map(|e| format!("No results: {e}")),
+    }
+}
+
+pub fn render(app: &App, theme: Theme, area: Rect, buf: &mut Buffer) {
+    let Some(outcome) = app.latest_outcome() else {
+        let text = waiting_text(app).unwrap_or_default();
+        Paragraph::new(text)
+            .wrap(Wrap { trim: true })
+            .block(Block::bordered().title(" Results "))
+            .render(area, buf);
+        return;
+    };
+    let plots_height = (area.height.saturating_sub(2) * 9 / 20).max(7);
+    let [summary, plots, lists] = Layout::vertical([
+        Constraint::Length(2),
+        Constraint::Length(plots_height),
+        Constraint::Min(3),
+    ])
+    .areas(area);
+    let mut summary_lines = summary_lines(outcome, app.units, theme);
+    if app.baseline_is_stale() {
+        summary_lines.insert(
+            0,
+            Line::from(Span::styled(
+                "Out of date: inputs changed since this solve — ^R to solve again.",
+                theme.warn(),
+            )),
+        );
+    }
+    Paragraph::new(summary_lines)
+        .wrap(Wrap { trim: true })
+        .render(summary, buf);
+    render_plots(
+        &outcome.profile,
+        None,
+        outcome.resolved.core.crush_pressure,
+        app.units,
+        theme,
+        plots,
+        buf,
+    );
+
+    let [causes, remedies] =
+        Layout::horizontal([Constraint::Percentage(50), Constraint::Percentage(50)]).areas(lists);
+    match &outcome.diagnosis {
+        Ok(diagnosis) => {
+            render_causes(app, diagnosis, theme, causes, buf);
+            render_remedies(app, diagnosis, theme, remedies, buf);
+        }
+        Err(error) => {
+            Paragraph::new(format!("No diagnosis: {error}"))
+                .wrap(Wrap { trim: true })
+                .block(Block::bordered().title(" Ranked causes "))
+                .render(lists, buf);
+        }
+    }
+}
+
+pub fn summary_lines(
+    outcome: &SolveOutcome,
+    units: UnitSystem,
+    theme: Theme,
+) -> Vec<Line<'static>> {
+    let s = &outcome.profile.summary;
+    let crush = outcome.resolved.core.crush_pressure;
+    let ratio = if crush > 0.0 {
+        s.core_pressure / crush
+    } else {
+        f64::NAN
+    };
+    let ratio_style = if ratio >= 1.0 {
+        theme.error()
+    } else {
+        theme.plain()
+    };
+    vec![
+        Line::from(vec![
+            Span::raw(format!(
+                "Core pressure {} ",
+                compact_stress(s.core_pressure, units)
+            )),
+            Span::styled(format!("({:.2}× crush rating)", ratio), ratio_style),
+            Span::raw(format!(
+                " · peak {} at r {}",
+                compact_stress(s.peak_pressure, units),
+                compact_length(s.peak_pressure_radius, units)
+            )),
+        ]),
+        Line::from(format!(
+            "Most compressive σθ {} at r {} · {} layers in {} elements",
+            compact_stress(s.min_tangential_stress, units),
+            compact_length(s.min_tangential_radius, units),
+            s.physical_layers,
+            s.elements
+        )),
+    ]
+}
+
+/// The two plots side by side; with `before`, the earlier profile is overlaid in bullets.
+pub fn render_plots(
+    profile: &Profile,
+    before: Option<&Profile>,
+    crush_pressure: f64,
+    units: UnitSystem,
+    theme: Theme,
+    area: Rect,
+    buf: &mut Buffer,
+) {
+    let [left, right] =
+        Layout::horizontal([Constraint::Percentage(50), Constraint::Percentage(50)]).areas(area);
+    let bands: Vec<Band> = profile
+        .zones
+        .iter()
+        .map(|z| Band {
+            label: z.name.as_str().to_string(),
+            from: z.inner_radius,
+            to: z.outer_radius,
+        })
+        .collect();
+    let format_y = |v: f64| compact_stress(v, units);
+    let format_x = |v: f64| compact_length(v, units);
+    let zero = ReferenceLine {
+        y: 0.0,
+        label: String::new(),
+        glyph: '─',
+        style: theme.dim(),
+    };
+    let pairs = |xs: &[f64], ys: &[f64]| -> Vec<(f64, f64)> {
+        xs.iter().copied().zip(ys.iter().copied()).collect()
+    };
+    let curves = |pick: fn(&Profile) -> &Vec<f64>| {
+        let mut series = Vec::new();
+        if let Some(before) = before {
+            series.push(Series {
+                points: pairs(&before.radius, pick(before)),
+                glyph: Glyph::Bullet,
+                style: theme.curve_before(),
+            });
+        }
+        series.push(Series {
+            points: pairs(&profile.radius, pick(profile)),
+            glyph: Glyph::Braille,
+            style: theme.curve(),
+        });
+        series
+    };
+    let legend_items: &[(&str, &str)] = if before.is_some() {
+        &[("⣿", "after"), ("•", "before")]
+    } else {
+        &[]
+    };
+    let title = |name: &str| {
+        let mut line = Line::from(format!(" {name} "));
+        if !legend_items.is_empty() {
+            line.spans.extend(legend(legend_items).spans);
+            line.spans.push(Span::raw(" "));
+        }
+        line
+    };
+    let mut pressure_lines = vec![zero.clone()];
+    if crush_pressure > 0.0 && crush_pressure.is_finite() {
+        pressure_lines.push(ReferenceLine {
+            y: crush_pressure,
+            label: "crush rating".into(),
+            glyph: '═',
+            style: theme.limit_line(),
+        });
+    }
+    ZonePlot {
+        block: Block::bordered().title(title("Interlayer pressure")),
+        series: curves(|p| &p.pressure),
+        bands: bands.clone(),
+        lines: pressure_lines,
+        format_y: &format_y,
+        format_x: &format_x,
+        band_style: theme.zone_label(),
+        axis_style: theme.dim(),
+    }
+    .render(left, buf);
+    ZonePlot {
+        block: Block::bordered().title(title("Tangential stress σθ")),
+        series: curves(|p| &p.tangential_stress),
+        bands,
+        lines: vec![zero],
+        format_y: &format_y,
+        format_x: &format_x,
+        band_style: theme.zone_label(),
+        axis_style: theme.dim(),
+    }
+    .render(right, buf);
+}
+
+fn belief_bar(belief: f64) -> String {
+    let filled = (belief.clamp(0.0, 1.0) * 5.0).round() as usize;
+    format!("{}{}", "■".repeat(filled), "□".repeat(5 - filled))
+}
+
+/// Keep line `target` visible in `height` rows.
+fn scroll_for(target: usize, height: usize) -> u16 {
+    target.saturating_sub(height.saturating_sub(2)) as u16
+}
+
+fn render_causes(app: &App, diagnosis: &Diagnosis, theme: Theme, area: Rect, buf: &mut Buffer) {
+    let focus = app.results.focus == ResultsFocus::Causes;
+    let mut lines: Vec<Line> = Vec::new();
+    let mut target = 0;
+    if diagnosis.causes.is_empty() {
+        lines.push(Line::from(
+            "No cause stands out for these symptoms and inputs.",
+        ));
+    }
+    for (i, cause) in diagnosis.causes.iter().enumerate() {
+        let selected = i == app.results.cause;
+        if selected {
+            target = lines.len();
+        }
+        let open = app.results.expanded.contains(&cause.id);
+        let marker = if open { "▾" } else { "▸" };
+        let style = if selected && focus {
+            theme.selected()
+        } else {
+            theme.plain()
+        };
+        lines.push(Line::from(vec![
+            Span::styled(
+                format!(
+                    "{marker}{:>2}. {} {:>3.0}% ",
+                    i + 1,
+                    belief_bar(cause.belief),
+                    cause.belief * 100.0
+                ),
+                style,
+            ),
+            Span::styled(cause.title.clone(), style),
+        ]));
+        if open {
+            if !cause.mechanism.is_empty() {
+                lines.push(Line::from(Span::styled(
+                    format!("     {}", cause.mechanism),
+                    theme.dim(),
+                )));
+            }
+            for reason in &cause.reasons {
+                let sign = if reason.weight >= 0.0 { "+" } else { "−" };
+                let mut test = reason.test.clone();
+                if let Some(zone) = &reason.zone {
+                    test.push_str(&format!(" [{zone}]"));
+                }
+                let mut detail = String::new();
+                if let Some(value) = &reason.value {
+                    detail.push_str(&format!(" = {value}"));
+                }
+                if let Some(threshold) = &reason.threshold {
+                    detail.push_str(&format!(" (threshold {threshold})"));
+                }
+                lines.push(Line::from(vec![
+                    Span::styled(format!("   {sign}{:.2} ", reason.weight.abs()), theme.key()),
+                    Span::raw(format!("{test}{detail}")),
+                    Span::styled(format!(" — {}", reason.text), theme.dim()),
+                ]));
+            }
+        }
+    }
+    let height = usize::from(area.height.saturating_sub(2));
+    Paragraph::new(lines)
+        .wrap(Wrap { trim: false })
+        .scroll((scroll_for(target, height), 0))
+        .block(Block::bordered().title(" Ranked causes "))
+        .render(area, buf);
+}
+
+/// Plain words for a remedy group ID.
+pub fn group_title(group: &str) -> String {
+    match group {
+        "winder_setting" => "Winder settings".into(),
+        "equipment" => "Equipment".into(),
+        "material_or_core" => "Material and core".into(),
+        "handling_and_storage" => "Handling and storage".into(),
+        "process_upstream" => "Upstream process".into(),
+        other => crate::tui::catalogue::plain_name(other),
+    }
+}
+
+fn render_remedies(app: &App, diagnosis: &Diagnosis, theme: Theme, area: Rect, buf: &mut Buffer) {
+    let focus = app.results.focus == ResultsFocus::Remedies;
+    let mut lines: Vec<Line> = Vec::new();
+    let mut target = 0;
+    let mut last_group: Option<&str> = None;
+    for (i, remedy) in diagnosis.remedies.iter().enumerate() {
+        if last_group != Some(remedy.group.as_str()) {
+            lines.push(Line::from(Span::styled(
+                group_title(&remedy.group),
+                theme.title(),
+            )));
+            last_group = Some(remedy.group.as_str());
+        }
+        let selected = i == app.results.remedy;
+        if selected {
+            target = lines.len();
+        }
+        let style = if selected && focus {
+            theme.selected()
+        } else {
+            theme.plain()
+        };
+        let caution = if remedy.cautions.is_empty() {
+            ""
+        } else {
+            " ⚠"
+        };
+        lines.push(Line::from(vec![
+            Span::styled(format!("{:>2}. {}", i + 1, remedy.text), style),
+            Span::styled(caution.to_string(), theme.warn()),
+        ]));
+        if !remedy.answers.is_empty() {
+            lines.push(Line::from(Span::styled(
+                format!("    for: {}", remedy.answers.join(", ")),
+                theme.dim(),
+            )));
+        }
+        if let Some(what_if) = &remedy.what_if {
+            lines.push(Line::from(Span::styled(
+                format!(
+                    "    {}: {} → {}",
+                    what_if.indicator, what_if.before, what_if.after
+                ),
+                if what_if.worse {
+                    theme.error()
+                } else {
+                    theme.good()
+                },
+            )));
+        }
+    }
+    if diagnosis.remedies.is_empty() {
+        lines.push(Line::from("No remedies listed."));
+    }
+    if !diagnosis.cautions.is_empty() {
+        lines.push(Line::from(Span::styled("⚠ Cautions", theme.warn())));
+        for caution in &diagnosis.cautions {
+            lines.push(Line::from(vec![
+                Span::styled(format!("⚠ {}: ", caution.title), theme.warn()),
+                Span::raw(caution.text.clone()),
+            ]));
+        }
+        lines.push(Line::from(Span::styled(
+            "Follow site procedures, local codes and lockout/tagout before working on the winder.",
+            theme.dim(),
+        )));
+    }
+    let height = usize::from(area.height.saturating_sub(2));
+    Paragraph::new(lines)
+        .wrap(Wrap { trim: false })
+        .scroll((scroll_for(target, height), 0))
+        .block(Block::bordered().title(" Remedies, in the order to try "))
+        .render(area, buf);
+}

@@ -1,0 +1,398 @@
+//! Case files: parse, resolve against presets, validate, save atomically.
+
+use std::path::{Path, PathBuf};
+
+use approx::assert_relative_eq;
+use rolltriage::case::{Case, CaseError};
+use rolltriage::model::{CoreStiffness, RadialStiffness, Taper, WindingMethod};
+
+fn fixture(name: &str) -> PathBuf {
+    Path::new(env!("CARGO_MANIFEST_DIR"))
+        .join("tests/fixtures")
+        .join(name)
+}
+
+fn parse(text: &str) -> Result<Case, CaseError> {
+    Case::from_yaml_str(text, "test.yaml")
+}
+
+fn resolve(text: &str) -> Result<rolltriage::case::ResolvedCase, CaseError> {
+    parse(text)?.resolve_as("test.yaml")
+}
+
+#[test]
+fn complete_case_resolves_without_assumptions() {
+    let resolved = Case::load_resolved(&fixture("complete_newsprint.yaml")).unwrap();
+    assert!(resolved.assumed.is_empty(), "{:#?}", resolved.assumed);
+    assert_relative_eq!(resolved.web.thickness, 76e-6, max_relative = 1e-12);
+    assert_relative_eq!(resolved.web.width, 1.6);
+    assert_eq!(
+        resolved.web.radial_stiffness,
+        RadialStiffness::Pfeiffer { k1: 5e3, k2: 50.0 }
+    );
+    // 1 pli = 175.1268 N/m (NIST SP 811).
+    assert_relative_eq!(
+        resolved.winding.tension.start_tension,
+        1.5 * 175.1268,
+        max_relative = 1e-6
+    );
+    assert_eq!(
+        resolved.winding.tension.taper,
+        Taper::Linear { fraction: 0.25 }
+    );
+    assert_eq!(resolved.winding.method, WindingMethod::CentreSurface);
+    assert_relative_eq!(resolved.winding.speed, 25.0, max_relative = 1e-12);
+    assert_eq!(resolved.winding.temperature, Some(35.0));
+    // Upset diameters become radii.
+    let upset = resolved.winding.tension.upsets[0];
+    assert_relative_eq!(upset.from_radius, 0.3, max_relative = 1e-12);
+    assert_relative_eq!(upset.to_radius, 0.31, max_relative = 1e-12);
+    assert_relative_eq!(upset.tension, 3.0 * 175.1268, max_relative = 1e-6);
+    match resolved.core.stiffness {
+        CoreStiffness::Hollow {
+            inner_radius,
+            outer_radius,
+            modulus,
+            poisson_ratio,
+        } => {
+            assert_relative_eq!(inner_radius, 0.0381, max_relative = 1e-12);
+            assert_relative_eq!(outer_radius, 0.0508, max_relative = 1e-12);
+            assert_relative_eq!(modulus, 2e9);
+            assert_relative_eq!(poisson_ratio, 0.3);
+        }
+        other => panic!("expected a hollow core, got {other:?}"),
+    }
+    // Length of an ideal stack, L = π(R² − rc²)/h.
+    let expected = std::f64::consts::PI * (0.5f64.powi(2) - 0.0508f64.powi(2)) / 76e-6;
+    assert_relative_eq!(resolved.roll.length, expected, max_relative = 1e-12);
+}
+
+#[test]
+fn minimal_case_takes_everything_from_presets_and_says_so() {
+    let resolved = Case::load_resolved(&fixture("minimal.yaml")).unwrap();
+    let fields: Vec<&str> = resolved.assumed.iter().map(|a| a.field.as_str()).collect();
+    for field in [
+        "web.thickness",
+        "web.tangential_modulus",
+        "web.radial_stiffness.k1",
+        "web.radial_stiffness.k2",
+        "web.friction",
+        "web.roughness",
+        "web.strength",
+        "core.inside_diameter",
+        "core.outside_diameter",
+        "core.modulus",
+        "core.crush_pressure",
+        "roll.diameter",
+        "roll.length",
+        "winding.method",
+        "winding.tension",
+        "winding.taper",
+        "winding.nip_load",
+        "winding.speed",
+    ] {
+        assert!(fields.contains(&field), "{field} missing from {fields:?}");
+    }
+    for assumed in &resolved.assumed {
+        assert!(!assumed.source.is_empty(), "{assumed:?}");
+        assert!(!assumed.value.is_empty(), "{assumed:?}");
+    }
+    // The defaults: newsprint on a 3 in paper core.
+    assert_eq!(resolved.web.preset.as_deref(), Some("newsprint"));
+    assert_eq!(resolved.core.preset.as_deref(), Some("paper_3in"));
+    let tension = resolved
+        .assumed
+        .iter()
+        .find(|a| a.field == "winding.tension")
+        .unwrap();
+    assert!(tension.source.contains("preset newsprint"), "{tension:?}");
+}
+
+#[test]
+fn length_gives_diameter_and_steps_become_radii() {
+    let resolved = Case::load_resolved(&fixture("film_us_units.yaml")).unwrap();
+    let h = 0.92 * 25.4e-6;
+    let rc = 3.5 * 0.0254;
+    let length = 30000.0 * 0.3048;
+    // R = √(rc² + L·h/π), the inverse of L = π(R² − rc²)/h.
+    let radius = (rc * rc + length * h / std::f64::consts::PI).sqrt();
+    assert_relative_eq!(
+        resolved.roll.outer_diameter,
+        2.0 * radius,
+        max_relative = 1e-12
+    );
+    assert_relative_eq!(resolved.roll.length, length, max_relative = 1e-12);
+    match &resolved.winding.tension.taper {
+        Taper::Steps { steps } => {
+            assert_eq!(steps.len(), 2);
+            assert_relative_eq!(steps[0].radius, 6.0 * 0.0254, max_relative = 1e-12);
+            assert_relative_eq!(steps[1].tension, 0.5 * 175.1268, max_relative = 1e-6);
+        }
+        other => panic!("expected steps, got {other:?}"),
+    }
+    assert_relative_eq!(
+        resolved.winding.speed,
+        1200.0 * 0.00508,
+        max_relative = 1e-12
+    );
+    assert!(resolved.assumed.iter().any(|a| a.field == "roll.diameter"));
+}
+
+#[test]
+fn plain_numbers_are_si_and_rigid_core_is_rigid() {
+    let resolved = Case::load_resolved(&fixture("rigid_core_si_numbers.yaml")).unwrap();
+    assert_eq!(resolved.core.stiffness, CoreStiffness::Rigid);
+    assert_relative_eq!(resolved.web.thickness, 9e-6);
+    assert_relative_eq!(resolved.winding.tension.start_tension, 60.0);
+    assert_eq!(
+        resolved.winding.tension.taper,
+        Taper::Hyperbolic { fraction: 0.3 }
+    );
+}
+
+#[test]
+fn core_materials_give_their_stiffness() {
+    let steel = resolve("title: t\ncore: {material: steel}\n").unwrap();
+    match steel.core.stiffness {
+        CoreStiffness::Hollow { modulus, .. } => assert_relative_eq!(modulus, 200e9),
+        other => panic!("{other:?}"),
+    }
+    assert_eq!(steel.core.preset.as_deref(), Some("steel_6in"));
+    let aluminium = resolve("title: t\ncore: {material: aluminum}\n").unwrap();
+    assert_eq!(aluminium.core.material, "aluminium");
+    let measured = resolve("title: t\ncore: {stiffness: \"150 MPa\"}\n").unwrap();
+    assert_eq!(
+        measured.core.stiffness,
+        CoreStiffness::Measured { stiffness: 150e6 }
+    );
+    // Only the outside diameter given: the preset's wall gives the bore.
+    let sized = resolve("title: t\ncore: {material: paper, outside_diameter: \"7 in\"}\n").unwrap();
+    assert_eq!(sized.core.preset.as_deref(), Some("paper_6in"));
+    assert_relative_eq!(
+        sized.core.inside_diameter,
+        6.0 * 0.0254,
+        max_relative = 1e-12
+    );
+}
+
+#[test]
+fn hollow_core_stiffness_matches_lame() {
+    // Lamé thick-walled cylinder under external pressure (e.g. Timoshenko & Goodier, Theory of
+    // Elasticity, §28): radial compliance at the outer surface gives
+    // Ec = E / ((b² + a²)/(b² − a²) − ν).
+    let resolved = resolve("title: t\ncore: {preset: paper_3in}\n").unwrap();
+    let (a, b): (f64, f64) = (0.0381, 0.0508);
+    let expected = 2e9 / ((b * b + a * a) / (b * b - a * a) - 0.3);
+    assert_relative_eq!(
+        resolved.core.stiffness.effective_stiffness(),
+        expected,
+        max_relative = 1e-12
+    );
+}
+
+#[test]
+fn radial_laws_parse() {
+    let constant =
+        resolve("title: t\nweb: {radial_stiffness: {law: constant, modulus: \"20 MPa\"}}\n")
+            .unwrap();
+    assert_eq!(
+        constant.web.radial_stiffness,
+        RadialStiffness::Constant { modulus: 20e6 }
+    );
+    let power = resolve(
+        "title: t\nweb: {radial_stiffness: {law: power_law, coefficient: 1000, exponent: 0.8}}\n",
+    )
+    .unwrap();
+    assert_eq!(
+        power.web.radial_stiffness,
+        RadialStiffness::PowerLaw {
+            coefficient: 1000.0,
+            exponent: 0.8
+        }
+    );
+}
+
+#[test]
+fn unknown_key_suggests_the_closest() {
+    let error = parse("title: t\nweb:\n  thikness: \"76 um\"\n").unwrap_err();
+    match &error {
+        CaseError::UnknownKey {
+            key,
+            suggestion,
+            line,
+            section,
+            ..
+        } => {
+            assert_eq!(key, "thikness");
+            assert_eq!(suggestion.as_deref(), Some("thickness"));
+            assert_eq!(*line, 3);
+            assert_eq!(section, "web");
+        }
+        other => panic!("expected UnknownKey, got {other:?}"),
+    }
+    let message = error.to_string();
+    assert!(message.starts_with("test.yaml: line 3"), "{message}");
+    assert!(message.contains("did you mean `thickness`"), "{message}");
+}
+
+#[test]
+fn yaml_errors_carry_line_and_column() {
+    let error = parse("title: t\nweb:\n  thickness: [1, 2\n").unwrap_err();
+    match error {
+        CaseError::Syntax { line, column, .. } => {
+            assert!(line >= 3, "line {line}");
+            assert!(column >= 1);
+        }
+        other => panic!("expected Syntax, got {other:?}"),
+    }
+}
+
+#[test]
+fn unknown_symptom_suggests_the_closest() {
+    let error = resolve("title: t\nsymptoms: [{id: telescopng}]\n").unwrap_err();
+    match &error {
+        CaseError::UnknownName {
+            field, suggestion, ..
+        } => {
+            assert_eq!(field, "symptoms[0].id");
+            assert_eq!(suggestion.as_deref(), Some("telescoping"));
+        }
+        other => panic!("expected UnknownName, got {other:?}"),
+    }
+}
+
+#[test]
+fn save_then_load_round_trips() {
+    let dir = tempfile::tempdir().unwrap();
+    let case = Case::load(&fixture("complete_newsprint.yaml")).unwrap();
+    let path = dir.path().join("saved.yaml");
+    case.save(&path).unwrap();
+    let back = Case::load(&path).unwrap();
+    assert_eq!(back, case);
+    // No temporary file is left behind.
+    let names: Vec<_> = std::fs::read_dir(dir.path())
+        .unwrap()
+        .map(|e| e.unwrap().file_name())
+        .collect();
+    assert_eq!(names.len(), 1, "{names:?}");
+}
+
+#[test]
+fn failed_save_leaves_the_old_file_intact() {
+    let dir = tempfile::tempdir().unwrap();
+    let path = dir.path().join("case.yaml");
+    std::fs::write(&path, "title: the old file\n").unwrap();
+    let case = Case::load(&fixture("complete_newsprint.yaml")).unwrap();
+
+    // 1. The target is a directory: writing the temporary file works, the rename fails.
+    let folder_target = dir.path().join("folder");
+    std::fs::create_dir(&folder_target).unwrap();
+    std::fs::write(folder_target.join("keep.txt"), "kept").unwrap();
+    let error = case.save(&folder_target).unwrap_err();
+    assert!(matches!(error, CaseError::Save(_)), "{error:?}");
+    assert_eq!(
+        std::fs::read_to_string(folder_target.join("keep.txt")).unwrap(),
+        "kept"
+    );
+
+    // 2. The parent "folder" is a file: the temporary file cannot be created.
+    let error = case.save(&path.join("inside.yaml")).unwrap_err();
+    assert!(matches!(error, CaseError::Save(_)), "{error:?}");
+    assert_eq!(
+        std::fs::read_to_string(&path).unwrap(),
+        "title: the old file\n"
+    );
+
+    // 3. A read-only folder (skipped when running as root, which ignores permissions).
+    #[cfg(unix)]
+    {
+        use std::os::unix::fs::PermissionsExt;
+        let locked = dir.path().join("locked");
+        std::fs::create_dir(&locked).unwrap();
+        let target = locked.join("case.yaml");
+        std::fs::write(&target, "title: the old file\n").unwrap();
+        std::fs::set_permissions(&locked, std::fs::Permissions::from_mode(0o555)).unwrap();
+        let probe = locked.join("probe");
+        let root_like = std::fs::write(&probe, "x").is_ok();
+        if !root_like {
+            let error = case.save(&target).unwrap_err();
+            assert!(matches!(error, CaseError::Save(_)), "{error:?}");
+        }
+        std::fs::set_permissions(&locked, std::fs::Permissions::from_mode(0o755)).unwrap();
+        if !root_like {
+            assert_eq!(
+                std::fs::read_to_string(&target).unwrap(),
+                "title: the old file\n"
+            );
+        }
+    }
+
+    // The original file next to the failed saves is untouched and no temp files remain.
+    assert_eq!(
+        std::fs::read_to_string(&path).unwrap(),
+        "title: the old file\n"
+    );
+    let leftovers: Vec<_> = std::fs::read_dir(dir.path())
+        .unwrap()
+        .map(|e| e.unwrap().file_name().to_string_lossy().into_owned())
+        .filter(|n| n.ends_with(".tmp"))
+        .collect();
+    assert!(leftovers.is_empty(), "{leftovers:?}");
+}
+
+#[test]
+fn resolved_case_builds_a_problem() {
+    let resolved = Case::load_resolved(&fixture("complete_newsprint.yaml")).unwrap();
+    let problem = resolved.problem(Default::default());
+    assert_relative_eq!(problem.core_radius, 0.0508, max_relative = 1e-12);
+    assert_relative_eq!(problem.outer_radius, 0.5, max_relative = 1e-12);
+    assert_relative_eq!(problem.thickness, 76e-6, max_relative = 1e-12);
+}
+
+mod properties {
+    use approx::assert_relative_eq;
+    use proptest::prelude::*;
+    use rolltriage::case::Case;
+
+    proptest! {
+        #![proptest_config(ProptestConfig::with_cases(64))]
+
+        /// Diameter → length (L = π(R² − rc²)/h) → diameter returns the diameter.
+        #[test]
+        fn diameter_and_length_are_inverse(
+            thickness_um in 5.0f64..500.0,
+            diameter_mm in 150.0f64..2000.0,
+        ) {
+            let by_diameter = format!(
+                "title: t\nweb: {{thickness: \"{thickness_um} um\"}}\ncore: {{preset: paper_3in}}\nroll: {{diameter: \"{diameter_mm} mm\"}}\n"
+            );
+            let resolved = Case::from_yaml_str(&by_diameter, "p").unwrap().resolve().unwrap();
+            let by_length = format!(
+                "title: t\nweb: {{thickness: \"{thickness_um} um\"}}\ncore: {{preset: paper_3in}}\nroll: {{length: {}}}\n",
+                resolved.roll.length
+            );
+            let back = Case::from_yaml_str(&by_length, "p").unwrap().resolve().unwrap();
+            assert_relative_eq!(back.roll.outer_diameter, diameter_mm / 1000.0, max_relative = 1e-9);
+        }
+
+        /// Save then load gives the same case, whatever the quantities look like.
+        #[test]
+        fn save_load_round_trip(
+            thickness in prop::sample::select(vec!["76 um", "3 mil", "0.08 mm"]),
+            tension in 0.1f64..5.0,
+            taper in 0u32..=100,
+            notes in "[a-zA-Z0-9 .,'\"-]{0,40}",
+        ) {
+            let text = format!(
+                "title: round trip\nweb: {{thickness: \"{thickness}\"}}\nwinding: {{tension: \"{tension} pli\", taper: {{kind: linear, amount: \"{taper} %\"}}}}\nnotes: {notes:?}\n"
+            );
+            let case = Case::from_yaml_str(&text, "p").unwrap();
+            let dir = tempfile::tempdir().unwrap();
+            let path = dir.path().join("c.yaml");
+            case.save(&path).unwrap();
+            let back = Case::load(&path).unwrap();
+            prop_assert_eq!(&back, &case);
+            prop_assert_eq!(back.resolve().unwrap(), case.resolve().unwrap());
+        }
+    }
+}

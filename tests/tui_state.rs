@@ -1,0 +1,435 @@
+//! State-machine tests of the terminal UI: key sequences in, app state out, no terminal.
+
+mod tui_support;
+
+use rolltriage::tui::app::{PendingAction, Popup, ResultsFocus, Screen, Setting, SymptomFocus};
+use rolltriage::tui::event::Key;
+use rolltriage::tui::job::Purpose;
+use tui_support::*;
+
+fn type_text(app: &mut rolltriage::tui::app::App, text: &str) {
+    for c in text.chars() {
+        app.handle_key(Key::Char(c));
+    }
+}
+
+#[test]
+fn opens_on_the_symptom_picker_with_a_clean_case() {
+    let app = app();
+    assert_eq!(app.screen, Screen::Symptoms);
+    assert!(!app.dirty);
+    assert!(app.case.symptoms.is_empty());
+}
+
+#[test]
+fn typing_an_alias_finds_the_symptom_and_enter_picks_it() {
+    let mut app = app();
+    type_text(&mut app, "coning");
+    assert_eq!(app.highlighted_symptom().unwrap().id, "telescoping");
+    app.handle_key(Key::Enter);
+    assert!(app.is_selected("telescoping"));
+    assert!(app.dirty);
+    // Esc clears the search; a second symptom by another alias.
+    app.handle_key(Key::Esc);
+    assert_eq!(app.symptoms.query, "");
+    type_text(&mut app, "stars");
+    assert_eq!(app.highlighted_symptom().unwrap().id, "starring");
+    app.handle_key(Key::Enter);
+    let ids: Vec<&str> = app.case.symptoms.iter().map(|s| s.id.as_str()).collect();
+    assert_eq!(ids, ["telescoping", "starring"]);
+    // Enter again unpicks.
+    app.handle_key(Key::Enter);
+    assert!(!app.is_selected("starring"));
+}
+
+#[test]
+fn q_is_search_text_on_the_symptom_list_not_quit() {
+    let mut app = app();
+    type_text(&mut app, "q");
+    assert!(!app.should_quit);
+    assert_eq!(app.symptoms.query, "q");
+}
+
+#[test]
+fn where_on_the_roll_and_questions_are_stored_in_the_case() {
+    let mut app = app();
+    type_text(&mut app, "telesc");
+    app.handle_key(Key::Right);
+    assert_eq!(app.symptoms.focus, SymptomFocus::Details);
+    // Saying where it shows also picks it.
+    app.handle_key(Key::Right);
+    let observed = &app.case.symptoms[0];
+    assert_eq!(observed.id, "telescoping");
+    assert_eq!(observed.place.as_deref(), Some("core"));
+    app.handle_key(Key::Right);
+    assert_eq!(app.case.symptoms[0].place.as_deref(), Some("body"));
+    app.handle_key(Key::Left);
+    app.handle_key(Key::Left);
+    assert_eq!(app.case.symptoms[0].place.as_deref(), Some("whole_roll"));
+    // The yes/no question.
+    app.handle_key(Key::Down);
+    app.handle_key(Key::Char('y'));
+    assert_eq!(app.case.answers["telescoping_after_handling"], "yes");
+    app.handle_key(Key::Enter);
+    assert_eq!(app.case.answers["telescoping_after_handling"], "no");
+    app.handle_key(Key::Char('u'));
+    assert_eq!(app.case.answers["telescoping_after_handling"], "unknown");
+    app.handle_key(Key::Esc);
+    assert_eq!(app.symptoms.focus, SymptomFocus::List);
+}
+
+#[test]
+fn choice_questions_store_the_choice_id() {
+    let mut app = app();
+    type_text(&mut app, "spoking");
+    app.handle_key(Key::Right);
+    app.handle_key(Key::Down);
+    app.handle_key(Key::Right);
+    assert_eq!(app.case.answers["starring_radius"], "near_core");
+    app.handle_key(Key::Right);
+    assert_eq!(app.case.answers["starring_radius"], "mid_roll");
+    // y is not one of this question's answers: ignored.
+    app.handle_key(Key::Char('y'));
+    assert_eq!(app.case.answers["starring_radius"], "mid_roll");
+}
+
+fn go_to_field(app: &mut rolltriage::tui::app::App, path: &str) {
+    let index = rolltriage::tui::fields::FIELDS
+        .iter()
+        .position(|f| f.path == path)
+        .unwrap();
+    app.handle_key(Key::Home);
+    for _ in 0..index {
+        app.handle_key(Key::Down);
+    }
+}
+
+#[test]
+fn unit_aware_fields_accept_trade_units_and_reject_wrong_ones_in_place() {
+    let mut app = app();
+    app.handle_key(Key::Tab);
+    assert_eq!(app.screen, Screen::Inputs);
+    go_to_field(&mut app, "winding.tension");
+    type_text(&mut app, "3 pli");
+    app.handle_key(Key::Enter);
+    assert_eq!(app.inputs.error, None);
+    assert_eq!(
+        rolltriage::tui::fields::get(&app.case, "winding.tension").as_deref(),
+        Some("3 pli")
+    );
+    // A length is not a tension: rejected, the text stays for correction, the case unchanged.
+    go_to_field(&mut app, "winding.tension");
+    type_text(&mut app, "48 mil");
+    app.handle_key(Key::Enter);
+    let error = app.inputs.error.clone().expect("rejected");
+    let expected = rolltriage::units::parse_quantity(
+        "winding.tension",
+        "48 mil",
+        rolltriage::units::QuantityKind::ForcePerWidth,
+    )
+    .unwrap_err()
+    .to_string();
+    assert_eq!(error, expected);
+    assert_eq!(app.inputs.editing.as_deref(), Some("48 mil"));
+    assert_eq!(
+        rolltriage::tui::fields::get(&app.case, "winding.tension").as_deref(),
+        Some("3 pli")
+    );
+    // Correct it in place.
+    for _ in 0.."48 mil".len() {
+        app.handle_key(Key::Backspace);
+    }
+    type_text(&mut app, "525 N/m");
+    app.handle_key(Key::Enter);
+    assert_eq!(app.inputs.error, None);
+    assert_eq!(
+        rolltriage::tui::fields::get(&app.case, "winding.tension").as_deref(),
+        Some("525 N/m")
+    );
+    // Delete clears the field back to "assumed".
+    go_to_field(&mut app, "winding.tension");
+    app.handle_key(Key::Delete);
+    assert_eq!(
+        rolltriage::tui::fields::get(&app.case, "winding.tension"),
+        None
+    );
+}
+
+#[test]
+fn presets_and_choices_cycle_with_arrows() {
+    let mut app = app();
+    app.handle_key(Key::F(3));
+    go_to_field(&mut app, "web.preset");
+    app.handle_key(Key::Right);
+    assert_eq!(app.case.web.preset.as_deref(), Some("newsprint"));
+    app.handle_key(Key::Right);
+    assert_eq!(app.case.web.preset.as_deref(), Some("pet_film"));
+    go_to_field(&mut app, "winding.taper.kind");
+    app.handle_key(Key::Left);
+    assert_eq!(app.case.winding.taper.as_ref().unwrap().kind, "hyperbolic");
+}
+
+#[test]
+fn leaving_for_results_queues_one_solve_and_shows_the_outcome() {
+    let mut app = app();
+    app.set_case(sample_case(), None);
+    assert_eq!(app.screen, Screen::Results);
+    let requests = app.take_requests();
+    assert_eq!(requests.len(), 1);
+    assert_eq!(requests[0].purpose, Purpose::Baseline);
+    assert!(app.is_solving());
+    // Switching screens while the solve runs queues nothing more.
+    app.handle_key(Key::Tab);
+    app.handle_key(Key::BackTab);
+    assert!(app.take_requests().is_empty());
+    app.on_job(rolltriage::tui::job::JobMessage::Progress {
+        id: requests[0].id,
+        fraction: 0.4,
+    });
+    assert_eq!(app.running_baseline.unwrap().fraction, 0.4);
+    app.on_job(rolltriage::tui::job::JobMessage::Finished {
+        id: requests[0].id,
+        purpose: Purpose::Baseline,
+        generation: requests[0].generation,
+        result: Ok(Box::new(outcome(1.0))),
+    });
+    assert!(!app.is_solving());
+    assert!(app.current_outcome().is_some());
+}
+
+#[test]
+fn stale_results_are_marked_and_resolved_again_on_return() {
+    let mut app = app();
+    app.set_case(sample_case(), None);
+    finish_requests(&mut app, &outcome(1.0), &outcome(1.0));
+    app.handle_key(Key::F(2));
+    app.handle_key(Key::Enter); // unpick the first symptom: the case changed
+    assert!(app.baseline_is_stale());
+    app.handle_key(Key::F(4));
+    assert_eq!(app.take_requests().len(), 1);
+}
+
+#[test]
+fn causes_expand_and_remedies_lead_to_what_if() {
+    let mut app = app();
+    app.set_case(sample_case(), None);
+    finish_requests(&mut app, &outcome(1.0), &outcome(1.0));
+    app.handle_key(Key::Enter);
+    assert!(app.results.expanded.contains("tension_too_low"));
+    app.handle_key(Key::Enter);
+    assert!(app.results.expanded.is_empty());
+    app.handle_key(Key::Down);
+    app.handle_key(Key::Enter);
+    assert!(app.results.expanded.contains("taper_excessive"));
+    // Remedies: "raise_tension" is a setting the what-if can try.
+    app.handle_key(Key::Right);
+    assert_eq!(app.results.focus, ResultsFocus::Remedies);
+    app.resolved = Ok(resolved("Sample"));
+    app.handle_key(Key::Enter);
+    assert_eq!(app.screen, Screen::WhatIf);
+    let change = app.what_if.change.unwrap();
+    assert_eq!(change.setting, Setting::Tension);
+    assert_eq!(change.steps, 1);
+    // "store_rolls_on_end" is not a winder setting.
+    assert_eq!(
+        rolltriage::tui::app::remedy_change("store_rolls_on_end"),
+        None
+    );
+}
+
+#[test]
+fn what_if_changes_one_setting_and_can_be_kept() {
+    let mut app = app();
+    app.set_case(sample_case(), None);
+    finish_requests(&mut app, &outcome(1.0), &outcome(1.0));
+    app.resolved = Ok(resolved("Sample"));
+    app.handle_key(Key::F(5));
+    assert_eq!(app.screen, Screen::WhatIf);
+    // Web tension up two steps: +20 % of 525 N/m.
+    app.handle_key(Key::Right);
+    app.handle_key(Key::Right);
+    let requests = app.take_requests();
+    let what_if: Vec<_> = requests
+        .iter()
+        .filter(|r| r.purpose == Purpose::WhatIf)
+        .collect();
+    assert!(!what_if.is_empty());
+    match what_if.last().unwrap().case.winding.tension {
+        Some(rolltriage::case::QuantityText::Number(v)) => assert!((v - 630.0).abs() < 1e-9),
+        ref other => panic!("unexpected tension {other:?}"),
+    }
+    assert!(
+        app.what_if
+            .description
+            .as_deref()
+            .unwrap()
+            .starts_with("Web tension")
+    );
+    // A different setting replaces the change: one setting at a time.
+    app.handle_key(Key::Down);
+    app.handle_key(Key::Right);
+    assert_eq!(app.what_if.change.unwrap().setting, Setting::Taper);
+    let taper = app
+        .take_requests()
+        .pop()
+        .unwrap()
+        .case
+        .winding
+        .taper
+        .unwrap();
+    assert_eq!(taper.kind, "hyperbolic");
+    // Keep it: the case changes and is unsaved.
+    app.dirty = false;
+    app.handle_key(Key::Char('a'));
+    assert!(app.dirty);
+    assert_eq!(app.case.winding.taper.as_ref().unwrap().kind, "hyperbolic");
+    assert!(app.what_if.change.is_none());
+}
+
+#[test]
+fn what_if_messages_of_an_older_request_are_ignored() {
+    let mut app = app();
+    app.set_case(sample_case(), None);
+    finish_requests(&mut app, &outcome(1.0), &outcome(1.0));
+    app.resolved = Ok(resolved("Sample"));
+    app.handle_key(Key::F(5));
+    app.handle_key(Key::Right);
+    let old = app.take_requests().pop().unwrap();
+    app.handle_key(Key::Right);
+    let new = app.take_requests().pop().unwrap();
+    app.on_job(rolltriage::tui::job::JobMessage::Finished {
+        id: old.id,
+        purpose: Purpose::WhatIf,
+        generation: old.generation,
+        result: Ok(Box::new(outcome(0.5))),
+    });
+    assert!(app.what_if.outcome.is_none());
+    app.on_job(rolltriage::tui::job::JobMessage::Finished {
+        id: new.id,
+        purpose: Purpose::WhatIf,
+        generation: new.generation,
+        result: Ok(Box::new(outcome(0.8))),
+    });
+    assert!(app.what_if.outcome.is_some());
+}
+
+#[test]
+fn quitting_with_unsaved_changes_asks_first() {
+    let mut app = app();
+    type_text(&mut app, "telesc");
+    app.handle_key(Key::Enter);
+    app.handle_key(Key::Ctrl('q'));
+    assert_eq!(app.popup, Some(Popup::Confirm(PendingAction::Quit)));
+    assert!(!app.should_quit);
+    app.handle_key(Key::Esc);
+    assert_eq!(app.popup, None);
+    assert!(!app.should_quit);
+    app.handle_key(Key::Ctrl('q'));
+    app.handle_key(Key::Char('d'));
+    assert!(app.should_quit);
+}
+
+#[test]
+fn quitting_a_clean_case_is_immediate_and_q_works_off_text_screens() {
+    let mut app = app();
+    app.handle_key(Key::F(4));
+    app.take_requests();
+    app.handle_key(Key::Char('q'));
+    assert!(app.should_quit);
+}
+
+#[test]
+fn save_writes_the_case_atomically_and_clears_the_modified_mark() {
+    let folder = tempfile::tempdir().unwrap();
+    let path = folder.path().join("reel7.yaml");
+    let mut app = app();
+    type_text(&mut app, "telesc");
+    app.handle_key(Key::Enter);
+    app.handle_key(Key::Ctrl('s'));
+    // No file yet: asks for a name, suggested from the title.
+    match &app.popup {
+        Some(Popup::SaveAs { input, .. }) => assert_eq!(input, "new_case.yaml"),
+        other => panic!("expected the save prompt, got {other:?}"),
+    }
+    for _ in 0.."new_case.yaml".len() {
+        app.handle_key(Key::Backspace);
+    }
+    type_text(&mut app, path.to_str().unwrap());
+    app.handle_key(Key::Enter);
+    assert_eq!(app.popup, None, "status: {:?}", app.status);
+    assert!(!app.dirty);
+    let text = std::fs::read_to_string(&path).unwrap();
+    assert!(text.contains("telescoping"), "{text}");
+    // No temporary file left behind.
+    let leftovers: Vec<_> = std::fs::read_dir(folder.path())
+        .unwrap()
+        .flatten()
+        .filter(|e| e.file_name().to_string_lossy().ends_with(".tmp"))
+        .collect();
+    assert!(leftovers.is_empty());
+    // Save and quit from the confirmation.
+    type_text(&mut app, "x");
+    app.handle_key(Key::Ctrl('q'));
+    app.handle_key(Key::Char('s'));
+    assert!(app.should_quit);
+}
+
+#[test]
+fn help_popup_opens_and_closes() {
+    let mut app = app();
+    app.handle_key(Key::F(1));
+    assert_eq!(app.popup, Some(Popup::Help));
+    // Keys do not leak through the popup.
+    app.handle_key(Key::Char('x'));
+    assert_eq!(app.symptoms.query, "");
+    app.handle_key(Key::Esc);
+    assert_eq!(app.popup, None);
+}
+
+#[test]
+fn help_line_always_names_help_save_and_quit() {
+    let mut app = app();
+    for screen in [Key::F(2), Key::F(3), Key::F(4), Key::F(5)] {
+        app.handle_key(screen);
+        let keys: Vec<&str> = app.key_hints().iter().map(|(k, _)| *k).collect();
+        for needed in ["F1", "^S", "^Q", "Tab"] {
+            assert!(keys.contains(&needed), "{:?} lacks {needed}", app.screen);
+        }
+    }
+}
+
+#[test]
+fn mouse_click_on_a_tab_switches_screen() {
+    let mut app = app();
+    let labels = rolltriage::tui::app::tab_labels();
+    let column = (labels[0].chars().count() + 1 + labels[1].chars().count() + 1 + 2) as u16;
+    app.handle_event(rolltriage::tui::event::Event::Mouse(
+        rolltriage::tui::event::Mouse::Click { column, row: 0 },
+    ));
+    assert_eq!(app.screen, Screen::Results);
+}
+
+#[test]
+fn help_line_fits_80_columns_on_every_screen() {
+    let mut app = app();
+    let check = |app: &rolltriage::tui::app::App| {
+        let width: usize = app
+            .key_hints()
+            .iter()
+            .map(|(k, w)| k.chars().count() + 1 + w.chars().count() + 2)
+            .sum::<usize>()
+            - 2;
+        assert!(width <= 80, "{:?}: help line is {width} wide", app.screen);
+    };
+    check(&app);
+    app.handle_key(Key::Right);
+    check(&app);
+    app.handle_key(Key::Esc);
+    for screen in [Key::F(3), Key::F(4), Key::F(5)] {
+        app.handle_key(screen);
+        check(&app);
+    }
+    app.handle_key(Key::F(3));
+    app.handle_key(Key::Char('3'));
+    check(&app);
+}
