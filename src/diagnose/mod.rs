@@ -217,7 +217,11 @@ pub fn diagnose(
         causes.truncate(options.top);
     }
     let mut remedies = remedies::merge(rules, &symptoms, &causes);
-    if options.what_if && remedies.iter().any(|r| remedies::changes_setting(rules, &r.id)) {
+    if options.what_if
+        && remedies
+            .iter()
+            .any(|r| remedies::changes_setting(rules, &r.id))
+    {
         // Before and after are compared at the same (what-if) resolution so the direction of a
         // change is never an artefact of different discretisations.
         let what_if_options = DiagnoseOptions {

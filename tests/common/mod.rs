@@ -167,9 +167,12 @@ pub fn solve(problem: &WindingProblem) -> Result<Profile, ModelError> {
     // automatic halving keeps them quick.
     let mut problem = problem.clone();
     if problem.options.resolution == rolltriage::model::Resolution::Auto {
-        let layers = ((problem.outer_radius - problem.core_radius) / problem.thickness).round() as usize;
+        let layers =
+            ((problem.outer_radius - problem.core_radius) / problem.thickness).round() as usize;
         if layers > 800 {
-            problem.options.resolution = rolltriage::model::Resolution::Grouped { layers: layers.div_ceil(200) };
+            problem.options.resolution = rolltriage::model::Resolution::Grouped {
+                layers: layers.div_ceil(200),
+            };
         }
     }
     let problem = &problem;
