@@ -343,6 +343,14 @@ fn render_remedies(app: &App, diagnosis: &Diagnosis, theme: Theme, area: Rect, b
         lines.push(Line::from(vec![
             Span::styled(format!("{:>2}. {}", i + 1, remedy.text), style),
             Span::styled(caution.to_string(), theme.warn()),
+            Span::styled(
+                if remedy.cost.is_empty() {
+                    String::new()
+                } else {
+                    format!(" [cost {}]", remedy.cost)
+                },
+                theme.dim(),
+            ),
         ]));
         if !remedy.answers.is_empty() {
             lines.push(Line::from(Span::styled(
