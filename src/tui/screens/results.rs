@@ -227,11 +227,6 @@ fn belief_bar(belief: f64) -> String {
     format!("{}{}", "■".repeat(filled), "□".repeat(5 - filled))
 }
 
-/// Keep line `target` visible in `height` rows.
-fn scroll_for(target: usize, height: usize) -> u16 {
-    target.saturating_sub(height.saturating_sub(2)) as u16
-}
-
 fn render_causes(app: &App, diagnosis: &Diagnosis, theme: Theme, area: Rect, buf: &mut Buffer) {
     let focus = app.results.focus == ResultsFocus::Causes;
     let mut lines: Vec<Line> = Vec::new();
@@ -293,10 +288,15 @@ fn render_causes(app: &App, diagnosis: &Diagnosis, theme: Theme, area: Rect, buf
             }
         }
     }
-    let height = usize::from(area.height.saturating_sub(2));
+    let scroll = super::scroll_to_keep(
+        &lines,
+        target,
+        area.width.saturating_sub(2),
+        area.height.saturating_sub(2),
+    );
     Paragraph::new(lines)
         .wrap(Wrap { trim: false })
-        .scroll((scroll_for(target, height), 0))
+        .scroll((scroll, 0))
         .block(Block::bordered().title(" Ranked causes "))
         .render(area, buf);
 }
@@ -388,10 +388,15 @@ fn render_remedies(app: &App, diagnosis: &Diagnosis, theme: Theme, area: Rect, b
             theme.dim(),
         )));
     }
-    let height = usize::from(area.height.saturating_sub(2));
+    let scroll = super::scroll_to_keep(
+        &lines,
+        target,
+        area.width.saturating_sub(2),
+        area.height.saturating_sub(2),
+    );
     Paragraph::new(lines)
         .wrap(Wrap { trim: false })
-        .scroll((scroll_for(target, height), 0))
+        .scroll((scroll, 0))
         .block(Block::bordered().title(" Remedies, in the order to try "))
         .render(area, buf);
 }
