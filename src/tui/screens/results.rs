@@ -231,7 +231,11 @@ fn render_causes(app: &App, diagnosis: &Diagnosis, theme: Theme, area: Rect, buf
     let focus = app.results.focus == ResultsFocus::Causes;
     let mut lines: Vec<Line> = Vec::new();
     let mut target = 0;
-    if diagnosis.causes.is_empty() {
+    if app.case.symptoms.is_empty() {
+        lines.push(Line::from(
+            "No symptoms picked: F2, then type what you see on the roll.",
+        ));
+    } else if diagnosis.causes.is_empty() {
         lines.push(Line::from(
             "No cause stands out for these symptoms and inputs.",
         ));

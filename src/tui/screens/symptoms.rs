@@ -85,7 +85,7 @@ pub fn render(app: &App, theme: Theme, area: Rect, buf: &mut Buffer) {
         .render(list, buf);
 
     let picked_text = if app.case.symptoms.is_empty() {
-        "none yet — Enter picks the highlighted symptom".to_string()
+        "none yet — Enter picks the highlighted symptom; ^O opens a saved or demo case".to_string()
     } else {
         app.case
             .symptoms
