@@ -64,6 +64,7 @@ fn synthetic_profile(core_pressure: f64, surface_stress: f64) -> Profile {
         physical_layers: 5910,
         elements: 100,
         layers_per_element: 59,
+        ..ProfileSummary::default()
     };
     profile
 }
@@ -184,6 +185,7 @@ fn fixture(with_remedy: bool) -> ReportInput {
                 id: "raise_tension".into(),
                 text: "Raise web tension to 12–15 % of the web's strength.".into(),
                 group: "winder_setting".into(),
+                cost: "low".into(),
                 answers: vec!["tension_too_low".into()],
                 cautions: vec!["web_break".into()],
                 what_if: Some(WhatIf {
@@ -198,6 +200,7 @@ fn fixture(with_remedy: bool) -> ReportInput {
                 id: "raise_nip_load".into(),
                 text: "Raise rider-roll load in steps of 10 %.".into(),
                 group: "winder_setting".into(),
+                cost: "low".into(),
                 answers: vec!["tension_too_low".into(), "air_entrainment".into()],
                 cautions: vec!["in_running_nip".into()],
                 what_if: None,
@@ -380,7 +383,11 @@ fn svg_plots_hold_before_after_series_zones_and_labels() {
     }
     assert!(pressure.contains(plots::LABEL_PRESSURE));
     assert!(pressure.contains(plots::LABEL_AFTER_SUFFIX));
-    assert!(svg_texts(&pressure).iter().any(|t| t == "Pressure (kPa)"));
+    assert!(
+        svg_texts(&pressure)
+            .iter()
+            .any(|t| t == "Interlayer pressure (kPa)")
+    );
     assert!(
         svg_texts(&tangential)
             .iter()
