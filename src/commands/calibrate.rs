@@ -119,9 +119,7 @@ fn run_stack(args: &StackArgs) -> anyhow::Result<()> {
         let mut case = rolltriage::case::Case::load(path)
             .with_context(|| format!("cannot write the fit into {}", path.display()))?;
         calibrate::apply_to_case(&mut case, &fit);
-        let yaml_text = yaml::to_string(&case)
-            .with_context(|| format!("cannot serialise {}", path.display()))?;
-        rolltriage::fsutil::save_atomic(path, yaml_text.as_bytes())?;
+        case.save(path)?;
         eprintln!(
             "wrote web.radial_stiffness (pfeiffer, K1 {:.4} kPa, K2 {:.4}) into {} — comments in that file are not kept",
             fit.k1 / 1e3,
