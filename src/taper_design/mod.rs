@@ -1227,7 +1227,8 @@ fn explain(
             }
         }
         if binding.contains(&Limit::WoundInTension)
-            && let (Some(nip), Some(wit)) = (case.winding.nip_load, after.check(Limit::WoundInTension))
+            && let (Some(nip), Some(wit)) =
+                (case.winding.nip_load, after.check(Limit::WoundInTension))
         {
             let nip_part = nip * case.web.friction;
             if nip_part > 0.25 * wit.value {
