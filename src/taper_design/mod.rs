@@ -36,7 +36,7 @@ pub const DEFAULT_CORE_SHARE: f64 = 0.8;
 pub const DEFAULT_MIN_OUTER_PRESSURE: f64 = 14e3;
 /// Default share of the peak pressure below which a compressive band counts as starring risk:
 /// the model's own low-pressure share (see `model::profile`).
-pub const DEFAULT_STARRING_PRESSURE_SHARE: f64 = 0.25;
+pub const DEFAULT_STARRING_PRESSURE_SHARE: f64 = crate::model::profile::LOW_PRESSURE_SHARE;
 /// Default largest wound-in tension as a share of the web's tensile strength. Common practice
 /// (from memory): winding tension is usually set at 10–25 % of the web's tensile strength.
 pub const DEFAULT_TENSION_SHARE: f64 = 0.25;
@@ -1088,7 +1088,7 @@ fn relax_advice(
     keep: Limit,
     best: f64,
 ) -> String {
-    let keeping = format!("while {} is met", keep.title());
+    let keeping = format!("While {} is met", keep.title());
     match relax {
         Limit::CorePressure => {
             let share = best / case.core.crush_pressure;
@@ -1227,7 +1227,8 @@ fn explain(
             }
         }
         if binding.contains(&Limit::WoundInTension)
-            && let (Some(nip), Some(wit)) = (case.winding.nip_load, after.check(Limit::WoundInTension))
+            && let (Some(nip), Some(wit)) =
+                (case.winding.nip_load, after.check(Limit::WoundInTension))
         {
             let nip_part = nip * case.web.friction;
             if nip_part > 0.25 * wit.value {
