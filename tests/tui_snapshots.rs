@@ -85,6 +85,8 @@ fn inputs_screen_with_a_rejected_entry() {
     }
     type_text(&mut app, "48 mil");
     app.handle_key(Key::Enter);
+    // A fixed resolved case so the snapshot does not follow edits to the preset table.
+    app.resolved = Ok(resolved_with_assumed());
     snapshot_all_sizes("inputs_rejected", &app);
 }
 
@@ -167,4 +169,18 @@ fn plots_label_every_zone_and_the_reference_lines_at_120_columns() {
     for label in ["inner", "middle", "outer", "crush rating"] {
         assert!(screen.contains(label), "missing {label}:\n{screen}");
     }
+}
+
+#[test]
+fn training_picker() {
+    let mut app = app();
+    app.walkthroughs = rolltriage::training::library::embedded().unwrap();
+    app.handle_key(Key::Ctrl('t'));
+    // Draw only the first size: the list itself follows the shipped walk-throughs.
+    let screen = draw(&app, 80, 24);
+    assert!(screen.contains("Training walk-throughs"), "{screen}");
+    assert!(
+        screen.contains(&app.walkthroughs[0].walkthrough.title),
+        "{screen}"
+    );
 }

@@ -409,12 +409,12 @@ impl Indicators {
     /// Compute every indicator of `profile` for `case`.
     pub fn compute(case: &ResolvedCase, profile: &Profile) -> Indicators {
         let mut out = Indicators::default();
-        out.from_case(case);
-        out.from_profile(case, profile);
+        out.add_case_inputs(case);
+        out.add_profile(case, profile);
         out
     }
 
-    fn from_case(&mut self, case: &ResolvedCase) {
+    fn add_case_inputs(&mut self, case: &ResolvedCase) {
         let tension = case.winding.tension.start_tension;
         let thickness = case.web.thickness;
         self.set("speed", None, case.winding.speed);
@@ -458,7 +458,7 @@ impl Indicators {
         }
     }
 
-    fn from_profile(&mut self, case: &ResolvedCase, profile: &Profile) {
+    fn add_profile(&mut self, case: &ResolvedCase, profile: &Profile) {
         let n = profile
             .radius
             .len()
@@ -697,8 +697,7 @@ fn tension_at(case: &ResolvedCase, r: f64) -> f64 {
         Taper::Hyperbolic { fraction } => t0 * (1.0 - fraction * (1.0 - rc / r.max(rc))),
         Taper::Steps { steps } => steps
             .iter()
-            .filter(|s| s.radius <= r)
-            .next_back()
+            .rfind(|s| s.radius <= r)
             .map(|s| s.tension)
             .unwrap_or(t0),
     }

@@ -115,6 +115,17 @@ pub struct DiagnoseOptions {
 pub type SolveFn =
     fn(&crate::model::WindingProblem) -> Result<crate::model::Profile, crate::model::ModelError>;
 
+impl PartialEq for DiagnoseOptions {
+    // Function pointers have no meaningful identity; two options are equal when they agree on
+    // everything else and on whether a stand-in solver is set.
+    fn eq(&self, other: &Self) -> bool {
+        self.top == other.top
+            && self.what_if == other.what_if
+            && self.solver == other.solver
+            && self.solve_with.is_some() == other.solve_with.is_some()
+    }
+}
+
 impl DiagnoseOptions {
     /// Solve `problem` with the configured solver.
     pub fn solve(

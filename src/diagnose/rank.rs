@@ -81,7 +81,7 @@ pub fn evaluate(
             ))
         }
         Test::Material(values) => Some((
-            values.iter().any(|v| *v == case.web.material),
+            values.contains(&case.web.material),
             Some(case.web.material.clone()),
             Some(format!("= {}", values.join(" or "))),
         )),
@@ -104,7 +104,7 @@ pub fn evaluate(
                 .find(|s| s.id == symptom)
                 .and_then(|s| s.place.clone())?;
             Some((
-                values.iter().any(|v| *v == place),
+                values.contains(&place),
                 Some(place),
                 Some(format!("= {}", values.join(" or "))),
             ))

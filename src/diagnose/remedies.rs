@@ -170,16 +170,16 @@ fn set_taper(schedule: &mut crate::model::TensionSchedule, to: Option<f64>, by: 
     };
 }
 
-/// The indicator test that drives `cause` most strongly under the observed symptoms: the
-/// holding indicator evidence with the largest positive weight, else the first positive one.
-fn driving_test<'a>(
+/// The indicator tests that raise belief in `cause` under the observed symptoms, each with
+/// whether it holds now and its weight.
+fn driving_tests<'a>(
     rules: &'a RuleBase,
     symptoms: &[String],
     cause: &str,
     case: &ResolvedCase,
     indicators: &Indicators,
-) -> Option<&'a Test> {
-    let mut best: Option<(&Test, f64, bool)> = None;
+) -> Vec<(&'a Test, bool, f64)> {
+    let mut out = Vec::new();
     for symptom in symptoms.iter().filter_map(|s| rules.symptom(s)) {
         for rule in symptom.rules.iter().filter(|r| r.cause == cause) {
             for ev in &rule.evidence {
@@ -188,17 +188,48 @@ fn driving_test<'a>(
                 }
                 let holds =
                     evaluate(&ev.test, &symptom.id, case, indicators).is_some_and(|(h, _, _)| h);
-                let better = match best {
-                    None => true,
-                    Some((_, w, h)) => (holds && !h) || (holds == h && ev.weight > w),
-                };
-                if better {
-                    best = Some((&ev.test, ev.weight, holds));
-                }
+                out.push((&ev.test, holds, ev.weight));
             }
         }
     }
-    best.map(|(t, _, _)| t)
+    out
+}
+
+/// Pick the indicator to show before/after: among the tests that drive the cause, the one the
+/// change moves most (relative), preferring tests that hold now; ties go to the larger weight.
+fn pick_driver<'a>(
+    candidates: &[(&'a Test, bool, f64)],
+    before: &Indicators,
+    after: &Indicators,
+) -> Option<&'a Test> {
+    let change = |t: &Test| -> f64 {
+        let Test::Indicator { id, zone, .. } = t else {
+            return 0.0;
+        };
+        match (before.get(id, *zone), after.get(id, *zone)) {
+            (Some(b), Some(a)) => (a - b).abs() / b.abs().max(a.abs()).max(1e-30),
+            _ => 0.0,
+        }
+    };
+    let best = |only_holding: bool| {
+        candidates
+            .iter()
+            .filter(|(_, holds, _)| !only_holding || *holds)
+            .filter(|(t, _, _)| change(t) > 1e-3)
+            .max_by(|a, b| {
+                change(a.0)
+                    .total_cmp(&change(b.0))
+                    .then(a.2.total_cmp(&b.2))
+            })
+            .map(|(t, _, _)| *t)
+    };
+    best(true).or_else(|| best(false)).or_else(|| {
+        // Nothing moves: show the strongest holding test (or the strongest at all).
+        candidates
+            .iter()
+            .max_by(|a, b| a.1.cmp(&b.1).then(a.2.total_cmp(&b.2)))
+            .map(|(t, _, _)| *t)
+    })
 }
 
 /// Re-solve the case with the remedy's setting changes and report the driving indicator
@@ -267,8 +298,9 @@ pub fn what_if(
             ));
         }
     }
+    let candidates = driving_tests(rules, symptoms, primary, case, indicators);
     let (indicator, before_text, after_text) =
-        match driving_test(rules, symptoms, primary, case, indicators) {
+        match pick_driver(&candidates, indicators, &after_indicators) {
             Some(Test::Indicator {
                 id,
                 zone,
@@ -287,6 +319,13 @@ pub fn what_if(
                     if moved_wrong {
                         worse = true;
                         notes.push(format!("{id} moves the wrong way"));
+                    }
+                    let still = match comparison {
+                        Comparison::Above => a > *threshold,
+                        Comparison::Below => a < *threshold,
+                    };
+                    if still && !moved_wrong {
+                        notes.push("a first step: still past the rule threshold".into());
                     }
                     let sign = match comparison {
                         Comparison::Above => "above",

@@ -749,7 +749,7 @@ fn line_of(text: &str, needle: &str) -> usize {
 /// Like [`line_of`] but only lines after `after` (1-based) count.
 fn line_of_after(text: &str, needle: &str, after: usize) -> usize {
     for (i, line) in text.lines().enumerate() {
-        if i + 1 <= after {
+        if i < after {
             continue;
         }
         let mut rest = line;

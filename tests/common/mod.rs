@@ -187,8 +187,7 @@ fn scheduled_tension(s: &TensionSchedule, rc: f64, ro: f64, r: f64) -> f64 {
         Taper::Hyperbolic { fraction } => t0 * (1.0 - fraction * (1.0 - rc / r)),
         Taper::Steps { steps } => steps
             .iter()
-            .filter(|st| st.radius <= r)
-            .next_back()
+            .rfind(|st| st.radius <= r)
             .map(|st| st.tension)
             .unwrap_or(t0),
     }
@@ -372,4 +371,56 @@ pub fn fallback_solve(problem: &WindingProblem, elements: usize) -> Profile {
         air_film: None,
         warnings: vec![],
     }
+}
+
+/// Always the stand-alone solve (snapshots stay stable whatever the crate's solver does).
+pub fn fallback_only(problem: &WindingProblem) -> Result<Profile, ModelError> {
+    Ok(fallback_solve(problem, 300))
+}
+
+/// The Harbour Point W3 telescoping demo (cases/harbour_newsprint_telescoping.yaml) built in
+/// Rust: 76 µm newsprint at 0.5 pli, no taper, rider nearly lifted, 900 m/min.
+pub fn harbour_telescoping_demo() -> ResolvedCase {
+    let mut case = newsprint("Harbour Point PM3 newsprint — telescoped reels for Quaymoor Press");
+    case.web.thickness = 76e-6;
+    case.web.width = 1.68;
+    case.web.tangential_modulus = 4.8e9;
+    case.web.radial_stiffness = RadialStiffness::Pfeiffer {
+        k1: 5.0e3,
+        k2: 50.0,
+    };
+    case.web.friction = 0.45;
+    case.web.strength = 2400.0;
+    case.core = paper_core(0.0762, 0.1016, 1.2e9, 4.0e6);
+    case.winding.method = WindingMethod::CentreSurface;
+    case.winding.tension.start_tension = 87.6;
+    case.winding.tension.taper = Taper::None;
+    case.winding.nip_load = Some(150.0);
+    case.winding.speed = 15.0;
+    at(with_symptoms(case, &["telescoping"]), "telescoping", "body")
+}
+
+/// The coated-paper starring + crushed core demo (cases/harbour_coated_starring_no_taper.yaml)
+/// built in Rust: 55 µm coated paper, 3.5 pli constant tension, 1400 mm roll.
+pub fn harbour_coated_no_taper_demo() -> ResolvedCase {
+    let mut case = newsprint("Harbour Point coated paper — starred rolls with crushed cores");
+    case.web.thickness = 55e-6;
+    case.web.width = 1.45;
+    case.web.tangential_modulus = 6.0e9;
+    case.web.radial_stiffness = RadialStiffness::Pfeiffer {
+        k1: 30.0e3,
+        k2: 80.0,
+    };
+    case.web.friction = 0.35;
+    case.web.roughness = 1.0e-6;
+    case.web.strength = 3000.0;
+    case.core = paper_core(0.0762, 0.1016, 1.2e9, 4.0e6);
+    case.roll.outer_diameter = 1.4;
+    case.winding.method = WindingMethod::CentreSurface;
+    case.winding.tension.start_tension = 613.0;
+    case.winding.tension.taper = Taper::None;
+    case.winding.nip_load = Some(1000.0);
+    case.winding.speed = 20.0;
+    let case = with_symptoms(case, &["starring", "crushed_core"]);
+    at(at(case, "starring", "core"), "crushed_core", "core")
 }

@@ -36,7 +36,7 @@ pub fn render(app: &App, theme: Theme, area: Rect, buf: &mut Buffer) {
     // group (8) + label + two spaces + tag (8) inside the borders.
     let value_width = usize::from(table.width.saturating_sub(2))
         .saturating_sub(8 + label_width + 2 + 8)
-        .clamp(8, 60);
+        .clamp(8, 90);
     let mut lines = Vec::new();
     let mut last_group = "";
     for (row, spec) in FIELDS.iter().enumerate().skip(first).take(room) {

@@ -1,0 +1,34 @@
+//! Markdown output of `rolltriage diagnose` for two demo cases (insta snapshots). The profile
+//! comes from the stand-alone Hakiel solve in tests/common so the snapshot only moves when the
+//! rules or the rendering change.
+
+mod common;
+
+use rolltriage::diagnose::{self, DiagnoseOptions, render, rules::RuleBase};
+
+fn markdown(case: &rolltriage::case::ResolvedCase) -> String {
+    let rules = RuleBase::embedded().unwrap();
+    let options = DiagnoseOptions {
+        top: 5,
+        what_if: true,
+        solve_with: Some(common::fallback_only),
+        ..DiagnoseOptions::default()
+    };
+    let (_, d) = diagnose::triage(&rules, case, &options).unwrap();
+    render::render_markdown(&case.title, &d)
+}
+
+#[test]
+fn harbour_telescoping_markdown() {
+    let case = common::harbour_telescoping_demo();
+    let text = markdown(&case);
+    assert!(text.contains("tension_too_low"));
+    insta::assert_snapshot!(text);
+}
+
+#[test]
+fn harbour_coated_no_taper_markdown() {
+    let case = common::harbour_coated_no_taper_demo();
+    let text = markdown(&case);
+    insta::assert_snapshot!(text);
+}
