@@ -80,3 +80,21 @@ fn bad_options_are_refused() {
     assert_eq!(out.status.code(), Some(1));
     assert!(String::from_utf8_lossy(&out.stderr).contains("--min-outer-pressure"));
 }
+
+#[test]
+fn json_carries_before_and_after_profiles_for_plots() {
+    let out = bin()
+        .args([
+            "taper",
+            "cases/harbour_newsprint_telescoping.yaml",
+            "--json",
+        ])
+        .output()
+        .unwrap();
+    let v: serde_json::Value = serde_json::from_slice(&out.stdout).unwrap();
+    for key in ["before_profile", "after_profile"] {
+        let r = v[key]["radius_m"].as_array().unwrap();
+        assert!(r.len() >= 2 && r.len() <= 200, "{key} {}", r.len());
+        assert_eq!(r.len(), v[key]["pressure_pa"].as_array().unwrap().len());
+    }
+}
