@@ -511,9 +511,9 @@ struct Trial {
     band: f64,
 }
 
-/// Factors that carry search-resolution values to the verification resolution. The grouped
-/// solve can be off by tens of percent on soft webs; the factors are measured where it matters
-/// (at the candidate) and the search is repeated with them (output correction).
+/// Factors that carry search-resolution values to the verification resolution. A grouped solve
+/// can be biased on soft webs; the factors are measured where it matters (at the candidate) and
+/// the search is repeated with them (output correction).
 #[derive(Debug, Clone, Copy)]
 struct Corrections {
     core: f64,
@@ -793,70 +793,86 @@ pub fn design_with(
         .map(|i| start_of(i as f64 / (nu - 1) as f64))
         .chain(std::iter::once(target))
         .collect();
+    let mut previous_best_fraction: Option<f64> = None;
     for _round in 0..4 {
         let score = |t: &Trial| objective(t.start, t.fraction, t.worst(k, &cx));
         let feasible = |t: &Trial| t.worst(k, &cx) >= margin;
         // For one taper: the feasible start tension closest to the target — the nearest
         // feasible scanned start, then bisection (in log tension) towards the target.
-        let mut best_for = |fraction: f64, trials: &mut Vec<Trial>| -> Option<Trial> {
-            let mut scanned: Vec<Trial> = starts
-                .iter()
-                .filter_map(|&t0| run(t0, fraction, trials))
-                .collect();
-            scanned.sort_by(|a, b| a.start.total_cmp(&b.start));
-            let nearest = scanned
-                .iter()
-                .filter(|t| feasible(t))
-                .min_by(|a, b| {
-                    (a.start / target)
-                        .ln()
-                        .abs()
-                        .total_cmp(&(b.start / target).ln().abs())
-                })
-                .copied()?;
-            if (nearest.start / target - 1.0).abs() < 1e-12 {
-                return Some(nearest);
-            }
-            // The scanned neighbour on the target's side.
-            let toward = scanned
-                .iter()
-                .filter(|t| {
-                    if target > nearest.start {
-                        t.start > nearest.start
-                    } else {
-                        t.start < nearest.start
-                    }
-                })
-                .min_by(|a, b| {
-                    (a.start / nearest.start)
-                        .ln()
-                        .abs()
-                        .total_cmp(&(b.start / nearest.start).ln().abs())
-                })
-                .copied();
-            let Some(mut outside) = toward else {
-                return Some(nearest);
-            };
-            let mut inside = nearest;
-            for _ in 0..7 {
-                let mid = (inside.start * outside.start).sqrt();
-                match run(mid, fraction, trials) {
-                    Some(t) if feasible(&t) => inside = t,
-                    Some(t) => outside = t,
-                    None => break,
+        // `hint`: scan only the starts within two grid steps of it (and the target).
+        let grid_ratio = (t_high / t_low).powf(1.0 / (nu - 1) as f64);
+        let mut best_for =
+            |fraction: f64, hint: Option<f64>, trials: &mut Vec<Trial>| -> Option<Trial> {
+                let mut scanned: Vec<Trial> = starts
+                    .iter()
+                    .filter(|&&t0| {
+                        hint.is_none_or(|h| {
+                            t0 == target || (t0 / h).ln().abs() <= 2.01 * grid_ratio.ln()
+                        })
+                    })
+                    .filter_map(|&t0| run(t0, fraction, trials))
+                    .collect();
+                scanned.sort_by(|a, b| a.start.total_cmp(&b.start));
+                let nearest = scanned
+                    .iter()
+                    .filter(|t| feasible(t))
+                    .min_by(|a, b| {
+                        (a.start / target)
+                            .ln()
+                            .abs()
+                            .total_cmp(&(b.start / target).ln().abs())
+                    })
+                    .copied()?;
+                if (nearest.start / target - 1.0).abs() < 1e-12 {
+                    return Some(nearest);
                 }
-            }
-            Some(inside)
-        };
+                // The scanned neighbour on the target's side.
+                let toward = scanned
+                    .iter()
+                    .filter(|t| {
+                        if target > nearest.start {
+                            t.start > nearest.start
+                        } else {
+                            t.start < nearest.start
+                        }
+                    })
+                    .min_by(|a, b| {
+                        (a.start / nearest.start)
+                            .ln()
+                            .abs()
+                            .total_cmp(&(b.start / nearest.start).ln().abs())
+                    })
+                    .copied();
+                let Some(mut outside) = toward else {
+                    return Some(nearest);
+                };
+                let mut inside = nearest;
+                for _ in 0..7 {
+                    let mid = (inside.start * outside.start).sqrt();
+                    match run(mid, fraction, trials) {
+                        Some(t) if feasible(&t) => inside = t,
+                        Some(t) => outside = t,
+                        None => break,
+                    }
+                }
+                Some(inside)
+            };
         let column_score = |t: &Option<Trial>| t.as_ref().map_or(f64::INFINITY, score);
         let mut columns: Vec<(f64, Option<Trial>)> = Vec::new();
         for j in 0..nv {
             let f = j as f64 / (nv - 1) as f64 * max_taper;
-            let t = best_for(f, &mut trials);
+            // After the first round only the columns next to the last best taper are bracketed
+            // again; the corrections change little between rounds.
+            if let Some(previous) = previous_best_fraction
+                && (f - previous).abs() > 1.5 * max_taper / (nv - 1) as f64
+            {
+                continue;
+            }
+            let t = best_for(f, None, &mut trials);
             columns.push((f, t));
         }
         if reference_taper > 0.0 && reference_taper < max_taper {
-            let t = best_for(reference_taper, &mut trials);
+            let t = best_for(reference_taper, None, &mut trials);
             columns.push((reference_taper, t));
             columns.sort_by(|a, b| a.0.total_cmp(&b.0));
         }
@@ -869,14 +885,15 @@ pub fn design_with(
             let mut lo = columns[j.saturating_sub(1)].0;
             let mut hi = columns[(j + 1).min(columns.len() - 1)].0;
             let g = 0.618_033_988_749_895;
-            for _ in 0..6 {
+            let hint = columns[j].1.map(|t| t.start);
+            for _ in 0..5 {
                 if hi - lo < 1e-3 {
                     break;
                 }
                 let x1 = hi - g * (hi - lo);
                 let x2 = lo + g * (hi - lo);
-                let s1 = column_score(&best_for(x1, &mut trials));
-                let s2 = column_score(&best_for(x2, &mut trials));
+                let s1 = column_score(&best_for(x1, hint, &mut trials));
+                let s2 = column_score(&best_for(x2, hint, &mut trials));
                 if s1 <= s2 {
                     hi = x2;
                 } else {
@@ -908,6 +925,7 @@ pub fn design_with(
             .iter()
             .min_by(|a, b| score(a).total_cmp(&score(b)))
             .unwrap_or(&best);
+        previous_best_fraction = Some(candidate.fraction);
         let e = evaluate(
             case,
             &schedule_of(candidate.start, candidate.fraction),
