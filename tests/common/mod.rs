@@ -361,6 +361,7 @@ pub fn fallback_solve(problem: &WindingProblem, elements: usize) -> Profile {
             physical_layers: layers,
             elements: m,
             layers_per_element: layers_per.round() as usize,
+            ..ProfileSummary::default()
         },
         radius,
         pressure: p,
@@ -370,6 +371,7 @@ pub fn fallback_solve(problem: &WindingProblem, elements: usize) -> Profile {
         zones,
         air_film: None,
         warnings: vec![],
+        ..Profile::default()
     }
 }
 
