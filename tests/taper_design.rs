@@ -172,7 +172,7 @@ fn a_weak_core_gets_a_designed_schedule_that_meets_every_limit() {
     let limits = TaperLimits::default();
     assert!(!design.before.all_met());
     assert!(design.feasible, "{:?}", design.explanation);
-    assert_meets_every_limit(&weak, &design.schedule, &limits);
+    assert_meets_every_limit(weak, &design.schedule, &limits);
     assert!(
         design.binding.contains(&Limit::CorePressure),
         "{:?}",
