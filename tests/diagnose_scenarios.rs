@@ -148,7 +148,7 @@ fn harbour_newsprint_starring_from_soft_core() {
     let d = run(&case);
     assert_first(&d, "core_too_soft");
     assert_cites(&d, "core_too_soft", "core_stiffness_ratio");
-    assert_cites(&d, "core_too_soft", "compressive_band_extent");
+    assert_cites(&d, "core_too_soft", "compressive_stress_ratio");
 }
 
 #[test]
@@ -175,7 +175,7 @@ fn harbour_big_roll_starring_without_taper() {
     case.winding.tension.taper = Taper::None;
     let d = run(&case);
     assert_first(&d, "taper_missing");
-    assert_cites(&d, "taper_missing", "compressive_band_extent");
+    assert_cites(&d, "taper_missing", "taper");
 }
 
 #[test]
@@ -290,11 +290,10 @@ fn harbour_cinching_after_emergency_stop() {
 
 #[test]
 fn harbour_cinching_from_slack_wind() {
-    // 100 N/m with the rider roll lifted, slow (120 m/min) so air is not the story.
+    // 100 N/m with a light rider roll (150 N/m) that keeps air out.
     let mut case = with_symptoms(newsprint("Harbour slack wind"), &["cinching"]);
     case.winding.tension.start_tension = 100.0;
-    case.winding.nip_load = None;
-    case.winding.speed = 2.0;
+    case.winding.nip_load = Some(150.0);
     let case = answer(case, "cinching.after_stop_start", "no");
     let d = run(&case);
     assert_first(&d, "tension_too_low");
@@ -474,5 +473,12 @@ fn rigid_core_counts_as_very_stiff() {
         .unwrap()
         .value;
     assert!(ratio > 1.0e3);
-    assert_below(&d, "core_too_soft", "taper_missing");
+    // The stiffness evidence speaks against a soft core: belief stays below the rule's prior.
+    let soft = d
+        .causes
+        .iter()
+        .find(|c| c.id == "core_too_soft")
+        .map(|c| c.belief)
+        .unwrap_or(0.0);
+    assert!(soft < 0.3, "core_too_soft {soft}: {}", listing(&d));
 }

@@ -1,6 +1,6 @@
-//! Markdown output of `rolltriage diagnose` for two demo cases (insta snapshots). The profile
-//! comes from the stand-alone Hakiel solve in tests/common so the snapshot only moves when the
-//! rules or the rendering change.
+//! Markdown output of `rolltriage diagnose` for two demo cases (insta snapshots), solved with
+//! the crate's solver at a fixed grouping of about 200 elements (tests/common): the snapshot
+//! moves when the rules, the rendering or the solver's numbers change.
 
 mod common;
 
@@ -11,7 +11,7 @@ fn markdown(case: &rolltriage::case::ResolvedCase) -> String {
     let options = DiagnoseOptions {
         top: 5,
         what_if: true,
-        solve_with: Some(common::fallback_only),
+        solve_with: Some(common::solve),
         ..DiagnoseOptions::default()
     };
     let (_, d) = diagnose::triage(&rules, case, &options).unwrap();

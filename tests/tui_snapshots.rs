@@ -184,3 +184,33 @@ fn training_picker() {
         "{screen}"
     );
 }
+
+#[test]
+fn what_if_shows_a_taper_design_with_its_limits() {
+    let mut app = with_results();
+    // A small roll (about 260 wraps) keeps the design's many solves quick in debug builds.
+    let mut small = resolved("Sample");
+    small.roll.outer_diameter = 0.14;
+    app.resolved = Ok(small);
+    app.handle_key(Key::F(5));
+    app.handle_key(Key::Char('d'));
+    let request = app.take_requests().pop().unwrap();
+    let design =
+        rolltriage::taper_design::design(request.resolved.as_ref().unwrap(), &Default::default())
+            .unwrap();
+    app.on_job(rolltriage::tui::job::JobMessage::DesignFinished {
+        id: request.id,
+        generation: request.generation,
+        result: Ok(Box::new(design)),
+    });
+    let screen = draw(&app, 120, 40);
+    for text in [
+        "Designed taper",
+        "allowed",
+        "core pressure",
+        "wound-in tension",
+        "• before",
+    ] {
+        assert!(screen.contains(text), "missing {text}:\n{screen}");
+    }
+}

@@ -559,3 +559,27 @@ fn taper_design_runs_as_a_background_job_and_can_be_kept() {
     }
     assert!(app.case.winding.taper.is_some());
 }
+
+#[test]
+fn core_step_doubles_the_effective_core_stiffness_at_the_same_size() {
+    let mut app = app();
+    app.set_case(sample_case(), None);
+    finish_requests(&mut app, &outcome(1.0), &outcome(1.0));
+    app.resolved = Ok(resolved("Sample"));
+    app.handle_key(Key::F(5));
+    for _ in 0..3 {
+        app.handle_key(Key::Down);
+    }
+    app.handle_key(Key::Right);
+    assert_eq!(app.what_if.change.unwrap().setting, Setting::Core);
+    let request = app.take_requests().pop().unwrap();
+    // The sample core is a measured Ec of 1 GPa.
+    match request.case.core.stiffness {
+        Some(rolltriage::case::QuantityText::Number(v)) => assert!((v - 2e9).abs() < 1.0),
+        ref other => panic!("unexpected stiffness {other:?}"),
+    }
+    assert!(
+        request.case.core.outside_diameter.is_none(),
+        "core size unchanged"
+    );
+}

@@ -92,6 +92,15 @@ pub fn run(args: &DiagnoseArgs) -> anyhow::Result<()> {
         Format::Markdown => diagnose::render::render_markdown(&resolved.title, &diagnosis),
         Format::Json => serde_json::to_string_pretty(&diagnosis)? + "\n",
     };
-    print!("{text}");
-    Ok(())
+    write_stdout(&text)
+}
+
+/// Write to standard output; a closed pipe (`| head`) is not an error.
+pub fn write_stdout(text: &str) -> anyhow::Result<()> {
+    use std::io::Write;
+    let mut out = std::io::stdout().lock();
+    match out.write_all(text.as_bytes()).and_then(|()| out.flush()) {
+        Err(e) if e.kind() == std::io::ErrorKind::BrokenPipe => Ok(()),
+        other => Ok(other.context("writing to standard output")?),
+    }
 }

@@ -4,7 +4,9 @@ use std::path::PathBuf;
 
 use anyhow::bail;
 
-use super::diagnose::load_rules;
+use std::fmt::Write as _;
+
+use super::diagnose::{load_rules, write_stdout};
 
 #[derive(Debug, clap::Args)]
 pub struct RulesArgs {
@@ -47,13 +49,13 @@ pub fn run(args: &RulesArgs) -> anyhow::Result<()> {
                 .map(|r| r.evidence.len())
                 .sum();
             let questions: usize = base.symptoms.iter().map(|s| s.questions.len()).sum();
-            println!(
-                "{where_}: {} symptoms, {} causes, {rules} symptom-cause rules, {evidence} evidence tests, {questions} questions, {} remedies, {} cautions",
+            write_stdout(&format!(
+                "{where_}: {} symptoms, {} causes, {rules} symptom-cause rules, {evidence} evidence tests, {questions} questions, {} remedies, {} cautions\n",
                 base.symptoms.len(),
                 base.causes.len(),
                 base.remedies.len(),
                 base.cautions.len()
-            );
+            ))?;
             if !warnings.is_empty() {
                 bail!("{} coverage problems in {where_}", warnings.len());
             }
@@ -61,14 +63,15 @@ pub fn run(args: &RulesArgs) -> anyhow::Result<()> {
         }
         RulesCommand::Questions { rules } => {
             let base = load_rules(rules.as_ref())?;
+            let mut text = String::new();
             for s in &base.symptoms {
-                println!("{} — {}", s.id, s.title);
+                let _ = writeln!(text, "{} — {}", s.id, s.title);
                 for q in &s.questions {
                     let answers: Vec<&str> = q.accepted();
-                    println!("  {}: {} [{}]", q.id, q.text, answers.join(" | "));
+                    let _ = writeln!(text, "  {}: {} [{}]", q.id, q.text, answers.join(" | "));
                 }
             }
-            Ok(())
+            write_stdout(&text)
         }
     }
 }

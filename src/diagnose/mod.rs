@@ -217,16 +217,34 @@ pub fn diagnose(
         causes.truncate(options.top);
     }
     let mut remedies = remedies::merge(rules, &symptoms, &causes);
-    if options.what_if {
+    if options.what_if
+        && remedies
+            .iter()
+            .any(|r| remedies::changes_setting(rules, &r.id))
+    {
+        // Before and after are compared at the same (what-if) resolution so the direction of a
+        // change is never an artefact of different discretisations.
+        let what_if_options = DiagnoseOptions {
+            solver: remedies::what_if_solver(case, options.solver),
+            ..options.clone()
+        };
+        let baseline = if what_if_options.solver == options.solver {
+            (indicators.clone(), causes.clone())
+        } else {
+            let profile = what_if_options.solve(&case.problem(what_if_options.solver))?;
+            let base_indicators = indicators::Indicators::compute(case, &profile);
+            let base_causes = rank::rank(rules, &symptoms, case, &base_indicators);
+            (base_indicators, base_causes)
+        };
         for remedy in remedies.iter_mut() {
             remedy.what_if = remedies::what_if(
                 rules,
                 &symptoms,
                 case,
-                &indicators,
-                &causes,
+                &baseline.0,
+                &baseline.1,
                 remedy,
-                options,
+                &what_if_options,
             );
         }
     }

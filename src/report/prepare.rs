@@ -20,6 +20,8 @@ pub struct PrepareOptions {
     pub source_file: Option<String>,
     pub units: UnitSystem,
     pub solver: SolverOptions,
+    /// Re-solve every setting-changing remedy for its predicted effect (the diagnosis' what-if).
+    pub what_if: bool,
 }
 
 /// Read a case file and prepare its report.
@@ -50,7 +52,7 @@ pub fn prepare(
         &profile,
         &DiagnoseOptions {
             top: 0,
-            what_if: true,
+            what_if: options.what_if,
             solver: options.solver,
             ..DiagnoseOptions::default()
         },

@@ -198,7 +198,7 @@ impl Setting {
             Setting::Tension => "±10 % per step",
             Setting::Taper => "±5 points per step",
             Setting::NipLoad => "±20 % per step",
-            Setting::Core => "next stiffer / softer core",
+            Setting::Core => "core stiffness ×2 / ÷2 per step, same size",
             Setting::Speed => "±10 % per step",
         }
     }
@@ -1522,37 +1522,19 @@ impl App {
                 format!("Nip load {} → {}", text(before), text(after))
             }
             Setting::Core => {
-                if !self.core_presets.is_empty() {
-                    let current = resolved.core.preset.clone();
-                    let mut next = current.clone();
-                    for _ in 0..change.steps.unsigned_abs() {
-                        next = fields::cycle(&self.core_presets, next.as_deref(), change.steps > 0);
-                    }
-                    case.core.preset = next.clone();
-                    case.core.material = None;
-                    case.core.modulus = None;
-                    case.core.stiffness = None;
-                    case.core.crush_pressure = None;
-                    format!(
-                        "Core {} → {}",
-                        current.unwrap_or_else(|| resolved.core.material.clone()),
-                        next.unwrap_or_default()
-                    )
-                } else {
-                    let materials: Vec<String> = fields::CORE_MATERIALS
-                        .iter()
-                        .map(|m| m.to_string())
-                        .collect();
-                    let current = resolved.core.material.clone();
-                    let index = materials.iter().position(|m| *m == current).unwrap_or(0) as i64;
-                    let next =
-                        (index + i64::from(change.steps)).clamp(0, materials.len() as i64 - 1);
-                    let next = materials[next as usize].clone();
-                    case.core.material = Some(next.clone());
-                    case.core.modulus = None;
-                    case.core.stiffness = None;
-                    format!("Core {current} → {next}")
+                // Same core size, stiffer or softer: the effective stiffness Ec doubles or halves
+                // per step (written as a measured stiffness, which overrides the modulus).
+                let before = resolved.core.stiffness.effective_stiffness();
+                if !before.is_finite() {
+                    return Err("the core is rigid: a stiffer core changes nothing".into());
                 }
+                let after = before * 2.0_f64.powi(change.steps);
+                case.core.stiffness = Some(QuantityText::Number(after));
+                format!(
+                    "Core stiffness Ec {} → {}",
+                    super::screens::compact_stress(before, self.units),
+                    super::screens::compact_stress(after, self.units)
+                )
             }
             Setting::Speed => {
                 let before = resolved.winding.speed;

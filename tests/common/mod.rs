@@ -163,6 +163,19 @@ pub fn profile(case: &ResolvedCase) -> Profile {
 /// Same contract as `model::solve`; falls back to [`fallback_solve`] while the crate's solver is
 /// not implemented.
 pub fn solve(problem: &WindingProblem) -> Result<Profile, ModelError> {
+    // Tests run in debug builds: a fixed grouping of about 200 elements instead of the
+    // automatic halving keeps them quick.
+    let mut problem = problem.clone();
+    if problem.options.resolution == rolltriage::model::Resolution::Auto {
+        let layers =
+            ((problem.outer_radius - problem.core_radius) / problem.thickness).round() as usize;
+        if layers > 800 {
+            problem.options.resolution = rolltriage::model::Resolution::Grouped {
+                layers: layers.div_ceil(200),
+            };
+        }
+    }
+    let problem = &problem;
     match rolltriage::model::solve(problem) {
         Err(ModelError::NotConverged(m)) if m.contains("not implemented") => {
             Ok(fallback_solve(problem, 300))
@@ -363,7 +376,6 @@ pub fn fallback_solve(problem: &WindingProblem, elements: usize) -> Profile {
             layers_per_element: layers_per.round() as usize,
             ..ProfileSummary::default()
         },
-        thickness: problem.thickness,
         radius,
         pressure: p,
         tangential_stress: sigma_t,
@@ -372,7 +384,7 @@ pub fn fallback_solve(problem: &WindingProblem, elements: usize) -> Profile {
         zones,
         air_film: None,
         warnings: vec![],
-        ..Profile::default()
+        thickness: h,
     }
 }
 
