@@ -644,10 +644,17 @@ fn yaml_error(origin: &str, text: &str, error: &yaml::Error) -> CaseError {
             };
         }
     }
-    if message.contains("did not match any variant of untagged enum QuantityText") {
-        message = message.replace(
-            "data did not match any variant of untagged enum QuantityText",
-            "expected a quantity: a string with its unit such as \"76 um\" or \"2 pli\", or a plain number in SI units",
+    const UNTAGGED: &str = "data did not match any variant of untagged enum QuantityText";
+    if let Some(at) = message.find(UNTAGGED) {
+        // The parser loses the field name here but points at its key: read it from the text.
+        let section = message[..at].trim_end_matches(": ").trim().to_string();
+        let field = match key_at(text, line, column) {
+            Some(key) if section.is_empty() => key,
+            Some(key) => format!("{section}.{key}"),
+            None => section,
+        };
+        message = format!(
+            "{field}: expected a quantity: a string with its unit such as \"76 um\" or \"2 pli\", or a plain number in SI units"
         );
     }
     if message.contains("repetition limit exceeded") {
@@ -662,6 +669,15 @@ fn yaml_error(origin: &str, text: &str, error: &yaml::Error) -> CaseError {
         column,
         message,
     }
+}
+
+/// The mapping key starting at 1-based `line`, `column`, if there is one.
+fn key_at(text: &str, line: usize, column: usize) -> Option<String> {
+    let row = text.lines().nth(line.checked_sub(1)?)?;
+    let rest = row.get(column.checked_sub(1)?..)?;
+    let key = rest.split(':').next()?.trim();
+    let plain = !key.is_empty() && key.chars().all(|c| c.is_ascii_alphanumeric() || c == '_');
+    plain.then(|| key.to_string())
 }
 
 /// The parser reports some duplicate keys without a position: find the second line that
@@ -934,7 +950,13 @@ impl Resolver {
             return Err(self.invalid("title is empty; give the case a short title"));
         }
         let web = self.web(&case.web)?;
+        if case.web.preset.is_none() {
+            self.note_default_preset("web", web.preset.as_deref());
+        }
         let core = self.core(&case.core, &web)?;
+        if case.core.preset.is_none() {
+            self.note_default_preset("core", core.preset.as_deref());
+        }
         let roll = self.roll(&case.roll, &web, &core)?;
         let winding = self.winding(&case.winding, &web, &core, &roll)?;
         for (index, symptom) in case.symptoms.iter().enumerate() {
@@ -969,6 +991,26 @@ impl Resolver {
         })
     }
 
+    /// A preset chosen by default is listed as assumed only when some value actually came from
+    /// it, so a case that gives every value resolves with nothing assumed.
+    fn note_default_preset(&mut self, section: &str, id: Option<&str>) {
+        let Some(id) = id else { return };
+        let from = format!("preset {id}:");
+        let prefix = format!("{section}.");
+        let used = self
+            .assumed
+            .iter()
+            .any(|a| a.field.starts_with(&prefix) && a.source.starts_with(&from));
+        if used {
+            self.assume(
+                &format!("{section}.preset"),
+                id.to_string(),
+                "",
+                &format!("default {section} preset for the material and size given; name one with {section}.preset"),
+            );
+        }
+    }
+
     fn web(&mut self, web: &WebInput) -> Result<ResolvedWeb, CaseError> {
         if let Some(material) = &web.material
             && !WEB_MATERIALS.contains(&material.as_str())
@@ -989,12 +1031,7 @@ impl Resolver {
                     return Err(self.unknown_name("web.preset", "web preset", id, &ids));
                 }
             },
-            None => {
-                let p =
-                    presets::default_web_for_material(web.material.as_deref().unwrap_or("paper"));
-                // Not listed itself: every value taken from it names the preset.
-                p
-            }
+            None => presets::default_web_for_material(web.material.as_deref().unwrap_or("paper")),
         };
         let from = format!("preset {}", preset.id);
         let material = match &web.material {
@@ -1208,11 +1245,7 @@ impl Resolver {
                     return Err(self.unknown_name("core.preset", "core preset", id, &ids));
                 }
             },
-            None => {
-                let p = presets::default_core_for(material_given, &web.material, outside_given);
-                // Not listed itself: every value taken from it names the preset.
-                p
-            }
+            None => presets::default_core_for(material_given, &web.material, outside_given),
         };
         if let Some(m) = material_given
             && m != "rigid"
@@ -1526,7 +1559,7 @@ impl Resolver {
         let taper = match &winding.taper {
             None => {
                 self.assume(
-                    "winding.taper",
+                    "winding.taper.kind",
                     "none".to_string(),
                     "",
                     "default: constant tension",

@@ -201,3 +201,30 @@ fn the_fitted_law_evaluates_as_pfeiffer() {
     assert!((fit.pressure_at(0.1) - pfeiffer_pressure(6e3, 30.0, 0.1)).abs() < 1e-3);
     assert!(fit.warnings.iter().all(|w| !w.contains("poor")));
 }
+
+proptest::proptest! {
+    /// Invariant: noise-free data from any Pfeiffer law in the practical range are recovered
+    /// to 1e-6, whatever the weighting.
+    #[test]
+    fn exact_data_are_recovered_for_any_parameters(
+        k1 in 500.0f64..200_000.0,
+        k2 in 5.0f64..150.0,
+        relative in proptest::bool::ANY,
+    ) {
+        // Strains up to where the law reaches 2 MPa.
+        let max_strain = (2e6 / k1).ln_1p() / k2;
+        let points: Vec<StackPoint> = (1..=15)
+            .map(|i| {
+                let e = max_strain * i as f64 / 15.0;
+                StackPoint { line: i + 1, strain: e, pressure: pfeiffer_pressure(k1, k2, e) }
+            })
+            .collect();
+        let options = FitOptions {
+            weighting: if relative { Weighting::Relative } else { Weighting::Absolute },
+            ..FitOptions::default()
+        };
+        let fit = fit_points("exact", &points, &options, 0, vec![]).unwrap();
+        proptest::prop_assert!((fit.k1 / k1 - 1.0).abs() < 1e-6, "K1 {} vs {}", fit.k1, k1);
+        proptest::prop_assert!((fit.k2 / k2 - 1.0).abs() < 1e-6, "K2 {} vs {}", fit.k2, k2);
+    }
+}

@@ -72,6 +72,7 @@ fn minimal_case_takes_everything_from_presets_and_says_so() {
     let resolved = Case::load_resolved(&fixture("minimal.yaml")).unwrap();
     let fields: Vec<&str> = resolved.assumed.iter().map(|a| a.field.as_str()).collect();
     for field in [
+        "web.preset",
         "web.thickness",
         "web.tangential_modulus",
         "web.radial_stiffness.k1",
@@ -79,6 +80,7 @@ fn minimal_case_takes_everything_from_presets_and_says_so() {
         "web.friction",
         "web.roughness",
         "web.strength",
+        "core.preset",
         "core.inside_diameter",
         "core.outside_diameter",
         "core.modulus",
@@ -87,7 +89,7 @@ fn minimal_case_takes_everything_from_presets_and_says_so() {
         "roll.length",
         "winding.method",
         "winding.tension",
-        "winding.taper",
+        "winding.taper.kind",
         "winding.nip_load",
         "winding.speed",
     ] {

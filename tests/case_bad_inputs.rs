@@ -113,7 +113,7 @@ const CORPUS: &[(&str, Expect, &[&str])] = &[
     (
         "quantity_wrong_type.yaml",
         Expect::Syntax,
-        &["line 3", "expected a quantity", "76 um"],
+        &["line 3", "web.thickness: expected a quantity", "76 um"],
     ),
     (
         "yaml_syntax_error.yaml",

@@ -83,3 +83,32 @@ fn issue_check_values_are_what_the_reference_computed() {
     assert!((quoted[0] - (2.5f64).ln()).abs() < 1e-6);
     assert!((quoted[1] - (8.5f64).ln()).abs() < 1e-6);
 }
+
+#[test]
+fn per_layer_tangential_stress_matches_the_linear_theory() {
+    // σθ(r)/σw = 1 − ∫_r^R (f(r) + r f'(r))/(s f(s)) ds, recomputed with quad in
+    // tests/reference/closed_form.py. Compared as a share of σw (the values cross zero).
+    let data = reference();
+    for case in data["cases"].as_array().unwrap() {
+        let p = problem(case, ModulusUpdate::Secant);
+        let sigma_w = 100.0 / p.thickness;
+        let profile = solve(&p).unwrap();
+        let fractions = case["build_fractions"].as_array().unwrap();
+        let expected = case["tangential_over_web_stress"].as_array().unwrap();
+        for (f, e) in fractions.iter().zip(expected) {
+            let r = p.core_radius + f.as_f64().unwrap() * (p.outer_radius - p.core_radius);
+            let got = rolltriage::model::Profile::interpolate(
+                &profile.tangential_stress,
+                &profile.radius,
+                r,
+            ) / sigma_w;
+            let e = e.as_f64().unwrap();
+            eprintln!("{} at {f}: {got:.5} vs {e:.5}", case["name"]);
+            assert!(
+                (got - e).abs() < 0.005,
+                "{} at {f}: {got} vs {e}",
+                case["name"]
+            );
+        }
+    }
+}

@@ -64,6 +64,7 @@ fn synthetic_profile(core_pressure: f64, surface_stress: f64) -> Profile {
         physical_layers: 5910,
         elements: 100,
         layers_per_element: 59,
+        ..ProfileSummary::default()
     };
     profile
 }
@@ -184,6 +185,7 @@ fn fixture(with_remedy: bool) -> ReportInput {
                 id: "raise_tension".into(),
                 text: "Raise web tension to 12–15 % of the web's strength.".into(),
                 group: "winder_setting".into(),
+                cost: "low".into(),
                 answers: vec!["tension_too_low".into()],
                 cautions: vec!["web_break".into()],
                 what_if: Some(WhatIf {
@@ -198,6 +200,7 @@ fn fixture(with_remedy: bool) -> ReportInput {
                 id: "raise_nip_load".into(),
                 text: "Raise rider-roll load in steps of 10 %.".into(),
                 group: "winder_setting".into(),
+                cost: "low".into(),
                 answers: vec!["tension_too_low".into(), "air_entrainment".into()],
                 cautions: vec!["in_running_nip".into()],
                 what_if: None,
@@ -380,7 +383,11 @@ fn svg_plots_hold_before_after_series_zones_and_labels() {
     }
     assert!(pressure.contains(plots::LABEL_PRESSURE));
     assert!(pressure.contains(plots::LABEL_AFTER_SUFFIX));
-    assert!(svg_texts(&pressure).iter().any(|t| t == "Pressure (kPa)"));
+    assert!(
+        svg_texts(&pressure)
+            .iter()
+            .any(|t| t == "Interlayer pressure (kPa)")
+    );
     assert!(
         svg_texts(&tangential)
             .iter()
@@ -419,5 +426,46 @@ fn empty_profile_is_an_error_not_a_panic() {
     input.profile = Profile::default();
     for format in Format::ALL {
         assert!(render(&input, format).is_err());
+    }
+}
+
+proptest::proptest! {
+    #![proptest_config(proptest::prelude::ProptestConfig::with_cases(24))]
+
+    /// Any finite profile renders in every format without panicking, the JSON parses, and the
+    /// thinned profile keeps the first and last radius.
+    #[test]
+    fn any_profile_renders_in_every_format(
+        pressures in proptest::collection::vec(0.0f64..5e7, 2..300),
+        scale in -1e7f64..1e7,
+    ) {
+        let mut input = fixture(false);
+        let n = pressures.len();
+        let mut profile = synthetic_profile(1.0, 1.0);
+        profile.radius = (0..n).map(|i| CORE_RADIUS + (OUTER_RADIUS - CORE_RADIUS) * i as f64 / (n - 1) as f64).collect();
+        profile.tangential_stress = pressures.iter().map(|p| scale - p / 3.0).collect();
+        profile.pressure = pressures;
+        profile.radial_strain = vec![0.0; n];
+        profile.wound_in_tension = vec![90.0; n];
+        // Zones cover the whole profile whatever its length.
+        let cuts = [0, n / 5, 2 * n / 5, 3 * n / 5, 4 * n / 5, n];
+        for (k, zone) in profile.zones.iter_mut().enumerate() {
+            zone.start = cuts[k];
+            zone.end = cuts[k + 1];
+            zone.inner_radius = profile.radius[cuts[k].min(n - 1)];
+            zone.outer_radius = profile.radius[cuts[k + 1].min(n) - 1];
+        }
+        input.profile = profile;
+        for format in Format::ALL {
+            let text = render(&input, format).unwrap();
+            proptest::prop_assert!(!text.is_empty());
+        }
+        let json: serde_json::Value = serde_json::from_str(&render(&input, Format::Json).unwrap()).unwrap();
+        let points = json["profile"].as_array().unwrap();
+        proptest::prop_assert!(points.len() <= 60 && points.len() >= 2);
+        let first = points[0]["radius_m"].as_f64().unwrap();
+        let last = points[points.len() - 1]["radius_m"].as_f64().unwrap();
+        proptest::prop_assert!((first - CORE_RADIUS).abs() < 1e-9);
+        proptest::prop_assert!((last - OUTER_RADIUS).abs() < 1e-9);
     }
 }

@@ -205,7 +205,6 @@ questions: []
 }
 
 #[test]
-#[ignore = "PENDING: needs case parsing and the solver from main"]
 fn lint_passes_on_the_shipped_walkthroughs() {
     let problems = lint_dir(&root().join("cases/training")).unwrap();
     assert!(problems.is_empty(), "{problems:#?}");
@@ -218,7 +217,6 @@ fn rolltriage() -> Command {
 }
 
 #[test]
-#[ignore = "PENDING: needs case parsing and the solver from main"]
 fn scripted_run_prints_feedback_and_score() {
     let output = rolltriage()
         .args(["train", "telescoping_newsprint", "--answers", "2,1,1,1"])
@@ -238,7 +236,6 @@ fn scripted_run_prints_feedback_and_score() {
 }
 
 #[test]
-#[ignore = "PENDING: needs case parsing and the solver from main"]
 fn scripted_run_rejects_wrong_answer_counts_and_ranges() {
     let few = rolltriage()
         .args(["train", "telescoping_newsprint", "--answers", "2,1"])
@@ -263,7 +260,6 @@ fn scripted_run_rejects_wrong_answer_counts_and_ranges() {
 }
 
 #[test]
-#[ignore = "PENDING: needs case parsing and the solver from main"]
 fn interactive_run_reads_lines_without_a_terminal() {
     let mut child = rolltriage()
         .args(["train", "crushed_core_coated"])
@@ -291,7 +287,6 @@ fn interactive_run_reads_lines_without_a_terminal() {
 }
 
 #[test]
-#[ignore = "PENDING: needs case parsing and the solver from main"]
 fn interactive_run_stops_cleanly_at_end_of_input() {
     let mut child = rolltriage()
         .args(["train", "crushed_core_coated"])

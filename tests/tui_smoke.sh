@@ -58,7 +58,7 @@ T send-keys -t smoke -l "telesc"
 wait_for "Telescoping"
 T send-keys -t smoke Enter
 T send-keys -t smoke Escape
-T send-keys -t smoke -l "crushed"
+T send-keys -t smoke -l "crushed core"
 wait_for "Crushed core"
 T send-keys -t smoke Enter
 wait_for "telescoping, crushed_core"

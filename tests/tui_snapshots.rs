@@ -85,6 +85,8 @@ fn inputs_screen_with_a_rejected_entry() {
     }
     type_text(&mut app, "48 mil");
     app.handle_key(Key::Enter);
+    // A fixed resolved case so the snapshot does not follow edits to the preset table.
+    app.resolved = Ok(resolved_with_assumed());
     snapshot_all_sizes("inputs_rejected", &app);
 }
 
@@ -166,5 +168,49 @@ fn plots_label_every_zone_and_the_reference_lines_at_120_columns() {
     let screen = draw(&app, 120, 40);
     for label in ["inner", "middle", "outer", "crush rating"] {
         assert!(screen.contains(label), "missing {label}:\n{screen}");
+    }
+}
+
+#[test]
+fn training_picker() {
+    let mut app = app();
+    app.walkthroughs = rolltriage::training::library::embedded().unwrap();
+    app.handle_key(Key::Ctrl('t'));
+    // Draw only the first size: the list itself follows the shipped walk-throughs.
+    let screen = draw(&app, 80, 24);
+    assert!(screen.contains("Training walk-throughs"), "{screen}");
+    assert!(
+        screen.contains(&app.walkthroughs[0].walkthrough.title),
+        "{screen}"
+    );
+}
+
+#[test]
+fn what_if_shows_a_taper_design_with_its_limits() {
+    let mut app = with_results();
+    // A small roll (about 260 wraps) keeps the design's many solves quick in debug builds.
+    let mut small = resolved("Sample");
+    small.roll.outer_diameter = 0.14;
+    app.resolved = Ok(small);
+    app.handle_key(Key::F(5));
+    app.handle_key(Key::Char('d'));
+    let request = app.take_requests().pop().unwrap();
+    let design =
+        rolltriage::taper_design::design(request.resolved.as_ref().unwrap(), &Default::default())
+            .unwrap();
+    app.on_job(rolltriage::tui::job::JobMessage::DesignFinished {
+        id: request.id,
+        generation: request.generation,
+        result: Ok(Box::new(design)),
+    });
+    let screen = draw(&app, 120, 40);
+    for text in [
+        "Designed taper",
+        "allowed",
+        "core pressure",
+        "wound-in tension",
+        "• before",
+    ] {
+        assert!(screen.contains(text), "missing {text}:\n{screen}");
     }
 }

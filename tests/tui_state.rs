@@ -227,14 +227,25 @@ fn causes_expand_and_remedies_lead_to_what_if() {
     app.resolved = Ok(resolved("Sample"));
     app.handle_key(Key::Enter);
     assert_eq!(app.screen, Screen::WhatIf);
-    let change = app.what_if.change.unwrap();
-    assert_eq!(change.setting, Setting::Tension);
-    assert_eq!(change.steps, 1);
-    // "store_rolls_on_end" is not a winder setting.
-    assert_eq!(
-        rolltriage::tui::app::remedy_change("store_rolls_on_end"),
-        None
-    );
+    assert_eq!(app.what_if.remedy.as_deref(), Some("raise_tension"));
+    // The trial solves the resolved case with the rule's change: tension ×1.15.
+    let request = app
+        .take_requests()
+        .into_iter()
+        .find(|r| r.purpose == Purpose::WhatIf)
+        .unwrap();
+    let trial = request
+        .resolved
+        .expect("remedy trials carry the changed resolved case");
+    assert!((trial.winding.tension.start_tension - 525.0 * 1.15).abs() < 1e-9);
+    // Keeping it writes the new tension into the case.
+    app.handle_key(Key::Char('a'));
+    match app.case.winding.tension {
+        Some(rolltriage::case::QuantityText::Number(v)) => assert!((v - 603.75).abs() < 1e-9),
+        ref other => panic!("unexpected tension {other:?}"),
+    }
+    // "store_rolls_on_end" changes no winder setting.
+    assert!(!app.remedy_is_tryable("store_rolls_on_end"));
 }
 
 #[test]
@@ -432,4 +443,143 @@ fn help_line_fits_80_columns_on_every_screen() {
     app.handle_key(Key::F(3));
     app.handle_key(Key::Char('3'));
     check(&app);
+}
+
+#[test]
+fn a_blank_case_shows_preset_values_as_assumed_not_entered() {
+    let app = app();
+    // The case layer resolves a blank case from presets and defaults; every field it fills
+    // is listed as assumed, and the form shows it so.
+    let resolved = app
+        .resolved
+        .as_ref()
+        .expect("a blank case resolves from presets");
+    assert!(!resolved.assumed.is_empty());
+    for field in ["web.thickness", "winding.method"] {
+        assert!(app.assumed(field).is_some(), "{field} should be assumed");
+        assert_eq!(rolltriage::tui::fields::get(&app.case, field), None);
+    }
+}
+
+#[test]
+fn export_writes_a_report_of_the_results_in_the_format_of_the_file_name() {
+    let folder = tempfile::tempdir().unwrap();
+    let mut app = app();
+    app.set_case(sample_case(), None);
+    finish_requests(&mut app, &outcome(1.0), &outcome(1.0));
+    app.handle_key(Key::Ctrl('e'));
+    match &app.popup {
+        Some(Popup::Export { input, .. }) => assert!(input.ends_with("_report.md"), "{input}"),
+        other => panic!("expected the export prompt, got {other:?}"),
+    }
+    app.popup = None;
+    for (name, needle) in [
+        ("r.md", "Web tension too low for this web"),
+        ("r.json", "tension_too_low"),
+    ] {
+        let path = folder.path().join(name);
+        app.export_to(&path).unwrap();
+        let text = std::fs::read_to_string(&path).unwrap();
+        assert!(text.contains(needle), "{name}: {text}");
+    }
+}
+
+#[test]
+fn export_refuses_out_of_date_results() {
+    let folder = tempfile::tempdir().unwrap();
+    let mut app = app();
+    app.set_case(sample_case(), None);
+    finish_requests(&mut app, &outcome(1.0), &outcome(1.0));
+    app.handle_key(Key::F(2));
+    app.handle_key(Key::Enter); // the case changes
+    assert!(app.export_to(&folder.path().join("r.md")).is_err());
+}
+
+#[test]
+fn training_walkthroughs_open_their_case_with_the_introduction() {
+    let mut app = app();
+    app.walkthroughs = rolltriage::training::library::embedded().unwrap();
+    assert!(!app.walkthroughs.is_empty());
+    app.handle_key(Key::Ctrl('t'));
+    assert_eq!(app.popup, Some(Popup::Training { selected: 0 }));
+    app.handle_key(Key::Enter);
+    match &app.popup {
+        Some(Popup::Notice { title, .. }) => {
+            assert_eq!(title, &app.walkthroughs[0].walkthrough.title)
+        }
+        other => panic!(
+            "expected the introduction, got {other:?} ({:?})",
+            app.status
+        ),
+    }
+    assert!(!app.case.symptoms.is_empty());
+    // Any key closes the introduction.
+    app.handle_key(Key::Char('x'));
+    assert_eq!(app.popup, None);
+}
+
+#[test]
+fn taper_design_runs_as_a_background_job_and_can_be_kept() {
+    let mut app = app();
+    app.set_case(sample_case(), None);
+    finish_requests(&mut app, &outcome(1.0), &outcome(1.0));
+    // A small roll (about 260 wraps) keeps the many solves of the design quick in debug builds.
+    let mut small = resolved("Sample");
+    small.roll.outer_diameter = 0.14;
+    app.resolved = Ok(small);
+    app.handle_key(Key::F(5));
+    app.handle_key(Key::Char('d'));
+    let request = app.take_requests().pop().unwrap();
+    assert_eq!(request.task, rolltriage::tui::job::Task::DesignTaper);
+    assert!(app.is_solving());
+    // Run the real design on the sample case, as the worker thread would.
+    let design =
+        rolltriage::taper_design::design(request.resolved.as_ref().unwrap(), &Default::default())
+            .unwrap();
+    app.on_job(rolltriage::tui::job::JobMessage::DesignFinished {
+        id: request.id,
+        generation: request.generation,
+        result: Ok(Box::new(design.clone())),
+    });
+    assert!(!app.is_solving());
+    assert!(
+        app.what_if
+            .description
+            .as_deref()
+            .unwrap()
+            .starts_with("Designed taper")
+    );
+    app.handle_key(Key::Char('a'));
+    assert!(app.dirty);
+    match &app.case.winding.tension {
+        Some(rolltriage::case::QuantityText::Number(v)) => {
+            assert!((v - design.start_tension).abs() < 1e-9)
+        }
+        other => panic!("unexpected tension {other:?}"),
+    }
+    assert!(app.case.winding.taper.is_some());
+}
+
+#[test]
+fn core_step_doubles_the_effective_core_stiffness_at_the_same_size() {
+    let mut app = app();
+    app.set_case(sample_case(), None);
+    finish_requests(&mut app, &outcome(1.0), &outcome(1.0));
+    app.resolved = Ok(resolved("Sample"));
+    app.handle_key(Key::F(5));
+    for _ in 0..3 {
+        app.handle_key(Key::Down);
+    }
+    app.handle_key(Key::Right);
+    assert_eq!(app.what_if.change.unwrap().setting, Setting::Core);
+    let request = app.take_requests().pop().unwrap();
+    // The sample core is a measured Ec of 1 GPa.
+    match request.case.core.stiffness {
+        Some(rolltriage::case::QuantityText::Number(v)) => assert!((v - 2e9).abs() < 1.0),
+        ref other => panic!("unexpected stiffness {other:?}"),
+    }
+    assert!(
+        request.case.core.outside_diameter.is_none(),
+        "core size unchanged"
+    );
 }

@@ -119,9 +119,26 @@ fn run_stack(args: &StackArgs) -> anyhow::Result<()> {
         let mut case = rolltriage::case::Case::load(path)
             .with_context(|| format!("cannot write the fit into {}", path.display()))?;
         calibrate::apply_to_case(&mut case, &fit);
-        let yaml_text = yaml::to_string(&case)
-            .with_context(|| format!("cannot serialise {}", path.display()))?;
-        rolltriage::fsutil::save_atomic(path, yaml_text.as_bytes())?;
+        if let (Some(caliper), Some(thickness)) = (test.caliper(), case.web.thickness.as_ref()) {
+            let field = format!("{} web.thickness", path.display());
+            let thickness = match thickness {
+                rolltriage::case::QuantityText::Number(v) => Some(*v),
+                rolltriage::case::QuantityText::Text(t) => {
+                    parse_quantity(&field, t, QuantityKind::Length).ok()
+                }
+            };
+            if let Some(t) = thickness
+                && t > 0.0
+                && (caliper / t - 1.0).abs() > 0.10
+            {
+                eprintln!(
+                    "warning: the stack's caliper ({:.1} µm) differs from the case's web.thickness ({:.1} µm) by more than 10 %; is this the same web?",
+                    caliper * 1e6,
+                    t * 1e6
+                );
+            }
+        }
+        case.save(path)?;
         eprintln!(
             "wrote web.radial_stiffness (pfeiffer, K1 {:.4} kPa, K2 {:.4}) into {} — comments in that file are not kept",
             fit.k1 / 1e3,

@@ -1,5 +1,6 @@
 //! `rolltriage case`: start a case file from presets, check case files, list the presets.
 
+use std::io::Write;
 use std::path::PathBuf;
 
 use anyhow::{Context, bail};
@@ -97,7 +98,7 @@ fn new(args: &NewArgs) -> anyhow::Result<()> {
         .and_then(|c| c.resolve_as("starting case"))
         .context("internal error: the starting case does not check")?;
     match &args.output {
-        None => print!("{text}"),
+        None => std::io::stdout().lock().write_all(text.as_bytes())?,
         Some(path) => {
             if path.exists() && !args.force {
                 bail!(
@@ -135,25 +136,27 @@ fn unknown_preset_message(what: &str, id: &str, suggestion: Option<&str>) -> Str
 }
 
 fn check(args: &CheckArgs) -> anyhow::Result<()> {
+    let mut out = std::io::stdout().lock();
     let mut failed = 0usize;
     for path in &args.files {
         match Case::load_resolved(path) {
             Ok(resolved) => {
-                println!(
+                writeln!(
+                    out,
                     "ok      {}  ({} symptom(s), {} value(s) assumed)",
                     path.display(),
                     resolved.symptoms.len(),
                     resolved.assumed.len()
-                );
+                )?;
                 if args.assumed {
                     for a in &resolved.assumed {
-                        println!("          {} = {}  [{}]", a.field, a.value, a.source);
+                        writeln!(out, "          {} = {}  [{}]", a.field, a.value, a.source)?;
                     }
                 }
             }
             Err(error) => {
                 failed += 1;
-                println!("FAILED  {}", path.display());
+                writeln!(out, "FAILED  {}", path.display())?;
                 eprintln!("error: {error}");
             }
         }
@@ -168,70 +171,99 @@ fn check(args: &CheckArgs) -> anyhow::Result<()> {
 }
 
 fn list_presets(args: &PresetsArgs) -> anyhow::Result<()> {
+    let mut out = std::io::stdout().lock();
     if args.json {
         let all = serde_json::json!({
             "units": "SI (m, Pa, N/m)",
             "webs": presets::web_presets(),
             "cores": presets::core_presets(),
         });
-        println!("{}", serde_json::to_string_pretty(&all)?);
+        writeln!(out, "{}", serde_json::to_string_pretty(&all)?)?;
         return Ok(());
     }
     let system = match args.units {
         UnitsArg::Si => UnitSystem::Si,
         UnitsArg::Us => UnitSystem::Us,
     };
-    let show = |label: &str, value: Sourced, kind: Option<QuantityKind>| {
+    let show = |out: &mut std::io::StdoutLock<'_>,
+                label: &str,
+                value: Sourced,
+                kind: Option<QuantityKind>|
+     -> std::io::Result<()> {
         let text = match kind {
             Some(kind) => format_quantity(value.value, kind, system),
             None => format!("{}", value.value),
         };
-        println!("    {label:<20} {text:<14} {}", value.source);
+        writeln!(out, "    {label:<20} {text:<14} {}", value.source)
     };
-    println!("Web presets (generic grades; approximate — calibrate before trusting):");
+    writeln!(
+        out,
+        "Web presets (generic grades; approximate — calibrate before trusting):"
+    )?;
     for p in presets::web_presets() {
-        println!("\n  {}  — {} [{}]", p.id, p.name, p.material);
-        show("thickness", p.thickness, Some(QuantityKind::Length));
+        writeln!(out, "\n  {}  — {} [{}]", p.id, p.name, p.material)?;
         show(
+            &mut out,
+            "thickness",
+            p.thickness,
+            Some(QuantityKind::Length),
+        )?;
+        show(
+            &mut out,
             "tangential modulus",
             p.tangential_modulus,
             Some(QuantityKind::Stress),
-        );
-        show("Pfeiffer K1", p.k1, Some(QuantityKind::Stress));
-        show("Pfeiffer K2", p.k2, None);
-        show("Poisson ratio", p.poisson_ratio, None);
-        show("friction", p.friction, None);
-        show("roughness (RMS)", p.roughness, Some(QuantityKind::Length));
-        show("strength", p.strength, Some(QuantityKind::ForcePerWidth));
+        )?;
+        show(&mut out, "Pfeiffer K1", p.k1, Some(QuantityKind::Stress))?;
+        show(&mut out, "Pfeiffer K2", p.k2, None)?;
+        show(&mut out, "Poisson ratio", p.poisson_ratio, None)?;
+        show(&mut out, "friction", p.friction, None)?;
         show(
+            &mut out,
+            "roughness (RMS)",
+            p.roughness,
+            Some(QuantityKind::Length),
+        )?;
+        show(
+            &mut out,
+            "strength",
+            p.strength,
+            Some(QuantityKind::ForcePerWidth),
+        )?;
+        show(
+            &mut out,
             "typical tension",
             p.typical_tension,
             Some(QuantityKind::ForcePerWidth),
-        );
+        )?;
     }
-    println!("\nCore presets:");
+    writeln!(out, "\nCore presets:")?;
     for p in presets::core_presets() {
-        println!("\n  {}  — {} [{}]", p.id, p.name, p.material);
+        writeln!(out, "\n  {}  — {} [{}]", p.id, p.name, p.material)?;
         show(
+            &mut out,
             "inside diameter",
             p.inside_diameter,
             Some(QuantityKind::Length),
-        );
+        )?;
         show(
+            &mut out,
             "outside diameter",
             p.outside_diameter,
             Some(QuantityKind::Length),
-        );
-        show("modulus", p.modulus, Some(QuantityKind::Stress));
-        show("Poisson ratio", p.poisson_ratio, None);
+        )?;
+        show(&mut out, "modulus", p.modulus, Some(QuantityKind::Stress))?;
+        show(&mut out, "Poisson ratio", p.poisson_ratio, None)?;
         show(
+            &mut out,
             "crush pressure",
             p.crush_pressure,
             Some(QuantityKind::Stress),
-        );
+        )?;
     }
-    println!(
+    writeln!(
+        out,
         "\nA core with `material: rigid` is infinitely stiff; `stiffness:` gives a measured Ec."
-    );
+    )?;
     Ok(())
 }

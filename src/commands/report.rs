@@ -32,6 +32,9 @@ pub struct ReportArgs {
     /// Print quantities in SI (default) or US trade units: si or us.
     #[arg(long, default_value = "si")]
     pub units: String,
+    /// Skip the predicted effect (what-if re-solve) of each remedy in the list.
+    #[arg(long)]
+    pub no_what_if: bool,
     /// Rule directory to use instead of the shipped rule base.
     #[arg(long)]
     pub rules: Option<PathBuf>,
@@ -86,6 +89,7 @@ pub fn run(args: &ReportArgs) -> anyhow::Result<()> {
         date: args.date.clone(),
         source_file: Some(args.case.display().to_string()),
         units: parse_units(&args.units)?,
+        what_if: !args.no_what_if,
         ..PrepareOptions::default()
     };
     let input = prepare_from_path(&args.case, &rules, &options)

@@ -1,8 +1,380 @@
-//! `rolltriage stress`.
+//! `rolltriage stress`: compute the stress state inside the wound roll of a case file and print
+//! its summary (table) or its full profile (JSON, CSV).
+
+use std::io::{IsTerminal, Write};
+use std::path::PathBuf;
+
+use anyhow::{Context, bail};
+use rolltriage::case::Case;
+use rolltriage::model::{
+    self, ModulusUpdate, Profile, Resolution, SolverOptions, ZoneName, profile::zone_cuts,
+};
+use rolltriage::units::{
+    self, METRES_PER_INCH, NEWTONS_PER_METRE_PER_PLI, PASCALS_PER_PSI, QuantityKind, UnitSystem,
+};
+
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Default, clap::ValueEnum)]
+pub enum Format {
+    /// Summary figures and zone statistics with units.
+    #[default]
+    Table,
+    /// The full profile and summary (SI units, field names say the unit).
+    Json,
+    /// One row per node, units in the header.
+    Csv,
+}
+
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Default, clap::ValueEnum)]
+pub enum Units {
+    /// SI (m, mm, kPa, N/m).
+    #[default]
+    Si,
+    /// US trade units (in, psi, pli).
+    Us,
+}
+
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Default, clap::ValueEnum)]
+pub enum ModulusChoice {
+    /// Radial modulus at the pressure before each increment (Hakiel's original scheme).
+    Explicit,
+    /// Tangent modulus at the mid-increment pressure, iterated to convergence.
+    Iterated,
+    /// Secant modulus over each increment, iterated to convergence (exact for the law).
+    #[default]
+    Secant,
+}
 
 #[derive(Debug, clap::Args)]
-pub struct StressArgs {}
+pub struct StressArgs {
+    /// Case file (YAML).
+    pub case: PathBuf,
+    /// Output format.
+    #[arg(long, value_enum, default_value_t = Format::Table)]
+    pub format: Format,
+    /// Units for the table and CSV output.
+    #[arg(long, value_enum, default_value_t = Units::Si)]
+    pub units: Units,
+    /// Write the output to FILE (saved atomically) instead of standard output.
+    #[arg(long, value_name = "FILE")]
+    pub out: Option<PathBuf>,
+    /// auto, per-layer, or grouped:K (K wraps per element).
+    #[arg(long, value_name = "MODE", default_value = "auto")]
+    pub resolution: String,
+    /// How the radial modulus is taken over each increment.
+    #[arg(long, value_enum, default_value_t = ModulusChoice::Secant)]
+    pub modulus: ModulusChoice,
+    /// For CSV/JSON: at most N nodes (evenly spaced plus key points); 0 = every node.
+    #[arg(long, value_name = "N", default_value_t = 0)]
+    pub max_points: usize,
+}
 
-pub fn run(_args: &StressArgs) -> anyhow::Result<()> {
-    anyhow::bail!("`rolltriage stress` is not available yet")
+/// Parse `--resolution`.
+pub fn parse_resolution(text: &str) -> anyhow::Result<Resolution> {
+    let t = text.trim().to_ascii_lowercase();
+    match t.as_str() {
+        "auto" => Ok(Resolution::Auto),
+        "per-layer" | "per_layer" | "layer" => Ok(Resolution::PerLayer),
+        _ => {
+            if let Some(k) = t
+                .strip_prefix("grouped:")
+                .or_else(|| t.strip_prefix("grouped="))
+                && let Ok(layers) = k.trim().parse::<usize>()
+                && layers >= 1
+            {
+                return Ok(Resolution::Grouped { layers });
+            }
+            bail!(
+                "--resolution {text}: accepted: auto, per-layer, grouped:K with K ≥ 1 wraps per \
+                 element"
+            )
+        }
+    }
+}
+
+pub fn run(args: &StressArgs) -> anyhow::Result<()> {
+    let resolution = parse_resolution(&args.resolution)?;
+    let case =
+        Case::load(&args.case).with_context(|| format!("reading {}", args.case.display()))?;
+    let resolved = case
+        .resolve()
+        .with_context(|| format!("resolving {}", args.case.display()))?;
+    let options = SolverOptions {
+        resolution,
+        modulus_update: match args.modulus {
+            ModulusChoice::Explicit => ModulusUpdate::Explicit,
+            ModulusChoice::Iterated => ModulusUpdate::Iterated,
+            ModulusChoice::Secant => ModulusUpdate::Secant,
+        },
+    };
+    let problem = resolved.problem(options);
+    let profile = solve_showing_progress(&problem)
+        .with_context(|| format!("solving the roll of {}", args.case.display()))?;
+    let system = match args.units {
+        Units::Si => UnitSystem::Si,
+        Units::Us => UnitSystem::Us,
+    };
+    let shown = if args.max_points > 0 {
+        profile.downsampled(args.max_points)
+    } else {
+        profile.clone()
+    };
+    let text = match args.format {
+        Format::Table => {
+            let mut t = summary_table(&resolved.title, &problem, &profile, system);
+            if !resolved.assumed.is_empty() {
+                t.push_str("\nAssumed (not in the case file):\n");
+                for a in &resolved.assumed {
+                    t.push_str(&format!("  {} = {}  ({})\n", a.field, a.value, a.source));
+                }
+            }
+            t
+        }
+        Format::Json => {
+            let value = serde_json::json!({
+                "title": resolved.title,
+                "units": "SI: radius m, pressure Pa, tangential_stress Pa, wound_in_tension N/m",
+                "profile": shown,
+            });
+            serde_json::to_string_pretty(&value)? + "\n"
+        }
+        Format::Csv => profile_csv(&shown, system)?,
+    };
+    match &args.out {
+        Some(path) => rolltriage::fsutil::save_atomic(path, text.as_bytes())
+            .with_context(|| format!("saving {}", path.display()))?,
+        None => {
+            let mut out = std::io::stdout().lock();
+            out.write_all(text.as_bytes())?;
+        }
+    }
+    Ok(())
+}
+
+/// Solve with an indicatif progress bar on stderr when stderr is a terminal.
+fn solve_showing_progress(problem: &model::WindingProblem) -> Result<Profile, model::ModelError> {
+    if !std::io::stderr().is_terminal() {
+        return model::solve(problem);
+    }
+    let bar = indicatif::ProgressBar::new(1000);
+    bar.set_style(
+        indicatif::ProgressStyle::with_template("solving {bar:40} {percent:>3}% {elapsed}")
+            .unwrap_or_else(|_| indicatif::ProgressStyle::default_bar()),
+    );
+    // Only show the bar for solves that take a noticeable time.
+    bar.set_draw_target(indicatif::ProgressDrawTarget::hidden());
+    let started = std::time::Instant::now();
+    let mut shown = false;
+    let result = model::solve_with_progress(problem, &mut |fraction| {
+        if !shown && started.elapsed().as_millis() > 300 {
+            bar.set_draw_target(indicatif::ProgressDrawTarget::stderr());
+            shown = true;
+        }
+        bar.set_position((fraction.clamp(0.0, 1.0) * 1000.0) as u64);
+        true
+    });
+    bar.finish_and_clear();
+    result
+}
+
+fn stress(value: f64, system: UnitSystem) -> String {
+    units::format_quantity(value, QuantityKind::Stress, system)
+}
+
+fn length(value: f64, system: UnitSystem) -> String {
+    units::format_quantity(value, QuantityKind::Length, system)
+}
+
+fn diameter_at(value: f64, system: UnitSystem) -> String {
+    format!("⌀ {}", length(2.0 * value, system))
+}
+
+/// The summary table printed by default.
+pub fn summary_table(
+    title: &str,
+    problem: &model::WindingProblem,
+    profile: &Profile,
+    system: UnitSystem,
+) -> String {
+    let s = &profile.summary;
+    let mut t = String::new();
+    t.push_str(&format!("Wound-roll stresses: {title}\n\n"));
+    let resolution = if s.layers_per_element <= 1 {
+        "per layer".to_string()
+    } else {
+        format!("grouped, {} wraps per element", s.layers_per_element)
+    };
+    let rows: Vec<(&str, String)> = vec![
+        (
+            "Wraps",
+            format!(
+                "{} ({resolution}, {} nodes)",
+                s.physical_layers,
+                profile.radius.len()
+            ),
+        ),
+        (
+            "Build",
+            format!(
+                "{} to {}",
+                diameter_at(problem.core_radius, system),
+                diameter_at(problem.outer_radius, system)
+            ),
+        ),
+        ("Pressure on the core", stress(s.core_pressure, system)),
+        (
+            "Peak pressure",
+            format!(
+                "{} at {}",
+                stress(s.peak_pressure, system),
+                diameter_at(s.peak_pressure_radius, system)
+            ),
+        ),
+        (
+            "Most compressive tangential stress",
+            format!(
+                "{} at {}",
+                stress(s.min_tangential_stress, system),
+                diameter_at(s.min_tangential_radius, system)
+            ),
+        ),
+        (
+            "Radial strain at the core",
+            format!("{:.2} %", 100.0 * s.core_radial_strain),
+        ),
+        (
+            "Compressive, low-pressure band",
+            match s.compressive_low_pressure_band {
+                Some(b) => format!(
+                    "{:.1} % of the build ({:.0} wraps) from {} to {}",
+                    100.0 * b.fraction_of_build,
+                    b.wraps,
+                    diameter_at(b.inner_radius, system),
+                    diameter_at(b.outer_radius, system)
+                ),
+                None => "none".into(),
+            },
+        ),
+        (
+            "Outer zones below 25 % of peak pressure",
+            format!("{:.0} %", 100.0 * s.outer_low_pressure_share),
+        ),
+    ];
+    let mut rows = rows;
+    if let Some(change) = s.group_halving_change {
+        rows.push((
+            "Core pressure change, elements halved",
+            format!("{:.2} % (check: below 1 %)", 100.0 * change),
+        ));
+    }
+    if let Some((start, end)) = profile.air_film {
+        rows.push((
+            "Entrained air film (Knox & Sweeney)",
+            format!(
+                "{} at the core, {} at the outside ({:.2} / {:.2} × roughness){}",
+                length(start.thickness, system),
+                length(end.thickness, system),
+                start.ratio_to_roughness,
+                end.ratio_to_roughness,
+                if start.suppressed_by_nip {
+                    ", suppressed by the nip"
+                } else {
+                    ""
+                }
+            ),
+        ));
+    }
+    let width = rows
+        .iter()
+        .map(|(k, _)| k.chars().count())
+        .max()
+        .unwrap_or(0);
+    for (k, v) in rows {
+        t.push_str(&format!("  {k:<width$}  {v}\n"));
+    }
+    t.push_str(&format!(
+        "\nZones (build fractions: core < {:.0} %, inner < {:.0} %, middle < {:.0} %, outer, \
+         surface = outermost tensile wraps)\n",
+        100.0 * zone_cuts::CORE_END,
+        100.0 * zone_cuts::INNER_END,
+        100.0 * zone_cuts::MIDDLE_END
+    ));
+    t.push_str(&format!(
+        "  {:<8} {:>24}  {:>14} {:>14} {:>14}  {:>14}\n",
+        "zone", "diameters", "min pressure", "mean pressure", "max pressure", "min σθ"
+    ));
+    for name in ZoneName::ALL {
+        let (Some(z), Some(p)) = (profile.zone(name), profile.zone_pressure(name)) else {
+            continue;
+        };
+        let min_t = profile
+            .zone_tangential_stress(name)
+            .map(|x| stress(x.min, system))
+            .unwrap_or_default();
+        let span = format!(
+            "{}–{}",
+            units::format_quantity(2.0 * z.inner_radius, QuantityKind::Length, system),
+            units::format_quantity(2.0 * z.outer_radius, QuantityKind::Length, system)
+        );
+        t.push_str(&format!(
+            "  {:<8} {:>24}  {:>14} {:>14} {:>14}  {:>14}\n",
+            name.as_str(),
+            span,
+            stress(p.min, system),
+            stress(p.mean, system),
+            stress(p.max, system),
+            min_t
+        ));
+    }
+    if !profile.warnings.is_empty() {
+        t.push_str("\nWarnings:\n");
+        for w in &profile.warnings {
+            t.push_str(&format!("  - {w}\n"));
+        }
+    }
+    t
+}
+
+/// The full profile as CSV, one row per node.
+pub fn profile_csv(profile: &Profile, system: UnitSystem) -> anyhow::Result<String> {
+    let (radius_unit, radius_scale, stress_unit, stress_scale, tension_unit, tension_scale) =
+        match system {
+            UnitSystem::Si => ("mm", 1e3, "kPa", 1e-3, "N/m", 1.0),
+            UnitSystem::Us => (
+                "in",
+                1.0 / METRES_PER_INCH,
+                "psi",
+                1.0 / PASCALS_PER_PSI,
+                "pli",
+                1.0 / NEWTONS_PER_METRE_PER_PLI,
+            ),
+        };
+    let mut writer = csv::Writer::from_writer(Vec::new());
+    writer.write_record([
+        format!("radius_{radius_unit}"),
+        "build_fraction".into(),
+        "zone".into(),
+        format!("pressure_{stress_unit}"),
+        format!("tangential_stress_{stress_unit}"),
+        "radial_strain".into(),
+        format!("wound_in_tension_{tension_unit}"),
+    ])?;
+    for i in 0..profile.radius.len() {
+        let zone = profile
+            .zones
+            .iter()
+            .find(|z| i >= z.start && i < z.end)
+            .map(|z| z.name.as_str())
+            .unwrap_or("");
+        writer.write_record([
+            format!("{:.6}", profile.radius[i] * radius_scale),
+            format!("{:.6}", profile.build_fraction(i)),
+            zone.to_string(),
+            format!("{:.6e}", profile.pressure[i] * stress_scale),
+            format!("{:.6e}", profile.tangential_stress[i] * stress_scale),
+            format!("{:.6e}", profile.radial_strain[i]),
+            format!("{:.6e}", profile.wound_in_tension[i] * tension_scale),
+        ])?;
+    }
+    let bytes = writer.into_inner().context("finishing the CSV output")?;
+    Ok(String::from_utf8(bytes)?)
 }

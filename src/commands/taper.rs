@@ -36,7 +36,8 @@ pub struct TaperArgs {
     /// Units to print in (both are always shown in the operator table).
     #[arg(long, value_enum, default_value_t = UnitsArg::Si)]
     pub units: UnitsArg,
-    /// Print the design as JSON (schedule, checks, table, explanation; no profiles).
+    /// Print the design as JSON (schedule, checks, table, explanation, before/after profiles
+    /// thinned to 200 points for plots).
     #[arg(long)]
     pub json: bool,
 }
@@ -105,6 +106,8 @@ pub fn run(args: &TaperArgs) -> anyhow::Result<()> {
             "table": design.table,
             "explanation": design.explanation,
             "solves": design.solves,
+            "before_profile": plot_series(&design.before.profile),
+            "after_profile": plot_series(&design.after.profile),
         });
         println!("{}", serde_json::to_string_pretty(&value)?);
     } else {
@@ -116,6 +119,18 @@ pub fn run(args: &TaperArgs) -> anyhow::Result<()> {
         );
     }
     Ok(())
+}
+
+/// A profile thinned to at most 200 points for plots: radius (m), pressure and tangential
+/// stress (Pa), wound-in tension (N/m).
+fn plot_series(profile: &rolltriage::model::Profile) -> serde_json::Value {
+    let p = profile.downsampled(200);
+    serde_json::json!({
+        "radius_m": p.radius,
+        "pressure_pa": p.pressure,
+        "tangential_stress_pa": p.tangential_stress,
+        "wound_in_tension_n_per_m": p.wound_in_tension,
+    })
 }
 
 fn quantity(value: f64, kind: QuantityKind, system: UnitSystem) -> String {

@@ -56,6 +56,20 @@ fn available(args: &TrainArgs) -> anyhow::Result<Vec<LoadedWalkthrough>> {
 }
 
 pub fn run(args: &TrainArgs) -> anyhow::Result<()> {
+    match run_inner(args) {
+        // The reader closed the pipe (e.g. `| head`): not an error of ours.
+        Err(error)
+            if error
+                .downcast_ref::<std::io::Error>()
+                .is_some_and(|e| e.kind() == std::io::ErrorKind::BrokenPipe) =>
+        {
+            Ok(())
+        }
+        other => other,
+    }
+}
+
+fn run_inner(args: &TrainArgs) -> anyhow::Result<()> {
     if let Some(dir) = &args.lint {
         let problems = lint_dir(dir).with_context(|| format!("linting {}", dir.display()))?;
         if problems.is_empty() {

@@ -43,15 +43,24 @@ pub const SKIP_THRESHOLD: f64 = 1e-13;
 
 /// Convergence tolerance of the iterated and secant modulus updates, relative to the
 /// increment's outer load.
-pub const MODULUS_TOLERANCE: f64 = 1e-10;
+pub const MODULUS_TOLERANCE: f64 = 1e-7;
 
 /// Iteration cap of the modulus update of one increment.
 pub const MAX_MODULUS_ITERATIONS: usize = 60;
 
-/// In grouped resolution, each sub-increment is kept small enough that the pressure it adds at
-/// the outer node is at most this share of the stiffness scale there (K1 + P for Pfeiffer).
-/// See docs/theory.md ("Grouped resolution").
-pub const GROUPED_STEP_SHARE: f64 = 0.25;
+/// In grouped resolution the outermost wraps are kept at one node per wrap over this many decay
+/// lengths λ = r/√(Eθ/Er) of an increment (at the surface pressure), so the steep part of each
+/// increment is resolved; deeper wraps are merged into elements. See docs/theory.md.
+pub const WINDOW_DECAY_LENGTHS: f64 = 3.0;
+
+/// In grouped resolution consecutive wraps are laid as one increment in batches of about this
+/// share of the surface decay length (at least one wrap); the wraps inside a batch take the
+/// hoop-equilibrium pressure of the wraps above them in the batch.
+pub const BATCH_DECAY_SHARE: f64 = 0.05;
+
+/// Bounds of the per-wrap window of grouped resolution (wraps).
+pub const WINDOW_MIN: usize = 24;
+pub const WINDOW_MAX: usize = 1500;
 
 /// Solve the finished-roll stress state.
 pub fn solve(problem: &WindingProblem) -> Result<Profile, ModelError> {
@@ -187,70 +196,153 @@ fn validate(problem: &WindingProblem) -> Result<(), ModelError> {
     Ok(())
 }
 
-/// The grid and running state of one solve.
-struct Solver<'a> {
+/// The grid and running state of one solve. Nodes are kept in radial order; node 0 is the core
+/// surface. In grouped resolution the outermost `window` nodes are one per wrap and older wraps
+/// that are not element boundaries are dropped now and then (compaction).
+struct Solver {
     law: RadialStiffness,
     update: ModulusUpdate,
     tangential_modulus: f64,
-    spacing: f64,
     core_coefficient: f64,
     radius: Vec<f64>,
-    /// Normalised lower coefficient ā = a/c.
+    /// True for nodes kept for good (element boundaries).
+    permanent: Vec<bool>,
+    /// Negated normalised lower coefficient −A/C of each row.
     lower: Vec<f64>,
-    /// b̄ = beta − gamma·g with g = Eθ/Er.
+    /// Normalised diagonal (B − g)/C = beta − gamma·g with g = Eθ/Er.
     beta: Vec<f64>,
     gamma: Vec<f64>,
+    /// First-derivative stencil (x[i−1], x[i], x[i+1]) of each node.
+    derivative: Vec<[f64; 3]>,
     pressure: Vec<f64>,
     tangential: Vec<f64>,
-    /// Shooting values, then the increment δσr of the current increment.
+    wound_in: Vec<f64>,
+    /// Negated normalised diagonal of the current solve.
+    diagonal: Vec<f64>,
+    /// The increment δσr of the current solve.
     shot: Vec<f64>,
-    /// Previous increment (guess for the next one).
+    /// Trial increment the moduli are evaluated with (iterated and secant updates).
     guess: Vec<f64>,
     /// First node included in the increments (nodes below are skipped).
     low: usize,
     previous_load: f64,
+    previous_top: usize,
     iterations: usize,
     increments: usize,
-    _marker: std::marker::PhantomData<&'a ()>,
 }
 
-impl Solver<'_> {
-    fn new(problem: &WindingProblem, nodes: usize, spacing: f64) -> Self {
-        let mut radius = Vec::with_capacity(nodes);
-        let mut lower = Vec::with_capacity(nodes);
-        let mut beta = Vec::with_capacity(nodes);
-        let mut gamma = Vec::with_capacity(nodes);
-        let h2 = spacing * spacing;
-        for i in 0..nodes {
-            let r = problem.core_radius + i as f64 * spacing;
-            let upper = r * r + 1.5 * r * spacing;
-            radius.push(r);
-            lower.push((r * r - 1.5 * r * spacing) / upper);
-            beta.push((-2.0 * r * r + h2) / upper);
-            gamma.push(h2 / upper);
-        }
+impl Solver {
+    fn new(problem: &WindingProblem, capacity: usize) -> Self {
+        let v = || Vec::with_capacity(capacity);
         Solver {
             law: problem.radial_stiffness,
             update: problem.options.modulus_update,
             tangential_modulus: problem.tangential_modulus,
-            spacing,
             core_coefficient: problem
                 .core
                 .boundary_coefficient(problem.tangential_modulus, problem.poisson_ratio),
-            radius,
-            lower,
-            beta,
-            gamma,
-            pressure: vec![0.0; nodes],
-            tangential: vec![0.0; nodes],
-            shot: vec![0.0; nodes],
-            guess: vec![0.0; nodes],
+            radius: v(),
+            permanent: Vec::with_capacity(capacity),
+            lower: v(),
+            beta: v(),
+            gamma: v(),
+            derivative: Vec::with_capacity(capacity),
+            pressure: v(),
+            tangential: v(),
+            wound_in: v(),
+            diagonal: v(),
+            shot: v(),
+            guess: v(),
             low: 0,
             previous_load: 0.0,
+            previous_top: 0,
             iterations: 0,
             increments: 0,
-            _marker: std::marker::PhantomData,
         }
+    }
+
+    fn len(&self) -> usize {
+        self.radius.len()
+    }
+
+    /// Add a wrap node at the outside (it becomes the loaded top).
+    fn push(&mut self, radius: f64, wound_in: f64, stress: f64, permanent: bool) {
+        self.radius.push(radius);
+        self.permanent.push(permanent);
+        self.lower.push(0.0);
+        self.beta.push(0.0);
+        self.gamma.push(0.0);
+        self.derivative.push([0.0; 3]);
+        self.pressure.push(0.0);
+        self.tangential.push(stress);
+        self.wound_in.push(wound_in);
+        self.diagonal.push(0.0);
+        self.shot.push(0.0);
+        self.guess.push(0.0);
+        let n = self.len();
+        if n >= 3 {
+            self.set_row(n - 2);
+        }
+    }
+
+    /// Finite-difference row of node `i` (0 < i < len−1) on the non-uniform grid.
+    fn set_row(&mut self, i: usize) {
+        let r = self.radius[i];
+        let hm = r - self.radius[i - 1];
+        let hp = self.radius[i + 1] - r;
+        let sum = hm + hp;
+        let (m2, c2, p2) = (2.0 / (sum * hm), -2.0 / (hm * hp), 2.0 / (sum * hp));
+        let (m1, c1, p1) = (-hp / (hm * sum), (hp - hm) / (hm * hp), hm / (hp * sum));
+        let a = r * r * m2 + 3.0 * r * m1;
+        let b = r * r * c2 + 3.0 * r * c1 + 1.0;
+        let c = r * r * p2 + 3.0 * r * p1;
+        self.lower[i] = -a / c;
+        self.beta[i] = b / c;
+        self.gamma[i] = 1.0 / c;
+        self.derivative[i] = [m1, c1, p1];
+    }
+
+    /// Drop non-permanent nodes in `from..to` (wraps that left the per-wrap window).
+    fn compact(&mut self, from: usize, to: usize) {
+        let from = from.max(1);
+        if to <= from {
+            return;
+        }
+        let mut write = from;
+        for read in from..self.len() {
+            if read >= to || self.permanent[read] {
+                if write != read {
+                    self.radius[write] = self.radius[read];
+                    self.permanent[write] = self.permanent[read];
+                    self.pressure[write] = self.pressure[read];
+                    self.tangential[write] = self.tangential[read];
+                    self.wound_in[write] = self.wound_in[read];
+                    self.shot[write] = self.shot[read];
+                }
+                write += 1;
+            }
+        }
+        let n = write;
+        for v in [
+            &mut self.radius,
+            &mut self.pressure,
+            &mut self.tangential,
+            &mut self.wound_in,
+            &mut self.shot,
+            &mut self.lower,
+            &mut self.beta,
+            &mut self.gamma,
+            &mut self.diagonal,
+            &mut self.guess,
+        ] {
+            v.truncate(n);
+        }
+        self.permanent.truncate(n);
+        self.derivative.truncate(n);
+        for i in (from - 1).max(1)..n.saturating_sub(1) {
+            self.set_row(i);
+        }
+        self.low = self.low.min(from - 1);
     }
 
     /// Eθ/Er at node `i` for a trial increment `trial` (δσr, negative in compression).
@@ -265,6 +357,67 @@ impl Solver<'_> {
         self.tangential_modulus / er
     }
 
+    /// Negated normalised diagonal of rows `from..to`, specialised per stiffness law and
+    /// modulus update so the loops stay tight (they are the bulk of the work besides the chain).
+    fn fill_diagonal(&mut self, from: usize, to: usize) {
+        let et = self.tangential_modulus;
+        let pressure = &self.pressure[from..to];
+        let guess = &self.guess[from..to];
+        let beta = &self.beta[from..to];
+        let gamma = &self.gamma[from..to];
+        let out = &mut self.diagonal[from..to];
+        match (self.law, self.update) {
+            (RadialStiffness::Pfeiffer { k1, k2 }, ModulusUpdate::Explicit) => {
+                let scale = et / k2;
+                for i in 0..out.len() {
+                    out[i] = gamma[i] * scale / (pressure[i].max(0.0) + k1) - beta[i];
+                }
+            }
+            (RadialStiffness::Pfeiffer { k1, k2 }, ModulusUpdate::Iterated) => {
+                let scale = et / k2;
+                for i in 0..out.len() {
+                    let mid = (pressure[i] - 0.5 * guess[i]).max(0.0);
+                    out[i] = gamma[i] * scale / (mid + k1) - beta[i];
+                }
+            }
+            (RadialStiffness::Pfeiffer { k1, k2 }, ModulusUpdate::Secant) => {
+                // Er_sec = K2·ΔP/ln(1 + x), x = ΔP/(K1 + P) ⇒ g = (Eθ/K2)/(K1+P) · ln(1+x)/x.
+                let scale = et / k2;
+                let mut large = false;
+                for i in 0..out.len() {
+                    let base = pressure[i].max(0.0) + k1;
+                    let x = -guess[i] / base;
+                    large |= x.abs() >= 1e-2;
+                    // ln(1+x)/x = 1 − x/2 + x²/3 − x³/4 + x⁴/5 (error < x⁵/6 ≈ 2e-11 here).
+                    let factor = 1.0 - x * (0.5 - x * (1.0 / 3.0 - x * (0.25 - x * 0.2)));
+                    out[i] = gamma[i] * scale * factor / base - beta[i];
+                }
+                if large {
+                    // The few nodes near the top with a large relative step: exact logarithm.
+                    for i in 0..out.len() {
+                        let base = pressure[i].max(0.0) + k1;
+                        let x = -guess[i] / base;
+                        if x.abs() >= 1e-2 {
+                            out[i] = gamma[i] * scale * (x.ln_1p() / x) / base - beta[i];
+                        }
+                    }
+                }
+            }
+            (RadialStiffness::Constant { modulus }, _) => {
+                let g = et / modulus;
+                for i in 0..out.len() {
+                    out[i] = gamma[i] * g - beta[i];
+                }
+            }
+            _ => {
+                for i in from..to {
+                    let g = self.stiffness_ratio(i, self.guess[i]);
+                    self.diagonal[i] = self.gamma[i] * g - self.beta[i];
+                }
+            }
+        }
+    }
+
     /// Shoot from `low` to `top` with the moduli from `self.guess`; leaves δσr in `self.shot`
     /// scaled so that the top node carries `-load`.
     fn shoot(&mut self, top: usize, load: f64) {
@@ -274,10 +427,9 @@ impl Solver<'_> {
             return;
         }
         let mut zero_below = low;
-        // Start values.
         if low == 0 {
             let r0 = self.radius[0];
-            let h = self.spacing;
+            let h = self.radius[1] - r0;
             let c = self.core_coefficient;
             let g0 = self.stiffness_ratio(0, self.guess[0]);
             self.shot[0] = 1.0;
@@ -288,30 +440,46 @@ impl Solver<'_> {
             // the skip threshold.
             let g = self.stiffness_ratio(low, self.guess[low]);
             self.shot[low] = 1.0;
-            self.shot[low + 1] = -(self.beta[low] - self.gamma[low] * g);
+            self.shot[low + 1] = self.gamma[low] * g - self.beta[low];
         }
-        // Diagonal coefficients first (independent, vectorisable), then the serial chain.
-        // `guess` is overwritten with b̄ for the chain (restored by the caller's next guess).
-        for i in (low + 1)..top {
-            let g = self.stiffness_ratio(i, self.guess[i]);
-            self.guess[i] = self.beta[i] - self.gamma[i] * g;
-        }
+        self.fill_diagonal(low + 1, top);
+        // The serial chain x[i+1] = −ā·x[i−1] − b̄·x[i], advanced two nodes at a time: both new
+        // values are combinations of the two previous ones with coefficients computed off the
+        // dependency path, so the path carries one multiply-add per two nodes.
         let mut previous = self.shot[low];
         let mut current = self.shot[low + 1];
-        let mut i = low + 1;
-        while i < top {
-            let next = -(self.lower[i] * previous + self.guess[i] * current);
-            previous = current;
-            current = next;
-            i += 1;
-            self.shot[i] = next;
-            if i % 64 == 0 && next.abs() > 1e150 {
+        let mut block = low + 1;
+        while block < top {
+            let block_end = (block + 64).min(top);
+            let lower = &self.lower[block..block_end];
+            let diagonal = &self.diagonal[block..block_end];
+            let out = &mut self.shot[block + 1..block_end + 1];
+            let pairs = out.len() / 2;
+            for k in 0..pairs {
+                let (q0, p0) = (lower[2 * k], diagonal[2 * k]);
+                let (q1, p1) = (lower[2 * k + 1], diagonal[2 * k + 1]);
+                let first = q0 * previous + p0 * current;
+                let second = (q1 + p1 * p0) * current + (p1 * q0) * previous;
+                out[2 * k] = first;
+                out[2 * k + 1] = second;
+                previous = first;
+                current = second;
+            }
+            if out.len() % 2 == 1 {
+                let k = out.len() - 1;
+                let next = lower[k] * previous + diagonal[k] * current;
+                previous = current;
+                current = next;
+                out[k] = next;
+            }
+            block = block_end;
+            if current.abs() > 1e150 {
                 // Rescale; everything below is negligible against the top.
                 previous *= 1e-150;
                 current *= 1e-150;
-                self.shot[i - 1] = previous;
-                self.shot[i] = current;
-                zero_below = i - 1;
+                self.shot[block - 1] = previous;
+                self.shot[block] = current;
+                zero_below = block - 1;
             }
         }
         let scale = -load / self.shot[top];
@@ -323,103 +491,86 @@ impl Solver<'_> {
         }
     }
 
-    /// One increment: `load` (Pa, = ΣT/s) applied at node `top`. `fresh_top` is true when the
-    /// top node was just created (its own wrap is part of this increment).
-    fn increment(&mut self, top: usize, load: f64, fresh_top: bool) -> Result<(), ModelError> {
+    /// One increment: `load` (Pa, = ΣT/s) applied at node `top` (nodes above it are inert).
+    fn increment(&mut self, top: usize, load: f64) -> Result<(), ModelError> {
         self.increments += 1;
-        // Initial guess from the previous increment, shifted when the top moved.
-        let ratio = if self.previous_load > 0.0 {
-            load / self.previous_load
-        } else {
-            0.0
-        };
-        let low = self.low;
-        if fresh_top && top > 0 {
-            // self.shot holds the previous increment on [low, top-1].
-            for i in (low.max(1)..top).rev() {
-                self.guess[i] = self.shot[i - 1] * ratio;
-            }
-            if low == 0 {
-                self.guess[0] = self.shot[0] * ratio;
-            }
-        } else {
-            for i in low..top {
-                self.guess[i] = self.shot[i] * ratio;
-            }
-        }
-        self.guess[top] = -load;
-        self.previous_load = load;
-
+        let shift = top.saturating_sub(self.previous_top).max(1);
+        self.previous_top = top;
+        let low = self.low.min(top);
+        self.low = low;
         let explicit = matches!(self.update, ModulusUpdate::Explicit)
             || matches!(self.law, RadialStiffness::Constant { .. });
-        let mut trial: Vec<f64> = Vec::new();
-        let mut converged = explicit;
+        if !explicit {
+            // Initial guess: the previous increment shifted outward with the top, scaled by load.
+            let ratio = if self.previous_load > 0.0 {
+                load / self.previous_load
+            } else {
+                0.0
+            };
+            for i in (low..top).rev() {
+                self.guess[i] = if i >= shift {
+                    self.shot[i - shift] * ratio
+                } else {
+                    0.0
+                };
+            }
+            self.guess[top] = -load;
+        }
+        self.previous_load = load;
         let mut iteration = 0;
         loop {
             iteration += 1;
-            if !explicit {
-                trial.clear();
-                trial.extend_from_slice(&self.guess[low..=top]);
-            }
             self.shoot(top, load);
             self.iterations += 1;
             if explicit {
                 break;
             }
-            let mut worst: f64 = 0.0;
-            for (k, i) in (low..=top).enumerate() {
-                worst = worst.max((self.shot[i] - trial[k]).abs());
-            }
+            let worst = self.shot[low..=top]
+                .iter()
+                .zip(&self.guess[low..=top])
+                .fold(0.0f64, |w, (a, b)| w.max((a - b).abs()));
             if worst <= MODULUS_TOLERANCE * load {
-                converged = true;
                 break;
             }
             if iteration >= MAX_MODULUS_ITERATIONS {
-                break;
+                return Err(ModelError::NotConverged(format!(
+                    "the modulus update did not settle within {MAX_MODULUS_ITERATIONS} \
+                     iterations at wrap {}; try the explicit modulus update",
+                    self.increments
+                )));
             }
-            self.guess[low..=top].copy_from_slice(&self.shot[low..=top]);
+            std::mem::swap(&mut self.shot, &mut self.guess);
         }
-        if !converged {
-            return Err(ModelError::NotConverged(format!(
-                "the modulus update did not settle within {MAX_MODULUS_ITERATIONS} iterations \
-                 at node {top}; try the explicit modulus update"
-            )));
-        }
-        self.accumulate(top, fresh_top);
+        self.accumulate(top);
         self.advance_skip(top, load);
         Ok(())
     }
 
-    /// Add the increment in `self.shot` to pressure and tangential stress.
-    fn accumulate(&mut self, top: usize, fresh_top: bool) {
+    /// Add the increment in `self.shot` to pressure and tangential stress (δσθ = δσr + r·δσr').
+    fn accumulate(&mut self, top: usize) {
         let low = self.low;
-        let h2 = 2.0 * self.spacing;
-        for i in low..=top {
-            self.pressure[i] -= self.shot[i];
+        for (p, d) in self.pressure[low..=top]
+            .iter_mut()
+            .zip(&self.shot[low..=top])
+        {
+            *p -= d;
         }
-        for i in low..top {
+        let mut start = low;
+        if low == 0 && top > 0 {
+            // Core condition r·δσr' = c·δσr.
+            self.tangential[0] += (1.0 + self.core_coefficient) * self.shot[0];
+            start = 1;
+        } else if low > 0 && low < top {
+            let d = self.shot[low];
+            let [_, c1, p1] = self.derivative[low];
+            self.tangential[low] += d + self.radius[low] * (c1 * d + p1 * self.shot[low + 1]);
+            start = low + 1;
+        }
+        for i in start..top {
             let d = self.shot[i];
-            let derivative = if i == 0 {
-                // Core condition r·δσr' = c·δσr.
-                self.core_coefficient * d
-            } else {
-                let below = if i == low { 0.0 } else { self.shot[i - 1] };
-                self.radius[i] * (self.shot[i + 1] - below) / h2
-            };
-            self.tangential[i] += d + derivative;
-        }
-        if !fresh_top {
-            // The top node of a grouped element receives the later wraps of its own element:
-            // one-sided second-order derivative (or the core condition on the first node).
-            let d = self.shot[top];
-            let derivative = if top == 0 {
-                self.core_coefficient * d
-            } else if top == 1 || top - 1 < low {
-                self.radius[top] * (d - self.shot[top - 1]) / self.spacing
-            } else {
-                self.radius[top] * (3.0 * d - 4.0 * self.shot[top - 1] + self.shot[top - 2]) / h2
-            };
-            self.tangential[top] += d + derivative;
+            let [m1, c1, p1] = self.derivative[i];
+            self.tangential[i] +=
+                d + self.radius[i] * (m1 * self.shot[i - 1] + c1 * d + p1 * self.shot[i + 1]);
         }
     }
 
@@ -438,7 +589,37 @@ impl Solver<'_> {
     }
 }
 
-/// Run the accretion with `group` layers per element.
+/// Per-wrap window (wraps) for grouped resolution: a few decay lengths of an increment at zero
+/// pressure, λ = r/√(Eθ/Er(0)), taken at the core where it is shortest.
+fn window_layers(problem: &WindingProblem) -> usize {
+    let g = problem.tangential_modulus / problem.radial_stiffness.modulus_at(0.0);
+    let decay = problem.core_radius / g.max(1.0).sqrt();
+    let layers = (WINDOW_DECAY_LENGTHS * decay / problem.thickness).ceil();
+    (layers as usize).clamp(WINDOW_MIN, WINDOW_MAX)
+}
+
+/// Per-wrap window (wraps) for a wrap at `radius` under `pressure`: a few decay lengths
+/// λ = r·√(Er(P)/Eθ).
+/// Never more than needed to reach elements that resolve the surface decay length, i.e. at
+/// most max(λ(0), 2 elements).
+fn window_at(problem: &WindingProblem, radius: f64, pressure: f64, group: usize) -> usize {
+    let g = problem.tangential_modulus / problem.radial_stiffness.modulus_at(pressure);
+    let decay = radius / g.max(1.0).sqrt();
+    let layers = (WINDOW_DECAY_LENGTHS * decay / problem.thickness).ceil() as usize;
+    let cap = (window_layers(problem) / 3).max(2 * group);
+    layers.min(cap).clamp(WINDOW_MIN, WINDOW_MAX)
+}
+
+/// Wraps per increment in grouped resolution (see [`BATCH_DECAY_SHARE`]).
+fn batch_layers(problem: &WindingProblem) -> usize {
+    let g = problem.tangential_modulus / problem.radial_stiffness.modulus_at(0.0);
+    let decay = problem.core_radius / g.max(1.0).sqrt();
+    // Odd, so the batch has a middle wrap.
+    let wraps = (BATCH_DECAY_SHARE * decay / problem.thickness).floor() as usize;
+    (wraps.saturating_sub(1) | 1).max(1)
+}
+
+/// Run the accretion with `group` layers per element (1 = per-layer).
 fn run(
     problem: &WindingProblem,
     layers: usize,
@@ -448,70 +629,81 @@ fn run(
     let h = problem.thickness;
     let rc = problem.core_radius;
     let outer = rc + layers as f64 * h;
-    let elements = layers.div_ceil(group);
-    let spacing = group as f64 * h;
-    // Nodes 0..elements are loaded tops; node `elements` is the outer surface.
-    let mut solver = Solver::new(problem, elements, spacing);
+    let mut window = if group > 1 { window_layers(problem) } else { 0 };
+    let capacity = layers.div_ceil(group) + 2 * window + 2;
+    let mut solver = Solver::new(problem, capacity);
     let winding = &problem.winding;
     let wit = |layer: usize| winding.wound_in_tension(rc + layer as f64 * h, rc, outer);
-    // Pressure change over which Er changes by its own size: K1 + P for Pfeiffer, P/n for the
-    // power law; a linear law never needs sub-increments.
-    let stiff_scale = |p: f64| match problem.radial_stiffness {
-        RadialStiffness::Pfeiffer { k1, .. } => k1 + p,
-        RadialStiffness::PowerLaw { exponent, .. } if exponent > 0.0 => p.max(1.0) / exponent,
-        _ => f64::INFINITY,
-    };
 
-    let mut wound_in = Vec::with_capacity(elements + 1);
-    let total_work = (elements as f64) * (elements as f64 + 1.0) / 2.0;
-    let mut done_work = 0.0;
-    let mut next_report = 0.0;
-    for element in 0..elements {
-        let first = element * group;
-        let last = ((element + 1) * group).min(layers);
-        let t0 = wit(first);
-        wound_in.push(t0);
-        solver.tangential[element] = t0 / h;
-        let mut layer = first;
-        let mut fresh = true;
-        while layer < last {
-            // Batch consecutive wraps into one sub-increment while the pressure they add stays a
-            // small share of the stiffness scale at the top (always one wrap per increment in
-            // per-layer resolution).
-            let mut load = 0.0;
-            let limit = GROUPED_STEP_SHARE * stiff_scale(solver.pressure[element]);
-            let mut end = layer;
-            while end < last {
-                let s = rc + end as f64 * h;
-                let add = wit(end) / s;
-                if end > layer && load + add > limit {
-                    break;
-                }
-                load += add;
-                end += 1;
-            }
-            if load > 0.0 {
-                solver.increment(element, load, fresh)?;
-            }
-            fresh = false;
-            layer = end;
+    // Work is about Σ nodes per increment; report progress by wraps squared (per-layer) or wraps.
+    let mut next_report = 0usize;
+    let report_every = (layers / 200).max(1);
+    let mut compacted_to = 1usize;
+    let batch = if group > 1 {
+        batch_layers(problem).min(group)
+    } else {
+        1
+    };
+    let mut layer = 0;
+    while layer < layers {
+        let end = (layer + batch).min(layers);
+        let first_node = solver.len();
+        let mut load = 0.0;
+        for wrap in layer..end {
+            let s = rc + wrap as f64 * h;
+            let t = wit(wrap);
+            solver.push(s, t, t / h, wrap % group == 0);
+            load += t / s;
         }
-        done_work += element as f64 + 1.0;
-        if done_work >= next_report {
-            next_report += total_work / 200.0;
-            if !progress(done_work / total_work) {
+        // The batch load goes on its middle wrap (midpoint rule over the batch); wraps above
+        // the middle take the hoop-equilibrium pressure of the batch wraps above them.
+        let middle = (end - layer - 1) / 2;
+        if load > 0.0 {
+            solver.increment(first_node + middle, load)?;
+        }
+        let mut above = 0.0;
+        for wrap in ((layer + middle + 1)..end).rev() {
+            above += wit(wrap) / (rc + wrap as f64 * h);
+            solver.pressure[first_node + (wrap - layer)] += above;
+        }
+        layer = end;
+        if group > 1 && solver.len() > compacted_to + window + window / 4 + 1 {
+            // Wraps more than `window` below the top leave the per-wrap window. The window
+            // follows the decay length at the pressure its deepest wrap has reached (Er grows
+            // with pressure, so increments reach deeper as the wraps settle).
+            let bottom = solver.len() - 1 - window;
+            window = window_at(
+                problem,
+                solver.radius[bottom],
+                solver.pressure[bottom],
+                group,
+            );
+            let until = solver.len().saturating_sub(window).max(compacted_to);
+            solver.compact(compacted_to, until);
+            compacted_to = solver.len().saturating_sub(window).max(1);
+        }
+        if layer >= next_report {
+            next_report += report_every;
+            let fraction = if group == 1 {
+                let done = layer as f64;
+                done * done / (layers as f64 * layers as f64)
+            } else {
+                layer as f64 / layers as f64
+            };
+            if !progress(fraction) {
                 return Err(ModelError::Cancelled);
             }
         }
     }
     let last_tension = wit(layers - 1);
-    wound_in.push(last_tension);
     let mut radius = solver.radius;
     radius.push(outer);
     let mut pressure = solver.pressure;
     pressure.push(0.0);
     let mut tangential = solver.tangential;
     tangential.push(last_tension / h);
+    let mut wound_in = solver.wound_in;
+    wound_in.push(last_tension);
     let law = problem.radial_stiffness;
     let strain = pressure.iter().map(|&p| law.strain_at(p)).collect();
 

@@ -161,6 +161,8 @@ pub struct RemedyEntry {
     pub id: String,
     pub text: String,
     pub group: String,
+    /// Cost to try: low, medium, high.
+    pub cost: String,
     pub answers: Vec<String>,
     pub cautions: Vec<String>,
     pub what_if: Option<WhatIf>,
@@ -263,6 +265,7 @@ pub fn build_document(input: &ReportInput) -> Result<ReportDocument, ReportError
             id: remedy.id.clone(),
             text: remedy.text.clone(),
             group: remedy.group.clone(),
+            cost: remedy.cost.clone(),
             answers: remedy.answers.clone(),
             cautions: remedy.cautions.clone(),
             what_if: remedy.what_if.clone(),

@@ -250,9 +250,10 @@ fn write_report(
     for remedy in &doc.remedies {
         write!(
             out,
-            "<li><strong>{}</strong> [{}] — answers {}.",
+            "<li><strong>{}</strong> [{}, cost {}] — answers {}.",
             escape(remedy.text.trim()),
             escape(&remedy.group),
+            escape(&remedy.cost),
             escape(&remedy.answers.join(", "))
         )?;
         if let Some(what_if) = &remedy.what_if {

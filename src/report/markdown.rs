@@ -196,10 +196,11 @@ fn write_report(out: &mut String, doc: &ReportDocument) -> std::fmt::Result {
     for remedy in &doc.remedies {
         writeln!(
             out,
-            "{}. **{}** [{}] — answers {}.",
+            "{}. **{}** [{}, cost {}] — answers {}.",
             remedy.rank,
             remedy.text.trim(),
             remedy.group,
+            remedy.cost,
             remedy.answers.join(", ")
         )?;
         if let Some(what_if) = &remedy.what_if {

@@ -118,7 +118,7 @@ fn curve(profile: &Profile, kind: PlotKind, x: AxisUnit, y: AxisUnit) -> Vec<(f6
         .map(|i| (profile.radius[i] / x.size, data[i] / y.size))
         .filter(|(a, b)| a.is_finite() && b.is_finite())
         .collect();
-    if count > 0 && (count - 1) % step != 0 {
+    if count > 0 && !(count - 1).is_multiple_of(step) {
         let last = count - 1;
         points.push((profile.radius[last] / x.size, data[last] / y.size));
     }
@@ -174,7 +174,8 @@ pub fn stress_svg(
         .fold(f64::NEG_INFINITY, |a, b| a.max(*b))
         / x_unit.size;
     let span = (largest - smallest).max(1.0) / y_unit.size;
-    let y_top = largest / y_unit.size + 0.12 * span;
+    // Head room above the curves for the legend.
+    let y_top = largest / y_unit.size + 0.3 * span;
     let y_bottom = smallest / y_unit.size - 0.05 * span;
     let x_range = if r_max > r_min {
         r_min..r_max
@@ -182,17 +183,19 @@ pub fn stress_svg(
         r_min..r_min + 1.0
     };
 
-    let (title, quantity, label) = match kind {
-        PlotKind::Pressure => ("Interlayer pressure", "Pressure", LABEL_PRESSURE),
-        PlotKind::Tangential => ("Tangential stress", "Tangential stress", LABEL_TANGENTIAL),
+    // No caption inside the SVG: the zone names sit above the plot area and the report's
+    // figure caption names the plot.
+    let (quantity, label) = match kind {
+        PlotKind::Pressure => ("Interlayer pressure", LABEL_PRESSURE),
+        PlotKind::Tangential => ("Tangential stress", LABEL_TANGENTIAL),
     };
     let mut svg = String::new();
     {
         let root = SVGBackend::with_string(&mut svg, PLOT_SIZE).into_drawing_area();
         root.fill(&WHITE).map_err(|e| plot_error(kind, e))?;
         let mut chart = ChartBuilder::on(&root)
-            .caption(title, ("sans-serif", 22))
             .margin(12)
+            .margin_top(26)
             .x_label_area_size(42)
             .y_label_area_size(64)
             .build_cartesian_2d(x_range, y_bottom..y_top)
@@ -208,6 +211,7 @@ pub fn stress_svg(
             .map_err(|e| plot_error(kind, e))?;
 
         draw_zones(&mut chart, &before.zones, x_unit, y_bottom, y_top, kind)?;
+        label_zones(&root, &chart, &before.zones, x_unit, y_top, kind)?;
 
         if kind == PlotKind::Tangential && y_bottom < 0.0 && y_top > 0.0 {
             chart
@@ -258,7 +262,7 @@ pub fn stress_svg(
         }
         chart
             .configure_series_labels()
-            .position(SeriesLabelPosition::UpperRight)
+            .position(SeriesLabelPosition::UpperMiddle)
             .background_style(WHITE.mix(0.85))
             .border_style(BLACK)
             .label_font(("sans-serif", 16))
@@ -296,13 +300,32 @@ fn draw_zones(
                 shade.filled(),
             )))
             .map_err(|e| plot_error(kind, e))?;
-        chart
-            .draw_series(std::iter::once(Text::new(
-                zone.name.as_str().to_string(),
-                (x0, y_top),
-                ("sans-serif", 15).into_font().color(&BLACK),
-            )))
-            .map_err(|e| plot_error(kind, e))?;
+    }
+    Ok(())
+}
+
+/// Zone names just above the plot area (outside it, so neither curves nor legend hide them).
+fn label_zones(
+    root: &DrawingArea<SVGBackend<'_>, plotters::coord::Shift>,
+    chart: &Chart<'_, '_>,
+    zones: &[Zone],
+    x_unit: AxisUnit,
+    y_top: f64,
+    kind: PlotKind,
+) -> Result<(), ReportError> {
+    for zone in zones {
+        let x0 = zone.inner_radius / x_unit.size;
+        let x1 = zone.outer_radius / x_unit.size;
+        if !(x0.is_finite() && x1.is_finite()) || x1 <= x0 {
+            continue;
+        }
+        let (left, top) = chart.backend_coord(&(x0, y_top));
+        root.draw(&Text::new(
+            zone.name.as_str().to_string(),
+            (left + 2, top - 18),
+            ("sans-serif", 15).into_font().color(&BLACK),
+        ))
+        .map_err(|e| plot_error(kind, e))?;
     }
     Ok(())
 }

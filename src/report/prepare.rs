@@ -3,8 +3,10 @@
 
 use super::{RemedyComparison, ReportError, ReportInput, ReportMeta};
 use crate::case::{Case, ResolvedCase};
+use crate::diagnose::remedies::apply_changes;
+use crate::diagnose::rules::SettingChange;
 use crate::diagnose::{DiagnoseOptions, diagnose, rules::RuleBase};
-use crate::model::{CoreStiffness, SolverOptions, Taper, solve};
+use crate::model::{SolverOptions, Taper, solve};
 use crate::units::{QuantityKind, UnitSystem, format_quantity};
 
 /// Options of [`prepare`].
@@ -18,6 +20,8 @@ pub struct PrepareOptions {
     pub source_file: Option<String>,
     pub units: UnitSystem,
     pub solver: SolverOptions,
+    /// Re-solve every setting-changing remedy for its predicted effect (the diagnosis' what-if).
+    pub what_if: bool,
 }
 
 /// Read a case file and prepare its report.
@@ -48,7 +52,7 @@ pub fn prepare(
         &profile,
         &DiagnoseOptions {
             top: 0,
-            what_if: true,
+            what_if: options.what_if,
             solver: options.solver,
             ..DiagnoseOptions::default()
         },
@@ -58,7 +62,7 @@ pub fn prepare(
         Some(id) => {
             let listed = diagnosis.remedies.iter().find(|r| &r.id == id);
             let text = listed.map(|r| r.text.clone()).unwrap_or_else(|| id.clone());
-            let (after_case, change) = apply_remedy(&resolved, id, options.units)?;
+            let (after_case, change) = apply_remedy(rules, &resolved, id, options.units)?;
             let after = solve(&after_case.problem(options.solver))?;
             Some(RemedyComparison {
                 remedy_id: id.clone(),
@@ -84,108 +88,107 @@ pub fn prepare(
     })
 }
 
-/// The settings a remedy changes, by the words of its ID (`raise_tension`, `add_taper`,
-/// `reduce_nip_load`, `use_stiffer_core`, ...). Sizes are the usual first step on the winder
-/// (common practice): tension ±25 %, taper to 25 % or halved, nip ×1.5 or ×0.6, core three times
-/// stiffer and twice as strong. Returns the changed case and the change in words.
+/// Apply the setting changes the rule base's remedy `remedy_id` declares; returns the changed
+/// case and the changes in words with units. Remedies that change no winder setting (handling,
+/// storage, upstream process) have nothing to re-solve and are refused with a message.
 pub fn apply_remedy(
+    rules: &RuleBase,
     resolved: &ResolvedCase,
     remedy_id: &str,
     units: UnitSystem,
 ) -> Result<(ResolvedCase, String), ReportError> {
-    let id = remedy_id.to_ascii_lowercase();
-    let raise = ["raise", "increase", "add", "more", "higher", "use", "apply"]
-        .iter()
-        .any(|w| id.contains(w));
-    let lower = ["reduce", "lower", "less", "decrease", "limit", "soften"]
-        .iter()
-        .any(|w| id.contains(w));
-    let mut after = resolved.clone();
-    let tension_text = |v: f64| format_quantity(v, QuantityKind::ForcePerWidth, units);
-    let change = if id.contains("taper") {
-        let before = after.winding.tension.taper.clone();
-        let fraction = match before {
-            Taper::Linear { fraction } | Taper::Hyperbolic { fraction } => fraction,
-            _ => 0.0,
-        };
-        let new_fraction = if lower && !raise {
-            fraction / 2.0
-        } else if fraction < 0.25 {
-            0.25
-        } else {
-            (fraction + 0.1).min(0.6)
-        };
-        after.winding.tension.taper = match before {
-            Taper::Hyperbolic { .. } => Taper::Hyperbolic {
-                fraction: new_fraction,
-            },
-            _ => Taper::Linear {
-                fraction: new_fraction,
-            },
-        };
-        format!(
-            "taper {:.0} % → {:.0} %",
-            fraction * 100.0,
-            new_fraction * 100.0
-        )
-    } else if id.contains("nip") || id.contains("rider") || id.contains("lay_on") {
-        let before = after.winding.nip_load.unwrap_or(0.0);
-        let new = if lower && !raise {
-            before * 0.6
-        } else if before <= 0.0 {
-            // A light rider/lay-on load where there was none (common practice).
-            500.0
-        } else {
-            before * 1.5
-        };
-        after.winding.nip_load = Some(new);
-        format!("nip load {} → {}", tension_text(before), tension_text(new))
-    } else if id.contains("tension") {
-        let before = after.winding.tension.start_tension;
-        let factor = if lower && !raise { 0.75 } else { 1.25 };
-        after.winding.tension.start_tension = before * factor;
-        for upset in &mut after.winding.tension.upsets {
-            upset.tension *= factor;
-        }
-        if id.contains("upset") || id.contains("spike") || id.contains("splice") {
-            after.winding.tension.start_tension = before;
-            after.winding.tension.upsets.clear();
-            "tension upset bands removed (steady tension through splices and restarts)".to_string()
-        } else {
-            format!(
-                "web tension {} → {}",
-                tension_text(before),
-                tension_text(before * factor)
-            )
-        }
-    } else if id.contains("core") {
-        after.core.stiffness = match after.core.stiffness {
-            CoreStiffness::Hollow {
-                inner_radius,
-                outer_radius,
-                modulus,
-                poisson_ratio,
-            } => CoreStiffness::Hollow {
-                inner_radius,
-                outer_radius,
-                modulus: modulus * 3.0,
-                poisson_ratio,
-            },
-            CoreStiffness::Measured { stiffness } => CoreStiffness::Measured {
-                stiffness: stiffness * 3.0,
-            },
-            CoreStiffness::Rigid => CoreStiffness::Rigid,
-        };
-        after.core.crush_pressure *= 2.0;
-        "core three times stiffer and rated for twice the crush pressure".to_string()
-    } else {
+    let Some(remedy) = rules.remedies.get(remedy_id) else {
+        let hint = crate::vocabulary::closest(remedy_id, rules.remedies.keys().map(|k| k.as_str()))
+            .map(|c| format!(" (did you mean \"{c}\"?)"))
+            .unwrap_or_default();
         return Err(ReportError::Remedy {
             id: remedy_id.to_string(),
-            message: "it does not change a winder setting (tension, taper, nip load or core), \
-                      so there is nothing to re-solve; accepted: remedies whose ID names \
-                      tension, taper, nip or core"
-                .to_string(),
+            message: format!(
+                "not in the rule base's remedy catalogue{hint}; `rolltriage diagnose CASE` lists the remedies for a case"
+            ),
         });
     };
-    Ok((after, change))
+    if remedy.changes.is_empty() {
+        return Err(ReportError::Remedy {
+            id: remedy_id.to_string(),
+            message: "it changes no winder setting (tension, taper, nip, speed or core), so there \
+                      is nothing to re-solve; accepted: a remedy that changes a setting"
+                .to_string(),
+        });
+    }
+    let after = apply_changes(resolved, &remedy.changes);
+    Ok((
+        after.clone(),
+        describe_changes(resolved, &after, &remedy.changes, units),
+    ))
+}
+
+/// The changes in words, with the before and after values.
+fn describe_changes(
+    before: &ResolvedCase,
+    after: &ResolvedCase,
+    changes: &[SettingChange],
+    units: UnitSystem,
+) -> String {
+    let tension = |v: f64| format_quantity(v, QuantityKind::ForcePerWidth, units);
+    let stress = |v: f64| format_quantity(v, QuantityKind::Stress, units);
+    let taper = |t: &Taper| match t {
+        Taper::None => "no taper".to_string(),
+        Taper::Linear { fraction } => format!("linear taper {:.0} %", fraction * 100.0),
+        Taper::Hyperbolic { fraction } => format!("hyperbolic taper {:.0} %", fraction * 100.0),
+        Taper::Steps { steps } => format!("{} tension steps", steps.len()),
+    };
+    let mut parts = Vec::new();
+    for change in changes {
+        let part = match change {
+            SettingChange::TensionScale(_) => format!(
+                "web tension {} → {}",
+                tension(before.winding.tension.start_tension),
+                tension(after.winding.tension.start_tension)
+            ),
+            SettingChange::TaperBy(_) | SettingChange::TaperTo(_) => format!(
+                "{} → {}",
+                taper(&before.winding.tension.taper),
+                taper(&after.winding.tension.taper)
+            ),
+            SettingChange::NipScale(_) => format!(
+                "nip load {} → {}",
+                before
+                    .winding
+                    .nip_load
+                    .map(tension)
+                    .unwrap_or_else(|| "none".into()),
+                after
+                    .winding
+                    .nip_load
+                    .map(tension)
+                    .unwrap_or_else(|| "none".into())
+            ),
+            SettingChange::SpeedScale(_) => format!(
+                "line speed {} → {}",
+                format_quantity(before.winding.speed, QuantityKind::Speed, units),
+                format_quantity(after.winding.speed, QuantityKind::Speed, units)
+            ),
+            SettingChange::CoreStiffnessScale(_) => format!(
+                "core stiffness {} → {}",
+                stress(before.core.stiffness.effective_stiffness()),
+                stress(after.core.stiffness.effective_stiffness())
+            ),
+            SettingChange::CoreCrushScale(_) => format!(
+                "core crush rating {} → {}",
+                stress(before.core.crush_pressure),
+                stress(after.core.crush_pressure)
+            ),
+            SettingChange::ClearUpsets => {
+                "tension upset bands removed (steady tension through splices and restarts)"
+                    .to_string()
+            }
+            SettingChange::CoreZoneTensionScale(f) => format!(
+                "first tenth of the build wound at {:.0} % of the start tension",
+                f * 100.0
+            ),
+        };
+        parts.push(part);
+    }
+    parts.join("; ")
 }

@@ -36,7 +36,7 @@ pub const DEFAULT_CORE_SHARE: f64 = 0.8;
 pub const DEFAULT_MIN_OUTER_PRESSURE: f64 = 14e3;
 /// Default share of the peak pressure below which a compressive band counts as starring risk:
 /// the model's own low-pressure share (see `model::profile`).
-pub const DEFAULT_STARRING_PRESSURE_SHARE: f64 = 0.25;
+pub const DEFAULT_STARRING_PRESSURE_SHARE: f64 = crate::model::profile::LOW_PRESSURE_SHARE;
 /// Default largest wound-in tension as a share of the web's tensile strength. Common practice
 /// (from memory): winding tension is usually set at 10–25 % of the web's tensile strength.
 pub const DEFAULT_TENSION_SHARE: f64 = 0.25;
@@ -94,6 +94,8 @@ pub struct DesignOptions {
     pub search_elements: usize,
     /// Grid points over start tension and over taper.
     pub grid: (usize, usize),
+    /// Resolution of the before/after solves that the limits are finally checked on.
+    pub verify_resolution: Resolution,
 }
 
 impl Default for DesignOptions {
@@ -105,6 +107,7 @@ impl Default for DesignOptions {
             design_margin: DEFAULT_DESIGN_MARGIN,
             search_elements: 120,
             grid: (11, 9),
+            verify_resolution: Resolution::Auto,
         }
     }
 }
@@ -496,18 +499,100 @@ pub fn design(case: &ResolvedCase, limits: &TaperLimits) -> Result<TaperDesign, 
     design_with(case, limits, &DesignOptions::default())
 }
 
-/// One searched schedule.
+/// One searched schedule, solved at the search resolution.
 #[derive(Debug, Clone, Copy)]
 struct Trial {
     start: f64,
     fraction: f64,
-    margins: [f64; 4],
-    values: [f64; 4],
+    /// Values at the search resolution: core pressure (Pa), starring margin, lowest outer
+    /// pressure (Pa), largest wound-in tension (N/m).
+    raw: [f64; 4],
+    /// Starring band extent (share of the build).
+    band: f64,
+}
+
+/// Factors that carry search-resolution values to the verification resolution. A grouped solve
+/// can be biased on soft webs; the factors are measured where it matters (at the candidate) and
+/// the search is repeated with them (output correction).
+#[derive(Debug, Clone, Copy)]
+struct Corrections {
+    core: f64,
+    outer: f64,
+}
+
+impl Corrections {
+    const NONE: Corrections = Corrections {
+        core: 1.0,
+        outer: 1.0,
+    };
+    fn between(search: &[LimitCheck], verified: &[LimitCheck]) -> Corrections {
+        let ratio = |limit: Limit| {
+            let s = search.iter().find(|c| c.limit == limit).map(|c| c.value);
+            let v = verified.iter().find(|c| c.limit == limit).map(|c| c.value);
+            match (s, v) {
+                (Some(s), Some(v)) if s > 0.0 && v > 0.0 => (v / s).clamp(0.1, 10.0),
+                _ => 1.0,
+            }
+        };
+        Corrections {
+            core: ratio(Limit::CorePressure),
+            outer: ratio(Limit::OuterPressure),
+        }
+    }
+}
+
+struct Context<'a> {
+    case: &'a ResolvedCase,
+    limits: &'a TaperLimits,
 }
 
 impl Trial {
-    fn worst(&self) -> f64 {
-        self.margins.iter().cloned().fold(f64::INFINITY, f64::min)
+    fn from_checks(start: f64, fraction: f64, checks: &[LimitCheck]) -> Trial {
+        let mut t = Trial {
+            start,
+            fraction,
+            raw: [0.0; 4],
+            band: 0.0,
+        };
+        for c in checks {
+            t.raw[c.limit.index()] = if c.limit == Limit::Starring {
+                t.band = c.value;
+                c.margin
+            } else {
+                c.value
+            };
+        }
+        t
+    }
+    /// Corrected values (starring: band extent).
+    fn values(&self, k: Corrections) -> [f64; 4] {
+        [
+            self.raw[0] * k.core,
+            self.band,
+            self.raw[2] * k.outer,
+            self.raw[3],
+        ]
+    }
+    /// Corrected margins, same definitions as [`check_limits`].
+    fn margins(&self, k: Corrections, cx: &Context) -> [f64; 4] {
+        let v = self.values(k);
+        let outer = if cx.limits.min_outer_pressure > 0.0 {
+            v[2] / cx.limits.min_outer_pressure - 1.0
+        } else {
+            1.0
+        };
+        [
+            1.0 - v[0] / (cx.limits.core_share * cx.case.core.crush_pressure),
+            self.raw[1],
+            outer,
+            1.0 - v[3] / (cx.limits.tension_share * cx.case.web.strength),
+        ]
+    }
+    fn worst(&self, k: Corrections, cx: &Context) -> f64 {
+        self.margins(k, cx)
+            .iter()
+            .cloned()
+            .fold(f64::INFINITY, f64::min)
     }
 }
 
@@ -555,10 +640,65 @@ pub fn design_with(
             "the roll diameter must exceed the core's outside diameter".into(),
         ));
     }
+    let cx = Context { case, limits };
+    let verify = options.verify_resolution;
     let mut solves = 0usize;
 
-    let before = evaluate(case, &case.winding.tension, limits, Resolution::Auto)?;
+    let before = evaluate(case, &case.winding.tension, limits, verify)?;
     solves += 1;
+
+    // The current schedule already has the requested shape and meets every limit with the
+    // design margin: it is the answer (the criterion's distance is zero), no search needed.
+    let current_fraction = match (&case.winding.tension.taper, options.shape) {
+        (Taper::None, _) => Some(0.0),
+        (Taper::Linear { fraction }, TaperShape::Linear)
+        | (Taper::Hyperbolic { fraction }, TaperShape::Hyperbolic) => Some(*fraction),
+        _ => None,
+    };
+    if let Some(fraction) = current_fraction
+        && options.steps.is_none()
+        && case.winding.tension.upsets.is_empty()
+        && fraction <= max_taper
+        && before.all_met()
+        && before.worst_margin() >= options.design_margin
+    {
+        let start = case.winding.tension.start_tension;
+        let trial = Trial {
+            start,
+            fraction,
+            raw: [0.0; 4],
+            band: 0.0,
+        };
+        let schedule = build_schedule(options.shape, None, start, fraction, rc, big_r);
+        let after = Evaluation {
+            schedule: schedule.clone(),
+            checks: before.checks.clone(),
+            profile: before.profile.clone(),
+        };
+        let binding: Vec<Limit> = after
+            .checks
+            .iter()
+            .filter(|c| c.margin < options.design_margin + 0.05)
+            .map(|c| c.limit)
+            .collect();
+        let explanation = explain(case, &before, &after, true, &binding, None, trial, start);
+        return Ok(TaperDesign {
+            feasible: true,
+            shape: options.shape,
+            steps: None,
+            start_tension: start,
+            taper_fraction: fraction,
+            table: operator_table(&schedule, rc, big_r, None),
+            schedule,
+            limits: *limits,
+            before,
+            after,
+            binding,
+            conflict: None,
+            explanation,
+            solves,
+        });
+    }
 
     // Search range of the start tension: from a tenth of the lower of (current, allowed) up to
     // 1.2 × the allowed wound-in tension, so infeasible corners are explored too.
@@ -572,30 +712,30 @@ pub fn design_with(
     let t_high = (1.2 * allowed_tension).max(1.05 * current);
     let target = current.min(allowed_tension * (1.0 - options.design_margin));
     let start_of = |u: f64| t_low * (t_high / t_low).powf(u);
+    let to_u = |start: f64| ((start / t_low).ln() / (t_high / t_low).ln()).clamp(0.0, 1.0);
     let layers = ((big_r - rc) / case.web.thickness).ceil().max(1.0) as usize;
     let group = (layers / options.search_elements.max(10)).max(1);
-    let search_resolution = if group > 1 {
+    let search = if group > 1 {
         Resolution::Grouped { layers: group }
     } else {
         Resolution::PerLayer
+    };
+    let schedule_of = |start: f64, fraction: f64| {
+        build_schedule(options.shape, options.steps, start, fraction, rc, big_r)
     };
 
     let mut trials: Vec<Trial> = Vec::new();
     let mut failure: Option<TaperError> = None;
     let mut run = |start: f64, fraction: f64, trials: &mut Vec<Trial>| -> Option<Trial> {
-        let schedule = build_schedule(options.shape, options.steps, start, fraction, rc, big_r);
-        match evaluate(case, &schedule, limits, search_resolution) {
+        if let Some(t) = trials
+            .iter()
+            .find(|t| t.start == start && t.fraction == fraction)
+        {
+            return Some(*t);
+        }
+        match evaluate(case, &schedule_of(start, fraction), limits, search) {
             Ok(e) => {
-                let mut t = Trial {
-                    start,
-                    fraction,
-                    margins: [0.0; 4],
-                    values: [0.0; 4],
-                };
-                for c in &e.checks {
-                    t.margins[c.limit.index()] = c.margin;
-                    t.values[c.limit.index()] = c.value;
-                }
+                let t = Trial::from_checks(start, fraction, &e.checks);
                 trials.push(t);
                 Some(t)
             }
@@ -607,10 +747,20 @@ pub fn design_with(
     };
     let margin = options.design_margin;
     // Objective (minimised): distance of the start tension from the target in log terms, a
-    // small price per unit of taper, and a steep penalty for any limit short of the margin.
-    let objective = |t: &Trial| -> f64 {
-        let shortfall = (margin - t.worst()).max(0.0);
-        (t.start / target).ln().abs() + 0.05 * t.fraction / max_taper + 20.0 * shortfall
+    // small price per unit of taper change from the current one (so taper is the first thing
+    // moved), and a steep penalty for any limit short of the margin.
+    let reference_taper = match (&case.winding.tension.taper, options.shape) {
+        (Taper::Linear { fraction }, TaperShape::Linear)
+        | (Taper::Hyperbolic { fraction }, TaperShape::Hyperbolic) => {
+            fraction.clamp(0.0, max_taper)
+        }
+        _ => 0.0,
+    };
+    let objective = |start: f64, fraction: f64, worst: f64| -> f64 {
+        let shortfall = (margin - worst).max(0.0);
+        (start / target).ln().abs()
+            + 0.05 * (fraction - reference_taper).abs() / max_taper
+            + 20.0 * shortfall
     };
 
     let (nu, nv) = (options.grid.0.max(3), options.grid.1.max(2));
@@ -621,7 +771,7 @@ pub fn design_with(
             run(start_of(u), v * max_taper, &mut trials);
         }
     }
-    // Also the target itself with each taper, so "keep the start tension" is tried exactly.
+    // The target itself with each taper, so "keep the start tension" is tried exactly.
     for j in 0..nv {
         run(target, j as f64 / (nv - 1) as f64 * max_taper, &mut trials);
     }
@@ -630,57 +780,196 @@ pub fn design_with(
             failure.unwrap_or_else(|| TaperError::Case("no schedule could be solved".into()))
         );
     }
-    let best_grid = *trials
-        .iter()
-        .min_by(|a, b| objective(a).total_cmp(&objective(b)))
-        .unwrap_or(&trials[0]);
-    let to_u = |start: f64| ((start / t_low).ln() / (t_high / t_low).ln()).clamp(0.0, 1.0);
-    {
-        let mut f = |x: &[f64]| -> f64 {
-            match run(start_of(x[0]), x[1] * max_taper, &mut trials) {
-                Some(t) => objective(&t),
-                None => f64::INFINITY,
+
+    // First corrections: the current schedule at both resolutions.
+    let mut k = match evaluate(case, &case.winding.tension, limits, search) {
+        Ok(e) => Corrections::between(&e.checks, &before.checks),
+        Err(_) => Corrections::NONE,
+    };
+    solves += 1;
+
+    let mut verified: Vec<(Trial, Evaluation)> = Vec::new();
+    let starts: Vec<f64> = (0..nu)
+        .map(|i| start_of(i as f64 / (nu - 1) as f64))
+        .chain(std::iter::once(target))
+        .collect();
+    let mut previous_best_fraction: Option<f64> = None;
+    for _round in 0..4 {
+        let score = |t: &Trial| objective(t.start, t.fraction, t.worst(k, &cx));
+        let feasible = |t: &Trial| t.worst(k, &cx) >= margin;
+        // For one taper: the feasible start tension closest to the target — the nearest
+        // feasible scanned start, then bisection (in log tension) towards the target.
+        // `hint`: scan only the starts within two grid steps of it (and the target).
+        let grid_ratio = (t_high / t_low).powf(1.0 / (nu - 1) as f64);
+        let mut best_for =
+            |fraction: f64, hint: Option<f64>, trials: &mut Vec<Trial>| -> Option<Trial> {
+                let mut scanned: Vec<Trial> = starts
+                    .iter()
+                    .filter(|&&t0| {
+                        hint.is_none_or(|h| {
+                            t0 == target || (t0 / h).ln().abs() <= 2.01 * grid_ratio.ln()
+                        })
+                    })
+                    .filter_map(|&t0| run(t0, fraction, trials))
+                    .collect();
+                scanned.sort_by(|a, b| a.start.total_cmp(&b.start));
+                let nearest = scanned
+                    .iter()
+                    .filter(|t| feasible(t))
+                    .min_by(|a, b| {
+                        (a.start / target)
+                            .ln()
+                            .abs()
+                            .total_cmp(&(b.start / target).ln().abs())
+                    })
+                    .copied()?;
+                if (nearest.start / target - 1.0).abs() < 1e-12 {
+                    return Some(nearest);
+                }
+                // The scanned neighbour on the target's side.
+                let toward = scanned
+                    .iter()
+                    .filter(|t| {
+                        if target > nearest.start {
+                            t.start > nearest.start
+                        } else {
+                            t.start < nearest.start
+                        }
+                    })
+                    .min_by(|a, b| {
+                        (a.start / nearest.start)
+                            .ln()
+                            .abs()
+                            .total_cmp(&(b.start / nearest.start).ln().abs())
+                    })
+                    .copied();
+                let Some(mut outside) = toward else {
+                    return Some(nearest);
+                };
+                let mut inside = nearest;
+                for _ in 0..7 {
+                    let mid = (inside.start * outside.start).sqrt();
+                    match run(mid, fraction, trials) {
+                        Some(t) if feasible(&t) => inside = t,
+                        Some(t) => outside = t,
+                        None => break,
+                    }
+                }
+                Some(inside)
+            };
+        let column_score = |t: &Option<Trial>| t.as_ref().map_or(f64::INFINITY, score);
+        let mut columns: Vec<(f64, Option<Trial>)> = Vec::new();
+        for j in 0..nv {
+            let f = j as f64 / (nv - 1) as f64 * max_taper;
+            // After the first round only the columns next to the last best taper are bracketed
+            // again; the corrections change little between rounds.
+            if let Some(previous) = previous_best_fraction
+                && (f - previous).abs() > 1.5 * max_taper / (nv - 1) as f64
+            {
+                continue;
             }
-        };
-        let step = 0.5 / (nu - 1) as f64;
-        nelder_mead::minimise(
-            &mut f,
-            &[to_u(best_grid.start), best_grid.fraction / max_taper],
-            step,
-            1e-4,
-            60,
-        );
+            let t = best_for(f, None, &mut trials);
+            columns.push((f, t));
+        }
+        if reference_taper > 0.0 && reference_taper < max_taper {
+            let t = best_for(reference_taper, None, &mut trials);
+            columns.push((reference_taper, t));
+            columns.sort_by(|a, b| a.0.total_cmp(&b.0));
+        }
+        let best_column = (0..columns.len())
+            .min_by(|&a, &b| column_score(&columns[a].1).total_cmp(&column_score(&columns[b].1)));
+        if let Some(j) = best_column
+            && columns[j].1.is_some()
+        {
+            // Golden-section refinement of the taper between the neighbouring columns.
+            let mut lo = columns[j.saturating_sub(1)].0;
+            let mut hi = columns[(j + 1).min(columns.len() - 1)].0;
+            let g = 0.618_033_988_749_895;
+            let hint = columns[j].1.map(|t| t.start);
+            for _ in 0..5 {
+                if hi - lo < 1e-3 {
+                    break;
+                }
+                let x1 = hi - g * (hi - lo);
+                let x2 = lo + g * (hi - lo);
+                let s1 = column_score(&best_for(x1, hint, &mut trials));
+                let s2 = column_score(&best_for(x2, hint, &mut trials));
+                if s1 <= s2 {
+                    hi = x2;
+                } else {
+                    lo = x1;
+                }
+            }
+        }
+        // Final polish with a bounded Nelder–Mead on the penalised objective.
+        let best = *trials
+            .iter()
+            .min_by(|a, b| score(a).total_cmp(&score(b)))
+            .unwrap_or(&trials[0]);
+        {
+            let mut f = |x: &[f64]| -> f64 {
+                match run(start_of(x[0]), x[1] * max_taper, &mut trials) {
+                    Some(t) => objective(t.start, t.fraction, t.worst(k, &cx)),
+                    None => f64::INFINITY,
+                }
+            };
+            nelder_mead::minimise(
+                &mut f,
+                &[to_u(best.start), best.fraction / max_taper],
+                0.02,
+                1e-4,
+                20,
+            );
+        }
+        let candidate = *trials
+            .iter()
+            .min_by(|a, b| score(a).total_cmp(&score(b)))
+            .unwrap_or(&best);
+        previous_best_fraction = Some(candidate.fraction);
+        let e = evaluate(
+            case,
+            &schedule_of(candidate.start, candidate.fraction),
+            limits,
+            verify,
+        )?;
+        solves += 1;
+        let search_checks = evaluate(
+            case,
+            &schedule_of(candidate.start, candidate.fraction),
+            limits,
+            search,
+        )?
+        .checks;
+        solves += 1;
+        let last_k = k;
+        k = Corrections::between(&search_checks, &e.checks);
+        let met = e.all_met() && e.worst_margin() >= 0.5 * margin;
+        verified.push((candidate, e));
+        let settled = (k.core / last_k.core - 1.0).abs() < 0.02
+            && (k.outer / last_k.outer - 1.0).abs() < 0.02;
+        if met && settled {
+            break;
+        }
     }
     solves += trials.len();
 
-    // Candidates in order of the objective; the first that meets every limit at the normal
-    // resolution wins (a grouped search can be a little optimistic near a limit).
-    let mut order: Vec<Trial> = trials.clone();
-    order.sort_by(|a, b| objective(a).total_cmp(&objective(b)));
-    let mut chosen: Option<(Trial, Evaluation)> = None;
-    let mut first_checked: Option<(Trial, Evaluation)> = None;
-    for t in order.iter().filter(|t| t.worst() >= 0.0).take(4) {
-        let schedule = build_schedule(options.shape, options.steps, t.start, t.fraction, rc, big_r);
-        let e = evaluate(case, &schedule, limits, Resolution::Auto)?;
-        solves += 1;
-        if e.all_met() {
-            chosen = Some((*t, e));
-            break;
-        }
-        first_checked.get_or_insert((*t, e));
-    }
+    let verified_score =
+        |(t, e): &(Trial, Evaluation)| objective(t.start, t.fraction, e.worst_margin());
+    let chosen = verified
+        .iter()
+        .filter(|(_, e)| e.all_met())
+        .min_by(|a, b| verified_score(a).total_cmp(&verified_score(b)))
+        .cloned();
     let feasible = chosen.is_some();
-    let (trial, after) = match chosen.or(first_checked) {
+    let (trial, after) = match chosen {
         Some(c) => c,
         None => {
             // Nothing feasible: show the schedule with the best worst margin.
             let t = *trials
                 .iter()
-                .max_by(|a, b| a.worst().total_cmp(&b.worst()))
-                .unwrap_or(&best_grid);
-            let schedule =
-                build_schedule(options.shape, options.steps, t.start, t.fraction, rc, big_r);
-            let e = evaluate(case, &schedule, limits, Resolution::Auto)?;
+                .max_by(|a, b| a.worst(k, &cx).total_cmp(&b.worst(k, &cx)))
+                .unwrap_or(&trials[0]);
+            let e = evaluate(case, &schedule_of(t.start, t.fraction), limits, verify)?;
             solves += 1;
             (t, e)
         }
@@ -699,12 +988,11 @@ pub fn design_with(
     let conflict = if feasible {
         None
     } else {
-        Some(find_conflict(case, limits, &trials))
+        Some(find_conflict(&cx, &trials, k))
     };
     let table = operator_table(&after.schedule, rc, big_r, options.steps);
     let explanation = explain(
         case,
-        limits,
         &before,
         &after,
         feasible,
@@ -734,11 +1022,14 @@ pub fn design_with(
 
 /// Find the pair of limits that no searched schedule meets together (the most conflicting one),
 /// and what each would have to be relaxed to.
-fn find_conflict(case: &ResolvedCase, limits: &TaperLimits, trials: &[Trial]) -> Conflict {
+fn find_conflict(cx: &Context, trials: &[Trial], k: Corrections) -> Conflict {
+    let (case, limits) = (cx.case, cx.limits);
+    let margins: Vec<[f64; 4]> = trials.iter().map(|t| t.margins(k, cx)).collect();
+    let values: Vec<[f64; 4]> = trials.iter().map(|t| t.values(k)).collect();
     let best_pair = |a: Limit, b: Limit| {
-        trials
+        margins
             .iter()
-            .map(|t| t.margins[a.index()].min(t.margins[b.index()]))
+            .map(|m| m[a.index()].min(m[b.index()]))
             .fold(f64::NEG_INFINITY, f64::max)
     };
     // A limit that fails on its own comes first.
@@ -772,21 +1063,20 @@ fn find_conflict(case: &ResolvedCase, limits: &TaperLimits, trials: &[Trial]) ->
     } else {
         for (relax, keep) in [(first, second), (second, first)] {
             // Best value of `relax` among schedules that meet `keep`.
-            let best = trials
-                .iter()
-                .filter(|t| t.margins[keep.index()] >= 0.0)
-                .max_by(|x, y| x.margins[relax.index()].total_cmp(&y.margins[relax.index()]));
-            if let Some(t) = best {
+            let best = (0..trials.len())
+                .filter(|&i| margins[i][keep.index()] >= 0.0)
+                .max_by(|&x, &y| margins[x][relax.index()].total_cmp(&margins[y][relax.index()]));
+            if let Some(i) = best {
                 advice.push(relax_advice(
                     case,
                     limits,
                     relax,
                     keep,
-                    t.values[relax.index()],
+                    values[i][relax.index()],
                 ));
             }
         }
-        if best_margin > -0.0 {
+        if best_margin >= 0.0 {
             advice.push(
                 "each pair can be met, but not all four together; relax either of the named limits"
                     .into(),
@@ -816,18 +1106,25 @@ fn relax_advice(
     keep: Limit,
     best: f64,
 ) -> String {
-    let keeping = format!("while {} is met", keep.title());
+    let keeping = format!("While {} is met", keep.title());
     match relax {
         Limit::CorePressure => {
             let share = best / case.core.crush_pressure;
-            format!(
-                "{keeping}, the core pressure is at least {}: raise {} to {:.2} (now {:.2}) or use a core rated for {} or more",
-                kpa(best),
-                relax.option(),
-                share,
-                limits.core_share,
-                kpa(best / limits.core_share)
-            )
+            let stronger = kpa(best / limits.core_share);
+            if share <= 1.0 {
+                format!(
+                    "{keeping}, the core pressure is at least {}: raise {} to {:.2} (now {:.2}) or use a core rated for {stronger} or more",
+                    kpa(best),
+                    relax.option(),
+                    share,
+                    limits.core_share,
+                )
+            } else {
+                format!(
+                    "{keeping}, the core pressure is at least {}, above the core's rating: use a core rated for {stronger} or more",
+                    kpa(best),
+                )
+            }
         }
         Limit::OuterPressure => format!(
             "{keeping}, the outer-zone pressure reaches at most {}: lower {} to that (now {})",
@@ -883,7 +1180,6 @@ pub fn operator_table(
 #[allow(clippy::too_many_arguments)]
 fn explain(
     case: &ResolvedCase,
-    limits: &TaperLimits,
     before: &Evaluation,
     after: &Evaluation,
     feasible: bool,
@@ -916,7 +1212,13 @@ fn explain(
         ));
         if (trial.start / target - 1.0).abs() < 0.02 {
             out.push(
-                "The start tension is kept; the taper is the least that meets the limits.".into(),
+                "The start tension is kept; the taper is the smallest change from the current one that meets the limits."
+                    .into(),
+            );
+        } else {
+            out.push(
+                "Taper alone cannot meet the limits at the current start tension, so the start tension moves too."
+                    .into(),
             );
         }
         for limit in binding {
@@ -942,6 +1244,17 @@ fn explain(
                 ));
             }
         }
+        if binding.contains(&Limit::WoundInTension)
+            && let (Some(nip), Some(wit)) =
+                (case.winding.nip_load, after.check(Limit::WoundInTension))
+        {
+            let nip_part = nip * case.web.friction;
+            if nip_part > 0.25 * wit.value {
+                out.push(format!(
+                    "The nip adds about {nip_part:.0} N/m (friction × nip load) to the wound-in tension; a lighter nip would leave room for more web tension."
+                ));
+            }
+        }
     } else if let Some(c) = conflict {
         if c.first == c.second {
             out.push(format!(
@@ -957,6 +1270,135 @@ fn explain(
         }
         out.extend(c.advice.iter().cloned());
     }
-    let _ = limits;
     out
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::case::{ResolvedCore, ResolvedRoll, ResolvedWeb, ResolvedWinding};
+    use crate::model::{CoreStiffness, RadialStiffness, WindingMethod};
+
+    fn case() -> ResolvedCase {
+        ResolvedCase {
+            title: "unit".into(),
+            web: ResolvedWeb {
+                preset: None,
+                material: "film".into(),
+                thickness: 100e-6,
+                width: 1.0,
+                tangential_modulus: 1e9,
+                radial_stiffness: RadialStiffness::Constant { modulus: 1e7 },
+                poisson_ratio: 0.01,
+                friction: 0.3,
+                roughness: 1e-6,
+                strength: 1000.0,
+            },
+            core: ResolvedCore {
+                preset: None,
+                material: "steel".into(),
+                inside_diameter: 0.08,
+                outside_diameter: 0.1,
+                stiffness: CoreStiffness::Rigid,
+                crush_pressure: 1e6,
+            },
+            roll: ResolvedRoll {
+                outer_diameter: 0.3,
+                length: 0.0,
+            },
+            winding: ResolvedWinding {
+                method: WindingMethod::Centre,
+                tension: TensionSchedule {
+                    start_tension: 100.0,
+                    taper: Taper::None,
+                    upsets: vec![],
+                },
+                nip_load: None,
+                speed: 1.0,
+                temperature: None,
+                acceleration_time: None,
+            },
+            symptoms: vec![],
+            answers: Default::default(),
+            assumed: vec![],
+        }
+    }
+
+    /// 101 nodes from r = 0.05 to 0.15 m; pressure falls linearly from 500 kPa to 0; σθ is
+    /// compressive (−1 MPa) over the given nodes and tensile elsewhere.
+    fn profile(compressive: std::ops::Range<usize>) -> Profile {
+        let n = 101;
+        let radius: Vec<f64> = (0..n).map(|i| 0.05 + 0.001 * i as f64).collect();
+        let pressure: Vec<f64> = (0..n).map(|i| 500e3 * (1.0 - i as f64 / 100.0)).collect();
+        let tangential_stress: Vec<f64> = (0..n)
+            .map(|i| if compressive.contains(&i) { -1e6 } else { 1e6 })
+            .collect();
+        Profile {
+            zones: crate::model::profile::default_zones(&radius, &tangential_stress),
+            summary: crate::model::ProfileSummary {
+                core_pressure: pressure[0],
+                ..Default::default()
+            },
+            wound_in_tension: vec![100.0; n],
+            radial_strain: vec![0.0; n],
+            radius,
+            pressure,
+            tangential_stress,
+            ..Default::default()
+        }
+    }
+
+    #[test]
+    fn a_compressive_band_at_high_pressure_is_not_starring() {
+        let checks = check_limits(&case(), &profile(10..30), &TaperLimits::default());
+        let s = checks[Limit::Starring.index()];
+        assert!(s.met && s.margin == 1.0 && s.value == 0.0, "{s:?}");
+        // Core: 500 kPa against 0.8 × 1 MPa.
+        let c = checks[Limit::CorePressure.index()];
+        assert!((c.margin - (1.0 - 500e3 / 800e3)).abs() < 1e-12);
+        // Wound-in tension 100 N/m against 0.25 × 1000 N/m.
+        let t = checks[Limit::WoundInTension.index()];
+        assert!((t.margin - 0.6).abs() < 1e-12);
+    }
+
+    #[test]
+    fn a_compressive_band_at_low_pressure_is_starring_with_its_extent() {
+        // Nodes 80..90: pressure 100–55 kPa, below 125 kPa (25 % of the 500 kPa peak).
+        let checks = check_limits(&case(), &profile(80..90), &TaperLimits::default());
+        let s = checks[Limit::Starring.index()];
+        assert!(!s.met && s.margin < 0.0, "{s:?}");
+        // Ten nodes of 1 mm over a 100 mm build.
+        assert!((s.value - 0.10).abs() < 1e-9, "{}", s.value);
+    }
+
+    #[test]
+    fn the_outer_zone_minimum_is_checked_against_the_threshold() {
+        let p = profile(0..0);
+        let outer = p.zone(ZoneName::Outer).unwrap().clone();
+        let expected = p.pressure[outer.end - 1];
+        let checks = check_limits(
+            &case(),
+            &p,
+            &TaperLimits {
+                min_outer_pressure: 2.0 * expected,
+                ..TaperLimits::default()
+            },
+        );
+        let o = checks[Limit::OuterPressure.index()];
+        assert!((o.value - expected).abs() < 1e-9);
+        assert!(!o.met && (o.margin + 0.5).abs() < 1e-12);
+    }
+
+    #[test]
+    fn steps_follow_the_ramp_at_band_middles() {
+        let s = build_schedule(TaperShape::Linear, Some(4), 200.0, 0.5, 0.05, 0.25);
+        let Taper::Steps { steps } = &s.taper else {
+            panic!()
+        };
+        // Band middles at 1/8, 3/8, 5/8, 7/8 of the build: 200·(1 − 0.5·x).
+        assert!((s.start_tension - 187.5).abs() < 1e-9);
+        assert_eq!(steps.len(), 3);
+        assert!((steps[0].radius - 0.10).abs() < 1e-12);
+        assert!((steps[2].tension - 112.5).abs() < 1e-9);
+    }
 }

@@ -225,3 +225,21 @@ pub fn fill_placeholders(text: &str, computed: Option<&Computed>, units: UnitSys
     out.push_str(rest);
     out
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn known_placeholders_and_zones() {
+        assert!(is_known("core_pressure"));
+        assert!(is_known("pressure_mean:outer"));
+        assert!(!is_known("pressure_mean"), "zone placeholders need a zone");
+        assert!(
+            !is_known("core_pressure:outer"),
+            "plain placeholders take no zone"
+        );
+        assert!(!is_known("pressure_mean:centre"));
+        assert_eq!(placeholders_in("a {x} b {y:z} {"), vec!["x", "y:z"]);
+    }
+}

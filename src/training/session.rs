@@ -33,11 +33,14 @@ impl TrainingContext {
     pub fn compute(case: Case, rules: Option<&RuleBase>, units: UnitSystem) -> TrainingContext {
         let computed = (|| -> Result<Computed, String> {
             let resolved = case.resolve().map_err(|e| e.to_string())?;
-            let problem = resolved.problem(SolverOptions::default());
-            let profile = solve(&problem).map_err(|e| e.to_string())?;
-            let diagnosis = rules.and_then(|rules| {
-                diagnose(rules, &resolved, &profile, &DiagnoseOptions::default()).ok()
-            });
+            let solver = training_solver_options(&resolved);
+            let profile = solve(&resolved.problem(solver)).map_err(|e| e.to_string())?;
+            let options = DiagnoseOptions {
+                solver,
+                ..DiagnoseOptions::default()
+            };
+            let diagnosis =
+                rules.and_then(|rules| diagnose(rules, &resolved, &profile, &options).ok());
             Ok(Computed {
                 resolved,
                 profile,
@@ -69,6 +72,24 @@ impl TrainingContext {
             units,
         }
     }
+}
+
+/// Training feedback needs the shape and size of the stresses, not the last per cent: layers are
+/// grouped into about [`TRAINING_ELEMENTS`] elements (with the solver's default modulus update)
+/// so a walk-through starts at once even in a debug build.
+pub const TRAINING_ELEMENTS: usize = 300;
+
+fn training_solver_options(case: &ResolvedCase) -> SolverOptions {
+    let layers = ((case.roll.outer_diameter - case.core.outside_diameter)
+        / 2.0
+        / case.web.thickness.max(1e-9)) as usize;
+    let mut options = SolverOptions::default();
+    if layers > TRAINING_ELEMENTS {
+        options.resolution = crate::model::Resolution::Grouped {
+            layers: layers.div_ceil(TRAINING_ELEMENTS),
+        };
+    }
+    options
 }
 
 /// What the trainee is told after answering one question.

@@ -96,3 +96,80 @@ pub fn render(
     ));
     out
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::model::{Zone, ZoneName};
+
+    fn falling_profile() -> Profile {
+        let mut profile = Profile::default();
+        for i in 0..=100 {
+            let x = i as f64 / 100.0;
+            profile.radius.push(0.05 + 0.45 * x);
+            profile.pressure.push(1e5 * (1.0 - x));
+            profile.tangential_stress.push(2e6 * x - 1e6);
+        }
+        profile.zones.push(Zone {
+            name: ZoneName::Core,
+            start: 0,
+            end: 50,
+            inner_radius: 0.05,
+            outer_radius: 0.275,
+        });
+        profile.zones.push(Zone {
+            name: ZoneName::Surface,
+            start: 50,
+            end: 101,
+            inner_radius: 0.275,
+            outer_radius: 0.5,
+        });
+        profile
+    }
+
+    #[test]
+    fn pressure_plot_falls_from_top_left_to_bottom_right() {
+        let text = render(
+            &falling_profile(),
+            PlotChoice::Pressure,
+            20,
+            5,
+            UnitSystem::Si,
+        );
+        let rows: Vec<&str> = text.lines().collect();
+        // Title, 5 plot rows, axis, zone strip, radius labels, legend.
+        assert_eq!(rows.len(), 10, "{text}");
+        let first = rows[1].split('|').nth(1).unwrap();
+        let last = rows[5].split('|').nth(1).unwrap();
+        assert!(first.starts_with('*'), "{text}");
+        assert!(last.ends_with('*'), "{text}");
+        assert!(rows[7].contains("cccccccccc"), "{text}");
+        assert!(rows[7].trim_end().ends_with('s'), "{text}");
+        assert!(!text.contains("zero line"));
+    }
+
+    #[test]
+    fn tangential_plot_draws_the_zero_line_when_stress_changes_sign() {
+        let text = render(
+            &falling_profile(),
+            PlotChoice::Tangential,
+            20,
+            5,
+            UnitSystem::Si,
+        );
+        assert!(text.contains("zero line"));
+        assert!(text.lines().any(|l| l.contains("---")));
+    }
+
+    #[test]
+    fn empty_profile_says_so() {
+        let text = render(
+            &Profile::default(),
+            PlotChoice::Pressure,
+            20,
+            5,
+            UnitSystem::Si,
+        );
+        assert!(text.contains("no profile"));
+    }
+}

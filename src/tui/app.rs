@@ -3,7 +3,9 @@
 //! can be tested without a terminal. Solves are not run here — the app queues [`JobRequest`]s
 //! that the runtime hands to the background job.
 
-use std::collections::BTreeSet;
+use std::collections::{BTreeMap, BTreeSet};
+
+use crate::diagnose::rules::SettingChange as RuleChange;
 use std::path::{Path, PathBuf};
 
 use crate::case::{Case, ObservedSymptom, QuantityText, ResolvedCase, TaperInput};
@@ -70,6 +72,8 @@ pub enum PendingAction {
     Quit,
     NewCase,
     Open(PathBuf),
+    /// Open a training walk-through's case (index into `App::walkthroughs`).
+    Training(usize),
 }
 
 /// What an open-file prompt loads.
@@ -99,6 +103,20 @@ pub enum Popup {
     SaveAs {
         input: String,
         error: Option<String>,
+    },
+    /// Export a report; the format follows the file's extension (.md, .html, .json).
+    Export {
+        input: String,
+        error: Option<String>,
+    },
+    /// Pick a training walk-through (index into `App::walkthroughs`).
+    Training {
+        selected: usize,
+    },
+    /// A message; any key closes it.
+    Notice {
+        title: String,
+        text: String,
     },
 }
 
@@ -180,7 +198,7 @@ impl Setting {
             Setting::Tension => "±10 % per step",
             Setting::Taper => "±5 points per step",
             Setting::NipLoad => "±20 % per step",
-            Setting::Core => "next stiffer / softer core",
+            Setting::Core => "core stiffness ×2 / ÷2 per step, same size",
             Setting::Speed => "±10 % per step",
         }
     }
@@ -198,9 +216,13 @@ pub struct WhatIfState {
     /// 0..5 = settings, 5.. = remedies that change a setting.
     pub row: usize,
     pub change: Option<SettingChange>,
+    /// A remedy being tried instead (its changes come from the rule base).
+    pub remedy: Option<String>,
     /// Plain words for the change ("Web tension 525 N/m → 578 N/m").
     pub description: Option<String>,
     pub outcome: Option<(u64, Box<SolveOutcome>)>,
+    /// A designed taper schedule (what-if `d`), with the generation it was made for.
+    pub design: Option<(u64, Box<crate::taper_design::TaperDesign>)>,
     pub error: Option<String>,
 }
 
@@ -248,8 +270,10 @@ pub struct App {
     /// First line shown in the help popup.
     pub help_scroll: u16,
     pub should_quit: bool,
-    /// Whether a report can be exported from the UI.
-    pub can_export: bool,
+    /// Setting changes of each remedy, from the rule base (what the what-if applies).
+    pub remedy_changes: BTreeMap<String, Vec<RuleChange>>,
+    /// Training walk-throughs offered by ^T.
+    pub walkthroughs: Vec<crate::training::LoadedWalkthrough>,
     requests: Vec<JobRequest>,
     next_job_id: u64,
 }
@@ -290,7 +314,8 @@ impl App {
             tick: 0,
             help_scroll: 0,
             should_quit: false,
-            can_export: false,
+            walkthroughs: Vec::new(),
+            remedy_changes: BTreeMap::new(),
             requests: Vec::new(),
             next_job_id: 1,
         };
@@ -388,6 +413,10 @@ impl App {
     }
 
     fn queue(&mut self, purpose: Purpose, case: Case) {
+        self.queue_resolved(purpose, case, None);
+    }
+
+    fn queue_resolved(&mut self, purpose: Purpose, case: Case, resolved: Option<ResolvedCase>) {
         let id = self.next_job_id;
         self.next_job_id += 1;
         let running = Some(Running {
@@ -404,6 +433,8 @@ impl App {
             purpose,
             generation: self.generation,
             case,
+            resolved: resolved.map(Box::new),
+            task: super::job::Task::Solve,
         });
     }
 
@@ -446,6 +477,23 @@ impl App {
                 {
                     if running.id == id {
                         running.fraction = fraction.clamp(0.0, 1.0);
+                    }
+                }
+            }
+            JobMessage::DesignFinished {
+                id,
+                generation,
+                result,
+            } => {
+                if self.running_what_if.is_some_and(|r| r.id == id) {
+                    self.running_what_if = None;
+                    match result {
+                        Ok(design) => {
+                            self.what_if.description = Some(design_summary(&design, self.units));
+                            self.what_if.design = Some((generation, design));
+                            self.what_if.error = None;
+                        }
+                        Err(error) => self.what_if.error = Some(error),
                     }
                 }
             }
@@ -542,6 +590,7 @@ impl App {
             Key::Ctrl('l') => return self.open_prompt(OpenPurpose::InputsOnly),
             Key::Ctrl('r') => return self.resolve_again(),
             Key::Ctrl('e') => return self.export(),
+            Key::Ctrl('t') | Key::F(6) => return self.open_training(),
             Key::Ctrl('u') => {
                 self.units = match self.units {
                     UnitSystem::Si => UnitSystem::Us,
@@ -594,6 +643,7 @@ impl App {
                     self.status = Some(error);
                 }
             }
+            PendingAction::Training(index) => self.open_walkthrough(index),
         }
     }
 
@@ -632,11 +682,104 @@ impl App {
     }
 
     fn export(&mut self) {
-        self.status = Some(if self.can_export {
-            "Report export is not wired yet".into()
-        } else {
-            "Report export is not available from the UI yet; use `rolltriage report`".into()
+        if self.current_outcome().is_none() {
+            self.status = Some("Nothing to export yet: solve the case first (F4, or ^R)".into());
+            return;
+        }
+        let stem = self
+            .case_path
+            .as_ref()
+            .and_then(|p| p.file_stem())
+            .map(|s| s.to_string_lossy().into_owned())
+            .unwrap_or_else(|| {
+                suggested_file_name(&self.case.title)
+                    .trim_end_matches(".yaml")
+                    .to_string()
+            });
+        self.popup = Some(Popup::Export {
+            input: format!("{stem}_report.md"),
+            error: None,
         });
+    }
+
+    /// Write a report of the current results (and the remedy being tried, if any) to `path`.
+    pub fn export_to(&mut self, path: &Path) -> Result<(), String> {
+        let outcome = self
+            .current_outcome()
+            .ok_or("the results are out of date: solve again first")?;
+        let diagnosis = outcome
+            .diagnosis
+            .as_ref()
+            .map_err(|e| format!("no diagnosis to report: {e}"))?;
+        let format = crate::report::Format::from_path(path).unwrap_or_default();
+        let remedy = match (&self.what_if.remedy, &self.what_if.outcome) {
+            (Some(id), Some((generation, after))) if *generation == self.generation => {
+                Some(crate::report::RemedyComparison {
+                    remedy_id: id.clone(),
+                    remedy_text: diagnosis
+                        .remedies
+                        .iter()
+                        .find(|r| &r.id == id)
+                        .map_or_else(|| id.clone(), |r| r.text.clone()),
+                    change: self.what_if.description.clone().unwrap_or_default(),
+                    after_case: after.resolved.clone(),
+                    after: after.profile.clone(),
+                })
+            }
+            _ => None,
+        };
+        let input = crate::report::ReportInput {
+            case: self.case.clone(),
+            resolved: outcome.resolved.clone(),
+            profile: outcome.profile.clone(),
+            diagnosis: diagnosis.clone(),
+            remedy,
+            meta: crate::report::ReportMeta::now(
+                self.case_path.as_ref().map(|p| p.display().to_string()),
+            ),
+            units: self.units,
+        };
+        let text = crate::report::render(&input, format).map_err(|e| e.to_string())?;
+        crate::fsutil::save_atomic(path, text.as_bytes()).map_err(|e| e.to_string())?;
+        self.status = Some(format!(
+            "Report written to {} ({})",
+            path.display(),
+            format.as_str()
+        ));
+        Ok(())
+    }
+
+    fn open_training(&mut self) {
+        if self.walkthroughs.is_empty() {
+            self.status = Some("No training walk-throughs are available".into());
+        } else {
+            self.popup = Some(Popup::Training { selected: 0 });
+        }
+    }
+
+    /// Open a walk-through's case and show its introduction.
+    pub fn open_walkthrough(&mut self, index: usize) {
+        let Some(loaded) = self.walkthroughs.get(index).cloned() else {
+            return;
+        };
+        match crate::training::load_case(&loaded) {
+            Ok(case) => {
+                self.set_case(case, None);
+                // The walk-through is about finding the cause: start on the picture, not the answer.
+                let w = &loaded.walkthrough;
+                let mut text = w.introduction.clone().unwrap_or_default();
+                text.push_str(&format!(
+                    "\n\n{} questions go with this case; `rolltriage train {}` asks them and scores the answers.",
+                    w.questions.len(),
+                    w.id
+                ));
+                self.popup = Some(Popup::Notice {
+                    title: w.title.clone(),
+                    text: text.trim().to_string(),
+                });
+            }
+            Err(error) => self.status = Some(format!("Cannot open the walk-through: {error}")),
+        }
     }
 
     fn handle_popup_key(&mut self, key: Key) {
@@ -725,6 +868,49 @@ impl App {
                     self.popup = Some(Popup::Open(prompt));
                 }
                 _ => self.popup = Some(Popup::Open(prompt)),
+            },
+            Popup::Notice { .. } => {}
+            Popup::Training { selected } => match key {
+                Key::Up => {
+                    self.popup = Some(Popup::Training {
+                        selected: selected.saturating_sub(1),
+                    })
+                }
+                Key::Down => {
+                    self.popup = Some(Popup::Training {
+                        selected: (selected + 1).min(self.walkthroughs.len().saturating_sub(1)),
+                    })
+                }
+                Key::Enter => {
+                    if self.dirty {
+                        self.popup = Some(Popup::Confirm(PendingAction::Training(selected)));
+                    } else {
+                        self.open_walkthrough(selected);
+                    }
+                }
+                Key::Esc => {}
+                _ => self.popup = Some(Popup::Training { selected }),
+            },
+            Popup::Export { mut input, .. } => match key {
+                Key::Esc => {}
+                Key::Enter => {
+                    let text = input.trim().to_string();
+                    if let Err(error) = self.export_to(Path::new(&text)) {
+                        self.popup = Some(Popup::Export {
+                            input,
+                            error: Some(error),
+                        });
+                    }
+                }
+                Key::Backspace => {
+                    input.pop();
+                    self.popup = Some(Popup::Export { input, error: None });
+                }
+                Key::Char(c) => {
+                    input.push(c);
+                    self.popup = Some(Popup::Export { input, error: None });
+                }
+                _ => self.popup = Some(Popup::Export { input, error: None }),
             },
             Popup::SaveAs { mut input, .. } => match key {
                 Key::Esc => {}
@@ -861,7 +1047,11 @@ impl App {
             return;
         };
         if self.symptoms.detail_row == 0 {
-            let places: Vec<String> = PLACES.iter().map(|p| p.to_string()).collect();
+            let places: Vec<String> = if symptom.places.is_empty() {
+                PLACES.iter().map(|p| p.to_string()).collect()
+            } else {
+                symptom.places.clone()
+            };
             let current = self
                 .case
                 .symptoms
@@ -1049,15 +1239,13 @@ impl App {
                         .and_then(|d| d.remedies.get(self.results.remedy))
                         .map(|r| r.id.clone());
                     if let Some(id) = remedy {
-                        match remedy_change(&id) {
-                            Some(change) => {
-                                self.go_to(Screen::WhatIf);
-                                self.set_what_if(change);
-                            }
-                            None => {
-                                self.status =
-                                    Some(format!("{id}: not a winder setting the what-if can try"))
-                            }
+                        if self.remedy_is_tryable(&id) {
+                            self.go_to(Screen::WhatIf);
+                            self.try_remedy(&id);
+                        } else {
+                            self.status = Some(format!(
+                                "{id}: not a winder setting change the what-if can try"
+                            ));
                         }
                     }
                 }
@@ -1069,14 +1257,22 @@ impl App {
 
     // ----- what-if -------------------------------------------------------------------------
 
-    /// Remedies in the current diagnosis that map to a setting change.
-    pub fn what_if_remedies(&self) -> Vec<(String, String, SettingChange)> {
+    /// True when the rule base gives `remedy` a machine-readable setting change.
+    pub fn remedy_is_tryable(&self, remedy: &str) -> bool {
+        self.remedy_changes
+            .get(remedy)
+            .is_some_and(|changes| !changes.is_empty())
+    }
+
+    /// Remedies in the current diagnosis that change a winder setting: (ID, text).
+    pub fn what_if_remedies(&self) -> Vec<(String, String)> {
         self.latest_outcome()
             .and_then(|o| o.diagnosis.as_ref().ok())
             .map(|d| {
                 d.remedies
                     .iter()
-                    .filter_map(|r| remedy_change(&r.id).map(|c| (r.id.clone(), r.text.clone(), c)))
+                    .filter(|r| self.remedy_is_tryable(&r.id))
+                    .map(|r| (r.id.clone(), r.text.clone()))
                     .collect()
             })
             .unwrap_or_default()
@@ -1101,23 +1297,52 @@ impl App {
                     }
                 }
             }
-            Key::Enter => {
+            Key::Enter if self.what_if.row >= Setting::ALL.len() => {
                 let remedies = self.what_if_remedies();
-                if let Some((_, _, change)) =
-                    remedies.get(self.what_if.row.saturating_sub(Setting::ALL.len()))
-                    && self.what_if.row >= Setting::ALL.len()
-                {
-                    self.set_what_if(*change);
+                if let Some((id, _)) = remedies.get(self.what_if.row - Setting::ALL.len()) {
+                    let id = id.clone();
+                    self.try_remedy(&id);
                 }
             }
             Key::Char('r') | Key::Esc => self.clear_what_if(),
+            Key::Char('d') => self.design_taper(),
             Key::Char('a') => self.adopt_what_if(),
             _ => {}
         }
     }
 
+    /// Ask for a taper schedule that keeps the roll inside every limit (`taper_design`).
+    pub fn design_taper(&mut self) {
+        let resolved = match &self.resolved {
+            Ok(resolved) => resolved.clone(),
+            Err(error) => {
+                self.what_if.error = Some(format!("fix the inputs first: {error}"));
+                return;
+            }
+        };
+        self.clear_what_if();
+        self.what_if.description = Some("Designing a taper schedule (many solves)…".into());
+        let id = self.next_job_id;
+        self.next_job_id += 1;
+        self.running_what_if = Some(Running {
+            id,
+            generation: self.generation,
+            fraction: 0.0,
+        });
+        self.requests.push(JobRequest {
+            id,
+            purpose: Purpose::WhatIf,
+            generation: self.generation,
+            case: self.case.clone(),
+            resolved: Some(Box::new(resolved)),
+            task: super::job::Task::DesignTaper,
+        });
+    }
+
     fn clear_what_if(&mut self) {
+        self.what_if.design = None;
         self.what_if.change = None;
+        self.what_if.remedy = None;
         self.what_if.description = None;
         self.what_if.outcome = None;
         self.what_if.error = None;
@@ -1127,6 +1352,7 @@ impl App {
     /// Apply `change` to a copy of the case and queue its solve.
     pub fn set_what_if(&mut self, change: SettingChange) {
         self.what_if.change = Some(change);
+        self.what_if.remedy = None;
         if let Some(row) = Setting::ALL.iter().position(|s| *s == change.setting)
             && self.what_if.row < Setting::ALL.len()
         {
@@ -1135,7 +1361,37 @@ impl App {
         self.run_what_if();
     }
 
+    /// Try a remedy's own setting changes (from the rule base) on the case.
+    pub fn try_remedy(&mut self, remedy: &str) {
+        self.what_if.change = None;
+        self.what_if.remedy = Some(remedy.to_string());
+        self.run_what_if();
+    }
+
     fn run_what_if(&mut self) {
+        if let Some(remedy) = self.what_if.remedy.clone() {
+            let changes = self
+                .remedy_changes
+                .get(&remedy)
+                .cloned()
+                .unwrap_or_default();
+            match &self.resolved {
+                Ok(resolved) => {
+                    let trial = crate::diagnose::remedies::apply_changes(resolved, &changes);
+                    let words: Vec<String> = changes.iter().map(describe_change).collect();
+                    self.what_if.description = Some(format!("{remedy}: {}", words.join(", ")));
+                    self.what_if.error = None;
+                    self.ensure_baseline();
+                    self.queue_resolved(Purpose::WhatIf, self.case.clone(), Some(trial));
+                }
+                Err(error) => {
+                    self.what_if.description = None;
+                    self.what_if.error = Some(format!("fix the inputs first: {error}"));
+                    self.what_if.outcome = None;
+                }
+            }
+            return;
+        }
         let Some(change) = self.what_if.change else {
             return;
         };
@@ -1156,6 +1412,48 @@ impl App {
 
     /// Keep the what-if change: it becomes part of the case.
     fn adopt_what_if(&mut self) {
+        if let Some((_, design)) = self.what_if.design.clone() {
+            if design.steps.is_some() {
+                self.status = Some("A stepped schedule: enter its steps in the case file".into());
+                return;
+            }
+            let kind = match design.shape {
+                crate::taper_design::TaperShape::Linear => "linear",
+                crate::taper_design::TaperShape::Hyperbolic => "hyperbolic",
+            };
+            self.case.winding.tension = Some(QuantityText::Number(design.start_tension));
+            self.case.winding.taper = Some(TaperInput {
+                kind: kind.into(),
+                amount: Some(QuantityText::Text(format!(
+                    "{} %",
+                    super::screens::sig3(design.taper_fraction * 100.0)
+                ))),
+                steps: Vec::new(),
+            });
+            self.changed();
+            self.status = Some("Kept the designed taper schedule".into());
+            return;
+        }
+        if let Some(remedy) = self.what_if.remedy.clone() {
+            let changes = self
+                .remedy_changes
+                .get(&remedy)
+                .cloned()
+                .unwrap_or_default();
+            let result = match &self.resolved {
+                Ok(resolved) => keep_changes(&self.case, resolved, &changes),
+                Err(error) => Err(format!("fix the inputs first: {error}")),
+            };
+            match result {
+                Ok(case) => {
+                    self.case = case;
+                    self.changed();
+                    self.status = Some(format!("Kept: {remedy}"));
+                }
+                Err(error) => self.status = Some(error),
+            }
+            return;
+        }
         let Some(change) = self.what_if.change else {
             self.status = Some("No change to keep; use ←/→ on a setting first".into());
             return;
@@ -1224,37 +1522,19 @@ impl App {
                 format!("Nip load {} → {}", text(before), text(after))
             }
             Setting::Core => {
-                if !self.core_presets.is_empty() {
-                    let current = resolved.core.preset.clone();
-                    let mut next = current.clone();
-                    for _ in 0..change.steps.unsigned_abs() {
-                        next = fields::cycle(&self.core_presets, next.as_deref(), change.steps > 0);
-                    }
-                    case.core.preset = next.clone();
-                    case.core.material = None;
-                    case.core.modulus = None;
-                    case.core.stiffness = None;
-                    case.core.crush_pressure = None;
-                    format!(
-                        "Core {} → {}",
-                        current.unwrap_or_else(|| resolved.core.material.clone()),
-                        next.unwrap_or_default()
-                    )
-                } else {
-                    let materials: Vec<String> = fields::CORE_MATERIALS
-                        .iter()
-                        .map(|m| m.to_string())
-                        .collect();
-                    let current = resolved.core.material.clone();
-                    let index = materials.iter().position(|m| *m == current).unwrap_or(0) as i64;
-                    let next =
-                        (index + i64::from(change.steps)).clamp(0, materials.len() as i64 - 1);
-                    let next = materials[next as usize].clone();
-                    case.core.material = Some(next.clone());
-                    case.core.modulus = None;
-                    case.core.stiffness = None;
-                    format!("Core {current} → {next}")
+                // Same core size, stiffer or softer: the effective stiffness Ec doubles or halves
+                // per step (written as a measured stiffness, which overrides the modulus).
+                let before = resolved.core.stiffness.effective_stiffness();
+                if !before.is_finite() {
+                    return Err("the core is rigid: a stiffer core changes nothing".into());
                 }
+                let after = before * 2.0_f64.powi(change.steps);
+                case.core.stiffness = Some(QuantityText::Number(after));
+                format!(
+                    "Core stiffness Ec {} → {}",
+                    super::screens::compact_stress(before, self.units),
+                    super::screens::compact_stress(after, self.units)
+                )
             }
             Setting::Speed => {
                 let before = resolved.winding.speed;
@@ -1283,6 +1563,19 @@ impl App {
                 ("Enter", "open"),
                 ("Esc", "cancel"),
             ],
+            Some(Popup::Export { .. }) => vec![
+                ("type", "file (.md .html .json)"),
+                ("Enter", "write"),
+                ("Esc", "cancel"),
+            ],
+            Some(Popup::Training { .. }) => {
+                vec![
+                    ("↑↓", "pick"),
+                    ("Enter", "open its case"),
+                    ("Esc", "cancel"),
+                ]
+            }
+            Some(Popup::Notice { .. }) => vec![("any key", "close")],
             Some(Popup::SaveAs { .. }) => {
                 vec![("type", "file name"), ("Enter", "save"), ("Esc", "cancel")]
             }
@@ -1309,10 +1602,10 @@ impl App {
                 },
                 Screen::Results => vec![("↑↓", "move"), ("←→", "pane"), ("Enter", "reasons/try")],
                 Screen::WhatIf => vec![
-                    ("↑↓", "setting"),
+                    ("↑↓", "pick"),
                     ("←→", "change"),
+                    ("d", "taper"),
                     ("a", "keep"),
-                    ("r", "reset"),
                 ],
             },
         };
@@ -1328,37 +1621,107 @@ impl App {
     }
 }
 
-/// The setting change a remedy asks for, read from its ID's words ("reduce_tension",
-/// "add_taper", "lower_nip_load", "use_stiffer_core", "slow_down" ...). Remedies that are not a
-/// winder setting (material, handling) give `None`.
-pub fn remedy_change(id: &str) -> Option<SettingChange> {
-    let words: Vec<&str> = id.split(|c: char| !c.is_ascii_alphanumeric()).collect();
-    let has = |w: &[&str]| words.iter().any(|x| w.contains(x));
-    let up = has(&[
-        "raise", "increase", "more", "higher", "add", "stiffer", "stronger", "heavier", "faster",
-    ]);
-    let down = has(&[
-        "reduce", "lower", "less", "decrease", "remove", "softer", "slow", "slower", "drop",
-    ]);
-    let steps = match (up, down) {
-        (true, false) => 1,
-        (false, true) => -1,
-        _ => return None,
+/// One line about a taper design: the schedule, and whether it meets every limit.
+pub fn design_summary(design: &crate::taper_design::TaperDesign, units: UnitSystem) -> String {
+    let shape = match design.shape {
+        crate::taper_design::TaperShape::Linear => "linear",
+        crate::taper_design::TaperShape::Hyperbolic => "hyperbolic",
     };
-    let setting = if has(&["taper"]) {
-        Setting::Taper
-    } else if has(&["nip", "rider"]) {
-        Setting::NipLoad
-    } else if has(&["tension"]) {
-        Setting::Tension
-    } else if has(&["core"]) && has(&["stiffer", "stronger", "heavier", "softer"]) {
-        Setting::Core
-    } else if has(&["speed", "slow", "slower", "faster"]) {
-        Setting::Speed
+    let verdict = if design.feasible {
+        "meets every limit"
     } else {
-        return None;
+        "no schedule meets every limit (closest shown)"
     };
-    Some(SettingChange { setting, steps })
+    format!(
+        "Designed taper: start {}, {shape} {} % — {verdict}",
+        crate::units::format_quantity(
+            design.start_tension,
+            crate::units::QuantityKind::ForcePerWidth,
+            units
+        ),
+        super::screens::sig3(design.taper_fraction * 100.0)
+    )
+}
+
+/// A rule-base setting change in plain words ("tension ×1.15", "taper +15 points").
+pub fn describe_change(change: &RuleChange) -> String {
+    match *change {
+        RuleChange::TensionScale(f) => format!("tension ×{f}"),
+        RuleChange::TaperBy(p) => format!("taper {p:+} points"),
+        RuleChange::TaperTo(p) => format!("taper to {p} %"),
+        RuleChange::NipScale(f) => format!("nip load ×{f}"),
+        RuleChange::SpeedScale(f) => format!("speed ×{f}"),
+        RuleChange::CoreStiffnessScale(f) => format!("core stiffness ×{f}"),
+        RuleChange::CoreCrushScale(f) => format!("core crush rating ×{f}"),
+        RuleChange::ClearUpsets => "no tension upsets".to_string(),
+        RuleChange::CoreZoneTensionScale(f) => format!("core-zone tension ×{f}"),
+    }
+}
+
+/// The case with a remedy's changes written into its inputs, for the changes a case file can
+/// say directly; the others are refused with a reason.
+pub fn keep_changes(
+    case: &Case,
+    resolved: &ResolvedCase,
+    changes: &[RuleChange],
+) -> Result<Case, String> {
+    let mut out = case.clone();
+    let trial = crate::diagnose::remedies::apply_changes(resolved, changes);
+    for change in changes {
+        match change {
+            RuleChange::TensionScale(_) => {
+                if !matches!(trial.winding.tension.taper, Taper::Steps { .. })
+                    && trial.winding.tension.upsets.is_empty()
+                {
+                    out.winding.tension =
+                        Some(QuantityText::Number(trial.winding.tension.start_tension));
+                } else {
+                    return Err("tension steps or upset bands: change them in the case file".into());
+                }
+            }
+            RuleChange::TaperBy(_) | RuleChange::TaperTo(_) => {
+                let (kind, fraction) = match trial.winding.tension.taper {
+                    Taper::None => ("none", 0.0),
+                    Taper::Linear { fraction } => ("linear", fraction),
+                    Taper::Hyperbolic { fraction } => ("hyperbolic", fraction),
+                    Taper::Steps { .. } => {
+                        return Err(
+                            "the taper is a list of steps: change it in the case file".into()
+                        );
+                    }
+                };
+                out.winding.taper = Some(TaperInput {
+                    kind: kind.into(),
+                    amount: Some(QuantityText::Text(format!(
+                        "{} %",
+                        super::screens::sig3(fraction * 100.0)
+                    ))),
+                    steps: Vec::new(),
+                });
+            }
+            RuleChange::NipScale(_) => {
+                out.winding.nip_load = trial.winding.nip_load.map(QuantityText::Number);
+            }
+            RuleChange::SpeedScale(_) => {
+                out.winding.speed = Some(QuantityText::Number(trial.winding.speed));
+            }
+            RuleChange::CoreCrushScale(_) => {
+                out.core.crush_pressure = Some(QuantityText::Number(trial.core.crush_pressure));
+            }
+            RuleChange::CoreStiffnessScale(_) => {
+                let stiffness = trial.core.stiffness.effective_stiffness();
+                if !stiffness.is_finite() {
+                    return Err("the core is rigid already".into());
+                }
+                out.core.stiffness = Some(QuantityText::Number(stiffness));
+            }
+            RuleChange::ClearUpsets => out.winding.upsets.clear(),
+            RuleChange::CoreZoneTensionScale(_) => {
+                return Err("a core-zone tension band cannot be kept automatically: add it to the case file".into());
+            }
+        }
+    }
+    Ok(out)
 }
 
 /// Case files in `cases/` and the current folder, for the open prompt.
@@ -1397,6 +1760,5 @@ pub fn suggested_file_name(title: &str) -> String {
 
 /// Write the case atomically (temporary file, then rename).
 pub fn save_case(case: &Case, path: &Path) -> Result<(), String> {
-    let text = yaml::to_string(case).map_err(|e| format!("{}: {e}", path.display()))?;
-    crate::fsutil::save_atomic(path, text.as_bytes()).map_err(|e| e.to_string())
+    case.save(path).map_err(|e| e.to_string())
 }

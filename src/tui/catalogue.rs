@@ -1,11 +1,16 @@
 //! The symptom list the picker searches: names, aliases, descriptions and the questions asked
 //! about each symptom, plus the one fuzzy-matching function the UI uses.
 //!
-//! The catalogue is built from the vocabulary of symptom IDs; names, aliases, descriptions and
-//! questions are filled from the rule base when it provides them (see [`Catalogue::from_rules`]).
+//! The catalogue is built from the rule base (titles, aliases, descriptions, places, questions)
+//! and searched with the diagnosis layer's symptom search; a catalogue built from the vocabulary
+//! alone (tests, a rule base without a symptom) uses the same kind of fuzzy match locally.
+
+use std::sync::Arc;
 
 use fuzzy_matcher::FuzzyMatcher;
 use fuzzy_matcher::skim::SkimMatcherV2;
+
+use crate::diagnose::rules::RuleBase;
 
 /// One question asked about a symptom; the answer is stored in `Case::answers[id]`.
 #[derive(Debug, Clone, PartialEq)]
@@ -39,6 +44,8 @@ pub struct SymptomInfo {
     pub name: String,
     pub aliases: Vec<String>,
     pub description: String,
+    /// Where on the roll this symptom can show; empty means any of `vocabulary::PLACES`.
+    pub places: Vec<String>,
     pub questions: Vec<QuestionInfo>,
 }
 
@@ -51,9 +58,11 @@ pub struct Match {
 }
 
 /// Every symptom the picker offers.
-#[derive(Debug, Clone, PartialEq, Default)]
+#[derive(Debug, Clone, Default)]
 pub struct Catalogue {
     pub symptoms: Vec<SymptomInfo>,
+    /// The rule base searched by `diagnose::search`, when the catalogue came from one.
+    rules: Option<Arc<RuleBase>>,
 }
 
 /// Fuzzy score of `pattern` against `text` (higher is better), `None` when it does not match.
@@ -86,16 +95,45 @@ impl Catalogue {
                     name: plain_name(id),
                     aliases: Vec::new(),
                     description: String::new(),
+                    places: Vec::new(),
                     questions: Vec::new(),
                 })
                 .collect(),
+            rules: None,
         }
     }
 
-    /// Built from the rule base: titles, aliases, descriptions and questions of each symptom.
-    pub fn from_rules(_rules: &crate::diagnose::rules::RuleBase) -> Catalogue {
-        // The rule base does not expose symptom listings yet; fall back to the vocabulary.
-        Catalogue::from_vocabulary()
+    /// Built from the rule base: titles, aliases, descriptions, places and questions of each
+    /// symptom, in the rule base's order.
+    pub fn from_rules(rules: Arc<RuleBase>) -> Catalogue {
+        let symptoms = rules
+            .symptoms
+            .iter()
+            .map(|s| SymptomInfo {
+                id: s.id.clone(),
+                name: s.title.clone(),
+                aliases: s.aliases.clone(),
+                description: s.description.clone(),
+                places: s.places.clone(),
+                questions: s
+                    .questions
+                    .iter()
+                    .map(|q| QuestionInfo {
+                        id: q.id.clone(),
+                        text: q.text.clone(),
+                        choices: if q.yes_no {
+                            Vec::new()
+                        } else {
+                            q.choices.iter().map(|c| c.id.clone()).collect()
+                        },
+                    })
+                    .collect(),
+            })
+            .collect();
+        Catalogue {
+            symptoms,
+            rules: Some(rules),
+        }
     }
 
     pub fn get(&self, id: &str) -> Option<&SymptomInfo> {
@@ -105,6 +143,24 @@ impl Catalogue {
     /// Symptoms matching `query` by name, ID or alias, best first; all symptoms in catalogue
     /// order when the query is empty.
     pub fn search(&self, query: &str) -> Vec<Match> {
+        if let Some(rules) = &self.rules {
+            return crate::diagnose::search::search_symptoms(rules, query)
+                .into_iter()
+                .filter_map(|hit| {
+                    let index = self.symptoms.iter().position(|s| s.id == hit.id)?;
+                    let symptom = &self.symptoms[index];
+                    let via_alias = symptom
+                        .aliases
+                        .contains(&hit.matched)
+                        .then_some(hit.matched);
+                    Some(Match {
+                        index,
+                        score: hit.score,
+                        via_alias,
+                    })
+                })
+                .collect();
+        }
         if query.trim().is_empty() {
             return (0..self.symptoms.len())
                 .map(|index| Match {

@@ -28,6 +28,20 @@ pub struct JobRequest {
     /// shown as out of date).
     pub generation: u64,
     pub case: Case,
+    /// Already resolved (and changed) inputs to solve instead of resolving `case` — a remedy
+    /// tried on the what-if screen changes the resolved case directly.
+    pub resolved: Option<Box<ResolvedCase>>,
+    pub task: Task,
+}
+
+/// What the worker does with the request.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
+pub enum Task {
+    /// Resolve, solve, diagnose.
+    #[default]
+    Solve,
+    /// Design a taper schedule for the case (`taper_design::design`, default limits).
+    DesignTaper,
 }
 
 /// Everything one solve produces.
@@ -51,16 +65,25 @@ pub enum JobMessage {
         generation: u64,
         result: Result<Box<SolveOutcome>, String>,
     },
+    DesignFinished {
+        id: u64,
+        generation: u64,
+        result: Result<Box<crate::taper_design::TaperDesign>, String>,
+    },
 }
 
 /// Resolve, solve and diagnose `case` on the calling thread. `progress(fraction)` returning
 /// false cancels the solve.
 pub fn run_pipeline(
     case: &Case,
+    resolved: Option<&ResolvedCase>,
     rules: &RuleBase,
     progress: &mut dyn FnMut(f64) -> bool,
 ) -> Result<SolveOutcome, String> {
-    let resolved = case.resolve().map_err(|e| format!("inputs: {e}"))?;
+    let resolved = match resolved {
+        Some(resolved) => resolved.clone(),
+        None => case.resolve().map_err(|e| format!("inputs: {e}"))?,
+    };
     let problem = resolved.problem(SolverOptions::default());
     let profile = crate::model::solve_with_progress(&problem, progress)
         .map_err(|e| format!("stress solve: {e}"))?;
@@ -76,6 +99,16 @@ pub fn run_pipeline(
         profile,
         diagnosis,
     })
+}
+
+/// Design a taper for the request's case with the default limits.
+fn design_taper(request: &JobRequest) -> Result<crate::taper_design::TaperDesign, String> {
+    let resolved = match &request.resolved {
+        Some(resolved) => resolved.as_ref().clone(),
+        None => request.case.resolve().map_err(|e| format!("inputs: {e}"))?,
+    };
+    crate::taper_design::design(&resolved, &crate::taper_design::TaperLimits::default())
+        .map_err(|e| format!("taper design: {e}"))
 }
 
 /// Name of solver threads; the panic hook leaves the terminal alone for panics on them (they
@@ -130,6 +163,27 @@ impl JobRunner {
         let purpose = request.purpose;
         let generation = request.generation;
         let failure_sender = self.sender.clone();
+        if request.task == Task::DesignTaper {
+            let spawned = std::thread::Builder::new()
+                .name(SOLVER_THREAD_NAME.into())
+                .spawn(move || {
+                    let result = std::panic::catch_unwind(|| design_taper(&request))
+                        .unwrap_or_else(|payload| Err(panic_text(payload.as_ref())));
+                    let _ = sender.send(JobMessage::DesignFinished {
+                        id,
+                        generation,
+                        result: result.map(Box::new),
+                    });
+                });
+            if let Err(error) = spawned {
+                let _ = failure_sender.send(JobMessage::DesignFinished {
+                    id,
+                    generation,
+                    result: Err(format!("cannot start the solver thread: {error}")),
+                });
+            }
+            return;
+        }
         let spawned = std::thread::Builder::new()
             .name(SOLVER_THREAD_NAME.into())
             .spawn(move || {
@@ -144,7 +198,12 @@ impl JobRunner {
                 };
                 // A panic in the numerics must not take the UI down with it.
                 let result = std::panic::catch_unwind(std::panic::AssertUnwindSafe(|| {
-                    run_pipeline(&request.case, &rules, &mut progress)
+                    run_pipeline(
+                        &request.case,
+                        request.resolved.as_deref(),
+                        &rules,
+                        &mut progress,
+                    )
                 }))
                 .unwrap_or_else(|payload| Err(panic_text(payload.as_ref())));
                 let _ = sender.send(JobMessage::Finished {
@@ -167,7 +226,7 @@ impl JobRunner {
     /// The next message, if one is waiting.
     pub fn try_recv(&mut self) -> Option<JobMessage> {
         let message = self.receiver.try_recv().ok()?;
-        if let JobMessage::Finished { id, .. } = &message {
+        if let JobMessage::Finished { id, .. } | JobMessage::DesignFinished { id, .. } = &message {
             self.running.retain(|(_, running_id, _)| running_id != id);
         }
         Some(message)

@@ -44,15 +44,34 @@ pub struct Options {
 
 /// Web and core preset IDs offered on the preset rows.
 pub fn preset_ids() -> (Vec<String>, Vec<String>) {
-    // The preset table does not list its IDs yet.
-    (Vec::new(), Vec::new())
+    (
+        crate::presets::web_presets()
+            .iter()
+            .map(|p| p.id.to_string())
+            .collect(),
+        crate::presets::core_presets()
+            .iter()
+            .map(|p| p.id.to_string())
+            .collect(),
+    )
 }
 
 /// Build the app for `options` without touching the terminal (also used by tests).
-pub fn build_app(options: &Options, rules: &RuleBase) -> Result<app::App, TuiError> {
+pub fn build_app(options: &Options, rules: Arc<RuleBase>) -> Result<app::App, TuiError> {
     let (web, core) = preset_ids();
-    let mut app = app::App::new(catalogue::Catalogue::from_rules(rules), web, core);
+    let mut app = app::App::new(
+        catalogue::Catalogue::from_rules(Arc::clone(&rules)),
+        web,
+        core,
+    );
     app.units = options.units;
+    // Walk-throughs are optional extras: a broken one must not keep the UI from opening.
+    app.walkthroughs = crate::training::library::embedded().unwrap_or_default();
+    app.remedy_changes = rules
+        .remedies
+        .iter()
+        .map(|(id, remedy)| (id.clone(), remedy.changes.clone()))
+        .collect();
     if let Some(path) = &options.case {
         let case = crate::case::Case::load(path).map_err(|e| TuiError::Case(e.to_string()))?;
         app.set_case(case, Some(path.clone()));
@@ -68,9 +87,10 @@ pub fn run(options: &Options) -> Result<(), TuiError> {
         None => RuleBase::embedded()?,
     };
     // Load the case before touching the terminal, so a bad file is a plain error message.
-    let mut app = build_app(options, &rules)?;
+    let rules = Arc::new(rules);
+    let mut app = build_app(options, Arc::clone(&rules))?;
     let theme = theme::Theme::from_env();
-    let mut jobs = job::JobRunner::new(Arc::new(rules));
+    let mut jobs = job::JobRunner::new(rules);
     let mut terminal = terminal::setup(options.mouse)?;
     let result = event_loop(&mut terminal, &mut app, &mut jobs, theme);
     jobs.cancel_all();

@@ -46,6 +46,24 @@ CASES = [
 ]
 
 
+def tangential_ratio(g, c, rc, outer, r):
+    """sigma_theta(r)/sigma_w = 1 - int_r^R (f(r) + r f'(r)) / (s f(s)) ds: the wound-in stress
+    minus the hoop increments d + r d' of every later wrap."""
+    root = math.sqrt(g)
+    m1, m2 = -1.0 + root, -1.0 - root
+    k = -(m1 - c) / (m2 - c)
+
+    def f(x):
+        return (x / rc) ** m1 + k * (x / rc) ** m2
+
+    hoop = (1.0 + m1) * (r / rc) ** m1 + k * (1.0 + m2) * (r / rc) ** m2
+    value, _err = quad(lambda s: 1.0 / (s * f(s)), r, outer, epsabs=1e-14, epsrel=1e-12, limit=200)
+    return 1.0 - hoop * value
+
+
+FRACTIONS = [0.0, 0.25, 0.5, 0.9, 0.99]
+
+
 def compute():
     results = []
     for name, g, core_ratio, nu, rc, outer, h in CASES:
@@ -60,6 +78,10 @@ def compute():
                 "outer_radius": outer,
                 "thickness": h,
                 "core_pressure_over_web_stress": core_pressure_ratio(g, c, rc, outer),
+                "build_fractions": FRACTIONS,
+                "tangential_over_web_stress": [
+                    tangential_ratio(g, c, rc, outer, rc + f * (outer - rc)) for f in FRACTIONS
+                ],
             }
         )
     return {
@@ -80,14 +102,17 @@ def main():
         for new, old in zip(data["cases"], committed["cases"], strict=True):
             a = new["core_pressure_over_web_stress"]
             b = old["core_pressure_over_web_stress"]
-            if new["name"] != old["name"] or abs(a - b) > 1e-9 * max(1.0, abs(b)):
+            ta, tb = new["tangential_over_web_stress"], old["tangential_over_web_stress"]
+            drift = any(abs(x - y) > 1e-9 * max(1.0, abs(y)) for x, y in zip(ta, tb, strict=True))
+            if new["name"] != old["name"] or abs(a - b) > 1e-9 * max(1.0, abs(b)) or drift:
                 print(f"drift in {new['name']}: {a} vs committed {b}")
                 sys.exit(1)
         print("closed_form.json up to date")
         return
     OUT.write_text(json.dumps(data, indent=2) + "\n")
     for case in data["cases"]:
-        print(f"{case['name']}: {case['core_pressure_over_web_stress']:.6f}")
+        print(f"{case['name']}: {case['core_pressure_over_web_stress']:.6f}",
+              [round(x, 6) for x in case["tangential_over_web_stress"]])
 
 
 if __name__ == "__main__":

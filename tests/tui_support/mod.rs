@@ -7,9 +7,11 @@
 use std::collections::BTreeMap;
 
 use rolltriage::case::{
-    Case, ObservedSymptom, ResolvedCase, ResolvedCore, ResolvedRoll, ResolvedWeb, ResolvedWinding,
+    AssumedValue, Case, ObservedSymptom, ResolvedCase, ResolvedCore, ResolvedRoll, ResolvedWeb,
+    ResolvedWinding,
 };
 use rolltriage::diagnose::indicators::IndicatorValue;
+use rolltriage::diagnose::rules::SettingChange;
 use rolltriage::diagnose::{Caution, Diagnosis, MergedRemedy, RankedCause, Reason};
 use rolltriage::model::{
     CoreStiffness, Profile, ProfileSummary, RadialStiffness, Taper, TensionSchedule, WindingMethod,
@@ -53,11 +55,25 @@ pub fn catalogue() -> Catalogue {
 }
 
 pub fn app() -> App {
-    App::new(
+    let mut app = App::new(
         catalogue(),
         vec!["newsprint".into(), "pet_film".into()],
         vec!["paper_3in".into(), "steel_6in".into()],
-    )
+    );
+    // The setting changes the rule base gives these sample remedies.
+    app.remedy_changes = [
+        (
+            "raise_tension".to_string(),
+            vec![SettingChange::TensionScale(1.15)],
+        ),
+        (
+            "add_nip_load".to_string(),
+            vec![SettingChange::NipScale(1.2)],
+        ),
+    ]
+    .into_iter()
+    .collect();
+    app
 }
 
 pub fn resolved(title: &str) -> ResolvedCase {
@@ -151,7 +167,9 @@ pub fn profile(scale: f64) -> Profile {
             physical_layers: 5921,
             elements: 120,
             layers_per_element: 49,
+            ..ProfileSummary::default()
         },
+        thickness: 76e-6,
         radial_strain: vec![0.0; n],
         wound_in_tension: vec![525.0; n],
         radius,
@@ -220,6 +238,7 @@ pub fn diagnosis(scale: f64) -> Diagnosis {
                 id: "raise_tension".into(),
                 text: "Raise the web tension in steps of about 10 %".into(),
                 group: "winder_setting".into(),
+                cost: "low".into(),
                 answers: vec!["tension_too_low".into()],
                 cautions: vec![],
                 what_if: None,
@@ -228,6 +247,7 @@ pub fn diagnosis(scale: f64) -> Diagnosis {
                 id: "add_nip_load".into(),
                 text: "Add or raise the nip (rider roll) load".into(),
                 group: "winder_setting".into(),
+                cost: "low".into(),
                 answers: vec!["air_entrainment".into()],
                 cautions: vec!["nip_pinch_point".into()],
                 what_if: None,
@@ -236,6 +256,7 @@ pub fn diagnosis(scale: f64) -> Diagnosis {
                 id: "store_rolls_on_end".into(),
                 text: "Store finished rolls on their ends, not on their faces".into(),
                 group: "handling_and_storage".into(),
+                cost: "low".into(),
                 answers: vec!["tension_too_low".into()],
                 cautions: vec![],
                 what_if: None,
@@ -263,6 +284,29 @@ pub fn diagnosis(scale: f64) -> Diagnosis {
             },
         ],
     }
+}
+
+/// A resolved case listing a few assumed values, as a blank case with presets would.
+pub fn resolved_with_assumed() -> ResolvedCase {
+    let mut resolved = resolved("New case");
+    for (field, value, source) in [
+        ("web.material", "paper", "preset newsprint"),
+        ("web.thickness", "76 µm", "preset newsprint: sample caliper"),
+        (
+            "core.crush_pressure",
+            "1.5 MPa",
+            "preset paper_3in: sample rating",
+        ),
+        ("roll.diameter", "1 m", "default"),
+        ("winding.method", "centre", "default"),
+    ] {
+        resolved.assumed.push(AssumedValue {
+            field: field.into(),
+            value: value.into(),
+            source: source.into(),
+        });
+    }
+    resolved
 }
 
 pub fn outcome(scale: f64) -> SolveOutcome {

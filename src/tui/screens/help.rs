@@ -14,7 +14,8 @@ pub fn sections() -> Vec<(&'static str, Vec<(&'static str, &'static str)>)> {
             ("Ctrl-L", "take the inputs from a saved case, keep the symptoms"),
             ("Ctrl-R", "solve again"),
             ("Ctrl-U", "SI / US units"),
-            ("Ctrl-E", "export a report"),
+            ("Ctrl-E", "export a report (.md, .html or .json by the file name)"),
+            ("Ctrl-T / F6", "training walk-throughs: open a guided case"),
             ("Ctrl-Q (q off text)", "quit — asks when there are unsaved changes"),
         ]),
         ("Symptoms", vec![
@@ -42,7 +43,8 @@ pub fn sections() -> Vec<(&'static str, Vec<(&'static str, &'static str)>)> {
             ("↑ ↓", "pick a setting or a remedy"),
             ("← →", "change the setting one step down / up"),
             ("Enter", "try the highlighted remedy"),
-            ("a / r", "keep the change in the case / reset"),
+            ("d", "design a taper that keeps the roll inside every limit"),
+            ("a / r", "keep the change (or the designed taper) in the case / reset"),
         ]),
         ("Reading the plots", vec![
             ("core inner middle outer", "zones of the roll, named on the top row"),

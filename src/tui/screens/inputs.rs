@@ -8,7 +8,7 @@ use ratatui::text::{Line, Span};
 use ratatui::widgets::{Block, Paragraph, Widget, Wrap};
 
 use crate::tui::app::App;
-use crate::tui::fields::{self, FIELDS, FieldKind};
+use crate::tui::fields::{self, FIELDS, FieldKind, PresetFamily};
 use crate::tui::theme::Theme;
 
 fn accepted_text(kind: FieldKind) -> String {
@@ -36,7 +36,7 @@ pub fn render(app: &App, theme: Theme, area: Rect, buf: &mut Buffer) {
     // group (8) + label + two spaces + tag (8) inside the borders.
     let value_width = usize::from(table.width.saturating_sub(2))
         .saturating_sub(8 + label_width + 2 + 8)
-        .clamp(8, 60);
+        .clamp(8, 90);
     let mut lines = Vec::new();
     let mut last_group = "";
     for (row, spec) in FIELDS.iter().enumerate().skip(first).take(room) {
@@ -109,14 +109,25 @@ pub fn render(app: &App, theme: Theme, area: Rect, buf: &mut Buffer) {
             theme.warn(),
         )),
     };
+    // On a preset row, say what the chosen preset is.
+    let current = fields::get(&app.case, spec.path);
+    let about = match (spec.kind, current.as_deref()) {
+        (FieldKind::Preset(PresetFamily::Web), Some(id)) => crate::presets::web_preset(id)
+            .map(|p| format!("{id}: {}", p.name))
+            .unwrap_or_else(|| format!("{id}: not a known web preset")),
+        (FieldKind::Preset(PresetFamily::Core), Some(id)) => crate::presets::core_preset(id)
+            .map(|p| format!("{id}: {}", p.name))
+            .unwrap_or_else(|| format!("{id}: not a known core preset")),
+        _ => format!(
+            "e.g. \"{}\"  accepted: {}",
+            spec.example,
+            accepted_text(spec.kind)
+        ),
+    };
     let info_lines = vec![
         Line::from(vec![
             Span::styled(format!("{}: ", spec.label), theme.title()),
-            Span::raw(format!(
-                "e.g. \"{}\"  accepted: {}",
-                spec.example,
-                accepted_text(spec.kind)
-            )),
+            Span::raw(about),
         ]),
         resolved_line,
         Line::from(Span::styled(

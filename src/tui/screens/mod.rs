@@ -166,6 +166,17 @@ pub fn sig3(value: f64) -> String {
     }
 }
 
+/// Scroll offset that keeps logical line `target` (and the line after it) of a wrapped
+/// paragraph in a box `width`×`height` (inside its borders) in view. Word wrapping can take a
+/// row more than the estimate, hence the spare line.
+pub fn scroll_to_keep(lines: &[Line], target: usize, width: u16, height: u16) -> u16 {
+    let width = usize::from(width).max(1);
+    let rows = |l: &Line| l.width().div_ceil(width).max(1);
+    let before: usize = lines.iter().take(target).map(rows).sum();
+    let here = lines.get(target).map_or(1, rows);
+    (before + here + 1).saturating_sub(usize::from(height)) as u16
+}
+
 /// A centred rectangle `width`×`height` inside `area` (clipped to it).
 pub fn centred(area: Rect, width: u16, height: u16) -> Rect {
     let width = width.min(area.width);

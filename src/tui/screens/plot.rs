@@ -183,10 +183,13 @@ impl Widget for ZonePlot<'_> {
                 self.band_style,
             );
         }
+        // Reference lines far off the plot are named on the bottom border, right-aligned.
         if let Some(line) = off_plot.first() {
-            let text = format!("↑ {} {}", line.label, (self.format_y)(line.y));
+            let text = format!(" ↑ {} {} ", line.label, (self.format_y)(line.y));
             let x = inner.right().saturating_sub(text.chars().count() as u16);
-            buf.set_string(x.max(plot.x), inner.y, &text, line.style);
+            if area.bottom() > inner.bottom() && x > inner.x {
+                buf.set_string(x, area.bottom() - 1, &text, line.style);
+            }
         }
 
         // Reference lines with their labels at the right end.

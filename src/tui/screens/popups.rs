@@ -38,6 +38,7 @@ pub fn render(app: &App, popup: &Popup, theme: Theme, area: Rect, buf: &mut Buff
                 PendingAction::Quit => "quitting".to_string(),
                 PendingAction::NewCase => "starting a blank case".to_string(),
                 PendingAction::Open(path) => format!("opening {}", path.display()),
+                PendingAction::Training(_) => "opening the walk-through".to_string(),
             };
             let lines = vec![
                 Line::from(format!("The case has unsaved changes. Before {doing}:")),
@@ -102,6 +103,56 @@ pub fn render(app: &App, popup: &Popup, theme: Theme, area: Rect, buf: &mut Buff
             Paragraph::new(lines)
                 .wrap(Wrap { trim: false })
                 .block(Block::bordered().title(title))
+                .render(rect, buf);
+        }
+        Popup::Export { input, error } => {
+            let mut lines = vec![Line::from(vec![
+                Span::styled("file: ", theme.key()),
+                Span::raw(format!("{input}▏")),
+            ])];
+            if let Some(error) = error {
+                lines.push(Line::from(Span::styled(error.clone(), theme.error())));
+            }
+            lines.push(Line::from(Span::styled(
+                "Markdown (.md), HTML with plots (.html) or JSON (.json), by the file name.",
+                theme.dim(),
+            )));
+            let rect = centred(area, 64, 6);
+            Clear.render(rect, buf);
+            Paragraph::new(lines)
+                .wrap(Wrap { trim: false })
+                .block(Block::bordered().title(" Export a report "))
+                .render(rect, buf);
+        }
+        Popup::Training { selected } => {
+            let rect = centred(area, 76, area.height.saturating_sub(4).min(18));
+            let room = usize::from(rect.height.saturating_sub(2));
+            let first = selected.saturating_sub(room.saturating_sub(1));
+            let mut lines = Vec::new();
+            for (i, loaded) in app.walkthroughs.iter().enumerate().skip(first).take(room) {
+                let w = &loaded.walkthrough;
+                let style = if i == *selected {
+                    theme.selected()
+                } else {
+                    theme.plain()
+                };
+                let level = w.level.as_deref().unwrap_or("");
+                lines.push(Line::from(Span::styled(
+                    format!(" {} [{level}]", w.title),
+                    style,
+                )));
+            }
+            Clear.render(rect, buf);
+            Paragraph::new(lines)
+                .block(Block::bordered().title(" Training walk-throughs — Enter opens the case "))
+                .render(rect, buf);
+        }
+        Popup::Notice { title, text } => {
+            let rect = centred(area, 70, area.height.saturating_sub(4).min(14));
+            Clear.render(rect, buf);
+            Paragraph::new(text.clone())
+                .wrap(Wrap { trim: false })
+                .block(Block::bordered().title(format!(" {title} ")))
                 .render(rect, buf);
         }
         Popup::SaveAs { input, error } => {

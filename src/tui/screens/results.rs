@@ -227,16 +227,15 @@ fn belief_bar(belief: f64) -> String {
     format!("{}{}", "■".repeat(filled), "□".repeat(5 - filled))
 }
 
-/// Keep line `target` visible in `height` rows.
-fn scroll_for(target: usize, height: usize) -> u16 {
-    target.saturating_sub(height.saturating_sub(2)) as u16
-}
-
 fn render_causes(app: &App, diagnosis: &Diagnosis, theme: Theme, area: Rect, buf: &mut Buffer) {
     let focus = app.results.focus == ResultsFocus::Causes;
     let mut lines: Vec<Line> = Vec::new();
     let mut target = 0;
-    if diagnosis.causes.is_empty() {
+    if app.case.symptoms.is_empty() {
+        lines.push(Line::from(
+            "No symptoms picked: F2, then type what you see on the roll.",
+        ));
+    } else if diagnosis.causes.is_empty() {
         lines.push(Line::from(
             "No cause stands out for these symptoms and inputs.",
         ));
@@ -293,10 +292,15 @@ fn render_causes(app: &App, diagnosis: &Diagnosis, theme: Theme, area: Rect, buf
             }
         }
     }
-    let height = usize::from(area.height.saturating_sub(2));
+    let scroll = super::scroll_to_keep(
+        &lines,
+        target,
+        area.width.saturating_sub(2),
+        area.height.saturating_sub(2),
+    );
     Paragraph::new(lines)
         .wrap(Wrap { trim: false })
-        .scroll((scroll_for(target, height), 0))
+        .scroll((scroll, 0))
         .block(Block::bordered().title(" Ranked causes "))
         .render(area, buf);
 }
@@ -343,6 +347,14 @@ fn render_remedies(app: &App, diagnosis: &Diagnosis, theme: Theme, area: Rect, b
         lines.push(Line::from(vec![
             Span::styled(format!("{:>2}. {}", i + 1, remedy.text), style),
             Span::styled(caution.to_string(), theme.warn()),
+            Span::styled(
+                if remedy.cost.is_empty() {
+                    String::new()
+                } else {
+                    format!(" [cost {}]", remedy.cost)
+                },
+                theme.dim(),
+            ),
         ]));
         if !remedy.answers.is_empty() {
             lines.push(Line::from(Span::styled(
@@ -380,10 +392,15 @@ fn render_remedies(app: &App, diagnosis: &Diagnosis, theme: Theme, area: Rect, b
             theme.dim(),
         )));
     }
-    let height = usize::from(area.height.saturating_sub(2));
+    let scroll = super::scroll_to_keep(
+        &lines,
+        target,
+        area.width.saturating_sub(2),
+        area.height.saturating_sub(2),
+    );
     Paragraph::new(lines)
         .wrap(Wrap { trim: false })
-        .scroll((scroll_for(target, height), 0))
+        .scroll((scroll, 0))
         .block(Block::bordered().title(" Remedies, in the order to try "))
         .render(area, buf);
 }

@@ -53,12 +53,18 @@ pub fn render(app: &App, theme: Theme, area: Rect, buf: &mut Buffer) {
         let observed = app.case.symptoms.iter().find(|s| s.id == symptom.id);
         let mark = if observed.is_some() { "[x]" } else { "[ ]" };
         let pointer = if row == state.highlighted { "▸" } else { " " };
-        let mut text = format!("{pointer}{mark} {}", symptom.name);
+        // Place and matched word first: the name is what gets cut when the list is narrow.
+        let mut text = format!("{pointer}{mark} ");
         if let Some(place) = observed.and_then(|o| o.place.as_deref()) {
-            text.push_str(&format!("  @{}", plain_name(place).to_lowercase()));
+            text.push_str(&format!("@{} ", plain_name(place).to_lowercase()));
         }
         if let Some(alias) = &hit.via_alias {
-            text.push_str(&format!("  “{alias}”"));
+            text.push_str(&format!("“{alias}” "));
+        }
+        text.push_str(&symptom.name);
+        let room = usize::from(list.width.saturating_sub(2));
+        if text.chars().count() > room && room > 1 {
+            text = text.chars().take(room - 1).collect::<String>() + "…";
         }
         let style = if row == state.highlighted && list_focus {
             theme.selected()
@@ -79,7 +85,7 @@ pub fn render(app: &App, theme: Theme, area: Rect, buf: &mut Buffer) {
         .render(list, buf);
 
     let picked_text = if app.case.symptoms.is_empty() {
-        "none yet — Enter picks the highlighted symptom".to_string()
+        "none yet — Enter picks the highlighted symptom; ^O opens a saved or demo case".to_string()
     } else {
         app.case
             .symptoms
@@ -144,11 +150,13 @@ fn render_details(app: &App, theme: Theme, area: Rect, buf: &mut Buffer) {
     } else {
         "not picked"
     };
+    let mut row_lines = vec![lines.len()];
     lines.push(Line::from(vec![
         Span::styled(format!("Where on the roll: ‹ {place} ›"), row_style(0)),
         Span::styled(format!("  ({picked})"), theme.dim()),
     ]));
     for (i, question) in symptom.questions.iter().enumerate() {
+        row_lines.push(lines.len());
         let answer = app
             .case
             .answers
@@ -166,8 +174,21 @@ fn render_details(app: &App, theme: Theme, area: Rect, buf: &mut Buffer) {
             theme.dim(),
         )));
     }
+    // Keep the highlighted row in view.
+    let target = row_lines.get(state.detail_row).copied().unwrap_or(0);
+    let scroll = if details_focus {
+        super::scroll_to_keep(
+            &lines,
+            target,
+            area.width.saturating_sub(2),
+            area.height.saturating_sub(2),
+        )
+    } else {
+        0
+    };
     Paragraph::new(lines)
         .wrap(Wrap { trim: false })
+        .scroll((scroll, 0))
         .block(block)
         .render(area, buf);
 }

@@ -90,22 +90,69 @@ pub fn comparison(
         }
         indicator_rows.sort_by(|x, y| y.0.total_cmp(&x.0));
         rows.extend(indicator_rows.into_iter().map(|(_, row)| row));
-        for (i, cause) in db.causes.iter().take(3).enumerate() {
+        // Beliefs first (only those that moved), then indicators by size of change.
+        let mut belief_rows = Vec::new();
+        for cause in db.causes.iter().take(5) {
             let after_belief = da
                 .causes
                 .iter()
                 .find(|c| c.id == cause.id)
                 .map_or(0.0, |c| c.belief);
-            rows.insert(
-                3 + i,
-                [
+            if ((after_belief - cause.belief) * 100.0).abs() >= 0.5 {
+                belief_rows.push([
                     format!("belief {}", cause.id),
                     format!("{:.0}%", cause.belief * 100.0),
                     format!("{:.0}%", after_belief * 100.0),
                     format!("{:+.0} pts", (after_belief - cause.belief) * 100.0),
-                ],
-            );
+                ]);
+            }
         }
+        let indicators = rows.split_off(3);
+        rows.extend(belief_rows);
+        rows.extend(indicators);
+    }
+    rows
+}
+
+/// Rows of (limit, before, after, allowed) for a taper design, then its explanation.
+pub fn design_rows(
+    design: &crate::taper_design::TaperDesign,
+    units: UnitSystem,
+) -> Vec<[String; 4]> {
+    use crate::taper_design::Limit;
+    let show = |limit: Limit, v: f64| match limit {
+        Limit::CorePressure | Limit::OuterPressure => compact_stress(v, units),
+        Limit::Starring => format!("{:.1}%", v * 100.0),
+        Limit::WoundInTension => {
+            crate::units::format_quantity(v, crate::units::QuantityKind::ForcePerWidth, units)
+        }
+    };
+    let mut rows = Vec::new();
+    for after in &design.after.checks {
+        let before = design.before.check(after.limit).map(|c| c.value);
+        let bound = if after.limit == Limit::OuterPressure {
+            "≥"
+        } else {
+            "≤"
+        };
+        rows.push([
+            format!(
+                "{} {}",
+                if after.met { "✓" } else { "✗" },
+                after.limit.title()
+            ),
+            before.map_or("—".into(), |v| show(after.limit, v)),
+            show(after.limit, after.value),
+            format!("{bound}{}", show(after.limit, after.allowed)),
+        ]);
+    }
+    for sentence in design.explanation.iter().take(4) {
+        rows.push([
+            sentence.clone(),
+            String::new(),
+            String::new(),
+            String::new(),
+        ]);
     }
     rows
 }
@@ -148,14 +195,19 @@ pub fn render(app: &App, theme: Theme, area: Rect, buf: &mut Buffer) {
             theme.title(),
         )));
     }
-    for (i, (_, text, _)) in remedies.iter().enumerate() {
+    for (i, (id, text)) in remedies.iter().enumerate() {
         let row = Setting::ALL.len() + i;
         let style = if row == app.what_if.row {
             theme.selected()
         } else {
             theme.plain()
         };
-        lines.push(Line::from(Span::styled(format!("• {text}"), style)));
+        let mark = if app.what_if.remedy.as_deref() == Some(id) {
+            "▶"
+        } else {
+            "•"
+        };
+        lines.push(Line::from(Span::styled(format!("{mark} {text}"), style)));
     }
     let step_help = Setting::ALL
         .get(app.what_if.row)
@@ -187,18 +239,32 @@ pub fn render(app: &App, theme: Theme, area: Rect, buf: &mut Buffer) {
     } else if before.is_none() && app.what_if.change.is_some() {
         text.push(Line::from("waiting for the case's own solve…"));
     }
-    if let (Some(before), Some(after)) = (before, after) {
-        let rows = comparison(before, after, app.units);
+    let design = app.what_if.design.as_ref().map(|(_, d)| d.as_ref());
+    let rows = match (before, after, design) {
+        (Some(before), Some(after), _) => Some(comparison(before, after, app.units)),
+        (_, None, Some(design)) => Some(design_rows(design, app.units)),
+        _ => None,
+    };
+    if let Some(rows) = rows {
+        let last_header = if design.is_some() && after.is_none() {
+            "allowed"
+        } else {
+            "change"
+        };
         let width = usize::from(compare.width.saturating_sub(2));
         let name_width = width.saturating_sub(28).clamp(10, 48);
         text.push(Line::from(Span::styled(
             format!(
                 "{:<name_width$} {:>9} {:>9} {:>7}",
-                "", "before", "after", "change"
+                "", "before", "after", last_header
             ),
             theme.dim(),
         )));
         for [name, b, a, c] in rows {
+            if b.is_empty() && a.is_empty() && c.is_empty() {
+                text.push(Line::from(Span::styled(name, theme.dim())));
+                continue;
+            }
             let name: String = if name.chars().count() > name_width {
                 let mut short: String = name.chars().take(name_width - 1).collect();
                 short.push('…');
@@ -212,9 +278,22 @@ pub fn render(app: &App, theme: Theme, area: Rect, buf: &mut Buffer) {
         }
     }
     Paragraph::new(text)
+        .wrap(Wrap { trim: false })
         .block(Block::bordered().title(" Before → after  (a keeps the change, r resets) "))
         .render(compare, buf);
 
+    if let (None, Some(design)) = (after, design) {
+        render_plots(
+            &design.after.profile,
+            Some(&design.before.profile),
+            before.map_or(f64::NAN, |b| b.resolved.core.crush_pressure),
+            app.units,
+            theme,
+            plots,
+            buf,
+        );
+        return;
+    }
     match (before, after) {
         (Some(before), Some(after)) => render_plots(
             &after.profile,

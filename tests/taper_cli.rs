@@ -1,0 +1,100 @@
+//! `rolltriage taper` end to end on a demo case whose schedule already meets every limit (the
+//! design keeps it, so the run is quick): the operator table in SI and trade units, exit codes.
+
+use std::process::Command;
+
+fn bin() -> Command {
+    let mut c = Command::new(env!("CARGO_BIN_EXE_rolltriage"));
+    c.current_dir(env!("CARGO_MANIFEST_DIR"));
+    c
+}
+
+#[test]
+fn a_schedule_that_meets_every_limit_is_kept_and_tabled() {
+    let out = bin()
+        .args([
+            "taper",
+            "cases/harbour_newsprint_telescoping.yaml",
+            "--json",
+        ])
+        .output()
+        .unwrap();
+    assert!(
+        out.status.success(),
+        "{}",
+        String::from_utf8_lossy(&out.stderr)
+    );
+    let v: serde_json::Value = serde_json::from_slice(&out.stdout).unwrap();
+    assert_eq!(v["feasible"], true);
+    // The case winds 0.5 pli constant: 0.5 lbf/in = 87.56 N/m (NIST SP 811).
+    let t0 = v["start_tension_n_per_m"].as_f64().unwrap();
+    assert!((t0 - 87.563).abs() < 0.01, "{t0}");
+    assert_eq!(v["taper_fraction"].as_f64().unwrap(), 0.0);
+    let table = v["table"].as_array().unwrap();
+    assert_eq!(table.len(), 11);
+    // From the 101.6 mm core to the 1000 mm roll.
+    assert!((table[0]["diameter"].as_f64().unwrap() - 0.1016).abs() < 1e-9);
+    assert!((table[10]["diameter"].as_f64().unwrap() - 1.0).abs() < 1e-9);
+}
+
+#[test]
+fn the_text_output_shows_both_unit_systems_and_the_caution() {
+    let out = bin()
+        .args([
+            "taper",
+            "cases/harbour_newsprint_telescoping.yaml",
+            "--units",
+            "us",
+        ])
+        .output()
+        .unwrap();
+    assert!(out.status.success());
+    let text = String::from_utf8(out.stdout).unwrap();
+    assert!(text.contains("diam mm") && text.contains("pli") && text.contains("N/m"));
+    assert!(text.contains("psi"), "{text}");
+    assert!(text.contains("lockout/tagout"));
+}
+
+#[test]
+fn bad_options_are_refused() {
+    let out = bin()
+        .args([
+            "taper",
+            "cases/harbour_newsprint_telescoping.yaml",
+            "--core-share",
+            "0",
+        ])
+        .output()
+        .unwrap();
+    assert_eq!(out.status.code(), Some(1));
+    assert!(String::from_utf8_lossy(&out.stderr).contains("core_share"));
+    let out = bin()
+        .args([
+            "taper",
+            "cases/harbour_newsprint_telescoping.yaml",
+            "--min-outer-pressure",
+            "14",
+        ])
+        .output()
+        .unwrap();
+    assert_eq!(out.status.code(), Some(1));
+    assert!(String::from_utf8_lossy(&out.stderr).contains("--min-outer-pressure"));
+}
+
+#[test]
+fn json_carries_before_and_after_profiles_for_plots() {
+    let out = bin()
+        .args([
+            "taper",
+            "cases/harbour_newsprint_telescoping.yaml",
+            "--json",
+        ])
+        .output()
+        .unwrap();
+    let v: serde_json::Value = serde_json::from_slice(&out.stdout).unwrap();
+    for key in ["before_profile", "after_profile"] {
+        let r = v[key]["radius_m"].as_array().unwrap();
+        assert!(r.len() >= 2 && r.len() <= 200, "{key} {}", r.len());
+        assert_eq!(r.len(), v[key]["pressure_pa"].as_array().unwrap().len());
+    }
+}

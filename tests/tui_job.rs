@@ -1,0 +1,117 @@
+//! The background solver job: a real resolve → solve → diagnose on a worker thread, reported
+//! over the channel; a newer request of the same purpose cancels the older one.
+
+use std::sync::Arc;
+use std::time::{Duration, Instant};
+
+use rolltriage::case::Case;
+use rolltriage::diagnose::rules::RuleBase;
+use rolltriage::tui::job::{JobMessage, JobRequest, JobRunner, Purpose, Task};
+
+/// A small roll (core 101.6 mm, roll 130 mm: about 190 wraps of newsprint) so the solve is quick
+/// in a debug build.
+fn small_case() -> Case {
+    Case::from_yaml_str(
+        r#"
+title: Small test roll
+web: {preset: newsprint}
+core: {preset: paper_3in}
+roll: {diameter: "130 mm"}
+winding: {tension: "1 pli"}
+symptoms:
+  - {id: telescoping, where: outside}
+"#,
+        "small test roll",
+    )
+    .unwrap()
+}
+
+fn request(id: u64, case: Case) -> JobRequest {
+    JobRequest {
+        id,
+        purpose: Purpose::Baseline,
+        generation: id,
+        case,
+        resolved: None,
+        task: Task::Solve,
+    }
+}
+
+fn wait_for(runner: &mut JobRunner, id: u64) -> JobMessage {
+    let start = Instant::now();
+    loop {
+        if let Some(message) = runner.try_recv()
+            && matches!(&message, JobMessage::Finished { id: got, .. } if *got == id)
+        {
+            return message;
+        }
+        assert!(
+            start.elapsed() < Duration::from_secs(120),
+            "no result for job {id}"
+        );
+        std::thread::sleep(Duration::from_millis(10));
+    }
+}
+
+#[test]
+fn a_solve_runs_off_the_calling_thread_and_reports_its_result() {
+    let rules = Arc::new(RuleBase::embedded().unwrap());
+    let mut runner = JobRunner::new(rules);
+    let started = Instant::now();
+    runner.start(request(1, small_case()));
+    // `start` returns at once: the work is on the worker thread.
+    assert!(started.elapsed() < Duration::from_millis(500));
+    match wait_for(&mut runner, 1) {
+        JobMessage::Finished { result, .. } => {
+            let outcome = result.expect("the small roll solves");
+            let radius = &outcome.profile.radius;
+            assert!(
+                radius.windows(2).all(|w| w[1] > w[0]),
+                "radii increase outward"
+            );
+            // Core outer radius of the preset core (101.6 mm outside diameter) to the roll's 65 mm.
+            assert!(
+                (radius[0] - 0.0508).abs() < 1e-3,
+                "starts at the core: {}",
+                radius[0]
+            );
+            assert!((radius[radius.len() - 1] - 0.065).abs() < 1e-3);
+            let diagnosis = outcome.diagnosis.expect("diagnosis");
+            assert!(!diagnosis.causes.is_empty());
+        }
+        other => panic!("unexpected {other:?}"),
+    }
+}
+
+#[test]
+fn bad_inputs_come_back_as_an_error_message_not_a_panic() {
+    let rules = Arc::new(RuleBase::embedded().unwrap());
+    let mut runner = JobRunner::new(rules);
+    let mut case = small_case();
+    case.symptoms[0].id = "telescopng".into();
+    runner.start(request(7, case));
+    match wait_for(&mut runner, 7) {
+        JobMessage::Finished { result, .. } => {
+            // Caught when the case is resolved (or, failing that, by the diagnosis).
+            let error = match result {
+                Err(error) => error,
+                Ok(outcome) => outcome.diagnosis.expect_err("unknown symptom"),
+            };
+            assert!(error.contains("did you mean `telescoping`"), "{error}");
+        }
+        other => panic!("unexpected {other:?}"),
+    }
+}
+
+#[test]
+fn a_newer_request_replaces_the_older_one() {
+    let rules = Arc::new(RuleBase::embedded().unwrap());
+    let mut runner = JobRunner::new(rules);
+    runner.start(request(1, small_case()));
+    runner.start(request(2, small_case()));
+    // The older one either stopped (cancelled) or finished first; the newer one always completes.
+    match wait_for(&mut runner, 2) {
+        JobMessage::Finished { result, .. } => assert!(result.is_ok()),
+        other => panic!("unexpected {other:?}"),
+    }
+}
