@@ -8,7 +8,6 @@ use criterion::{Criterion, criterion_group, criterion_main};
 use rolltriage::diagnose::{self, DiagnoseOptions, rules::RuleBase};
 
 #[path = "../tests/common/mod.rs"]
-#[allow(dead_code)]
 mod common;
 
 fn triage(c: &mut Criterion) {

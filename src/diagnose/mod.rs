@@ -228,7 +228,14 @@ pub fn diagnose(
             solver: remedies::what_if_solver(case, options.solver),
             ..options.clone()
         };
-        let baseline = if what_if_options.solver == options.solver {
+        let same_grid = what_if_options.solver == options.solver
+            || match what_if_options.solver.resolution {
+                crate::model::Resolution::Grouped { layers } => {
+                    profile.summary.layers_per_element == layers
+                }
+                _ => false,
+            };
+        let baseline = if same_grid {
             (indicators.clone(), causes.clone())
         } else {
             let profile = what_if_options.solve(&case.problem(what_if_options.solver))?;
@@ -236,16 +243,54 @@ pub fn diagnose(
             let base_causes = rank::rank(rules, &symptoms, case, &base_indicators);
             (base_indicators, base_causes)
         };
-        for remedy in remedies.iter_mut() {
-            remedy.what_if = remedies::what_if(
-                rules,
-                &symptoms,
-                case,
-                &baseline.0,
-                &baseline.1,
-                remedy,
-                &what_if_options,
-            );
+        // Distinct changed cases that need a solve; no-op changes and rating-only changes need none.
+        let changed: Vec<Option<crate::case::ResolvedCase>> = remedies
+            .iter()
+            .map(|r| {
+                let changes = &rules.remedies.get(&r.id)?.changes;
+                (!changes.is_empty() && remedies::needs_solve(changes))
+                    .then(|| remedies::apply_changes(case, changes))
+            })
+            .collect();
+        let mut distinct: Vec<&crate::case::ResolvedCase> = Vec::new();
+        for c in changed.iter().flatten() {
+            if c != case && !distinct.contains(&c) {
+                distinct.push(c);
+            }
+        }
+        let solved = solve_all(&distinct, &what_if_options);
+        for (remedy, changed_case) in remedies.iter_mut().zip(&changed) {
+            remedy.what_if = match changed_case {
+                None => remedies::what_if(
+                    rules,
+                    &symptoms,
+                    case,
+                    &baseline.0,
+                    &baseline.1,
+                    remedy,
+                    &what_if_options,
+                ),
+                Some(c) => {
+                    let result = distinct
+                        .iter()
+                        .position(|d| *d == c)
+                        .map(|i| match &solved[i] {
+                            Ok(p) => Ok(p.clone()),
+                            Err(e) => Err(crate::model::ModelError::NotConverged(e.to_string())),
+                        })
+                        .unwrap_or_else(|| Ok(crate::model::Profile::default()));
+                    remedies::what_if_solved(
+                        rules,
+                        &symptoms,
+                        case,
+                        &baseline.0,
+                        &baseline.1,
+                        remedy,
+                        c,
+                        result,
+                    )
+                }
+            };
         }
     }
     let mut cautions: Vec<Caution> = Vec::new();
@@ -265,6 +310,52 @@ pub fn diagnose(
         remedies,
         cautions,
         indicators: indicators.values(),
+    })
+}
+
+/// Solve several what-if cases, in parallel where the machine has cores to spare.
+fn solve_all(
+    cases: &[&crate::case::ResolvedCase],
+    options: &DiagnoseOptions,
+) -> Vec<Result<crate::model::Profile, crate::model::ModelError>> {
+    let threads = std::thread::available_parallelism()
+        .map(|n| n.get())
+        .unwrap_or(1)
+        .clamp(1, 4)
+        .min(cases.len().max(1));
+    if threads <= 1 {
+        return cases
+            .iter()
+            .map(|c| options.solve(&c.problem(options.solver)))
+            .collect();
+    }
+    let chunk = cases.len().div_ceil(threads);
+    std::thread::scope(|scope| {
+        let handles: Vec<_> = cases
+            .chunks(chunk)
+            .map(|part| {
+                let handle = scope.spawn(move || {
+                    part.iter()
+                        .map(|c| options.solve(&c.problem(options.solver)))
+                        .collect::<Vec<_>>()
+                });
+                (part.len(), handle)
+            })
+            .collect();
+        handles
+            .into_iter()
+            .flat_map(|(len, h)| {
+                h.join().unwrap_or_else(|_| {
+                    (0..len)
+                        .map(|_| {
+                            Err(crate::model::ModelError::NotConverged(
+                                "a what-if solve panicked".into(),
+                            ))
+                        })
+                        .collect()
+                })
+            })
+            .collect()
     })
 }
 

@@ -71,7 +71,7 @@ pub fn merge(rules: &RuleBase, symptoms: &[String], causes: &[RankedCause]) -> V
 
 /// Elements aimed at by what-if re-solves of large rolls (a comparison needs consistency more
 /// than the last percent of accuracy).
-pub const WHAT_IF_ELEMENTS: usize = 200;
+pub const WHAT_IF_ELEMENTS: usize = 160;
 
 /// Solver options of the what-if re-solves: the caller's, except that an automatic resolution
 /// of a roll with many layers becomes a fixed grouping of about [`WHAT_IF_ELEMENTS`] elements.
@@ -280,28 +280,58 @@ pub fn what_if(
         return None;
     }
     let changed = apply_changes(case, changes);
-    let needs_solve = changes
-        .iter()
-        .any(|c| !matches!(c, SettingChange::CoreCrushScale(_)));
-    let profile = if needs_solve {
-        match options.solve(&changed.problem(options.solver)) {
-            Ok(p) => p,
-            Err(e) => {
-                return Some(WhatIf {
-                    indicator: String::new(),
-                    before: String::new(),
-                    after: String::new(),
-                    worse: false,
-                    note: format!("could not re-solve with the change: {e}"),
-                });
-            }
-        }
-    } else {
+    if !needs_solve(changes) {
         // Only the rating changes: the stress state is the same, no re-solve needed.
         return Some(rating_only(case, &changed, indicators, remedy, causes));
+    }
+    let solved = options.solve(&changed.problem(options.solver));
+    what_if_solved(
+        rules, symptoms, case, indicators, causes, remedy, &changed, solved,
+    )
+}
+
+/// True when the changes alter the stress state (anything but the crush rating).
+pub fn needs_solve(changes: &[SettingChange]) -> bool {
+    changes
+        .iter()
+        .any(|c| !matches!(c, SettingChange::CoreCrushScale(_)))
+}
+
+/// The what-if of a remedy whose changed case `changed` is already solved.
+#[allow(clippy::too_many_arguments)]
+pub fn what_if_solved(
+    rules: &RuleBase,
+    symptoms: &[String],
+    case: &ResolvedCase,
+    indicators: &Indicators,
+    causes: &[RankedCause],
+    remedy: &MergedRemedy,
+    changed: &ResolvedCase,
+    solved: Result<crate::model::Profile, crate::model::ModelError>,
+) -> Option<WhatIf> {
+    if changed == case {
+        return Some(WhatIf {
+            indicator: String::new(),
+            before: String::new(),
+            after: String::new(),
+            worse: false,
+            note: "the setting change does not apply to this case (nothing to change)".into(),
+        });
+    }
+    let profile = match solved {
+        Ok(p) => p,
+        Err(e) => {
+            return Some(WhatIf {
+                indicator: String::new(),
+                before: String::new(),
+                after: String::new(),
+                worse: false,
+                note: format!("could not re-solve with the change: {e}"),
+            });
+        }
     };
-    let after_indicators = Indicators::compute(&changed, &profile);
-    let after_causes = rank(rules, symptoms, &changed, &after_indicators);
+    let after_indicators = Indicators::compute(changed, &profile);
+    let after_causes = rank(rules, symptoms, changed, &after_indicators);
     let belief = |list: &[RankedCause], id: &str| {
         list.iter()
             .find(|c| c.id == id)

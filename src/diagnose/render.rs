@@ -84,7 +84,9 @@ pub fn render_text(title: &str, diagnosis: &Diagnosis) -> String {
                 if !r.cautions.is_empty() {
                     let _ = writeln!(out, "      cautions: {}", r.cautions.join(", "));
                 }
-                if let Some(w) = &r.what_if {
+                if let Some(w) = r.what_if.as_ref().filter(|w| w.indicator.is_empty()) {
+                    let _ = writeln!(out, "      what-if: {}", w.note);
+                } else if let Some(w) = &r.what_if {
                     let flag = if w.worse {
                         "  WARNING: makes it worse"
                     } else {
@@ -157,7 +159,9 @@ pub fn render_markdown(title: &str, diagnosis: &Diagnosis) -> String {
                 if !r.cautions.is_empty() {
                     let _ = writeln!(out, "  - cautions: {}", r.cautions.join(", "));
                 }
-                if let Some(w) = &r.what_if {
+                if let Some(w) = r.what_if.as_ref().filter(|w| w.indicator.is_empty()) {
+                    let _ = writeln!(out, "  - what-if: {}", w.note);
+                } else if let Some(w) = &r.what_if {
                     let flag = if w.worse {
                         " — **warning: makes it worse**"
                     } else {
