@@ -2,7 +2,9 @@
 
 mod tui_support;
 
-use rolltriage::tui::app::{PendingAction, Popup, ResultsFocus, Screen, Setting, SymptomFocus};
+use rolltriage::tui::app::{
+    PendingAction, Popup, ResultsFocus, Screen, Setting, SymptomFocus, WalkStage,
+};
 use rolltriage::tui::event::Key;
 use rolltriage::tui::job::Purpose;
 use tui_support::*;
@@ -495,27 +497,123 @@ fn export_refuses_out_of_date_results() {
     assert!(app.export_to(&folder.path().join("r.md")).is_err());
 }
 
-#[test]
-fn training_walkthroughs_open_their_case_with_the_introduction() {
-    let mut app = app();
+fn start_walkthrough(app: &mut rolltriage::tui::app::App, id: &str) {
     app.walkthroughs = rolltriage::training::library::embedded().unwrap();
-    assert!(!app.walkthroughs.is_empty());
+    let index = app
+        .walkthroughs
+        .iter()
+        .position(|w| w.walkthrough.id == id)
+        .unwrap();
     app.handle_key(Key::Ctrl('t'));
     assert_eq!(app.popup, Some(Popup::Training { selected: 0 }));
-    app.handle_key(Key::Enter);
-    match &app.popup {
-        Some(Popup::Notice { title, .. }) => {
-            assert_eq!(title, &app.walkthroughs[0].walkthrough.title)
-        }
-        other => panic!(
-            "expected the introduction, got {other:?} ({:?})",
-            app.status
-        ),
+    for _ in 0..index {
+        app.handle_key(Key::Down);
     }
+    app.handle_key(Key::Enter);
+}
+
+fn walk_stage(app: &rolltriage::tui::app::App) -> WalkStage {
+    match &app.popup {
+        Some(Popup::Walkthrough(run)) => run.stage.clone(),
+        other => panic!("expected a walk-through, got {other:?} ({:?})", app.status),
+    }
+}
+
+#[test]
+fn training_walkthrough_is_answered_inside_the_ui_and_scored() {
+    let mut app = app();
+    start_walkthrough(&mut app, "telescoping_newsprint");
+    // Its case is open, on the symptoms (the walk-through asks for the cause).
     assert!(!app.case.symptoms.is_empty());
-    // Any key closes the introduction.
-    app.handle_key(Key::Char('x'));
+    assert_eq!(app.screen, Screen::Symptoms);
+    assert_eq!(walk_stage(&app), WalkStage::Briefing);
+    app.handle_key(Key::Enter);
+    assert_eq!(
+        walk_stage(&app),
+        WalkStage::Question {
+            index: 0,
+            highlighted: 0
+        }
+    );
+    // The answer key is in cases/training/telescoping_newsprint.yaml: 2, 1, 1, 2.
+    // Question 1 by its number: right.
+    app.handle_key(Key::Char('2'));
+    match walk_stage(&app) {
+        WalkStage::Feedback { index, feedback } => {
+            assert_eq!(index, 0);
+            assert!(feedback.correct);
+            assert_eq!(feedback.chosen, 1);
+        }
+        other => panic!("expected feedback, got {other:?}"),
+    }
+    app.handle_key(Key::Enter);
+    // A number with no choice behind it is ignored.
+    app.handle_key(Key::Char('9'));
+    assert!(matches!(
+        walk_stage(&app),
+        WalkStage::Question { index: 1, .. }
+    ));
+    // Question 2 by Enter on the first choice: right.
+    app.handle_key(Key::Enter);
+    app.handle_key(Key::Enter);
+    // Question 3: ↓↓ Enter picks choice 3, which is wrong; the feedback names the best answer.
+    app.handle_key(Key::Down);
+    app.handle_key(Key::Down);
+    app.handle_key(Key::Enter);
+    match walk_stage(&app) {
+        WalkStage::Feedback { index, feedback } => {
+            assert_eq!(index, 2);
+            assert!(!feedback.correct);
+            assert_eq!(feedback.correct_choice, 0);
+            assert!(
+                feedback
+                    .to_text()
+                    .starts_with("Not quite. The best answer is 1")
+            );
+        }
+        other => panic!("expected feedback, got {other:?}"),
+    }
+    app.handle_key(Key::Enter);
+    // Question 4 (the safety one): right.
+    app.handle_key(Key::Char('2'));
+    app.handle_key(Key::Enter);
+    assert_eq!(walk_stage(&app), WalkStage::Done);
+    match &app.popup {
+        Some(Popup::Walkthrough(run)) => {
+            let score = run.session.score();
+            assert_eq!((score.correct, score.answered, score.total), (3, 4, 4));
+            assert!(
+                run.session
+                    .closing()
+                    .starts_with("Score: 3 of 4 correct (75 %)")
+            );
+        }
+        other => panic!("{other:?}"),
+    }
+    app.handle_key(Key::Enter);
     assert_eq!(app.popup, None);
+    assert_eq!(
+        app.status.as_deref(),
+        Some("Walk-through left: 3 of 4 correct (75 %)")
+    );
+}
+
+#[test]
+fn escape_leaves_a_walkthrough_half_way() {
+    let mut app = app();
+    start_walkthrough(&mut app, "telescoping_newsprint");
+    app.handle_key(Key::Enter);
+    app.handle_key(Key::Char('1'));
+    app.handle_key(Key::Esc);
+    assert_eq!(app.popup, None);
+    assert_eq!(
+        app.status.as_deref(),
+        Some("Walk-through left: 0 of 4 correct (0 %), 3 not answered")
+    );
+    // The case stays open and the UI answers keys again.
+    assert!(!app.case.symptoms.is_empty());
+    app.handle_key(Key::F(3));
+    assert_eq!(app.screen, Screen::Inputs);
 }
 
 #[test]

@@ -113,11 +113,156 @@ pub enum Popup {
     Training {
         selected: usize,
     },
+    /// A training walk-through being answered inside the UI.
+    Walkthrough(Box<WalkthroughRun>),
     /// A message; any key closes it.
     Notice {
         title: String,
         text: String,
     },
+}
+
+/// Where a trainee is in an in-UI walk-through.
+#[derive(Debug, Clone, PartialEq)]
+pub enum WalkStage {
+    /// The story and what was seen.
+    Briefing,
+    /// Question `index` (0-based) with choice `highlighted` (0-based) under the cursor.
+    Question { index: usize, highlighted: usize },
+    /// The feedback on the answer to question `index`.
+    Feedback {
+        index: usize,
+        feedback: Box<crate::training::Feedback>,
+    },
+    /// The score and the summary.
+    Done,
+}
+
+/// A walk-through answered inside the UI: the library's [`crate::training::Session`] checks the
+/// answers and writes the feedback with this roll's computed values, as `rolltriage train` does.
+#[derive(Debug, Clone, PartialEq)]
+pub struct WalkthroughRun {
+    pub session: crate::training::Session,
+    pub stage: WalkStage,
+    /// First line shown (long feedback scrolls).
+    pub scroll: u16,
+}
+
+impl WalkthroughRun {
+    fn question_count(&self) -> usize {
+        self.session.walkthrough.questions.len()
+    }
+
+    fn choice_count(&self, index: usize) -> usize {
+        self.session
+            .walkthrough
+            .questions
+            .get(index)
+            .map_or(0, |q| q.choices.len())
+    }
+
+    /// The stage after `index`: the next question, or the score.
+    fn after(&self, index: usize) -> WalkStage {
+        if index + 1 < self.question_count() {
+            WalkStage::Question {
+                index: index + 1,
+                highlighted: 0,
+            }
+        } else {
+            WalkStage::Done
+        }
+    }
+
+    /// One key; returns false when the walk-through is left.
+    fn key(&mut self, key: Key) -> bool {
+        if key == Key::Esc {
+            return false;
+        }
+        match key {
+            Key::Up if !matches!(self.stage, WalkStage::Question { .. }) => {
+                self.scroll = self.scroll.saturating_sub(1);
+                return true;
+            }
+            Key::Down if !matches!(self.stage, WalkStage::Question { .. }) => {
+                self.scroll = self.scroll.saturating_add(1).min(200);
+                return true;
+            }
+            Key::PageUp => {
+                self.scroll = self.scroll.saturating_sub(10);
+                return true;
+            }
+            Key::PageDown => {
+                self.scroll = self.scroll.saturating_add(10).min(200);
+                return true;
+            }
+            _ => {}
+        }
+        match self.stage.clone() {
+            WalkStage::Briefing => {
+                if matches!(key, Key::Enter | Key::Char(' ') | Key::Right) {
+                    self.stage = if self.question_count() == 0 {
+                        WalkStage::Done
+                    } else {
+                        WalkStage::Question {
+                            index: 0,
+                            highlighted: 0,
+                        }
+                    };
+                    self.scroll = 0;
+                }
+            }
+            WalkStage::Question { index, highlighted } => {
+                let count = self.choice_count(index);
+                let chosen = match key {
+                    Key::Up => {
+                        self.stage = WalkStage::Question {
+                            index,
+                            highlighted: highlighted.saturating_sub(1),
+                        };
+                        None
+                    }
+                    Key::Down => {
+                        self.stage = WalkStage::Question {
+                            index,
+                            highlighted: (highlighted + 1).min(count.saturating_sub(1)),
+                        };
+                        None
+                    }
+                    Key::Enter => Some(highlighted),
+                    Key::Char(c @ '1'..='9') => {
+                        let n = usize::from(c as u8 - b'1');
+                        (n < count).then_some(n)
+                    }
+                    _ => None,
+                };
+                if let Some(choice) = chosen {
+                    match self.session.answer(index, choice) {
+                        Ok(feedback) => {
+                            self.stage = WalkStage::Feedback {
+                                index,
+                                feedback: Box::new(feedback),
+                            };
+                        }
+                        // A malformed walk-through file: skip the question, do not stop.
+                        Err(_) => self.stage = self.after(index),
+                    }
+                    self.scroll = 0;
+                }
+            }
+            WalkStage::Feedback { index, .. } => {
+                if matches!(key, Key::Enter | Key::Char(' ') | Key::Right) {
+                    self.stage = self.after(index);
+                    self.scroll = 0;
+                }
+            }
+            WalkStage::Done => {
+                if matches!(key, Key::Enter | Key::Char(' ')) {
+                    return false;
+                }
+            }
+        }
+        true
+    }
 }
 
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
@@ -757,26 +902,24 @@ impl App {
         }
     }
 
-    /// Open a walk-through's case and show its introduction.
+    /// Open a walk-through's case and start answering its questions.
     pub fn open_walkthrough(&mut self, index: usize) {
         let Some(loaded) = self.walkthroughs.get(index).cloned() else {
             return;
         };
         match crate::training::load_case(&loaded) {
             Ok(case) => {
-                self.set_case(case, None);
+                self.set_case(case.clone(), None);
                 // The walk-through is about finding the cause: start on the picture, not the answer.
-                let w = &loaded.walkthrough;
-                let mut text = w.introduction.clone().unwrap_or_default();
-                text.push_str(&format!(
-                    "\n\n{} questions go with this case; `rolltriage train {}` asks them and scores the answers.",
-                    w.questions.len(),
-                    w.id
-                ));
-                self.popup = Some(Popup::Notice {
-                    title: w.title.clone(),
-                    text: text.trim().to_string(),
-                });
+                self.screen = Screen::Symptoms;
+                let rules = crate::diagnose::rules::RuleBase::embedded().ok();
+                let context =
+                    crate::training::TrainingContext::compute(case, rules.as_ref(), self.units);
+                self.popup = Some(Popup::Walkthrough(Box::new(WalkthroughRun {
+                    session: crate::training::Session::new(loaded.walkthrough, context),
+                    stage: WalkStage::Briefing,
+                    scroll: 0,
+                })));
             }
             Err(error) => self.status = Some(format!("Cannot open the walk-through: {error}")),
         }
@@ -870,6 +1013,14 @@ impl App {
                 _ => self.popup = Some(Popup::Open(prompt)),
             },
             Popup::Notice { .. } => {}
+            Popup::Walkthrough(mut run) => {
+                if run.key(key) {
+                    self.popup = Some(Popup::Walkthrough(run));
+                } else {
+                    let score = run.session.score();
+                    self.status = Some(format!("Walk-through left: {score}"));
+                }
+            }
             Popup::Training { selected } => match key {
                 Key::Up => {
                     self.popup = Some(Popup::Training {
@@ -1569,12 +1720,15 @@ impl App {
                 ("Esc", "cancel"),
             ],
             Some(Popup::Training { .. }) => {
-                vec![
-                    ("↑↓", "pick"),
-                    ("Enter", "open its case"),
-                    ("Esc", "cancel"),
-                ]
+                vec![("↑↓", "pick"), ("Enter", "start"), ("Esc", "cancel")]
             }
+            Some(Popup::Walkthrough(ref run)) => match run.stage {
+                WalkStage::Question { .. } => {
+                    vec![("1-9", "answer"), ("↑↓ Enter", "pick"), ("Esc", "leave")]
+                }
+                WalkStage::Done => vec![("Enter/Esc", "close"), ("↑↓", "scroll")],
+                _ => vec![("Enter", "next"), ("↑↓", "scroll"), ("Esc", "leave")],
+            },
             Some(Popup::Notice { .. }) => vec![("any key", "close")],
             Some(Popup::SaveAs { .. }) => {
                 vec![("type", "file name"), ("Enter", "save"), ("Esc", "cancel")]

@@ -6,7 +6,7 @@ use ratatui::text::{Line, Span};
 use ratatui::widgets::{Block, Clear, Paragraph, Widget, Wrap};
 
 use super::{centred, help};
-use crate::tui::app::{App, OpenPurpose, PendingAction, Popup};
+use crate::tui::app::{App, OpenPurpose, PendingAction, Popup, WalkStage, WalkthroughRun};
 use crate::tui::theme::Theme;
 
 pub fn render(app: &App, popup: &Popup, theme: Theme, area: Rect, buf: &mut Buffer) {
@@ -144,9 +144,10 @@ pub fn render(app: &App, popup: &Popup, theme: Theme, area: Rect, buf: &mut Buff
             }
             Clear.render(rect, buf);
             Paragraph::new(lines)
-                .block(Block::bordered().title(" Training walk-throughs — Enter opens the case "))
+                .block(Block::bordered().title(" Training walk-throughs — Enter starts one "))
                 .render(rect, buf);
         }
+        Popup::Walkthrough(run) => walkthrough(run, theme, area, buf),
         Popup::Notice { title, text } => {
             let rect = centred(area, 70, area.height.saturating_sub(4).min(14));
             Clear.render(rect, buf);
@@ -178,4 +179,80 @@ pub fn render(app: &App, popup: &Popup, theme: Theme, area: Rect, buf: &mut Buff
                 .render(rect, buf);
         }
     }
+}
+
+/// Text as lines, one `Line` per line of text (so wrapping keeps the paragraphs).
+fn text_lines(text: &str) -> Vec<Line<'static>> {
+    text.lines().map(|l| Line::from(l.to_string())).collect()
+}
+
+fn walkthrough(run: &WalkthroughRun, theme: Theme, area: Rect, buf: &mut Buffer) {
+    let session = &run.session;
+    let total = session.walkthrough.questions.len();
+    let (stage, mut lines) = match &run.stage {
+        WalkStage::Briefing => ("the story".to_string(), {
+            let mut lines = text_lines(&session.briefing());
+            lines.push(Line::from(""));
+            lines.push(Line::from(Span::styled(
+                format!("{total} questions follow. Enter starts."),
+                theme.dim(),
+            )));
+            lines
+        }),
+        WalkStage::Question { index, highlighted } => {
+            let mut lines = Vec::new();
+            if let Some(q) = session.walkthrough.questions.get(*index) {
+                lines.push(Line::from(Span::styled(
+                    format!("{} — {}", q.topic.as_str(), q.prompt.trim()),
+                    theme.title(),
+                )));
+                lines.push(Line::from(""));
+                for (i, choice) in q.choices.iter().enumerate() {
+                    let (marker, style) = if i == *highlighted {
+                        ("▶", theme.selected())
+                    } else {
+                        (" ", theme.plain())
+                    };
+                    lines.push(Line::from(Span::styled(
+                        format!("{marker} {}. {}", i + 1, choice.text.trim()),
+                        style,
+                    )));
+                }
+            }
+            (format!("question {} of {total}", index + 1), lines)
+        }
+        WalkStage::Feedback { index, feedback } => {
+            let mut lines = text_lines(&feedback.to_text());
+            lines.push(Line::from(""));
+            let next = if index + 1 < total {
+                "Enter: next question"
+            } else {
+                "Enter: your score"
+            };
+            lines.push(Line::from(Span::styled(next, theme.dim())));
+            (
+                format!("answer to question {} of {total}", index + 1),
+                lines,
+            )
+        }
+        WalkStage::Done => ("score".to_string(), text_lines(&session.closing())),
+    };
+    let score = session.score();
+    lines.insert(
+        0,
+        Line::from(Span::styled(
+            format!("{} correct so far of {}", score.correct, score.total),
+            theme.dim(),
+        )),
+    );
+    let rect = centred(area, 78, area.height.saturating_sub(2));
+    Clear.render(rect, buf);
+    Paragraph::new(lines)
+        .wrap(Wrap { trim: false })
+        .scroll((run.scroll, 0))
+        .block(Block::bordered().title(format!(
+            " {} — {stage} · Esc leaves ",
+            session.walkthrough.title
+        )))
+        .render(rect, buf);
 }
