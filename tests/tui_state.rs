@@ -681,3 +681,93 @@ fn core_step_doubles_the_effective_core_stiffness_at_the_same_size() {
         "core size unchanged"
     );
 }
+
+fn calibrate_popup(app: &rolltriage::tui::app::App) -> &rolltriage::tui::app::CalibratePrompt {
+    match &app.popup {
+        Some(Popup::Calibrate(prompt)) => prompt,
+        other => panic!("expected the calibration popup, got {other:?}"),
+    }
+}
+
+fn type_into(app: &mut rolltriage::tui::app::App, text: &str) {
+    for c in text.chars() {
+        app.handle_key(Key::Char(c));
+    }
+}
+
+#[test]
+fn stack_calibration_fits_the_csv_and_writes_k1_k2_into_the_case() {
+    let mut app = app();
+    app.set_case(sample_case(), None);
+    app.handle_key(Key::F(3));
+    app.handle_key(Key::Ctrl('k'));
+    type_into(&mut app, "cases/calibration/harbour_news_45.csv");
+    app.handle_key(Key::Enter);
+    let prompt = calibrate_popup(&app);
+    assert_eq!(prompt.error, None);
+    let fitted = prompt.fit.as_ref().unwrap();
+    // SciPy's curve_fit on the same file, relative weighting
+    // (tests/reference/curve_fit_pfeiffer.json): K1 4398.08 Pa, K2 21.2723, 19 loading points.
+    let rel = |a: f64, b: f64| (a - b).abs() / b;
+    assert!(
+        rel(fitted.fit.k1, 4398.079832042864) < 1e-3,
+        "{}",
+        fitted.fit.k1
+    );
+    assert!(
+        rel(fitted.fit.k2, 21.272339472054416) < 1e-3,
+        "{}",
+        fitted.fit.k2
+    );
+    assert!(rel(fitted.fit.k1_standard_error, 83.44074773345993) < 0.05);
+    assert_eq!(fitted.fit.points.len(), 19);
+    // Nothing is written until it is confirmed.
+    assert!(!app.dirty);
+    let generation = app.generation;
+    app.handle_key(Key::Enter);
+    assert_eq!(app.popup, None);
+    assert!(app.dirty);
+    assert!(app.generation > generation);
+    let stiffness = app.case.web.radial_stiffness.clone().unwrap();
+    assert_eq!(stiffness.law, "pfeiffer");
+    assert!(rel(stiffness.k2.unwrap(), 21.272339472054416) < 1e-3);
+    // The case resolves with the fitted law in Pa.
+    match app.resolved.as_ref().unwrap().web.radial_stiffness {
+        rolltriage::model::RadialStiffness::Pfeiffer { k1, k2 } => {
+            assert!(rel(k1, 4398.079832042864) < 1e-3, "{k1}");
+            assert!(rel(k2, 21.272339472054416) < 1e-3, "{k2}");
+        }
+        ref other => panic!("{other:?}"),
+    }
+    assert!(app.status.as_deref().unwrap().contains("unsaved"));
+}
+
+#[test]
+fn stack_calibration_reports_bad_files_in_the_popup() {
+    let mut app = app();
+    app.set_case(sample_case(), None);
+    app.handle_key(Key::F(3));
+    app.handle_key(Key::Ctrl('k'));
+    type_into(&mut app, "cases/calibration/no_such_file.csv");
+    app.handle_key(Key::Enter);
+    let error = calibrate_popup(&app).error.clone().unwrap();
+    assert!(error.contains("no_such_file.csv"), "{error}");
+    assert!(calibrate_popup(&app).fit.is_none());
+
+    let folder = tempfile::tempdir().unwrap();
+    let bad = folder.path().join("bad.csv");
+    std::fs::write(&bad, "strain,pressure [kPa]\n0.01,abc\nnot,a,row\n").unwrap();
+    for _ in 0..40 {
+        app.handle_key(Key::Backspace);
+    }
+    type_into(&mut app, bad.to_str().unwrap());
+    app.handle_key(Key::Enter);
+    let error = calibrate_popup(&app).error.clone().unwrap();
+    assert!(error.contains("bad.csv"), "{error}");
+    // Enter again with the error shown does not write anything; Esc closes.
+    app.handle_key(Key::Enter);
+    app.handle_key(Key::Esc);
+    assert_eq!(app.popup, None);
+    assert!(!app.dirty);
+    assert!(app.case.web.radial_stiffness.is_none());
+}

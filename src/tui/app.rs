@@ -115,11 +115,62 @@ pub enum Popup {
     },
     /// A training walk-through being answered inside the UI.
     Walkthrough(Box<WalkthroughRun>),
+    /// Fit the web's radial stiffness (Pfeiffer K1, K2) to a stack-compression test CSV.
+    Calibrate(Box<CalibratePrompt>),
     /// A message; any key closes it.
     Notice {
         title: String,
         text: String,
     },
+}
+
+/// The stack-compression calibration popup: a CSV path, then the fit to confirm.
+#[derive(Debug, Clone, PartialEq, Default)]
+pub struct CalibratePrompt {
+    pub input: String,
+    /// The fit of the file named in `input`, waiting for Enter to be written into the case.
+    pub fit: Option<StackFit>,
+    /// Why the file could not be read or fitted.
+    pub error: Option<String>,
+}
+
+/// A fitted stack test, as the popup shows it.
+#[derive(Debug, Clone, PartialEq)]
+pub struct StackFit {
+    pub origin: String,
+    pub fit: crate::calibrate::PfeifferFit,
+    /// Notes from reading the file and warnings about the fit, one line each.
+    pub warnings: Vec<String>,
+}
+
+/// Read a stack-compression CSV and fit Pfeiffer's law to it, the same library calls as
+/// `rolltriage calibrate stack` with its default options (relative weighting). `thickness` is the
+/// case's web thickness (m), to warn when the stack's caliper does not match it.
+pub fn fit_stack_file(path: &Path, thickness: Option<f64>) -> Result<StackFit, String> {
+    use crate::calibrate::{FitOptions, StackReadOptions, fit_pfeiffer, parse_stack_csv};
+    let origin = path.display().to_string();
+    let text = std::fs::read_to_string(path).map_err(|e| format!("cannot read {origin}: {e}"))?;
+    let test =
+        parse_stack_csv(&text, &origin, &StackReadOptions::default()).map_err(|e| e.to_string())?;
+    let fit = fit_pfeiffer(&test, &FitOptions::default()).map_err(|e| e.to_string())?;
+    let mut warnings: Vec<String> = test.notes.iter().map(|n| format!("note: {n}")).collect();
+    warnings.extend(fit.warnings.iter().map(|w| format!("warning: {w}")));
+    if let (Some(caliper), Some(t)) = (test.caliper(), thickness)
+        && t > 0.0
+        && (caliper / t - 1.0).abs() > 0.10
+    {
+        warnings.push(format!(
+            "warning: the stack's caliper ({:.1} µm) differs from the case's web thickness \
+             ({:.1} µm) by more than 10 %; is this the same web?",
+            caliper * 1e6,
+            t * 1e6
+        ));
+    }
+    Ok(StackFit {
+        origin,
+        fit,
+        warnings,
+    })
 }
 
 /// Where a trainee is in an in-UI walk-through.
@@ -925,6 +976,18 @@ impl App {
         }
     }
 
+    /// Write a stack fit into the case's web radial stiffness (law pfeiffer).
+    fn apply_stack_fit(&mut self, fitted: &StackFit) {
+        crate::calibrate::apply_to_case(&mut self.case, &fitted.fit);
+        self.changed();
+        self.status = Some(format!(
+            "Web radial stiffness: pfeiffer K1 {} kPa, K2 {} from {} (unsaved)",
+            crate::calibrate::significant(fitted.fit.k1 / 1e3, 5),
+            crate::calibrate::significant(fitted.fit.k2, 5),
+            fitted.origin
+        ));
+    }
+
     fn handle_popup_key(&mut self, key: Key) {
         let Some(popup) = self.popup.take() else {
             return;
@@ -1013,6 +1076,37 @@ impl App {
                 _ => self.popup = Some(Popup::Open(prompt)),
             },
             Popup::Notice { .. } => {}
+            Popup::Calibrate(mut prompt) => match key {
+                Key::Esc => {}
+                Key::Enter => match prompt.fit.take() {
+                    Some(fitted) => self.apply_stack_fit(&fitted),
+                    None => {
+                        let path = PathBuf::from(prompt.input.trim());
+                        let thickness = self.resolved.as_ref().ok().map(|r| r.web.thickness);
+                        match fit_stack_file(&path, thickness) {
+                            Ok(fitted) => {
+                                prompt.fit = Some(fitted);
+                                prompt.error = None;
+                            }
+                            Err(error) => prompt.error = Some(error),
+                        }
+                        self.popup = Some(Popup::Calibrate(prompt));
+                    }
+                },
+                Key::Char(c) => {
+                    prompt.input.push(c);
+                    prompt.fit = None;
+                    prompt.error = None;
+                    self.popup = Some(Popup::Calibrate(prompt));
+                }
+                Key::Backspace => {
+                    prompt.input.pop();
+                    prompt.fit = None;
+                    prompt.error = None;
+                    self.popup = Some(Popup::Calibrate(prompt));
+                }
+                _ => self.popup = Some(Popup::Calibrate(prompt)),
+            },
             Popup::Walkthrough(mut run) => {
                 if run.key(key) {
                     self.popup = Some(Popup::Walkthrough(run));
@@ -1268,6 +1362,10 @@ impl App {
     }
 
     fn inputs_key(&mut self, key: Key) {
+        if key == Key::Ctrl('k') && self.inputs.editing.is_none() {
+            self.popup = Some(Popup::Calibrate(Box::default()));
+            return;
+        }
         let spec = FIELDS[self.inputs.selected.min(FIELDS.len() - 1)];
         if let Some(mut text) = self.inputs.editing.take() {
             match key {
@@ -1722,6 +1820,14 @@ impl App {
             Some(Popup::Training { .. }) => {
                 vec![("↑↓", "pick"), ("Enter", "start"), ("Esc", "cancel")]
             }
+            Some(Popup::Calibrate(ref prompt)) => match prompt.fit {
+                Some(_) => vec![
+                    ("Enter", "write K1 K2 into the case"),
+                    ("type", "other file"),
+                    ("Esc", "cancel"),
+                ],
+                None => vec![("type", "CSV file"), ("Enter", "fit"), ("Esc", "cancel")],
+            },
             Some(Popup::Walkthrough(ref run)) => match run.stage {
                 WalkStage::Question { .. } => {
                     vec![("1-9", "answer"), ("↑↓ Enter", "pick"), ("Esc", "leave")]
@@ -1747,11 +1853,12 @@ impl App {
                 },
                 Screen::Inputs => match self.inputs.editing {
                     Some(_) => vec![("type", "value+unit"), ("Enter", "ok"), ("Esc", "cancel")],
+                    // Delete (clear) is in the F1 list: the line has 80 columns.
                     None => vec![
                         ("↑↓", "move"),
                         ("type", "edit"),
-                        ("←→", "choose"),
-                        ("Del", "clear"),
+                        ("←→", "set"),
+                        ("^K", "calibrate"),
                     ],
                 },
                 Screen::Results => vec![("↑↓", "move"), ("←→", "pane"), ("Enter", "reasons/try")],

@@ -32,6 +32,7 @@ pub fn sections() -> Vec<(&'static str, Vec<(&'static str, &'static str)>)> {
             ("Enter / Esc", "accept (checked at once) / cancel"),
             ("← →", "choose on choice and preset rows"),
             ("Delete", "clear a field: the preset or default value is used"),
+            ("Ctrl-K", "fit Pfeiffer K1, K2 to a stack-test CSV"),
         ]),
         ("Results", vec![
             ("← →", "causes / remedies"),
