@@ -12,7 +12,7 @@ Examples:
   rolltriage stress cases/harbour_newsprint_telescoping.yaml --units us
   rolltriage diagnose cases/harbour_newsprint_telescoping.yaml --top 3
   rolltriage case new --web pet_film --core paper_6in -o my_case.yaml
-  rolltriage case check cases/*.yaml
+  rolltriage case check cases/harbour_*.yaml
   rolltriage case presets --units us
   rolltriage rules check rules/
 

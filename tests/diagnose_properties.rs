@@ -191,17 +191,38 @@ fn remedies_are_merged_grouped_and_answer_likely_causes() {
     unique.sort();
     unique.dedup();
     assert_eq!(unique.len(), ids.len(), "duplicates in {ids:?}");
-    // add_taper answers both taper_missing and tension_too_high: it comes before single-cause ones.
+    // add_taper answers both taper_missing and tension_too_high.
     let add_taper = d.remedies.iter().find(|r| r.id == "add_taper").unwrap();
     assert!(add_taper.answers.contains(&"taper_missing".to_string()));
     assert!(add_taper.answers.len() >= 2);
+    // Order: belief answered (each likely cause weighted by its belief, in steps of 0.05) does
+    // not rise down the list, except that remedies the re-solve shows making things worse go last.
+    let answered = |r: &rolltriage::diagnose::MergedRemedy| -> i64 {
+        let sum: f64 = r
+            .answers
+            .iter()
+            .filter_map(|a| d.causes.iter().find(|c| &c.id == a))
+            .map(|c| c.belief)
+            .sum();
+        (sum / 0.05).round() as i64
+    };
+    let worse =
+        |r: &rolltriage::diagnose::MergedRemedy| r.what_if.as_ref().is_some_and(|w| w.worse);
     for pair in d.remedies.windows(2) {
         assert!(
-            pair[0].answers.len() >= pair[1].answers.len(),
-            "{} before {}",
+            worse(&pair[0]) <= worse(&pair[1]),
+            "{} (worse) before {}",
             pair[0].id,
             pair[1].id
         );
+        if worse(&pair[0]) == worse(&pair[1]) {
+            assert!(
+                answered(&pair[0]) >= answered(&pair[1]),
+                "{} before {}",
+                pair[0].id,
+                pair[1].id
+            );
+        }
     }
     for r in &d.remedies {
         assert!(!r.answers.is_empty());

@@ -11,7 +11,7 @@ use rolltriage::units::{QuantityKind, UnitSystem, format_quantity};
 const EXAMPLES: &str = "\
 Examples:
   rolltriage case new --web pet_film --core paper_6in -o cases/my_film.yaml
-  rolltriage case check cases/*.yaml
+  rolltriage case check cases/harbour_*.yaml
   rolltriage case check --assumed cases/harbour_newsprint_telescoping.yaml
   rolltriage case presets --units us";
 

@@ -293,6 +293,9 @@ pub fn diagnose(
             };
         }
     }
+    // A remedy the re-solve shows making the physics worse is kept (with its warning) but tried
+    // last; the sort is stable so the order among the others stands.
+    remedies.sort_by_key(|r| r.what_if.as_ref().is_some_and(|w| w.worse));
     let mut cautions: Vec<Caution> = Vec::new();
     for id in rules.cautions.keys() {
         if remedies.iter().any(|r| r.cautions.contains(id))

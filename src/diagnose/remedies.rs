@@ -57,12 +57,16 @@ pub fn merge(rules: &RuleBase, symptoms: &[String], causes: &[RankedCause]) -> V
             ))
         })
         .collect();
-    // Most causes answered first, then cheapest to try, then the most belief answered.
+    // Most likely causes answered first: the belief answered counts each likely cause weighted
+    // by how likely it is, so two weak causes never push the leading cause's remedy down. Then
+    // cheapest to try, then the number of causes answered. Beliefs within 0.05 count as equal so
+    // cost decides between remedies for the same causes.
     out.sort_by(|a, b| {
-        b.0.answers
-            .len()
-            .cmp(&a.0.answers.len())
+        let bucket = |belief: f64| (belief / 0.05).round() as i64;
+        bucket(b.1)
+            .cmp(&bucket(a.1))
             .then(a.2.cmp(&b.2))
+            .then(b.0.answers.len().cmp(&a.0.answers.len()))
             .then(b.1.total_cmp(&a.1))
             .then_with(|| a.0.id.cmp(&b.0.id))
     });

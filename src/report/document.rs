@@ -134,16 +134,9 @@ pub struct StressSummary {
     pub warnings: Vec<String>,
 }
 
-#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
-pub struct ReasonEntry {
-    pub symptom: String,
-    pub test: String,
-    pub zone: Option<String>,
-    pub value: Option<String>,
-    pub threshold: Option<String>,
-    pub weight: f64,
-    pub text: String,
-}
+/// A reason as the report shows it: the diagnosis's own reason with its weight rounded for
+/// stable output.
+pub type ReasonEntry = crate::diagnose::Reason;
 
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct CauseEntry {
@@ -244,13 +237,8 @@ pub fn build_document(input: &ReportInput) -> Result<ReportDocument, ReportError
                 .reasons
                 .iter()
                 .map(|r| ReasonEntry {
-                    symptom: r.symptom.clone(),
-                    test: r.test.clone(),
-                    zone: r.zone.clone(),
-                    value: r.value.clone(),
-                    threshold: r.threshold.clone(),
                     weight: round_sig(r.weight, 4),
-                    text: r.text.clone(),
+                    ..r.clone()
                 })
                 .collect(),
         })
