@@ -186,6 +186,47 @@ fn training_picker() {
 }
 
 #[test]
+fn training_walkthrough_question_and_feedback() {
+    let mut app = app();
+    app.walkthroughs = rolltriage::training::library::embedded().unwrap();
+    let index = app
+        .walkthroughs
+        .iter()
+        .position(|w| w.walkthrough.id == "telescoping_newsprint")
+        .unwrap();
+    app.handle_key(Key::Ctrl('t'));
+    for _ in 0..index {
+        app.handle_key(Key::Down);
+    }
+    app.handle_key(Key::Enter);
+    app.handle_key(Key::Enter);
+    app.handle_key(Key::Down);
+    insta::assert_snapshot!("training_question_80x24", draw(&app, 80, 24));
+    app.handle_key(Key::Char('1'));
+    let feedback = draw(&app, 80, 24);
+    assert!(
+        feedback.contains("Not quite. The best answer is 2"),
+        "{feedback}"
+    );
+}
+
+#[test]
+fn stack_calibration_fit() {
+    let mut app = app();
+    app.set_case(sample_case(), None);
+    app.handle_key(Key::F(3));
+    // The key is on the inputs screen's help line, which stays within 80 columns.
+    let screen = draw(&app, 80, 24);
+    let help_line = screen.lines().last().unwrap();
+    assert!(help_line.contains("^K calibrate"), "{help_line}");
+    assert!(help_line.contains("^Q quit"), "{help_line}");
+    app.handle_key(Key::Ctrl('k'));
+    type_text(&mut app, "cases/calibration/harbour_news_45.csv");
+    app.handle_key(Key::Enter);
+    insta::assert_snapshot!("stack_calibration_80x24", draw(&app, 80, 24));
+}
+
+#[test]
 fn what_if_shows_a_taper_design_with_its_limits() {
     let mut app = with_results();
     // A small roll (about 260 wraps) keeps the design's many solves quick in debug builds.

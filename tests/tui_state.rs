@@ -2,7 +2,9 @@
 
 mod tui_support;
 
-use rolltriage::tui::app::{PendingAction, Popup, ResultsFocus, Screen, Setting, SymptomFocus};
+use rolltriage::tui::app::{
+    PendingAction, Popup, ResultsFocus, Screen, Setting, SymptomFocus, WalkStage,
+};
 use rolltriage::tui::event::Key;
 use rolltriage::tui::job::Purpose;
 use tui_support::*;
@@ -495,27 +497,123 @@ fn export_refuses_out_of_date_results() {
     assert!(app.export_to(&folder.path().join("r.md")).is_err());
 }
 
-#[test]
-fn training_walkthroughs_open_their_case_with_the_introduction() {
-    let mut app = app();
+fn start_walkthrough(app: &mut rolltriage::tui::app::App, id: &str) {
     app.walkthroughs = rolltriage::training::library::embedded().unwrap();
-    assert!(!app.walkthroughs.is_empty());
+    let index = app
+        .walkthroughs
+        .iter()
+        .position(|w| w.walkthrough.id == id)
+        .unwrap();
     app.handle_key(Key::Ctrl('t'));
     assert_eq!(app.popup, Some(Popup::Training { selected: 0 }));
-    app.handle_key(Key::Enter);
-    match &app.popup {
-        Some(Popup::Notice { title, .. }) => {
-            assert_eq!(title, &app.walkthroughs[0].walkthrough.title)
-        }
-        other => panic!(
-            "expected the introduction, got {other:?} ({:?})",
-            app.status
-        ),
+    for _ in 0..index {
+        app.handle_key(Key::Down);
     }
+    app.handle_key(Key::Enter);
+}
+
+fn walk_stage(app: &rolltriage::tui::app::App) -> WalkStage {
+    match &app.popup {
+        Some(Popup::Walkthrough(run)) => run.stage.clone(),
+        other => panic!("expected a walk-through, got {other:?} ({:?})", app.status),
+    }
+}
+
+#[test]
+fn training_walkthrough_is_answered_inside_the_ui_and_scored() {
+    let mut app = app();
+    start_walkthrough(&mut app, "telescoping_newsprint");
+    // Its case is open, on the symptoms (the walk-through asks for the cause).
     assert!(!app.case.symptoms.is_empty());
-    // Any key closes the introduction.
-    app.handle_key(Key::Char('x'));
+    assert_eq!(app.screen, Screen::Symptoms);
+    assert_eq!(walk_stage(&app), WalkStage::Briefing);
+    app.handle_key(Key::Enter);
+    assert_eq!(
+        walk_stage(&app),
+        WalkStage::Question {
+            index: 0,
+            highlighted: 0
+        }
+    );
+    // The answer key is in cases/training/telescoping_newsprint.yaml: 2, 1, 1, 2.
+    // Question 1 by its number: right.
+    app.handle_key(Key::Char('2'));
+    match walk_stage(&app) {
+        WalkStage::Feedback { index, feedback } => {
+            assert_eq!(index, 0);
+            assert!(feedback.correct);
+            assert_eq!(feedback.chosen, 1);
+        }
+        other => panic!("expected feedback, got {other:?}"),
+    }
+    app.handle_key(Key::Enter);
+    // A number with no choice behind it is ignored.
+    app.handle_key(Key::Char('9'));
+    assert!(matches!(
+        walk_stage(&app),
+        WalkStage::Question { index: 1, .. }
+    ));
+    // Question 2 by Enter on the first choice: right.
+    app.handle_key(Key::Enter);
+    app.handle_key(Key::Enter);
+    // Question 3: ↓↓ Enter picks choice 3, which is wrong; the feedback names the best answer.
+    app.handle_key(Key::Down);
+    app.handle_key(Key::Down);
+    app.handle_key(Key::Enter);
+    match walk_stage(&app) {
+        WalkStage::Feedback { index, feedback } => {
+            assert_eq!(index, 2);
+            assert!(!feedback.correct);
+            assert_eq!(feedback.correct_choice, 0);
+            assert!(
+                feedback
+                    .to_text()
+                    .starts_with("Not quite. The best answer is 1")
+            );
+        }
+        other => panic!("expected feedback, got {other:?}"),
+    }
+    app.handle_key(Key::Enter);
+    // Question 4 (the safety one): right.
+    app.handle_key(Key::Char('2'));
+    app.handle_key(Key::Enter);
+    assert_eq!(walk_stage(&app), WalkStage::Done);
+    match &app.popup {
+        Some(Popup::Walkthrough(run)) => {
+            let score = run.session.score();
+            assert_eq!((score.correct, score.answered, score.total), (3, 4, 4));
+            assert!(
+                run.session
+                    .closing()
+                    .starts_with("Score: 3 of 4 correct (75 %)")
+            );
+        }
+        other => panic!("{other:?}"),
+    }
+    app.handle_key(Key::Enter);
     assert_eq!(app.popup, None);
+    assert_eq!(
+        app.status.as_deref(),
+        Some("Walk-through left: 3 of 4 correct (75 %)")
+    );
+}
+
+#[test]
+fn escape_leaves_a_walkthrough_half_way() {
+    let mut app = app();
+    start_walkthrough(&mut app, "telescoping_newsprint");
+    app.handle_key(Key::Enter);
+    app.handle_key(Key::Char('1'));
+    app.handle_key(Key::Esc);
+    assert_eq!(app.popup, None);
+    assert_eq!(
+        app.status.as_deref(),
+        Some("Walk-through left: 0 of 4 correct (0 %), 3 not answered")
+    );
+    // The case stays open and the UI answers keys again.
+    assert!(!app.case.symptoms.is_empty());
+    app.handle_key(Key::F(3));
+    assert_eq!(app.screen, Screen::Inputs);
 }
 
 #[test]
@@ -582,4 +680,94 @@ fn core_step_doubles_the_effective_core_stiffness_at_the_same_size() {
         request.case.core.outside_diameter.is_none(),
         "core size unchanged"
     );
+}
+
+fn calibrate_popup(app: &rolltriage::tui::app::App) -> &rolltriage::tui::app::CalibratePrompt {
+    match &app.popup {
+        Some(Popup::Calibrate(prompt)) => prompt,
+        other => panic!("expected the calibration popup, got {other:?}"),
+    }
+}
+
+fn type_into(app: &mut rolltriage::tui::app::App, text: &str) {
+    for c in text.chars() {
+        app.handle_key(Key::Char(c));
+    }
+}
+
+#[test]
+fn stack_calibration_fits_the_csv_and_writes_k1_k2_into_the_case() {
+    let mut app = app();
+    app.set_case(sample_case(), None);
+    app.handle_key(Key::F(3));
+    app.handle_key(Key::Ctrl('k'));
+    type_into(&mut app, "cases/calibration/harbour_news_45.csv");
+    app.handle_key(Key::Enter);
+    let prompt = calibrate_popup(&app);
+    assert_eq!(prompt.error, None);
+    let fitted = prompt.fit.as_ref().unwrap();
+    // SciPy's curve_fit on the same file, relative weighting
+    // (tests/reference/curve_fit_pfeiffer.json): K1 4398.08 Pa, K2 21.2723, 19 loading points.
+    let rel = |a: f64, b: f64| (a - b).abs() / b;
+    assert!(
+        rel(fitted.fit.k1, 4398.079832042864) < 1e-3,
+        "{}",
+        fitted.fit.k1
+    );
+    assert!(
+        rel(fitted.fit.k2, 21.272339472054416) < 1e-3,
+        "{}",
+        fitted.fit.k2
+    );
+    assert!(rel(fitted.fit.k1_standard_error, 83.44074773345993) < 0.05);
+    assert_eq!(fitted.fit.points.len(), 19);
+    // Nothing is written until it is confirmed.
+    assert!(!app.dirty);
+    let generation = app.generation;
+    app.handle_key(Key::Enter);
+    assert_eq!(app.popup, None);
+    assert!(app.dirty);
+    assert!(app.generation > generation);
+    let stiffness = app.case.web.radial_stiffness.clone().unwrap();
+    assert_eq!(stiffness.law, "pfeiffer");
+    assert!(rel(stiffness.k2.unwrap(), 21.272339472054416) < 1e-3);
+    // The case resolves with the fitted law in Pa.
+    match app.resolved.as_ref().unwrap().web.radial_stiffness {
+        rolltriage::model::RadialStiffness::Pfeiffer { k1, k2 } => {
+            assert!(rel(k1, 4398.079832042864) < 1e-3, "{k1}");
+            assert!(rel(k2, 21.272339472054416) < 1e-3, "{k2}");
+        }
+        ref other => panic!("{other:?}"),
+    }
+    assert!(app.status.as_deref().unwrap().contains("unsaved"));
+}
+
+#[test]
+fn stack_calibration_reports_bad_files_in_the_popup() {
+    let mut app = app();
+    app.set_case(sample_case(), None);
+    app.handle_key(Key::F(3));
+    app.handle_key(Key::Ctrl('k'));
+    type_into(&mut app, "cases/calibration/no_such_file.csv");
+    app.handle_key(Key::Enter);
+    let error = calibrate_popup(&app).error.clone().unwrap();
+    assert!(error.contains("no_such_file.csv"), "{error}");
+    assert!(calibrate_popup(&app).fit.is_none());
+
+    let folder = tempfile::tempdir().unwrap();
+    let bad = folder.path().join("bad.csv");
+    std::fs::write(&bad, "strain,pressure [kPa]\n0.01,abc\nnot,a,row\n").unwrap();
+    for _ in 0..40 {
+        app.handle_key(Key::Backspace);
+    }
+    type_into(&mut app, bad.to_str().unwrap());
+    app.handle_key(Key::Enter);
+    let error = calibrate_popup(&app).error.clone().unwrap();
+    assert!(error.contains("bad.csv"), "{error}");
+    // Enter again with the error shown does not write anything; Esc closes.
+    app.handle_key(Key::Enter);
+    app.handle_key(Key::Esc);
+    assert_eq!(app.popup, None);
+    assert!(!app.dirty);
+    assert!(app.case.web.radial_stiffness.is_none());
 }

@@ -113,11 +113,207 @@ pub enum Popup {
     Training {
         selected: usize,
     },
+    /// A training walk-through being answered inside the UI.
+    Walkthrough(Box<WalkthroughRun>),
+    /// Fit the web's radial stiffness (Pfeiffer K1, K2) to a stack-compression test CSV.
+    Calibrate(Box<CalibratePrompt>),
     /// A message; any key closes it.
     Notice {
         title: String,
         text: String,
     },
+}
+
+/// The stack-compression calibration popup: a CSV path, then the fit to confirm.
+#[derive(Debug, Clone, PartialEq, Default)]
+pub struct CalibratePrompt {
+    pub input: String,
+    /// The fit of the file named in `input`, waiting for Enter to be written into the case.
+    pub fit: Option<StackFit>,
+    /// Why the file could not be read or fitted.
+    pub error: Option<String>,
+}
+
+/// A fitted stack test, as the popup shows it.
+#[derive(Debug, Clone, PartialEq)]
+pub struct StackFit {
+    pub origin: String,
+    pub fit: crate::calibrate::PfeifferFit,
+    /// Notes from reading the file and warnings about the fit, one line each.
+    pub warnings: Vec<String>,
+}
+
+/// Read a stack-compression CSV and fit Pfeiffer's law to it, the same library calls as
+/// `rolltriage calibrate stack` with its default options (relative weighting). `thickness` is the
+/// case's web thickness (m), to warn when the stack's caliper does not match it.
+pub fn fit_stack_file(path: &Path, thickness: Option<f64>) -> Result<StackFit, String> {
+    use crate::calibrate::{FitOptions, StackReadOptions, fit_pfeiffer, parse_stack_csv};
+    let origin = path.display().to_string();
+    let text = std::fs::read_to_string(path).map_err(|e| format!("cannot read {origin}: {e}"))?;
+    let test =
+        parse_stack_csv(&text, &origin, &StackReadOptions::default()).map_err(|e| e.to_string())?;
+    let fit = fit_pfeiffer(&test, &FitOptions::default()).map_err(|e| e.to_string())?;
+    let mut warnings: Vec<String> = test.notes.iter().map(|n| format!("note: {n}")).collect();
+    warnings.extend(fit.warnings.iter().map(|w| format!("warning: {w}")));
+    if let (Some(caliper), Some(t)) = (test.caliper(), thickness)
+        && t > 0.0
+        && (caliper / t - 1.0).abs() > 0.10
+    {
+        warnings.push(format!(
+            "warning: the stack's caliper ({:.1} µm) differs from the case's web thickness \
+             ({:.1} µm) by more than 10 %; is this the same web?",
+            caliper * 1e6,
+            t * 1e6
+        ));
+    }
+    Ok(StackFit {
+        origin,
+        fit,
+        warnings,
+    })
+}
+
+/// Where a trainee is in an in-UI walk-through.
+#[derive(Debug, Clone, PartialEq)]
+pub enum WalkStage {
+    /// The story and what was seen.
+    Briefing,
+    /// Question `index` (0-based) with choice `highlighted` (0-based) under the cursor.
+    Question { index: usize, highlighted: usize },
+    /// The feedback on the answer to question `index`.
+    Feedback {
+        index: usize,
+        feedback: Box<crate::training::Feedback>,
+    },
+    /// The score and the summary.
+    Done,
+}
+
+/// A walk-through answered inside the UI: the library's [`crate::training::Session`] checks the
+/// answers and writes the feedback with this roll's computed values, as `rolltriage train` does.
+#[derive(Debug, Clone, PartialEq)]
+pub struct WalkthroughRun {
+    pub session: crate::training::Session,
+    pub stage: WalkStage,
+    /// First line shown (long feedback scrolls).
+    pub scroll: u16,
+}
+
+impl WalkthroughRun {
+    fn question_count(&self) -> usize {
+        self.session.walkthrough.questions.len()
+    }
+
+    fn choice_count(&self, index: usize) -> usize {
+        self.session
+            .walkthrough
+            .questions
+            .get(index)
+            .map_or(0, |q| q.choices.len())
+    }
+
+    /// The stage after `index`: the next question, or the score.
+    fn after(&self, index: usize) -> WalkStage {
+        if index + 1 < self.question_count() {
+            WalkStage::Question {
+                index: index + 1,
+                highlighted: 0,
+            }
+        } else {
+            WalkStage::Done
+        }
+    }
+
+    /// One key; returns false when the walk-through is left.
+    fn key(&mut self, key: Key) -> bool {
+        if key == Key::Esc {
+            return false;
+        }
+        match key {
+            Key::Up if !matches!(self.stage, WalkStage::Question { .. }) => {
+                self.scroll = self.scroll.saturating_sub(1);
+                return true;
+            }
+            Key::Down if !matches!(self.stage, WalkStage::Question { .. }) => {
+                self.scroll = self.scroll.saturating_add(1).min(200);
+                return true;
+            }
+            Key::PageUp => {
+                self.scroll = self.scroll.saturating_sub(10);
+                return true;
+            }
+            Key::PageDown => {
+                self.scroll = self.scroll.saturating_add(10).min(200);
+                return true;
+            }
+            _ => {}
+        }
+        match self.stage.clone() {
+            WalkStage::Briefing => {
+                if matches!(key, Key::Enter | Key::Char(' ') | Key::Right) {
+                    self.stage = if self.question_count() == 0 {
+                        WalkStage::Done
+                    } else {
+                        WalkStage::Question {
+                            index: 0,
+                            highlighted: 0,
+                        }
+                    };
+                    self.scroll = 0;
+                }
+            }
+            WalkStage::Question { index, highlighted } => {
+                let count = self.choice_count(index);
+                let chosen = match key {
+                    Key::Up => {
+                        self.stage = WalkStage::Question {
+                            index,
+                            highlighted: highlighted.saturating_sub(1),
+                        };
+                        None
+                    }
+                    Key::Down => {
+                        self.stage = WalkStage::Question {
+                            index,
+                            highlighted: (highlighted + 1).min(count.saturating_sub(1)),
+                        };
+                        None
+                    }
+                    Key::Enter => Some(highlighted),
+                    Key::Char(c @ '1'..='9') => {
+                        let n = usize::from(c as u8 - b'1');
+                        (n < count).then_some(n)
+                    }
+                    _ => None,
+                };
+                if let Some(choice) = chosen {
+                    match self.session.answer(index, choice) {
+                        Ok(feedback) => {
+                            self.stage = WalkStage::Feedback {
+                                index,
+                                feedback: Box::new(feedback),
+                            };
+                        }
+                        // A malformed walk-through file: skip the question, do not stop.
+                        Err(_) => self.stage = self.after(index),
+                    }
+                    self.scroll = 0;
+                }
+            }
+            WalkStage::Feedback { index, .. } => {
+                if matches!(key, Key::Enter | Key::Char(' ') | Key::Right) {
+                    self.stage = self.after(index);
+                    self.scroll = 0;
+                }
+            }
+            WalkStage::Done => {
+                if matches!(key, Key::Enter | Key::Char(' ')) {
+                    return false;
+                }
+            }
+        }
+        true
+    }
 }
 
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
@@ -757,29 +953,39 @@ impl App {
         }
     }
 
-    /// Open a walk-through's case and show its introduction.
+    /// Open a walk-through's case and start answering its questions.
     pub fn open_walkthrough(&mut self, index: usize) {
         let Some(loaded) = self.walkthroughs.get(index).cloned() else {
             return;
         };
         match crate::training::load_case(&loaded) {
             Ok(case) => {
-                self.set_case(case, None);
+                self.set_case(case.clone(), None);
                 // The walk-through is about finding the cause: start on the picture, not the answer.
-                let w = &loaded.walkthrough;
-                let mut text = w.introduction.clone().unwrap_or_default();
-                text.push_str(&format!(
-                    "\n\n{} questions go with this case; `rolltriage train {}` asks them and scores the answers.",
-                    w.questions.len(),
-                    w.id
-                ));
-                self.popup = Some(Popup::Notice {
-                    title: w.title.clone(),
-                    text: text.trim().to_string(),
-                });
+                self.screen = Screen::Symptoms;
+                let rules = crate::diagnose::rules::RuleBase::embedded().ok();
+                let context =
+                    crate::training::TrainingContext::compute(case, rules.as_ref(), self.units);
+                self.popup = Some(Popup::Walkthrough(Box::new(WalkthroughRun {
+                    session: crate::training::Session::new(loaded.walkthrough, context),
+                    stage: WalkStage::Briefing,
+                    scroll: 0,
+                })));
             }
             Err(error) => self.status = Some(format!("Cannot open the walk-through: {error}")),
         }
+    }
+
+    /// Write a stack fit into the case's web radial stiffness (law pfeiffer).
+    fn apply_stack_fit(&mut self, fitted: &StackFit) {
+        crate::calibrate::apply_to_case(&mut self.case, &fitted.fit);
+        self.changed();
+        self.status = Some(format!(
+            "Web radial stiffness: pfeiffer K1 {} kPa, K2 {} from {} (unsaved)",
+            crate::calibrate::significant(fitted.fit.k1 / 1e3, 5),
+            crate::calibrate::significant(fitted.fit.k2, 5),
+            fitted.origin
+        ));
     }
 
     fn handle_popup_key(&mut self, key: Key) {
@@ -870,6 +1076,45 @@ impl App {
                 _ => self.popup = Some(Popup::Open(prompt)),
             },
             Popup::Notice { .. } => {}
+            Popup::Calibrate(mut prompt) => match key {
+                Key::Esc => {}
+                Key::Enter => match prompt.fit.take() {
+                    Some(fitted) => self.apply_stack_fit(&fitted),
+                    None => {
+                        let path = PathBuf::from(prompt.input.trim());
+                        let thickness = self.resolved.as_ref().ok().map(|r| r.web.thickness);
+                        match fit_stack_file(&path, thickness) {
+                            Ok(fitted) => {
+                                prompt.fit = Some(fitted);
+                                prompt.error = None;
+                            }
+                            Err(error) => prompt.error = Some(error),
+                        }
+                        self.popup = Some(Popup::Calibrate(prompt));
+                    }
+                },
+                Key::Char(c) => {
+                    prompt.input.push(c);
+                    prompt.fit = None;
+                    prompt.error = None;
+                    self.popup = Some(Popup::Calibrate(prompt));
+                }
+                Key::Backspace => {
+                    prompt.input.pop();
+                    prompt.fit = None;
+                    prompt.error = None;
+                    self.popup = Some(Popup::Calibrate(prompt));
+                }
+                _ => self.popup = Some(Popup::Calibrate(prompt)),
+            },
+            Popup::Walkthrough(mut run) => {
+                if run.key(key) {
+                    self.popup = Some(Popup::Walkthrough(run));
+                } else {
+                    let score = run.session.score();
+                    self.status = Some(format!("Walk-through left: {score}"));
+                }
+            }
             Popup::Training { selected } => match key {
                 Key::Up => {
                     self.popup = Some(Popup::Training {
@@ -1117,6 +1362,10 @@ impl App {
     }
 
     fn inputs_key(&mut self, key: Key) {
+        if key == Key::Ctrl('k') && self.inputs.editing.is_none() {
+            self.popup = Some(Popup::Calibrate(Box::default()));
+            return;
+        }
         let spec = FIELDS[self.inputs.selected.min(FIELDS.len() - 1)];
         if let Some(mut text) = self.inputs.editing.take() {
             match key {
@@ -1569,12 +1818,23 @@ impl App {
                 ("Esc", "cancel"),
             ],
             Some(Popup::Training { .. }) => {
-                vec![
-                    ("↑↓", "pick"),
-                    ("Enter", "open its case"),
-                    ("Esc", "cancel"),
-                ]
+                vec![("↑↓", "pick"), ("Enter", "start"), ("Esc", "cancel")]
             }
+            Some(Popup::Calibrate(ref prompt)) => match prompt.fit {
+                Some(_) => vec![
+                    ("Enter", "write K1 K2 into the case"),
+                    ("type", "other file"),
+                    ("Esc", "cancel"),
+                ],
+                None => vec![("type", "CSV file"), ("Enter", "fit"), ("Esc", "cancel")],
+            },
+            Some(Popup::Walkthrough(ref run)) => match run.stage {
+                WalkStage::Question { .. } => {
+                    vec![("1-9", "answer"), ("↑↓ Enter", "pick"), ("Esc", "leave")]
+                }
+                WalkStage::Done => vec![("Enter/Esc", "close"), ("↑↓", "scroll")],
+                _ => vec![("Enter", "next"), ("↑↓", "scroll"), ("Esc", "leave")],
+            },
             Some(Popup::Notice { .. }) => vec![("any key", "close")],
             Some(Popup::SaveAs { .. }) => {
                 vec![("type", "file name"), ("Enter", "save"), ("Esc", "cancel")]
@@ -1593,11 +1853,12 @@ impl App {
                 },
                 Screen::Inputs => match self.inputs.editing {
                     Some(_) => vec![("type", "value+unit"), ("Enter", "ok"), ("Esc", "cancel")],
+                    // Delete (clear) is in the F1 list: the line has 80 columns.
                     None => vec![
                         ("↑↓", "move"),
                         ("type", "edit"),
-                        ("←→", "choose"),
-                        ("Del", "clear"),
+                        ("←→", "set"),
+                        ("^K", "calibrate"),
                     ],
                 },
                 Screen::Results => vec![("↑↓", "move"), ("←→", "pane"), ("Enter", "reasons/try")],

@@ -15,7 +15,7 @@ pub fn sections() -> Vec<(&'static str, Vec<(&'static str, &'static str)>)> {
             ("Ctrl-R", "solve again"),
             ("Ctrl-U", "SI / US units"),
             ("Ctrl-E", "export a report (.md, .html or .json by the file name)"),
-            ("Ctrl-T / F6", "training walk-throughs: open a guided case"),
+            ("Ctrl-T / F6", "training walk-throughs: answer a guided case"),
             ("Ctrl-Q (q off text)", "quit — asks when there are unsaved changes"),
         ]),
         ("Symptoms", vec![
@@ -32,6 +32,7 @@ pub fn sections() -> Vec<(&'static str, Vec<(&'static str, &'static str)>)> {
             ("Enter / Esc", "accept (checked at once) / cancel"),
             ("← →", "choose on choice and preset rows"),
             ("Delete", "clear a field: the preset or default value is used"),
+            ("Ctrl-K", "fit Pfeiffer K1, K2 to a stack-test CSV"),
         ]),
         ("Results", vec![
             ("← →", "causes / remedies"),
@@ -45,6 +46,12 @@ pub fn sections() -> Vec<(&'static str, Vec<(&'static str, &'static str)>)> {
             ("Enter", "try the highlighted remedy"),
             ("d", "design a taper that keeps the roll inside every limit"),
             ("a / r", "keep the change (or the designed taper) in the case / reset"),
+        ]),
+        ("Training walk-through", vec![
+            ("Enter", "start / next question / close after the score"),
+            ("1-9, or ↑ ↓ then Enter", "answer the question"),
+            ("↑ ↓  PgUp PgDn", "scroll the story and the feedback"),
+            ("Esc", "leave the walk-through (its case stays open)"),
         ]),
         ("Reading the plots", vec![
             ("core inner middle outer", "zones of the roll, named on the top row"),

@@ -6,7 +6,9 @@ use ratatui::text::{Line, Span};
 use ratatui::widgets::{Block, Clear, Paragraph, Widget, Wrap};
 
 use super::{centred, help};
-use crate::tui::app::{App, OpenPurpose, PendingAction, Popup};
+use crate::tui::app::{
+    App, CalibratePrompt, OpenPurpose, PendingAction, Popup, WalkStage, WalkthroughRun,
+};
 use crate::tui::theme::Theme;
 
 pub fn render(app: &App, popup: &Popup, theme: Theme, area: Rect, buf: &mut Buffer) {
@@ -144,9 +146,11 @@ pub fn render(app: &App, popup: &Popup, theme: Theme, area: Rect, buf: &mut Buff
             }
             Clear.render(rect, buf);
             Paragraph::new(lines)
-                .block(Block::bordered().title(" Training walk-throughs — Enter opens the case "))
+                .block(Block::bordered().title(" Training walk-throughs — Enter starts one "))
                 .render(rect, buf);
         }
+        Popup::Walkthrough(run) => walkthrough(run, theme, area, buf),
+        Popup::Calibrate(prompt) => calibrate(app, prompt, theme, area, buf),
         Popup::Notice { title, text } => {
             let rect = centred(area, 70, area.height.saturating_sub(4).min(14));
             Clear.render(rect, buf);
@@ -178,4 +182,145 @@ pub fn render(app: &App, popup: &Popup, theme: Theme, area: Rect, buf: &mut Buff
                 .render(rect, buf);
         }
     }
+}
+
+/// Text as lines, one `Line` per line of text (so wrapping keeps the paragraphs).
+fn text_lines(text: &str) -> Vec<Line<'static>> {
+    text.lines().map(|l| Line::from(l.to_string())).collect()
+}
+
+fn walkthrough(run: &WalkthroughRun, theme: Theme, area: Rect, buf: &mut Buffer) {
+    let session = &run.session;
+    let total = session.walkthrough.questions.len();
+    let (stage, mut lines) = match &run.stage {
+        WalkStage::Briefing => ("the story".to_string(), {
+            let mut lines = text_lines(&session.briefing());
+            lines.push(Line::from(""));
+            lines.push(Line::from(Span::styled(
+                format!("{total} questions follow. Enter starts."),
+                theme.dim(),
+            )));
+            lines
+        }),
+        WalkStage::Question { index, highlighted } => {
+            let mut lines = Vec::new();
+            if let Some(q) = session.walkthrough.questions.get(*index) {
+                lines.push(Line::from(Span::styled(
+                    format!("{} — {}", q.topic.as_str(), q.prompt.trim()),
+                    theme.title(),
+                )));
+                lines.push(Line::from(""));
+                for (i, choice) in q.choices.iter().enumerate() {
+                    let (marker, style) = if i == *highlighted {
+                        ("▶", theme.selected())
+                    } else {
+                        (" ", theme.plain())
+                    };
+                    lines.push(Line::from(Span::styled(
+                        format!("{marker} {}. {}", i + 1, choice.text.trim()),
+                        style,
+                    )));
+                }
+            }
+            (format!("question {} of {total}", index + 1), lines)
+        }
+        WalkStage::Feedback { index, feedback } => {
+            let mut lines = text_lines(&feedback.to_text());
+            lines.push(Line::from(""));
+            let next = if index + 1 < total {
+                "Enter: next question"
+            } else {
+                "Enter: your score"
+            };
+            lines.push(Line::from(Span::styled(next, theme.dim())));
+            (
+                format!("answer to question {} of {total}", index + 1),
+                lines,
+            )
+        }
+        WalkStage::Done => ("score".to_string(), text_lines(&session.closing())),
+    };
+    let score = session.score();
+    lines.insert(
+        0,
+        Line::from(Span::styled(
+            format!("{} correct so far of {}", score.correct, score.total),
+            theme.dim(),
+        )),
+    );
+    let rect = centred(area, 78, area.height.saturating_sub(2));
+    Clear.render(rect, buf);
+    Paragraph::new(lines)
+        .wrap(Wrap { trim: false })
+        .scroll((run.scroll, 0))
+        .block(Block::bordered().title(format!(
+            " {} — {stage} · Esc leaves ",
+            session.walkthrough.title
+        )))
+        .render(rect, buf);
+}
+
+fn calibrate(app: &App, prompt: &CalibratePrompt, theme: Theme, area: Rect, buf: &mut Buffer) {
+    let stress = |pa: f64| super::compact_stress(pa, app.units);
+    let mut lines = vec![Line::from(vec![
+        Span::styled("CSV file: ", theme.key()),
+        Span::raw(format!("{}▏", prompt.input)),
+    ])];
+    if let Some(error) = &prompt.error {
+        lines.push(Line::from(Span::styled(error.clone(), theme.error())));
+    }
+    match &prompt.fit {
+        None => {
+            lines.push(Line::from(Span::styled(
+                "Pressure against strain or stack height, units in the header, e.g.",
+                theme.dim(),
+            )));
+            lines.push(Line::from(Span::styled(
+                "cases/calibration/harbour_news_45.csv. Enter fits P = K1·(e^(K2·ε) − 1).",
+                theme.dim(),
+            )));
+        }
+        Some(fitted) => {
+            let fit = &fitted.fit;
+            lines.push(Line::from(Span::styled(
+                "Pfeiffer P = K1·(e^(K2·ε) − 1), relative weighting",
+                theme.title(),
+            )));
+            // K1 with the command line's precision: it is written into the case.
+            let precise = |pa: f64| {
+                crate::units::format_quantity(pa, crate::units::QuantityKind::Stress, app.units)
+            };
+            lines.push(Line::from(format!(
+                "  K1 = {} ± {}   (standard error)",
+                precise(fit.k1),
+                precise(fit.k1_standard_error)
+            )));
+            lines.push(Line::from(format!(
+                "  K2 = {:.4} ± {:.4}",
+                fit.k2, fit.k2_standard_error
+            )));
+            lines.push(Line::from(format!(
+                "  R² = {:.5}   points = {}   measured up to {}",
+                fit.r_squared,
+                fit.points.len(),
+                stress(fit.max_measured_pressure())
+            )));
+            for warning in &fitted.warnings {
+                lines.push(Line::from(Span::styled(warning.clone(), theme.error())));
+            }
+            lines.push(Line::from(Span::styled(
+                format!(
+                    "Enter writes K1, K2 into the web radial stiffness of \"{}\" (unsaved).",
+                    app.case.title
+                ),
+                theme.dim(),
+            )));
+        }
+    }
+    let rect = centred(area, 76, area.height.saturating_sub(4).min(16));
+    Clear.render(rect, buf);
+    Paragraph::new(lines)
+        .wrap(Wrap { trim: false })
+        .block(Block::bordered().title(" Calibrate: stack-compression test "))
+        .render(rect, buf);
 }
