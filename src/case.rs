@@ -1508,6 +1508,22 @@ impl Resolver {
         Ok(value)
     }
 
+    /// The `tension` of a listed band (a taper step or an upset) at `{field}.tension`: a
+    /// required force per width, in `range` and below the web strength.
+    fn band_tension(
+        &self,
+        field: &str,
+        text: &QuantityText,
+        web: &ResolvedWeb,
+        range: &Range,
+    ) -> Result<f64, CaseError> {
+        let field = format!("{field}.tension");
+        let tension = self
+            .quantity(&field, Some(text), QuantityKind::ForcePerWidth)?
+            .unwrap_or(f64::NAN);
+        self.tension_below_strength(&field, tension, web, range)
+    }
+
     fn winding(
         &mut self,
         winding: &WindingInput,
@@ -1593,19 +1609,7 @@ impl Resolver {
                     ),
                 ));
             }
-            let tension = self
-                .quantity(
-                    &format!("{field}.tension"),
-                    Some(&upset.tension),
-                    QuantityKind::ForcePerWidth,
-                )?
-                .unwrap_or(f64::NAN);
-            let tension = self.tension_below_strength(
-                &format!("{field}.tension"),
-                tension,
-                web,
-                &UPSET_TENSION,
-            )?;
+            let tension = self.band_tension(&field, &upset.tension, web, &UPSET_TENSION)?;
             upsets.push(UpsetBand {
                 from_radius,
                 to_radius,
@@ -1743,19 +1747,7 @@ impl Resolver {
                         ));
                     }
                     last_radius = radius;
-                    let tension = self
-                        .quantity(
-                            &format!("{field}.tension"),
-                            Some(&step.tension),
-                            QuantityKind::ForcePerWidth,
-                        )?
-                        .unwrap_or(f64::NAN);
-                    let tension = self.tension_below_strength(
-                        &format!("{field}.tension"),
-                        tension,
-                        web,
-                        &TENSION,
-                    )?;
+                    let tension = self.band_tension(&field, &step.tension, web, &TENSION)?;
                     steps.push(TensionStep { radius, tension });
                 }
                 Ok(Taper::Steps { steps })
