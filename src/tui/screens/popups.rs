@@ -70,13 +70,7 @@ pub fn render(app: &App, popup: &Popup, theme: Theme, area: Rect, buf: &mut Buff
                 OpenPurpose::WholeCase => " Open a case file ",
                 OpenPurpose::InputsOnly => " Take the inputs from a case file (symptoms kept) ",
             };
-            let mut lines = vec![Line::from(vec![
-                Span::styled("file: ", theme.key()),
-                Span::raw(format!("{}▏", prompt.input)),
-            ])];
-            if let Some(error) = &prompt.error {
-                lines.push(Line::from(Span::styled(error.clone(), theme.error())));
-            }
+            let mut lines = path_prompt("file: ", &prompt.input, prompt.error.as_deref(), theme);
             lines.push(Line::from(Span::styled(
                 "found nearby (↑↓ then Enter):",
                 theme.dim(),
@@ -108,13 +102,7 @@ pub fn render(app: &App, popup: &Popup, theme: Theme, area: Rect, buf: &mut Buff
                 .render(rect, buf);
         }
         Popup::Export { input, error } => {
-            let mut lines = vec![Line::from(vec![
-                Span::styled("file: ", theme.key()),
-                Span::raw(format!("{input}▏")),
-            ])];
-            if let Some(error) = error {
-                lines.push(Line::from(Span::styled(error.clone(), theme.error())));
-            }
+            let mut lines = path_prompt("file: ", input, error.as_deref(), theme);
             lines.push(Line::from(Span::styled(
                 "Markdown (.md), HTML with plots (.html) or JSON (.json), by the file name.",
                 theme.dim(),
@@ -160,13 +148,7 @@ pub fn render(app: &App, popup: &Popup, theme: Theme, area: Rect, buf: &mut Buff
                 .render(rect, buf);
         }
         Popup::SaveAs { input, error } => {
-            let mut lines = vec![Line::from(vec![
-                Span::styled("file: ", theme.key()),
-                Span::raw(format!("{input}▏")),
-            ])];
-            if let Some(error) = error {
-                lines.push(Line::from(Span::styled(error.clone(), theme.error())));
-            }
+            let mut lines = path_prompt("file: ", input, error.as_deref(), theme);
             lines.push(Line::from(Span::styled(
                 format!(
                     "The case \"{}\" is written to a temporary file, then renamed.",
@@ -185,6 +167,24 @@ pub fn render(app: &App, popup: &Popup, theme: Theme, area: Rect, buf: &mut Buff
 }
 
 /// Text as lines, one `Line` per line of text (so wrapping keeps the paragraphs).
+/// The head of a popup that asks for a file path: the label, the text typed so far with a
+/// cursor, and the last error (if any) under it.
+fn path_prompt(
+    label: &'static str,
+    input: &str,
+    error: Option<&str>,
+    theme: Theme,
+) -> Vec<Line<'static>> {
+    let mut lines = vec![Line::from(vec![
+        Span::styled(label, theme.key()),
+        Span::raw(format!("{input}▏")),
+    ])];
+    if let Some(error) = error {
+        lines.push(Line::from(Span::styled(error.to_string(), theme.error())));
+    }
+    lines
+}
+
 fn text_lines(text: &str) -> Vec<Line<'static>> {
     text.lines().map(|l| Line::from(l.to_string())).collect()
 }
@@ -262,13 +262,7 @@ fn walkthrough(run: &WalkthroughRun, theme: Theme, area: Rect, buf: &mut Buffer)
 
 fn calibrate(app: &App, prompt: &CalibratePrompt, theme: Theme, area: Rect, buf: &mut Buffer) {
     let stress = |pa: f64| super::compact_stress(pa, app.units);
-    let mut lines = vec![Line::from(vec![
-        Span::styled("CSV file: ", theme.key()),
-        Span::raw(format!("{}▏", prompt.input)),
-    ])];
-    if let Some(error) = &prompt.error {
-        lines.push(Line::from(Span::styled(error.clone(), theme.error())));
-    }
+    let mut lines = path_prompt("CSV file: ", &prompt.input, prompt.error.as_deref(), theme);
     match &prompt.fit {
         None => {
             lines.push(Line::from(Span::styled(
