@@ -41,9 +41,12 @@ pub const MAX_LAYERS: usize = 20_000_000;
 /// Relative size below which an increment is treated as zero deeper in the stack.
 pub const SKIP_THRESHOLD: f64 = 1e-13;
 
-/// Convergence tolerance of the iterated and secant modulus updates, relative to the
-/// increment's outer load.
-pub const MODULUS_TOLERANCE: f64 = 1e-7;
+/// Convergence tolerance of the iterated and secant modulus updates: an increment is settled
+/// when the radial modulus of every node, evaluated with the trial increment, is within this
+/// share of the modulus evaluated with the increment that comes out of the solve. The test is
+/// on the moduli, not on the increment itself: deep in the roll an increment is far smaller
+/// than the pressure already there, so a trial value that is off there changes nothing.
+pub const MODULUS_TOLERANCE: f64 = 1e-6;
 
 /// Iteration cap of the modulus update of one increment.
 pub const MAX_MODULUS_ITERATIONS: usize = 60;
@@ -221,12 +224,20 @@ struct Solver {
     diagonal: Vec<f64>,
     /// The increment δσr of the current solve.
     shot: Vec<f64>,
+    /// The unscaled homogeneous solution of the current solve (valid from `zero_below` up).
+    raw: Vec<f64>,
+    /// Half the logarithmic slope ½·d(ln Er)/dP at each node's pressure: the relative change of
+    /// a node's modulus per pascal of change in its trial increment (an upper bound).
+    sensitivity: Vec<f64>,
+    /// Nodes below this carry a zero increment in the current solve (see the rescaling).
+    zero_below: usize,
     /// Trial increment the moduli are evaluated with (iterated and secant updates).
     guess: Vec<f64>,
     /// First node included in the increments (nodes below are skipped).
     low: usize,
     previous_load: f64,
-    previous_top: usize,
+    /// Radius of the node the previous increment was applied at.
+    previous_top_radius: f64,
     iterations: usize,
     increments: usize,
 }
@@ -252,10 +263,13 @@ impl Solver {
             wound_in: v(),
             diagonal: v(),
             shot: v(),
+            raw: v(),
+            sensitivity: v(),
+            zero_below: 0,
             guess: v(),
             low: 0,
             previous_load: 0.0,
-            previous_top: 0,
+            previous_top_radius: 0.0,
             iterations: 0,
             increments: 0,
         }
@@ -278,6 +292,8 @@ impl Solver {
         self.wound_in.push(wound_in);
         self.diagonal.push(0.0);
         self.shot.push(0.0);
+        self.raw.push(0.0);
+        self.sensitivity.push(0.0);
         self.guess.push(0.0);
         let n = self.len();
         if n >= 3 {
@@ -334,6 +350,8 @@ impl Solver {
             &mut self.gamma,
             &mut self.diagonal,
             &mut self.guess,
+            &mut self.raw,
+            &mut self.sensitivity,
         ] {
             v.truncate(n);
         }
@@ -359,12 +377,14 @@ impl Solver {
 
     /// Negated normalised diagonal of rows `from..to`, specialised per stiffness law and
     /// modulus update so the loops stay tight (they are the bulk of the work besides the chain).
+    /// The iterated and secant updates also store each row's modulus sensitivity.
     fn fill_diagonal(&mut self, from: usize, to: usize) {
         let et = self.tangential_modulus;
         let pressure = &self.pressure[from..to];
         let guess = &self.guess[from..to];
         let beta = &self.beta[from..to];
         let gamma = &self.gamma[from..to];
+        let sensitivity = &mut self.sensitivity[from..to];
         let out = &mut self.diagonal[from..to];
         match (self.law, self.update) {
             (RadialStiffness::Pfeiffer { k1, k2 }, ModulusUpdate::Explicit) => {
@@ -378,6 +398,7 @@ impl Solver {
                 for i in 0..out.len() {
                     let mid = (pressure[i] - 0.5 * guess[i]).max(0.0);
                     out[i] = gamma[i] * scale / (mid + k1) - beta[i];
+                    sensitivity[i] = 0.5 / (pressure[i].max(0.0) + k1);
                 }
             }
             (RadialStiffness::Pfeiffer { k1, k2 }, ModulusUpdate::Secant) => {
@@ -385,20 +406,34 @@ impl Solver {
                 let scale = et / k2;
                 let mut large = false;
                 for i in 0..out.len() {
-                    let base = pressure[i].max(0.0) + k1;
-                    let x = -guess[i] / base;
-                    large |= x.abs() >= 1e-2;
-                    // ln(1+x)/x = 1 − x/2 + x²/3 − x³/4 + x⁴/5 (error < x⁵/6 ≈ 2e-11 here).
-                    let factor = 1.0 - x * (0.5 - x * (1.0 / 3.0 - x * (0.25 - x * 0.2)));
-                    out[i] = gamma[i] * scale * factor / base - beta[i];
+                    let inverse = 1.0 / (pressure[i].max(0.0) + k1);
+                    // The secant runs from P to P + ΔP, never below zero pressure.
+                    let x = (-guess[i] * inverse).max(k1 * inverse - 1.0);
+                    large |= !(-0.5..1.0).contains(&x);
+                    // ln(1+x)/x = 2/(2+x) · atanh(u)/u with u = x/(2+x), and
+                    // atanh(u)/u = Σ u²ⁿ/(2n+1); |u| ≤ 1/3 on −0.5 ≤ x < 1, so nine terms leave
+                    // a relative error below 2e-10.
+                    let d = 1.0 / (2.0 + x);
+                    let w = (x * d) * (x * d);
+                    let series = 1.0
+                        + w * (1.0 / 3.0
+                            + w * (1.0 / 5.0
+                                + w * (1.0 / 7.0
+                                    + w * (1.0 / 9.0
+                                        + w * (1.0 / 11.0
+                                            + w * (1.0 / 13.0
+                                                + w * (1.0 / 15.0 + w * (1.0 / 17.0))))))));
+                    out[i] = gamma[i] * scale * (2.0 * d * series) * inverse - beta[i];
+                    sensitivity[i] = 0.5 * inverse;
                 }
                 if large {
-                    // The few nodes near the top with a large relative step: exact logarithm.
+                    // The few rows with a large relative step: exact logarithm.
                     for i in 0..out.len() {
                         let base = pressure[i].max(0.0) + k1;
-                        let x = -guess[i] / base;
-                        if x.abs() >= 1e-2 {
-                            out[i] = gamma[i] * scale * (x.ln_1p() / x) / base - beta[i];
+                        let x = (-guess[i] / base).max(k1 / base - 1.0);
+                        if !(-0.5..1.0).contains(&x) {
+                            let factor = if x.abs() < 1e-12 { 1.0 } else { x.ln_1p() / x };
+                            out[i] = gamma[i] * scale * factor / base - beta[i];
                         }
                     }
                 }
@@ -413,6 +448,7 @@ impl Solver {
                 for i in from..to {
                     let g = self.stiffness_ratio(i, self.guess[i]);
                     self.diagonal[i] = self.gamma[i] * g - self.beta[i];
+                    self.sensitivity[i] = 0.5 * self.law.log_slope(self.pressure[i]);
                 }
             }
         }
@@ -420,40 +456,54 @@ impl Solver {
 
     /// Shoot from `low` to `top` with the moduli from `self.guess`; leaves δσr in `self.shot`
     /// scaled so that the top node carries `-load`.
-    fn shoot(&mut self, top: usize, load: f64) {
+    ///
+    /// With `restart = Some(v)` only the rows from `v` up are rebuilt: the trial increment
+    /// changed only there, so the homogeneous solution below `v` still holds and the chain
+    /// resumes from its two stored values at `v − 1` and `v`.
+    fn shoot(&mut self, top: usize, load: f64, restart: Option<usize>) {
         let low = self.low;
         if top == low {
             self.shot[top] = -load;
+            self.raw[top] = 1.0;
+            self.zero_below = low;
             return;
         }
-        let mut zero_below = low;
-        if low == 0 {
-            let r0 = self.radius[0];
-            let h = self.radius[1] - r0;
-            let c = self.core_coefficient;
-            let g0 = self.stiffness_ratio(0, self.guess[0]);
-            self.shot[0] = 1.0;
-            self.shot[1] =
-                (2.0 * r0 * r0 + 2.0 * r0 * c * h - (3.0 * c + 1.0 - g0) * h * h) / (2.0 * r0 * r0);
-        } else {
-            // A zero value just below the first included node: the increment there is below
-            // the skip threshold.
-            let g = self.stiffness_ratio(low, self.guess[low]);
-            self.shot[low] = 1.0;
-            self.shot[low + 1] = self.gamma[low] * g - self.beta[low];
-        }
-        self.fill_diagonal(low + 1, top);
+        let begin = match restart {
+            Some(v) if v > low + 1 && v > self.zero_below && v < top => v,
+            _ => {
+                self.zero_below = low;
+                if low == 0 {
+                    let r0 = self.radius[0];
+                    let h = self.radius[1] - r0;
+                    let c = self.core_coefficient;
+                    let g0 = self.stiffness_ratio(0, self.guess[0]);
+                    self.sensitivity[0] = 0.5 * self.law.log_slope(self.pressure[0]);
+                    self.raw[0] = 1.0;
+                    self.raw[1] = (2.0 * r0 * r0 + 2.0 * r0 * c * h - (3.0 * c + 1.0 - g0) * h * h)
+                        / (2.0 * r0 * r0);
+                } else {
+                    // A zero value just below the first included node: the increment there is
+                    // below the skip threshold.
+                    let g = self.stiffness_ratio(low, self.guess[low]);
+                    self.sensitivity[low] = 0.5 * self.law.log_slope(self.pressure[low]);
+                    self.raw[low] = 1.0;
+                    self.raw[low + 1] = self.gamma[low] * g - self.beta[low];
+                }
+                low + 1
+            }
+        };
+        self.fill_diagonal(begin, top);
         // The serial chain x[i+1] = −ā·x[i−1] − b̄·x[i], advanced two nodes at a time: both new
         // values are combinations of the two previous ones with coefficients computed off the
         // dependency path, so the path carries one multiply-add per two nodes.
-        let mut previous = self.shot[low];
-        let mut current = self.shot[low + 1];
-        let mut block = low + 1;
+        let mut previous = self.raw[begin - 1];
+        let mut current = self.raw[begin];
+        let mut block = begin;
         while block < top {
             let block_end = (block + 64).min(top);
             let lower = &self.lower[block..block_end];
             let diagonal = &self.diagonal[block..block_end];
-            let out = &mut self.shot[block + 1..block_end + 1];
+            let out = &mut self.raw[block + 1..block_end + 1];
             let pairs = out.len() / 2;
             for k in 0..pairs {
                 let (q0, p0) = (lower[2 * k], diagonal[2 * k]);
@@ -477,61 +527,83 @@ impl Solver {
                 // Rescale; everything below is negligible against the top.
                 previous *= 1e-150;
                 current *= 1e-150;
-                self.shot[block - 1] = previous;
-                self.shot[block] = current;
-                zero_below = block - 1;
+                self.raw[block - 1] = previous;
+                self.raw[block] = current;
+                self.zero_below = block - 1;
             }
         }
-        let scale = -load / self.shot[top];
-        for value in &mut self.shot[low..zero_below] {
-            *value = 0.0;
+        let zero_below = self.zero_below;
+        let scale = -load / self.raw[top];
+        self.shot[low..zero_below].fill(0.0);
+        for (value, raw) in self.shot[zero_below..=top]
+            .iter_mut()
+            .zip(&self.raw[zero_below..=top])
+        {
+            *value = raw * scale;
         }
-        for value in &mut self.shot[zero_below..=top] {
-            *value *= scale;
+    }
+
+    /// Initial trial increment: the previous increment moved outward with the top (by radius,
+    /// so it follows the surface through the per-wrap window and barely moves on the coarse
+    /// elements deep in the roll), scaled by the ratio of the loads.
+    fn predict(&mut self, low: usize, top: usize, load: f64) {
+        let ratio = if self.previous_load > 0.0 {
+            load / self.previous_load
+        } else {
+            0.0
+        };
+        let shift = (self.radius[top] - self.previous_top_radius).max(0.0);
+        let mut j = top;
+        for i in (low..top).rev() {
+            let target = self.radius[i] - shift;
+            while j > low && self.radius[j] > target {
+                j -= 1;
+            }
+            let value = if self.radius[j] >= target || j == top {
+                self.shot[j]
+            } else {
+                let (r0, r1) = (self.radius[j], self.radius[j + 1]);
+                let w = (target - r0) / (r1 - r0);
+                self.shot[j] + w * (self.shot[j + 1] - self.shot[j])
+            };
+            self.guess[i] = value * ratio;
         }
+        self.guess[top] = -load;
     }
 
     /// One increment: `load` (Pa, = ΣT/s) applied at node `top` (nodes above it are inert).
     fn increment(&mut self, top: usize, load: f64) -> Result<(), ModelError> {
         self.increments += 1;
-        let shift = top.saturating_sub(self.previous_top).max(1);
-        self.previous_top = top;
         let low = self.low.min(top);
         self.low = low;
         let explicit = matches!(self.update, ModulusUpdate::Explicit)
             || matches!(self.law, RadialStiffness::Constant { .. });
         if !explicit {
-            // Initial guess: the previous increment shifted outward with the top, scaled by load.
-            let ratio = if self.previous_load > 0.0 {
-                load / self.previous_load
-            } else {
-                0.0
-            };
-            for i in (low..top).rev() {
-                self.guess[i] = if i >= shift {
-                    self.shot[i - shift] * ratio
-                } else {
-                    0.0
-                };
-            }
-            self.guess[top] = -load;
+            self.predict(low, top, load);
         }
+        self.previous_top_radius = self.radius[top];
         self.previous_load = load;
         let mut iteration = 0;
+        let mut restart = None;
         loop {
             iteration += 1;
-            self.shoot(top, load);
+            self.shoot(top, load, restart);
             self.iterations += 1;
             if explicit {
                 break;
             }
-            let worst = self.shot[low..=top]
-                .iter()
-                .zip(&self.guess[low..=top])
-                .fold(0.0f64, |w, (a, b)| w.max((a - b).abs()));
-            if worst <= MODULUS_TOLERANCE * load {
+            // The lowest node whose modulus does not yet match its increment. A node is settled
+            // when the change of its increment moves its modulus by less than the tolerance, or
+            // is itself that small a share of the increment (the secant modulus never moves by
+            // a larger share than the increment does).
+            let unsettled = (low..top).find(|&i| {
+                let change = (self.shot[i] - self.guess[i]).abs();
+                change * self.sensitivity[i] > MODULUS_TOLERANCE
+                    && change > MODULUS_TOLERANCE * self.shot[i].abs().max(self.guess[i].abs())
+            });
+            let Some(first) = unsettled else {
                 break;
-            }
+            };
             if iteration >= MAX_MODULUS_ITERATIONS {
                 return Err(ModelError::NotConverged(format!(
                     "the modulus update did not settle within {MAX_MODULUS_ITERATIONS} \
@@ -539,7 +611,9 @@ impl Solver {
                     self.increments
                 )));
             }
-            std::mem::swap(&mut self.shot, &mut self.guess);
+            // Nodes below `first` keep their trial values, so only the rows above are rebuilt.
+            self.guess[first..=top].copy_from_slice(&self.shot[first..=top]);
+            restart = Some(first);
         }
         self.accumulate(top);
         self.advance_skip(top, load);

@@ -60,6 +60,18 @@ impl RadialStiffness {
         }
     }
 
+    /// Logarithmic slope d(ln Er)/dP at `pressure` (1/Pa): the relative change of the tangent
+    /// modulus per pascal. The accretion solver uses it to judge when a trial increment is
+    /// close enough.
+    pub fn log_slope(&self, pressure: f64) -> f64 {
+        let p = pressure.max(0.0);
+        match *self {
+            RadialStiffness::Pfeiffer { k1, .. } => 1.0 / (p + k1),
+            RadialStiffness::Constant { .. } => 0.0,
+            RadialStiffness::PowerLaw { exponent, .. } => exponent / p.max(POWER_LAW_FLOOR),
+        }
+    }
+
     /// Secant modulus ΔP/Δε between pressures `from` and `to` (Pa). With it, the radial strain
     /// increment of a finite pressure step is exactly the law's strain difference.
     /// Falls back to the tangent modulus at the mid pressure for vanishing steps.
