@@ -56,10 +56,25 @@ pub const MAX_MODULUS_ITERATIONS: usize = 60;
 /// increment is resolved; deeper wraps are merged into elements. See docs/theory.md.
 pub const WINDOW_DECAY_LENGTHS: f64 = 3.0;
 
-/// In grouped resolution consecutive wraps are laid as one increment in batches of about this
-/// share of the surface decay length (at least one wrap); the wraps inside a batch take the
-/// hoop-equilibrium pressure of the wraps above them in the batch.
-pub const BATCH_DECAY_SHARE: f64 = 0.05;
+/// In grouped resolution consecutive wraps are laid in one increment, each wrap with its own
+/// load on its own node, in batches of about this share of the surface decay length
+/// λ(0) = s/√(Eθ/Er(0)) at the current radius (at least one wrap). Within a batch the moduli are
+/// held at the secant over the batch's whole pressure change; see docs/theory.md for the
+/// measured effect.
+pub const BATCH_DECAY_SHARE: f64 = 0.1;
+
+/// In grouped resolution the deep part of the roll, where one increment changes the pressure by
+/// a tiny share of what is already there, is *held*: its response to an increment keeps the
+/// shape computed at the last full solve, only the part above it is solved each increment, and
+/// the held increments are added to the deep nodes in one pass later. A node is held only while
+/// the increments collected for it change its pressure — and so its radial modulus — by less
+/// than this share of `P + K1` (the relative modulus change d(ln Er)/dP·ΔP). See docs/theory.md.
+pub const HOLD_TOLERANCE: f64 = 1e-4;
+
+/// Number of increments (weighted by their size) a held part is kept before a full solve
+/// refreshes it; the per-increment share allowed for a held node is
+/// `HOLD_TOLERANCE / HOLD_INCREMENTS`.
+pub const HOLD_INCREMENTS: f64 = 32.0;
 
 /// Bounds of the per-wrap window of grouped resolution (wraps).
 pub const WINDOW_MIN: usize = 24;
@@ -238,6 +253,27 @@ struct Solver {
     previous_load: f64,
     /// Radius of the node the previous increment was applied at.
     previous_top_radius: f64,
+    /// Scale of the last solve below its batch of loaded wraps (δσr = scale · raw there).
+    scale: f64,
+    /// Loads (Pa) of the wraps of the current increment, one per top node, bottom first.
+    loads: Vec<f64>,
+    /// Cumulative scale from the top of each loaded wrap of the current increment: the
+    /// increment at loaded node `first + k` is `cumulative[k] · raw`.
+    cumulative: Vec<f64>,
+    /// Whether deep nodes may be held (grouped resolution only).
+    may_hold: bool,
+    /// Nodes `low..held_top` are held (0: nothing held). Their increments since the last full
+    /// solve are `held_scale · raw`, not yet added to pressure and tangential stress.
+    held_top: usize,
+    held_scale: f64,
+    /// Scale of the full solve the held shape comes from, and the held increments' size in
+    /// units of it.
+    held_reference: f64,
+    held_weight: f64,
+    /// The held shape is zero below this node (the chain was rescaled above it).
+    held_zero_below: usize,
+    /// Nodes the compaction never touches again lie below this index (set by the run).
+    fixed_below: usize,
     iterations: usize,
     increments: usize,
 }
@@ -270,6 +306,16 @@ impl Solver {
             low: 0,
             previous_load: 0.0,
             previous_top_radius: 0.0,
+            scale: 0.0,
+            loads: Vec::new(),
+            cumulative: Vec::new(),
+            may_hold: false,
+            held_top: 0,
+            held_scale: 0.0,
+            held_reference: 0.0,
+            held_weight: 0.0,
+            held_zero_below: 0,
+            fixed_below: 0,
             iterations: 0,
             increments: 0,
         }
@@ -323,6 +369,10 @@ impl Solver {
         let from = from.max(1);
         if to <= from {
             return;
+        }
+        if self.held_top >= from {
+            // The compaction would rebuild rows the held shape depends on.
+            self.release_held();
         }
         let mut write = from;
         for read in from..self.len() {
@@ -390,7 +440,9 @@ impl Solver {
             (RadialStiffness::Pfeiffer { k1, k2 }, ModulusUpdate::Explicit) => {
                 let scale = et / k2;
                 for i in 0..out.len() {
-                    out[i] = gamma[i] * scale / (pressure[i].max(0.0) + k1) - beta[i];
+                    let inverse = 1.0 / (pressure[i].max(0.0) + k1);
+                    out[i] = gamma[i] * scale * inverse - beta[i];
+                    sensitivity[i] = 0.5 * inverse;
                 }
             }
             (RadialStiffness::Pfeiffer { k1, k2 }, ModulusUpdate::Iterated) => {
@@ -409,31 +461,24 @@ impl Solver {
                     let inverse = 1.0 / (pressure[i].max(0.0) + k1);
                     // The secant runs from P to P + ΔP, never below zero pressure.
                     let x = (-guess[i] * inverse).max(k1 * inverse - 1.0);
-                    large |= !(-0.5..1.0).contains(&x);
+                    large |= !(-0.2..=0.25).contains(&x);
                     // ln(1+x)/x = 2/(2+x) · atanh(u)/u with u = x/(2+x), and
-                    // atanh(u)/u = Σ u²ⁿ/(2n+1); |u| ≤ 1/3 on −0.5 ≤ x < 1, so nine terms leave
-                    // a relative error below 2e-10.
+                    // atanh(u)/u = Σ u²ⁿ/(2n+1); |u| ≤ 1/9 on −0.2 ≤ x ≤ 0.25, so four terms
+                    // leave a relative error below 3e-9.
                     let d = 1.0 / (2.0 + x);
                     let w = (x * d) * (x * d);
-                    let series = 1.0
-                        + w * (1.0 / 3.0
-                            + w * (1.0 / 5.0
-                                + w * (1.0 / 7.0
-                                    + w * (1.0 / 9.0
-                                        + w * (1.0 / 11.0
-                                            + w * (1.0 / 13.0
-                                                + w * (1.0 / 15.0 + w * (1.0 / 17.0))))))));
+                    let series = 1.0 + w * (1.0 / 3.0 + w * (1.0 / 5.0 + w * (1.0 / 7.0)));
                     out[i] = gamma[i] * scale * (2.0 * d * series) * inverse - beta[i];
                     sensitivity[i] = 0.5 * inverse;
                 }
                 if large {
-                    // The few rows with a large relative step: exact logarithm.
+                    // The few rows near the top with a large relative step: exact logarithm.
                     for i in 0..out.len() {
                         let base = pressure[i].max(0.0) + k1;
-                        let x = (-guess[i] / base).max(k1 / base - 1.0);
-                        if !(-0.5..1.0).contains(&x) {
-                            let factor = if x.abs() < 1e-12 { 1.0 } else { x.ln_1p() / x };
-                            out[i] = gamma[i] * scale * factor / base - beta[i];
+                        let step = (-guess[i]).max(-pressure[i].max(0.0));
+                        if step > 0.25 * base || step < -0.2 * base {
+                            let x = step / base;
+                            out[i] = gamma[i] * scale * (x.ln_1p() / x) / base - beta[i];
                         }
                     }
                 }
@@ -442,6 +487,7 @@ impl Solver {
                 let g = et / modulus;
                 for i in 0..out.len() {
                     out[i] = gamma[i] * g - beta[i];
+                    sensitivity[i] = 0.0;
                 }
             }
             _ => {
@@ -460,11 +506,14 @@ impl Solver {
     /// With `restart = Some(v)` only the rows from `v` up are rebuilt: the trial increment
     /// changed only there, so the homogeneous solution below `v` still holds and the chain
     /// resumes from its two stored values at `v − 1` and `v`.
-    fn shoot(&mut self, top: usize, load: f64, restart: Option<usize>) {
+    fn shoot(&mut self, top: usize, load: f64, restart: Option<usize>, scale_from: usize) {
         let low = self.low;
         if top == low {
             self.shot[top] = -load;
             self.raw[top] = 1.0;
+            self.scale = -load;
+            self.cumulative.clear();
+            self.cumulative.push(-load);
             self.zero_below = low;
             return;
         }
@@ -532,14 +581,29 @@ impl Solver {
                 self.zero_below = block - 1;
             }
         }
-        let zero_below = self.zero_below;
-        let scale = -load / self.raw[top];
-        self.shot[low..zero_below].fill(0.0);
-        for (value, raw) in self.shot[zero_below..=top]
+        // Each loaded wrap k carries −load_k at its node, so its share of the solution is
+        // (−load_k / raw[t_k])·raw below t_k; a node takes the sum over the wraps at or above it.
+        let first = top + 1 - self.loads.len();
+        let mut sum = 0.0;
+        for k in (0..self.loads.len()).rev() {
+            sum -= self.loads[k] / self.raw[first + k];
+            self.cumulative[k] = sum;
+        }
+        let scale = sum;
+        self.scale = scale;
+        let zero_below = self.zero_below.max(scale_from);
+        if scale_from < zero_below {
+            self.shot[scale_from..zero_below].fill(0.0);
+        }
+        let below = first.max(zero_below);
+        for (value, raw) in self.shot[zero_below..below]
             .iter_mut()
-            .zip(&self.raw[zero_below..=top])
+            .zip(&self.raw[zero_below..below])
         {
             *value = raw * scale;
+        }
+        for k in 0..self.loads.len() {
+            self.shot[first + k] = self.raw[first + k] * self.cumulative[k];
         }
     }
 
@@ -568,27 +632,52 @@ impl Solver {
             };
             self.guess[i] = value * ratio;
         }
-        self.guess[top] = -load;
+        self.guess[top] = -self.loads.last().copied().unwrap_or(load);
     }
 
-    /// One increment: `load` (Pa, = ΣT/s) applied at node `top` (nodes above it are inert).
-    fn increment(&mut self, top: usize, load: f64) -> Result<(), ModelError> {
+    /// One increment: the wraps just pushed on top (one per node, `loads` in Pa = T/s, bottom
+    /// first) are laid together, with the moduli held over the increment.
+    fn increment(&mut self, loads: &[f64]) -> Result<(), ModelError> {
         self.increments += 1;
+        let top = self.len() - 1;
+        self.loads.clear();
+        self.loads.extend_from_slice(loads);
+        self.cumulative.clear();
+        self.cumulative.resize(loads.len(), 0.0);
+        let load: f64 = loads.iter().sum();
+        let first_loaded = top + 1 - loads.len();
+        let held = self.held_top;
+        let hold = held > 0
+            && held + 2 <= first_loaded
+            && self.held_weight + 1.0 <= HOLD_INCREMENTS
+            && self.zero_below < held;
+        if !hold && held > 0 {
+            self.release_held();
+        }
         let low = self.low.min(top);
         self.low = low;
+        // First node solved this increment: the bottom of the stack, or the top of the held part.
+        let from = if hold { held } else { low };
         let explicit = matches!(self.update, ModulusUpdate::Explicit)
             || matches!(self.law, RadialStiffness::Constant { .. });
         if !explicit {
-            self.predict(low, top, load);
+            self.predict(from, top, load);
         }
         self.previous_top_radius = self.radius[top];
         self.previous_load = load;
+        let scale_from = if hold { held - 1 } else { low };
         let mut iteration = 0;
-        let mut restart = None;
+        let mut restart = if hold { Some(held) } else { None };
         loop {
             iteration += 1;
-            self.shoot(top, load, restart);
+            self.shoot(top, load, restart, scale_from);
             self.iterations += 1;
+            if hold && self.zero_below >= held {
+                // The chain was rescaled above the held part, whose stored shape no longer fits:
+                // solve this increment in full instead.
+                self.release_held();
+                return self.increment_again();
+            }
             if explicit {
                 break;
             }
@@ -596,12 +685,13 @@ impl Solver {
             // when the change of its increment moves its modulus by less than the tolerance, or
             // is itself that small a share of the increment (the secant modulus never moves by
             // a larger share than the increment does).
-            let unsettled = (low..top).find(|&i| {
+            let unsettled = (from..top).find(|&i| {
                 let change = (self.shot[i] - self.guess[i]).abs();
-                change * self.sensitivity[i] > MODULUS_TOLERANCE
-                    && change > MODULUS_TOLERANCE * self.shot[i].abs().max(self.guess[i].abs())
+                let size = self.shot[i].abs().max(self.guess[i].abs());
+                change * self.sensitivity[i] * size > MODULUS_TOLERANCE * load
+                    && change > MODULUS_TOLERANCE * size
             });
-            let Some(first) = unsettled else {
+            let Some(lowest) = unsettled else {
                 break;
             };
             if iteration >= MAX_MODULUS_ITERATIONS {
@@ -612,39 +702,127 @@ impl Solver {
                 )));
             }
             // Nodes below `first` keep their trial values, so only the rows above are rebuilt.
-            self.guess[first..=top].copy_from_slice(&self.shot[first..=top]);
-            restart = Some(first);
+            self.guess[lowest..=top].copy_from_slice(&self.shot[lowest..=top]);
+            restart = Some(lowest.max(from));
         }
-        self.accumulate(top);
-        self.advance_skip(top, load);
+        if hold {
+            self.accumulate(held, top);
+            self.held_scale += self.scale;
+            self.held_weight += (self.scale / self.held_reference).abs();
+        } else {
+            self.accumulate(low, top);
+            self.advance_skip(top, load);
+            if self.may_hold {
+                self.hold_deep_part(top);
+            }
+        }
         Ok(())
     }
 
-    /// Add the increment in `self.shot` to pressure and tangential stress (δσθ = δσr + r·δσr').
-    fn accumulate(&mut self, top: usize) {
+    /// Solve the current increment again in full (after a held part had to be released).
+    fn increment_again(&mut self) -> Result<(), ModelError> {
+        self.increments -= 1;
+        let loads = self.loads.clone();
+        self.increment(&loads)
+    }
+
+    /// After a full solve: hold the deep nodes whose pressure the next `HOLD_INCREMENTS`
+    /// increments of this size change by less than `HOLD_TOLERANCE` (relative to their modulus),
+    /// and which no compaction will touch.
+    fn hold_deep_part(&mut self, top: usize) {
         let low = self.low;
-        for (p, d) in self.pressure[low..=top]
+        let limit = HOLD_TOLERANCE / HOLD_INCREMENTS;
+        let first_loaded = top + 1 - self.loads.len();
+        let ceiling = self.fixed_below.min(first_loaded.saturating_sub(2));
+        let mut held = low;
+        while held < ceiling && 2.0 * self.shot[held].abs() * self.sensitivity[held] <= limit {
+            held += 1;
+        }
+        // Holding a handful of nodes is not worth the bookkeeping.
+        if held >= low + 8 && held > self.zero_below + 1 {
+            self.held_top = held;
+            self.held_scale = 0.0;
+            self.held_reference = self.scale;
+            self.held_weight = 0.0;
+            self.held_zero_below = self.zero_below;
+        } else {
+            self.held_top = 0;
+        }
+    }
+
+    /// Add the collected increments of the held nodes to their pressure and tangential stress.
+    fn release_held(&mut self) {
+        let held = self.held_top;
+        self.held_top = 0;
+        if held == 0 || self.held_scale == 0.0 {
+            return;
+        }
+        let factor = self.held_scale;
+        self.held_scale = 0.0;
+        self.held_weight = 0.0;
+        // The held increment is factor · raw on low..=held (zero below the rescaling point).
+        let low = self.low;
+        let zero_below = self.held_zero_below.min(held);
+        let value = |raw: &[f64], i: usize| if i < zero_below { 0.0 } else { raw[i] * factor };
+        for i in low..held {
+            self.pressure[i] -= value(&self.raw, i);
+        }
+        let start = if low == 0 {
+            self.tangential[0] += (1.0 + self.core_coefficient) * value(&self.raw, 0);
+            1
+        } else {
+            let d = value(&self.raw, low);
+            let [_, c1, p1] = self.derivative[low];
+            self.tangential[low] +=
+                d + self.radius[low] * (c1 * d + p1 * value(&self.raw, low + 1));
+            low + 1
+        };
+        for i in start..held {
+            let d = value(&self.raw, i);
+            let [m1, c1, p1] = self.derivative[i];
+            self.tangential[i] += d + self.radius[i]
+                * (m1 * value(&self.raw, i - 1) + c1 * d + p1 * value(&self.raw, i + 1));
+        }
+    }
+
+    /// Add the increment in `self.shot` on `from..=top` to pressure and tangential stress
+    /// (δσθ = δσr + r·δσr'); `from` is the bottom of the stack or the top of the held part.
+    /// A loaded wrap of the increment takes the tangential increments of the wraps above it
+    /// only (while it is the top, its own load gives it none).
+    fn accumulate(&mut self, from: usize, top: usize) {
+        let low = self.low;
+        for (p, d) in self.pressure[from..=top]
             .iter_mut()
-            .zip(&self.shot[low..=top])
+            .zip(&self.shot[from..=top])
         {
             *p -= d;
         }
-        let mut start = low;
-        if low == 0 && top > 0 {
-            // Core condition r·δσr' = c·δσr.
-            self.tangential[0] += (1.0 + self.core_coefficient) * self.shot[0];
-            start = 1;
-        } else if low > 0 && low < top {
-            let d = self.shot[low];
-            let [_, c1, p1] = self.derivative[low];
-            self.tangential[low] += d + self.radius[low] * (c1 * d + p1 * self.shot[low + 1]);
-            start = low + 1;
+        let first_loaded = top + 1 - self.loads.len();
+        let mut start = from;
+        if from == low {
+            if low == 0 && top > 0 {
+                // Core condition r·δσr' = c·δσr.
+                self.tangential[0] += (1.0 + self.core_coefficient) * self.shot[0];
+                start = 1;
+            } else if low > 0 && low < top {
+                let d = self.shot[low];
+                let [_, c1, p1] = self.derivative[low];
+                self.tangential[low] += d + self.radius[low] * (c1 * d + p1 * self.shot[low + 1]);
+                start = low + 1;
+            }
         }
-        for i in start..top {
+        for i in start..first_loaded.max(start) {
             let d = self.shot[i];
             let [m1, c1, p1] = self.derivative[i];
             self.tangential[i] +=
                 d + self.radius[i] * (m1 * self.shot[i - 1] + c1 * d + p1 * self.shot[i + 1]);
+        }
+        for i in first_loaded.max(start)..top {
+            let factor = self.cumulative[i + 1 - first_loaded];
+            let d = self.raw[i];
+            let [m1, c1, p1] = self.derivative[i];
+            self.tangential[i] += factor
+                * (d + self.radius[i] * (m1 * self.raw[i - 1] + c1 * d + p1 * self.raw[i + 1]));
         }
     }
 
@@ -684,13 +862,18 @@ fn window_at(problem: &WindingProblem, radius: f64, pressure: f64, group: usize)
     layers.min(cap).clamp(WINDOW_MIN, WINDOW_MAX)
 }
 
-/// Wraps per increment in grouped resolution (see [`BATCH_DECAY_SHARE`]).
-fn batch_layers(problem: &WindingProblem) -> usize {
+/// Wraps per increment in grouped resolution at outer radius `radius` (see
+/// [`BATCH_DECAY_SHARE`]); never more than a quarter of the per-wrap window or one element.
+fn batch_at(problem: &WindingProblem, radius: f64, window: usize, group: usize) -> usize {
     let g = problem.tangential_modulus / problem.radial_stiffness.modulus_at(0.0);
-    let decay = problem.core_radius / g.max(1.0).sqrt();
-    // Odd, so the batch has a middle wrap.
-    let wraps = (BATCH_DECAY_SHARE * decay / problem.thickness).floor() as usize;
-    (wraps.saturating_sub(1) | 1).max(1)
+    let decay = radius / g.max(1.0).sqrt();
+    let wraps = (BATCH_DECAY_SHARE * decay / problem.thickness).floor();
+    let limit = (window / 4).clamp(1, group.max(1));
+    if wraps.is_finite() && wraps >= 1.0 {
+        (wraps as usize).min(limit)
+    } else {
+        1
+    }
 }
 
 /// Run the accretion with `group` layers per element (1 = per-layer).
@@ -706,6 +889,7 @@ fn run(
     let mut window = if group > 1 { window_layers(problem) } else { 0 };
     let capacity = layers.div_ceil(group) + 2 * window + 2;
     let mut solver = Solver::new(problem, capacity);
+    solver.may_hold = group > 1;
     let winding = &problem.winding;
     let wit = |layer: usize| winding.wound_in_tension(rc + layer as f64 * h, rc, outer);
 
@@ -713,32 +897,28 @@ fn run(
     let mut next_report = 0usize;
     let report_every = (layers / 200).max(1);
     let mut compacted_to = 1usize;
-    let batch = if group > 1 {
-        batch_layers(problem).min(group)
-    } else {
-        1
-    };
+    let explicit = matches!(problem.options.modulus_update, ModulusUpdate::Explicit);
     let mut layer = 0;
+    let mut loads = Vec::with_capacity(64);
     while layer < layers {
-        let end = (layer + batch).min(layers);
-        let first_node = solver.len();
-        let mut load = 0.0;
+        // Batches (grouped resolution only) start once a few wraps lie on the core.
+        // The explicit update takes each wrap's modulus before that wrap, so it lays one wrap
+        // at a time.
+        let size = if group > 1 && solver.len() >= 4 && !explicit {
+            batch_at(problem, rc + layer as f64 * h, window, group)
+        } else {
+            1
+        };
+        let end = (layer + size).min(layers);
+        loads.clear();
         for wrap in layer..end {
             let s = rc + wrap as f64 * h;
             let t = wit(wrap);
             solver.push(s, t, t / h, wrap % group == 0);
-            load += t / s;
+            loads.push(t / s);
         }
-        // The batch load goes on its middle wrap (midpoint rule over the batch); wraps above
-        // the middle take the hoop-equilibrium pressure of the batch wraps above them.
-        let middle = (end - layer - 1) / 2;
-        if load > 0.0 {
-            solver.increment(first_node + middle, load)?;
-        }
-        let mut above = 0.0;
-        for wrap in ((layer + middle + 1)..end).rev() {
-            above += wit(wrap) / (rc + wrap as f64 * h);
-            solver.pressure[first_node + (wrap - layer)] += above;
+        if loads.iter().sum::<f64>() > 0.0 {
+            solver.increment(&loads)?;
         }
         layer = end;
         if group > 1 && solver.len() > compacted_to + window + window / 4 + 1 {
@@ -755,6 +935,7 @@ fn run(
             let until = solver.len().saturating_sub(window).max(compacted_to);
             solver.compact(compacted_to, until);
             compacted_to = solver.len().saturating_sub(window).max(1);
+            solver.fixed_below = compacted_to - 1;
         }
         if layer >= next_report {
             next_report += report_every;
@@ -769,6 +950,7 @@ fn run(
             }
         }
     }
+    solver.release_held();
     let last_tension = wit(layers - 1);
     let mut radius = solver.radius;
     radius.push(outer);
