@@ -224,8 +224,20 @@ pub fn diagnose(
     {
         // Before and after are compared at the same (what-if) resolution so the direction of a
         // change is never an artefact of different discretisations.
+        // An automatic resolution that grouped the roll re-solves on the grid it chose, so the
+        // case as it stands needs no second solve.
+        let solver = match (
+            options.solver.resolution,
+            profile.summary.layers_per_element,
+        ) {
+            (crate::model::Resolution::Auto, k) if k > 1 => crate::model::SolverOptions {
+                resolution: crate::model::Resolution::Grouped { layers: k },
+                ..options.solver
+            },
+            _ => remedies::what_if_solver(case, options.solver),
+        };
         let what_if_options = DiagnoseOptions {
-            solver: remedies::what_if_solver(case, options.solver),
+            solver,
             ..options.clone()
         };
         let same_grid = what_if_options.solver == options.solver
