@@ -1,38 +1,49 @@
-//! Full triage speed: solve a demo-size case, rank causes, merge remedies and re-solve every
-//! setting-change remedy (what-if). Target: under 50 ms in release for a demo case.
-//!
-//! Uses the crate's solver; while it is not implemented the stand-alone Hakiel solve of the
-//! tests stands in (tests/common).
+//! Full triage speed: load a demo case file, solve it with the crate's solver exactly as
+//! `rolltriage diagnose` does (automatic resolution with its halving check), rank causes, merge
+//! remedies and re-solve every setting-change remedy (what-if). Target: under 50 ms in release
+//! for a demo case. Figures go into the README and docs/performance.md.
 
 use criterion::{Criterion, criterion_group, criterion_main};
+use rolltriage::case::Case;
 use rolltriage::diagnose::{self, DiagnoseOptions, rules::RuleBase};
 
-#[path = "../tests/common/mod.rs"]
-mod common;
+/// The demo cases timed: the telescoping demo, the two-symptom coated roll, the slowest paper
+/// roll (newsprint bursts) and the largest roll (22,917 wraps of foil).
+const CASES: [&str; 4] = [
+    "harbour_newsprint_telescoping",
+    "harbour_coated_starring_no_taper",
+    "harbour_newsprint_bursts",
+    "harbour_foil_core_slip",
+];
 
 fn triage(c: &mut Criterion) {
     let rules = RuleBase::embedded().expect("shipped rules");
-    let telescoping = common::harbour_telescoping_demo();
-    let coated = common::harbour_coated_no_taper_demo();
+    // As the CLI's defaults: the top five causes, what-if on.
     let options = DiagnoseOptions {
         top: 5,
         what_if: true,
-        solve_with: Some(common::solve),
         ..DiagnoseOptions::default()
     };
-    c.bench_function("triage_harbour_telescoping_with_what_if", |b| {
-        b.iter(|| diagnose::triage(&rules, &telescoping, &options).expect("triage"))
-    });
-    c.bench_function("triage_harbour_coated_two_symptoms_with_what_if", |b| {
-        b.iter(|| diagnose::triage(&rules, &coated, &options).expect("triage"))
-    });
-    let profile = common::profile(&coated);
+    for name in CASES {
+        let path = std::path::PathBuf::from(format!("cases/{name}.yaml"));
+        c.bench_function(&format!("triage_{name}"), |b| {
+            b.iter(|| {
+                let case = Case::load(&path).expect("demo case").resolve().expect("resolves");
+                diagnose::triage(&rules, &case, &options).expect("triage")
+            })
+        });
+    }
+    let case = Case::load(std::path::Path::new("cases/harbour_coated_starring_no_taper.yaml"))
+        .expect("demo case")
+        .resolve()
+        .expect("resolves");
+    let profile = rolltriage::model::solve(&case.problem(Default::default())).expect("solve");
     let rank_only = DiagnoseOptions {
         what_if: false,
         ..options.clone()
     };
     c.bench_function("diagnose_rules_only", |b| {
-        b.iter(|| diagnose::diagnose(&rules, &coated, &profile, &rank_only).expect("diagnose"))
+        b.iter(|| diagnose::diagnose(&rules, &case, &profile, &rank_only).expect("diagnose"))
     });
     c.bench_function("rule_base_load_embedded", |b| {
         b.iter(|| RuleBase::embedded().expect("rules"))
