@@ -28,15 +28,20 @@ fn triage(c: &mut Criterion) {
         let path = std::path::PathBuf::from(format!("cases/{name}.yaml"));
         c.bench_function(&format!("triage_{name}"), |b| {
             b.iter(|| {
-                let case = Case::load(&path).expect("demo case").resolve().expect("resolves");
+                let case = Case::load(&path)
+                    .expect("demo case")
+                    .resolve()
+                    .expect("resolves");
                 diagnose::triage(&rules, &case, &options).expect("triage")
             })
         });
     }
-    let case = Case::load(std::path::Path::new("cases/harbour_coated_starring_no_taper.yaml"))
-        .expect("demo case")
-        .resolve()
-        .expect("resolves");
+    let case = Case::load(std::path::Path::new(
+        "cases/harbour_coated_starring_no_taper.yaml",
+    ))
+    .expect("demo case")
+    .resolve()
+    .expect("resolves");
     let profile = rolltriage::model::solve(&case.problem(Default::default())).expect("solve");
     let rank_only = DiagnoseOptions {
         what_if: false,

@@ -70,12 +70,20 @@ pub const BATCH_DECAY_SHARE: f64 = 0.1;
 /// the held increments are added to the deep nodes in one pass later. A node is held only while
 /// the increments collected for it change its pressure — and so its radial modulus — by less
 /// than this share of `P + K1` (the relative modulus change d(ln Er)/dP·ΔP). See docs/theory.md.
-pub const HOLD_TOLERANCE: f64 = 1e-4;
+pub const HOLD_TOLERANCE: f64 = 1e-3;
 
 /// Number of increments (weighted by their size) a held part is kept before a full solve
 /// refreshes it; the per-increment share allowed for a held node is
 /// `HOLD_TOLERANCE / HOLD_INCREMENTS`.
 pub const HOLD_INCREMENTS: f64 = 32.0;
+
+/// In grouped resolution node spacing in the graded region under the surface grows with depth:
+/// a node at depth d wraps is kept while the spacing there is at most d / `GRADING_RATIO`
+/// (see [`lattice_spacing`]).
+pub const GRADING_RATIO: usize = 4;
+
+/// Wraps between two compactions of the graded region.
+const COMPACT_EVERY: usize = 4;
 
 /// Bounds of the per-wrap window of grouped resolution (wraps).
 pub const WINDOW_MIN: usize = 24;
@@ -122,7 +130,7 @@ fn solve_auto_grouped(
     layers: usize,
     progress: &mut dyn FnMut(f64) -> bool,
 ) -> Result<Profile, ModelError> {
-    let mut group = layers.div_ceil(AUTO_ELEMENTS).max(2);
+    let mut group = smooth_group(layers.div_ceil(AUTO_ELEMENTS).max(2));
     let mut coarse = run(problem, layers, group, &mut |f| progress(0.3 * f))?;
     loop {
         let half = (group / 2).max(1);
@@ -142,6 +150,21 @@ fn solve_auto_grouped(
         group = half;
         coarse = result;
     }
+}
+
+/// The smallest element size at least `wraps` of the form 2ᵃ·b (a ≥ 1, b = 1, 3 or 5): its
+/// halvings keep many divisors, so the graded region under the surface has intermediate
+/// spacings (a prime size would jump from one wrap straight to the element).
+fn smooth_group(wraps: usize) -> usize {
+    (wraps.max(2)..)
+        .find(|&n| {
+            let mut odd = n;
+            while odd % 2 == 0 {
+                odd /= 2;
+            }
+            n % 2 == 0 && matches!(odd, 1 | 3 | 5)
+        })
+        .unwrap_or(wraps)
 }
 
 fn relative_change(a: f64, b: f64) -> f64 {
@@ -226,6 +249,8 @@ struct Solver {
     radius: Vec<f64>,
     /// True for nodes kept for good (element boundaries).
     permanent: Vec<bool>,
+    /// Wrap number of each node (0 = the first wrap on the core).
+    wrap: Vec<usize>,
     /// Negated normalised lower coefficient −A/C of each row.
     lower: Vec<f64>,
     /// Normalised diagonal (B − g)/C = beta − gamma·g with g = Eθ/Er.
@@ -291,6 +316,7 @@ impl Solver {
                 .boundary_coefficient(problem.tangential_modulus, problem.poisson_ratio),
             radius: v(),
             permanent: Vec::with_capacity(capacity),
+            wrap: Vec::with_capacity(capacity),
             lower: v(),
             beta: v(),
             gamma: v(),
@@ -327,9 +353,10 @@ impl Solver {
     }
 
     /// Add a wrap node at the outside (it becomes the loaded top).
-    fn push(&mut self, radius: f64, wound_in: f64, stress: f64, permanent: bool) {
+    fn push(&mut self, wrap: usize, radius: f64, wound_in: f64, stress: f64, permanent: bool) {
         self.radius.push(radius);
         self.permanent.push(permanent);
+        self.wrap.push(wrap);
         self.lower.push(0.0);
         self.beta.push(0.0);
         self.gamma.push(0.0);
@@ -365,27 +392,29 @@ impl Solver {
         self.derivative[i] = [m1, c1, p1];
     }
 
-    /// Drop non-permanent nodes in `from..to` (wraps that left the per-wrap window).
-    fn compact(&mut self, from: usize, to: usize) {
+    /// Drop the nodes at or above `from` that are neither permanent nor wanted by `keep` (called
+    /// with the node's wrap number); the finite-difference rows around them are rebuilt.
+    fn compact(&mut self, from: usize, keep: &dyn Fn(usize) -> bool) {
         let from = from.max(1);
-        if to <= from {
+        let Some(first_drop) =
+            (from..self.len()).find(|&i| !self.permanent[i] && !keep(self.wrap[i]))
+        else {
             return;
-        }
-        if self.held_top >= from {
+        };
+        if self.held_top >= first_drop {
             // The compaction would rebuild rows the held shape depends on.
             self.release_held();
         }
-        let mut write = from;
-        for read in from..self.len() {
-            if read >= to || self.permanent[read] {
-                if write != read {
-                    self.radius[write] = self.radius[read];
-                    self.permanent[write] = self.permanent[read];
-                    self.pressure[write] = self.pressure[read];
-                    self.tangential[write] = self.tangential[read];
-                    self.wound_in[write] = self.wound_in[read];
-                    self.shot[write] = self.shot[read];
-                }
+        let mut write = first_drop;
+        for read in first_drop..self.len() {
+            if self.permanent[read] || keep(self.wrap[read]) {
+                self.radius[write] = self.radius[read];
+                self.permanent[write] = self.permanent[read];
+                self.wrap[write] = self.wrap[read];
+                self.pressure[write] = self.pressure[read];
+                self.tangential[write] = self.tangential[read];
+                self.wound_in[write] = self.wound_in[read];
+                self.shot[write] = self.shot[read];
                 write += 1;
             }
         }
@@ -407,11 +436,12 @@ impl Solver {
             v.truncate(n);
         }
         self.permanent.truncate(n);
+        self.wrap.truncate(n);
         self.derivative.truncate(n);
-        for i in (from - 1).max(1)..n.saturating_sub(1) {
+        for i in (first_drop - 1).max(1)..n.saturating_sub(1) {
             self.set_row(i);
         }
-        self.low = self.low.min(from - 1);
+        self.low = self.low.min(first_drop - 1);
     }
 
     /// Eθ/Er at node `i` for a trial increment `trial` (δσr, negative in compression).
@@ -877,6 +907,47 @@ fn batch_at(problem: &WindingProblem, radius: f64, window: usize, group: usize) 
     }
 }
 
+/// Spacings (wraps) of the graded region, coarsest first: `group`, then repeatedly the largest
+/// divisor of the previous spacing that is at most half of it, down to 1 (40 → 20, 10, 5, 1), so
+/// every coarser lattice is part of every finer one.
+fn lattice_levels(group: usize) -> Vec<usize> {
+    let mut levels = vec![group.max(1)];
+    let mut current = group.max(1);
+    while current > 1 {
+        let next = (1..=current / 2)
+            .rev()
+            .find(|&d| current.is_multiple_of(d))
+            .unwrap_or(1);
+        levels.push(next);
+        current = next;
+    }
+    levels
+}
+
+/// Node spacing (wraps) wanted at `depth` wraps under the surface: one element below the graded
+/// region; inside it the coarsest level no wider than a `GRADING_RATIO`-th of the depth and no
+/// wider than `finest`.
+fn lattice_spacing(depth: usize, window: usize, finest: usize, levels: &[usize]) -> usize {
+    if depth >= window {
+        return levels[0];
+    }
+    let allowed = (depth / GRADING_RATIO).min(finest);
+    levels.iter().copied().find(|&l| l <= allowed).unwrap_or(1)
+}
+
+/// Widest node spacing (wraps) allowed anywhere in the graded region at outer radius `radius`:
+/// half the decay length of an increment at zero pressure, λ(0)/2 = s/(2·√(Eθ/Er(0))), the
+/// shortest it gets (Er grows with pressure).
+fn finest_spacing(problem: &WindingProblem, radius: f64) -> usize {
+    let g = problem.tangential_modulus / problem.radial_stiffness.modulus_at(0.0);
+    let wraps = 0.5 * radius / g.max(1.0).sqrt() / problem.thickness;
+    if wraps.is_finite() && wraps >= 1.0 {
+        wraps as usize
+    } else {
+        1
+    }
+}
+
 /// Run the accretion with `group` layers per element (1 = per-layer).
 fn run(
     problem: &WindingProblem,
@@ -898,6 +969,8 @@ fn run(
     let mut next_report = 0usize;
     let report_every = (layers / 200).max(1);
     let mut compacted_to = 1usize;
+    let mut next_compaction = 0usize;
+    let levels = lattice_levels(group);
     let explicit = matches!(problem.options.modulus_update, ModulusUpdate::Explicit);
     let mut layer = 0;
     let mut loads = Vec::with_capacity(64);
@@ -915,27 +988,37 @@ fn run(
         for wrap in layer..end {
             let s = rc + wrap as f64 * h;
             let t = wit(wrap);
-            solver.push(s, t, t / h, wrap % group == 0);
+            solver.push(wrap, s, t, t / h, wrap % group == 0);
             loads.push(t / s);
         }
         if loads.iter().sum::<f64>() > 0.0 {
             solver.increment(&loads)?;
         }
         layer = end;
-        if group > 1 && solver.len() > compacted_to + window + window / 4 + 1 {
-            // Wraps more than `window` below the top leave the per-wrap window. The window
-            // follows the decay length at the pressure its deepest wrap has reached (Er grows
-            // with pressure, so increments reach deeper as the wraps settle).
-            let bottom = solver.len() - 1 - window;
+        if group > 1 && layer >= next_compaction {
+            next_compaction = layer + COMPACT_EVERY;
+            let top_wrap = layer - 1;
+            // The graded region reaches `window` wraps deep; it follows the decay length at the
+            // pressure its deepest wrap has reached (Er grows with pressure, so increments reach
+            // deeper as the wraps settle).
+            let bottom = compacted_to.min(solver.len() - 1);
             window = window_at(
                 problem,
                 solver.radius[bottom],
                 solver.pressure[bottom],
                 group,
             );
-            let until = solver.len().saturating_sub(window).max(compacted_to);
-            solver.compact(compacted_to, until);
-            compacted_to = solver.len().saturating_sub(window).max(1);
+            let finest = finest_spacing(problem, rc + top_wrap as f64 * h);
+            let keep = |wrap: usize| {
+                let depth = top_wrap - wrap;
+                wrap.is_multiple_of(lattice_spacing(depth, window, finest, &levels))
+            };
+            solver.compact(compacted_to, &keep);
+            // Below the first node less than `window` deep only element boundaries are left.
+            compacted_to = (compacted_to..solver.len())
+                .find(|&i| top_wrap - solver.wrap[i] < window)
+                .unwrap_or(solver.len())
+                .max(1);
             solver.fixed_below = compacted_to - 1;
         }
         if layer >= next_report {
@@ -994,4 +1077,47 @@ fn run(
         },
         problem,
     ))
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn smooth_group_rounds_up_to_sizes_with_halvings() {
+        assert_eq!(smooth_group(2), 2);
+        assert_eq!(smooth_group(7), 8);
+        assert_eq!(smooth_group(13), 16);
+        assert_eq!(smooth_group(17), 20);
+        assert_eq!(smooth_group(29), 32);
+        assert_eq!(smooth_group(40), 40);
+    }
+
+    #[test]
+    fn lattice_levels_nest() {
+        assert_eq!(lattice_levels(40), vec![40, 20, 10, 5, 1]);
+        assert_eq!(lattice_levels(8), vec![8, 4, 2, 1]);
+        assert_eq!(lattice_levels(7), vec![7, 1]);
+        assert_eq!(lattice_levels(1), vec![1]);
+        for group in 1..200 {
+            let levels = lattice_levels(group);
+            for pair in levels.windows(2) {
+                assert_eq!(pair[0] % pair[1], 0, "{group}: {levels:?}");
+            }
+            assert_eq!(levels.last(), Some(&1));
+        }
+    }
+
+    #[test]
+    fn lattice_spacing_grows_with_depth_and_is_one_element_below_the_window() {
+        let levels = lattice_levels(40);
+        assert_eq!(lattice_spacing(0, 80, 100, &levels), 1);
+        assert_eq!(lattice_spacing(19, 80, 100, &levels), 1);
+        assert_eq!(lattice_spacing(20, 80, 100, &levels), 5);
+        assert_eq!(lattice_spacing(40, 80, 100, &levels), 10);
+        assert_eq!(lattice_spacing(79, 80, 100, &levels), 10);
+        assert_eq!(lattice_spacing(80, 80, 100, &levels), 40);
+        // The decay length caps the spacing.
+        assert_eq!(lattice_spacing(79, 80, 6, &levels), 5);
+    }
 }
