@@ -42,12 +42,17 @@ pub const MAX_LAYERS: usize = 20_000_000;
 /// Relative size below which an increment is treated as zero deeper in the stack.
 pub const SKIP_THRESHOLD: f64 = 1e-13;
 
-/// Convergence tolerance of the iterated and secant modulus updates: an increment is settled
-/// when the radial modulus of every node, evaluated with the trial increment, is within this
-/// share of the modulus evaluated with the increment that comes out of the solve. The test is
-/// on the moduli, not on the increment itself: deep in the roll an increment is far smaller
-/// than the pressure already there, so a trial value that is off there changes nothing.
+/// Convergence tolerance of the iterated and secant modulus updates in grouped resolution: an
+/// increment is settled when, at every node, the change between the trial increment and the
+/// one that comes out of the solve moves the node's modulus by less than this share, weighted by
+/// the node's share of the load. The test is on the moduli, not on the increment itself: deep in
+/// the roll an increment is far smaller than the pressure already there, so a trial value that
+/// is off there changes nothing.
 pub const MODULUS_TOLERANCE: f64 = 1e-6;
+
+/// The same tolerance in per-layer resolution, the reference the grouped solve is checked
+/// against.
+pub const REFERENCE_MODULUS_TOLERANCE: f64 = 1e-9;
 
 /// Iteration cap of the modulus update of one increment.
 pub const MAX_MODULUS_ITERATIONS: usize = 60;
@@ -288,6 +293,8 @@ struct Solver {
     cumulative: Vec<f64>,
     /// Whether deep nodes may be held (grouped resolution only).
     may_hold: bool,
+    /// Modulus convergence tolerance of this solve.
+    tolerance: f64,
     /// Nodes `low..held_top` are held (0: nothing held). Their increments since the last full
     /// solve are `held_scale · raw`, not yet added to pressure and tangential stress.
     held_top: usize,
@@ -337,6 +344,7 @@ impl Solver {
             loads: Vec::new(),
             cumulative: Vec::new(),
             may_hold: false,
+            tolerance: MODULUS_TOLERANCE,
             held_top: 0,
             held_scale: 0.0,
             held_reference: 0.0,
@@ -719,8 +727,8 @@ impl Solver {
             let unsettled = (from..top).find(|&i| {
                 let change = (self.shot[i] - self.guess[i]).abs();
                 let size = self.shot[i].abs().max(self.guess[i].abs());
-                change * self.sensitivity[i] * size > MODULUS_TOLERANCE * load
-                    && change > MODULUS_TOLERANCE * size
+                change * self.sensitivity[i] * size > self.tolerance * load
+                    && change > self.tolerance * size
             });
             let Some(lowest) = unsettled else {
                 break;
@@ -962,6 +970,11 @@ fn run(
     let capacity = layers.div_ceil(group) + 2 * window + 2;
     let mut solver = Solver::new(problem, capacity);
     solver.may_hold = group > 1;
+    solver.tolerance = if group > 1 {
+        MODULUS_TOLERANCE
+    } else {
+        REFERENCE_MODULUS_TOLERANCE
+    };
     let winding = &problem.winding;
     let wit = |layer: usize| winding.wound_in_tension(rc + layer as f64 * h, rc, outer);
 
