@@ -22,6 +22,11 @@
 //!
 //! Tangential stress of a wrap starts at its wound-in stress T/h and accumulates
 //! δσθ = δσr + r·δσr' from every later increment.
+//!
+//! Per-layer resolution is the reference: one node per wrap, one increment per wrap, moduli
+//! settled to 1e-9. Grouped resolution keeps element boundaries deep in the roll and a graded
+//! region of finer nodes under the surface, lays batches of wraps (each with its own load) in one
+//! increment, and holds the deep part of the stack between full solves (docs/theory.md §3.4).
 
 use super::{
     ModelError, ModulusUpdate, Profile, RadialStiffness, Resolution, WindingProblem, profile,

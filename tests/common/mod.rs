@@ -163,8 +163,8 @@ pub fn profile(case: &ResolvedCase) -> Profile {
 /// Same contract as `model::solve`; falls back to [`fallback_solve`] while the crate's solver is
 /// not implemented.
 pub fn solve(problem: &WindingProblem) -> Result<Profile, ModelError> {
-    // Tests run in debug builds: the what-if grouping (about WHAT_IF_ELEMENTS elements)
-    // instead of the automatic halving keeps them quick.
+    // A fixed grouping of about 200 elements instead of the automatic halving keeps the
+    // tests quick (they also run in debug builds).
     let mut problem = problem.clone();
     if problem.options.resolution == rolltriage::model::Resolution::Auto {
         let layers =
