@@ -139,7 +139,7 @@ fn soft_paper_split(layers: usize, split: usize) -> rolltriage::model::WindingPr
 #[test]
 fn equilibrium_hoop_stress_matches_the_accumulated_one_on_a_stiff_film() {
     // Radial equilibrium of a plane axisymmetric body, dσr/dr + (σr − σθ)/r = 0 (Timoshenko &
-    // Goodier, Theory of Elasticity, §§27–28), holds for any stress state; on the film roll,
+    // Goodier, Theory of Elasticity, two-dimensional problems in polar coordinates), holds for any stress state; on the film roll,
     // whose surface decay length spans ~85 wraps, the per-wrap accumulation is close to the
     // continuum, so both hoop stresses agree to a small share of the wound-in stress σw = T/h.
     let problem = with(

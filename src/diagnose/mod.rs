@@ -223,9 +223,9 @@ pub fn diagnose(
             .any(|r| remedies::changes_setting(rules, &r.id))
     {
         // Before and after are compared at the same (what-if) resolution so the direction of a
-        // change is never an artefact of different discretisations.
-        // An automatic resolution that grouped the roll re-solves on the grid it chose, so the
-        // case as it stands needs no second solve.
+        // change is never an artefact of different discretisations. An automatic resolution
+        // that grouped the roll re-solves on the grid it chose, so the case as it stands needs
+        // no second solve.
         let solver = match (
             options.solver.resolution,
             profile.summary.layers_per_element,

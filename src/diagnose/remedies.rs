@@ -75,7 +75,8 @@ pub fn merge(rules: &RuleBase, symptoms: &[String], causes: &[RankedCause]) -> V
 
 /// Elements aimed at by what-if re-solves of large rolls (a comparison needs consistency more
 /// than the last percent of accuracy). The automatic resolution's first grid: coarser elements
-/// make the grouped solve no faster, because its per-wrap window widens with the element.
+/// make the grouped solve no faster, because its graded region under the surface widens with
+/// the element.
 pub const WHAT_IF_ELEMENTS: usize = crate::model::accretion::AUTO_ELEMENTS;
 
 /// Solver options of the what-if re-solves: the caller's, except that an automatic resolution

@@ -331,7 +331,7 @@ impl Profile {
 
     /// Tangential stress from radial equilibrium of the finished roll,
     /// dσr/dr + (σr − σθ)/r = 0 with σr = −P, i.e. σθ = −d(r·P)/dr (plane axisymmetric stress,
-    /// Timoshenko & Goodier, Theory of Elasticity, §§27–28), at the interior nodes (second-order
+    /// Timoshenko & Goodier, Theory of Elasticity, polar coordinates), at the interior nodes (second-order
     /// differences on the non-uniform grid); `None` at the two end nodes.
     pub fn equilibrium_tangential_stress(&self) -> Vec<Option<f64>> {
         let n = self.radius.len().min(self.pressure.len());
