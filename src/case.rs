@@ -895,18 +895,8 @@ impl Resolver {
         fallback_from: &str,
     ) -> Result<f64, CaseError> {
         let kind = range.kind.unwrap_or(QuantityKind::Percent);
-        match self.quantity(field, value, kind)? {
-            Some(v) => self.check(field, v, range),
-            None => {
-                self.assume(
-                    field,
-                    range.show(fallback.value),
-                    fallback_from,
-                    fallback.source,
-                );
-                Ok(fallback.value)
-            }
-        }
+        let value = self.quantity(field, value, kind)?;
+        self.number_or(field, value, range, fallback, fallback_from)
     }
 
     /// A plain number that must be in `range`, or the preset value (recorded as assumed).
@@ -920,16 +910,14 @@ impl Resolver {
     ) -> Result<f64, CaseError> {
         match value {
             Some(v) => self.check(field, v, range),
-            None => {
-                self.assume(
-                    field,
-                    range.show(fallback.value),
-                    fallback_from,
-                    fallback.source,
-                );
-                Ok(fallback.value)
-            }
+            None => Ok(self.assumed(field, range, fallback, fallback_from)),
         }
+    }
+
+    /// Record the preset value `fallback` of a missing `field` as assumed and return it.
+    fn assumed(&mut self, field: &str, range: &Range, fallback: Sourced, from: &str) -> f64 {
+        self.assume(field, range.show(fallback.value), from, fallback.source);
+        fallback.value
     }
 
     fn assume(&mut self, field: &str, value: String, from: &str, source: &str) {
@@ -1292,21 +1280,20 @@ impl Resolver {
                 );
                 (i, o)
             }
-            (None, None) => {
-                self.assume(
+            (None, None) => (
+                self.assumed(
                     "core.inside_diameter",
-                    CORE_INSIDE.show(preset.inside_diameter.value),
+                    &CORE_INSIDE,
+                    preset.inside_diameter,
                     &from,
-                    preset.inside_diameter.source,
-                );
-                self.assume(
+                ),
+                self.assumed(
                     "core.outside_diameter",
-                    CORE_OUTSIDE.show(preset.outside_diameter.value),
+                    &CORE_OUTSIDE,
+                    preset.outside_diameter,
                     &from,
-                    preset.outside_diameter.source,
-                );
-                (preset.inside_diameter.value, preset.outside_diameter.value)
-            }
+                ),
+            ),
         };
         let outside = self.check("core.outside_diameter", outside, &CORE_OUTSIDE)?;
         let inside = self.check("core.inside_diameter", inside, &CORE_INSIDE)?;
@@ -1435,20 +1422,15 @@ impl Resolver {
                         "roll.diameter is needed: the core is larger than the default roll",
                     ));
                 }
-                self.assume(
-                    "roll.diameter",
-                    ROLL_DIAMETER.show(fallback.value),
-                    "",
-                    fallback.source,
-                );
-                let l = length_of(fallback.value);
+                let d = self.assumed("roll.diameter", &ROLL_DIAMETER, fallback, "");
+                let l = length_of(d);
                 self.assume(
                     "roll.length",
                     ROLL_LENGTH.show(l),
                     "",
                     "computed from the diameters and the caliper: L = π(R² − rc²)/h",
                 );
-                (fallback.value, l)
+                (d, l)
             }
         };
         let layers = (diameter / 2.0 - core_radius) / web.thickness;
