@@ -805,27 +805,49 @@ impl Solver {
         self.held_scale = 0.0;
         self.held_weight = 0.0;
         // The held increment is factor · raw on low..=held (zero below the rescaling point).
+        // `guess` serves as scratch: the next increment predicts it afresh.
         let low = self.low;
-        let zero_below = self.held_zero_below.min(held);
-        let value = |raw: &[f64], i: usize| if i < zero_below { 0.0 } else { raw[i] * factor };
-        for i in low..held {
-            self.pressure[i] -= value(&self.raw, i);
+        let zero_below = self.held_zero_below.clamp(low, held);
+        let mut values = std::mem::take(&mut self.guess);
+        values[low..zero_below].fill(0.0);
+        for (value, raw) in values[zero_below..=held]
+            .iter_mut()
+            .zip(&self.raw[zero_below..=held])
+        {
+            *value = raw * factor;
         }
-        let start = if low == 0 {
-            self.tangential[0] += (1.0 + self.core_coefficient) * value(&self.raw, 0);
-            1
-        } else {
-            let d = value(&self.raw, low);
-            let [_, c1, p1] = self.derivative[low];
-            self.tangential[low] +=
-                d + self.radius[low] * (c1 * d + p1 * value(&self.raw, low + 1));
-            low + 1
-        };
-        for i in start..held {
-            let d = value(&self.raw, i);
+        self.add_increment(&values, low, held, held);
+        self.guess = values;
+    }
+
+    /// Add δσr = `values` to the pressure of nodes `from..pressure_end` and δσθ = δσr + r·δσr'
+    /// to the tangential stress of nodes `from..hoop_end` (the stencil reads `values` one node
+    /// further out). At the bottom of the solved stack the core condition r·δσr' = c·δσr, or a
+    /// zero value below the first included node, stands in for the missing neighbour.
+    fn add_increment(&mut self, values: &[f64], from: usize, pressure_end: usize, hoop_end: usize) {
+        let low = self.low;
+        for (p, d) in self.pressure[from..pressure_end]
+            .iter_mut()
+            .zip(&values[from..pressure_end])
+        {
+            *p -= d;
+        }
+        let mut start = from;
+        if from == low && pressure_end > low + 1 {
+            if low == 0 {
+                self.tangential[0] += (1.0 + self.core_coefficient) * values[0];
+            } else {
+                let d = values[low];
+                let [_, c1, p1] = self.derivative[low];
+                self.tangential[low] += d + self.radius[low] * (c1 * d + p1 * values[low + 1]);
+            }
+            start = low + 1;
+        }
+        for i in start..hoop_end.max(start) {
+            let d = values[i];
             let [m1, c1, p1] = self.derivative[i];
-            self.tangential[i] += d + self.radius[i]
-                * (m1 * value(&self.raw, i - 1) + c1 * d + p1 * value(&self.raw, i + 1));
+            self.tangential[i] +=
+                d + self.radius[i] * (m1 * values[i - 1] + c1 * d + p1 * values[i + 1]);
         }
     }
 
@@ -834,33 +856,15 @@ impl Solver {
     /// A loaded wrap of the increment takes the tangential increments of the wraps above it
     /// only (while it is the top, its own load gives it none).
     fn accumulate(&mut self, from: usize, top: usize) {
-        let low = self.low;
-        for (p, d) in self.pressure[from..=top]
-            .iter_mut()
-            .zip(&self.shot[from..=top])
-        {
-            *p -= d;
-        }
         let first_loaded = top + 1 - self.loads.len();
-        let mut start = from;
-        if from == low {
-            if low == 0 && top > 0 {
-                // Core condition r·δσr' = c·δσr.
-                self.tangential[0] += (1.0 + self.core_coefficient) * self.shot[0];
-                start = 1;
-            } else if low > 0 && low < top {
-                let d = self.shot[low];
-                let [_, c1, p1] = self.derivative[low];
-                self.tangential[low] += d + self.radius[low] * (c1 * d + p1 * self.shot[low + 1]);
-                start = low + 1;
-            }
-        }
-        for i in start..first_loaded.max(start) {
-            let d = self.shot[i];
-            let [m1, c1, p1] = self.derivative[i];
-            self.tangential[i] +=
-                d + self.radius[i] * (m1 * self.shot[i - 1] + c1 * d + p1 * self.shot[i + 1]);
-        }
+        let shot = std::mem::take(&mut self.shot);
+        self.add_increment(&shot, from, top + 1, first_loaded);
+        self.shot = shot;
+        let start = if from == self.low && top > from {
+            from + 1
+        } else {
+            from
+        };
         for i in first_loaded.max(start)..top {
             let factor = self.cumulative[i + 1 - first_loaded];
             let d = self.raw[i];
