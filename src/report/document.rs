@@ -5,7 +5,7 @@ use serde::{Deserialize, Serialize};
 
 use super::{ReportError, ReportInput, ReportMeta};
 use crate::case::ResolvedCase;
-use crate::diagnose::{Caution, WhatIf};
+use crate::diagnose::{Caution, MergedRemedy};
 use crate::model::{CoreStiffness, Profile, RadialStiffness, Taper, WindingMethod};
 use crate::units::{QuantityKind, UnitSystem, format_quantity};
 
@@ -150,15 +150,10 @@ pub struct CauseEntry {
 
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct RemedyEntry {
+    /// Place in the merged remedy list, from 1.
     pub rank: usize,
-    pub id: String,
-    pub text: String,
-    pub group: String,
-    /// Cost to try: low, medium, high.
-    pub cost: String,
-    pub answers: Vec<String>,
-    pub cautions: Vec<String>,
-    pub what_if: Option<WhatIf>,
+    #[serde(flatten)]
+    pub remedy: MergedRemedy,
 }
 
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
@@ -250,13 +245,7 @@ pub fn build_document(input: &ReportInput) -> Result<ReportDocument, ReportError
         .enumerate()
         .map(|(index, remedy)| RemedyEntry {
             rank: index + 1,
-            id: remedy.id.clone(),
-            text: remedy.text.clone(),
-            group: remedy.group.clone(),
-            cost: remedy.cost.clone(),
-            answers: remedy.answers.clone(),
-            cautions: remedy.cautions.clone(),
-            what_if: remedy.what_if.clone(),
+            remedy: remedy.clone(),
         })
         .collect();
     let indicators = input

@@ -2,7 +2,7 @@
 
 use std::fmt::Write;
 
-use super::document::ReportDocument;
+use super::document::{RemedyEntry, ReportDocument};
 
 /// Escape text for HTML element content and attribute values.
 pub(crate) fn escape(text: &str) -> String {
@@ -247,7 +247,7 @@ fn write_report(
         "<h2 id=\"remedies\">Remedies, in the order to try</h2>"
     )?;
     writeln!(out, "<ol>")?;
-    for remedy in &doc.remedies {
+    for RemedyEntry { remedy, .. } in &doc.remedies {
         write!(
             out,
             "<li><strong>{}</strong> [{}, cost {}] — answers {}.",

@@ -2,7 +2,7 @@
 
 use std::fmt::Write;
 
-use super::document::ReportDocument;
+use super::document::{RemedyEntry, ReportDocument};
 
 /// Markdown table cells may not contain pipes or line breaks.
 fn cell(text: &str) -> String {
@@ -193,11 +193,11 @@ fn write_report(out: &mut String, doc: &ReportDocument) -> std::fmt::Result {
 
     writeln!(out, "## Remedies, in the order to try")?;
     writeln!(out)?;
-    for remedy in &doc.remedies {
+    for RemedyEntry { rank, remedy } in &doc.remedies {
         writeln!(
             out,
             "{}. **{}** [{}, cost {}] — answers {}.",
-            remedy.rank,
+            rank,
             remedy.text.trim(),
             remedy.group,
             remedy.cost,
