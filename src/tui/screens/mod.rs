@@ -12,7 +12,7 @@ pub mod what_if;
 use ratatui::buffer::Buffer;
 use ratatui::layout::{Constraint, Layout, Rect};
 use ratatui::text::{Line, Span};
-use ratatui::widgets::{Paragraph, Widget};
+use ratatui::widgets::{Block, Paragraph, Widget, Wrap};
 
 use super::app::{App, Screen, tab_labels};
 use super::theme::Theme;
@@ -175,6 +175,30 @@ pub fn scroll_to_keep(lines: &[Line], target: usize, width: u16, height: u16) ->
     let before: usize = lines.iter().take(target).map(rows).sum();
     let here = lines.get(target).map_or(1, rows);
     (before + here + 1).saturating_sub(usize::from(height)) as u16
+}
+
+/// Draw `lines` word-wrapped inside `block`, scrolled so that logical line `target` stays in
+/// view (`None`: from the top).
+pub fn render_scrolled<'a>(
+    lines: Vec<Line<'a>>,
+    target: Option<usize>,
+    block: Block<'a>,
+    area: Rect,
+    buf: &mut Buffer,
+) {
+    let scroll = target.map_or(0, |target| {
+        scroll_to_keep(
+            &lines,
+            target,
+            area.width.saturating_sub(2),
+            area.height.saturating_sub(2),
+        )
+    });
+    Paragraph::new(lines)
+        .wrap(Wrap { trim: false })
+        .scroll((scroll, 0))
+        .block(block)
+        .render(area, buf);
 }
 
 /// A centred rectangle `width`×`height` inside `area` (clipped to it).

@@ -292,17 +292,13 @@ fn render_causes(app: &App, diagnosis: &Diagnosis, theme: Theme, area: Rect, buf
             }
         }
     }
-    let scroll = super::scroll_to_keep(
-        &lines,
-        target,
-        area.width.saturating_sub(2),
-        area.height.saturating_sub(2),
+    super::render_scrolled(
+        lines,
+        Some(target),
+        Block::bordered().title(" Ranked causes "),
+        area,
+        buf,
     );
-    Paragraph::new(lines)
-        .wrap(Wrap { trim: false })
-        .scroll((scroll, 0))
-        .block(Block::bordered().title(" Ranked causes "))
-        .render(area, buf);
 }
 
 /// Plain words for a remedy group ID.
@@ -392,15 +388,11 @@ fn render_remedies(app: &App, diagnosis: &Diagnosis, theme: Theme, area: Rect, b
             theme.dim(),
         )));
     }
-    let scroll = super::scroll_to_keep(
-        &lines,
-        target,
-        area.width.saturating_sub(2),
-        area.height.saturating_sub(2),
+    super::render_scrolled(
+        lines,
+        Some(target),
+        Block::bordered().title(" Remedies, in the order to try "),
+        area,
+        buf,
     );
-    Paragraph::new(lines)
-        .wrap(Wrap { trim: false })
-        .scroll((scroll, 0))
-        .block(Block::bordered().title(" Remedies, in the order to try "))
-        .render(area, buf);
 }

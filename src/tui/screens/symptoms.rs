@@ -176,19 +176,5 @@ fn render_details(app: &App, theme: Theme, area: Rect, buf: &mut Buffer) {
     }
     // Keep the highlighted row in view.
     let target = row_lines.get(state.detail_row).copied().unwrap_or(0);
-    let scroll = if details_focus {
-        super::scroll_to_keep(
-            &lines,
-            target,
-            area.width.saturating_sub(2),
-            area.height.saturating_sub(2),
-        )
-    } else {
-        0
-    };
-    Paragraph::new(lines)
-        .wrap(Wrap { trim: false })
-        .scroll((scroll, 0))
-        .block(block)
-        .render(area, buf);
+    super::render_scrolled(lines, details_focus.then_some(target), block, area, buf);
 }
