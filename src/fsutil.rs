@@ -1,8 +1,23 @@
-//! File helpers shared by every module that writes user files.
+//! File helpers shared by the modules that read folders of YAML files or write user files.
 
 use std::io::Write;
 use std::path::{Path, PathBuf};
 use std::sync::atomic::{AtomicU64, Ordering};
+
+/// True for a `.yaml` or `.yml` file name.
+pub fn is_yaml(path: &Path) -> bool {
+    path.extension().is_some_and(|e| e == "yaml" || e == "yml")
+}
+
+/// The YAML files directly in `dir`, sorted by path (entries that cannot be read are skipped).
+pub fn yaml_files(dir: &Path) -> std::io::Result<Vec<PathBuf>> {
+    let mut paths: Vec<PathBuf> = std::fs::read_dir(dir)?
+        .filter_map(|e| e.ok().map(|e| e.path()))
+        .filter(|p| is_yaml(p))
+        .collect();
+    paths.sort();
+    Ok(paths)
+}
 
 /// Distinguishes temporary files of concurrent saves within one process.
 static SAVE_COUNTER: AtomicU64 = AtomicU64::new(0);

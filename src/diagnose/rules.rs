@@ -435,12 +435,7 @@ impl RuleBase {
             path: path.display().to_string(),
             message: e.to_string(),
         };
-        let mut names: Vec<std::path::PathBuf> = std::fs::read_dir(path)
-            .map_err(read_error)?
-            .filter_map(|e| e.ok().map(|e| e.path()))
-            .filter(|p| p.extension().is_some_and(|x| x == "yaml" || x == "yml"))
-            .collect();
-        names.sort();
+        let names = crate::fsutil::yaml_files(path).map_err(read_error)?;
         let mut files = Vec::new();
         for name in names {
             let text = std::fs::read_to_string(&name).map_err(read_error)?;

@@ -31,15 +31,10 @@ fn origin_of(loaded: &LoadedWalkthrough) -> String {
 
 /// Lint every walk-through file in `dir`. A file that does not parse is a problem, not an error.
 pub fn lint_dir(dir: &std::path::Path) -> Result<Vec<LintProblem>, super::TrainingError> {
-    let entries = std::fs::read_dir(dir).map_err(|source| super::TrainingError::Read {
+    let paths = crate::fsutil::yaml_files(dir).map_err(|source| super::TrainingError::Read {
         path: dir.to_path_buf(),
         source,
     })?;
-    let mut paths: Vec<std::path::PathBuf> = entries
-        .filter_map(|e| e.ok().map(|e| e.path()))
-        .filter(|p| p.extension().is_some_and(|e| e == "yaml" || e == "yml"))
-        .collect();
-    paths.sort();
     let mut problems = Vec::new();
     let mut loaded = Vec::new();
     for path in paths {

@@ -174,15 +174,10 @@ pub struct LoadedWalkthrough {
 
 /// Load every `*.yaml` walk-through in `dir`, sorted by file name.
 pub fn load_dir(dir: &std::path::Path) -> Result<Vec<LoadedWalkthrough>, TrainingError> {
-    let entries = std::fs::read_dir(dir).map_err(|source| TrainingError::Read {
+    let paths = crate::fsutil::yaml_files(dir).map_err(|source| TrainingError::Read {
         path: dir.to_path_buf(),
         source,
     })?;
-    let mut paths: Vec<std::path::PathBuf> = entries
-        .filter_map(|e| e.ok().map(|e| e.path()))
-        .filter(|p| p.extension().is_some_and(|e| e == "yaml" || e == "yml"))
-        .collect();
-    paths.sort();
     paths
         .into_iter()
         .map(|path| {

@@ -1992,7 +1992,7 @@ pub fn case_files_nearby() -> Vec<String> {
         if let Ok(entries) = std::fs::read_dir(folder) {
             for entry in entries.flatten() {
                 let path = entry.path();
-                if path.extension().is_some_and(|e| e == "yaml" || e == "yml") {
+                if crate::fsutil::is_yaml(&path) {
                     let shown = if folder == "." {
                         path.file_name().map(|n| n.to_string_lossy().into_owned())
                     } else {
