@@ -166,6 +166,20 @@ pub struct LimitCheck {
     pub met: bool,
 }
 
+impl LimitCheck {
+    /// A limit whose `value` may not exceed `allowed`; the margin is the share of `allowed`
+    /// left over.
+    fn at_most(limit: Limit, value: f64, allowed: f64) -> Self {
+        LimitCheck {
+            limit,
+            value,
+            allowed,
+            margin: 1.0 - value / allowed,
+            met: value <= allowed,
+        }
+    }
+}
+
 /// A schedule and the roll it winds.
 #[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct Evaluation {
@@ -389,13 +403,7 @@ pub fn check_limits(
         profile.pressure[0]
     };
     let core_allowed = limits.core_share * case.core.crush_pressure;
-    let core = LimitCheck {
-        limit: Limit::CorePressure,
-        value: core_pressure,
-        allowed: core_allowed,
-        margin: 1.0 - core_pressure / core_allowed,
-        met: core_pressure <= core_allowed,
-    };
+    let core = LimitCheck::at_most(Limit::CorePressure, core_pressure, core_allowed);
 
     // Starring: nodes with σθ < 0 and P below the share of the peak. The margin is +1 when there
     // is none; otherwise minus the depth of the worst node into the risk set, so the search can
@@ -463,13 +471,7 @@ pub fn check_limits(
 
     let wit_max = profile.wound_in_tension.iter().cloned().fold(0.0, f64::max);
     let wit_allowed = limits.tension_share * case.web.strength;
-    let tension = LimitCheck {
-        limit: Limit::WoundInTension,
-        value: wit_max,
-        allowed: wit_allowed,
-        margin: 1.0 - wit_max / wit_allowed,
-        met: wit_max <= wit_allowed,
-    };
+    let tension = LimitCheck::at_most(Limit::WoundInTension, wit_max, wit_allowed);
     vec![core, starring, outer, tension]
 }
 
