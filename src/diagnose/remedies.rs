@@ -315,25 +315,25 @@ pub fn what_if_solved(
     changed: &ResolvedCase,
     solved: Result<crate::model::Profile, crate::model::ModelError>,
 ) -> Option<WhatIf> {
+    // A what-if with no indicator to compare, only a note why.
+    let note_only = |note: String| WhatIf {
+        indicator: String::new(),
+        before: String::new(),
+        after: String::new(),
+        worse: false,
+        note,
+    };
     if changed == case {
-        return Some(WhatIf {
-            indicator: String::new(),
-            before: String::new(),
-            after: String::new(),
-            worse: false,
-            note: "the setting change does not apply to this case (nothing to change)".into(),
-        });
+        return Some(note_only(
+            "the setting change does not apply to this case (nothing to change)".into(),
+        ));
     }
     let profile = match solved {
         Ok(p) => p,
         Err(e) => {
-            return Some(WhatIf {
-                indicator: String::new(),
-                before: String::new(),
-                after: String::new(),
-                worse: false,
-                note: format!("could not re-solve with the change: {e}"),
-            });
+            return Some(note_only(format!(
+                "could not re-solve with the change: {e}"
+            )));
         }
     };
     let after_indicators = Indicators::compute(changed, &profile);
