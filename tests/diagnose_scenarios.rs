@@ -18,8 +18,7 @@ fn options() -> DiagnoseOptions {
     DiagnoseOptions {
         top: 0,
         what_if: false,
-        solve_with: Some(common::solve),
-        ..DiagnoseOptions::default()
+        solver: common::SOLVER,
     }
 }
 
