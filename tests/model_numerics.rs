@@ -111,6 +111,16 @@ fn auto_resolution_groups_large_rolls_and_passes_the_halving_check() {
         ModulusUpdate::Secant,
     ));
     assert!(relative(profile.summary.core_pressure, per_layer) < 0.01);
+    // A re-solve that asks for the grid the automatic solve used gets the same profile: what-if
+    // and report comparisons rely on it.
+    let again = solve(&with(
+        soft_paper(6000),
+        profile.solver.grid.resolution(),
+        ModulusUpdate::Secant,
+    ))
+    .unwrap();
+    assert_eq!(again.pressure, profile.pressure);
+    assert_eq!(again.tangential_stress, profile.tangential_stress);
 }
 
 #[test]

@@ -82,28 +82,21 @@ impl Resolution {
     /// Layers per element for a roll of `layers` wraps, or `None` for the automatic grouped
     /// solve with its halving check.
     fn layers_per_element(self, layers: usize) -> Result<Option<usize>, ModelError> {
+        let zero = |field, accepted| ModelError::OutOfRange {
+            field,
+            value: 0.0,
+            accepted,
+        };
         match self {
             Resolution::PerLayer => Ok(Some(1)),
-            Resolution::Grouped { layers: group } => {
-                if group == 0 {
-                    return Err(ModelError::OutOfRange {
-                        field: "resolution.layers",
-                        value: 0.0,
-                        accepted: "at least 1 layer per element",
-                    });
-                }
-                Ok(Some(group.min(layers).max(1)))
+            Resolution::Grouped { layers: 0 } => {
+                Err(zero("resolution.layers", "at least 1 layer per element"))
             }
-            Resolution::Elements { count } => {
-                if count == 0 {
-                    return Err(ModelError::OutOfRange {
-                        field: "resolution.elements",
-                        value: 0.0,
-                        accepted: "at least 1 element",
-                    });
-                }
-                Ok(Some(layers.div_ceil(count).max(1)))
+            Resolution::Grouped { layers: group } => Ok(Some(group.min(layers).max(1))),
+            Resolution::Elements { count: 0 } => {
+                Err(zero("resolution.elements", "at least 1 element"))
             }
+            Resolution::Elements { count } => Ok(Some(layers.div_ceil(count).max(1))),
             Resolution::Auto => Ok((layers <= PER_LAYER_LIMIT).then_some(1)),
         }
     }
