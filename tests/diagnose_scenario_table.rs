@@ -168,8 +168,7 @@ fn run(rules: &RuleBase, case: &ResolvedCase) -> Diagnosis {
     let options = DiagnoseOptions {
         top: 0,
         what_if: false,
-        solve_with: Some(common::solve),
-        ..DiagnoseOptions::default()
+        solver: common::SOLVER,
     };
     diagnose::triage(rules, case, &options).unwrap().1
 }
