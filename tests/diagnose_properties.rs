@@ -298,7 +298,7 @@ fn what_if_warns_when_a_change_makes_it_worse() {
         solve_with: Some(common::solve),
         ..Default::default()
     };
-    let w = rolltriage::diagnose::remedies::what_if(
+    let w = rolltriage::diagnose::what_if::what_if(
         &rules,
         &ids,
         &case,

@@ -476,6 +476,36 @@ pub fn apply_to_case(case: &mut crate::case::Case, fit: &PfeifferFit) {
     case.web.radial_stiffness = Some(radial_stiffness_input(fit));
 }
 
+/// Read a stack-compression CSV file and fit Pfeiffer's law to it: what
+/// `rolltriage calibrate stack` and the terminal UI's calibration both do.
+pub fn fit_stack_file(
+    path: &std::path::Path,
+    read: &StackReadOptions,
+    options: &FitOptions,
+) -> Result<(StackTest, PfeifferFit), CalibrateError> {
+    let text = std::fs::read_to_string(path).map_err(|source| CalibrateError::Read {
+        path: path.to_path_buf(),
+        source,
+    })?;
+    let test = parse_stack_csv(&text, &path.display().to_string(), read)?;
+    let fit = fit_pfeiffer(&test, options)?;
+    Ok((test, fit))
+}
+
+/// A warning when the stack's caliper and the case's web thickness (m) differ by more than
+/// 10 %: the stack is probably another web. `field` names the thickness as the reader knows it.
+pub fn caliper_warning(test: &StackTest, thickness: f64, field: &str) -> Option<String> {
+    let caliper = test.caliper()?;
+    (thickness > 0.0 && (caliper / thickness - 1.0).abs() > 0.10).then(|| {
+        format!(
+            "the stack's caliper ({:.1} µm) differs from the case's {field} ({:.1} µm) by more \
+             than 10 %; is this the same web?",
+            caliper * 1e6,
+            thickness * 1e6
+        )
+    })
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;

@@ -7,6 +7,7 @@ pub mod remedies;
 pub mod render;
 pub mod rules;
 pub mod search;
+pub mod what_if;
 
 pub use search::{SymptomMatch, resolve_symptom, search_symptoms};
 
@@ -220,7 +221,7 @@ pub fn diagnose(
     if options.what_if
         && remedies
             .iter()
-            .any(|r| remedies::changes_setting(rules, &r.id))
+            .any(|r| what_if::changes_setting(rules, &r.id))
     {
         // Before and after are compared at the same (what-if) resolution so the direction of a
         // change is never an artefact of different discretisations. An automatic resolution
@@ -234,7 +235,7 @@ pub fn diagnose(
                 resolution: crate::model::Resolution::Grouped { layers: k },
                 ..options.solver
             },
-            _ => remedies::what_if_solver(case, options.solver),
+            _ => what_if::what_if_solver(case, options.solver),
         };
         let what_if_options = DiagnoseOptions {
             solver,
@@ -260,8 +261,8 @@ pub fn diagnose(
             .iter()
             .map(|r| {
                 let changes = &rules.remedies.get(&r.id)?.changes;
-                (!changes.is_empty() && remedies::needs_solve(changes))
-                    .then(|| remedies::apply_changes(case, changes))
+                (!changes.is_empty() && what_if::needs_solve(changes))
+                    .then(|| what_if::apply_changes(case, changes))
             })
             .collect();
         let mut distinct: Vec<&crate::case::ResolvedCase> = Vec::new();
@@ -271,9 +272,10 @@ pub fn diagnose(
             }
         }
         let solved = solve_all(&distinct, &what_if_options);
+        let unchanged = crate::model::Profile::default();
         for (remedy, changed_case) in remedies.iter_mut().zip(&changed) {
             remedy.what_if = match changed_case {
-                None => remedies::what_if(
+                None => what_if::what_if(
                     rules,
                     &symptoms,
                     case,
@@ -283,15 +285,13 @@ pub fn diagnose(
                     &what_if_options,
                 ),
                 Some(c) => {
+                    // A changed case equal to the case itself was not solved: what_if_solved
+                    // answers "nothing to change" without looking at the profile.
                     let result = distinct
                         .iter()
                         .position(|d| *d == c)
-                        .map(|i| match &solved[i] {
-                            Ok(p) => Ok(p.clone()),
-                            Err(e) => Err(crate::model::ModelError::NotConverged(e.to_string())),
-                        })
-                        .unwrap_or_else(|| Ok(crate::model::Profile::default()));
-                    remedies::what_if_solved(
+                        .map_or(Ok(&unchanged), |i| solved[i].as_ref());
+                    what_if::what_if_solved(
                         rules,
                         &symptoms,
                         case,
