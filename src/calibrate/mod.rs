@@ -547,4 +547,25 @@ mod tests {
         assert_eq!(significant(12_345.678, 3), 12_300.0);
         assert_eq!(significant(0.012_345, 2), 0.012);
     }
+
+    #[test]
+    fn a_stack_file_fits_as_its_text_does() {
+        // fit_stack_file is reading the file plus the two calls the command line makes.
+        let path = std::path::Path::new(env!("CARGO_MANIFEST_DIR"))
+            .join("cases/calibration/harbour_news_45.csv");
+        let read = StackReadOptions::default();
+        let options = FitOptions::default();
+        let (test, fit) = fit_stack_file(&path, &read, &options).unwrap();
+        let text = std::fs::read_to_string(&path).unwrap();
+        let direct = parse_stack_csv(&text, &path.display().to_string(), &read).unwrap();
+        assert_eq!(test.points.len(), direct.points.len());
+        assert_eq!(fit.k1, fit_pfeiffer(&direct, &options).unwrap().k1);
+        let missing = fit_stack_file(&path.with_extension("none"), &read, &options);
+        assert!(matches!(missing, Err(CalibrateError::Read { .. })));
+        // The caliper check: a thickness 5 % off is the same web, 25 % off is not (limit 10 %).
+        if let Some(caliper) = test.caliper() {
+            assert!(caliper_warning(&test, caliper * 1.05, "t").is_none());
+            assert!(caliper_warning(&test, caliper * 1.25, "t").is_some());
+        }
+    }
 }

@@ -207,63 +207,16 @@ pub fn what_if_solved(
         }
     }
     let candidates = driving_tests(rules, symptoms, primary, case, indicators);
-    let (indicator, before_text, after_text) =
-        match pick_driver(&candidates, indicators, &after_indicators) {
-            Some(Test::Indicator {
-                id,
-                zone,
-                comparison,
-                threshold,
-                dimension,
-            }) => {
-                let before = indicators.get(id, *zone);
-                let after = after_indicators.get(id, *zone);
-                if let (Some(b), Some(a)) = (before, after) {
-                    let tolerance = 1e-3 * b.abs().max(a.abs()).max(1e-12);
-                    let moved_wrong = match comparison {
-                        Comparison::Above => a > b + tolerance,
-                        Comparison::Below => a < b - tolerance,
-                    };
-                    if moved_wrong {
-                        worse = true;
-                        notes.push(format!("{id} moves the wrong way"));
-                    }
-                    let still = match comparison {
-                        Comparison::Above => a > *threshold,
-                        Comparison::Below => a < *threshold,
-                    };
-                    if still && !moved_wrong {
-                        notes.push("a first step: still past the rule threshold".into());
-                    }
-                    let sign = match comparison {
-                        Comparison::Above => "above",
-                        Comparison::Below => "below",
-                    };
-                    notes.push(format!(
-                        "rule threshold: {sign} {}",
-                        format_value(*threshold, *dimension)
-                    ));
-                }
-                let name = match zone {
-                    Some(z) => format!("{id} ({})", z.as_str()),
-                    None => id.clone(),
-                };
-                (
-                    name,
-                    before
-                        .map(|v| format_value(v, *dimension))
-                        .unwrap_or_default(),
-                    after
-                        .map(|v| format_value(v, *dimension))
-                        .unwrap_or_default(),
-                )
-            }
-            _ => (
-                format!("belief in {primary}"),
-                format!("{before_belief:.2}"),
-                format!("{after_belief:.2}"),
-            ),
-        };
+    let driver = pick_driver(&candidates, indicators, &after_indicators).and_then(|test| {
+        compare_driver(test, indicators, &after_indicators, &mut notes, &mut worse)
+    });
+    let (indicator, before_text, after_text) = driver.unwrap_or_else(|| {
+        (
+            format!("belief in {primary}"),
+            format!("{before_belief:.2}"),
+            format!("{after_belief:.2}"),
+        )
+    });
     Some(WhatIf {
         indicator,
         before: before_text,
@@ -271,6 +224,68 @@ pub fn what_if_solved(
         worse,
         note: notes.join("; "),
     })
+}
+
+/// The before/after texts of the driving indicator `test`; adds notes on its direction and
+/// threshold, and sets `worse` when the change moves it the wrong way.
+fn compare_driver(
+    test: &Test,
+    indicators: &Indicators,
+    after_indicators: &Indicators,
+    notes: &mut Vec<String>,
+    worse: &mut bool,
+) -> Option<(String, String, String)> {
+    let Test::Indicator {
+        id,
+        zone,
+        comparison,
+        threshold,
+        dimension,
+    } = test
+    else {
+        return None;
+    };
+    let before = indicators.get(id, *zone);
+    let after = after_indicators.get(id, *zone);
+    if let (Some(b), Some(a)) = (before, after) {
+        let tolerance = 1e-3 * b.abs().max(a.abs()).max(1e-12);
+        let moved_wrong = match comparison {
+            Comparison::Above => a > b + tolerance,
+            Comparison::Below => a < b - tolerance,
+        };
+        if moved_wrong {
+            *worse = true;
+            notes.push(format!("{id} moves the wrong way"));
+        }
+        let still = match comparison {
+            Comparison::Above => a > *threshold,
+            Comparison::Below => a < *threshold,
+        };
+        if still && !moved_wrong {
+            notes.push("a first step: still past the rule threshold".into());
+        }
+        let sign = match comparison {
+            Comparison::Above => "above",
+            Comparison::Below => "below",
+        };
+        notes.push(format!(
+            "rule threshold: {sign} {}",
+            format_value(*threshold, *dimension)
+        ));
+    }
+    let name = match zone {
+        Some(z) => format!("{id} ({})", z.as_str()),
+        None => id.clone(),
+    };
+    Some((
+        name,
+        before
+            .map(|v| format_value(v, *dimension))
+            .unwrap_or_default(),
+        after
+            .map(|v| format_value(v, *dimension))
+            .unwrap_or_default(),
+    ))
 }
 
 /// What-if for a change of the core's rating alone: the core pressure ratio moves, the stress

@@ -123,32 +123,54 @@ pub fn get(case: &Case, path: &str) -> Option<String> {
     }
 }
 
-/// Check `text` for the field; returns the message to show in place when it is not accepted.
-pub fn check(spec: &FieldSpec, text: &str) -> Result<(), String> {
+/// Why a value typed into a field is not accepted (shown under the field).
+#[derive(Debug, Clone, PartialEq, thiserror::Error)]
+pub enum FieldError {
+    #[error(transparent)]
+    Unit(#[from] crate::units::UnitError),
+    #[error("{0}: not a field of the form")]
+    NotInForm(String),
+    #[error("{path}: \"{text}\" is not accepted; a plain number from {min} to {max}")]
+    Number {
+        path: &'static str,
+        text: String,
+        min: f64,
+        max: f64,
+    },
+    #[error("{path}: \"{text}\" is not accepted; one of {}", options.join(", "))]
+    Choice {
+        path: &'static str,
+        text: String,
+        options: &'static [&'static str],
+    },
+}
+
+/// Check `text` for the field.
+pub fn check(spec: &FieldSpec, text: &str) -> Result<(), FieldError> {
     let text = text.trim();
     if text.is_empty() {
         return Ok(());
     }
     match spec.kind {
-        Quantity(kind) => parse_quantity(spec.path, text, kind)
-            .map(|_| ())
-            .map_err(|e| e.to_string()),
+        Quantity(kind) => Ok(parse_quantity(spec.path, text, kind).map(|_| ())?),
         Number { min, max } => match text.parse::<f64>() {
             Ok(v) if v.is_finite() && (min..=max).contains(&v) => Ok(()),
-            _ => Err(format!(
-                "{}: \"{text}\" is not accepted; a plain number from {min} to {max}",
-                spec.path
-            )),
+            _ => Err(FieldError::Number {
+                path: spec.path,
+                text: text.to_string(),
+                min,
+                max,
+            }),
         },
         Choice(options) => {
             if options.contains(&text) {
                 Ok(())
             } else {
-                Err(format!(
-                    "{}: \"{text}\" is not accepted; one of {}",
-                    spec.path,
-                    options.join(", ")
-                ))
+                Err(FieldError::Choice {
+                    path: spec.path,
+                    text: text.to_string(),
+                    options,
+                })
             }
         }
         Preset(_) | Text => Ok(()),
@@ -156,7 +178,7 @@ pub fn check(spec: &FieldSpec, text: &str) -> Result<(), String> {
 }
 
 /// Write `text` (None or empty clears the field) after checking it.
-pub fn set(case: &mut Case, spec: &FieldSpec, text: Option<&str>) -> Result<(), String> {
+pub fn set(case: &mut Case, spec: &FieldSpec, text: Option<&str>) -> Result<(), FieldError> {
     let text = text.map(str::trim).filter(|t| !t.is_empty());
     if let Some(t) = text {
         check(spec, t)?;
@@ -214,7 +236,7 @@ pub fn set(case: &mut Case, spec: &FieldSpec, text: Option<&str>) -> Result<(), 
         "winding.speed" => case.winding.speed = quantity(),
         "winding.temperature" => case.winding.temperature = quantity(),
         "winding.acceleration_time" => case.winding.acceleration_time = number(),
-        other => return Err(format!("{other}: not a field of the form")),
+        other => return Err(FieldError::NotInForm(other.to_string())),
     }
     Ok(())
 }

@@ -360,3 +360,93 @@ fn set_taper(schedule: &mut crate::model::TensionSchedule, to: Option<f64>, by: 
         }
     };
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    /// A blank case: every value from the presets and defaults.
+    fn blank() -> (Case, ResolvedCase) {
+        let case = Case {
+            title: "Blank".into(),
+            ..Case::default()
+        };
+        let resolved = case.resolve().expect("a blank case resolves from presets");
+        (case, resolved)
+    }
+
+    #[test]
+    fn a_kept_change_resolves_to_what_the_what_if_solved() {
+        // The one-applier invariant: writing a change into the case file and resolving it again
+        // gives the same inputs the what-if solved.
+        let (case, resolved) = blank();
+        for changes in [
+            vec![SettingChange::TensionScale(1.15)],
+            vec![SettingChange::SpeedScale(0.8)],
+            vec![SettingChange::CoreCrushScale(2.0)],
+            vec![SettingChange::TaperTo(20.0)],
+            vec![SettingChange::CoreStiffnessScale(2.0)],
+        ] {
+            let expected = apply_changes(&resolved, &changes);
+            let kept = keep_changes(&case, &resolved, &changes).unwrap();
+            let again = kept.resolve().unwrap();
+            assert_eq!(
+                again.winding.tension, expected.winding.tension,
+                "{changes:?}"
+            );
+            assert_eq!(again.winding.speed, expected.winding.speed, "{changes:?}");
+            assert_eq!(again.core.crush_pressure, expected.core.crush_pressure);
+            let (a, b) = (
+                again.core.stiffness.effective_stiffness(),
+                expected.core.stiffness.effective_stiffness(),
+            );
+            assert!(
+                a == b || (a - b).abs() <= 1e-9 * b.abs(),
+                "{changes:?}: {a} vs {b}"
+            );
+        }
+    }
+
+    #[test]
+    fn steps_change_the_setting_by_the_stated_amount() {
+        let (case, resolved) = blank();
+        let before = resolved.winding.tension.start_tension;
+        let step = SettingStep {
+            setting: Setting::Tension,
+            steps: 2,
+        };
+        let (trial, words) = trial_case(&case, &resolved, step, UnitSystem::Si).unwrap();
+        assert!(words.starts_with("Web tension"));
+        let after = trial.resolve().unwrap().winding.tension.start_tension;
+        assert!((after - 1.2 * before).abs() < 1e-9 * before);
+        // A roll without taper is tried with a hyperbolic one, 5 points per step.
+        let step = SettingStep {
+            setting: Setting::Taper,
+            steps: 1,
+        };
+        let (trial, _) = trial_case(&case, &resolved, step, UnitSystem::Si).unwrap();
+        let taper = trial.winding.taper.unwrap();
+        assert_eq!(taper.kind, "hyperbolic");
+        assert_eq!(taper.amount, Some(QuantityText::Text("5 %".into())));
+    }
+
+    #[test]
+    fn changes_a_case_file_cannot_say_are_refused() {
+        let (case, resolved) = blank();
+        let changes = [SettingChange::CoreZoneTensionScale(1.2)];
+        assert_eq!(
+            keep_changes(&case, &resolved, &changes),
+            Err(WhatIfError::CoreZoneBand)
+        );
+        let mut stepped = resolved.clone();
+        stepped.winding.tension.taper = Taper::Steps { steps: Vec::new() };
+        let step = SettingStep {
+            setting: Setting::Taper,
+            steps: 1,
+        };
+        assert_eq!(
+            apply_step(&stepped, step, UnitSystem::Si).map(|_| ()),
+            Err(WhatIfError::SteppedTaper)
+        );
+    }
+}

@@ -56,7 +56,7 @@ impl InputsScreen {
                 }
                 Err(message) => {
                     // Rejected in place: keep the text so it can be corrected.
-                    self.error = Some(message);
+                    self.error = Some(message.to_string());
                     self.editing = Some(text);
                 }
             },
