@@ -298,16 +298,14 @@ fn what_if_warns_when_a_change_makes_it_worse() {
         solve_with: Some(common::solve),
         ..Default::default()
     };
-    let w = rolltriage::diagnose::what_if::what_if(
-        &rules,
-        &ids,
-        &case,
-        &indicators,
-        &causes,
-        &wrong,
-        &options,
-    )
-    .unwrap();
+    let before = rolltriage::diagnose::what_if::Before {
+        rules: &rules,
+        symptoms: &ids,
+        case: &case,
+        indicators: &indicators,
+        causes: &causes,
+    };
+    let w = rolltriage::diagnose::what_if::what_if(&before, &wrong, &options).unwrap();
     assert!(w.worse, "reducing tension on a slack roll must warn: {w:?}");
 }
 

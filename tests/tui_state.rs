@@ -392,7 +392,7 @@ fn save_writes_the_case_atomically_and_clears_the_modified_mark() {
     app.handle_key(Key::Ctrl('s'));
     // No file yet: asks for a name, suggested from the title.
     match app.popup() {
-        Some(Popup::SaveAs(p)) => assert_eq!(p.0.input, "new_case.yaml"),
+        Some(Popup::File(p)) => assert_eq!(p.prompt.input, "new_case.yaml"),
         other => panic!("expected the save prompt, got {other:?}"),
     }
     for _ in 0.."new_case.yaml".len() {
@@ -506,7 +506,9 @@ fn export_writes_a_report_of_the_results_in_the_format_of_the_file_name() {
     finish_requests(&mut app, &outcome(1.0), &outcome(1.0));
     app.handle_key(Key::Ctrl('e'));
     match app.popup() {
-        Some(Popup::Export(p)) => assert!(p.0.input.ends_with("_report.md"), "{}", p.0.input),
+        Some(Popup::File(p)) => {
+            assert!(p.prompt.input.ends_with("_report.md"), "{}", p.prompt.input)
+        }
         other => panic!("expected the export prompt, got {other:?}"),
     }
     app.popups.clear();
@@ -746,7 +748,7 @@ fn stack_calibration_fits_the_csv_and_writes_k1_k2_into_the_case() {
     type_into(&mut app, "cases/calibration/harbour_news_45.csv");
     app.handle_key(Key::Enter);
     let prompt = calibrate_popup(&app);
-    assert_eq!(prompt.error, None);
+    assert_eq!(prompt.prompt.error, None);
     let fitted = prompt.fit.as_ref().unwrap();
     // SciPy's curve_fit on the same file, relative weighting
     // (tests/reference/curve_fit_pfeiffer.json): K1 4398.08 Pa, K2 21.2723, 19 loading points.
@@ -792,7 +794,7 @@ fn stack_calibration_reports_bad_files_in_the_popup() {
     app.handle_key(Key::Ctrl('k'));
     type_into(&mut app, "cases/calibration/no_such_file.csv");
     app.handle_key(Key::Enter);
-    let error = calibrate_popup(&app).error.clone().unwrap();
+    let error = calibrate_popup(&app).prompt.error.clone().unwrap();
     assert!(error.contains("no_such_file.csv"), "{error}");
     assert!(calibrate_popup(&app).fit.is_none());
 
@@ -804,7 +806,7 @@ fn stack_calibration_reports_bad_files_in_the_popup() {
     }
     type_into(&mut app, bad.to_str().unwrap());
     app.handle_key(Key::Enter);
-    let error = calibrate_popup(&app).error.clone().unwrap();
+    let error = calibrate_popup(&app).prompt.error.clone().unwrap();
     assert!(error.contains("bad.csv"), "{error}");
     // Enter again with the error shown does not write anything; Esc closes.
     app.handle_key(Key::Enter);

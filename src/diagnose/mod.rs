@@ -273,17 +273,16 @@ pub fn diagnose(
         }
         let solved = solve_all(&distinct, &what_if_options);
         let unchanged = crate::model::Profile::default();
+        let before = what_if::Before {
+            rules,
+            symptoms: &symptoms,
+            case,
+            indicators: &baseline.0,
+            causes: &baseline.1,
+        };
         for (remedy, changed_case) in remedies.iter_mut().zip(&changed) {
             remedy.what_if = match changed_case {
-                None => what_if::what_if(
-                    rules,
-                    &symptoms,
-                    case,
-                    &baseline.0,
-                    &baseline.1,
-                    remedy,
-                    &what_if_options,
-                ),
+                None => what_if::what_if(&before, remedy, &what_if_options),
                 Some(c) => {
                     // A changed case equal to the case itself was not solved: what_if_solved
                     // answers "nothing to change" without looking at the profile.
@@ -291,16 +290,7 @@ pub fn diagnose(
                         .iter()
                         .position(|d| *d == c)
                         .map_or(Ok(&unchanged), |i| solved[i].as_ref());
-                    what_if::what_if_solved(
-                        rules,
-                        &symptoms,
-                        case,
-                        &baseline.0,
-                        &baseline.1,
-                        remedy,
-                        c,
-                        result,
-                    )
+                    what_if::what_if_solved(&before, remedy, c, result)
                 }
             };
         }

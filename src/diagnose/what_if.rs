@@ -103,38 +103,35 @@ fn pick_driver<'a>(
     })
 }
 
+/// The case as it stands, which every what-if compares against.
+#[derive(Debug, Clone, Copy)]
+pub struct Before<'a> {
+    pub rules: &'a RuleBase,
+    /// The observed symptom IDs.
+    pub symptoms: &'a [String],
+    pub case: &'a ResolvedCase,
+    pub indicators: &'a Indicators,
+    pub causes: &'a [RankedCause],
+}
+
 /// Re-solve the case with the remedy's setting changes and report the driving indicator
 /// before and after. `None` for remedies that change no setting.
-#[allow(clippy::too_many_arguments)]
 pub fn what_if(
-    rules: &RuleBase,
-    symptoms: &[String],
-    case: &ResolvedCase,
-    indicators: &Indicators,
-    causes: &[RankedCause],
+    before: &Before,
     remedy: &MergedRemedy,
     options: &super::DiagnoseOptions,
 ) -> Option<WhatIf> {
-    let changes = &rules.remedies.get(&remedy.id)?.changes;
+    let changes = &before.rules.remedies.get(&remedy.id)?.changes;
     if changes.is_empty() {
         return None;
     }
-    let changed = apply_changes(case, changes);
+    let changed = apply_changes(before.case, changes);
     if !needs_solve(changes) {
         // Only the rating changes: the stress state is the same, no re-solve needed.
-        return Some(rating_only(case, &changed, indicators, remedy, causes));
+        return Some(rating_only(before, &changed, remedy));
     }
     let solved = options.solve(&changed.problem(options.solver));
-    what_if_solved(
-        rules,
-        symptoms,
-        case,
-        indicators,
-        causes,
-        remedy,
-        &changed,
-        solved.as_ref(),
-    )
+    what_if_solved(before, remedy, &changed, solved.as_ref())
 }
 
 /// True when the changes alter the stress state (anything but the crush rating).
@@ -145,17 +142,19 @@ pub fn needs_solve(changes: &[SettingChange]) -> bool {
 }
 
 /// The what-if of a remedy whose changed case `changed` is already solved.
-#[allow(clippy::too_many_arguments)]
 pub fn what_if_solved(
-    rules: &RuleBase,
-    symptoms: &[String],
-    case: &ResolvedCase,
-    indicators: &Indicators,
-    causes: &[RankedCause],
+    before: &Before,
     remedy: &MergedRemedy,
     changed: &ResolvedCase,
     solved: Result<&crate::model::Profile, &crate::model::ModelError>,
 ) -> Option<WhatIf> {
+    let Before {
+        rules,
+        symptoms,
+        case,
+        indicators,
+        causes,
+    } = *before;
     // A what-if with no indicator to compare, only a note why.
     let note_only = |note: String| WhatIf {
         indicator: String::new(),
@@ -290,13 +289,8 @@ fn compare_driver(
 
 /// What-if for a change of the core's rating alone: the core pressure ratio moves, the stress
 /// state does not.
-fn rating_only(
-    case: &ResolvedCase,
-    changed: &ResolvedCase,
-    indicators: &Indicators,
-    remedy: &MergedRemedy,
-    _causes: &[RankedCause],
-) -> WhatIf {
+fn rating_only(before: &Before, changed: &ResolvedCase, remedy: &MergedRemedy) -> WhatIf {
+    let (case, indicators) = (before.case, before.indicators);
     let dimension = indicator_spec("core_pressure_ratio")
         .map(|s| s.dimension)
         .unwrap_or(super::indicators::Dimension::Ratio);

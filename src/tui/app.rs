@@ -11,8 +11,8 @@ use crate::units::UnitSystem;
 
 pub use super::component::{OpenPurpose, PendingAction, Screen};
 pub use super::popups::{
-    CalibratePopup, ConfirmPopup, ExportPopup, HelpPopup, OpenPopup, PathPrompt, Popup,
-    SaveAsPopup, StackFit, TrainingPopup, WalkStage, WalkthroughRun,
+    CalibratePopup, ConfirmPopup, FilePopup, FilePurpose, HelpPopup, OpenPopup, PathPrompt, Popup,
+    StackFit, TrainingPopup, WalkStage, WalkthroughRun,
 };
 pub use super::screens::inputs::InputsScreen;
 pub use super::screens::results::{ResultsFocus, ResultsScreen};
@@ -205,41 +205,34 @@ impl App {
                 generation,
                 result,
             } => {
-                if session.running_what_if.is_some_and(|r| r.id == id) {
-                    session.running_what_if = None;
+                if take_running(&mut session.running_what_if, id) {
                     self.what_if.on_designed(generation, result, session);
                 }
             }
             JobMessage::Finished {
                 id,
-                purpose: Purpose::Baseline,
+                purpose,
                 generation,
                 result,
-            } => {
-                if session.running_baseline.is_some_and(|r| r.id == id) {
-                    session.running_baseline = None;
+            } => match purpose {
+                Purpose::Baseline => {
+                    take_running(&mut session.running_baseline, id);
+                    // Keep the newest result only.
+                    if session
+                        .baseline
+                        .as_ref()
+                        .is_none_or(|b| b.generation <= generation)
+                    {
+                        session.baseline = Some(super::session::Baseline { generation, result });
+                        self.results.on_new_baseline();
+                    }
                 }
-                // Keep the newest result only.
-                if session
-                    .baseline
-                    .as_ref()
-                    .is_none_or(|b| b.generation <= generation)
-                {
-                    session.baseline = Some(super::session::Baseline { generation, result });
-                    self.results.on_new_baseline();
+                Purpose::WhatIf => {
+                    if take_running(&mut session.running_what_if, id) {
+                        self.what_if.on_solved(generation, result);
+                    }
                 }
-            }
-            JobMessage::Finished {
-                id,
-                purpose: Purpose::WhatIf,
-                generation,
-                result,
-            } => {
-                if session.running_what_if.is_some_and(|r| r.id == id) {
-                    session.running_what_if = None;
-                    self.what_if.on_solved(generation, result);
-                }
-            }
+            },
         }
     }
 
@@ -432,7 +425,7 @@ impl App {
             None => {
                 let name = suggested_file_name(&self.session.case.title);
                 self.popups
-                    .push(Popup::SaveAs(SaveAsPopup(PathPrompt::new(name))));
+                    .push(Popup::File(FilePopup::new(FilePurpose::SaveAs, name)));
             }
         }
     }
@@ -465,8 +458,9 @@ impl App {
                     .trim_end_matches(".yaml")
                     .to_string()
             });
-        let prompt = PathPrompt::new(format!("{stem}_report.md"));
-        self.popups.push(Popup::Export(ExportPopup(prompt)));
+        let name = format!("{stem}_report.md");
+        self.popups
+            .push(Popup::File(FilePopup::new(FilePurpose::Export, name)));
     }
 
     /// Write a report of the current results (and the remedy being tried, if any) to `path`.
@@ -562,6 +556,15 @@ impl App {
             }
         }
     }
+}
+
+/// Clear `slot` when it holds job `id`; true when it did (older jobs' results are ignored).
+fn take_running(slot: &mut Option<super::session::Running>, id: u64) -> bool {
+    let current = slot.is_some_and(|r| r.id == id);
+    if current {
+        *slot = None;
+    }
+    current
 }
 
 /// "Reel 4 telescoped" → "reel_4_telescoped.yaml".

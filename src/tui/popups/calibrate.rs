@@ -9,7 +9,7 @@ use ratatui::layout::Rect;
 use ratatui::text::{Line, Span};
 use ratatui::widgets::{Block, Clear, Paragraph, Widget, Wrap};
 
-use super::prompt::path_prompt;
+use super::prompt::{PathPrompt, path_prompt};
 use crate::calibrate::{CalibrateError, FitOptions, PfeifferFit, StackReadOptions};
 use crate::tui::component::{Action, Binding, Component, Handled};
 use crate::tui::event::Key;
@@ -20,11 +20,10 @@ use crate::tui::theme::Theme;
 /// A CSV path, then the fit to confirm.
 #[derive(Debug, Clone, PartialEq, Default)]
 pub struct CalibratePopup {
-    pub input: String,
-    /// The fit of the file named in `input`, waiting for Enter to be written into the case.
+    /// The CSV path, and why the file could not be read or fitted.
+    pub prompt: PathPrompt,
+    /// The fit of the file named in the prompt, waiting for Enter to be written into the case.
     pub fit: Option<StackFit>,
-    /// Why the file could not be read or fitted.
-    pub error: Option<String>,
 }
 
 /// A fitted stack test, as the popup shows it.
@@ -95,27 +94,19 @@ impl Component for CalibratePopup {
                     ctx.push(Action::Close);
                 }
                 None => {
-                    let path = PathBuf::from(self.input.trim());
+                    let path = PathBuf::from(self.prompt.input.trim());
                     let thickness = ctx.resolved.as_ref().ok().map(|r| r.web.thickness);
                     match fit_stack_file(&path, thickness) {
                         Ok(fitted) => {
                             self.fit = Some(fitted);
-                            self.error = None;
+                            self.prompt.error = None;
                         }
-                        Err(error) => self.error = Some(error.to_string()),
+                        Err(error) => self.prompt.error = Some(error.to_string()),
                     }
                 }
             },
-            Key::Char(c) => {
-                self.input.push(c);
-                self.fit = None;
-                self.error = None;
-            }
-            Key::Backspace => {
-                self.input.pop();
-                self.fit = None;
-                self.error = None;
-            }
+            // Another file: the fit shown is no longer its fit.
+            _ if self.prompt.edit(key) => self.fit = None,
             _ => {}
         }
         Handled::Yes
@@ -136,7 +127,12 @@ impl Component for CalibratePopup {
 
 fn render(prompt: &CalibratePopup, app: &Session, theme: Theme, area: Rect, buf: &mut Buffer) {
     let stress = |pa: f64| crate::units::compact_stress(pa, app.units);
-    let mut lines = path_prompt("CSV file: ", &prompt.input, prompt.error.as_deref(), theme);
+    let mut lines = path_prompt(
+        "CSV file: ",
+        &prompt.prompt.input,
+        prompt.prompt.error.as_deref(),
+        theme,
+    );
     match &prompt.fit {
         None => {
             lines.push(Line::from(Span::styled(

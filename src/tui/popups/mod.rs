@@ -16,7 +16,7 @@ pub use calibrate::{CalibratePopup, StackFit};
 pub use confirm::ConfirmPopup;
 pub use help::HelpPopup;
 pub use open::OpenPopup;
-pub use prompt::{ExportPopup, PathPrompt, SaveAsPopup};
+pub use prompt::{FilePopup, FilePurpose, PathPrompt};
 pub use training::TrainingPopup;
 pub use walkthrough::{WalkStage, WalkthroughRun};
 
@@ -30,9 +30,8 @@ pub enum Popup {
     Help(HelpPopup),
     Confirm(ConfirmPopup),
     Open(OpenPopup),
-    SaveAs(SaveAsPopup),
-    /// Export a report; the format follows the file's extension (.md, .html, .json).
-    Export(ExportPopup),
+    /// Save the case as, or export a report (the format follows the file's extension).
+    File(FilePopup),
     /// Pick a training walk-through.
     Training(TrainingPopup),
     /// A training walk-through being answered inside the UI.
@@ -41,39 +40,27 @@ pub enum Popup {
     Calibrate(Box<CalibratePopup>),
 }
 
+/// Run `$body` with `$p` bound to the popup's own component.
+macro_rules! each_popup {
+    ($popup:expr, $p:ident => $body:expr) => {
+        match $popup {
+            Popup::Help($p) => $body,
+            Popup::Confirm($p) => $body,
+            Popup::Open($p) => $body,
+            Popup::File($p) => $body,
+            Popup::Training($p) => $body,
+            Popup::Walkthrough($p) => $body,
+            Popup::Calibrate($p) => $body,
+        }
+    };
+}
+
 impl Popup {
-    fn component(&self) -> &dyn Component {
-        match self {
-            Popup::Help(p) => p,
-            Popup::Confirm(p) => p,
-            Popup::Open(p) => p,
-            Popup::SaveAs(p) => p,
-            Popup::Export(p) => p,
-            Popup::Training(p) => p,
-            Popup::Walkthrough(p) => p.as_ref(),
-            Popup::Calibrate(p) => p.as_ref(),
-        }
-    }
-
-    fn component_mut(&mut self) -> &mut dyn Component {
-        match self {
-            Popup::Help(p) => p,
-            Popup::Confirm(p) => p,
-            Popup::Open(p) => p,
-            Popup::SaveAs(p) => p,
-            Popup::Export(p) => p,
-            Popup::Training(p) => p,
-            Popup::Walkthrough(p) => p.as_mut(),
-            Popup::Calibrate(p) => p.as_mut(),
-        }
-    }
-
     /// Show why the popup's request failed (file prompts).
     pub fn show_error(&mut self, error: String) {
         match self {
-            Popup::Open(p) => p.error = Some(error),
-            Popup::SaveAs(p) => p.0.error = Some(error),
-            Popup::Export(p) => p.0.error = Some(error),
+            Popup::Open(p) => p.prompt.error = Some(error),
+            Popup::File(p) => p.prompt.error = Some(error),
             _ => {}
         }
     }
@@ -81,22 +68,22 @@ impl Popup {
 
 impl Component for Popup {
     fn on_key(&mut self, key: Key, ctx: &mut Session) -> Handled {
-        self.component_mut().on_key(key, ctx)
+        each_popup!(self, p => p.on_key(key, ctx))
     }
 
     fn key_map(&self) -> &'static [Binding] {
-        self.component().key_map()
+        each_popup!(self, p => p.key_map())
     }
 
     fn mode(&self, ctx: &Session) -> u8 {
-        self.component().mode(ctx)
+        each_popup!(self, p => p.mode(ctx))
     }
 
     fn hints(&self, ctx: &Session) -> Vec<Hint> {
-        self.component().hints(ctx)
+        each_popup!(self, p => p.hints(ctx))
     }
 
     fn render(&self, ctx: &Session, theme: Theme, area: Rect, buf: &mut Buffer) {
-        self.component().render(ctx, theme, area, buf);
+        each_popup!(self, p => p.render(ctx, theme, area, buf))
     }
 }

@@ -8,7 +8,7 @@ use ratatui::layout::Rect;
 use ratatui::text::{Line, Span};
 use ratatui::widgets::{Block, Clear, Paragraph, Widget, Wrap};
 
-use super::prompt::path_prompt;
+use super::prompt::{PathPrompt, path_prompt};
 use crate::tui::component::{ANY, Action, Binding, Component, Handled, OpenPurpose};
 use crate::tui::event::Key;
 use crate::tui::screens::centred;
@@ -18,11 +18,10 @@ use crate::tui::theme::Theme;
 #[derive(Debug, Clone, PartialEq)]
 pub struct OpenPopup {
     pub purpose: OpenPurpose,
-    pub input: String,
+    pub prompt: PathPrompt,
     /// Case files found in `cases/` and the current folder.
     pub suggestions: Vec<String>,
     pub selected: Option<usize>,
-    pub error: Option<String>,
 }
 
 const KEYS: &[Binding] = &[
@@ -36,10 +35,9 @@ impl OpenPopup {
     pub fn new(purpose: OpenPurpose) -> Self {
         OpenPopup {
             purpose,
-            input: String::new(),
+            prompt: PathPrompt::default(),
             suggestions: case_files_nearby(),
             selected: None,
-            error: None,
         }
     }
 }
@@ -49,12 +47,12 @@ impl Component for OpenPopup {
         match key {
             Key::Esc => ctx.push(Action::Close),
             Key::Enter => {
-                let text = match (self.selected, self.input.trim().is_empty()) {
+                let text = match (self.selected, self.prompt.input.trim().is_empty()) {
                     (Some(i), true) => self.suggestions.get(i).cloned().unwrap_or_default(),
-                    _ => self.input.trim().to_string(),
+                    _ => self.prompt.input.trim().to_string(),
                 };
                 if text.is_empty() {
-                    self.error = Some("type a file name or pick one with ↑↓".into());
+                    self.prompt.error = Some("type a file name or pick one with ↑↓".into());
                 } else {
                     ctx.push(Action::Open(PathBuf::from(text), self.purpose));
                 }
@@ -68,18 +66,14 @@ impl Component for OpenPopup {
                         (Some(i), Key::Down) => (i + 1).min(n - 1),
                         (Some(i), _) => i.saturating_sub(1),
                     });
-                    self.input.clear();
+                    self.prompt.input.clear();
                 }
             }
-            Key::Backspace => {
-                self.input.pop();
+            // Typing a name replaces the pick.
+            Key::Char(_) if self.prompt.edit(key) => self.selected = None,
+            _ => {
+                self.prompt.edit(key);
             }
-            Key::Char(c) => {
-                self.input.push(c);
-                self.selected = None;
-                self.error = None;
-            }
-            _ => {}
         }
         Handled::Yes
     }
@@ -93,7 +87,8 @@ impl Component for OpenPopup {
             OpenPurpose::WholeCase => " Open a case file ",
             OpenPurpose::InputsOnly => " Take the inputs from a case file (symptoms kept) ",
         };
-        let mut lines = path_prompt("file: ", &self.input, self.error.as_deref(), theme);
+        let prompt = &self.prompt;
+        let mut lines = path_prompt("file: ", &prompt.input, prompt.error.as_deref(), theme);
         lines.push(Line::from(Span::styled(
             "found nearby (↑↓ then Enter):",
             theme.dim(),

@@ -1,5 +1,5 @@
-//! The popups that ask for a file name: save as and export. Both edit one line of text and
-//! hand the path to the app, which shows a failure back in the popup.
+//! The popup that asks for a file name (save as, export), and the one line of text every file
+//! prompt edits. The path goes to the app, which shows a failure back in the popup.
 
 use std::path::PathBuf;
 
@@ -26,20 +26,28 @@ impl PathPrompt {
         PathPrompt { input, error: None }
     }
 
+    /// Type or delete a character (the last error goes); false for any other key.
+    pub fn edit(&mut self, key: Key) -> bool {
+        match key {
+            Key::Backspace => {
+                self.input.pop();
+            }
+            Key::Char(c) => self.input.push(c),
+            _ => return false,
+        }
+        self.error = None;
+        true
+    }
+
     /// Edit the text; `Some(path)` on Enter, Esc closes the popup.
     fn key(&mut self, key: Key, ctx: &mut Session) -> Option<String> {
         match key {
             Key::Esc => ctx.push(Action::Close),
             Key::Enter => return Some(self.input.trim().to_string()),
-            Key::Backspace => {
-                self.input.pop();
+            _ => {
+                self.edit(key);
                 self.error = None;
             }
-            Key::Char(c) => {
-                self.input.push(c);
-                self.error = None;
-            }
-            _ => self.error = None,
         }
         None
     }
@@ -63,28 +71,30 @@ pub fn path_prompt(
     lines
 }
 
-/// Draw a file prompt with one line of explanation under it.
-fn render_prompt(
-    prompt: &PathPrompt,
-    note: String,
-    title: &'static str,
-    theme: Theme,
-    area: Rect,
-    buf: &mut Buffer,
-) {
-    let mut lines = path_prompt("file: ", &prompt.input, prompt.error.as_deref(), theme);
-    lines.push(Line::from(Span::styled(note, theme.dim())));
-    let rect = centred(area, 64, 6);
-    Clear.render(rect, buf);
-    Paragraph::new(lines)
-        .wrap(Wrap { trim: false })
-        .block(Block::bordered().title(title))
-        .render(rect, buf);
+/// What a file popup does with the path.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum FilePurpose {
+    /// Save the case under a new name.
+    SaveAs,
+    /// Write a report of the results; the format follows the file's extension.
+    Export,
 }
 
-/// Save the case under a new name.
-#[derive(Debug, Clone, PartialEq, Default)]
-pub struct SaveAsPopup(pub PathPrompt);
+/// Ask for a file to save the case to or to write a report into.
+#[derive(Debug, Clone, PartialEq)]
+pub struct FilePopup {
+    pub purpose: FilePurpose,
+    pub prompt: PathPrompt,
+}
+
+impl FilePopup {
+    pub fn new(purpose: FilePurpose, suggested: String) -> Self {
+        FilePopup {
+            purpose,
+            prompt: PathPrompt::new(suggested),
+        }
+    }
+}
 
 const SAVE_AS_KEYS: &[Binding] = &[
     Binding::line(ANY, "type", "file name"),
@@ -92,56 +102,58 @@ const SAVE_AS_KEYS: &[Binding] = &[
     Binding::line(ANY, "Esc", "cancel"),
 ];
 
-impl Component for SaveAsPopup {
-    fn on_key(&mut self, key: Key, ctx: &mut Session) -> Handled {
-        if let Some(text) = self.0.key(key, ctx) {
-            if text.is_empty() {
-                self.0.error = Some("type a file name".into());
-            } else {
-                ctx.push(Action::SaveTo(PathBuf::from(text)));
-            }
-        }
-        Handled::Yes
-    }
-
-    fn key_map(&self) -> &'static [Binding] {
-        SAVE_AS_KEYS
-    }
-
-    fn render(&self, ctx: &Session, theme: Theme, area: Rect, buf: &mut Buffer) {
-        let note = format!(
-            "The case \"{}\" is written to a temporary file, then renamed.",
-            ctx.case.title
-        );
-        render_prompt(&self.0, note, " Save the case as ", theme, area, buf);
-    }
-}
-
-/// Write a report of the results; the format follows the file's extension.
-#[derive(Debug, Clone, PartialEq, Default)]
-pub struct ExportPopup(pub PathPrompt);
-
 const EXPORT_KEYS: &[Binding] = &[
     Binding::line(ANY, "type", "file (.md .html .json)"),
     Binding::line(ANY, "Enter", "write"),
     Binding::line(ANY, "Esc", "cancel"),
 ];
 
-impl Component for ExportPopup {
+impl Component for FilePopup {
     fn on_key(&mut self, key: Key, ctx: &mut Session) -> Handled {
-        if let Some(text) = self.0.key(key, ctx) {
-            ctx.push(Action::Export(PathBuf::from(text)));
+        let Some(text) = self.prompt.key(key, ctx) else {
+            return Handled::Yes;
+        };
+        match self.purpose {
+            FilePurpose::SaveAs if text.is_empty() => {
+                self.prompt.error = Some("type a file name".into())
+            }
+            FilePurpose::SaveAs => ctx.push(Action::SaveTo(PathBuf::from(text))),
+            FilePurpose::Export => ctx.push(Action::Export(PathBuf::from(text))),
         }
         Handled::Yes
     }
 
     fn key_map(&self) -> &'static [Binding] {
-        EXPORT_KEYS
+        match self.purpose {
+            FilePurpose::SaveAs => SAVE_AS_KEYS,
+            FilePurpose::Export => EXPORT_KEYS,
+        }
     }
 
-    fn render(&self, _ctx: &Session, theme: Theme, area: Rect, buf: &mut Buffer) {
-        let note =
-            "Markdown (.md), HTML with plots (.html) or JSON (.json), by the file name.".into();
-        render_prompt(&self.0, note, " Export a report ", theme, area, buf);
+    /// The prompt with one line of explanation under it.
+    fn render(&self, ctx: &Session, theme: Theme, area: Rect, buf: &mut Buffer) {
+        let (note, title) = match self.purpose {
+            FilePurpose::SaveAs => (
+                format!(
+                    "The case \"{}\" is written to a temporary file, then renamed.",
+                    ctx.case.title
+                ),
+                " Save the case as ",
+            ),
+            FilePurpose::Export => (
+                "Markdown (.md), HTML with plots (.html) or JSON (.json), by the file name."
+                    .to_string(),
+                " Export a report ",
+            ),
+        };
+        let prompt = &self.prompt;
+        let mut lines = path_prompt("file: ", &prompt.input, prompt.error.as_deref(), theme);
+        lines.push(Line::from(Span::styled(note, theme.dim())));
+        let rect = centred(area, 64, 6);
+        Clear.render(rect, buf);
+        Paragraph::new(lines)
+            .wrap(Wrap { trim: false })
+            .block(Block::bordered().title(title))
+            .render(rect, buf);
     }
 }

@@ -81,6 +81,10 @@ impl ResultsScreen {
 }
 
 impl Component for ResultsScreen {
+    fn key_map(&self) -> &'static [Binding] {
+        KEYS
+    }
+
     fn on_key(&mut self, key: Key, ctx: &mut Session) -> Handled {
         let (causes, remedies) = ctx
             .latest_diagnosis()
@@ -105,12 +109,61 @@ impl Component for ResultsScreen {
         Handled::Yes
     }
 
-    fn key_map(&self) -> &'static [Binding] {
-        KEYS
-    }
-
     fn render(&self, ctx: &Session, theme: Theme, area: Rect, buf: &mut Buffer) {
-        render(self, ctx, theme, area, buf);
+        let (state, app) = (self, ctx);
+        let Some(outcome) = app.latest_outcome() else {
+            let text = waiting_text(app).unwrap_or_default();
+            Paragraph::new(text)
+                .wrap(Wrap { trim: true })
+                .block(Block::bordered().title(" Results "))
+                .render(area, buf);
+            return;
+        };
+        let plots_height = (area.height.saturating_sub(2) * 9 / 20).max(7);
+        let [summary, plots, lists] = Layout::vertical([
+            Constraint::Length(2),
+            Constraint::Length(plots_height),
+            Constraint::Min(3),
+        ])
+        .areas(area);
+        let mut summary_lines = summary_lines(outcome, app.units, theme);
+        if app.baseline_is_stale() {
+            summary_lines.insert(
+                0,
+                Line::from(Span::styled(
+                    "Out of date: inputs changed since this solve — ^R to solve again.",
+                    theme.warn(),
+                )),
+            );
+        }
+        Paragraph::new(summary_lines)
+            .wrap(Wrap { trim: true })
+            .render(summary, buf);
+        render_plots(
+            &outcome.profile,
+            None,
+            outcome.resolved.core.crush_pressure,
+            app.units,
+            theme,
+            plots,
+            buf,
+        );
+
+        let [causes, remedies] =
+            Layout::horizontal([Constraint::Percentage(50), Constraint::Percentage(50)])
+                .areas(lists);
+        match &outcome.diagnosis {
+            Ok(diagnosis) => {
+                render_causes(state, app, diagnosis, theme, causes, buf);
+                render_remedies(state, diagnosis, theme, remedies, buf);
+            }
+            Err(error) => {
+                Paragraph::new(format!("No diagnosis: {error}"))
+                    .wrap(Wrap { trim: true })
+                    .block(Block::bordered().title(" Ranked causes "))
+                    .render(lists, buf);
+            }
+        }
     }
 }
 
@@ -128,61 +181,6 @@ pub fn waiting_text(app: &Session) -> Option<String> {
             _ => "No results yet: ^R solves the case.".into(),
         }),
         Some(b) => b.result.as_ref().err().map(|e| format!("No results: {e}")),
-    }
-}
-
-fn render(state: &ResultsScreen, app: &Session, theme: Theme, area: Rect, buf: &mut Buffer) {
-    let Some(outcome) = app.latest_outcome() else {
-        let text = waiting_text(app).unwrap_or_default();
-        Paragraph::new(text)
-            .wrap(Wrap { trim: true })
-            .block(Block::bordered().title(" Results "))
-            .render(area, buf);
-        return;
-    };
-    let plots_height = (area.height.saturating_sub(2) * 9 / 20).max(7);
-    let [summary, plots, lists] = Layout::vertical([
-        Constraint::Length(2),
-        Constraint::Length(plots_height),
-        Constraint::Min(3),
-    ])
-    .areas(area);
-    let mut summary_lines = summary_lines(outcome, app.units, theme);
-    if app.baseline_is_stale() {
-        summary_lines.insert(
-            0,
-            Line::from(Span::styled(
-                "Out of date: inputs changed since this solve — ^R to solve again.",
-                theme.warn(),
-            )),
-        );
-    }
-    Paragraph::new(summary_lines)
-        .wrap(Wrap { trim: true })
-        .render(summary, buf);
-    render_plots(
-        &outcome.profile,
-        None,
-        outcome.resolved.core.crush_pressure,
-        app.units,
-        theme,
-        plots,
-        buf,
-    );
-
-    let [causes, remedies] =
-        Layout::horizontal([Constraint::Percentage(50), Constraint::Percentage(50)]).areas(lists);
-    match &outcome.diagnosis {
-        Ok(diagnosis) => {
-            render_causes(state, app, diagnosis, theme, causes, buf);
-            render_remedies(state, diagnosis, theme, remedies, buf);
-        }
-        Err(error) => {
-            Paragraph::new(format!("No diagnosis: {error}"))
-                .wrap(Wrap { trim: true })
-                .block(Block::bordered().title(" Ranked causes "))
-                .render(lists, buf);
-        }
     }
 }
 

@@ -367,6 +367,10 @@ impl WhatIfScreen {
 }
 
 impl Component for WhatIfScreen {
+    fn key_map(&self) -> &'static [Binding] {
+        KEYS
+    }
+
     fn on_key(&mut self, key: Key, ctx: &mut Session) -> Handled {
         let rows = Setting::ALL.len() + ctx.what_if_remedies().len();
         match key {
@@ -400,12 +404,16 @@ impl Component for WhatIfScreen {
         Handled::Yes
     }
 
-    fn key_map(&self) -> &'static [Binding] {
-        KEYS
-    }
-
     fn render(&self, ctx: &Session, theme: Theme, area: Rect, buf: &mut Buffer) {
-        render(self, ctx, theme, area, buf);
+        let (state, app) = (self, ctx);
+        let top_height = (area.height / 2).max(8).min(area.height);
+        let [top, plots] =
+            Layout::vertical([Constraint::Length(top_height), Constraint::Min(0)]).areas(area);
+        let left_width = if area.width >= 110 { 40 } else { 30 };
+        let [choices, compare] =
+            Layout::horizontal([Constraint::Length(left_width), Constraint::Min(10)]).areas(top);
+        render_choices(state, app, theme, choices, buf);
+        render_comparison(state, app, theme, compare, plots, buf);
     }
 }
 
@@ -429,17 +437,6 @@ pub fn design_summary(design: &TaperDesign, units: UnitSystem) -> String {
         ),
         sig3(design.taper_fraction * 100.0)
     )
-}
-
-fn render(state: &WhatIfScreen, app: &Session, theme: Theme, area: Rect, buf: &mut Buffer) {
-    let top_height = (area.height / 2).max(8).min(area.height);
-    let [top, plots] =
-        Layout::vertical([Constraint::Length(top_height), Constraint::Min(0)]).areas(area);
-    let left_width = if area.width >= 110 { 40 } else { 30 };
-    let [choices, compare] =
-        Layout::horizontal([Constraint::Length(left_width), Constraint::Min(10)]).areas(top);
-    render_choices(state, app, theme, choices, buf);
-    render_comparison(state, app, theme, compare, plots, buf);
 }
 
 /// Settings, then remedies that are one setting change.
