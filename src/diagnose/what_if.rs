@@ -14,32 +14,7 @@ use super::rank::{evaluate, rank};
 use super::rules::{Comparison, RuleBase, SettingChange, Test};
 use super::{MergedRemedy, RankedCause, WhatIf};
 use crate::case::ResolvedCase;
-use crate::model::{Resolution, SolverOptions};
-
-/// Elements aimed at by what-if re-solves of large rolls (a comparison needs consistency more
-/// than the last percent of accuracy). The automatic resolution's first grid: coarser elements
-/// make the grouped solve no faster, because its graded region under the surface widens with
-/// the element.
-pub const WHAT_IF_ELEMENTS: usize = crate::model::accretion::AUTO_ELEMENTS;
-
-/// Solver options of the what-if re-solves: the caller's, except that an automatic resolution
-/// of a roll with many layers becomes a fixed grouping of about [`WHAT_IF_ELEMENTS`] elements.
-pub fn what_if_solver(case: &ResolvedCase, options: SolverOptions) -> SolverOptions {
-    if options.resolution != Resolution::Auto || case.web.thickness <= 0.0 {
-        return options;
-    }
-    let build = case.roll.outer_diameter / 2.0 - case.core.outside_diameter / 2.0;
-    let layers = (build / case.web.thickness).round().max(1.0) as usize;
-    if layers <= 4 * WHAT_IF_ELEMENTS {
-        return options;
-    }
-    SolverOptions {
-        resolution: Resolution::Grouped {
-            layers: layers.div_ceil(WHAT_IF_ELEMENTS),
-        },
-        ..options
-    }
-}
+use crate::model::SolverOptions;
 
 /// The indicator tests that raise belief in `cause` under the observed symptoms, each with
 /// whether it holds now and its weight.
@@ -116,11 +91,7 @@ pub struct Before<'a> {
 
 /// Re-solve the case with the remedy's setting changes and report the driving indicator
 /// before and after. `None` for remedies that change no setting.
-pub fn what_if(
-    before: &Before,
-    remedy: &MergedRemedy,
-    options: &super::DiagnoseOptions,
-) -> Option<WhatIf> {
+pub fn what_if(before: &Before, remedy: &MergedRemedy, solver: SolverOptions) -> Option<WhatIf> {
     let changes = &before.rules.remedies.get(&remedy.id)?.changes;
     if changes.is_empty() {
         return None;
@@ -130,7 +101,7 @@ pub fn what_if(
         // Only the rating changes: the stress state is the same, no re-solve needed.
         return Some(rating_only(before, &changed, remedy));
     }
-    let solved = options.solve(&changed.problem(options.solver));
+    let solved = crate::model::solve(&changed.problem(solver));
     what_if_solved(before, remedy, &changed, solved.as_ref())
 }
 

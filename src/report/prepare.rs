@@ -3,9 +3,10 @@
 
 use super::{RemedyComparison, ReportError, ReportInput, ReportMeta};
 use crate::case::{Case, ResolvedCase};
+use crate::diagnose::pipeline::{self, Triage};
 use crate::diagnose::rules::SettingChange;
 use crate::diagnose::what_if::apply_changes;
-use crate::diagnose::{DiagnoseOptions, Diagnosis, diagnose, rules::RuleBase};
+use crate::diagnose::{DiagnoseError, DiagnoseOptions, Diagnosis, rules::RuleBase};
 use crate::model::{Profile, SolverOptions, Taper, solve};
 use crate::units::{QuantityKind, UnitSystem, format_quantity};
 
@@ -38,30 +39,34 @@ pub fn prepare_from_path(
     prepare(&case, rules, &options)
 }
 
-/// Resolve, solve and diagnose `case`; apply the chosen remedy if any.
+/// Resolve, solve and diagnose `case` through the triage pipeline; apply the chosen remedy if
+/// any and re-solve it on the grid the case's own solve used.
 pub fn prepare(
     case: &Case,
     rules: &RuleBase,
     options: &PrepareOptions,
 ) -> Result<ReportInput, ReportError> {
-    let resolved = case.resolve()?;
-    let profile = solve(&resolved.problem(options.solver))?;
-    let diagnosis = diagnose(
-        rules,
-        &resolved,
-        &profile,
-        &DiagnoseOptions {
-            top: 0,
-            what_if: options.what_if,
-            solver: options.solver,
-            ..DiagnoseOptions::default()
-        },
-    )?;
+    let diagnose_options = DiagnoseOptions {
+        top: 0,
+        what_if: options.what_if,
+        solver: options.solver,
+    };
+    let Triage {
+        resolved,
+        profile,
+        diagnosis,
+    } = pipeline::triage(rules, case.into(), &diagnose_options, &mut |_| true)
+        .map_err(report_error)?;
+    let diagnosis = diagnosis.map_err(report_error)?;
+    let same_grid = SolverOptions {
+        resolution: profile.solver.grid.resolution(),
+        ..options.solver
+    };
     let remedy = match &options.remedy {
         None => None,
         Some(id) => {
             let (after_case, change) = apply_remedy(rules, &resolved, id, options.units)?;
-            let after = solve(&after_case.problem(options.solver))?;
+            let after = solve(&after_case.problem(same_grid))?;
             Some(comparison(&diagnosis, id, change, after_case, after))
         }
     };
@@ -129,6 +134,15 @@ pub fn comparison(
         change,
         after_case,
         after,
+    }
+}
+
+/// A pipeline error as the report's own: case and model errors keep their kind.
+fn report_error(error: DiagnoseError) -> ReportError {
+    match error {
+        DiagnoseError::Case(e) => ReportError::Case(*e),
+        DiagnoseError::Model(e) => ReportError::Model(e),
+        e => ReportError::Diagnose(e),
     }
 }
 
