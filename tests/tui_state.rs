@@ -815,3 +815,13 @@ fn stack_calibration_reports_bad_files_in_the_popup() {
     assert!(!app.session.dirty);
     assert!(app.session.case.web.radial_stiffness.is_none());
 }
+
+#[test]
+fn esc_run_together_with_a_letter_is_esc_then_the_letter() {
+    // Terminals send Esc then "c" as Alt-c when they arrive together (a busy machine): the
+    // search must be cleared, then "c" typed, not "c" added to the old search.
+    let mut app = app();
+    type_text(&mut app, "telesc");
+    app.handle_event(rolltriage::tui::event::Event::Key(Key::Alt('c')));
+    assert_eq!(app.symptoms.query, "c");
+}

@@ -238,6 +238,10 @@ impl App {
 
     pub fn handle_event(&mut self, event: Event) {
         match event {
+            Event::Key(Key::Alt(c)) => {
+                self.handle_key(Key::Esc);
+                self.handle_key(Key::Char(c));
+            }
             Event::Key(key) => self.handle_key(key),
             Event::Mouse(Mouse::ScrollUp) => self.handle_key(Key::Up),
             Event::Mouse(Mouse::ScrollDown) => self.handle_key(Key::Down),
