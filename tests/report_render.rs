@@ -193,6 +193,7 @@ fn fixture(with_remedy: bool) -> ReportInput {
                     before: "4.1 kPa".into(),
                     after: "11.8 kPa".into(),
                     worse: false,
+                    small_effect: false,
                     note: "More pressure in the body holds the layers.".into(),
                 }),
             },

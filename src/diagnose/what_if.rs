@@ -18,7 +18,7 @@ use crate::model::SolverOptions;
 
 /// The indicator tests that raise belief in `cause` under the observed symptoms, each with
 /// whether it holds now and its weight.
-fn driving_tests<'a>(
+pub(crate) fn driving_tests<'a>(
     rules: &'a RuleBase,
     symptoms: &[String],
     cause: &str,
@@ -78,6 +78,46 @@ fn pick_driver<'a>(
     })
 }
 
+/// The indicator test that decides `cause` in this case: of the indicator tests that raise it,
+/// the strongest that holds now (ties: the first in the rule base). `None` when no indicator
+/// test holds: the cause then rests on answers or priors, which no setting change moves.
+pub(crate) fn deciding_test<'a>(
+    rules: &'a RuleBase,
+    symptoms: &[String],
+    cause: &str,
+    case: &ResolvedCase,
+    indicators: &Indicators,
+) -> Option<&'a Test> {
+    let mut best: Option<(&Test, f64)> = None;
+    for (test, holds, weight) in driving_tests(rules, symptoms, cause, case, indicators) {
+        if holds && best.is_none_or(|(_, w)| weight > w) {
+            best = Some((test, weight));
+        }
+    }
+    best.map(|(t, _)| t)
+}
+
+/// How far a change moves the indicator of `test` toward its good side, as a share of its value
+/// before (positive = better: lower for an "above" test, higher for a "below" test). `None` when
+/// the indicator is missing before or after.
+pub(crate) fn gain(test: &Test, before: &Indicators, after: &Indicators) -> Option<f64> {
+    let Test::Indicator {
+        id,
+        zone,
+        comparison,
+        ..
+    } = test
+    else {
+        return None;
+    };
+    let (b, a) = (before.get(id, *zone)?, after.get(id, *zone)?);
+    let scale = b.abs().max(1e-30);
+    Some(match comparison {
+        Comparison::Above => (b - a) / scale,
+        Comparison::Below => (a - b) / scale,
+    })
+}
+
 /// The case as it stands, which every what-if compares against.
 #[derive(Debug, Clone, Copy)]
 pub struct Before<'a> {
@@ -119,6 +159,18 @@ pub fn what_if_solved(
     changed: &ResolvedCase,
     solved: Result<&crate::model::Profile, &crate::model::ModelError>,
 ) -> Option<WhatIf> {
+    let after = solved.map(|p| Indicators::compute(changed, p));
+    what_if_after(before, remedy, changed, after.as_ref().map_err(|e| *e))
+}
+
+/// The what-if of a remedy whose changed case `changed` is solved and its indicators computed
+/// (`after`), or whose solve failed.
+pub fn what_if_after(
+    before: &Before,
+    remedy: &MergedRemedy,
+    changed: &ResolvedCase,
+    after: Result<&Indicators, &crate::model::ModelError>,
+) -> Option<WhatIf> {
     let Before {
         rules,
         symptoms,
@@ -132,6 +184,7 @@ pub fn what_if_solved(
         before: String::new(),
         after: String::new(),
         worse: false,
+        small_effect: false,
         note,
     };
     if changed == case {
@@ -139,16 +192,15 @@ pub fn what_if_solved(
             "the setting change does not apply to this case (nothing to change)".into(),
         ));
     }
-    let profile = match solved {
-        Ok(p) => p,
+    let after_indicators = match after {
+        Ok(a) => a,
         Err(e) => {
             return Some(note_only(format!(
                 "could not re-solve with the change: {e}"
             )));
         }
     };
-    let after_indicators = Indicators::compute(changed, profile);
-    let after_causes = rank(rules, symptoms, changed, &after_indicators);
+    let after_causes = rank(rules, symptoms, changed, after_indicators);
     let belief = |list: &[RankedCause], id: &str| {
         list.iter()
             .find(|c| c.id == id)
@@ -177,8 +229,8 @@ pub fn what_if_solved(
         }
     }
     let candidates = driving_tests(rules, symptoms, primary, case, indicators);
-    let driver = pick_driver(&candidates, indicators, &after_indicators).and_then(|test| {
-        compare_driver(test, indicators, &after_indicators, &mut notes, &mut worse)
+    let driver = pick_driver(&candidates, indicators, after_indicators).and_then(|test| {
+        compare_driver(test, indicators, after_indicators, &mut notes, &mut worse)
     });
     let (indicator, before_text, after_text) = driver.unwrap_or_else(|| {
         (
@@ -192,6 +244,7 @@ pub fn what_if_solved(
         before: before_text,
         after: after_text,
         worse,
+        small_effect: false,
         note: notes.join("; "),
     })
 }
@@ -280,6 +333,7 @@ fn rating_only(before: &Before, changed: &ResolvedCase, remedy: &MergedRemedy) -
             .map(|v| format_value(v, dimension))
             .unwrap_or_default(),
         worse: false,
+        small_effect: false,
         note: format!(
             "rated crush pressure {} → {} for remedy {}",
             format_value(

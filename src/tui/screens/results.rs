@@ -470,8 +470,15 @@ fn render_remedies(
         if let Some(what_if) = &remedy.what_if {
             lines.push(Line::from(Span::styled(
                 format!(
-                    "    {}: {} → {}",
-                    what_if.indicator, what_if.before, what_if.after
+                    "    {}: {} → {}{}",
+                    what_if.indicator,
+                    what_if.before,
+                    what_if.after,
+                    if what_if.small_effect {
+                        " (predicted to do little)"
+                    } else {
+                        ""
+                    }
                 ),
                 if what_if.worse {
                     theme.error()
