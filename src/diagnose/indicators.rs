@@ -63,6 +63,26 @@ pub struct IndicatorSpec {
     pub meaning: &'static str,
 }
 
+/// The indicators read straight from the case's inputs (settings and web data), not from the
+/// solved stress state: a remedy that changes a setting moves them by construction, so the
+/// what-if judges a remedy's effect on the others first.
+pub const INPUT_INDICATORS: &[&str] = &[
+    "speed",
+    "web_tension",
+    "web_stress",
+    "winding_strain",
+    "tension_strength_share",
+    "nip_load",
+    "nip_to_tension",
+    "nip_wit_share",
+    "taper",
+    "temperature",
+    "thickness",
+    "roll_diameter",
+    "friction",
+    "build_ratio",
+];
+
 /// Pressure below which a layer counts as loosely held (20 kPa ≈ 3 psi): an order of magnitude
 /// for the interlayer pressure below which layers slide under handling loads — `common practice`,
 /// value `(from memory)`.

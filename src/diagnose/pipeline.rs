@@ -224,12 +224,7 @@ impl WhatIfContext<'_> {
                         .position(|d| *d == c)
                         .map_or(Ok(&unchanged), |i| solved[i].as_ref());
                     remedy.what_if = what_if::what_if_after(&self.before, remedy, c, result);
-                    after.push(
-                        result
-                            .ok()
-                            .filter(|_| c != self.before.case)
-                            .cloned(),
-                    );
+                    after.push(result.ok().filter(|_| c != self.before.case).cloned());
                 }
             }
         }

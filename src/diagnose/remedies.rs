@@ -101,7 +101,12 @@ pub fn order_by_effect(
     } = *before;
     let mut slots: Vec<(MergedRemedy, Option<&Indicators>)> = remedies
         .drain(..)
-        .zip(after.iter().map(Option::as_ref).chain(std::iter::repeat(None)))
+        .zip(
+            after
+                .iter()
+                .map(Option::as_ref)
+                .chain(std::iter::repeat(None)),
+        )
         .collect();
     // The likely causes with the indicator test that decides each.
     let deciding: Vec<(&RankedCause, Option<&Test>)> = causes
@@ -191,10 +196,8 @@ fn test_holds(test: &Test, indicators: &Indicators) -> bool {
     else {
         return false;
     };
-    indicators
-        .get(id, *zone)
-        .is_some_and(|v| match comparison {
-            Comparison::Above => v > *threshold,
-            Comparison::Below => v < *threshold,
-        })
+    indicators.get(id, *zone).is_some_and(|v| match comparison {
+        Comparison::Above => v > *threshold,
+        Comparison::Below => v < *threshold,
+    })
 }

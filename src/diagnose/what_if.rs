@@ -9,7 +9,7 @@ pub use apply::{
     keep_changes, trial_case, write_into_case,
 };
 
-use super::indicators::{Indicators, format_value, indicator_spec};
+use super::indicators::{INPUT_INDICATORS, Indicators, format_value, indicator_spec};
 use super::rank::{evaluate, rank};
 use super::rules::{Comparison, RuleBase, SettingChange, Test};
 use super::{MergedRemedy, RankedCause, WhatIf};
@@ -57,10 +57,17 @@ fn pick_driver<'a>(
             _ => 0.0,
         }
     };
-    let best = |only_holding: bool| {
+    // A remedy's own setting moves its input indicator by construction: show the stress state
+    // first (see `deciding_test`).
+    let from_profile = |t: &Test| match t {
+        Test::Indicator { id, .. } => !INPUT_INDICATORS.contains(&id.as_str()),
+        _ => false,
+    };
+    let best = |only_holding: bool, only_profile: bool| {
         candidates
             .iter()
             .filter(|(_, holds, _)| !only_holding || *holds)
+            .filter(|(t, _, _)| !only_profile || from_profile(t))
             .filter(|(t, _, _)| change(t) > 1e-3)
             .max_by(|a, b| {
                 change(a.0)
@@ -69,17 +76,23 @@ fn pick_driver<'a>(
             })
             .map(|(t, _, _)| *t)
     };
-    best(true).or_else(|| best(false)).or_else(|| {
-        // Nothing moves: show the strongest holding test (or the strongest at all).
-        candidates
-            .iter()
-            .max_by(|a, b| a.1.cmp(&b.1).then(a.2.total_cmp(&b.2)))
-            .map(|(t, _, _)| *t)
-    })
+    best(true, true)
+        .or_else(|| best(false, true))
+        .or_else(|| best(true, false))
+        .or_else(|| best(false, false))
+        .or_else(|| {
+            // Nothing moves: show the strongest holding test (or the strongest at all).
+            candidates
+                .iter()
+                .max_by(|a, b| a.1.cmp(&b.1).then(a.2.total_cmp(&b.2)))
+                .map(|(t, _, _)| *t)
+        })
 }
 
-/// The indicator test that decides `cause` in this case: of the indicator tests that raise it,
-/// the strongest that holds now (ties: the first in the rule base). `None` when no indicator
+/// The indicator test that decides `cause` in this case: of the indicator tests that raise it
+/// and hold now, the strongest on the solved stress state, else the strongest on the case's
+/// inputs (a setting a remedy changes moves its own input indicator by construction, so the
+/// stress state judges first); ties go to the first in the rule base. `None` when no indicator
 /// test holds: the cause then rests on answers or priors, which no setting change moves.
 pub(crate) fn deciding_test<'a>(
     rules: &'a RuleBase,
@@ -88,10 +101,15 @@ pub(crate) fn deciding_test<'a>(
     case: &ResolvedCase,
     indicators: &Indicators,
 ) -> Option<&'a Test> {
-    let mut best: Option<(&Test, f64)> = None;
+    let from_profile = |t: &Test| match t {
+        Test::Indicator { id, .. } => !INPUT_INDICATORS.contains(&id.as_str()),
+        _ => false,
+    };
+    let mut best: Option<(&Test, (bool, f64))> = None;
     for (test, holds, weight) in driving_tests(rules, symptoms, cause, case, indicators) {
-        if holds && best.is_none_or(|(_, w)| weight > w) {
-            best = Some((test, weight));
+        let key = (from_profile(test), weight);
+        if holds && best.is_none_or(|(_, k)| key.0 > k.0 || (key.0 == k.0 && key.1 > k.1)) {
+            best = Some((test, key));
         }
     }
     best.map(|(t, _)| t)
