@@ -82,6 +82,8 @@ struct Settings {
     acceleration_time: Option<f64>,
     core_modulus: Option<f64>,
     core_crush: Option<f64>,
+    /// The usual (recipe) tension the case states, N/m.
+    recipe_tension: Option<f64>,
 }
 
 fn table() -> Table {
@@ -148,6 +150,9 @@ fn build(s: &Scenario) -> ResolvedCase {
             "centre_surface" => WindingMethod::CentreSurface,
             other => panic!("{}: unknown method {other}", s.name),
         };
+    }
+    if let Some(t) = set.recipe_tension {
+        case.winding.recipe_tension = Some(t);
     }
     if let Some(t) = set.acceleration_time {
         case.winding.acceleration_time = Some(t);

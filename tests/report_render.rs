@@ -125,6 +125,7 @@ fn fixture(with_remedy: bool) -> ReportInput {
             speed: 15.0,
             temperature: None,
             acceleration_time: None,
+            recipe_tension: None,
         },
         symptoms: case.symptoms.clone(),
         answers,

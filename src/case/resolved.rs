@@ -76,6 +76,9 @@ pub struct ResolvedWinding {
     pub temperature: Option<f64>,
     /// s
     pub acceleration_time: Option<f64>,
+    /// N/m: the tension this grade usually runs at (recipe value), when the case states it.
+    #[serde(default)]
+    pub recipe_tension: Option<f64>,
 }
 
 /// One value that was not in the case file.

@@ -72,6 +72,8 @@ pub const INPUT_INDICATORS: &[&str] = &[
     "web_stress",
     "winding_strain",
     "tension_strength_share",
+    "tension_to_usual",
+    "tension_to_recipe",
     "nip_load",
     "nip_to_tension",
     "nip_wit_share",
@@ -260,6 +262,18 @@ pub const INDICATORS: &[IndicatorSpec] = &[
         Dimension::Fraction,
         ZoneUse::None,
         "share of the wound-in tension that comes from the nip (friction × nip load), 0 without a nip",
+    ),
+    spec(
+        "tension_to_usual",
+        Dimension::Ratio,
+        ZoneUse::None,
+        "web tension divided by the usual tension for this web: the case's recipe value, else the grade's typical winding stress × caliper (1 = usual)",
+    ),
+    spec(
+        "tension_to_recipe",
+        Dimension::Ratio,
+        ZoneUse::None,
+        "web tension divided by the recipe tension the case states (absent when not stated)",
     ),
     spec(
         "tension_strength_share",
@@ -451,6 +465,14 @@ impl Indicators {
         }
         if case.web.strength > 0.0 {
             self.set("tension_strength_share", None, tension / case.web.strength);
+        }
+        if let Some((usual, _)) = crate::usual_tension::usual_tension(case)
+            && usual > 0.0
+        {
+            self.set("tension_to_usual", None, tension / usual);
+        }
+        if let Some(recipe) = case.winding.recipe_tension.filter(|t| *t > 0.0) {
+            self.set("tension_to_recipe", None, tension / recipe);
         }
         let nip = case.winding.nip_load.unwrap_or(0.0);
         self.set("nip_load", None, nip);

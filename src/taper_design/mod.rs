@@ -1300,6 +1300,7 @@ mod tests {
                 speed: 1.0,
                 temperature: None,
                 acceleration_time: None,
+                recipe_tension: None,
             },
             symptoms: vec![],
             answers: Default::default(),

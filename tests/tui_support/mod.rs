@@ -117,6 +117,7 @@ pub fn resolved(title: &str) -> ResolvedCase {
             speed: 10.0,
             temperature: None,
             acceleration_time: None,
+            recipe_tension: None,
         },
         symptoms: vec![],
         answers: BTreeMap::new(),

@@ -261,6 +261,16 @@ impl Resolver {
             Some(t) => Some(self.check(reg::ACCELERATION.path, t, &reg::ACCELERATION.range())?),
             None => None,
         };
+        let recipe_tension = match self.quantity(
+            reg::RECIPE_TENSION.path,
+            winding.recipe_tension.as_ref(),
+            QuantityKind::ForcePerWidth,
+        )? {
+            Some(t) => {
+                Some(self.check(reg::RECIPE_TENSION.path, t, &reg::RECIPE_TENSION.range())?)
+            }
+            None => None,
+        };
         Ok(ResolvedWinding {
             method,
             tension: TensionSchedule {
@@ -272,6 +282,7 @@ impl Resolver {
             speed,
             temperature,
             acceleration_time,
+            recipe_tension,
         })
     }
 
