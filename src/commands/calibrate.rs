@@ -102,6 +102,7 @@ fn run_stack(args: &StackArgs) -> anyhow::Result<()> {
         ..FitOptions::default()
     };
     let fit = calibrate::fit_pfeiffer(&test, &options)?;
+    rolltriage::finite::ensure_finite(&format!("the stack fit of {origin}"), &fit)?;
 
     if args.json {
         let value = serde_json::json!({
@@ -110,9 +111,9 @@ fn run_stack(args: &StackArgs) -> anyhow::Result<()> {
             "caliper_m": test.caliper(),
             "notes": test.notes,
         });
-        println!("{}", serde_json::to_string_pretty(&value)?);
+        super::output::write_stdout(&(serde_json::to_string_pretty(&value)? + "\n"))?;
     } else {
-        print!("{}", render_fit(&test, &fit, args.units));
+        super::output::write_stdout(&render_fit(&test, &fit, args.units))?;
     }
 
     if let Some(path) = &args.write_case {

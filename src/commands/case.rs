@@ -98,7 +98,7 @@ fn new(args: &NewArgs) -> anyhow::Result<()> {
         .and_then(|c| c.resolve_as("starting case"))
         .context("internal error: the starting case does not check")?;
     match &args.output {
-        None => std::io::stdout().lock().write_all(text.as_bytes())?,
+        None => super::output::write_stdout(&text)?,
         Some(path) => {
             if path.exists() && !args.force {
                 bail!(

@@ -85,22 +85,18 @@ pub fn run(args: &DiagnoseArgs) -> anyhow::Result<()> {
         what_if: !args.no_what_if,
         ..DiagnoseOptions::default()
     };
-    let (_profile, diagnosis) = diagnose::triage(&rules, &resolved, &options)
+    let (profile, diagnosis) = diagnose::triage(&rules, &resolved, &options)
         .with_context(|| format!("diagnosing {}", args.case.display()))?;
+    // A non-finite pressure would silently drop its evidence from the ranking.
+    let what = format!("the stress profile of {}", args.case.display());
+    rolltriage::finite::ensure_finite(&what, &profile)?;
+    let what = format!("the diagnosis of {}", args.case.display());
+    rolltriage::finite::ensure_finite(&what, &diagnosis)?;
     let text = match args.format {
         Format::Text => diagnose::render::render_text(&resolved.title, &diagnosis),
         Format::Markdown => diagnose::render::render_markdown(&resolved.title, &diagnosis),
         Format::Json => serde_json::to_string_pretty(&diagnosis)? + "\n",
     };
-    write_stdout(&text)
+    super::output::write_stdout(&text)
 }
 
-/// Write to standard output; a closed pipe (`| head`) is not an error.
-pub fn write_stdout(text: &str) -> anyhow::Result<()> {
-    use std::io::Write;
-    let mut out = std::io::stdout().lock();
-    match out.write_all(text.as_bytes()).and_then(|()| out.flush()) {
-        Err(e) if e.kind() == std::io::ErrorKind::BrokenPipe => Ok(()),
-        other => Ok(other.context("writing to standard output")?),
-    }
-}

@@ -94,9 +94,16 @@ pub fn run(args: &ReportArgs) -> anyhow::Result<()> {
     };
     let input = prepare_from_path(&args.case, &rules, &options)
         .with_context(|| format!("preparing the report for {}", args.case.display()))?;
+    let case = args.case.display();
+    rolltriage::finite::ensure_finite(&format!("the stress profile of {case}"), &input.profile)?;
+    rolltriage::finite::ensure_finite(&format!("the diagnosis of {case}"), &input.diagnosis)?;
+    if let Some(remedy) = &input.remedy {
+        let what = format!("the re-solved roll of {case} with {}", remedy.remedy_id);
+        rolltriage::finite::ensure_finite(&what, &remedy.after)?;
+    }
     let text = render(&input, format).context("rendering the report")?;
     if to_stdout {
-        print!("{text}");
+        super::output::write_stdout(&text)?;
     } else {
         rolltriage::fsutil::save_atomic(&args.output, text.as_bytes())
             .with_context(|| format!("saving the report to {}", args.output.display()))?;

@@ -1,7 +1,7 @@
 //! `rolltriage stress`: compute the stress state inside the wound roll of a case file and print
 //! its summary (table) or its full profile (JSON, CSV).
 
-use std::io::{IsTerminal, Write};
+use std::io::IsTerminal;
 use std::path::PathBuf;
 
 use anyhow::{Context, bail};
@@ -109,6 +109,10 @@ pub fn run(args: &StressArgs) -> anyhow::Result<()> {
     let problem = resolved.problem(options);
     let profile = solve_showing_progress(&problem)
         .with_context(|| format!("solving the roll of {}", args.case.display()))?;
+    rolltriage::finite::ensure_finite(
+        &format!("the stress profile of {}", args.case.display()),
+        &profile,
+    )?;
     let system = match args.units {
         Units::Si => UnitSystem::Si,
         Units::Us => UnitSystem::Us,
@@ -142,10 +146,7 @@ pub fn run(args: &StressArgs) -> anyhow::Result<()> {
     match &args.out {
         Some(path) => rolltriage::fsutil::save_atomic(path, text.as_bytes())
             .with_context(|| format!("saving {}", path.display()))?,
-        None => {
-            let mut out = std::io::stdout().lock();
-            out.write_all(text.as_bytes())?;
-        }
+        None => super::output::write_stdout(&text)?,
     }
     Ok(())
 }

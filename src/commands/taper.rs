@@ -85,6 +85,8 @@ pub fn run(args: &TaperArgs) -> anyhow::Result<()> {
     };
     let design = taper_design::design_with(&resolved, &limits, &options)
         .with_context(|| format!("taper design for {}", args.case.display()))?;
+    let what = format!("the taper design for {}", args.case.display());
+    rolltriage::finite::ensure_finite(&what, &design)?;
     let system = match args.units {
         UnitsArg::Si => UnitSystem::Si,
         UnitsArg::Us => UnitSystem::Us,
@@ -109,9 +111,9 @@ pub fn run(args: &TaperArgs) -> anyhow::Result<()> {
             "before_profile": plot_series(&design.before.profile),
             "after_profile": plot_series(&design.after.profile),
         });
-        println!("{}", serde_json::to_string_pretty(&value)?);
+        super::output::write_stdout(&(serde_json::to_string_pretty(&value)? + "\n"))?;
     } else {
-        print!("{}", render(&resolved.title, &design, system));
+        super::output::write_stdout(&render(&resolved.title, &design, system))?;
     }
     if !design.feasible {
         anyhow::bail!(
