@@ -10,7 +10,7 @@ use serde::Serialize;
 /// A result held a value that is not a finite number.
 #[derive(Debug, Clone, PartialEq, thiserror::Error)]
 #[error(
-    "{what}: {field} could not be computed (the arithmetic gave {value}); the inputs are outside what the model can handle — check the values that feed it"
+    "{what}: {field} could not be computed (the arithmetic gave {value}); the inputs are outside what the model can handle: {hint}"
 )]
 pub struct NonFinite {
     /// What was being produced ("the stress profile", "the stack fit").
@@ -19,6 +19,21 @@ pub struct NonFinite {
     pub field: String,
     /// "NaN", "infinity" or "-infinity".
     pub value: String,
+    /// Which inputs feed the value, in plain words.
+    pub hint: &'static str,
+}
+
+/// The inputs that feed a result field, for the message.
+fn hint(field: &str) -> &'static str {
+    if field.contains("air_film") {
+        "the air film needs a tension above zero on every wrap and web.roughness above zero"
+    } else if field.contains("k1") || field.contains("k2") || field.contains("r_squared") {
+        "the stack data span a range of pressures the fit cannot handle in double precision; check the pressure unit in the header"
+    } else if field.contains("tension") {
+        "check winding.tension, its taper and the upsets"
+    } else {
+        "check web.radial_stiffness, the core stiffness (core section) and winding.tension"
+    }
 }
 
 /// Refuse `value` when any number in it is NaN or infinite. `what` names the result in the
@@ -34,6 +49,7 @@ pub fn ensure_finite<T: Serialize + ?Sized>(what: &str, value: &T) -> Result<(),
         None => Ok(()),
         Some((field, number)) => Err(NonFinite {
             what: what.to_string(),
+            hint: hint(&field),
             field: if field.is_empty() {
                 "the value".to_string()
             } else {

@@ -136,7 +136,7 @@ fn unknown_preset_message(what: &str, id: &str, suggestion: Option<&str>) -> Str
 }
 
 fn check(args: &CheckArgs) -> anyhow::Result<()> {
-    let mut out = std::io::stdout().lock();
+    let mut out = super::output::stdout();
     let mut failed = 0usize;
     for path in &args.files {
         match Case::load_resolved(path) {
@@ -171,7 +171,7 @@ fn check(args: &CheckArgs) -> anyhow::Result<()> {
 }
 
 fn list_presets(args: &PresetsArgs) -> anyhow::Result<()> {
-    let mut out = std::io::stdout().lock();
+    let mut out = super::output::stdout();
     if args.json {
         let all = serde_json::json!({
             "units": "SI (m, Pa, N/m)",
@@ -185,7 +185,7 @@ fn list_presets(args: &PresetsArgs) -> anyhow::Result<()> {
         UnitsArg::Si => UnitSystem::Si,
         UnitsArg::Us => UnitSystem::Us,
     };
-    let show = |out: &mut std::io::StdoutLock<'_>,
+    let show = |out: &mut super::output::Stdout,
                 label: &str,
                 value: Sourced,
                 kind: Option<QuantityKind>|

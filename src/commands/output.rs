@@ -21,3 +21,30 @@ pub fn write_bytes(bytes: &[u8]) -> anyhow::Result<()> {
         other => other.context("cannot write to standard output"),
     }
 }
+
+/// A locked standard output for commands that print line by line: its errors say that
+/// standard output could not be written (a closed pipe keeps its `BrokenPipe` kind, which
+/// `main` turns into a quiet exit 0).
+pub fn stdout() -> Stdout {
+    Stdout(std::io::stdout().lock())
+}
+
+/// See [`stdout`].
+pub struct Stdout(std::io::StdoutLock<'static>);
+
+fn with_context(error: std::io::Error) -> std::io::Error {
+    std::io::Error::new(
+        error.kind(),
+        format!("cannot write to standard output: {error}"),
+    )
+}
+
+impl Write for Stdout {
+    fn write(&mut self, bytes: &[u8]) -> std::io::Result<usize> {
+        self.0.write(bytes).map_err(with_context)
+    }
+
+    fn flush(&mut self) -> std::io::Result<()> {
+        self.0.flush().map_err(with_context)
+    }
+}

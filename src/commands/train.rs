@@ -116,8 +116,7 @@ fn run_inner(args: &TrainArgs) -> anyhow::Result<()> {
     let rules = RuleBase::embedded().ok();
     let context = TrainingContext::compute(case, rules.as_ref(), unit_system);
     let mut session = Session::new(loaded.walkthrough.clone(), context);
-    let stdout = std::io::stdout();
-    let mut out = stdout.lock();
+    let mut out = super::output::stdout();
     writeln!(out, "{}", session.briefing())?;
     let count = session.walkthrough.questions.len();
     match &args.answers {
@@ -170,6 +169,7 @@ fn run_inner(args: &TrainArgs) -> anyhow::Result<()> {
         }
     }
     write!(out, "{}", session.closing())?;
+    out.flush()?;
     Ok(())
 }
 
