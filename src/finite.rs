@@ -128,7 +128,11 @@ mod tests {
         let error = ensure_finite("the fit", &fit).unwrap_err();
         assert_eq!(error.field, "errors[1]");
         assert_eq!(error.value, "NaN");
-        assert!(error.to_string().starts_with("the fit: errors[1] could not"));
+        assert!(
+            error
+                .to_string()
+                .starts_with("the fit: errors[1] could not")
+        );
         let error = ensure_finite("x", &[f64::NEG_INFINITY]).unwrap_err();
         assert_eq!(error.value, "-infinity");
     }

@@ -143,15 +143,7 @@ fn non_finite_roll_results_are_refused_with_the_field_named() {
             vec!["stress", p],
             vec!["stress", p, "--format", "json"],
             vec!["diagnose", p, "--format", "json", "--no-what-if"],
-            vec![
-                "report",
-                p,
-                "-o",
-                "-",
-                "--format",
-                "json",
-                "--no-what-if",
-            ],
+            vec!["report", p, "-o", "-", "--format", "json", "--no-what-if"],
         ] {
             refused_plainly(&args, &path);
         }

@@ -66,8 +66,9 @@ fn bad_options_are_refused() {
         ])
         .output()
         .unwrap();
-    assert_eq!(out.status.code(), Some(1));
-    assert!(String::from_utf8_lossy(&out.stderr).contains("core_share"));
+    // A bad option value is a usage error (exit 2), like an unknown option.
+    assert_eq!(out.status.code(), Some(2));
+    assert!(String::from_utf8_lossy(&out.stderr).contains("--core-share"));
     let out = bin()
         .args([
             "taper",
@@ -77,7 +78,7 @@ fn bad_options_are_refused() {
         ])
         .output()
         .unwrap();
-    assert_eq!(out.status.code(), Some(1));
+    assert_eq!(out.status.code(), Some(2));
     assert!(String::from_utf8_lossy(&out.stderr).contains("--min-outer-pressure"));
 }
 

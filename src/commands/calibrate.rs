@@ -30,10 +30,10 @@ pub struct StackArgs {
     /// The stack test CSV.
     pub data: PathBuf,
     /// Initial stack height, e.g. "25.4 mm" (overrides the file's "# initial_height:").
-    #[arg(long, value_name = "LENGTH")]
+    #[arg(long, value_name = "LENGTH", value_parser = super::arg_check::length)]
     pub initial_height: Option<String>,
     /// Number of layers in the stack (overrides the file's "# layers:").
-    #[arg(long, value_name = "N")]
+    #[arg(long, value_name = "N", value_parser = super::arg_check::count)]
     pub layers: Option<usize>,
     /// Residual weighting: relative (each residual as a share of its pressure; every decade
     /// counts alike) or absolute (plain pressure; the high-pressure rows dominate).

@@ -28,7 +28,7 @@ pub struct DiagnoseArgs {
     #[arg(long = "symptom", value_name = "ID")]
     pub symptoms: Vec<String>,
     /// Answer a symptom question, e.g. `starring.after_splice=yes`; repeatable.
-    #[arg(long = "answer", value_name = "QUESTION=VALUE")]
+    #[arg(long = "answer", value_name = "QUESTION=VALUE", value_parser = super::arg_check::answer)]
     pub answers: Vec<String>,
     /// Use the rule base in DIR instead of the shipped one.
     #[arg(long = "rules", value_name = "DIR")]
@@ -99,4 +99,3 @@ pub fn run(args: &DiagnoseArgs) -> anyhow::Result<()> {
     };
     super::output::write_stdout(&text)
 }
-

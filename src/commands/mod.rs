@@ -1,6 +1,7 @@
 //! One module per subcommand: its clap options and its `run` function. Errors are reported by
 //! `main` with context.
 
+pub mod arg_check;
 pub mod calibrate;
 pub mod case;
 pub mod diagnose;

@@ -58,7 +58,7 @@ pub struct StressArgs {
     #[arg(long, value_name = "FILE")]
     pub out: Option<PathBuf>,
     /// auto, per-layer, or grouped:K (K wraps per element).
-    #[arg(long, value_name = "MODE", default_value = "auto")]
+    #[arg(long, value_name = "MODE", default_value = "auto", value_parser = super::arg_check::resolution)]
     pub resolution: String,
     /// How the radial modulus is taken over each increment.
     #[arg(long, value_enum, default_value_t = ModulusChoice::Secant)]

@@ -12,26 +12,26 @@ pub struct TaperArgs {
     /// The case file (web, core, roll, current winding settings).
     pub case: PathBuf,
     /// Largest share of the core's rated crush pressure the core may carry.
-    #[arg(long, default_value_t = taper_design::DEFAULT_CORE_SHARE, value_name = "SHARE")]
+    #[arg(long, default_value_t = taper_design::DEFAULT_CORE_SHARE, value_name = "SHARE", value_parser = super::arg_check::core_share)]
     pub core_share: f64,
     /// Lowest pressure allowed in the outer zone (telescoping), e.g. "14 kPa" or "2 psi".
     /// Default 14 kPa: our choice, common practice (see docs/taper-design.md).
-    #[arg(long, value_name = "PRESSURE")]
+    #[arg(long, value_name = "PRESSURE", value_parser = super::arg_check::pressure)]
     pub min_outer_pressure: Option<String>,
     /// Share of the peak pressure below which a compressive band counts as starring risk.
-    #[arg(long, default_value_t = taper_design::DEFAULT_STARRING_PRESSURE_SHARE, value_name = "SHARE")]
+    #[arg(long, default_value_t = taper_design::DEFAULT_STARRING_PRESSURE_SHARE, value_name = "SHARE", value_parser = super::arg_check::starring_share)]
     pub starring_share: f64,
     /// Largest wound-in tension as a share of the web's tensile strength.
-    #[arg(long, default_value_t = taper_design::DEFAULT_TENSION_SHARE, value_name = "SHARE")]
+    #[arg(long, default_value_t = taper_design::DEFAULT_TENSION_SHARE, value_name = "SHARE", value_parser = super::arg_check::tension_share)]
     pub tension_share: f64,
     /// Taper shape.
     #[arg(long, value_enum, default_value_t = KindArg::Linear)]
     pub kind: KindArg,
     /// Wind the taper in this many equal-build steps (for winders with stepped tension).
-    #[arg(long, value_name = "N")]
+    #[arg(long, value_name = "N", value_parser = super::arg_check::count)]
     pub steps: Option<usize>,
     /// Largest taper searched, e.g. "60 %" (default 80 % linear, 100 % hyperbolic).
-    #[arg(long, value_name = "PERCENT")]
+    #[arg(long, value_name = "PERCENT", value_parser = super::arg_check::percent)]
     pub max_taper: Option<String>,
     /// Units to print in (both are always shown in the operator table).
     #[arg(long, value_enum, default_value_t = UnitsArg::Si)]

@@ -34,7 +34,7 @@ pub struct TrainArgs {
     #[arg(long, value_name = "DIR")]
     pub dir: Option<PathBuf>,
     /// Print quantities in SI (default) or US trade units: si or us.
-    #[arg(long, default_value = "si")]
+    #[arg(long, default_value = "si", value_parser = super::arg_check::unit_system)]
     pub units: String,
 }
 
