@@ -14,6 +14,7 @@ pub mod fsutil;
 pub mod model;
 pub mod presets;
 pub mod report;
+pub mod signals;
 pub mod taper_design;
 pub mod training;
 pub mod tui;
