@@ -20,6 +20,21 @@ pub fn yaml_files(dir: &Path) -> std::io::Result<Vec<PathBuf>> {
     Ok(paths)
 }
 
+/// True for a case file of the shipped demo scenario: a file under a `cases` folder that sits
+/// beside the shipped rule base (`rules/causes.yaml`), as in the source tree and the release
+/// archive. The terminal UI asks for a file name before saving over one of these.
+pub fn is_shipped_demo_case(path: &Path) -> bool {
+    let Ok(full) = std::fs::canonicalize(path) else {
+        return false;
+    };
+    full.ancestors().skip(1).take(3).any(|folder| {
+        folder.file_name().is_some_and(|n| n == "cases")
+            && folder
+                .parent()
+                .is_some_and(|root| root.join("rules").join("causes.yaml").is_file())
+    })
+}
+
 /// Distinguishes temporary files of concurrent saves within one process.
 static SAVE_COUNTER: AtomicU64 = AtomicU64::new(0);
 

@@ -853,11 +853,12 @@ impl App {
         }));
     }
 
-    /// Save to the case's file, or ask for a file name first.
+    /// Save to the case's file, or ask for a file name first (always for a shipped demo case,
+    /// so a stray Ctrl-S never overwrites one).
     pub fn save(&mut self) {
         match self.case_path.clone() {
-            Some(path) => self.save_to(&path),
-            None => {
+            Some(path) if !crate::fsutil::is_shipped_demo_case(&path) => self.save_to(&path),
+            _ => {
                 self.popup = Some(Popup::SaveAs {
                     input: suggested_file_name(&self.case.title),
                     error: None,
