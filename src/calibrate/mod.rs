@@ -14,7 +14,8 @@ use nalgebra::{DMatrix, DVector};
 
 pub use library::{MaterialEntry, MaterialLibrary};
 pub use stack_data::{
-    LoadingBranch, StackPoint, StackReadOptions, StackTest, loading_branch, parse_stack_csv,
+    LoadingBranch, MAX_STACK_FILE_BYTES, StackPoint, StackReadOptions, StackTest, loading_branch,
+    parse_stack_csv, read_stack_file,
 };
 
 use levenberg_marquardt::{LeastSquaresModel, LmOptions};

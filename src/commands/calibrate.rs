@@ -78,8 +78,7 @@ pub fn run(args: &CalibrateArgs) -> anyhow::Result<()> {
 }
 
 fn run_stack(args: &StackArgs) -> anyhow::Result<()> {
-    let text = std::fs::read_to_string(&args.data)
-        .with_context(|| format!("cannot read {}", args.data.display()))?;
+    let text = calibrate::read_stack_file(&args.data)?;
     let origin = args.data.display().to_string();
     let initial_height = args
         .initial_height

@@ -149,10 +149,12 @@ pub struct StackFit {
 pub fn fit_stack_file(path: &Path, thickness: Option<f64>) -> Result<StackFit, String> {
     use crate::calibrate::{FitOptions, StackReadOptions, fit_pfeiffer, parse_stack_csv};
     let origin = path.display().to_string();
-    let text = std::fs::read_to_string(path).map_err(|e| format!("cannot read {origin}: {e}"))?;
+    let text = crate::calibrate::read_stack_file(path).map_err(|e| e.to_string())?;
     let test =
         parse_stack_csv(&text, &origin, &StackReadOptions::default()).map_err(|e| e.to_string())?;
     let fit = fit_pfeiffer(&test, &FitOptions::default()).map_err(|e| e.to_string())?;
+    crate::finite::ensure_finite(&format!("the stack fit of {origin}"), &fit)
+        .map_err(|e| e.to_string())?;
     let mut warnings: Vec<String> = test.notes.iter().map(|n| format!("note: {n}")).collect();
     warnings.extend(fit.warnings.iter().map(|w| format!("warning: {w}")));
     if let (Some(caliper), Some(t)) = (test.caliper(), thickness)
