@@ -53,7 +53,10 @@ fn cr_only_line_endings_give_the_same_fit() {
     .unwrap();
     for (name, text) in [("cr", cr), ("crlf", crlf)] {
         let test = parse_stack_csv(&text, name, &options).unwrap();
-        assert_eq!(test.metadata, parse_stack_csv(&lf, "lf", &options).unwrap().metadata);
+        assert_eq!(
+            test.metadata,
+            parse_stack_csv(&lf, "lf", &options).unwrap().metadata
+        );
         let fit = fit_pfeiffer(&test, &FitOptions::default()).unwrap();
         assert_eq!(fit.k1, reference.k1, "{name}");
         assert_eq!(fit.k2, reference.k2, "{name}");

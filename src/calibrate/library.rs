@@ -81,25 +81,27 @@ impl MaterialEntry {
             id: id.to_string(),
             title,
             radial_stiffness: super::radial_stiffness_input(fit),
-            caliper: caliper.map(|c| format!("{} um", super::significant(c * 1e6, 4))),
+            caliper: caliper.map(|c| format!("{} um", number(super::significant(c * 1e6, 4)))),
             fit: Some(FitRecord {
                 source: source.to_string(),
                 points: fit.points.len(),
                 r_squared: super::significant(fit.r_squared, 6),
                 k1_standard_error: format!(
                     "{} kPa",
-                    super::significant(fit.k1_standard_error / 1e3, 3)
+                    number(super::significant(fit.k1_standard_error / 1e3, 3))
                 ),
                 k2_standard_error: super::significant(fit.k2_standard_error, 3),
                 weighting: fit.weighting,
                 max_measured_pressure: format!(
                     "{} kPa",
-                    super::significant(fit.max_measured_pressure() / 1e3, 4)
+                    number(super::significant(fit.max_measured_pressure() / 1e3, 4))
                 ),
             }),
         }
     }
 }
+
+use super::write_case::case_number as number;
 
 /// Check a material ID: lowercase letters, digits and `_`, starting with a letter.
 pub fn check_id(id: &str) -> Result<(), String> {

@@ -9,6 +9,7 @@
 pub mod levenberg_marquardt;
 pub mod library;
 pub mod stack_data;
+pub mod write_case;
 
 use nalgebra::{DMatrix, DVector};
 
@@ -453,7 +454,7 @@ pub fn radial_stiffness_input(fit: &PfeifferFit) -> crate::case::RadialStiffness
         law: "pfeiffer".into(),
         k1: Some(crate::case::QuantityText::Text(format!(
             "{} kPa",
-            significant(fit.k1 / 1e3, 5)
+            write_case::case_number(significant(fit.k1 / 1e3, 5))
         ))),
         k2: Some(significant(fit.k2, 5)),
         modulus: None,
