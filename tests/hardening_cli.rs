@@ -108,3 +108,16 @@ fn the_documented_tension_cap_is_the_one_applied() {
     let (code, err) = run(&["case", "check", under.to_str().unwrap()]);
     assert_eq!(code, Some(0), "{err}");
 }
+
+#[test]
+fn per_layer_on_a_huge_roll_is_refused_with_the_expected_time() {
+    // Issue 14 item 9: per-layer cost grows as the square of the wraps (2 M wraps ≈ 10 h).
+    let case = "tests/hardening/large_rolls/roll_436k_wraps.yaml";
+    let (code, err) = run(&["stress", case, "--resolution", "per-layer"]);
+    assert_eq!(code, Some(1), "{err}");
+    assert!(err.contains("roll_436k_wraps.yaml"), "{err}");
+    assert!(err.contains("436218 wraps"), "{err}");
+    assert!(err.contains("would take about"), "{err}");
+    assert!(err.contains("300000 wraps"), "{err}");
+    assert!(err.contains("grouped:"), "{err}");
+}

@@ -54,7 +54,9 @@ impl TensionSchedule {
     ///
     /// * linear: T = T0·(1 − f·(r − rc)/(R − rc)), so the outermost wrap runs at (1 − f)·T0;
     /// * hyperbolic: T = T0·(1 − f·(1 − rc/r)); f = 1 is constant torque (T·r constant);
-    /// * steps: T0 until the first step radius, then each step's tension from its radius outward;
+    /// * steps: T0 until the first step radius, then each step's tension from its radius outward
+    ///   (steps are in increasing radius, as [`TensionSchedule::validate`] requires; the step is
+    ///   found by binary search, so a solve costs wraps × log(steps), not wraps × steps);
     /// * an upset band overrides the schedule for from_radius ≤ r < to_radius (last band wins).
     pub fn tension_at(&self, radius: f64, core_radius: f64, outer_radius: f64) -> f64 {
         let t0 = self.start_tension;
@@ -69,15 +71,11 @@ impl TensionSchedule {
                 t0 * (1.0 - fraction * (1.0 - core_radius / radius.max(core_radius)))
             }
             Taper::Steps { steps } => {
-                let mut value = t0;
-                let mut best = f64::NEG_INFINITY;
-                for step in steps {
-                    if step.radius <= radius && step.radius >= best {
-                        best = step.radius;
-                        value = step.tension;
-                    }
+                // The last step whose radius is at or inside `radius`.
+                match steps.partition_point(|step| step.radius <= radius) {
+                    0 => t0,
+                    after => steps[after - 1].tension,
                 }
-                value
             }
         };
         for band in &self.upsets {
@@ -115,6 +113,7 @@ impl TensionSchedule {
                 }
             }
             Taper::Steps { steps } => {
+                let mut previous = f64::NEG_INFINITY;
                 for step in steps {
                     tension("winding.taper.steps.tension", step.tension)?;
                     if !(step.radius.is_finite() && step.radius >= 0.0) {
@@ -124,6 +123,15 @@ impl TensionSchedule {
                             accepted: "a finite diameter ≥ 0",
                         });
                     }
+                    // The lookup in `tension_at` relies on this order.
+                    if step.radius < previous {
+                        return Err(OutOfRange {
+                            field: "winding.taper.steps.from_diameter",
+                            value: step.radius,
+                            accepted: "diameters increasing from the core outward",
+                        });
+                    }
+                    previous = step.radius;
                 }
             }
         }
@@ -174,5 +182,62 @@ mod tests {
         });
         assert_eq!(s.tension_at(0.155, rc, big_r), 400.0);
         assert_eq!(s.tension_at(0.16, rc, big_r), 120.0);
+    }
+
+    /// The step lookup by binary search gives what the plain definition gives (the last step
+    /// at or inside the radius; T0 inside the first), for many steps and radii on and
+    /// between the step radii.
+    #[test]
+    fn step_lookup_matches_the_definition() {
+        let (rc, big_r) = (0.05, 0.6);
+        let steps: Vec<TensionStep> = (1..2000)
+            .map(|k| TensionStep {
+                radius: rc + (big_r - rc) * k as f64 / 2000.0,
+                tension: 100.0 + (k % 37) as f64,
+            })
+            .collect();
+        let definition = |r: f64| {
+            steps
+                .iter()
+                .rev()
+                .find(|s| s.radius <= r)
+                .map_or(250.0, |s| s.tension)
+        };
+        let s = TensionSchedule {
+            start_tension: 250.0,
+            taper: Taper::Steps {
+                steps: steps.clone(),
+            },
+            upsets: Vec::new(),
+        };
+        for i in 0..=20_000 {
+            let r = rc + (big_r - rc) * i as f64 / 20_000.0;
+            assert_eq!(s.tension_at(r, rc, big_r), definition(r), "r = {r}");
+        }
+        for step in &steps {
+            assert_eq!(s.tension_at(step.radius, rc, big_r), step.tension);
+        }
+    }
+
+    #[test]
+    fn steps_out_of_order_are_refused() {
+        let s = TensionSchedule {
+            start_tension: 250.0,
+            taper: Taper::Steps {
+                steps: vec![
+                    TensionStep {
+                        radius: 0.2,
+                        tension: 200.0,
+                    },
+                    TensionStep {
+                        radius: 0.1,
+                        tension: 150.0,
+                    },
+                ],
+            },
+            upsets: Vec::new(),
+        };
+        let error = s.validate().unwrap_err().to_string();
+        assert!(error.contains("increasing"), "{error}");
     }
 }
