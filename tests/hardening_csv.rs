@@ -96,3 +96,26 @@ fn a_pipe_is_refused_instead_of_waited_on() {
     let message = read_stack_file(Path::new(&fifo)).unwrap_err().to_string();
     assert!(message.contains("not a regular file"), "{message}");
 }
+
+#[test]
+fn material_libraries_have_the_same_size_limit_and_refuse_pipes() {
+    use rolltriage::calibrate::MaterialLibrary;
+    let dir = tempfile::tempdir().unwrap();
+    let path = dir.path().join("materials.yaml");
+    let mut text = String::from("format: rolltriage-materials 1\nmaterials: []\n");
+    while (text.len() as u64) <= rolltriage::case::MAX_CASE_FILE_BYTES {
+        text.push_str("# padding padding padding padding padding padding padding padding\n");
+    }
+    std::fs::write(&path, &text).unwrap();
+    let message = MaterialLibrary::load_or_new(&path).unwrap_err().to_string();
+    assert!(message.contains("materials.yaml"), "{message}");
+    assert!(message.contains("1 MiB"), "{message}");
+    #[cfg(unix)]
+    {
+        let fifo = dir.path().join("pipe.yaml");
+        if Command::new("mkfifo").arg(&fifo).status().is_ok_and(|s| s.success()) {
+            let message = MaterialLibrary::load_or_new(&fifo).unwrap_err().to_string();
+            assert!(message.contains("not a regular file"), "{message}");
+        }
+    }
+}

@@ -144,8 +144,23 @@ impl MaterialLibrary {
         Ok(library)
     }
 
-    /// Read a library file; a missing file is an empty library.
+    /// Read a library file; a missing file is an empty library. Like case files, a library
+    /// is at most 1 MiB, and a pipe or device is refused rather than waited on.
     pub fn load_or_new(path: &Path) -> Result<MaterialLibrary, CalibrateError> {
+        if let Ok(meta) = std::fs::metadata(path) {
+            let refused = |message: &str| CalibrateError::Library {
+                path: path.display().to_string(),
+                message: message.to_string(),
+            };
+            if !meta.is_file() {
+                return Err(refused("not a regular file (a folder, pipe or device)"));
+            }
+            if meta.len() > crate::case::MAX_CASE_FILE_BYTES {
+                return Err(refused(
+                    "larger than 1 MiB, the limit for material libraries; not read",
+                ));
+            }
+        }
         match std::fs::read_to_string(path) {
             Ok(text) => MaterialLibrary::from_yaml_str(&text, &path.display().to_string()),
             Err(e) if e.kind() == std::io::ErrorKind::NotFound => Ok(MaterialLibrary::default()),
