@@ -113,7 +113,11 @@ fn material_libraries_have_the_same_size_limit_and_refuse_pipes() {
     #[cfg(unix)]
     {
         let fifo = dir.path().join("pipe.yaml");
-        if Command::new("mkfifo").arg(&fifo).status().is_ok_and(|s| s.success()) {
+        if Command::new("mkfifo")
+            .arg(&fifo)
+            .status()
+            .is_ok_and(|s| s.success())
+        {
             let message = MaterialLibrary::load_or_new(&fifo).unwrap_err().to_string();
             assert!(message.contains("not a regular file"), "{message}");
         }

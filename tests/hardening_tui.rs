@@ -1,6 +1,8 @@
 //! Issue 14, item 6 (terminal UI side): Ctrl-S never saves over a shipped demo case without
 //! the user typing the path; other case files still save in place.
 
+mod tui_support;
+
 use std::path::{Path, PathBuf};
 use std::sync::Arc;
 
@@ -110,4 +112,22 @@ fn ctrl_s_on_the_users_own_case_saves_in_place() {
     app.handle_key(Key::Ctrl('s'));
     assert_eq!(app.popup, None, "{:?}", app.status);
     assert!(std::fs::read_to_string(&mine).unwrap().contains("Reel 7"));
+}
+
+#[test]
+fn export_refuses_an_unknown_extension_like_the_command_line() {
+    // Issue 14 item 10: `report -o r.pdf` is refused; the UI wrote Markdown into r.pdf.
+    let folder = tempfile::tempdir().unwrap();
+    let mut app = tui_support::app();
+    app.set_case(tui_support::sample_case(), None);
+    tui_support::finish_requests(
+        &mut app,
+        &tui_support::outcome(1.0),
+        &tui_support::outcome(1.0),
+    );
+    let path = folder.path().join("r.pdf");
+    let error = app.export_to(&path).unwrap_err();
+    assert!(error.contains(".md, .html or .json"), "{error}");
+    assert!(!path.exists());
+    app.export_to(&folder.path().join("r.md")).unwrap();
 }

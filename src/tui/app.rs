@@ -910,7 +910,13 @@ impl App {
             .diagnosis
             .as_ref()
             .map_err(|e| format!("no diagnosis to report: {e}"))?;
-        let format = crate::report::Format::from_path(path).unwrap_or_default();
+        // As on the command line: an unknown extension is refused, not written as Markdown.
+        let format = crate::report::Format::from_path(path).ok_or_else(|| {
+            format!(
+                "cannot tell the report format from \"{}\"; use an extension .md, .html or .json",
+                path.display()
+            )
+        })?;
         let remedy = match (&self.what_if.remedy, &self.what_if.outcome) {
             (Some(id), Some((generation, after))) if *generation == self.generation => {
                 Some(crate::report::RemedyComparison {
@@ -938,6 +944,9 @@ impl App {
             ),
             units: self.units,
         };
+        crate::finite::ensure_finite("the stress profile", &input.profile)
+            .and_then(|()| crate::finite::ensure_finite("the diagnosis", &input.diagnosis))
+            .map_err(|e| e.to_string())?;
         let text = crate::report::render(&input, format).map_err(|e| e.to_string())?;
         crate::fsutil::save_atomic(path, text.as_bytes()).map_err(|e| e.to_string())?;
         self.status = Some(format!(
