@@ -148,7 +148,7 @@ fn mutate_once(text: &str, rng: &mut Rng) -> String {
     let mut lines: Vec<String> = text.lines().map(str::to_string).collect();
     let n = lines.len();
     match rng.below(13) {
-        0 | 1 | 2 => return replace_number(text, rng),
+        0..=2 => return replace_number(text, rng),
         3 => return replace_unit(text, rng),
         4 if n > 0 => {
             lines.remove(rng.below(n));

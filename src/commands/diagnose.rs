@@ -85,11 +85,17 @@ pub fn run(args: &DiagnoseArgs) -> anyhow::Result<()> {
         what_if: !args.no_what_if,
         ..DiagnoseOptions::default()
     };
-    let (profile, diagnosis) = diagnose::triage(&rules, &resolved, &options)
-        .with_context(|| format!("diagnosing {}", args.case.display()))?;
+    let context = || format!("diagnosing {}", args.case.display());
+    // The cheap checks first, so a mistyped symptom or answer fails before the solve.
+    diagnose::check_inputs(&rules, &resolved).with_context(context)?;
+    let triage = super::progress::with_progress_bar("diagnosing", |progress| {
+        diagnose::pipeline::triage(&rules, (&resolved).into(), &options, progress)
+    })
+    .with_context(context)?;
     // A non-finite pressure would silently drop its evidence from the ranking.
     let what = format!("the stress profile of {}", args.case.display());
-    rolltriage::finite::ensure_finite(&what, &profile)?;
+    rolltriage::finite::ensure_finite(&what, &triage.profile)?;
+    let diagnosis = triage.diagnosis.with_context(context)?;
     let what = format!("the diagnosis of {}", args.case.display());
     rolltriage::finite::ensure_finite(&what, &diagnosis)?;
     let text = match args.format {
