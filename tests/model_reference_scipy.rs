@@ -226,14 +226,25 @@ fn mechanism_margins_match_the_scipy_reference() {
         },
     };
     let close = |a: f64, b: f64, what: &str| {
-        assert!((a - b).abs() <= 1e-9 * b.abs().max(1e-12), "{what}: {a} vs {b}");
+        assert!(
+            (a - b).abs() <= 1e-9 * b.abs().max(1e-12),
+            "{what}: {a} vs {b}"
+        );
     };
     let node = |r: f64| ((r - rc) / (big_r - rc) * (n - 1) as f64).round() as usize;
 
     let centre = inputs(WindingMethod::Centre);
     let tele = telescoping::handling_margins(&profile, &centre);
-    close(tele.min_margin, f(&v["telescoping"], "min_margin"), "telescoping margin");
-    close(tele.min_radius, f(&v["telescoping"], "min_radius"), "telescoping radius");
+    close(
+        tele.min_margin,
+        f(&v["telescoping"], "min_margin"),
+        "telescoping margin",
+    );
+    close(
+        tele.min_radius,
+        f(&v["telescoping"], "min_radius"),
+        "telescoping radius",
+    );
     for s in v["telescoping"]["samples"].as_array().unwrap() {
         let i = node(f(s, "radius"));
         close(tele.demand[i], f(s, "demand"), "telescoping demand");

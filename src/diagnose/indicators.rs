@@ -695,7 +695,7 @@ fn acceleration_torque_per_width(case: &ResolvedCase, core_r: f64, outer_r: f64)
     };
     // Solid annulus: J per width = ρ·π·(R⁴ − rc⁴)/2; α = v / (R·t).
     let inertia = crate::mechanics::torque::annulus_inertia(
-        crate::mechanics::density_of(&case.web.material),
+        crate::mechanics::density_of(case.web.material),
         core_r,
         outer_r,
     );

@@ -18,6 +18,7 @@ use serde::Serialize;
 
 use crate::case::ResolvedCase;
 use crate::model::{Profile, WindingMethod};
+use crate::vocabulary::WebMaterial;
 
 /// Standard acceleration of gravity, m/s² (CGPM 1901; NIST SP 330).
 pub const GRAVITY: f64 = 9.806_65;
@@ -101,7 +102,7 @@ impl MechanicsInputs {
         MechanicsInputs {
             core_radius,
             outer_radius,
-            density: density_of(&case.web.material),
+            density: density_of(case.web.material),
             friction: case.web.friction,
             method: case.winding.method,
             speed: case.winding.speed,
@@ -118,14 +119,14 @@ impl MechanicsInputs {
 /// Approximate density of the wound web by material kind, kg/m³ — typical values `(from
 /// memory)`: PET film 1390, aluminium foil 2700, paper 700, board 750, nonwovens 300, laminates
 /// 1100. The one place the crate knows densities.
-pub fn density_of(material: &str) -> f64 {
+pub fn density_of(material: WebMaterial) -> f64 {
     match material {
-        "film" => 1390.0,
-        "foil" => 2700.0,
-        "nonwoven" => 300.0,
-        "board" => 750.0,
-        "laminate" => 1100.0,
-        _ => 700.0,
+        WebMaterial::Film => 1390.0,
+        WebMaterial::Foil => 2700.0,
+        WebMaterial::Nonwoven => 300.0,
+        WebMaterial::Board => 750.0,
+        WebMaterial::Laminate => 1100.0,
+        WebMaterial::Paper => 700.0,
     }
 }
 
