@@ -80,13 +80,13 @@ fn the_unit_the_limits_are_stated_in_is_accepted() {
 
 #[test]
 fn the_documented_tension_cap_is_the_one_applied() {
-    // docs/case-format.md: winding.tension "> 0, below the web strength and at most 1 MN/m".
+    // docs/case-format.md: winding.tension "at most 1000 kN/m; below the web strength".
     let docs = std::fs::read_to_string(format!(
         "{}/docs/case-format.md",
         env!("CARGO_MANIFEST_DIR")
     ))
     .unwrap();
-    assert!(docs.contains("below the web strength and at most 1 MN/m"));
+    assert!(docs.contains("more than 0 N/m and at most 1000 kN/m; below the web strength"));
     let dir = tempfile::tempdir().unwrap();
     let text = std::fs::read_to_string(format!("{}/{CASE}", env!("CARGO_MANIFEST_DIR"))).unwrap();
     let strong = text.replace("strength: 2.4 kN/m", "strength: 10 MN/m");

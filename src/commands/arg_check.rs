@@ -74,6 +74,15 @@ pub fn core_share(text: &str) -> Result<f64, String> {
     )
 }
 
+/// `taper --min-telescoping-margin`: 0 < margin ≤ 100 (the taper design's own range).
+pub fn telescoping_margin(text: &str) -> Result<f64, String> {
+    share(
+        text,
+        |v| v > 0.0 && v <= 100.0,
+        "a number above 0, at most 100",
+    )
+}
+
 /// `taper --starring-share`: 0 < share < 1.
 pub fn starring_share(text: &str) -> Result<f64, String> {
     share(text, |v| v > 0.0 && v < 1.0, "a number above 0 and below 1")
@@ -93,11 +102,6 @@ fn quantity(text: &str, kind: QuantityKind) -> Result<String, String> {
 /// A length with its unit ("25.4 mm").
 pub fn length(text: &str) -> Result<String, String> {
     quantity(text, QuantityKind::Length)
-}
-
-/// A pressure with its unit ("14 kPa").
-pub fn pressure(text: &str) -> Result<String, String> {
-    quantity(text, QuantityKind::Stress)
 }
 
 /// A percentage ("60 %" or 0.6).

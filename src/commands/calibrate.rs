@@ -123,7 +123,7 @@ fn run_stack(args: &StackArgs) -> anyhow::Result<()> {
     if let Some(path) = &args.write_case {
         // Loaded first only for the caliper check; the write below re-reads and checks it.
         if let Ok(case) = rolltriage::case::Case::load(path) {
-            warn_on_caliper_mismatch(path, &case, test.caliper());
+            warn_on_caliper_mismatch(path, &case, &test);
         }
         let edit = calibrate::write_case::write_fit_into_case(path, &fit, args.drop_comments)?;
         eprintln!(
@@ -158,9 +158,9 @@ fn run_stack(args: &StackArgs) -> anyhow::Result<()> {
 fn warn_on_caliper_mismatch(
     path: &std::path::Path,
     case: &rolltriage::case::Case,
-    caliper: Option<f64>,
+    test: &StackTest,
 ) {
-    let (Some(caliper), Some(thickness)) = (caliper, case.web.thickness.as_ref()) else {
+    let Some(thickness) = case.web.thickness.as_ref() else {
         return;
     };
     let field = format!("{} web.thickness", path.display());
@@ -170,15 +170,10 @@ fn warn_on_caliper_mismatch(
             parse_quantity(&field, t, QuantityKind::Length).ok()
         }
     };
-    if let Some(t) = thickness
-        && t > 0.0
-        && (caliper / t - 1.0).abs() > 0.10
+    if let Some(warning) =
+        thickness.and_then(|t| calibrate::caliper_warning(test, t, "web.thickness"))
     {
-        eprintln!(
-            "warning: the stack's caliper ({:.1} µm) differs from the case's web.thickness ({:.1} µm) by more than 10 %; is this the same web?",
-            caliper * 1e6,
-            t * 1e6
-        );
+        eprintln!("warning: {warning}");
     }
 }
 
