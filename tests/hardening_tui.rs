@@ -7,7 +7,7 @@ use std::path::{Path, PathBuf};
 use std::sync::Arc;
 
 use rolltriage::diagnose::rules::RuleBase;
-use rolltriage::tui::app::{App, Popup};
+use rolltriage::tui::app::{App, FilePopup, FilePurpose, Popup};
 use rolltriage::tui::event::Key;
 use rolltriage::tui::{Options, build_app};
 
@@ -53,13 +53,19 @@ fn ctrl_s_on_a_demo_case_asks_for_a_file_name() {
     let (_root, demo) = shipped_layout();
     let before = std::fs::read(&demo).unwrap();
     let mut app = open(&demo);
-    app.dirty = true;
+    app.session.dirty = true;
     app.handle_key(Key::Ctrl('s'));
     assert!(
-        matches!(app.popup, Some(Popup::SaveAs { .. })),
+        matches!(
+            app.popup(),
+            Some(Popup::File(FilePopup {
+                purpose: FilePurpose::SaveAs,
+                ..
+            }))
+        ),
         "expected the save prompt, got {:?} / {:?}",
-        app.popup,
-        app.status
+        app.popup(),
+        app.session.status
     );
     assert_eq!(std::fs::read(&demo).unwrap(), before);
 }
@@ -107,10 +113,10 @@ fn ctrl_s_on_the_users_own_case_saves_in_place() {
     let mine = dir.path().join("mine.yaml");
     std::fs::copy(Path::new(env!("CARGO_MANIFEST_DIR")).join(DEMO), &mine).unwrap();
     let mut app = open(&mine);
-    app.case.title = "Reel 7".into();
-    app.dirty = true;
+    app.session.case.title = "Reel 7".into();
+    app.session.dirty = true;
     app.handle_key(Key::Ctrl('s'));
-    assert_eq!(app.popup, None, "{:?}", app.status);
+    assert!(app.popup().is_none(), "{:?}", app.session.status);
     assert!(std::fs::read_to_string(&mine).unwrap().contains("Reel 7"));
 }
 
@@ -126,7 +132,7 @@ fn export_refuses_an_unknown_extension_like_the_command_line() {
         &tui_support::outcome(1.0),
     );
     let path = folder.path().join("r.pdf");
-    let error = app.export_to(&path).unwrap_err();
+    let error = app.export_to(&path).unwrap_err().to_string();
     assert!(error.contains(".md, .html or .json"), "{error}");
     assert!(!path.exists());
     app.export_to(&folder.path().join("r.md")).unwrap();
