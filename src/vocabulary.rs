@@ -141,20 +141,10 @@ word_list! {
     }
 }
 
-/// IDs of the winding methods, in the documented order.
-pub const WINDING_METHOD_IDS: &[&str] = &["centre", "surface", "centre_surface"];
+/// IDs of the winding methods, in the documented order (the model owns the list).
+pub const WINDING_METHOD_IDS: &[&str] = &crate::model::WindingMethod::IDS;
 
 impl crate::model::WindingMethod {
-    /// The stable ID, as written in case and rule files.
-    pub fn id(self) -> &'static str {
-        use crate::model::WindingMethod;
-        match self {
-            WindingMethod::Centre => "centre",
-            WindingMethod::Surface => "surface",
-            WindingMethod::CentreSurface => "centre_surface",
-        }
-    }
-
     /// The method for an ID or one of its accepted spellings (`center`, `centre-surface`).
     pub fn from_id(word: &str) -> Option<crate::model::WindingMethod> {
         use crate::model::WindingMethod;
