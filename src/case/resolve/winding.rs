@@ -52,20 +52,7 @@ impl Resolver {
             |d: f64| std::f64::consts::PI * ((d / 2.0).powi(2) - core_radius.powi(2)) / h;
         let one_wrap = std::f64::consts::PI * (2.0 * core_radius + h);
         let length = match length {
-            Some(l) => {
-                let l = self.check(reg::ROLL_LENGTH.path, l, &length_range)?;
-                if l < one_wrap {
-                    return Err(self.out_of_range(
-                        reg::ROLL_LENGTH.path,
-                        length_range.show(l),
-                        format!(
-                            "at least one wrap around the core ({})",
-                            length_range.show(one_wrap)
-                        ),
-                    ));
-                }
-                Some(l)
-            }
+            Some(l) => Some(self.at_least_one_wrap(l, one_wrap)?),
             None => None,
         };
         let (diameter, length) = match (diameter, length) {
@@ -135,26 +122,64 @@ impl Resolver {
                 (d, l)
             }
         };
-        let layers = (diameter / 2.0 - core_radius) / h;
-        if layers > MAX_LAYERS {
-            // Name the field the user wrote: the length when the diameter came from it.
-            let (field, given) = match (roll.diameter.is_some(), roll.length.is_some()) {
-                (false, true) => (reg::ROLL_LENGTH.path, length_range.show(length)),
-                _ => (reg::ROLL_DIAMETER.path, diameter_range.show(diameter)),
-            };
-            return Err(self.out_of_range(
-                field,
-                given,
-                format!(
-                    "a build of at most {MAX_LAYERS:e} layers of this caliper ({} would be {layers:.3e} layers)",
-                    reg::WEB_THICKNESS.range().show(h)
-                ),
-            ));
-        }
+        self.at_most_max_layers(
+            roll,
+            (diameter / 2.0 - core_radius) / h,
+            diameter,
+            length,
+            h,
+        )?;
         Ok(ResolvedRoll {
             outer_diameter: diameter,
             length,
         })
+    }
+
+    /// A given wound length: in range and at least one wrap around the core.
+    fn at_least_one_wrap(&self, length: f64, one_wrap: f64) -> Result<f64, CaseError> {
+        let range = reg::ROLL_LENGTH.range();
+        let length = self.check(reg::ROLL_LENGTH.path, length, &range)?;
+        if length < one_wrap {
+            return Err(self.out_of_range(
+                reg::ROLL_LENGTH.path,
+                range.show(length),
+                format!(
+                    "at least one wrap around the core ({})",
+                    range.show(one_wrap)
+                ),
+            ));
+        }
+        Ok(length)
+    }
+
+    /// At most [`MAX_LAYERS`] layers, naming the field the user wrote: the length when the
+    /// diameter came from it.
+    fn at_most_max_layers(
+        &self,
+        roll: &RollInput,
+        layers: f64,
+        diameter: f64,
+        length: f64,
+        h: f64,
+    ) -> Result<(), CaseError> {
+        if layers <= MAX_LAYERS {
+            return Ok(());
+        }
+        let (field, given) = match (roll.diameter.is_some(), roll.length.is_some()) {
+            (false, true) => (reg::ROLL_LENGTH.path, reg::ROLL_LENGTH.range().show(length)),
+            _ => (
+                reg::ROLL_DIAMETER.path,
+                reg::ROLL_DIAMETER.range().show(diameter),
+            ),
+        };
+        Err(self.out_of_range(
+            field,
+            given,
+            format!(
+                "a build of at most {MAX_LAYERS:e} layers of this caliper ({} would be {layers:.3e} layers)",
+                reg::WEB_THICKNESS.range().show(h)
+            ),
+        ))
     }
 
     /// A diameter inside the wound part of the roll, returned as a radius.
