@@ -10,6 +10,7 @@ pub mod calibrate;
 pub mod case;
 pub mod diagnose;
 pub mod fsutil;
+pub mod mechanics;
 pub mod model;
 pub mod presets;
 pub mod report;
