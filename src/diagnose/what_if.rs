@@ -108,7 +108,10 @@ pub(crate) fn deciding_test<'a>(
     let mut best: Option<(&Test, (bool, f64))> = None;
     for (test, holds, weight) in driving_tests(rules, symptoms, cause, case, indicators) {
         let key = (from_profile(test), weight);
-        if holds && best.is_none_or(|(_, k)| key.0 > k.0 || (key.0 == k.0 && key.1 > k.1)) {
+        // Stress-state tests before input tests, then the larger weight.
+        if holds
+            && best.is_none_or(|(_, k)| (key.0, key.1).partial_cmp(&k).is_some_and(|o| o.is_gt()))
+        {
             best = Some((test, key));
         }
     }
