@@ -8,8 +8,10 @@
 
 pub mod calibrate;
 pub mod case;
+pub mod complaint;
 pub mod diagnose;
 pub mod fsutil;
+pub mod history;
 pub mod model;
 pub mod presets;
 pub mod report;
