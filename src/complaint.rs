@@ -173,10 +173,10 @@ impl Complaint {
         self.status.as_deref().unwrap_or("open")
     }
 
-    /// Check the record. `is_cause` tells whether a cause ID is known (the rule base's causes);
-    /// `causes` lists them for the "did you mean". The message names the field and what is
-    /// accepted.
-    pub fn check(&self, causes: &[&str]) -> Result<(), String> {
+    /// Check the record. `causes` are the known cause IDs (the rule base's); `None` leaves cause
+    /// IDs to a later check against the rule base in use. The message names the field and what
+    /// is accepted.
+    pub fn check(&self, causes: Option<&[&str]>) -> Result<(), String> {
         one_of("source", &self.source, &SOURCES)?;
         one_of("found_at", &self.found_at, &FOUND_AT)?;
         one_of("status", &self.status, &STATUSES)?;
@@ -195,7 +195,9 @@ impl Complaint {
             );
         }
         for (i, c) in self.confirmed_causes.iter().enumerate() {
-            if !causes.contains(&c.cause.as_str()) {
+            if let Some(causes) = causes
+                && !causes.contains(&c.cause.as_str())
+            {
                 let hint = crate::vocabulary::closest(&c.cause, causes.iter().copied())
                     .map(|s| format!(" (did you mean `{s}`?)"))
                     .unwrap_or_default();
@@ -259,7 +261,7 @@ mod tests {
             status: Some("done".into()),
             ..Complaint::default()
         };
-        let e = c.check(&[]).unwrap_err();
+        let e = c.check(None).unwrap_err();
         assert!(
             e.contains("complaint.status") && e.contains("cause_confirmed"),
             "{e}"
@@ -269,7 +271,7 @@ mod tests {
             rolls_checked: Some(6),
             ..Complaint::default()
         };
-        assert!(c.check(&[]).unwrap_err().contains("rolls_affected"));
+        assert!(c.check(None).unwrap_err().contains("rolls_affected"));
         let c = Complaint {
             confirmed_causes: vec![ConfirmedCause {
                 cause: "tension_to_low".into(),
@@ -277,7 +279,7 @@ mod tests {
             }],
             ..Complaint::default()
         };
-        let e = c.check(&["tension_too_low"]).unwrap_err();
+        let e = c.check(Some(&["tension_too_low"])).unwrap_err();
         assert!(e.contains("did you mean `tension_too_low`"), "{e}");
     }
 }

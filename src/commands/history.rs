@@ -826,3 +826,48 @@ fn import(store_args: &StoreArgs, args: &ImportArgs) -> anyhow::Result<()> {
         store.place()
     ))
 }
+
+/// `diagnose --history`: site experience in the ranking and the similar past complaints.
+pub struct SiteView {
+    store: StoreArgs,
+    site_experience: bool,
+    top: usize,
+}
+
+impl SiteView {
+    pub fn new(place: &str, site_experience: bool, top: usize) -> SiteView {
+        SiteView {
+            store: StoreArgs {
+                history: Some(place.to_string()),
+                wait: history::DEFAULT_WAIT.as_secs_f64(),
+            },
+            site_experience,
+            top,
+        }
+    }
+
+    /// The diagnosis (ranked over all causes) with site experience applied and cut to `top`,
+    /// and the "similar past complaints" text block.
+    pub fn apply(
+        &self,
+        rules: &RuleBase,
+        case: &rolltriage::case::Case,
+        resolved: &rolltriage::case::ResolvedCase,
+        diagnosis: Diagnosis,
+    ) -> anyhow::Result<(Diagnosis, String)> {
+        let mut store = self.store.open_existing()?;
+        let mut entry = Entry {
+            case_text: String::new(),
+            case: case.clone(),
+            resolved: resolved.clone(),
+            diagnosis,
+            rules_version: history::rules_version(rules),
+        };
+        let site = self.site_experience.then_some(&mut store);
+        entry.diagnosis = with_site_history(rules, &entry, site, self.top)?;
+        let matches = similar::nearest_to_entry(&entry, &store.scan()?, 3);
+        let mut text = String::new();
+        write_similar(&mut text, rules, &matches)?;
+        Ok((entry.diagnosis, text))
+    }
+}

@@ -122,7 +122,11 @@ pub fn apply(
                 .count();
             let cf = factor(k, n, candidates.len());
             let place = match &scope {
-                Scope::Line(l) => format!(" on line {l}"),
+                // "line 4" or "W3" are both used as line names; do not say "line line 4".
+                Scope::Line(l) if l.trim().to_lowercase().starts_with("line") => {
+                    format!(" on {}", l.trim())
+                }
+                Scope::Line(l) => format!(" on line {}", l.trim()),
                 Scope::Site => " at this site".to_string(),
             };
             let text = format!(

@@ -746,7 +746,7 @@ impl Entry {
         if let Some(record) = &case.complaint {
             let causes: Vec<&str> = rules.causes.keys().map(String::as_str).collect();
             record
-                .check(&causes)
+                .check(Some(&causes))
                 .map_err(|m| input(format!("{origin}: {m}")))?;
         }
         let resolved = case.resolve_as(origin).map_err(|e| input(e.to_string()))?;

@@ -256,7 +256,9 @@ fn check_complaint(c: &StoredComplaint, causes: &[&str]) -> Result<(), String> {
             .map_err(|e| e.to_string())?;
         case.resolve_as(&format!("{at}.case_text"))
             .map_err(|e| e.to_string())?;
-        v.complaint.check(causes).map_err(|m| format!("{at}.{m}"))?;
+        v.complaint
+            .check(Some(causes))
+            .map_err(|m| format!("{at}.{m}"))?;
         serde_json::from_value::<crate::case::ResolvedCase>(v.resolved.clone())
             .map_err(|e| format!("{at}.resolved: {e}"))?;
         serde_json::from_value::<Vec<crate::diagnose::indicators::IndicatorValue>>(
