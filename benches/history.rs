@@ -112,17 +112,17 @@ fn history_speed(c: &mut Criterion) {
     c.bench_function("history_similar_100k", |b| {
         b.iter(|| {
             let mut store = history::open(&location, history::DEFAULT_WAIT).expect("store");
-            let rows = store.scan().expect("scan");
-            similar::nearest_to_entry(&query, &rows, 5)
+            similar::search(&mut store, &query, 5, None).expect("search")
         })
     });
     let mut store = history::open(&location, history::DEFAULT_WAIT).expect("store");
-    c.bench_function("history_scan_only_100k", |b| {
-        b.iter(|| store.scan().expect("scan").len())
+    c.bench_function("history_read_keys_100k", |b| {
+        b.iter(|| store.similarity_keys().expect("keys").len())
     });
-    let rows = store.scan().expect("scan");
+    let keys = store.similarity_keys().expect("keys");
+    let query_key = similar::entry_key(&query);
     c.bench_function("history_rank_only_100k", |b| {
-        b.iter(|| similar::nearest_to_entry(&query, &rows, 5))
+        b.iter(|| similar::nearest(&query_key, &keys, 5))
     });
     let small = Location::File(dir.path().join("add.sqlite"));
     let mut small_store = history::open(&small, history::DEFAULT_WAIT).expect("store");
@@ -131,6 +131,10 @@ fn history_speed(c: &mut Criterion) {
             let e = entry(&rules, true);
             small_store.add(&e).expect("add")
         })
+    });
+    let ready = entry(&rules, true);
+    c.bench_function("history_add_one_insert_only", |b| {
+        b.iter(|| small_store.add(&ready).expect("add"))
     });
     c.bench_function("history_add_one_to_100k_with_solve", |b| {
         b.iter(|| {

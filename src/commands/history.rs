@@ -340,8 +340,7 @@ fn add(store_args: &StoreArgs, args: &AddArgs) -> anyhow::Result<()> {
             (store.add(&entry)?, 1)
         }
     };
-    let rows: Vec<_> = store.scan()?.into_iter().filter(|r| r.id != id).collect();
-    let matches = similar::nearest_to_entry(&entry, &rows, 3);
+    let matches = similar::search(&mut store, &entry, 3, Some(id))?;
     if args.format == Format::Json {
         let value = serde_json::json!({
             "id": id,
@@ -735,8 +734,7 @@ fn similar_cmd(store_args: &StoreArgs, args: &SimilarArgs) -> anyhow::Result<()>
         ..DiagnoseOptions::default()
     };
     let entry = Entry::compute(&rules, &text, &args.case.display().to_string(), &options)?;
-    let rows = store.scan()?;
-    let matches = similar::nearest_to_entry(&entry, &rows, args.top);
+    let matches = similar::search(&mut store, &entry, args.top, None)?;
     if args.format == Format::Json {
         return write_stdout(&(serde_json::to_string_pretty(&matches)? + "\n"));
     }
@@ -865,7 +863,7 @@ impl SiteView {
         };
         let site = self.site_experience.then_some(&mut store);
         entry.diagnosis = with_site_history(rules, &entry, site, self.top)?;
-        let matches = similar::nearest_to_entry(&entry, &store.scan()?, 3);
+        let matches = similar::search(&mut store, &entry, 3, None)?;
         let mut text = String::new();
         write_similar(&mut text, rules, &matches)?;
         Ok((entry.diagnosis, text))

@@ -21,10 +21,8 @@
 
 use crate::diagnose::indicators::IndicatorValue;
 
-use super::ScanRow;
-
 /// The indicators compared, in the stored order. Changing this list changes
-/// [`FEATURE_LAYOUT`]; stored features of another layout are not compared.
+/// [`KEY_LAYOUT`]; stored keys of another layout are not compared.
 pub const FEATURES: [(&str, Option<&str>); 40] = [
     ("acceleration_torque_share", None),
     ("air_film_ratio", None),
@@ -68,15 +66,18 @@ pub const FEATURES: [(&str, Option<&str>); 40] = [
     ("min_tangential_stress", Some("surface")),
 ];
 
-/// Version of the feature list and transform; stored with nothing else, it only guards the
-/// length check in [`decode`].
-pub const FEATURE_LAYOUT: u8 = 1;
+/// Version of the stored similarity key (the layout below and the feature list and transform
+/// above); a key of another layout is compared on nothing and sorts last.
+pub const KEY_LAYOUT: u8 = 1;
 
 const W_SYMPTOMS: f64 = 0.35;
 const W_PLACES: f64 = 0.10;
 const W_GRADE: f64 = 0.10;
 const W_MATERIAL: f64 = 0.05;
 const W_INDICATORS: f64 = 0.40;
+
+/// Number of compared indicators.
+pub const N: usize = FEATURES.len();
 
 fn scale(unit: &str) -> f64 {
     match unit {
@@ -89,136 +90,223 @@ fn scale(unit: &str) -> f64 {
     }
 }
 
-/// The compared features of a complaint (NaN where an indicator was not computed).
-pub fn features(indicators: &[IndicatorValue]) -> Vec<f32> {
-    FEATURES
-        .iter()
-        .map(|(id, zone)| {
-            indicators
-                .iter()
-                .find(|i| i.id == *id && i.zone.as_deref() == *zone)
-                .filter(|i| i.value.is_finite())
-                .map(|i| {
-                    let s = scale(&i.unit);
-                    (i.value.signum() * (1.0 + i.value.abs() / s).ln()) as f32
-                })
-                .unwrap_or(f32::NAN)
-        })
-        .collect()
-}
-
-/// Features as stored: one layout byte, then little-endian `f32`s.
-pub fn encode(features: &[f32]) -> Vec<u8> {
-    let mut out = Vec::with_capacity(1 + 4 * features.len());
-    out.push(FEATURE_LAYOUT);
-    for f in features {
-        out.extend_from_slice(&f.to_le_bytes());
+/// The compared indicator values of a complaint, transformed (NaN where not computed).
+pub fn features(indicators: &[IndicatorValue]) -> [f32; N] {
+    let mut out = [f32::NAN; N];
+    for (slot, (id, zone)) in out.iter_mut().zip(FEATURES.iter()) {
+        if let Some(i) = indicators
+            .iter()
+            .find(|i| i.id == *id && i.zone.as_deref() == *zone)
+            .filter(|i| i.value.is_finite())
+        {
+            let s = scale(&i.unit);
+            *slot = (i.value.signum() * (1.0 + i.value.abs() / s).ln()) as f32;
+        }
     }
     out
 }
 
-/// Stored features back; empty when the layout differs (such a complaint is compared on
-/// symptoms, places, grade and material only).
-pub fn decode(bytes: &[u8]) -> Vec<f32> {
-    match bytes.split_first() {
-        Some((&FEATURE_LAYOUT, rest)) if rest.len() == 4 * FEATURES.len() => rest
-            .chunks_exact(4)
-            .map(|c| f32::from_le_bytes([c[0], c[1], c[2], c[3]]))
-            .collect(),
-        _ => Vec::new(),
+/// FNV-1a of the lower-cased, trimmed text: equal texts (ignoring case) give equal numbers;
+/// 0 stands for "not given".
+fn text_hash(text: Option<&str>) -> u64 {
+    let Some(t) = text.map(str::trim).filter(|t| !t.is_empty()) else {
+        return 0;
+    };
+    let mut hash: u64 = 0xcbf2_9ce4_8422_2325;
+    for byte in t.to_lowercase().bytes() {
+        hash ^= u64::from(byte);
+        hash = hash.wrapping_mul(0x0000_0100_0000_01b3);
     }
+    hash.max(1)
 }
 
-/// A complaint to compare: the new case or a stored one.
-#[derive(Debug, Clone, PartialEq, Default)]
-pub struct Profile<'a> {
-    pub symptoms: &'a [String],
-    pub places: &'a [String],
-    pub grade: Option<&'a str>,
-    pub material: &'a str,
-    pub features: &'a [f32],
+/// Everything the distance needs of one complaint, in a fixed binary form (stored in the
+/// `features` column so that the search reads one small value per complaint).
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Key {
+    /// Bit i: symptom `vocabulary::SYMPTOM_IDS[i]` observed.
+    pub symptoms: u32,
+    /// Bit 5·i + j: symptom i seen at `vocabulary::PLACES[j]`.
+    pub places: u128,
+    pub grade: u64,
+    pub material: u64,
+    pub features: [f32; N],
+    /// False for a stored key of another layout.
+    pub valid: bool,
 }
 
-impl<'a> Profile<'a> {
-    pub fn of(row: &'a ScanRow) -> Profile<'a> {
-        Profile {
-            symptoms: &row.symptoms,
-            places: &row.places,
-            grade: row.grade.as_deref(),
-            material: &row.material,
-            features: &row.features,
+impl Key {
+    /// The key of a complaint: symptom IDs with their places (`symptom@place`), grade,
+    /// web material and indicators.
+    pub fn new(
+        symptoms: &[String],
+        places: &[String],
+        grade: Option<&str>,
+        material: &str,
+        indicators: &[IndicatorValue],
+    ) -> Key {
+        let index = |id: &str| crate::vocabulary::SYMPTOM_IDS.iter().position(|s| *s == id);
+        let mut key = Key {
+            symptoms: 0,
+            places: 0,
+            grade: text_hash(grade),
+            material: text_hash(Some(material)),
+            features: features(indicators),
+            valid: true,
+        };
+        for s in symptoms {
+            if let Some(i) = index(s) {
+                key.symptoms |= 1 << i;
+            }
         }
+        for p in places {
+            let Some((s, place)) = p.split_once('@') else {
+                continue;
+            };
+            let j = crate::vocabulary::PLACES.iter().position(|x| *x == place);
+            if let (Some(i), Some(j)) = (index(s), j) {
+                key.places |= 1u128 << (5 * i + j);
+            }
+        }
+        key
+    }
+
+    /// Stored form: layout byte, symptoms, places, grade, material, features (little-endian).
+    pub fn encode(&self) -> Vec<u8> {
+        let mut out = Vec::with_capacity(KEY_BYTES);
+        out.push(KEY_LAYOUT);
+        out.extend_from_slice(&self.symptoms.to_le_bytes());
+        out.extend_from_slice(&self.places.to_le_bytes());
+        out.extend_from_slice(&self.grade.to_le_bytes());
+        out.extend_from_slice(&self.material.to_le_bytes());
+        for f in &self.features {
+            out.extend_from_slice(&f.to_le_bytes());
+        }
+        out
+    }
+
+    /// A stored key back; a key of another layout or length comes back invalid.
+    pub fn decode(bytes: &[u8]) -> Key {
+        let mut key = Key {
+            symptoms: 0,
+            places: 0,
+            grade: 0,
+            material: 0,
+            features: [f32::NAN; N],
+            valid: false,
+        };
+        if bytes.len() != KEY_BYTES || bytes[0] != KEY_LAYOUT {
+            return key;
+        }
+        let take = |at: usize, n: usize| &bytes[at..at + n];
+        let mut b4 = [0u8; 4];
+        let mut b8 = [0u8; 8];
+        let mut b16 = [0u8; 16];
+        b4.copy_from_slice(take(1, 4));
+        key.symptoms = u32::from_le_bytes(b4);
+        b16.copy_from_slice(take(5, 16));
+        key.places = u128::from_le_bytes(b16);
+        b8.copy_from_slice(take(21, 8));
+        key.grade = u64::from_le_bytes(b8);
+        b8.copy_from_slice(take(29, 8));
+        key.material = u64::from_le_bytes(b8);
+        for (k, slot) in key.features.iter_mut().enumerate() {
+            b4.copy_from_slice(take(37 + 4 * k, 4));
+            *slot = f32::from_le_bytes(b4);
+        }
+        key.valid = true;
+        key
     }
 }
 
-fn jaccard_distance(a: &[String], b: &[String]) -> f64 {
-    let common = a.iter().filter(|x| b.contains(x)).count();
-    let union = a.len() + b.len() - common;
+const KEY_BYTES: usize = 1 + 4 + 16 + 8 + 8 + 4 * N;
+
+fn jaccard_bits(a: u128, b: u128) -> f64 {
+    let union = (a | b).count_ones();
     if union == 0 {
         0.0
     } else {
-        1.0 - common as f64 / union as f64
+        1.0 - f64::from((a & b).count_ones()) / f64::from(union)
     }
 }
 
-/// Per-feature range (max − min) over `rows` and the query.
-pub fn ranges(query: &[f32], rows: &[ScanRow]) -> Vec<f32> {
-    let n = FEATURES.len();
-    let mut low = vec![f32::INFINITY; n];
-    let mut high = vec![f32::NEG_INFINITY; n];
-    let mut take = |f: &[f32]| {
-        if f.len() == n {
-            for k in 0..n {
-                let v = f[k];
-                if v.is_finite() {
-                    low[k] = low[k].min(v);
-                    high[k] = high[k].max(v);
-                }
+/// Per-feature range (max − min) over `keys` and the query.
+pub fn ranges<'a>(query: &'a Key, keys: impl Iterator<Item = &'a Key>) -> [f32; N] {
+    let mut low = [f32::INFINITY; N];
+    let mut high = [f32::NEG_INFINITY; N];
+    for key in std::iter::once(query).chain(keys).filter(|k| k.valid) {
+        for k in 0..N {
+            let v = key.features[k];
+            // NaN fails both comparisons and is skipped.
+            if v < low[k] {
+                low[k] = v;
+            }
+            if v > high[k] {
+                high[k] = v;
             }
         }
-    };
-    take(query);
-    for r in rows {
-        take(&r.features);
     }
-    low.iter()
-        .zip(&high)
-        .map(|(l, h)| if h > l { h - l } else { 0.0 })
-        .collect()
+    let mut out = [0.0; N];
+    for k in 0..N {
+        if high[k] > low[k] {
+            out[k] = high[k] - low[k];
+        }
+    }
+    out
 }
 
-/// The distance (module docs) between two complaints, 0 (alike) to 1.
-pub fn distance(a: &Profile<'_>, b: &Profile<'_>, ranges: &[f32]) -> f64 {
-    let mut sum = W_SYMPTOMS * jaccard_distance(a.symptoms, b.symptoms);
+/// The distance (module docs) between two complaints, 0 (alike) to 1; 1 for an invalid key.
+pub fn distance(a: &Key, b: &Key, ranges: &[f32; N]) -> f64 {
+    if !a.valid || !b.valid {
+        return 1.0;
+    }
+    let mut sum = W_SYMPTOMS * jaccard_bits(u128::from(a.symptoms), u128::from(b.symptoms));
     let mut weight = W_SYMPTOMS;
-    if !a.places.is_empty() && !b.places.is_empty() {
-        sum += W_PLACES * jaccard_distance(a.places, b.places);
+    if a.places != 0 && b.places != 0 {
+        sum += W_PLACES * jaccard_bits(a.places, b.places);
         weight += W_PLACES;
     }
-    if let (Some(ga), Some(gb)) = (a.grade, b.grade) {
-        sum += W_GRADE * f64::from(u8::from(!ga.trim().eq_ignore_ascii_case(gb.trim())));
+    if a.grade != 0 && b.grade != 0 {
+        sum += W_GRADE * f64::from(u8::from(a.grade != b.grade));
         weight += W_GRADE;
     }
     sum += W_MATERIAL * f64::from(u8::from(a.material != b.material));
     weight += W_MATERIAL;
-    if a.features.len() == ranges.len() && b.features.len() == ranges.len() {
-        let mut total = 0.0f32;
-        let mut count = 0u32;
-        for k in 0..ranges.len() {
-            let (x, y) = (a.features[k], b.features[k]);
-            if x.is_finite() && y.is_finite() {
-                count += 1;
-                if ranges[k] > 0.0 {
-                    total += ((x - y).abs() / ranges[k]).min(1.0);
-                }
+    let mut total = 0.0f32;
+    let mut count = 0u32;
+    for k in 0..N {
+        let (x, y) = (a.features[k], b.features[k]);
+        if x.is_finite() && y.is_finite() {
+            count += 1;
+            if ranges[k] > 0.0 {
+                total += ((x - y).abs() / ranges[k]).min(1.0);
             }
         }
-        if count > 0 {
-            sum += W_INDICATORS * f64::from(total / count as f32);
-            weight += W_INDICATORS;
-        }
+    }
+    if count > 0 {
+        sum += W_INDICATORS * f64::from(total / count as f32);
+        weight += W_INDICATORS;
     }
     sum / weight
+}
+
+/// The `top` nearest of `keys` (complaint number, key) to `query`: (number, distance), nearest
+/// first; ties go to the older complaint.
+pub fn nearest(query: &Key, keys: &[(i64, Key)], top: usize) -> Vec<(i64, f64)> {
+    let ranges = ranges(query, keys.iter().map(|(_, k)| k));
+    let mut scored: Vec<(f64, i64)> = keys
+        .iter()
+        .map(|(id, k)| (distance(query, k, &ranges), *id))
+        .collect();
+    let keep = top.min(scored.len());
+    if keep == 0 {
+        return Vec::new();
+    }
+    let by = |a: &(f64, i64), b: &(f64, i64)| a.0.total_cmp(&b.0).then(a.1.cmp(&b.1));
+    scored.select_nth_unstable_by(keep - 1, by);
+    scored.truncate(keep);
+    scored.sort_by(by);
+    scored.into_iter().map(|(d, id)| (id, d)).collect()
 }
 
 /// One past complaint found similar.
@@ -237,44 +325,7 @@ pub struct Match {
     pub ranked_first: Option<String>,
 }
 
-/// The `top` nearest of `rows` to `query`, nearest first (ties: older complaint first).
-pub fn nearest(query: &Profile<'_>, rows: &[ScanRow], top: usize) -> Vec<Match> {
-    let ranges = ranges(query.features, rows);
-    let mut scored: Vec<(f64, usize)> = rows
-        .iter()
-        .enumerate()
-        .map(|(i, r)| (distance(query, &Profile::of(r), &ranges), i))
-        .collect();
-    let keep = top.min(scored.len());
-    if keep == 0 {
-        return Vec::new();
-    }
-    let by = |a: &(f64, usize), b: &(f64, usize)| a.0.total_cmp(&b.0).then(a.1.cmp(&b.1));
-    scored.select_nth_unstable_by(keep - 1, by);
-    scored.truncate(keep);
-    scored.sort_by(by);
-    scored
-        .into_iter()
-        .map(|(d, i)| {
-            let r = &rows[i];
-            Match {
-                id: r.id,
-                distance: d,
-                reference: r.reference.clone(),
-                title: r.title.clone(),
-                received: r.received.clone(),
-                line: r.line.clone(),
-                grade: r.grade.clone(),
-                status: r.status.clone(),
-                symptoms: r.symptoms.clone(),
-                confirmed: r.confirmed.clone(),
-                ranked_first: r.ranked.first().cloned(),
-            }
-        })
-        .collect()
-}
-
-/// The profile pieces of a new case (symptoms and places as stored).
+/// The symptom IDs and `symptom@place` pairs of a case.
 pub fn case_profile_parts(case: &crate::case::ResolvedCase) -> (Vec<String>, Vec<String>) {
     let mut symptoms: Vec<String> = Vec::new();
     let mut places = Vec::new();
@@ -289,22 +340,55 @@ pub fn case_profile_parts(case: &crate::case::ResolvedCase) -> (Vec<String>, Vec
     (symptoms, places)
 }
 
-/// The `top` stored complaints nearest to a new case.
-pub fn nearest_to_entry(entry: &super::Entry, rows: &[ScanRow], top: usize) -> Vec<Match> {
+/// The key of a new case.
+pub fn entry_key(entry: &super::Entry) -> Key {
     let (symptoms, places) = case_profile_parts(&entry.resolved);
-    let features = features(&entry.diagnosis.indicators);
-    let query = Profile {
-        symptoms: &symptoms,
-        places: &places,
-        grade: entry
+    Key::new(
+        &symptoms,
+        &places,
+        entry
             .case
             .complaint
             .as_ref()
             .and_then(|c| c.grade.as_deref()),
-        material: &entry.resolved.web.material,
-        features: &features,
-    };
-    nearest(&query, rows, top)
+        &entry.resolved.web.material,
+        &entry.diagnosis.indicators,
+    )
+}
+
+/// The `top` stored complaints nearest to a new case, leaving out complaint `except`.
+pub fn search(
+    store: &mut super::Store,
+    entry: &super::Entry,
+    top: usize,
+    except: Option<i64>,
+) -> Result<Vec<Match>, super::HistoryError> {
+    let mut keys = store.similarity_keys()?;
+    if let Some(id) = except {
+        keys.retain(|(k, _)| *k != id);
+    }
+    let found = nearest(&entry_key(entry), &keys, top);
+    let ids: Vec<i64> = found.iter().map(|(id, _)| *id).collect();
+    let rows = store.rows(&ids)?;
+    Ok(found
+        .into_iter()
+        .filter_map(|(id, distance)| {
+            let r = rows.iter().find(|r| r.id == id)?;
+            Some(Match {
+                id,
+                distance,
+                reference: r.reference.clone(),
+                title: r.title.clone(),
+                received: r.received.clone(),
+                line: r.line.clone(),
+                grade: r.grade.clone(),
+                status: r.status.clone(),
+                symptoms: r.symptoms.clone(),
+                confirmed: r.confirmed.clone(),
+                ranked_first: r.ranked.first().cloned(),
+            })
+        })
+        .collect())
 }
 
 #[cfg(test)]
@@ -315,36 +399,25 @@ mod tests {
         items.iter().map(|s| s.to_string()).collect()
     }
 
+    fn key(symptoms: &[&str], grade: &str, material: &str, value: f32) -> Key {
+        let mut k = Key::new(&strings(symptoms), &[], Some(grade), material, &[]);
+        k.features = [value; N];
+        k
+    }
+
     // Jaccard (1901): |A ∩ B| / |A ∪ B|; {a,b} vs {b,c} share 1 of 3.
     #[test]
     fn jaccard_distance_is_one_minus_shared_share() {
-        let d = jaccard_distance(&strings(&["a", "b"]), &strings(&["b", "c"]));
-        assert!((d - 2.0 / 3.0).abs() < 1e-12);
-        assert_eq!(jaccard_distance(&[], &[]), 0.0);
+        assert!((jaccard_bits(0b011, 0b110) - 2.0 / 3.0).abs() < 1e-12);
+        assert_eq!(jaccard_bits(0, 0), 0.0);
     }
 
     #[test]
-    fn distance_is_zero_to_itself_symmetric_and_at_most_one() {
-        let s1 = strings(&["telescoping"]);
-        let s2 = strings(&["starring", "telescoping"]);
-        let f1 = vec![1.0f32; FEATURES.len()];
-        let mut f2 = vec![2.0f32; FEATURES.len()];
-        f2[3] = f32::NAN;
-        let a = Profile {
-            symptoms: &s1,
-            places: &[],
-            grade: Some("news 45"),
-            material: "paper",
-            features: &f1,
-        };
-        let b = Profile {
-            symptoms: &s2,
-            places: &[],
-            grade: Some("NEWS 45"),
-            material: "film",
-            features: &f2,
-        };
-        let r = vec![2.0f32; FEATURES.len()];
+    fn distance_is_zero_to_itself_symmetric_and_as_documented() {
+        let a = key(&["telescoping"], "news 45", "paper", 1.0);
+        let mut b = key(&["starring", "telescoping"], " NEWS 45", "film", 2.0);
+        b.features[3] = f32::NAN;
+        let r = [2.0f32; N];
         assert_eq!(distance(&a, &a, &r), 0.0);
         let ab = distance(&a, &b, &r);
         assert!((ab - distance(&b, &a, &r)).abs() < 1e-12);
@@ -353,9 +426,19 @@ mod tests {
     }
 
     #[test]
-    fn encoded_features_come_back() {
-        let f: Vec<f32> = (0..FEATURES.len()).map(|i| i as f32 - 3.5).collect();
-        assert_eq!(decode(&encode(&f)), f);
-        assert!(decode(&[9, 0, 0]).is_empty());
+    fn keys_come_back_from_their_stored_form() {
+        let mut k = Key::new(
+            &strings(&["telescoping", "cinching"]),
+            &strings(&["telescoping@body", "cinching@core"]),
+            Some("PET 23"),
+            "film",
+            &[],
+        );
+        for (i, f) in k.features.iter_mut().enumerate() {
+            *f = i as f32 - 3.5;
+        }
+        assert_eq!(Key::decode(&k.encode()), k);
+        assert!(!Key::decode(&[9, 0, 0]).valid);
+        assert_eq!(k.places.count_ones(), 2);
     }
 }

@@ -103,11 +103,8 @@ pub struct ScanRow {
     pub grade: Option<String>,
     pub status: String,
     pub symptoms: Vec<String>,
-    pub places: Vec<String>,
-    pub material: String,
     pub confirmed: Vec<String>,
     pub ranked: Vec<String>,
-    pub features: Vec<f32>,
 }
 
 /// The data of a new version computed from a case.
@@ -184,6 +181,14 @@ impl Derived {
             .collect();
         let indicators: Vec<crate::diagnose::indicators::IndicatorValue> =
             serde_json::from_value(version.indicators.clone()).unwrap_or_default();
+        let material = resolved["web"]["material"].as_str().unwrap_or("");
+        let key = similar::Key::new(
+            &symptoms,
+            &places,
+            c.grade.as_deref(),
+            material,
+            &indicators,
+        );
         Derived {
             reference: c.reference.clone(),
             title: resolved["title"].as_str().unwrap_or("").to_string(),
@@ -194,13 +199,10 @@ impl Derived {
             status: c.status_or_open().to_string(),
             symptoms: words(&symptoms),
             places: words(&places),
-            material: resolved["web"]["material"]
-                .as_str()
-                .unwrap_or("")
-                .to_string(),
+            material: material.to_string(),
             confirmed: words(&c.confirmed_cause_ids()),
             ranked: words(&ranked),
-            features: similar::encode(&similar::features(&indicators)),
+            features: key.encode(),
         }
     }
 }
@@ -239,7 +241,8 @@ fn to_value(value: &impl Serialize) -> Result<serde_json::Value, HistoryError> {
 
 const SUMMARY_COLUMNS: &str = "id, latest_version, reference, title, received, created_at, line, grade, status, symptoms, confirmed, ranked";
 
-const SCAN_COLUMNS: &str = "id, reference, title, received, line, grade, status, symptoms, places, material, confirmed, ranked, features";
+const SCAN_COLUMNS: &str =
+    "id, reference, title, received, line, grade, status, symptoms, confirmed, ranked";
 
 const VERSION_COLUMNS: &str = "version, recorded_at, change, app_version, rules_version, case_text, resolved_json, indicators_json, causes_json, remedies_json, complaint_json";
 
@@ -454,7 +457,31 @@ impl Store {
         Ok(rows.into_iter().map(summary_from_row).collect())
     }
 
-    /// Every complaint's latest key values, for the similarity search and the site experience.
+    /// Every complaint's similarity key (the one wide scan of the similarity search).
+    pub fn similarity_keys(&mut self) -> Result<Vec<(i64, similar::Key)>, HistoryError> {
+        let mut out = Vec::new();
+        self.conn
+            .query_each("SELECT id, features FROM complaints", &[], |row| {
+                let id = row.first().and_then(Value::int).unwrap_or(0);
+                let key = similar::Key::decode(row.get(1).and_then(Value::blob).unwrap_or(&[]));
+                out.push((id, key));
+                Ok(())
+            })?;
+        Ok(out)
+    }
+
+    /// The key values of the listed complaints (any order; missing numbers are left out).
+    pub fn rows(&mut self, ids: &[i64]) -> Result<Vec<ScanRow>, HistoryError> {
+        let mut out = Vec::with_capacity(ids.len());
+        let sql = format!("SELECT {SCAN_COLUMNS} FROM complaints WHERE id = ?");
+        for id in ids {
+            let rows = self.conn.query(&sql, &[(*id).into()])?;
+            out.extend(rows.into_iter().map(scan_from_row));
+        }
+        Ok(out)
+    }
+
+    /// Every complaint's key values, oldest first.
     pub fn scan(&mut self) -> Result<Vec<ScanRow>, HistoryError> {
         let sql = format!("SELECT {SCAN_COLUMNS} FROM complaints ORDER BY id");
         let mut out = Vec::new();
@@ -467,9 +494,8 @@ impl Store {
 
     /// Only complaints with a confirmed cause (the site experience and performance need no more).
     pub fn scan_confirmed(&mut self) -> Result<Vec<ScanRow>, HistoryError> {
-        // The features are not needed here: leaving them out keeps the read narrow.
-        let columns = SCAN_COLUMNS.replace("features", "NULL AS features");
-        let sql = format!("SELECT {columns} FROM complaints WHERE confirmed <> ' ' ORDER BY id");
+        let sql =
+            format!("SELECT {SCAN_COLUMNS} FROM complaints WHERE confirmed <> ' ' ORDER BY id");
         let mut out = Vec::new();
         self.conn.query_each(&sql, &[], |row| {
             out.push(scan_from_row(row));
@@ -724,11 +750,8 @@ fn scan_from_row(row: Row) -> ScanRow {
         grade: next().into_text(),
         status: next().into_text().unwrap_or_default(),
         symptoms: split_words(next().text()),
-        places: split_words(next().text()),
-        material: next().into_text().unwrap_or_default(),
         confirmed: split_words(next().text()),
         ranked: split_words(next().text()),
-        features: similar::decode(next().blob().unwrap_or(&[])),
     }
 }
 
