@@ -93,8 +93,14 @@ pub fn run(args: &DiagnoseArgs) -> anyhow::Result<()> {
         what_if: !args.no_what_if,
         ..DiagnoseOptions::default()
     };
-    let (_profile, mut diagnosis) = diagnose::triage(&rules, &resolved, &options)
-        .with_context(|| format!("diagnosing {}", args.case.display()))?;
+    let context = || format!("diagnosing {}", args.case.display());
+    // The cheap checks first, so a mistyped symptom or answer fails before the solve.
+    diagnose::check_inputs(&rules, &resolved).with_context(context)?;
+    let triage = super::progress::with_progress_bar("diagnosing", |progress| {
+        diagnose::pipeline::triage(&rules, (&resolved).into(), &options, progress)
+    })
+    .with_context(context)?;
+    let mut diagnosis = triage.diagnosis.with_context(context)?;
     let mut past = String::new();
     if let Some(place) = &args.history {
         let site = super::history::SiteView::new(place, !args.no_site_history, args.top);

@@ -5,6 +5,7 @@ pub mod calibrate;
 pub mod case;
 pub mod diagnose;
 pub mod history;
+pub mod progress;
 pub mod report;
 pub mod rules;
 pub mod stress;
