@@ -227,6 +227,111 @@ impl Complaint {
         Ok(())
     }
 
+    /// The record in plain words, one (label, value) line per field given, in the order a
+    /// reader wants them (reports and `history show`).
+    pub fn lines(&self) -> Vec<(&'static str, String)> {
+        let mut out: Vec<(&'static str, String)> = Vec::new();
+        let mut add = |label: &'static str, value: Option<String>| {
+            if let Some(v) = value.filter(|v| !v.trim().is_empty()) {
+                out.push((label, v));
+            }
+        };
+        add("Reference", self.reference.clone());
+        add("Status", Some(self.status_or_open().replace('_', " ")));
+        add("From", self.source.clone());
+        add("Customer", self.customer.clone());
+        add("Received", self.received.clone());
+        add("Line", self.line.clone());
+        add("Grade", self.grade.clone());
+        add("Lot", self.lot.clone());
+        add("Parent roll", self.parent_roll.clone());
+        add("Set", self.set.clone());
+        add(
+            "Rolls affected",
+            match (self.rolls_affected, self.rolls_checked) {
+                (Some(a), Some(c)) => Some(format!("{a} of {c} checked")),
+                (Some(a), None) => Some(a.to_string()),
+                (None, Some(c)) => Some(format!("? of {c} checked")),
+                (None, None) => None,
+            },
+        );
+        add(
+            "Slit positions",
+            Some(
+                self.slit_positions
+                    .iter()
+                    .map(u32::to_string)
+                    .collect::<Vec<_>>()
+                    .join(", "),
+            ),
+        );
+        add(
+            "Found at",
+            self.found_at.as_ref().map(|f| f.replace('_', " ")),
+        );
+        add("Containment", self.containment.clone());
+        for c in &self.confirmed_causes {
+            let who = [c.confirmed_on.as_deref(), c.confirmed_by.as_deref()]
+                .iter()
+                .flatten()
+                .copied()
+                .collect::<Vec<_>>()
+                .join(", ");
+            add(
+                "Confirmed cause",
+                Some(format!(
+                    "{} — {}{}",
+                    c.cause,
+                    c.evidence.as_deref().unwrap_or("no evidence written"),
+                    if who.is_empty() {
+                        String::new()
+                    } else {
+                        format!(" ({who})")
+                    }
+                )),
+            );
+        }
+        for a in &self.actions {
+            let mut extra = Vec::new();
+            if let Some(o) = &a.owner {
+                extra.push(format!("owner {o}"));
+            }
+            if let Some(d) = &a.due {
+                extra.push(format!("due {d}"));
+            }
+            if let Some(d) = &a.done {
+                extra.push(format!("done {d}"));
+            }
+            let extra = if extra.is_empty() {
+                String::new()
+            } else {
+                format!(" ({})", extra.join(", "))
+            };
+            add("Corrective action", Some(format!("{}{extra}", a.action)));
+        }
+        if let Some(v) = &self.verification {
+            add(
+                "Verification",
+                Some(format!(
+                    "{}{}{}",
+                    v.result
+                        .as_deref()
+                        .unwrap_or("not_checked")
+                        .replace('_', " "),
+                    v.checked_on
+                        .as_deref()
+                        .map(|d| format!(", checked {d}"))
+                        .unwrap_or_default(),
+                    v.notes
+                        .as_deref()
+                        .map(|n| format!(" — {n}"))
+                        .unwrap_or_default()
+                )),
+            );
+        }
+        out
+    }
+
     /// Confirmed cause IDs, deduplicated, in record order.
     pub fn confirmed_cause_ids(&self) -> Vec<String> {
         let mut out: Vec<String> = Vec::new();

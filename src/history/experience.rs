@@ -118,7 +118,7 @@ pub fn apply(
             }
             let k = counted
                 .iter()
-                .filter(|r| r.confirmed.iter().any(|c| *c == cause.id))
+                .filter(|r| r.confirmed.contains(&cause.id))
                 .count();
             let cf = factor(k, n, candidates.len());
             let place = match &scope {

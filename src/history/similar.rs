@@ -274,12 +274,11 @@ pub fn distance(a: &Key, b: &Key, ranges: &[f32; N]) -> f64 {
     weight += W_MATERIAL;
     let mut total = 0.0f32;
     let mut count = 0u32;
-    for k in 0..N {
-        let (x, y) = (a.features[k], b.features[k]);
+    for ((x, y), range) in a.features.iter().zip(&b.features).zip(ranges) {
         if x.is_finite() && y.is_finite() {
             count += 1;
-            if ranges[k] > 0.0 {
-                total += ((x - y).abs() / ranges[k]).min(1.0);
+            if *range > 0.0 {
+                total += ((x - y).abs() / range).min(1.0);
             }
         }
     }
