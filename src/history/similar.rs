@@ -350,7 +350,7 @@ pub fn entry_key(entry: &super::Entry) -> Key {
             .complaint
             .as_ref()
             .and_then(|c| c.grade.as_deref()),
-        &entry.resolved.web.material,
+        entry.resolved.web.material.id(),
         &entry.diagnosis.indicators,
     )
 }
