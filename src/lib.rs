@@ -12,6 +12,7 @@ pub mod complaint;
 pub mod diagnose;
 pub mod fsutil;
 pub mod history;
+pub mod mechanics;
 pub mod model;
 pub mod presets;
 pub mod report;
