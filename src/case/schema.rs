@@ -81,6 +81,9 @@ pub struct Case {
     pub answers: BTreeMap<String, String>,
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub notes: Option<String>,
+    /// The complaint record (docs/history.md); every field optional.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub complaint: Option<crate::complaint::Complaint>,
 }
 
 #[derive(Debug, Clone, PartialEq, Default, Serialize, Deserialize)]

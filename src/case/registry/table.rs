@@ -492,6 +492,11 @@ pub const NOTES: Field = Field {
     help: "Anything else.",
     ..plain("notes", "Notes", Text)
 };
+/// The complaint record's own fields and checks live in `complaint.rs` (docs/history.md).
+pub const COMPLAINT: Field = Field {
+    help: "The complaint record: reference, customer, dates, rolls, status, confirmed causes, actions (docs/history.md).",
+    ..plain("complaint", "Complaint record", Section)
+};
 
 /// Every field of the case file, in schema order (the inputs form keeps this order).
 pub const FIELDS: &[&Field] = &[
@@ -549,4 +554,5 @@ pub const FIELDS: &[&Field] = &[
     &SYMPTOM_NOTES,
     &ANSWERS,
     &NOTES,
+    &COMPLAINT,
 ];
