@@ -9,6 +9,7 @@
 pub mod calibrate;
 pub mod case;
 pub mod diagnose;
+pub mod evidence;
 pub mod fsutil;
 pub mod model;
 pub mod presets;
