@@ -133,12 +133,19 @@ fn fit_matches_scipy_least_squares() {
             "{parameters} parameter(s): SE {} vs SciPy {scipy_se}",
             tension.standard_error
         );
-        assert_eq!(result.data_points, fit["data_points"].as_u64().unwrap() as usize);
+        assert_eq!(
+            result.data_points,
+            fit["data_points"].as_u64().unwrap() as usize
+        );
         if parameters == 2 {
             let k = result.stiffness_scale.expect("stiffness scale fitted");
             let scipy_k = scales[1].as_f64().unwrap();
             let scipy_kse = errors[1].as_f64().unwrap();
-            assert!((k.value / scipy_k - 1.0).abs() < 1e-3, "{} vs {scipy_k}", k.value);
+            assert!(
+                (k.value / scipy_k - 1.0).abs() < 1e-3,
+                "{} vs {scipy_k}",
+                k.value
+            );
             assert!(
                 (k.standard_error / scipy_kse - 1.0).abs() < 0.01,
                 "{} vs {scipy_kse}",
@@ -252,7 +259,11 @@ fn refuses_with_the_reason_when_the_data_cannot_decide() {
     )
     .unwrap();
     assert!(none.tension_scale.is_none());
-    assert!(none.refused[0].contains("nothing fixes the level"), "{:?}", none.refused);
+    assert!(
+        none.refused[0].contains("nothing fixes the level"),
+        "{:?}",
+        none.refused
+    );
     // Uncalibrated hardness: the shape only.
     let mut m = synthetic(&problem, 1.0, 3, 0.0);
     m.size = None;
@@ -276,7 +287,10 @@ fn refuses_with_the_reason_when_the_data_cannot_decide() {
     assert!(density_only.tension_scale.is_some());
     assert!(density_only.stiffness_scale.is_none());
     assert!(
-        density_only.refused.iter().any(|r| r.starts_with("stiffness scale")),
+        density_only
+            .refused
+            .iter()
+            .any(|r| r.starts_with("stiffness scale")),
         "{:?}",
         density_only.refused
     );
@@ -289,7 +303,11 @@ fn refuses_with_the_reason_when_the_data_cannot_decide() {
         }
     }
     let impossible = estimate(&m, &problem, &crate_solve, &FitOptions::default()).unwrap();
-    assert!(impossible.tension_scale.is_none(), "{:?}", impossible.tension_scale);
+    assert!(
+        impossible.tension_scale.is_none(),
+        "{:?}",
+        impossible.tension_scale
+    );
     assert!(
         impossible.refused.iter().any(|r| r.contains("beyond")),
         "{:?}",

@@ -133,6 +133,7 @@ fn fixture(with_remedy: bool) -> ReportInput {
             value: "3 µm".into(),
             source: "preset newsprint (from memory)".into(),
         }],
+        measurements: None,
     };
     let diagnosis = Diagnosis {
         causes: vec![

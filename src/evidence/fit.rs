@@ -136,8 +136,15 @@ pub fn scaled_problem(problem: &WindingProblem, tension: f64, stiffness: f64) ->
 /// A datum: what the model is asked for and the measured value.
 #[derive(Debug, Clone, Copy)]
 enum Datum {
-    Compression { measured: f64, sigma: f64 },
-    Pressure { radius: f64, measured: f64, sigma: f64 },
+    Compression {
+        measured: f64,
+        sigma: f64,
+    },
+    Pressure {
+        radius: f64,
+        measured: f64,
+        sigma: f64,
+    },
 }
 
 impl Datum {
@@ -153,9 +160,10 @@ impl Datum {
     }
     fn measured(&self) -> (f64, f64) {
         match *self {
-            Datum::Compression { measured, sigma } | Datum::Pressure { measured, sigma, .. } => {
-                (measured, sigma)
-            }
+            Datum::Compression { measured, sigma }
+            | Datum::Pressure {
+                measured, sigma, ..
+            } => (measured, sigma),
         }
     }
 }
@@ -336,9 +344,7 @@ pub fn estimate(
                     refused,
                     ..fit
                 };
-                out.effective_tension = out
-                    .tension_scale
-                    .map(|s| s.value * out.settings_tension);
+                out.effective_tension = out.tension_scale.map(|s| s.value * out.settings_tension);
                 return Ok(out);
             }
             FitOutcome::Refused(reason) if parameters == 2 => {
@@ -483,7 +489,11 @@ impl InverseEstimate {
             out.push(format!(
                 "Fit: {quality}; {} iterations{}.",
                 self.iterations,
-                if self.converged { "" } else { ", not converged" }
+                if self.converged {
+                    ""
+                } else {
+                    ", not converged"
+                }
             ));
             for r in &self.residuals {
                 let (m, f, s) = if r.what.starts_with("pressure") {

@@ -55,7 +55,12 @@ pub fn model_mean_compression(profile: &Profile) -> Option<f64> {
 
 /// Outside diameter (m) a roll of `length` reaches when its stack is compressed by
 /// `compression` on average: D = 2·√(rc² + L·h·(1 − ε̄)/π).
-pub fn diameter_for(length: f64, caliper: f64, core_outside_diameter: f64, compression: f64) -> f64 {
+pub fn diameter_for(
+    length: f64,
+    caliper: f64,
+    core_outside_diameter: f64,
+    compression: f64,
+) -> f64 {
     let rc = core_outside_diameter / 2.0;
     2.0 * (rc * rc + length * caliper * (1.0 - compression) / std::f64::consts::PI).sqrt()
 }

@@ -134,7 +134,10 @@ pub struct HardnessComparison {
 }
 
 /// Compare readings along the radius with the computed pressure.
-pub fn compare_profile(hardness: &HardnessProfile, profile: &Profile) -> Option<HardnessComparison> {
+pub fn compare_profile(
+    hardness: &HardnessProfile,
+    profile: &Profile,
+) -> Option<HardnessComparison> {
     let (rc, ro) = (*profile.radius.first()?, *profile.radius.last()?);
     let mut left_out = Vec::new();
     let mut kept: Vec<(f64, f64)> = Vec::new();
@@ -193,8 +196,7 @@ pub fn compare_profile(hardness: &HardnessProfile, profile: &Profile) -> Option<
         let (depth, computed_depth) = (dip(&nh, i), dip(&nc, i));
         let excess = (depth - computed_depth).max(0.0);
         unexplained = Some(unexplained.map_or(excess, |u: f64| u.max(excess)));
-        if excess > SOFT_BAND_SHARE
-            && soft_band.is_none_or(|b| excess > b.depth - b.computed_depth)
+        if excess > SOFT_BAND_SHARE && soft_band.is_none_or(|b| excess > b.depth - b.computed_depth)
         {
             soft_band = Some(SoftBand {
                 diameter,

@@ -375,7 +375,11 @@ impl Evidence {
                     "hard lanes {:?}, soft lanes {:?}{}; the model computes one value across the width",
                     l.hard_lanes,
                     l.soft_lanes,
-                    if l.hard_edges { ", both edges hard" } else { "" }
+                    if l.hard_edges {
+                        ", both edges hard"
+                    } else {
+                        ""
+                    }
                 ),
             );
         }
@@ -480,7 +484,9 @@ impl Evidence {
                     "Hardness along the radius: rank correlation with the computed pressure {rho:.2} \
                      (1 = same shape)."
                 ),
-                None => "Hardness along the radius: too few readings for a shape comparison.".into(),
+                None => {
+                    "Hardness along the radius: too few readings for a shape comparison.".into()
+                }
             };
             line.push_str(&format!(
                 " Softest at Ø {} (model: Ø {}), hardest at Ø {} (model: Ø {}).",
@@ -559,8 +565,10 @@ impl Evidence {
                 s.rolls,
                 match s.pattern {
                     SetPatternKind::AllRolls => "all of them: points to the settings",
-                    SetPatternKind::Edges => "only edge positions: points to the web's profile or the trim",
-                    SetPatternKind::OneLane => "one position: points to the web's profile or the slitter",
+                    SetPatternKind::Edges =>
+                        "only edge positions: points to the web's profile or the trim",
+                    SetPatternKind::OneLane =>
+                        "one position: points to the web's profile or the slitter",
                     SetPatternKind::SomeRolls => "some of them",
                     SetPatternKind::NoneBad => "none",
                 },

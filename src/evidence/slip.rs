@@ -66,7 +66,11 @@ pub fn torque_capacity(profile: &Profile, friction: f64) -> Vec<(f64, f64)> {
 }
 
 /// Compare the line on the roll end with the computed capacities.
-pub fn compare(line: &EndLine, problem: &WindingProblem, profile: &Profile) -> Option<SlipComparison> {
+pub fn compare(
+    line: &EndLine,
+    problem: &WindingProblem,
+    profile: &Profile,
+) -> Option<SlipComparison> {
     let capacity = torque_capacity(profile, problem.winding.friction);
     let (weak_i, &(weak_r, weak_c)) = capacity
         .iter()

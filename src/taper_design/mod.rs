@@ -1323,6 +1323,7 @@ mod tests {
             symptoms: vec![],
             answers: Default::default(),
             assumed: vec![],
+            measurements: None,
         }
     }
 

@@ -58,6 +58,7 @@ pub fn newsprint(title: &str) -> ResolvedCase {
         symptoms: vec![],
         answers: BTreeMap::new(),
         assumed: vec![],
+        measurements: None,
     }
 }
 
@@ -101,6 +102,7 @@ pub fn pet_film(title: &str) -> ResolvedCase {
         symptoms: vec![],
         answers: BTreeMap::new(),
         assumed: vec![],
+        measurements: None,
     }
 }
 

@@ -121,6 +121,7 @@ pub fn resolved(title: &str) -> ResolvedCase {
         symptoms: vec![],
         answers: BTreeMap::new(),
         assumed: vec![],
+        measurements: None,
     }
 }
 
