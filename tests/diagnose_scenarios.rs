@@ -18,8 +18,7 @@ fn options() -> DiagnoseOptions {
     DiagnoseOptions {
         top: 0,
         what_if: false,
-        solve_with: Some(common::solve),
-        ..DiagnoseOptions::default()
+        solver: common::SOLVER,
     }
 }
 
@@ -84,7 +83,8 @@ fn assert_below(d: &Diagnosis, lower: &str, higher: &str) {
 
 // ---------------------------------------------------------------------------------------------
 // Telescoping: too little wound-in tension vs air at speed vs too much taper vs a slick web.
-// Roisum, The Mechanics of Winding (1994): telescoping needs low interlayer pressure × friction;
+// Walker, Lock up your valuables (Pulp & Paper Canada 2007): telescoping is sideways slip between
+// layers; Walker, The pressure of winding rolls (PFFC 2006): too little pressure telescopes;
 // Knox & Sweeney (1971) air film; Michal (PFFC): slick webs telescope.
 
 #[test]
@@ -275,7 +275,8 @@ fn kestrel_blocking_from_high_pressure() {
 }
 
 // ---------------------------------------------------------------------------------------------
-// Cinching: stop torque vs slack winding. Roisum (1994); Walker, Cinching (PFFC).
+// Cinching: stop torque vs slack winding. Walker, Lock up your valuables (Pulp & Paper Canada 2007):
+// layers cinch where the applied torque exceeds what they can transmit; Walker, Cinching (PFFC).
 
 #[test]
 fn harbour_cinching_after_emergency_stop() {
@@ -301,7 +302,8 @@ fn harbour_cinching_from_slack_wind() {
 }
 
 // ---------------------------------------------------------------------------------------------
-// Soft rolls, tin canning: air vs taper. Forrest (IWEB) air entrainment; Roisum (1994).
+// Soft rolls, tin canning: air vs taper vs gauge bands. Forrest (IWEB) air entrainment; Hawkins,
+// MD wrinkle formation (PFFC 2001): tin canning sits between gauge bands, air masks it.
 
 #[test]
 fn harbour_soft_roll_from_air_without_rider() {
@@ -342,7 +344,8 @@ fn kestrel_tin_canning_between_gauge_bands() {
 }
 
 // ---------------------------------------------------------------------------------------------
-// Handling and storage. Roisum (2002): soft rolls stored on their side go egg-shaped.
+// Handling and storage. Smith, The art of winding (Black Clawson): soft rolls go out of round when
+// handled or stored; rolls stacked on their side take flat spots (common practice).
 
 #[test]
 fn harbour_out_of_round_from_side_storage() {
@@ -363,7 +366,8 @@ fn fenmoor_wrinkles_diagonal_from_misalignment() {
 
 #[test]
 fn kestrel_gauge_bands_from_heavy_nip() {
-    // Corrugations are almost always nip induced (Roisum, Converting Magazine 2003).
+    // The lay-on roll load concentrates on the gauge bands and stretches the web over them
+    // (Hawkins, MD wrinkle formation causes and cures, PFFC 2001).
     let mut case = with_symptoms(pet_film("Kestrel heavy lay-on"), &["gauge_bands"]);
     case.winding.nip_load = Some(1400.0);
     let case = answer(case, "gauge_bands.worse_with_nip", "yes");
@@ -481,4 +485,43 @@ fn rigid_core_counts_as_very_stiff() {
         .map(|c| c.belief)
         .unwrap_or(0.0);
     assert!(soft < 0.3, "core_too_soft {soft}: {}", listing(&d));
+}
+
+/// The one triage pipeline: progress runs forward to 1, a `false` from the progress callback
+/// cancels the case's own solve and also the what-if re-solves.
+#[test]
+fn the_triage_pipeline_reports_progress_and_can_be_cancelled() {
+    use rolltriage::diagnose::pipeline;
+    use rolltriage::model::ModelError;
+    let rules = rules();
+    let case = harbour_telescoping_demo();
+    let options = DiagnoseOptions {
+        top: 3,
+        what_if: true,
+        solver: common::SOLVER,
+    };
+    let mut seen: Vec<f64> = Vec::new();
+    let triage = pipeline::triage(&rules, (&case).into(), &options, &mut |f| {
+        seen.push(f);
+        true
+    })
+    .unwrap();
+    let diagnosis = triage.diagnosis.unwrap();
+    assert!(diagnosis.remedies.iter().any(|r| r.what_if.is_some()));
+    assert!(seen.windows(2).all(|w| w[1] >= w[0]), "{seen:?}");
+    assert_eq!(seen.last(), Some(&1.0));
+    // The what-if re-solves ran on the grid of the case's own solve.
+    assert!(triage.profile.solver.grid.layers_per_element > 1);
+
+    let cancelled = pipeline::triage(&rules, (&case).into(), &options, &mut |_| false);
+    assert!(matches!(
+        cancelled,
+        Err(diagnose::DiagnoseError::Model(ModelError::Cancelled))
+    ));
+    // Cancelled once the case's solve is done, during the what-if re-solves.
+    let during_what_if = pipeline::triage(&rules, (&case).into(), &options, &mut |f| f <= 0.5);
+    assert!(matches!(
+        during_what_if,
+        Err(diagnose::DiagnoseError::Model(ModelError::Cancelled))
+    ));
 }

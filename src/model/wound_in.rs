@@ -12,6 +12,25 @@ pub enum WindingMethod {
     CentreSurface,
 }
 
+impl WindingMethod {
+    pub const ALL: [WindingMethod; 3] = [
+        WindingMethod::Centre,
+        WindingMethod::Surface,
+        WindingMethod::CentreSurface,
+    ];
+    /// The IDs case files and rules use, in the order of [`WindingMethod::ALL`].
+    pub const IDS: [&'static str; 3] = ["centre", "surface", "centre_surface"];
+
+    /// The ID case files and rules use (the serde name).
+    pub fn id(self) -> &'static str {
+        match self {
+            WindingMethod::Centre => "centre",
+            WindingMethod::Surface => "surface",
+            WindingMethod::CentreSurface => "centre_surface",
+        }
+    }
+}
+
 /// Winding settings in SI.
 #[derive(Debug, Clone, PartialEq, serde::Serialize, serde::Deserialize)]
 pub struct WindingSetup {
@@ -172,6 +191,14 @@ impl WindingSetup {
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    #[test]
+    fn method_ids_are_the_serde_names() {
+        for (method, id) in WindingMethod::ALL.iter().zip(WindingMethod::IDS) {
+            assert_eq!(method.id(), id);
+            assert_eq!(serde_json::to_string(method).unwrap(), format!("\"{id}\""));
+        }
+    }
 
     #[test]
     fn knox_sweeney_check_value() {
