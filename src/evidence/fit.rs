@@ -313,13 +313,11 @@ pub fn estimate(
         return Ok(out);
     }
     // One grid for every solve of the fit, so the residuals are smooth in the parameters: the
-    // automatic resolution's choice at the settings.
+    // grid the solve at the settings used (the model's grid policy).
     let first = solve(problem)?;
     let mut fixed = problem.clone();
-    if problem.options.resolution == Resolution::Auto && first.summary.layers_per_element > 1 {
-        fixed.options.resolution = Resolution::Grouped {
-            layers: first.summary.layers_per_element,
-        };
+    if problem.options.resolution == Resolution::Auto {
+        fixed.options.resolution = first.solver.grid.resolution();
     }
     let mut parameters = 1;
     if options.stiffness {
