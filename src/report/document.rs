@@ -58,6 +58,8 @@ fn si_unit(kind: QuantityKind) -> &'static str {
         QuantityKind::Torque => "N·m",
         QuantityKind::Temperature => "°C",
         QuantityKind::Percent => "1",
+        QuantityKind::Mass => "kg",
+        QuantityKind::BasisWeight => "kg/m²",
     }
 }
 
