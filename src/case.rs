@@ -10,6 +10,8 @@
 //! limits on nesting depth (128) and alias expansion stop deep or "billion laughs" documents;
 //! duplicate keys are refused everywhere.
 
+pub mod measurements;
+
 use std::collections::BTreeMap;
 
 use serde::{Deserialize, Serialize};
@@ -51,6 +53,9 @@ pub struct Case {
     pub answers: BTreeMap<String, String>,
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub notes: Option<String>,
+    /// What was measured on the bad roll (docs/evidence.md).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub measurements: Option<measurements::MeasurementsInput>,
 }
 
 #[derive(Debug, Clone, PartialEq, Default, Serialize, Deserialize)]
@@ -970,6 +975,14 @@ impl Resolver {
                 ));
             }
         }
+        // A weight needs the width; an assumed width would make up a length.
+        let width_given = !self.assumed.iter().any(|a| a.field == "web.width");
+        let measurements = match &case.measurements {
+            Some(input) => {
+                measurements::resolve(input, &self.origin, width_given.then_some(web.width))?
+            }
+            None => None,
+        };
         Ok(ResolvedCase {
             title: case.title.clone(),
             web,
@@ -978,8 +991,8 @@ impl Resolver {
             winding,
             symptoms: case.symptoms.clone(),
             answers: case.answers.clone(),
+            measurements,
             assumed: self.assumed,
-            measurements: None,
         })
     }
 

@@ -36,6 +36,8 @@ pub struct DiagnoseArgs {
     /// Skip the what-if re-solves of setting changes.
     #[arg(long)]
     pub no_what_if: bool,
+    #[arg(long = "measure", value_name = "KEY=VALUE", help = super::measure::MEASURE_HELP)]
+    pub measure: Vec<String>,
 }
 
 /// The rule base: `--rules DIR` or the shipped one.
@@ -50,8 +52,9 @@ pub fn load_rules(dir: Option<&PathBuf>) -> anyhow::Result<RuleBase> {
 
 pub fn run(args: &DiagnoseArgs) -> anyhow::Result<()> {
     let rules = load_rules(args.rules.as_ref())?;
-    let case =
+    let mut case =
         Case::load(&args.case).with_context(|| format!("reading {}", args.case.display()))?;
+    super::measure::apply_measure_args(&mut case, &args.measure)?;
     let mut resolved = case
         .resolve()
         .with_context(|| format!("resolving {}", args.case.display()))?;

@@ -66,6 +66,7 @@ pub struct IndicatorSpec {
 /// The indicators that come from measurements (src/evidence), not from the solve.
 pub const EVIDENCE_IDS: &[&str] = &[
     "measured_density_ratio",
+    "density_deviation",
     "hardness_shape_agreement",
     "hardness_soft_band",
     "lane_hardness_spread",
@@ -310,6 +311,12 @@ pub const INDICATORS: &[IndicatorSpec] = &[
         Dimension::Ratio,
         ZoneUse::None,
         "wound density measured (length or weight and diameter) divided by the computed one (below 1 = looser than the settings give)",
+    ),
+    spec(
+        "density_deviation",
+        Dimension::Ratio,
+        ZoneUse::None,
+        "measured minus computed mean radial compression in standard uncertainties of the measurement (below −2 = clearly looser than the settings give, above 2 = clearly denser)",
     ),
     spec(
         "hardness_shape_agreement",

@@ -278,6 +278,9 @@ fn set_pattern(set: &RollSet) -> SetPattern {
     }
 }
 
+/// Lane spread below which the text calls the width even (the rules use 5 % the same way).
+const EVEN_LANES: f64 = 0.05;
+
 fn mm(metres: f64) -> String {
     let v = metres * 1e3;
     if v.abs() >= 100.0 {
@@ -338,7 +341,19 @@ impl Evidence {
                     pct(d.computed_compression)
                 ),
             };
-            push("measured_density_ratio", d.density_ratio, detail);
+            push("measured_density_ratio", d.density_ratio, detail.clone());
+            if d.compression_uncertainty > 0.0 {
+                push(
+                    "density_deviation",
+                    (d.measured_compression - d.computed_compression) / d.compression_uncertainty,
+                    format!(
+                        "{detail}; compression {} ± {} measured, {} computed",
+                        pct(d.measured_compression),
+                        pct(d.compression_uncertainty),
+                        pct(d.computed_compression)
+                    ),
+                );
+            }
         }
         if let Some(h) = &self.hardness {
             if let Some(rho) = h.rank_correlation {
@@ -515,15 +530,27 @@ impl Evidence {
             }
         }
         if let Some(l) = &self.lanes {
-            out.push(format!(
-                "Hardness across the width: spread {} of the mean; hard lanes {:?}, soft lanes {:?}{}. \
-                 The model cannot compute lanes: hard and soft lanes point to caliper variation \
-                 across the width (gauge bands) or an uneven nip.",
-                pct(l.spread),
-                l.hard_lanes,
-                l.soft_lanes,
-                if l.hard_edges { ", both edges hard" } else { "" }
-            ));
+            out.push(if l.spread < EVEN_LANES {
+                format!(
+                    "Hardness across the width: even (spread {} of the mean). The model cannot \
+                     compute lanes; these readings show none.",
+                    pct(l.spread)
+                )
+            } else {
+                format!(
+                    "Hardness across the width: spread {} of the mean; hard lanes {:?}, soft lanes \
+                     {:?}{}. The model cannot compute lanes: hard and soft lanes point to caliper \
+                     variation across the width (gauge bands) or an uneven nip.",
+                    pct(l.spread),
+                    l.hard_lanes,
+                    l.soft_lanes,
+                    if l.hard_edges {
+                        ", both edges hard"
+                    } else {
+                        ""
+                    }
+                )
+            });
         }
         if let Some(s) = &self.end_line {
             let mut line = format!(
