@@ -224,6 +224,7 @@ fn fixture(with_remedy: bool) -> ReportInput {
             },
         ],
         indicators: vec![],
+        evidence: None,
     };
     let profile = synthetic_profile(60e3, 1.15e6);
     let remedy = with_remedy.then(|| {

@@ -145,11 +145,20 @@ pub fn diagnose_solved(
             text: c.text.clone(),
         })
         .collect();
+    let evidence = match &case.measurements {
+        Some(m) => Some(crate::evidence::compare(
+            m,
+            &case.problem(options.solver),
+            profile,
+        )?),
+        None => None,
+    };
     Ok(Diagnosis {
         causes,
         remedies,
         cautions,
         indicators: indicators.values(),
+        evidence,
     })
 }
 

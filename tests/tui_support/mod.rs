@@ -289,6 +289,7 @@ pub fn diagnosis(scale: f64) -> Diagnosis {
                 meaning: "share of the outer zone below the loose-roll pressure".into(),
             },
         ],
+        evidence: None,
     }
 }
 
