@@ -119,7 +119,7 @@ fn run_stack(args: &StackArgs) -> anyhow::Result<()> {
         let mut case = rolltriage::case::Case::load(path)
             .with_context(|| format!("cannot write the fit into {}", path.display()))?;
         calibrate::apply_to_case(&mut case, &fit);
-        if let (Some(caliper), Some(thickness)) = (test.caliper(), case.web.thickness.as_ref()) {
+        if let Some(thickness) = case.web.thickness.as_ref() {
             let field = format!("{} web.thickness", path.display());
             let thickness = match thickness {
                 rolltriage::case::QuantityText::Number(v) => Some(*v),
@@ -127,15 +127,10 @@ fn run_stack(args: &StackArgs) -> anyhow::Result<()> {
                     parse_quantity(&field, t, QuantityKind::Length).ok()
                 }
             };
-            if let Some(t) = thickness
-                && t > 0.0
-                && (caliper / t - 1.0).abs() > 0.10
+            if let Some(warning) =
+                thickness.and_then(|t| calibrate::caliper_warning(&test, t, "web.thickness"))
             {
-                eprintln!(
-                    "warning: the stack's caliper ({:.1} µm) differs from the case's web.thickness ({:.1} µm) by more than 10 %; is this the same web?",
-                    caliper * 1e6,
-                    t * 1e6
-                );
+                eprintln!("warning: {warning}");
             }
         }
         case.save(path)?;

@@ -18,7 +18,7 @@ use super::indicators::{Indicators, format_value};
 use super::rules::{Comparison, RuleBase, Test};
 use super::{RankedCause, Reason};
 use crate::case::ResolvedCase;
-use crate::model::{WindingMethod, ZoneName};
+use crate::model::ZoneName;
 
 /// Combine certainty factors order-independently (see module docs).
 pub fn combine(factors: &[f64]) -> f64 {
@@ -87,15 +87,11 @@ pub fn evaluate(
         }
         Test::Material(values) => Some((
             values.contains(&case.web.material),
-            Some(case.web.material.clone()),
-            Some(format!("= {}", values.join(" or "))),
+            Some(case.web.material.id().to_string()),
+            Some(format!("= {}", ids(values))),
         )),
         Test::Method(values) => {
-            let method = match case.winding.method {
-                WindingMethod::Centre => "centre",
-                WindingMethod::Surface => "surface",
-                WindingMethod::CentreSurface => "centre_surface",
-            };
+            let method = case.winding.method.id();
             Some((
                 values.iter().any(|v| v == method),
                 Some(method.to_string()),
@@ -107,14 +103,20 @@ pub fn evaluate(
                 .symptoms
                 .iter()
                 .find(|s| s.id == symptom)
-                .and_then(|s| s.place.clone())?;
+                .and_then(|s| s.where_seen())?;
             Some((
                 values.contains(&place),
-                Some(place),
-                Some(format!("= {}", values.join(" or "))),
+                Some(place.id().to_string()),
+                Some(format!("= {}", ids(values))),
             ))
         }
     }
+}
+
+/// The IDs of closed-list words, joined as the rule text would say them.
+fn ids<T: std::fmt::Display>(values: &[T]) -> String {
+    let words: Vec<String> = values.iter().map(|v| v.to_string()).collect();
+    words.join(" or ")
 }
 
 fn test_name(test: &Test) -> (String, Option<ZoneName>) {
