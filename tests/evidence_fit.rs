@@ -297,10 +297,11 @@ fn refuses_with_the_reason_when_the_data_cannot_decide() {
     // A roll far looser than any tension could make it: refused, not a wild number.
     let mut m = synthetic(&problem, 1.0, 3, 0.0);
     m.hardness = None;
-    if let Some(size) = m.size.as_mut() {
-        if let WoundAmount::Length { length } = &mut size.amount {
-            *length *= 0.9; // 10 % less web than the diameter holds loose: negative compression
-        }
+    // 10 % less web than the diameter holds loose: negative compression.
+    if let Some(size) = m.size.as_mut()
+        && let WoundAmount::Length { length } = &mut size.amount
+    {
+        *length *= 0.9;
     }
     let impossible = estimate(&m, &problem, &crate_solve, &FitOptions::default()).unwrap();
     assert!(
