@@ -609,6 +609,107 @@ impl Evidence {
     }
 }
 
+/// One row of the measured-against-computed table of reports.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct ComparisonRow {
+    pub what: String,
+    pub measured: String,
+    pub computed: String,
+}
+
+impl Evidence {
+    /// The measured-against-computed table (reports): one row per compared figure.
+    pub fn rows(&self) -> Vec<ComparisonRow> {
+        let mut out = Vec::new();
+        let mut row = |what: String, measured: String, computed: String| {
+            out.push(ComparisonRow {
+                what,
+                measured,
+                computed,
+            })
+        };
+        if let Some(d) = &self.density {
+            row(
+                format!("Diameter for {:.0} m wound", d.length),
+                mm(d.measured_diameter),
+                mm(d.computed_diameter),
+            );
+            row(
+                "Mean radial compression".into(),
+                format!(
+                    "{} ± {}",
+                    pct(d.measured_compression),
+                    pct(d.compression_uncertainty)
+                ),
+                pct(d.computed_compression),
+            );
+            if let (Some(m), Some(c)) = (d.measured_density, d.computed_density) {
+                row(
+                    "Wound density".into(),
+                    format!("{m:.0} kg/m³"),
+                    format!("{c:.0} kg/m³"),
+                );
+            }
+        }
+        if let Some(h) = &self.hardness {
+            for p in &h.points {
+                row(
+                    format!("Hardness at Ø {}", mm(p.diameter)),
+                    match p.measured_pressure {
+                        Some(m) => format!("{} (≈ {})", p.reading, kpa(m)),
+                        None => format!("{} (tester scale)", p.reading),
+                    },
+                    format!("pressure {}", kpa(p.computed_pressure)),
+                );
+            }
+            if let Some(rho) = h.rank_correlation {
+                row(
+                    "Softest / hardest".into(),
+                    format!(
+                        "Ø {} / Ø {} (rank correlation {rho:.2})",
+                        mm(h.softest_diameter),
+                        mm(h.hardest_diameter)
+                    ),
+                    format!(
+                        "Ø {} / Ø {}",
+                        mm(h.computed_softest_diameter),
+                        mm(h.computed_hardest_diameter)
+                    ),
+                );
+            }
+        }
+        if let Some(l) = &self.lanes {
+            row(
+                "Hardness spread across the width".into(),
+                pct(l.spread),
+                "not computed (one-dimensional model)".into(),
+            );
+        }
+        if let Some(s) = &self.end_line {
+            row(
+                "Line on the roll end".into(),
+                bend_words(&s.observed),
+                format!("weakest interface at Ø {}", mm(s.weakest_diameter)),
+            );
+        }
+        if let Some(c) = &self.core_bore {
+            row(
+                "Core bore closing".into(),
+                mm(c.measured),
+                c.computed.map_or_else(|| "not computed".into(), mm),
+            );
+        }
+        if let Some(s) = &self.set {
+            row(
+                "Bad rolls in the set".into(),
+                format!("{} of {}", s.bad, s.rolls),
+                "—".into(),
+            );
+        }
+        out
+    }
+}
+
 fn bend_words(place: &BendPlace) -> String {
     match place {
         BendPlace::Straight => "stayed straight".into(),
