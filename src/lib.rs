@@ -11,6 +11,7 @@ pub mod case;
 pub mod diagnose;
 pub mod evidence;
 pub mod fsutil;
+pub mod mechanics;
 pub mod model;
 pub mod presets;
 pub mod report;

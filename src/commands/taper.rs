@@ -14,10 +14,10 @@ pub struct TaperArgs {
     /// Largest share of the core's rated crush pressure the core may carry.
     #[arg(long, default_value_t = taper_design::DEFAULT_CORE_SHARE, value_name = "SHARE")]
     pub core_share: f64,
-    /// Lowest pressure allowed in the outer zone (telescoping), e.g. "14 kPa" or "2 psi".
-    /// Default 14 kPa: our choice, common practice (see docs/taper-design.md).
-    #[arg(long, value_name = "PRESSURE")]
-    pub min_outer_pressure: Option<String>,
+    /// Smallest telescoping margin allowed: friction × pressure over the axial shear of lifting
+    /// the roll by its core, at every interface (see docs/taper-design.md).
+    #[arg(long, default_value_t = taper_design::DEFAULT_MIN_TELESCOPING_MARGIN, value_name = "RATIO")]
+    pub min_telescoping_margin: f64,
     /// Share of the peak pressure below which a compressive band counts as starring risk.
     #[arg(long, default_value_t = taper_design::DEFAULT_STARRING_PRESSURE_SHARE, value_name = "SHARE")]
     pub starring_share: f64,
@@ -59,10 +59,6 @@ pub fn run(args: &TaperArgs) -> anyhow::Result<()> {
     let resolved = case
         .resolve()
         .with_context(|| format!("cannot resolve {}", args.case.display()))?;
-    let min_outer_pressure = match &args.min_outer_pressure {
-        Some(t) => parse_quantity("--min-outer-pressure", t, QuantityKind::Stress)?,
-        None => taper_design::DEFAULT_MIN_OUTER_PRESSURE,
-    };
     let max_taper = args
         .max_taper
         .as_deref()
@@ -70,7 +66,7 @@ pub fn run(args: &TaperArgs) -> anyhow::Result<()> {
         .transpose()?;
     let limits = TaperLimits {
         core_share: args.core_share,
-        min_outer_pressure,
+        min_telescoping_margin: args.min_telescoping_margin,
         starring_pressure_share: args.starring_share,
         tension_share: args.tension_share,
     };
@@ -139,7 +135,8 @@ fn quantity(value: f64, kind: QuantityKind, system: UnitSystem) -> String {
 
 fn check_value(limit: Limit, value: f64, system: UnitSystem) -> String {
     match limit {
-        Limit::CorePressure | Limit::OuterPressure => quantity(value, QuantityKind::Stress, system),
+        Limit::CorePressure => quantity(value, QuantityKind::Stress, system),
+        Limit::Telescoping => format!("{value:.2}"),
         Limit::WoundInTension => quantity(value, QuantityKind::ForcePerWidth, system),
         Limit::Starring => {
             if value > 0.0 {
@@ -175,7 +172,7 @@ pub fn render(title: &str, design: &TaperDesign, system: UnitSystem) -> String {
             continue;
         };
         let allowed = match limit {
-            Limit::OuterPressure => format!("≥ {}", check_value(limit, a.allowed, system)),
+            Limit::Telescoping => format!("≥ {}", check_value(limit, a.allowed, system)),
             Limit::Starring => "no band".to_string(),
             _ => format!("≤ {}", check_value(limit, a.allowed, system)),
         };
