@@ -258,7 +258,8 @@ fn measurements_move_the_ranking_and_nothing_measured_is_neutral() {
     let mut empty = case.clone();
     empty.measurements = Some(Measurements::default());
     assert_eq!(diagnose(&rules, &empty, &profile, &options).unwrap(), plain);
-    // A roll 10 % less dense than computed raises "tension too low" (rule threshold 0.95)
+    // A roll 10 % less dense than computed (several standard uncertainties) raises "tension
+    // too low" (rule threshold: density_deviation below −2)
     // and its reason quotes measured and computed diameters.
     let mut loose = case.clone();
     loose.measurements = Some(Measurements {
@@ -271,7 +272,7 @@ fn measurements_move_the_ranking_and_nothing_measured_is_neutral() {
         .causes
         .iter()
         .flat_map(|c| &c.reasons)
-        .find(|r| r.test == "measured_density_ratio")
+        .find(|r| r.test == "density_deviation")
         .expect("density reason");
     let value = reason.value.as_deref().unwrap();
     assert!(

@@ -147,7 +147,7 @@ pub fn diagnose_solved(
             text: c.text.clone(),
         })
         .collect();
-    let evidence = match &case.measurements {
+    let evidence = match case.measurements.as_ref().filter(|m| !m.is_empty()) {
         Some(m) => Some(crate::evidence::compare(
             m,
             &case.problem(options.solver),
