@@ -91,8 +91,9 @@ fn bad_options_are_refused() {
         ])
         .output()
         .unwrap();
-    assert_eq!(out.status.code(), Some(1));
-    assert!(String::from_utf8_lossy(&out.stderr).contains("core_share"));
+    // A bad option value is a usage error (exit 2), like an unknown option.
+    assert_eq!(out.status.code(), Some(2));
+    assert!(String::from_utf8_lossy(&out.stderr).contains("--core-share"));
     let out = bin()
         .args([
             "taper",
@@ -102,8 +103,8 @@ fn bad_options_are_refused() {
         ])
         .output()
         .unwrap();
-    assert_eq!(out.status.code(), Some(1));
-    assert!(String::from_utf8_lossy(&out.stderr).contains("min_telescoping_margin"));
+    assert_eq!(out.status.code(), Some(2));
+    assert!(String::from_utf8_lossy(&out.stderr).contains("--min-telescoping-margin"));
 }
 
 #[test]

@@ -170,7 +170,7 @@ impl Reader<'_> {
             QuantityText::Text(text) => {
                 parse_quantity(field, text, kind).map_err(|e| CaseError::Quantity {
                     origin: self.origin.to_string(),
-                    source: Box::new(e),
+                    error: Box::new(e),
                 })
             }
         }

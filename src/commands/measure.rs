@@ -233,5 +233,5 @@ pub fn run(args: &CompareArgs) -> anyhow::Result<()> {
             out
         }
     };
-    super::diagnose::write_stdout(&text)
+    super::output::write_stdout(&text)
 }
