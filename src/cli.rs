@@ -11,6 +11,7 @@ Examples:
   rolltriage tui cases/harbour_newsprint_telescoping.yaml
   rolltriage stress cases/harbour_newsprint_telescoping.yaml --units us
   rolltriage diagnose cases/harbour_newsprint_telescoping.yaml --top 3
+  rolltriage compare cases/harbour_newsprint_soft_measured.yaml
   rolltriage case new --web pet_film --core paper_6in -o my_case.yaml
   rolltriage case check cases/harbour_*.yaml
   rolltriage case presets --units us
@@ -32,6 +33,9 @@ pub enum Command {
     Stress(commands::stress::StressArgs),
     /// Rank likely causes of the observed defects and list the remedies.
     Diagnose(commands::diagnose::DiagnoseArgs),
+    /// Compare what was measured on the roll with the computed stresses; estimate the
+    /// wound-in tension the roll actually got.
+    Compare(commands::measure::CompareArgs),
     /// Write a complaint report (Markdown, HTML with plots, JSON).
     Report(commands::report::ReportArgs),
     /// Guided training walk-throughs with scoring.

@@ -10,6 +10,7 @@ pub mod calibrate;
 pub mod case;
 pub mod complaint;
 pub mod diagnose;
+pub mod evidence;
 pub mod finite;
 pub mod fsutil;
 pub mod history;

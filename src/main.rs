@@ -14,6 +14,7 @@ fn main() -> ExitCode {
         None => commands::tui::run(&commands::tui::TuiArgs::default()),
         Some(cli::Command::Stress(a)) => commands::stress::run(a),
         Some(cli::Command::Diagnose(a)) => commands::diagnose::run(a),
+        Some(cli::Command::Compare(a)) => commands::measure::run(a),
         Some(cli::Command::Report(a)) => commands::report::run(a),
         Some(cli::Command::Train(a)) => commands::train::run(a),
         Some(cli::Command::Calibrate(a)) => commands::calibrate::run(a),

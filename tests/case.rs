@@ -441,6 +441,35 @@ fn every_schema_key_is_in_the_field_registry_and_back() {
             "title: t\nwinding: {upsets: [{zz_unknown: 1}]}\n",
         ),
         ("symptoms[]", "title: t\nsymptoms: [{zz_unknown: 1}]\n"),
+        ("measurements", "title: t\nmeasurements: {zz_unknown: 1}\n"),
+        (
+            "measurements.uncertainty",
+            "title: t\nmeasurements: {uncertainty: {zz_unknown: 1}}\n",
+        ),
+        (
+            "measurements.hardness",
+            "title: t\nmeasurements: {hardness: {zz_unknown: 1}}\n",
+        ),
+        (
+            "measurements.hardness.readings[]",
+            "title: t\nmeasurements: {hardness: {readings: [{zz_unknown: 1}]}}\n",
+        ),
+        (
+            "measurements.hardness.calibration[]",
+            "title: t\nmeasurements: {hardness: {calibration: [{zz_unknown: 1}]}}\n",
+        ),
+        (
+            "measurements.lanes",
+            "title: t\nmeasurements: {lanes: {zz_unknown: 1}}\n",
+        ),
+        (
+            "measurements.end_line",
+            "title: t\nmeasurements: {end_line: {zz_unknown: 1}}\n",
+        ),
+        (
+            "measurements.set",
+            "title: t\nmeasurements: {set: {zz_unknown: 1}}\n",
+        ),
     ];
     let mut covered = 0;
     for (section, yaml) in sections {

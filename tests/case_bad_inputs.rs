@@ -402,6 +402,22 @@ const CORPUS: &[(&str, Expect, &[&str])] = &[
         &["recursion limit exceeded", "nested too deeply"],
     ),
     ("not_utf8.yaml", Expect::NotUtf8, &["line 2", "not UTF-8"]),
+    // Measurements (docs/evidence.md).
+    (
+        "measured_bad_rolls_exceed_set.yaml",
+        Expect::OutOfRange,
+        &["measurements.set.bad", "0 to 4"],
+    ),
+    (
+        "measured_weight_without_basis_weight.yaml",
+        Expect::OutOfRange,
+        &["measurements.basis_weight", "with measurements.weight"],
+    ),
+    (
+        "measured_weight_in_metres.yaml",
+        Expect::WrongKind,
+        &["measurements.weight", "weight (mass)", "kg"],
+    ),
 ];
 
 #[test]

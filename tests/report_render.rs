@@ -136,6 +136,7 @@ fn fixture(with_remedy: bool) -> ReportInput {
             value: "3 µm".into(),
             source: "preset newsprint (from memory)".into(),
         }],
+        measurements: None,
     };
     let diagnosis = Diagnosis {
         causes: vec![
@@ -226,6 +227,7 @@ fn fixture(with_remedy: bool) -> ReportInput {
             },
         ],
         indicators: vec![],
+        evidence: None,
     };
     let profile = synthetic_profile(60e3, 1.15e6);
     let remedy = with_remedy.then(|| {

@@ -65,6 +65,7 @@ fn film_roll(crush_pressure: f64, start_tension: f64) -> ResolvedCase {
         symptoms: vec![],
         answers: Default::default(),
         assumed: vec![],
+        measurements: None,
     }
 }
 

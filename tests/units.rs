@@ -23,6 +23,35 @@ fn nist_inch_is_25_4_mm_exactly() {
 }
 
 #[test]
+fn nist_pound_is_0_45359237_kg_exactly() {
+    // NIST SP 811 B.8: pound (avoirdupois) (lb) → kilogram (kg), 4.535 924 E−01; exact value
+    // 0.45359237 (footnote of the table).
+    let kg = parse_quantity("w", "1000 lb", QuantityKind::Mass).unwrap();
+    assert!((kg - 453.59237).abs() < 1e-9);
+    assert_eq!(
+        parse_quantity("w", "2 t", QuantityKind::Mass).unwrap(),
+        2000.0
+    );
+    assert!(parse_quantity("w", "2 kg", QuantityKind::Length).is_err());
+}
+
+#[test]
+fn basis_weight_reams_convert_through_nist_factors() {
+    // 1 lb/3000 ft² = 0.45359237 kg / (3000 × 0.09290304 m²) = 1.627476 g/m²; per 3300 ft²
+    // 1.479524 g/m² (NIST SP 811 B.8: pound 0.45359237 kg, square foot 9.290 304 E−02 m², both exact).
+    let a = parse_quantity("g", "30 lb/3000 ft2", QuantityKind::BasisWeight).unwrap();
+    assert!((a - 30.0 * 1.627_476e-3).abs() < 1e-8, "{a}");
+    let b = parse_quantity("g", "1 lb/3300 ft²", QuantityKind::BasisWeight).unwrap();
+    assert!((b - 1.479_524e-3).abs() < 1e-9, "{b}");
+    let c = parse_quantity("g", "45 gsm", QuantityKind::BasisWeight).unwrap();
+    assert!((c - 0.045).abs() < 1e-15);
+    assert_eq!(
+        format_quantity(0.045, QuantityKind::BasisWeight, UnitSystem::Si),
+        "45 g/m²"
+    );
+}
+
+#[test]
 fn nist_foot_is_0_3048_m_exactly() {
     // NIST SP 811 B.8: foot (ft) → metre (m), 3.048 E−01 (exact).
     assert_eq!(si("1 ft", QuantityKind::Length), 0.3048);

@@ -15,6 +15,7 @@
 //! limits on nesting depth (128) and alias expansion stop deep or "billion laughs" documents;
 //! duplicate keys are refused everywhere.
 
+pub mod measurements;
 pub mod registry;
 mod resolve;
 pub mod resolved;

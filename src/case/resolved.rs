@@ -21,6 +21,9 @@ pub struct ResolvedCase {
     pub answers: BTreeMap<String, String>,
     /// Values that were not given and came from a preset or default.
     pub assumed: Vec<AssumedValue>,
+    /// What was measured on the bad roll (docs/evidence.md); `None` when nothing was.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub measurements: Option<crate::evidence::Measurements>,
 }
 
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]

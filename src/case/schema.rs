@@ -84,6 +84,9 @@ pub struct Case {
     /// The complaint record (docs/history.md); every field optional.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub complaint: Option<crate::complaint::Complaint>,
+    /// What was measured on the bad roll (docs/evidence.md).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub measurements: Option<super::measurements::MeasurementsInput>,
 }
 
 #[derive(Debug, Clone, PartialEq, Default, Serialize, Deserialize)]

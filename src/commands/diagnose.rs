@@ -43,6 +43,8 @@ pub struct DiagnoseArgs {
     /// With --history: list similar past complaints but leave site experience out of the ranking.
     #[arg(long, requires = "history")]
     pub no_site_history: bool,
+    #[arg(long = "measure", value_name = "KEY=VALUE", help = super::measure::MEASURE_HELP)]
+    pub measure: Vec<String>,
 }
 
 /// The rule base: `--rules DIR` or the shipped one.
@@ -57,8 +59,9 @@ pub fn load_rules(dir: Option<&PathBuf>) -> anyhow::Result<RuleBase> {
 
 pub fn run(args: &DiagnoseArgs) -> anyhow::Result<()> {
     let rules = load_rules(args.rules.as_ref())?;
-    let case =
+    let mut case =
         Case::load(&args.case).with_context(|| format!("reading {}", args.case.display()))?;
+    super::measure::apply_measure_args(&mut case, &args.measure)?;
     let mut resolved = case
         .resolve()
         .with_context(|| format!("resolving {}", args.case.display()))?;

@@ -6,6 +6,7 @@ pub mod calibrate;
 pub mod case;
 pub mod diagnose;
 pub mod history;
+pub mod measure;
 pub mod output;
 pub mod progress;
 pub mod report;

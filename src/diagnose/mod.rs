@@ -26,6 +26,10 @@ pub struct Diagnosis {
     pub cautions: Vec<Caution>,
     /// Every indicator value computed for this case.
     pub indicators: Vec<indicators::IndicatorValue>,
+    /// What was measured on the roll against what was computed (docs/evidence.md); absent
+    /// when nothing was measured.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub evidence: Option<crate::evidence::Evidence>,
 }
 
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
@@ -99,6 +103,9 @@ pub enum DiagnoseError {
     /// The case's inputs could not be resolved (boxed: a case error carries file and field).
     #[error(transparent)]
     Case(Box<crate::case::CaseError>),
+    /// The measurements could not be compared with the profile (names the field).
+    #[error("measurements: {0}")]
+    Evidence(#[from] crate::evidence::EvidenceError),
     #[error("symptoms: unknown symptom `{id}`{}", did_you_mean(suggestion))]
     UnknownSymptom {
         id: String,

@@ -147,11 +147,20 @@ pub fn diagnose_solved(
             text: c.text.clone(),
         })
         .collect();
+    let evidence = match case.measurements.as_ref().filter(|m| !m.is_empty()) {
+        Some(m) => Some(crate::evidence::compare(
+            m,
+            &case.problem(options.solver),
+            profile,
+        )?),
+        None => None,
+    };
     Ok(Diagnosis {
         causes,
         remedies,
         cautions,
         indicators: indicators.values(),
+        evidence,
     })
 }
 

@@ -63,9 +63,14 @@ pub fn evaluate(
                 Comparison::Above => ">",
                 Comparison::Below => "<",
             };
+            // Measured evidence quotes the measurement and the computed value side by side.
+            let shown = match indicators.detail(id) {
+                Some(detail) => format!("{} ({detail})", format_value(value, *dimension)),
+                None => format_value(value, *dimension),
+            };
             Some((
                 holds,
-                Some(format_value(value, *dimension)),
+                Some(shown),
                 Some(format!("{sign} {}", format_value(*threshold, *dimension))),
             ))
         }

@@ -75,6 +75,13 @@ pub fn render_text(title: &str, diagnosis: &Diagnosis) -> String {
         }
         out.push('\n');
     }
+    if let Some(evidence) = diagnosis.evidence.as_ref().filter(|e| !e.is_empty()) {
+        let _ = writeln!(out, "Measured on the roll, against the model");
+        for line in evidence.lines() {
+            let _ = writeln!(out, "  {line}");
+        }
+        out.push('\n');
+    }
     if !diagnosis.remedies.is_empty() {
         let _ = writeln!(out, "Remedies (in the order to try)");
         for group in groups_in_order(diagnosis) {

@@ -32,8 +32,10 @@ fn driving_tests<'a>(
                 if ev.weight <= 0.0 || !matches!(ev.test, Test::Indicator { .. }) {
                     continue;
                 }
-                let holds =
-                    evaluate(&ev.test, &symptom.id, case, indicators).is_some_and(|(h, _, _)| h);
+                // An indicator without a value (a measurement not taken) has nothing to show.
+                let Some((holds, _, _)) = evaluate(&ev.test, &symptom.id, case, indicators) else {
+                    continue;
+                };
                 out.push((&ev.test, holds, ev.weight));
             }
         }
@@ -147,7 +149,7 @@ pub fn what_if_solved(
             )));
         }
     };
-    let after_indicators = Indicators::compute(changed, profile);
+    let after_indicators = Indicators::compute(changed, profile).with_evidence_of(indicators);
     let after_causes = rank(rules, symptoms, changed, &after_indicators);
     let belief = |list: &[RankedCause], id: &str| {
         list.iter()

@@ -58,6 +58,8 @@ fn si_unit(kind: QuantityKind) -> &'static str {
         QuantityKind::Torque => "N·m",
         QuantityKind::Temperature => "°C",
         QuantityKind::Percent => "1",
+        QuantityKind::Mass => "kg",
+        QuantityKind::BasisWeight => "kg/m²",
     }
 }
 
@@ -207,6 +209,19 @@ pub struct ReportDocument {
     pub model_limits: Vec<String>,
     /// The profile thinned to at most [`PROFILE_POINTS`] points, core first.
     pub profile: Vec<ProfilePoint>,
+    /// What was measured on the roll against what was computed; absent without measurements.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub measured: Option<MeasuredSection>,
+}
+
+/// The measurements against the model (docs/evidence.md).
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct MeasuredSection {
+    pub rows: Vec<crate::evidence::ComparisonRow>,
+    /// Plain-words findings and notes.
+    pub lines: Vec<String>,
+    /// The full comparison, for other systems.
+    pub evidence: crate::evidence::Evidence,
 }
 
 /// At most this many profile points go into a report (enough to redraw the curves).
@@ -317,6 +332,16 @@ pub fn build_document(input: &ReportInput) -> Result<ReportDocument, ReportError
             .unwrap_or_default(),
         model_limits: MODEL_LIMITS.iter().map(|s| s.to_string()).collect(),
         profile: thin_profile(&input.profile, PROFILE_POINTS),
+        measured: input
+            .diagnosis
+            .evidence
+            .as_ref()
+            .filter(|e| !e.is_empty())
+            .map(|e| MeasuredSection {
+                rows: e.rows(),
+                lines: e.lines(),
+                evidence: e.clone(),
+            }),
     })
 }
 

@@ -216,6 +216,31 @@ fn write_report(
     )?;
     writeln!(out, "</figure>")?;
 
+    if let Some(measured) = &doc.measured {
+        writeln!(
+            out,
+            "<h2 id=\"measured\">Measured on the roll, against the model</h2>"
+        )?;
+        writeln!(
+            out,
+            "<table><thead><tr><th></th><th>Measured</th><th>Computed</th></tr></thead><tbody>"
+        )?;
+        for r in &measured.rows {
+            writeln!(
+                out,
+                "<tr><td>{}</td><td>{}</td><td>{}</td></tr>",
+                escape(&r.what),
+                escape(&r.measured),
+                escape(&r.computed)
+            )?;
+        }
+        writeln!(out, "</tbody></table>")?;
+        writeln!(out, "<ul>")?;
+        for line in measured.lines.iter().filter(|l| !l.starts_with("  ")) {
+            writeln!(out, "<li>{}</li>", escape(line))?;
+        }
+        writeln!(out, "</ul>")?;
+    }
     writeln!(out, "<h2 id=\"causes\">Likely causes</h2>")?;
     if doc.causes.is_empty() {
         writeln!(out, "<p>No cause reached a positive belief.</p>")?;

@@ -164,6 +164,27 @@ fn write_report(out: &mut String, doc: &ReportDocument) -> std::fmt::Result {
         writeln!(out)?;
     }
 
+    if let Some(measured) = &doc.measured {
+        writeln!(out, "## Measured on the roll, against the model")?;
+        writeln!(out)?;
+        writeln!(out, "| | Measured | Computed |")?;
+        writeln!(out, "|---|---|---|")?;
+        for r in &measured.rows {
+            writeln!(
+                out,
+                "| {} | {} | {} |",
+                cell(&r.what),
+                cell(&r.measured),
+                cell(&r.computed)
+            )?;
+        }
+        writeln!(out)?;
+        for line in measured.lines.iter().filter(|l| !l.starts_with("  ")) {
+            writeln!(out, "- {line}")?;
+        }
+        writeln!(out)?;
+    }
+
     writeln!(out, "## Likely causes")?;
     writeln!(out)?;
     if doc.causes.is_empty() {

@@ -49,6 +49,7 @@ fn case() -> ResolvedCase {
         symptoms: vec![],
         answers: Default::default(),
         assumed: vec![],
+        measurements: None,
     }
 }
 

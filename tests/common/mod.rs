@@ -61,6 +61,7 @@ pub fn newsprint(title: &str) -> ResolvedCase {
         symptoms: vec![],
         answers: BTreeMap::new(),
         assumed: vec![],
+        measurements: None,
     }
 }
 
@@ -107,6 +108,7 @@ pub fn pet_film(title: &str) -> ResolvedCase {
         symptoms: vec![],
         answers: BTreeMap::new(),
         assumed: vec![],
+        measurements: None,
     }
 }
 

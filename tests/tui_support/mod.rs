@@ -124,6 +124,7 @@ pub fn resolved(title: &str) -> ResolvedCase {
         symptoms: vec![],
         answers: BTreeMap::new(),
         assumed: vec![],
+        measurements: None,
     }
 }
 
@@ -291,6 +292,7 @@ pub fn diagnosis(scale: f64) -> Diagnosis {
                 meaning: "share of the outer zone below the loose-roll pressure".into(),
             },
         ],
+        evidence: None,
     }
 }
 

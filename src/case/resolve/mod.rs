@@ -180,6 +180,14 @@ impl Resolver {
                 ));
             }
         }
+        // A weight needs the width; an assumed width would make up a length.
+        let width_given = !self.assumed.iter().any(|a| a.field == "web.width");
+        let measurements = match &case.measurements {
+            Some(input) => {
+                super::measurements::resolve(input, &self.origin, width_given.then_some(web.width))?
+            }
+            None => None,
+        };
         let resolved = ResolvedCase {
             title: case.title.clone(),
             web,
@@ -189,6 +197,7 @@ impl Resolver {
             symptoms: case.symptoms.clone(),
             answers: case.answers.clone(),
             assumed: std::mem::take(&mut self.assumed),
+            measurements,
         };
         self.model_accepts(&resolved)?;
         Ok(resolved)
