@@ -1,13 +1,44 @@
 //! Unit parsing and printing. Conversion factors are checked against NIST Special Publication
 //! 811 (2008 edition), "Guide for the Use of the International System of Units (SI)",
 //! Appendix B.8 (factors for units listed alphabetically) and B.9 (by kind of quantity).
+//!
+//! Each test is a table: the text a user types, its kind, the SI value it must give and the
+//! tolerance of that check; the source of the factor is named beside each table.
 
 use approx::assert_relative_eq;
 use proptest::prelude::*;
 use rolltriage::units::{QuantityKind, UnitError, UnitSystem, format_quantity, parse_quantity};
 
+use QuantityKind::{Force, ForcePerWidth, Length, Percent, Speed, Stress, Temperature, Torque};
+
 fn si(text: &str, kind: QuantityKind) -> f64 {
     parse_quantity("test.field", text, kind).unwrap()
+}
+
+/// How close a parsed value must come to the expected SI value.
+#[derive(Clone, Copy)]
+enum Tol {
+    /// Bit for bit (exact factors that are exact in binary for the value used).
+    Exact,
+    /// Relative, as `approx`'s `max_relative`.
+    Rel(f64),
+    /// Absolute, as `approx`'s `epsilon` (temperatures, whose offset can cross zero).
+    Abs(f64),
+}
+
+/// Default relative tolerance of `assert_relative_eq!` (f64::EPSILON).
+const EPS: Tol = Tol::Rel(f64::EPSILON);
+
+/// Checks every `(text, kind, expected SI value, tolerance)` row.
+fn check(rows: &[(&str, QuantityKind, f64, Tol)]) {
+    for &(text, kind, expected, tol) in rows {
+        let got = si(text, kind);
+        match tol {
+            Tol::Exact => assert_eq!(got, expected, "{text}"),
+            Tol::Rel(r) => assert_relative_eq!(got, expected, max_relative = r),
+            Tol::Abs(e) => assert_relative_eq!(got, expected, epsilon = e),
+        }
+    }
 }
 
 // --- NIST SP 811 Appendix B checks -------------------------------------------------------
@@ -15,188 +46,149 @@ fn si(text: &str, kind: QuantityKind) -> f64 {
 #[test]
 fn nist_inch_is_25_4_mm_exactly() {
     // NIST SP 811 B.8: inch (in) → metre (m), 2.54 E−02 (exact).
-    assert_eq!(si("1 in", QuantityKind::Length), 0.0254);
-    assert_relative_eq!(
-        si("1 in", QuantityKind::Length),
-        si("25.4 mm", QuantityKind::Length)
-    );
+    check(&[
+        ("1 in", Length, 0.0254, Tol::Exact),
+        ("1 in", Length, si("25.4 mm", Length), EPS),
+    ]);
 }
 
 #[test]
 fn nist_foot_is_0_3048_m_exactly() {
     // NIST SP 811 B.8: foot (ft) → metre (m), 3.048 E−01 (exact).
-    assert_eq!(si("1 ft", QuantityKind::Length), 0.3048);
+    check(&[("1 ft", Length, 0.3048, Tol::Exact)]);
 }
 
 #[test]
 fn nist_mil_is_25_4_um() {
     // NIST SP 811 B.8: mil (0.001 in) → metre (m), 2.54 E−05 (exact).
-    assert_relative_eq!(
-        si("1 mil", QuantityKind::Length),
-        25.4e-6,
-        max_relative = 1e-15
-    );
-    assert_relative_eq!(
-        si("1 mil", QuantityKind::Length),
-        si("25.4 um", QuantityKind::Length),
-        max_relative = 1e-15
-    );
-    assert_relative_eq!(
-        si("1 mil", QuantityKind::Length),
-        si("25.4 µm", QuantityKind::Length),
-        max_relative = 1e-15
-    );
+    check(&[
+        ("1 mil", Length, 25.4e-6, Tol::Rel(1e-15)),
+        ("1 mil", Length, si("25.4 um", Length), Tol::Rel(1e-15)),
+        ("1 mil", Length, si("25.4 µm", Length), Tol::Rel(1e-15)),
+    ]);
 }
 
 #[test]
 fn nist_pound_force_is_4_4482216152605_n() {
     // NIST SP 811 B.8: pound-force (lbf) → newton (N), 4.448 222 E+00; the exact value is
     // 0.45359237 kg × 9.80665 m/s² = 4.4482216152605 N.
-    assert_relative_eq!(
-        si("1 lbf", QuantityKind::Force),
-        4.4482216152605,
-        max_relative = 1e-15
-    );
-    assert_relative_eq!(si("2 kN", QuantityKind::Force), 2000.0);
+    check(&[
+        ("1 lbf", Force, 4.4482216152605, Tol::Rel(1e-15)),
+        ("2 kN", Force, 2000.0, EPS),
+    ]);
 }
 
 #[test]
 fn nist_pli_is_175_1268_n_per_m() {
     // NIST SP 811 B.8: pound-force per inch (lbf/in) → newton per metre (N/m), 1.751 268 E+02.
-    let pli = si("1 pli", QuantityKind::ForcePerWidth);
-    assert_relative_eq!(pli, 175.1268, max_relative = 1e-6);
-    assert_relative_eq!(pli, 4.4482216152605 / 0.0254, max_relative = 1e-15);
-    assert_relative_eq!(si("1 lbf/in", QuantityKind::ForcePerWidth), pli);
-    assert_relative_eq!(si("2.5 kN/m", QuantityKind::ForcePerWidth), 2500.0);
-    assert_relative_eq!(si("350 N/m", QuantityKind::ForcePerWidth), 350.0);
+    let pli = si("1 pli", ForcePerWidth);
+    check(&[
+        ("1 pli", ForcePerWidth, 175.1268, Tol::Rel(1e-6)),
+        (
+            "1 pli",
+            ForcePerWidth,
+            4.4482216152605 / 0.0254,
+            Tol::Rel(1e-15),
+        ),
+        ("1 lbf/in", ForcePerWidth, pli, EPS),
+        ("2.5 kN/m", ForcePerWidth, 2500.0, EPS),
+        ("350 N/m", ForcePerWidth, 350.0, EPS),
+    ]);
 }
 
 #[test]
 fn mega_newton_per_metre_is_accepted_and_milli_is_refused() {
     // NIST SP 811 section 4 (SI prefixes): mega = 1E+06. The case-format limits are given in
     // MN/m, so the unit named there must parse; "mN/m" (milli) must not be read as mega.
-    assert_relative_eq!(si("10 MN/m", QuantityKind::ForcePerWidth), 1.0e7);
-    assert_relative_eq!(si("0.002 MN/m", QuantityKind::ForcePerWidth), 2000.0);
-    assert!(parse_quantity("web.strength", "300 mN/m", QuantityKind::ForcePerWidth).is_err());
-    assert!(parse_quantity("web.strength", "300 mn/m", QuantityKind::ForcePerWidth).is_err());
+    check(&[
+        ("10 MN/m", ForcePerWidth, 1.0e7, EPS),
+        ("0.002 MN/m", ForcePerWidth, 2000.0, EPS),
+    ]);
+    for text in ["300 mN/m", "300 mn/m"] {
+        assert!(
+            parse_quantity("web.strength", text, ForcePerWidth).is_err(),
+            "{text}"
+        );
+    }
 }
 
 #[test]
 fn nist_psi_is_6894_757_pa() {
     // NIST SP 811 B.8: pound-force per square inch (psi) → pascal (Pa), 6.894 757 E+03;
-    // kip per square inch (ksi) → pascal, 6.894 757 E+06.
-    assert_relative_eq!(
-        si("1 psi", QuantityKind::Stress),
-        6894.757,
-        max_relative = 1e-7
-    );
-    assert_relative_eq!(
-        si("1 ksi", QuantityKind::Stress),
-        6.894757e6,
-        max_relative = 1e-7
-    );
-    assert_relative_eq!(si("3 kPa", QuantityKind::Stress), 3000.0);
-    assert_relative_eq!(si("4.5 MPa", QuantityKind::Stress), 4.5e6);
-    assert_relative_eq!(si("5 GPa", QuantityKind::Stress), 5e9);
-    assert_relative_eq!(si("12 Pa", QuantityKind::Stress), 12.0);
-    // NIST SP 811 B.8: bar → pascal, 1.0 E+05 (exact).
-    assert_relative_eq!(si("1 bar", QuantityKind::Stress), 1e5);
+    // kip per square inch (ksi) → pascal, 6.894 757 E+06; bar → pascal, 1.0 E+05 (exact).
+    check(&[
+        ("1 psi", Stress, 6894.757, Tol::Rel(1e-7)),
+        ("1 ksi", Stress, 6.894757e6, Tol::Rel(1e-7)),
+        ("3 kPa", Stress, 3000.0, EPS),
+        ("4.5 MPa", Stress, 4.5e6, EPS),
+        ("5 GPa", Stress, 5e9, EPS),
+        ("12 Pa", Stress, 12.0, EPS),
+        ("1 bar", Stress, 1e5, EPS),
+    ]);
 }
 
 #[test]
 fn nist_foot_per_minute_is_0_00508_m_per_s() {
     // NIST SP 811 B.8: foot per minute (ft/min) → metre per second (m/s), 5.08 E−03 (exact).
-    assert_relative_eq!(
-        si("1 ft/min", QuantityKind::Speed),
-        0.00508,
-        max_relative = 1e-15
-    );
-    assert_relative_eq!(
-        si("1 fpm", QuantityKind::Speed),
-        0.00508,
-        max_relative = 1e-15
-    );
-    assert_relative_eq!(
-        si("600 m/min", QuantityKind::Speed),
-        10.0,
-        max_relative = 1e-15
-    );
-    assert_relative_eq!(si("7 m/s", QuantityKind::Speed), 7.0);
+    check(&[
+        ("1 ft/min", Speed, 0.00508, Tol::Rel(1e-15)),
+        ("1 fpm", Speed, 0.00508, Tol::Rel(1e-15)),
+        ("600 m/min", Speed, 10.0, Tol::Rel(1e-15)),
+        ("7 m/s", Speed, 7.0, EPS),
+    ]);
 }
 
 #[test]
 fn nist_torque_factors() {
     // NIST SP 811 B.8: pound-force foot (lbf·ft) → N·m, 1.355 818 E+00;
     // pound-force inch (lbf·in) → N·m, 1.129 848 E−01.
-    for text in ["1 lbf·ft", "1 lbf ft", "1 lbf*ft", "1 ft·lbf"] {
-        assert_relative_eq!(
-            si(text, QuantityKind::Torque),
-            1.355818,
-            max_relative = 1e-6
-        );
-    }
-    assert_relative_eq!(
-        si("1 lbf·in", QuantityKind::Torque),
-        0.1129848,
-        max_relative = 1e-6
-    );
-    for text in ["3 N·m", "3 N m", "3 Nm", "3 N*m"] {
-        assert_relative_eq!(si(text, QuantityKind::Torque), 3.0);
-    }
+    check(&[
+        ("1 lbf·ft", Torque, 1.355818, Tol::Rel(1e-6)),
+        ("1 lbf ft", Torque, 1.355818, Tol::Rel(1e-6)),
+        ("1 lbf*ft", Torque, 1.355818, Tol::Rel(1e-6)),
+        ("1 ft·lbf", Torque, 1.355818, Tol::Rel(1e-6)),
+        ("1 lbf·in", Torque, 0.1129848, Tol::Rel(1e-6)),
+        ("3 N·m", Torque, 3.0, EPS),
+        ("3 N m", Torque, 3.0, EPS),
+        ("3 Nm", Torque, 3.0, EPS),
+        ("3 N*m", Torque, 3.0, EPS),
+    ]);
 }
 
 #[test]
 fn nist_temperature_conversions() {
     // NIST SP 811 B.9: t/°C = T/K − 273.15; t/°C = (t/°F − 32)/1.8. Returned in °C.
-    assert_relative_eq!(si("20 °C", QuantityKind::Temperature), 20.0);
-    assert_relative_eq!(si("20 C", QuantityKind::Temperature), 20.0);
-    assert_relative_eq!(si("20 degC", QuantityKind::Temperature), 20.0);
-    assert_relative_eq!(
-        si("293.15 K", QuantityKind::Temperature),
-        20.0,
-        epsilon = 1e-12
-    );
-    assert_relative_eq!(
-        si("212 °F", QuantityKind::Temperature),
-        100.0,
-        epsilon = 1e-12
-    );
-    assert_relative_eq!(si("32 F", QuantityKind::Temperature), 0.0, epsilon = 1e-12);
+    check(&[
+        ("20 °C", Temperature, 20.0, EPS),
+        ("20 C", Temperature, 20.0, EPS),
+        ("20 degC", Temperature, 20.0, EPS),
+        ("293.15 K", Temperature, 20.0, Tol::Abs(1e-12)),
+        ("212 °F", Temperature, 100.0, Tol::Abs(1e-12)),
+        ("32 F", Temperature, 0.0, Tol::Abs(1e-12)),
+    ]);
 }
 
 #[test]
 fn percent_is_a_fraction() {
-    assert_relative_eq!(si("25 %", QuantityKind::Percent), 0.25);
-    assert_relative_eq!(si("25%", QuantityKind::Percent), 0.25);
     // A bare number for a percentage is a fraction (documented in units.rs).
-    assert_relative_eq!(si("0.25", QuantityKind::Percent), 0.25);
+    check(&[
+        ("25 %", Percent, 0.25, EPS),
+        ("25%", Percent, 0.25, EPS),
+        ("0.25", Percent, 0.25, EPS),
+    ]);
 }
 
 #[test]
 fn unit_spelling_is_forgiving_but_exact() {
-    assert_relative_eq!(
-        si("76um", QuantityKind::Length),
-        76e-6,
-        max_relative = 1e-12
-    );
-    assert_relative_eq!(
-        si("  3 in  ", QuantityKind::Length),
-        0.0762,
-        max_relative = 1e-12
-    );
-    assert_relative_eq!(
-        si("1.2e3 mm", QuantityKind::Length),
-        1.2,
-        max_relative = 1e-12
-    );
-    assert_relative_eq!(
-        si("2 PLI", QuantityKind::ForcePerWidth),
-        2.0 * 175.126835,
-        max_relative = 1e-6
-    );
-    assert_relative_eq!(si("-5 °C", QuantityKind::Temperature), -5.0);
-    // Zero needs no unit (except a temperature).
-    assert_eq!(si("0", QuantityKind::ForcePerWidth), 0.0);
+    check(&[
+        ("76um", Length, 76e-6, Tol::Rel(1e-12)),
+        ("  3 in  ", Length, 0.0762, Tol::Rel(1e-12)),
+        ("1.2e3 mm", Length, 1.2, Tol::Rel(1e-12)),
+        ("2 PLI", ForcePerWidth, 2.0 * 175.126835, Tol::Rel(1e-6)),
+        ("-5 °C", Temperature, -5.0, EPS),
+        // Zero needs no unit (except a temperature).
+        ("0", ForcePerWidth, 0.0, Tol::Exact),
+    ]);
 }
 
 // --- Errors ------------------------------------------------------------------------------
@@ -267,66 +259,31 @@ fn not_a_number_is_rejected() {
 
 #[test]
 fn formats_in_trade_units() {
-    assert_eq!(
-        format_quantity(76e-6, QuantityKind::Length, UnitSystem::Si),
-        "76 µm"
-    );
-    assert_eq!(
-        format_quantity(0.1524, QuantityKind::Length, UnitSystem::Si),
-        "152.4 mm"
-    );
-    assert_eq!(
-        format_quantity(1.2, QuantityKind::Length, UnitSystem::Si),
-        "1.2 m"
-    );
-    assert_eq!(
-        format_quantity(25.4e-6, QuantityKind::Length, UnitSystem::Us),
-        "1 mil"
-    );
-    assert_eq!(
-        format_quantity(0.1524, QuantityKind::Length, UnitSystem::Us),
-        "6 in"
-    );
-    assert_eq!(
-        format_quantity(175.1268352, QuantityKind::ForcePerWidth, UnitSystem::Us),
-        "1 pli"
-    );
-    assert_eq!(
-        format_quantity(350.0, QuantityKind::ForcePerWidth, UnitSystem::Si),
-        "350 N/m"
-    );
-    assert_eq!(
-        format_quantity(6894.757, QuantityKind::Stress, UnitSystem::Us),
-        "1 psi"
-    );
-    assert_eq!(
-        format_quantity(5e9, QuantityKind::Stress, UnitSystem::Si),
-        "5 GPa"
-    );
-    assert_eq!(
-        format_quantity(5e9, QuantityKind::Stress, UnitSystem::Us),
-        "725.2 ksi"
-    );
-    assert_eq!(
-        format_quantity(0.00508, QuantityKind::Speed, UnitSystem::Us),
-        "1 fpm"
-    );
-    assert_eq!(
-        format_quantity(10.0, QuantityKind::Speed, UnitSystem::Si),
-        "600 m/min"
-    );
-    assert_eq!(
-        format_quantity(100.0, QuantityKind::Temperature, UnitSystem::Us),
-        "212 °F"
-    );
-    assert_eq!(
-        format_quantity(0.25, QuantityKind::Percent, UnitSystem::Si),
-        "25 %"
-    );
-    assert_eq!(
-        format_quantity(0.0, QuantityKind::Stress, UnitSystem::Si),
-        "0 Pa"
-    );
+    use UnitSystem::{Si, Us};
+    let rows = [
+        (76e-6, Length, Si, "76 µm"),
+        (0.1524, Length, Si, "152.4 mm"),
+        (1.2, Length, Si, "1.2 m"),
+        (25.4e-6, Length, Us, "1 mil"),
+        (0.1524, Length, Us, "6 in"),
+        (175.1268352, ForcePerWidth, Us, "1 pli"),
+        (350.0, ForcePerWidth, Si, "350 N/m"),
+        (6894.757, Stress, Us, "1 psi"),
+        (5e9, Stress, Si, "5 GPa"),
+        (5e9, Stress, Us, "725.2 ksi"),
+        (0.00508, Speed, Us, "1 fpm"),
+        (10.0, Speed, Si, "600 m/min"),
+        (100.0, Temperature, Us, "212 °F"),
+        (0.25, Percent, Si, "25 %"),
+        (0.0, Stress, Si, "0 Pa"),
+    ];
+    for (value, kind, system, expected) in rows {
+        assert_eq!(
+            format_quantity(value, kind, system),
+            expected,
+            "{value} {kind:?}"
+        );
+    }
 }
 
 fn any_kind() -> impl Strategy<Value = QuantityKind> {

@@ -1,10 +1,8 @@
 //! Shared helpers of the diagnosis tests: invented scenario cases built directly in Rust (so the
 //! tests do not depend on the case-file parser) and a profile source.
 //!
-//! `profile()` and [`SOLVER`] use the crate's solver at about 200 elements. A small stand-alone
-//! Hakiel solver below (Hakiel, TAPPI J. 70(5), 1987: r²·p'' + 3r·p' + (1 − Eθ/Er)·p = 0 per
-//! added element, Pfeiffer radial law, elastic core boundary r·p' = p·(Eθ/Ec − 1 + ν) at the
-//! core) gives the fast profiles of the property sweeps.
+//! `profile()` and [`SOLVER`] use the crate's solver at about 200 elements; the property sweeps
+//! use it at a coarser grid ([`coarse_profile`]).
 #![allow(dead_code)]
 
 use std::collections::BTreeMap;
@@ -13,9 +11,8 @@ use rolltriage::case::{
     ObservedSymptom, ResolvedCase, ResolvedCore, ResolvedRoll, ResolvedWeb, ResolvedWinding,
 };
 use rolltriage::model::{
-    CoreStiffness, Grid, ModelError, Profile, ProfileSummary, RadialStiffness, Resolution,
-    SolverOptions, SolverStats, Taper, TensionSchedule, UpsetBand, WindingMethod, WindingProblem,
-    Zone, ZoneName,
+    CoreStiffness, Profile, RadialStiffness, Resolution, SolverOptions, Taper, TensionSchedule,
+    UpsetBand, WindingMethod,
 };
 
 /// Newsprint-like paper, 45 g/m², 75 µm; values typical of the grade (from memory).
@@ -167,218 +164,13 @@ pub fn profile(case: &ResolvedCase) -> Profile {
     rolltriage::model::solve(&case.problem(SOLVER)).expect("solve")
 }
 
-fn scheduled_tension(s: &TensionSchedule, rc: f64, ro: f64, r: f64) -> f64 {
-    if let Some(u) = s
-        .upsets
-        .iter()
-        .rev()
-        .find(|u| r >= u.from_radius && r < u.to_radius)
-    {
-        return u.tension;
-    }
-    let t0 = s.start_tension;
-    match &s.taper {
-        Taper::None => t0,
-        Taper::Linear { fraction } => t0 * (1.0 - fraction * (r - rc) / (ro - rc)),
-        Taper::Hyperbolic { fraction } => t0 * (1.0 - fraction * (1.0 - rc / r)),
-        Taper::Steps { steps } => steps
-            .iter()
-            .rfind(|st| st.radius <= r)
-            .map(|st| st.tension)
-            .unwrap_or(t0),
-    }
-}
-
-fn strain_of(law: &RadialStiffness, p: f64) -> f64 {
-    match *law {
-        RadialStiffness::Pfeiffer { k1, k2 } => (1.0 + p.max(0.0) / k1).ln() / k2,
-        RadialStiffness::Constant { modulus } => p / modulus,
-        RadialStiffness::PowerLaw { .. } => 0.0,
-    }
-}
-
-/// Secant radial modulus between pressures `p0` and `p1` (tangent when they coincide).
-fn secant_modulus(law: &RadialStiffness, p0: f64, p1: f64) -> f64 {
-    if p1 - p0 > 1e-9 * (1.0 + p0) {
-        let de = strain_of(law, p1) - strain_of(law, p0);
-        if de > 0.0 {
-            return ((p1 - p0) / de).max(1.0);
-        }
-    }
-    law.modulus_at(p0).max(1.0)
-}
-
-/// One accretion increment on nodes `0..=k` (node k is the new outer element).
-fn solve_increment(
-    radius: &[f64],
-    er: &[f64],
-    e_t: f64,
-    core_term: f64,
-    dr: f64,
-    load: f64,
-) -> Vec<f64> {
-    let n = radius.len();
-    let k = n - 1;
-    let mut a = vec![0.0; n];
-    let mut b = vec![0.0; n];
-    let mut c = vec![0.0; n];
-    let mut d = vec![0.0; n];
-    for i in 0..k {
-        let r = radius[i];
-        let g2 = e_t / er[i];
-        let lo = r * r / (dr * dr) - 3.0 * r / (2.0 * dr);
-        let mid = -2.0 * r * r / (dr * dr) + (1.0 - g2);
-        let hi = r * r / (dr * dr) + 3.0 * r / (2.0 * dr);
-        if i == 0 {
-            // Ghost node from r·p' = c·p: p(−1) = p(1) − 2·dr·c·p(0)/r.
-            b[0] = mid - lo * 2.0 * dr * core_term / r;
-            c[0] = hi + lo;
-        } else {
-            a[i] = lo;
-            b[i] = mid;
-            c[i] = hi;
-        }
-    }
-    b[k] = 1.0;
-    d[k] = load;
-    for i in 1..n {
-        let w = a[i] / b[i - 1];
-        b[i] -= w * c[i - 1];
-        d[i] -= w * d[i - 1];
-    }
-    let mut x = vec![0.0; n];
-    x[n - 1] = d[n - 1] / b[n - 1];
-    for i in (0..n - 1).rev() {
-        x[i] = (d[i] - c[i] * x[i + 1]) / b[i];
-    }
-    x
-}
-
-/// Stand-alone grouped-layer Hakiel solve with `elements` elements (secant Er over each increment).
-pub fn fallback_solve(problem: &WindingProblem, elements: usize) -> Profile {
-    let rc = problem.core_radius;
-    let ro = problem.outer_radius;
-    let h = problem.thickness;
-    let layers = ((ro - rc) / h).round().max(1.0) as usize;
-    let m = elements.min(layers).max(2);
-    let dr = (ro - rc) / m as f64;
-    let layers_per = layers as f64 / m as f64;
-    let e_t = problem.tangential_modulus;
-    let nu = problem.poisson_ratio;
-    let ec = problem.core.effective_stiffness();
-    let core_term = if ec.is_finite() { e_t / ec } else { 0.0 } - 1.0 + nu;
-    let friction = problem.winding.friction;
-    let nip = problem.winding.nip_load.unwrap_or(0.0);
-    let radius: Vec<f64> = (0..=m).map(|i| rc + i as f64 * dr).collect();
-    let mut p = vec![0.0; m + 1];
-    let mut sigma_t = vec![0.0; m + 1];
-    let mut wit = vec![0.0; m + 1];
-    // Node 0 is the first wrap on the core.
-    for k in 1..=m {
-        // Wound-in tension of the new element: web tension plus the nip-induced part μ·N.
-        let t_web = scheduled_tension(&problem.winding.tension, rc, ro, radius[k]);
-        let t_wit = t_web + friction * nip;
-        wit[k] = t_wit;
-        sigma_t[k] = t_wit / h;
-        if k == 1 {
-            wit[0] = t_wit;
-            sigma_t[0] = t_wit / h;
-        }
-        // Solve r² δp'' + 3r δp' + (1 − g²) δp = 0 on nodes 0..=k with δp(k) = N·T/r, with
-        // Er taken as the secant modulus over the increment (two fixed-point passes).
-        let mut dp: Vec<f64> = vec![0.0; k + 1];
-        for _pass in 0..3 {
-            let er: Vec<f64> = (0..=k)
-                .map(|i| secant_modulus(&problem.radial_stiffness, p[i], p[i] + dp[i].max(0.0)))
-                .collect();
-            dp = solve_increment(
-                &radius[..=k],
-                &er,
-                e_t,
-                core_term,
-                dr,
-                layers_per * t_wit / radius[k],
-            );
-        }
-        for i in 0..k {
-            let deriv = if i == 0 {
-                core_term * dp[0] / radius[0]
-            } else {
-                (dp[i + 1] - dp[i - 1]) / (2.0 * dr)
-            };
-            p[i] += dp[i];
-            sigma_t[i] -= dp[i] + radius[i] * deriv;
-        }
-        p[k] += dp[k];
-    }
-    let radial_strain: Vec<f64> = p
-        .iter()
-        .map(|&pi| strain_of(&problem.radial_stiffness, pi))
-        .collect();
-    let cuts = [0.0, 0.05, 0.3, 0.7, 0.95, 1.0001];
-    let zones = ZoneName::ALL
-        .iter()
-        .enumerate()
-        .map(|(z, name)| {
-            let start = radius
-                .iter()
-                .position(|&r| (r - rc) / (ro - rc) >= cuts[z])
-                .unwrap_or(m);
-            let end = radius
-                .iter()
-                .position(|&r| (r - rc) / (ro - rc) >= cuts[z + 1])
-                .unwrap_or(m + 1);
-            Zone {
-                name: *name,
-                start,
-                end,
-                inner_radius: radius[start.min(m)],
-                outer_radius: radius[(end.max(1) - 1).min(m)],
-            }
-        })
-        .collect();
-    let (peak_i, peak) = p
-        .iter()
-        .copied()
-        .enumerate()
-        .fold((0, f64::MIN), |b, (i, v)| if v > b.1 { (i, v) } else { b });
-    let (min_i, min_s) = sigma_t
-        .iter()
-        .copied()
-        .enumerate()
-        .fold((0, f64::MAX), |b, (i, v)| if v < b.1 { (i, v) } else { b });
-    Profile {
-        summary: ProfileSummary {
-            core_pressure: p[0],
-            peak_pressure: peak,
-            peak_pressure_radius: radius[peak_i],
-            min_tangential_stress: min_s,
-            min_tangential_radius: radius[min_i],
-            physical_layers: layers,
-            ..ProfileSummary::default()
-        },
-        solver: SolverStats {
-            grid: Grid {
-                layers_per_element: layers_per.round() as usize,
-            },
-            elements: m,
-            ..SolverStats::default()
-        },
-        radius,
-        pressure: p,
-        tangential_stress: sigma_t,
-        radial_strain,
-        wound_in_tension: wit,
-        zones,
-        air_film: None,
-        warnings: vec![],
-        thickness: h,
-    }
-}
-
-/// Always the stand-alone solve (snapshots stay stable whatever the crate's solver does).
-pub fn fallback_only(problem: &WindingProblem) -> Result<Profile, ModelError> {
-    Ok(fallback_solve(problem, 300))
+/// The crate's solver at `elements` elements: the quick profiles of the property sweeps.
+pub fn coarse_profile(case: &ResolvedCase, elements: usize) -> Profile {
+    let options = SolverOptions {
+        resolution: Resolution::Elements { count: elements },
+        ..SOLVER
+    };
+    rolltriage::model::solve(&case.problem(options)).expect("solve")
 }
 
 /// The Harbour Point W3 telescoping demo (cases/harbour_newsprint_telescoping.yaml) built in

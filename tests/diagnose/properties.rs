@@ -44,7 +44,7 @@ proptest! {
         case.winding.tension.taper = if taper > 0.01 { Taper::Linear { fraction: taper } } else { Taper::None };
         case.roll.outer_diameter = diameter;
         case.core.crush_pressure = rating;
-        let profile = fallback_solve(&case.problem(Default::default()), 120);
+        let profile = coarse_profile(&case, 120);
         let weak = Indicators::compute(&case, &profile);
         let weak_belief = belief(&rules, &case, &weak, "core_too_weak");
         case.core.crush_pressure = rating * factor;

@@ -51,7 +51,12 @@ fn saver_child() {
 
 fn start_saver(path: &Path) -> Child {
     Command::new(std::env::current_exe().unwrap())
-        .args(["--exact", "saver_child", "--nocapture", "--test-threads=1"])
+        .args([
+            "--exact",
+            "save::saver_child",
+            "--nocapture",
+            "--test-threads=1",
+        ])
         .env(SAVER_ENV, path)
         .stdout(std::process::Stdio::null())
         .stderr(std::process::Stdio::null())
