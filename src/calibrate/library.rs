@@ -121,6 +121,16 @@ pub fn check_id(id: &str) -> Result<(), String> {
 impl MaterialLibrary {
     /// Parse a library file's text.
     pub fn from_yaml_str(text: &str, origin: &str) -> Result<MaterialLibrary, CalibrateError> {
+        // Aliases are refused before parsing: expanding an alias chain costs work exponential
+        // in the file size.
+        if let Some((line, column)) = crate::case::yaml_guard::first_alias(text) {
+            return Err(CalibrateError::Library {
+                path: origin.to_string(),
+                message: format!(
+                    "line {line}, column {column}: a YAML alias (`*name`) is not accepted in a material library; write the value out instead"
+                ),
+            });
+        }
         let library: MaterialLibrary =
             yaml::from_str(text).map_err(|e| CalibrateError::Library {
                 path: origin.to_string(),
