@@ -1,5 +1,5 @@
 //! Report rendering on a hand-built profile and diagnosis, so the snapshots do not move when the
-//! solver or the rule base is tuned. The real demo cases are covered in tests/report_demo.rs.
+//! solver or the rule base is tuned. The real demo cases are covered in tests/report/demo.rs.
 
 use std::collections::BTreeMap;
 
