@@ -100,7 +100,7 @@ fn crate_solve(p: &WindingProblem) -> Result<Profile, rolltriage::model::ModelEr
 #[test]
 fn fit_matches_scipy_least_squares() {
     // tests/reference/inverse_tension_fit.py: scipy.optimize.least_squares on the independent
-    // SciPy accretion model (tests/model_reference_scipy.rs compares the two node by node).
+    // SciPy accretion model (tests/model/reference_scipy.rs compares the two node by node).
     // Measured agreement: scales to about 1e-6, standard errors to about 1e-4 (different
     // finite-difference steps); checked to 0.1 % and 1 %.
     let v = reference();
