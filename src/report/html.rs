@@ -105,11 +105,12 @@ fn write_report(
         "<tr><th>Input</th><th>Value</th><th>Given or assumed</th></tr>"
     )?;
     for line in &case.inputs {
-        let (class, origin) = match (&line.assumed, &line.source) {
-            (true, Some(source)) => (" class=\"assumed\"", format!("assumed: {source}")),
-            (true, None) => (" class=\"assumed\"", "assumed".to_string()),
-            (false, _) => ("", "given".to_string()),
+        let class = if line.assumed {
+            " class=\"assumed\""
+        } else {
+            ""
         };
+        let origin = line.origin_text();
         writeln!(
             out,
             "<tr{class}><td>{}</td><td>{}</td><td>{}</td></tr>",
@@ -119,6 +120,11 @@ fn write_report(
         )?;
     }
     writeln!(out, "</table>")?;
+    writeln!(
+        out,
+        "<p>{}</p>",
+        escape(&super::document::assumed_summary(&case.inputs))
+    )?;
 
     let stress = &doc.stress;
     writeln!(out, "<h2 id=\"stress\">Stress inside the roll</h2>")?;

@@ -69,11 +69,7 @@ fn write_report(out: &mut String, doc: &ReportDocument) -> std::fmt::Result {
     writeln!(out, "| Input | Value | Given or assumed |")?;
     writeln!(out, "|---|---|---|")?;
     for line in &case.inputs {
-        let origin = match (&line.assumed, &line.source) {
-            (true, Some(source)) => format!("assumed: {source}"),
-            (true, None) => "assumed".to_string(),
-            (false, _) => "given".to_string(),
-        };
+        let origin = line.origin_text();
         writeln!(
             out,
             "| {} | {} | {} |",
@@ -82,13 +78,8 @@ fn write_report(out: &mut String, doc: &ReportDocument) -> std::fmt::Result {
             cell(&origin)
         )?;
     }
-    let assumed = case.inputs.iter().filter(|l| l.assumed).count();
     writeln!(out)?;
-    writeln!(
-        out,
-        "{assumed} of {} inputs were assumed from presets or defaults.",
-        case.inputs.len()
-    )?;
+    writeln!(out, "{}", super::document::assumed_summary(&case.inputs))?;
     writeln!(out)?;
 
     let stress = &doc.stress;

@@ -39,6 +39,7 @@ impl Resolver {
         let (diameter, length) = match (diameter, length) {
             (Some(d), given_length) => {
                 let d = self.check(reg::ROLL_DIAMETER.path, d, &reg::ROLL_DIAMETER.range())?;
+                self.note_preset_copy(&reg::ROLL_DIAMETER, d);
                 if d <= core.outside_diameter {
                     return Err(self.out_of_range(
                         reg::ROLL_DIAMETER.path,
@@ -50,10 +51,18 @@ impl Resolver {
                     ));
                 }
                 // The length derived from a given diameter is informational (the model works
-                // on radii), so it is not listed as assumed.
+                // on radii); it is listed as computed so no report calls it given.
                 let length = match given_length {
                     Some(l) => self.check(reg::ROLL_LENGTH.path, l, &reg::ROLL_LENGTH.range())?,
-                    None => length_of(d),
+                    None => {
+                        let l = length_of(d);
+                        self.computed(
+                            reg::ROLL_LENGTH.path,
+                            reg::ROLL_LENGTH.range().show(l),
+                            "computed from the diameters and the caliper: L = π(R² − rc²)/h",
+                        );
+                        l
+                    }
                 };
                 (d, length)
             }
@@ -61,10 +70,9 @@ impl Resolver {
                 let l = self.check(reg::ROLL_LENGTH.path, l, &reg::ROLL_LENGTH.range())?;
                 let d =
                     2.0 * (core_radius.powi(2) + l * web.thickness / std::f64::consts::PI).sqrt();
-                self.assume(
+                self.computed(
                     reg::ROLL_DIAMETER.path,
                     reg::ROLL_DIAMETER.range().show(d),
-                    "",
                     "computed from the length and the caliper: R = √(rc² + L·h/π)",
                 );
                 (
@@ -86,10 +94,9 @@ impl Resolver {
                     "",
                 );
                 let l = length_of(d);
-                self.assume(
+                self.computed(
                     reg::ROLL_LENGTH.path,
                     reg::ROLL_LENGTH.range().show(l),
-                    "",
                     "computed from the diameters and the caliper: L = π(R² − rc²)/h",
                 );
                 (d, l)
@@ -202,7 +209,21 @@ impl Resolver {
             winding.tension.as_ref(),
             QuantityKind::ForcePerWidth,
         )? {
-            Some(t) => t,
+            Some(t) => {
+                if let Some(named) = self.named_web
+                    && (t - named.typical_tension.value).abs()
+                        <= super::PRESET_COPY_TOLERANCE * named.typical_tension.value
+                {
+                    self.push_assumed(
+                        reg::TENSION.path,
+                        reg::TENSION.range().show(t),
+                        &format!("preset {}", named.id),
+                        named.typical_tension.source,
+                        crate::case::ValueOrigin::Preset,
+                    );
+                }
+                t
+            }
             None => {
                 self.assume(
                     reg::TENSION.path,
