@@ -36,6 +36,9 @@ pub struct DiagnoseArgs {
     /// Skip the what-if re-solves of setting changes.
     #[arg(long)]
     pub no_what_if: bool,
+    /// Also print the IDs of causes, remedies and cautions (as the rule files and JSON use them).
+    #[arg(long, short = 'v')]
+    pub verbose: bool,
 }
 
 /// The rule base: `--rules DIR` or the shipped one.
@@ -94,7 +97,7 @@ pub fn run(args: &DiagnoseArgs) -> anyhow::Result<()> {
     .with_context(context)?;
     let diagnosis = triage.diagnosis.with_context(context)?;
     let text = match args.format {
-        Format::Text => diagnose::render::render_text(&resolved.title, &diagnosis),
+        Format::Text => diagnose::render::render_text(&resolved.title, &diagnosis, args.verbose),
         Format::Markdown => diagnose::render::render_markdown(&resolved.title, &diagnosis),
         Format::Json => serde_json::to_string_pretty(&diagnosis)? + "\n",
     };

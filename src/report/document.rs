@@ -109,6 +109,24 @@ impl InputLine {
     }
 }
 
+impl ReportDocument {
+    /// The causes a remedy answers, in words.
+    pub fn answers_text(&self, remedy: &crate::diagnose::MergedRemedy) -> String {
+        remedy
+            .answers
+            .iter()
+            .map(|id| {
+                self.causes
+                    .iter()
+                    .find(|c| c.id == *id)
+                    .map(|c| c.title.clone())
+                    .unwrap_or_else(|| id.replace('_', " "))
+            })
+            .collect::<Vec<_>>()
+            .join("; ")
+    }
+}
+
 /// "3 of 20 inputs were assumed …" for the report's inputs table.
 pub fn assumed_summary(inputs: &[InputLine]) -> String {
     use crate::case::ValueOrigin;
@@ -669,5 +687,44 @@ pub fn stress_summary(
             )
         }),
         warnings: profile.warnings.clone(),
+    }
+}
+
+/// How much of an answer rests on assumed inputs: how many of the listed inputs were assumed
+/// (left out, or preset values written unchanged), their labels, and the factor the shown
+/// confidence is multiplied by.
+#[derive(Debug, Clone, PartialEq)]
+pub struct AssumedShare {
+    pub assumed: usize,
+    pub total: usize,
+    pub labels: Vec<String>,
+}
+
+/// Half the confidence at most is taken off, in proportion to the share of inputs assumed: a
+/// case that gives nothing keeps half its belief, a case that gives everything all of it. A
+/// plain, stated discount rather than a computed uncertainty (see docs/tui.md).
+pub const ASSUMED_DISCOUNT: f64 = 0.5;
+
+impl AssumedShare {
+    pub fn of(resolved: &ResolvedCase) -> Self {
+        let lines = input_lines(resolved, UnitSystem::Si);
+        let labels: Vec<String> = lines
+            .iter()
+            .filter(|l| l.assumed)
+            .map(|l| l.label.clone())
+            .collect();
+        AssumedShare {
+            assumed: labels.len(),
+            total: lines.len(),
+            labels,
+        }
+    }
+
+    /// The factor applied to a belief before it is shown.
+    pub fn factor(&self) -> f64 {
+        if self.total == 0 {
+            return 1.0;
+        }
+        1.0 - ASSUMED_DISCOUNT * self.assumed as f64 / self.total as f64
     }
 }

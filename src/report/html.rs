@@ -252,21 +252,29 @@ fn write_report(
         out,
         "<h2 id=\"remedies\">Remedies, in the order to try</h2>"
     )?;
-    writeln!(out, "<ol>")?;
-    for RemedyEntry { remedy, .. } in &doc.remedies {
+    let merged: Vec<_> = doc.remedies.iter().map(|e| e.remedy.clone()).collect();
+    let mut open_list = false;
+    for (i, RemedyEntry { rank, remedy }) in doc.remedies.iter().enumerate() {
+        if let Some(heading) = crate::diagnose::remedies::heading(&merged, i) {
+            if open_list {
+                writeln!(out, "</ol>")?;
+            }
+            writeln!(out, "<h3>{}</h3>", escape(&heading))?;
+            writeln!(out, "<ol start=\"{rank}\">")?;
+            open_list = true;
+        }
         write!(
             out,
-            "<li><strong>{}</strong> [{}, cost {}] — answers {}.",
+            "<li><strong>{}</strong> [cost {}] — answers {}.",
             escape(remedy.text.trim()),
-            escape(&remedy.group),
             escape(&remedy.cost),
-            escape(&remedy.answers.join(", "))
+            escape(&doc.answers_text(remedy))
         )?;
         if let Some(what_if) = &remedy.what_if {
             write!(
                 out,
                 "<br>Predicted effect: {} {} → {}",
-                escape(&what_if.indicator),
+                escape(&what_if.indicator.replace('_', " ")),
                 escape(&what_if.before),
                 escape(&what_if.after)
             )?;
@@ -278,16 +286,23 @@ fn write_report(
             }
             write!(out, ". {}", escape(what_if.note.trim()))?;
         }
-        if !remedy.cautions.is_empty() {
+        for caution in doc
+            .cautions
+            .iter()
+            .filter(|c| remedy.cautions.contains(&c.id))
+        {
             write!(
                 out,
-                "<br>Cautions: {}.",
-                escape(&remedy.cautions.join(", "))
+                "<br><span class=\"caution\">⚠ Caution — {}: {}</span>",
+                escape(&caution.title),
+                escape(caution.text.trim())
             )?;
         }
         writeln!(out, "</li>")?;
     }
-    writeln!(out, "</ol>")?;
+    if open_list {
+        writeln!(out, "</ol>")?;
+    }
 
     if let Some(comparison) = &doc.remedy_comparison {
         writeln!(

@@ -184,21 +184,25 @@ fn write_report(out: &mut String, doc: &ReportDocument) -> std::fmt::Result {
 
     writeln!(out, "## Remedies, in the order to try")?;
     writeln!(out)?;
-    for RemedyEntry { rank, remedy } in &doc.remedies {
+    let merged: Vec<_> = doc.remedies.iter().map(|e| e.remedy.clone()).collect();
+    for (i, RemedyEntry { rank, remedy }) in doc.remedies.iter().enumerate() {
+        if let Some(heading) = crate::diagnose::remedies::heading(&merged, i) {
+            writeln!(out, "### {heading}")?;
+            writeln!(out)?;
+        }
         writeln!(
             out,
-            "{}. **{}** [{}, cost {}] — answers {}.",
+            "{}. **{}** [cost {}] — answers {}.",
             rank,
             remedy.text.trim(),
-            remedy.group,
             remedy.cost,
-            remedy.answers.join(", ")
+            doc.answers_text(remedy)
         )?;
         if let Some(what_if) = &remedy.what_if {
             writeln!(
                 out,
                 "   Predicted effect: {} {} → {}{}. {}",
-                what_if.indicator,
+                what_if.indicator.replace('_', " "),
                 what_if.before,
                 what_if.after,
                 if what_if.worse {
@@ -209,8 +213,17 @@ fn write_report(out: &mut String, doc: &ReportDocument) -> std::fmt::Result {
                 what_if.note.trim()
             )?;
         }
-        if !remedy.cautions.is_empty() {
-            writeln!(out, "   Cautions: {}.", remedy.cautions.join(", "))?;
+        for caution in doc
+            .cautions
+            .iter()
+            .filter(|c| remedy.cautions.contains(&c.id))
+        {
+            writeln!(
+                out,
+                "   ⚠ Caution — {}: {}",
+                caution.title,
+                caution.text.trim()
+            )?;
         }
     }
     writeln!(out)?;
