@@ -188,6 +188,10 @@ const UNITS: &[Unit] = &[
     unit(&["n/mm"], QuantityKind::ForcePerWidth, 1000.0),
     unit(&["n/cm"], QuantityKind::ForcePerWidth, 100.0),
     unit(&["kn/m"], QuantityKind::ForcePerWidth, 1000.0),
+    // The case file's own limits are stated in MN/m (web strength at most 10 MN/m). Symbols
+    // are matched without case, so `parse_quantity` refuses the millinewton spelling "mN/m"
+    // rather than read it as a million times too large.
+    unit(&["mn/m"], QuantityKind::ForcePerWidth, 1e6),
     unit(
         &["pli", "lbf/in", "lb/in", "lbs/in"],
         QuantityKind::ForcePerWidth,
@@ -331,6 +335,15 @@ pub fn parse_quantity(field: &str, text: &str, kind: QuantityKind) -> Result<f64
         return Err(not_a_number());
     }
     let symbol = normalise_unit(unit_text);
+    if unit_text.trim_start().starts_with("mN") || unit_text.trim_start().starts_with("mn") {
+        // Millinewtons: no winding quantity is that small, and "mn/m" is MN/m to the lookup.
+        return Err(UnitError::UnknownUnit {
+            field: field.to_string(),
+            given: text.to_string(),
+            unit: unit_text.trim().to_string(),
+            accepted: kind.accepted().to_string(),
+        });
+    }
     if symbol.is_empty() {
         return match kind {
             QuantityKind::Percent => Ok(number),

@@ -9,12 +9,14 @@
 pub mod levenberg_marquardt;
 pub mod library;
 pub mod stack_data;
+pub mod write_case;
 
 use nalgebra::{DMatrix, DVector};
 
 pub use library::{MaterialEntry, MaterialLibrary};
 pub use stack_data::{
-    LoadingBranch, StackPoint, StackReadOptions, StackTest, loading_branch, parse_stack_csv,
+    LoadingBranch, MAX_STACK_FILE_BYTES, StackPoint, StackReadOptions, StackTest, loading_branch,
+    parse_stack_csv, read_stack_file,
 };
 
 use levenberg_marquardt::{LeastSquaresModel, LmOptions};
@@ -61,6 +63,8 @@ pub enum CalibrateError {
     Library { path: String, message: String },
     #[error(transparent)]
     Save(#[from] crate::fsutil::SaveError),
+    #[error(transparent)]
+    NotFinite(#[from] crate::finite::NonFinite),
     #[error("cannot read {path}: {source}")]
     Read {
         path: std::path::PathBuf,
@@ -452,7 +456,7 @@ pub fn radial_stiffness_input(fit: &PfeifferFit) -> crate::case::RadialStiffness
         law: "pfeiffer".into(),
         k1: Some(crate::case::QuantityText::Text(format!(
             "{} kPa",
-            significant(fit.k1 / 1e3, 5)
+            write_case::case_number(significant(fit.k1 / 1e3, 5))
         ))),
         k2: Some(significant(fit.k2, 5)),
         modulus: None,
@@ -483,12 +487,12 @@ pub fn fit_stack_file(
     read: &StackReadOptions,
     options: &FitOptions,
 ) -> Result<(StackTest, PfeifferFit), CalibrateError> {
-    let text = std::fs::read_to_string(path).map_err(|source| CalibrateError::Read {
-        path: path.to_path_buf(),
-        source,
-    })?;
-    let test = parse_stack_csv(&text, &path.display().to_string(), read)?;
+    let text = read_stack_file(path)?;
+    let origin = path.display().to_string();
+    let test = parse_stack_csv(&text, &origin, read)?;
     let fit = fit_pfeiffer(&test, options)?;
+    // Whatever the input checks let through, a non-finite fit is refused, not shown.
+    crate::finite::ensure_finite(&format!("the stack fit of {origin}"), &fit)?;
     Ok((test, fit))
 }
 

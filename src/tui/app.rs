@@ -56,6 +56,10 @@ pub enum AppError {
     Report(#[from] crate::report::ReportError),
     #[error(transparent)]
     Save(#[from] crate::fsutil::SaveError),
+    #[error("cannot tell the report format from \"{0}\"; use an extension .md, .html or .json")]
+    UnknownFormat(String),
+    #[error(transparent)]
+    NotFinite(#[from] crate::finite::NonFinite),
 }
 
 /// Labels of the screen tabs as drawn on the top line; shared with mouse hit-testing.
@@ -422,11 +426,12 @@ impl App {
         }
     }
 
-    /// Save to the case's file, or ask for a file name first.
+    /// Save to the case's file, or ask for a file name first (always for a shipped demo case,
+    /// so a stray Ctrl-S never overwrites one).
     pub fn save(&mut self) {
         match self.session.case_path.clone() {
-            Some(path) => self.save_to(&path),
-            None => {
+            Some(path) if !crate::fsutil::is_shipped_demo_case(&path) => self.save_to(&path),
+            _ => {
                 let name = suggested_file_name(&self.session.case.title);
                 self.popups
                     .push(Popup::File(FilePopup::new(FilePurpose::SaveAs, name)));
@@ -475,7 +480,9 @@ impl App {
             .diagnosis
             .as_ref()
             .map_err(|e| AppError::NoDiagnosis(e.clone()))?;
-        let format = crate::report::Format::from_path(path).unwrap_or_default();
+        // As on the command line: an unknown extension is refused, not written as Markdown.
+        let format = crate::report::Format::from_path(path)
+            .ok_or_else(|| AppError::UnknownFormat(path.display().to_string()))?;
         let remedy = match (&self.what_if.remedy, &self.what_if.outcome) {
             (Some(id), Some((generation, after))) if *generation == session.generation => {
                 Some(crate::report::comparison(
@@ -500,6 +507,8 @@ impl App {
             crate::report::ReportMeta::now(source),
             session.units,
         );
+        crate::finite::ensure_finite("the stress profile", &input.profile)?;
+        crate::finite::ensure_finite("the diagnosis", &input.diagnosis)?;
         let text = crate::report::render(&input, format)?;
         crate::fsutil::save_atomic(path, text.as_bytes())?;
         self.session.set_status(format!(

@@ -99,7 +99,7 @@ pub fn run(options: &Options) -> Result<(), TuiError> {
     let mut terminal = terminal::setup(options.mouse)?;
     let result = event_loop(&mut terminal, &mut app, &mut jobs, theme);
     jobs.cancel_all();
-    terminal::restore(options.mouse);
+    terminal::teardown(options.mouse);
     result
 }
 

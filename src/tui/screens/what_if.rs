@@ -128,7 +128,8 @@ pub fn design_rows(
 ) -> Vec<[String; 4]> {
     use crate::taper_design::Limit;
     let show = |limit: Limit, v: f64| match limit {
-        Limit::CorePressure | Limit::OuterPressure => compact_stress(v, units),
+        Limit::CorePressure => compact_stress(v, units),
+        Limit::Telescoping => format!("{v:.2}"),
         Limit::Starring => format!("{:.1}%", v * 100.0),
         Limit::WoundInTension => {
             crate::units::format_quantity(v, crate::units::QuantityKind::ForcePerWidth, units)
@@ -137,7 +138,7 @@ pub fn design_rows(
     let mut rows = Vec::new();
     for after in &design.after.checks {
         let before = design.before.check(after.limit).map(|c| c.value);
-        let bound = if after.limit == Limit::OuterPressure {
+        let bound = if after.limit == Limit::Telescoping {
             "≥"
         } else {
             "≤"
