@@ -26,6 +26,7 @@ pub mod yaml_guard;
 pub use registry::MAX_LAYERS;
 pub use resolved::{
     AssumedValue, ResolvedCase, ResolvedCore, ResolvedRoll, ResolvedWeb, ResolvedWinding,
+    ValueOrigin,
 };
 pub use schema::{
     Case, CoreInput, ObservedSymptom, QuantityText, RadialStiffnessInput, RollInput, StepInput,
@@ -211,6 +212,8 @@ impl Case {
         resolve::Resolver {
             origin: origin.to_string(),
             assumed: Vec::new(),
+            named_web: None,
+            named_core: None,
         }
         .resolve(self)
     }

@@ -99,6 +99,31 @@ pub struct AssumedValue {
     pub value: String,
     /// Where it came from: preset ID and the value's source note.
     pub source: String,
+    /// Whether it was left out, copied unchanged from its preset, or computed from others.
+    #[serde(default)]
+    pub origin: ValueOrigin,
+}
+
+/// How a value of [`ResolvedCase::assumed`] came about. All three are guesses of a kind: the
+/// results say how much of the answer rests on them.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Default, Serialize, Deserialize)]
+#[serde(rename_all = "snake_case")]
+pub enum ValueOrigin {
+    /// Not in the case file: taken from a preset or a fixed default.
+    #[default]
+    Default,
+    /// In the case file but equal to the named preset's (or the fixed default's) value, as
+    /// `case new` writes it: still the preset's value, not a measurement.
+    Preset,
+    /// Computed from other inputs (wound length from the diameters and the caliper, ...).
+    Computed,
+}
+
+impl AssumedValue {
+    /// True for a value the case file did not give at all (not a preset copy or computed).
+    pub fn is_default(&self) -> bool {
+        self.origin == ValueOrigin::Default
+    }
 }
 
 impl ResolvedCase {

@@ -4,7 +4,7 @@ use std::io::Write;
 use std::path::PathBuf;
 
 use anyhow::{Context, bail};
-use rolltriage::case::{Case, ResolvedCase, starter_yaml};
+use rolltriage::case::{Case, ResolvedCase, ValueOrigin, starter_yaml};
 use rolltriage::diagnose::{self, rules::RuleBase};
 use rolltriage::presets::{self, Sourced};
 use rolltriage::units::{QuantityKind, UnitSystem, format_quantity};
@@ -159,14 +159,24 @@ fn check(args: &CheckArgs) -> anyhow::Result<()> {
             Ok(resolved) => {
                 writeln!(
                     out,
-                    "ok      {}  ({} symptom(s), {} value(s) assumed)",
+                    "ok      {}  ({} symptom(s), {} value(s) assumed{})",
                     path.display(),
                     resolved.symptoms.len(),
-                    resolved.assumed.len()
+                    resolved.assumed.iter().filter(|a| a.is_default()).count(),
+                    origin_counts(&resolved.assumed)
                 )?;
                 if args.assumed {
                     for a in &resolved.assumed {
-                        writeln!(out, "          {} = {}  [{}]", a.field, a.value, a.source)?;
+                        let how = match a.origin {
+                            ValueOrigin::Default => "",
+                            ValueOrigin::Preset => "preset value, unchanged: ",
+                            ValueOrigin::Computed => "",
+                        };
+                        writeln!(
+                            out,
+                            "          {} = {}  [{how}{}]",
+                            a.field, a.value, a.source
+                        )?;
                     }
                 }
             }
@@ -284,4 +294,25 @@ fn list_presets(args: &PresetsArgs) -> anyhow::Result<()> {
         "\nA core with `material: rigid` is infinitely stiff; `stiffness:` gives a measured Ec."
     )?;
     Ok(())
+}
+
+/// ", 14 preset value(s) unchanged, 1 computed" for the values the file gives as its preset's
+/// or that were computed from others (empty when there are none).
+fn origin_counts(assumed: &[rolltriage::case::AssumedValue]) -> String {
+    let presets = assumed
+        .iter()
+        .filter(|a| a.origin == ValueOrigin::Preset)
+        .count();
+    let computed = assumed
+        .iter()
+        .filter(|a| a.origin == ValueOrigin::Computed)
+        .count();
+    let mut out = String::new();
+    if presets > 0 {
+        out.push_str(&format!(", {presets} preset value(s) unchanged"));
+    }
+    if computed > 0 {
+        out.push_str(&format!(", {computed} computed"));
+    }
+    out
 }

@@ -36,6 +36,9 @@ pub struct DiagnoseArgs {
     /// Skip the what-if re-solves of setting changes.
     #[arg(long)]
     pub no_what_if: bool,
+    /// Also print the IDs of causes, remedies and cautions (as the rule files and JSON use them).
+    #[arg(long, short = 'v')]
+    pub verbose: bool,
     /// Complaint history to learn from (SQLite file, postgres:// URL, or `default`): site
     /// experience joins the ranking as its own reason and similar past complaints are listed.
     #[arg(long = "history", value_name = "PATH|URL")]
@@ -115,7 +118,9 @@ pub fn run(args: &DiagnoseArgs) -> anyhow::Result<()> {
     let what = format!("the diagnosis of {}", args.case.display());
     rolltriage::finite::ensure_finite(&what, &diagnosis)?;
     let text = match args.format {
-        Format::Text => diagnose::render::render_text(&resolved.title, &diagnosis) + &past,
+        Format::Text => {
+            diagnose::render::render_text(&resolved.title, &diagnosis, args.verbose) + &past
+        }
         Format::Markdown => diagnose::render::render_markdown(&resolved.title, &diagnosis) + &past,
         Format::Json => serde_json::to_string_pretty(&diagnosis)? + "\n",
     };

@@ -137,6 +137,7 @@ pub fn diagnose_solved(
     // A remedy the re-solve shows making the physics worse is kept (with its warning) but tried
     // last; the sort is stable so the order among the others stands.
     remedies.sort_by_key(|r| r.what_if.as_ref().is_some_and(|w| w.worse));
+    remedies::group_in_order(&mut remedies);
     let cautions = rules
         .cautions
         .iter()

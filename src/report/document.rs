@@ -83,6 +83,76 @@ pub struct InputLine {
     pub assumed: bool,
     /// Where an assumed value came from.
     pub source: Option<String>,
+    /// How a value not typed by hand came about: left out (`default`), written unchanged from
+    /// its preset (`preset`) or computed from other inputs (`computed`).
+    #[serde(default)]
+    pub origin: Option<crate::case::ValueOrigin>,
+}
+
+impl InputLine {
+    /// The "given or assumed" cell in words.
+    pub fn origin_text(&self) -> String {
+        use crate::case::ValueOrigin;
+        let source = self.source.clone().unwrap_or_default();
+        let with = |what: &str| {
+            if source.is_empty() {
+                what.to_string()
+            } else {
+                format!("{what}: {source}")
+            }
+        };
+        match self.origin {
+            Some(ValueOrigin::Default) => with("assumed"),
+            Some(ValueOrigin::Preset) => with("preset value, unchanged"),
+            Some(ValueOrigin::Computed) if source.starts_with("computed") => source,
+            Some(ValueOrigin::Computed) => with("computed"),
+            None => "given".to_string(),
+        }
+    }
+}
+
+impl ReportDocument {
+    /// The causes a remedy answers, in words.
+    pub fn answers_text(&self, remedy: &crate::diagnose::MergedRemedy) -> String {
+        remedy
+            .answers
+            .iter()
+            .map(|id| {
+                self.causes
+                    .iter()
+                    .find(|c| c.id == *id)
+                    .map(|c| c.title.clone())
+                    .unwrap_or_else(|| id.replace('_', " "))
+            })
+            .collect::<Vec<_>>()
+            .join("; ")
+    }
+}
+
+/// "3 of 20 inputs were assumed …" for the report's inputs table.
+pub fn assumed_summary(inputs: &[InputLine]) -> String {
+    use crate::case::ValueOrigin;
+    let count = |o: ValueOrigin| inputs.iter().filter(|l| l.origin == Some(o)).count();
+    let (defaults, presets, computed) = (
+        count(ValueOrigin::Default),
+        count(ValueOrigin::Preset),
+        count(ValueOrigin::Computed),
+    );
+    let mut out = format!(
+        "{} of {} inputs were assumed from presets or defaults",
+        defaults + presets,
+        inputs.len()
+    );
+    if presets > 0 {
+        out.push_str(&format!(
+            " ({presets} of them preset values written into the case file unchanged)"
+        ));
+    }
+    if computed > 0 {
+        out.push_str(&format!("; {computed} computed from other inputs"));
+    }
+    out.push('.');
+    out
 }
 
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
@@ -499,12 +569,14 @@ pub fn input_lines(resolved: &ResolvedCase, units: UnitSystem) -> Vec<InputLine>
                 a.field == field
                     || a.field.starts_with(&format!("{field}."))
                     || (field == "roll.diameter" && a.field == "roll.outer_diameter")
+                    || (field == "core.stiffness" && a.field == "core.modulus")
             });
             InputLine {
                 label: input_label(&field).to_string(),
                 value,
-                assumed: assumed.is_some(),
+                assumed: assumed.is_some_and(|a| a.origin != crate::case::ValueOrigin::Computed),
                 source: assumed.map(|a| a.source.clone()),
+                origin: assumed.map(|a| a.origin),
                 field,
             }
         })
@@ -654,5 +726,44 @@ pub fn stress_summary(
             )
         }),
         warnings: profile.warnings.clone(),
+    }
+}
+
+/// How much of an answer rests on assumed inputs: how many of the listed inputs were assumed
+/// (left out, or preset values written unchanged), their labels, and the factor the shown
+/// confidence is multiplied by.
+#[derive(Debug, Clone, PartialEq)]
+pub struct AssumedShare {
+    pub assumed: usize,
+    pub total: usize,
+    pub labels: Vec<String>,
+}
+
+/// Half the confidence at most is taken off, in proportion to the share of inputs assumed: a
+/// case that gives nothing keeps half its belief, a case that gives everything all of it. A
+/// plain, stated discount rather than a computed uncertainty (see docs/tui.md).
+pub const ASSUMED_DISCOUNT: f64 = 0.5;
+
+impl AssumedShare {
+    pub fn of(resolved: &ResolvedCase) -> Self {
+        let lines = input_lines(resolved, UnitSystem::Si);
+        let labels: Vec<String> = lines
+            .iter()
+            .filter(|l| l.assumed)
+            .map(|l| l.label.clone())
+            .collect();
+        AssumedShare {
+            assumed: labels.len(),
+            total: lines.len(),
+            labels,
+        }
+    }
+
+    /// The factor applied to a belief before it is shown.
+    pub fn factor(&self) -> f64 {
+        if self.total == 0 {
+            return 1.0;
+        }
+        1.0 - ASSUMED_DISCOUNT * self.assumed as f64 / self.total as f64
     }
 }

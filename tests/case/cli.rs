@@ -166,6 +166,14 @@ fn case_new_writes_a_case_that_checks_with_nothing_assumed() {
             "{}",
             text(&check.stdout)
         );
+        // Nothing is left out, but every value is still its preset's: it stays marked so
+        // (issue 19: provenance kept), and the wound length is computed, not given.
+        assert!(
+            text(&check.stdout).contains("preset value(s) unchanged, 1 computed"),
+            "{}",
+            text(&check.stdout)
+        );
+        assert!(text(&check.stdout).contains("web.thickness = "));
         let written = std::fs::read_to_string(&path).unwrap();
         assert!(written.contains(&format!("preset: {web}")));
         assert!(written.contains("(from memory)") || written.contains("common practice"));
@@ -231,4 +239,46 @@ fn completions_are_printed() {
     let output = run(&["completions", "bash"]);
     assert_eq!(output.status.code(), Some(0));
     assert!(text(&output.stdout).contains("rolltriage"));
+}
+
+#[test]
+fn report_of_a_fresh_case_new_keeps_preset_and_computed_provenance() {
+    let dir = tempfile::tempdir().unwrap();
+    let case = dir.path().join("pet.yaml");
+    let output = run(&[
+        "case",
+        "new",
+        "--web",
+        "pet_film",
+        "-o",
+        case.to_str().unwrap(),
+    ]);
+    assert_eq!(output.status.code(), Some(0), "{}", text(&output.stderr));
+    let report = dir.path().join("pet.md");
+    let output = run(&[
+        "report",
+        case.to_str().unwrap(),
+        "-o",
+        report.to_str().unwrap(),
+    ]);
+    assert_eq!(output.status.code(), Some(0), "{}", text(&output.stderr));
+    let md = std::fs::read_to_string(&report).unwrap();
+    assert!(md.contains("| Web thickness | 23 µm | preset value, unchanged: preset pet_film"));
+    assert!(md.contains("| Web width | 1 m | preset value, unchanged: default"));
+    assert!(md.contains("| Wound length | 33068 m | computed from the diameters"));
+    assert!(!md.contains("0 of 20 inputs were assumed"), "{md}");
+    // Editing a value by hand makes it given.
+    let yaml = std::fs::read_to_string(&case)
+        .unwrap()
+        .replace("thickness: \"23 µm\"", "thickness: \"25 µm\"");
+    std::fs::write(&case, yaml).unwrap();
+    let output = run(&[
+        "report",
+        case.to_str().unwrap(),
+        "-o",
+        report.to_str().unwrap(),
+    ]);
+    assert_eq!(output.status.code(), Some(0), "{}", text(&output.stderr));
+    let md = std::fs::read_to_string(&report).unwrap();
+    assert!(md.contains("| Web thickness | 25 µm | given |"), "{md}");
 }

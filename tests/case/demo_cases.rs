@@ -223,9 +223,10 @@ fn every_case_loads_solves_and_ranks_its_intended_cause() {
     for (name, entry) in &table.cases {
         let case = Case::load(&cases_dir().join(name)).unwrap_or_else(|e| panic!("{name}: {e}"));
         let resolved = case.resolve().unwrap_or_else(|e| panic!("{name}: {e}"));
-        // Every input is given in the demo cases, so nothing should come from presets.
+        // Every input is given in the demo cases, so nothing should come from presets (the
+        // wound length computed from the diameter is listed as computed, which is fine).
         assert!(
-            resolved.assumed.is_empty(),
+            resolved.assumed.iter().all(|a| !a.is_default()),
             "{name}: assumed {:?}",
             resolved
                 .assumed

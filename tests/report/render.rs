@@ -135,6 +135,7 @@ fn fixture(with_remedy: bool) -> ReportInput {
             field: "web.roughness".into(),
             value: "3 µm".into(),
             source: "preset newsprint (from memory)".into(),
+            origin: Default::default(),
         }],
         measurements: None,
     };

@@ -275,7 +275,7 @@ fn check_case(path: PathBuf, rules: std::sync::Arc<RuleBase>) -> Result<(), Stri
         let _ = rolltriage::finite::ensure_finite("profile", &profile);
         let _ = rolltriage::finite::ensure_finite("diagnosis", &diagnosis);
         // Every renderer must cope with what the diagnosis holds.
-        let _ = rolltriage::diagnose::render::render_text(&resolved.title, &diagnosis);
+        let _ = rolltriage::diagnose::render::render_text(&resolved.title, &diagnosis, false);
         let _ = serde_json::to_string(&diagnosis).map_err(|e| e.to_string())?;
     }
     Ok(())
@@ -330,7 +330,7 @@ fn check_rules(
                 ..DiagnoseOptions::default()
             };
             if let Ok((_, diagnosis)) = triage(&rules, &case, &options) {
-                let _ = rolltriage::diagnose::render::render_text(&case.title, &diagnosis);
+                let _ = rolltriage::diagnose::render::render_text(&case.title, &diagnosis, false);
             }
             Ok(())
         }

@@ -256,3 +256,22 @@ fn what_if_shows_a_taper_design_with_its_limits() {
         assert!(screen.contains(text), "missing {text}:\n{screen}");
     }
 }
+
+/// Issue 19: an answer resting on assumed inputs says so, names them and lowers the shown
+/// beliefs; the selected remedy's caution is shown in full beside it.
+#[test]
+fn results_resting_on_assumed_inputs_say_so() {
+    let mut app = app();
+    app.set_case(sample_case(), Some("cases/reel7.yaml".into()));
+    let mut assumed = outcome(1.0);
+    assumed.resolved = resolved_with_assumed();
+    finish_requests(&mut app, &assumed, &assumed);
+    app.handle_key(Key::Right);
+    app.handle_key(Key::Down);
+    snapshot_all_sizes("results_assumed", &app);
+    for (w, h) in [(80, 24), (120, 40)] {
+        let screen = draw(&app, w, h);
+        assert!(screen.contains("inputs assumed"), "{screen}");
+        assert!(screen.contains("Nip pinch point"), "{screen}");
+    }
+}

@@ -314,6 +314,7 @@ pub fn resolved_with_assumed() -> ResolvedCase {
             field: field.into(),
             value: value.into(),
             source: source.into(),
+            origin: Default::default(),
         });
     }
     resolved

@@ -13,14 +13,22 @@ use crate::vocabulary::{CoreMaterial, Place, RadialLaw, WebMaterial};
 use super::registry::{self as reg, Field, Range};
 use super::{
     AssumedValue, Case, CaseError, CoreInput, QuantityText, RadialStiffnessInput, ResolvedCase,
-    ResolvedCore, ResolvedWeb, WebInput,
+    ResolvedCore, ResolvedWeb, ValueOrigin, WebInput,
 };
 
 /// Resolves one case; `origin` names the file (or the case) in every message.
 pub(super) struct Resolver {
     pub(super) origin: String,
     pub(super) assumed: Vec<AssumedValue>,
+    /// The web and core presets the case names (not the defaults picked for it): a value given
+    /// equal to one of theirs is recorded as a preset copy.
+    pub(super) named_web: Option<&'static WebPreset>,
+    pub(super) named_core: Option<&'static CorePreset>,
 }
+
+/// A value written by `case new` is the preset's value printed to about four significant
+/// figures; within this share it is taken as the preset's value, unchanged.
+pub(super) const PRESET_COPY_TOLERANCE: f64 = 5e-3;
 
 impl Resolver {
     fn unit_error(&self, source: crate::units::UnitError) -> CaseError {
@@ -118,7 +126,11 @@ impl Resolver {
     ) -> Result<f64, CaseError> {
         let range = field.range();
         match (value, field.preset_value(web, core)) {
-            (Some(v), _) => self.check(field.path, v, &range),
+            (Some(v), _) => {
+                let v = self.check(field.path, v, &range)?;
+                self.note_preset_copy(field, v);
+                Ok(v)
+            }
             (None, Some((fallback, from))) => Ok(self.assumed(field.path, &range, fallback, &from)),
             (None, None) => Err(self.invalid(format!("{} is required", field.path))),
         }
@@ -130,7 +142,45 @@ impl Resolver {
         fallback.value
     }
 
+    /// Record a given value that equals the named preset's value (or the fixed default, in a
+    /// case that names a preset) as a preset copy: `case new` wrote it, nobody measured it.
+    fn note_preset_copy(&mut self, field: &Field, value: f64) {
+        let named = match field.default {
+            reg::DefaultValue::WebPreset(_) => self.named_web.is_some(),
+            reg::DefaultValue::CorePreset(_) => self.named_core.is_some(),
+            reg::DefaultValue::Fixed(_) => self.named_web.is_some() || self.named_core.is_some(),
+            _ => false,
+        };
+        if !named {
+            return;
+        }
+        let Some((preset, from)) = field.preset_value(self.named_web, self.named_core) else {
+            return;
+        };
+        let scale = preset.value.abs().max(f64::MIN_POSITIVE);
+        if (value - preset.value).abs() / scale <= PRESET_COPY_TOLERANCE {
+            let shown = field.range().show(value);
+            self.push_assumed(field.path, shown, &from, preset.source, ValueOrigin::Preset);
+        }
+    }
+
     fn assume(&mut self, field: &str, value: String, from: &str, source: &str) {
+        self.push_assumed(field, value, from, source, ValueOrigin::Default);
+    }
+
+    /// Record a value computed from other inputs (shown as computed, not given).
+    pub(super) fn computed(&mut self, field: &str, value: String, how: &str) {
+        self.push_assumed(field, value, "", how, ValueOrigin::Computed);
+    }
+
+    pub(super) fn push_assumed(
+        &mut self,
+        field: &str,
+        value: String,
+        from: &str,
+        source: &str,
+        origin: ValueOrigin,
+    ) {
         let source = if from.is_empty() {
             source.to_string()
         } else {
@@ -140,6 +190,7 @@ impl Resolver {
             field: field.to_string(),
             value,
             source,
+            origin,
         });
     }
 
@@ -289,6 +340,9 @@ impl Resolver {
             },
             None => presets::default_web_for_material(material_given.unwrap_or(WebMaterial::Paper)),
         };
+        if web.preset.is_some() {
+            self.named_web = Some(preset);
+        }
         let from = format!("preset {}", preset.id);
         let material = match material_given {
             Some(m) => m,
@@ -393,10 +447,13 @@ impl Resolver {
             }
         }
         Ok(match law {
-            RadialLaw::Pfeiffer => RadialStiffness::Pfeiffer {
-                k1: self.required_quantity(&reg::K1, input.k1.as_ref())?,
-                k2: self.required_number(&reg::K2, input.k2)?,
-            },
+            RadialLaw::Pfeiffer => {
+                let k1 = self.required_quantity(&reg::K1, input.k1.as_ref())?;
+                let k2 = self.required_number(&reg::K2, input.k2)?;
+                self.note_preset_copy(&reg::K1, k1);
+                self.note_preset_copy(&reg::K2, k2);
+                RadialStiffness::Pfeiffer { k1, k2 }
+            }
             RadialLaw::Constant => RadialStiffness::Constant {
                 modulus: self.required_quantity(&reg::RADIAL_MODULUS, input.modulus.as_ref())?,
             },
@@ -440,6 +497,9 @@ impl Resolver {
             },
             None => presets::default_core_for(material_given, web.material, outside_given),
         };
+        if core.preset.is_some() {
+            self.named_core = Some(preset);
+        }
         if let Some(m) = material_given
             && m != CoreMaterial::Rigid
             && m != preset.material
@@ -493,7 +553,11 @@ impl Resolver {
         let outside_range = reg::CORE_OUTSIDE.range();
         let wall_twice = preset.outside_diameter.value - preset.inside_diameter.value;
         let (inside, outside) = match (inside_given, outside_given) {
-            (Some(i), Some(o)) => (i, o),
+            (Some(i), Some(o)) => {
+                self.note_preset_copy(&reg::CORE_INSIDE, i);
+                self.note_preset_copy(&reg::CORE_OUTSIDE, o);
+                (i, o)
+            }
             (None, Some(o)) => {
                 let i = o - wall_twice;
                 self.assume(

@@ -58,6 +58,7 @@ impl Resolver {
         let (diameter, length) = match (diameter, length) {
             (Some(d), given_length) => {
                 let d = self.check(reg::ROLL_DIAMETER.path, d, &diameter_range)?;
+                self.note_preset_copy(&reg::ROLL_DIAMETER, d);
                 if d <= core.outside_diameter {
                     return Err(self.out_of_range(
                         reg::ROLL_DIAMETER.path,
@@ -79,15 +80,26 @@ impl Resolver {
                     ));
                 }
                 // The length derived from a given diameter is informational (the model works
-                // on radii), so it is not listed as assumed.
-                (d, given_length.unwrap_or_else(|| length_of(d)))
+                // on radii); it is listed as computed so no report calls it given.
+                let length = match given_length {
+                    Some(l) => l,
+                    None => {
+                        let l = length_of(d);
+                        self.computed(
+                            reg::ROLL_LENGTH.path,
+                            length_range.show(l),
+                            "computed from the diameters and the caliper: L = π(R² − rc²)/h",
+                        );
+                        l
+                    }
+                };
+                (d, length)
             }
             (None, Some(l)) => {
                 let d = 2.0 * (core_radius.powi(2) + l * h / std::f64::consts::PI).sqrt();
-                self.assume(
+                self.computed(
                     reg::ROLL_DIAMETER.path,
                     diameter_range.show(d),
-                    "",
                     "computed from the length and the caliper: R = √(rc² + L·h/π)",
                 );
                 if !diameter_range.contains(d) {
@@ -113,10 +125,9 @@ impl Resolver {
                 }
                 let d = self.assumed(reg::ROLL_DIAMETER.path, &diameter_range, fallback, "");
                 let l = length_of(d);
-                self.assume(
+                self.computed(
                     reg::ROLL_LENGTH.path,
                     length_range.show(l),
-                    "",
                     "computed from the diameters and the caliper: L = π(R² − rc²)/h",
                 );
                 (d, l)
@@ -272,7 +283,21 @@ impl Resolver {
             winding.tension.as_ref(),
             QuantityKind::ForcePerWidth,
         )? {
-            Some(t) => t,
+            Some(t) => {
+                if let Some(named) = self.named_web
+                    && (t - named.typical_tension.value).abs()
+                        <= super::PRESET_COPY_TOLERANCE * named.typical_tension.value
+                {
+                    self.push_assumed(
+                        reg::TENSION.path,
+                        reg::TENSION.range().show(t),
+                        &format!("preset {}", named.id),
+                        named.typical_tension.source,
+                        crate::case::ValueOrigin::Preset,
+                    );
+                }
+                t
+            }
             None => {
                 self.assume(
                     reg::TENSION.path,
