@@ -428,29 +428,29 @@ impl Store {
         let mut sql = format!("SELECT {SUMMARY_COLUMNS} FROM complaints WHERE 1 = 1");
         let mut params: Vec<Value> = Vec::new();
         // Line and grade compare without regard to case; symptoms and status are IDs.
-        if let Some(line) = &filter.line {
-            sql.push_str(" AND lower(line) = lower(?)");
-            params.push(line.as_str().into());
-        }
-        if let Some(grade) = &filter.grade {
-            sql.push_str(" AND lower(grade) = lower(?)");
-            params.push(grade.as_str().into());
-        }
-        if let Some(symptom) = &filter.symptom {
-            sql.push_str(" AND symptoms LIKE ?");
-            params.push(format!("% {symptom} %").into());
-        }
-        if let Some(status) = &filter.status {
-            sql.push_str(" AND status = ?");
-            params.push(status.as_str().into());
-        }
-        if let Some(from) = &filter.from {
-            sql.push_str(" AND coalesce(received, substr(created_at, 1, 10)) >= ?");
-            params.push(from.as_str().into());
-        }
-        if let Some(to) = &filter.to {
-            sql.push_str(" AND coalesce(received, substr(created_at, 1, 10)) <= ?");
-            params.push(to.as_str().into());
+        const RECEIVED: &str = "coalesce(received, substr(created_at, 1, 10))";
+        let conditions = [
+            (
+                filter.line.clone(),
+                " AND lower(line) = lower(?)".to_string(),
+            ),
+            (
+                filter.grade.clone(),
+                " AND lower(grade) = lower(?)".to_string(),
+            ),
+            (
+                filter.symptom.as_ref().map(|s| format!("% {s} %")),
+                " AND symptoms LIKE ?".to_string(),
+            ),
+            (filter.status.clone(), " AND status = ?".to_string()),
+            (filter.from.clone(), format!(" AND {RECEIVED} >= ?")),
+            (filter.to.clone(), format!(" AND {RECEIVED} <= ?")),
+        ];
+        for (value, clause) in conditions {
+            if let Some(value) = value {
+                sql.push_str(&clause);
+                params.push(value.into());
+            }
         }
         sql.push_str(" ORDER BY id DESC");
         let rows = self.conn.query(&sql, &params)?;
