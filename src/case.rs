@@ -1757,6 +1757,7 @@ impl ResolvedCase {
                 speed: self.winding.speed,
                 // Two contacting surfaces of the same web: RMS roughnesses add in quadrature.
                 combined_roughness: self.web.roughness * std::f64::consts::SQRT_2,
+                ..Default::default()
             },
             options,
         }

@@ -18,7 +18,7 @@ use super::indicators::{Indicators, format_value};
 use super::rules::{Comparison, RuleBase, Test};
 use super::{RankedCause, Reason};
 use crate::case::ResolvedCase;
-use crate::model::{WindingMethod, ZoneName};
+use crate::model::ZoneName;
 
 /// Combine certainty factors order-independently (see module docs).
 pub fn combine(factors: &[f64]) -> f64 {
@@ -86,11 +86,9 @@ pub fn evaluate(
             Some(format!("= {}", values.join(" or "))),
         )),
         Test::Method(values) => {
-            let method = match case.winding.method {
-                WindingMethod::Centre => "centre",
-                WindingMethod::Surface => "surface",
-                WindingMethod::CentreSurface => "centre_surface",
-            };
+            // Rules speak of the winder family; a gap winder is centre-driven, two drums are a
+            // surface winder.
+            let method = case.winding.method.family();
             Some((
                 values.iter().any(|v| v == method),
                 Some(method.to_string()),

@@ -8,7 +8,7 @@ use super::rank::{evaluate, rank};
 use super::rules::{Comparison, RuleBase, SettingChange, Test};
 use super::{MergedRemedy, RankedCause, WhatIf};
 use crate::case::ResolvedCase;
-use crate::model::{CoreStiffness, Resolution, SolverOptions, Taper, UpsetBand};
+use crate::model::{Resolution, SolverOptions, Taper, UpsetBand};
 
 /// A cause counts as likely (its remedies are listed) from this belief up.
 pub const LIKELY_BELIEF: f64 = 0.15;
@@ -132,23 +132,7 @@ pub fn apply_changes(case: &ResolvedCase, changes: &[SettingChange]) -> Resolved
             }
             SettingChange::SpeedScale(f) => out.winding.speed *= f,
             SettingChange::CoreStiffnessScale(f) => {
-                out.core.stiffness = match out.core.stiffness {
-                    CoreStiffness::Rigid => CoreStiffness::Rigid,
-                    CoreStiffness::Hollow {
-                        inner_radius,
-                        outer_radius,
-                        modulus,
-                        poisson_ratio,
-                    } => CoreStiffness::Hollow {
-                        inner_radius,
-                        outer_radius,
-                        modulus: modulus * f,
-                        poisson_ratio,
-                    },
-                    CoreStiffness::Measured { stiffness } => CoreStiffness::Measured {
-                        stiffness: stiffness * f,
-                    },
-                }
+                out.core.stiffness = out.core.stiffness.scaled(f);
             }
             SettingChange::CoreCrushScale(f) => out.core.crush_pressure *= f,
             SettingChange::ClearUpsets => schedule.upsets.clear(),
