@@ -260,7 +260,10 @@ const WEB_PRESETS: [WebPreset; 9] = [
         poisson_ratio: sourced(0.01, STACK_POISSON),
         friction: sourced(0.3, MEMORY),
         kinetic_friction: sourced(0.25, KINETIC_MEMORY),
-        density: sourced(2700.0, "(from memory) handbook density of aluminium 2.70 g/cm³"),
+        density: sourced(
+            2700.0,
+            "(from memory) handbook density of aluminium 2.70 g/cm³",
+        ),
         roughness: sourced(200e-9, MEMORY),
         strength: sourced(
             9e-6 * 70e6,
@@ -363,8 +366,14 @@ const CORE_PRESETS: [CorePreset; 7] = [
         ),
         radial_modulus: sourced(200e9, ISOTROPIC_CORE),
         poisson_ratio: sourced(0.3, "(from memory) handbook value for steel"),
-        compressive_strength: sourced(250e6, "(from memory) yield stress of structural steel about 250 MPa"),
-        crush_pressure: sourced(18e6, "estimate: Lamé bore hoop stress reaching the 250 MPa yield"),
+        compressive_strength: sourced(
+            250e6,
+            "(from memory) yield stress of structural steel about 250 MPa",
+        ),
+        crush_pressure: sourced(
+            18e6,
+            "estimate: Lamé bore hoop stress reaching the 250 MPa yield",
+        ),
     },
     CorePreset {
         id: "aluminium_6in",
@@ -378,8 +387,14 @@ const CORE_PRESETS: [CorePreset; 7] = [
         ),
         radial_modulus: sourced(69e9, ISOTROPIC_CORE),
         poisson_ratio: sourced(0.33, "(from memory) handbook value for aluminium"),
-        compressive_strength: sourced(200e6, "(from memory) yield stress of aluminium alloys about 200 MPa"),
-        crush_pressure: sourced(8.8e6, "estimate: buckling of the free thin-walled core (below the yield estimate)"),
+        compressive_strength: sourced(
+            200e6,
+            "(from memory) yield stress of aluminium alloys about 200 MPa",
+        ),
+        crush_pressure: sourced(
+            8.8e6,
+            "estimate: buckling of the free thin-walled core (below the yield estimate)",
+        ),
     },
     CorePreset {
         id: "plastic_3in",
@@ -390,8 +405,14 @@ const CORE_PRESETS: [CorePreset; 7] = [
         modulus: sourced(2.3e9, "(from memory) ABS modulus about 2–2.5 GPa"),
         radial_modulus: sourced(2.3e9, ISOTROPIC_CORE),
         poisson_ratio: sourced(0.35, MEMORY),
-        compressive_strength: sourced(24e6, "(from memory) about half the compressive strength of ABS (~50 MPa), allowing for creep"),
-        crush_pressure: sourced(1.8e6, "estimate: buckling of the free core (below the wall-stress estimate)"),
+        compressive_strength: sourced(
+            24e6,
+            "(from memory) about half the compressive strength of ABS (~50 MPa), allowing for creep",
+        ),
+        crush_pressure: sourced(
+            1.8e6,
+            "estimate: buckling of the free core (below the wall-stress estimate)",
+        ),
     },
 ];
 
@@ -551,11 +572,9 @@ mod tests {
         // strength (orthotropic wall stress or buckling of the free core), rounded.
         for p in core_presets() {
             let tube = p.tube(crate::model::CoreSupport::Free);
-            let limit = crate::model::core_crush::estimated_limit(
-                &tube,
-                p.compressive_strength.value,
-            )
-            .unwrap();
+            let limit =
+                crate::model::core_crush::estimated_limit(&tube, p.compressive_strength.value)
+                    .unwrap();
             let ratio = p.crush_pressure.value / limit.pressure;
             assert!((0.95..1.05).contains(&ratio), "{}: {ratio}", p.id);
         }

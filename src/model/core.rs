@@ -151,7 +151,13 @@ impl CoreStiffness {
                 poisson_ratio,
                 ..
             } => Some(
-                tube_solution(inner_radius / outer_radius, 1.0, poisson_ratio, CoreSupport::Free).1,
+                tube_solution(
+                    inner_radius / outer_radius,
+                    1.0,
+                    poisson_ratio,
+                    CoreSupport::Free,
+                )
+                .1,
             ),
             CoreStiffness::Tube {
                 inner_radius,

@@ -212,8 +212,7 @@ impl DrumSet {
                 accepted: "a finite diameter > 0 m",
             });
         }
-        if !(self.centre_distance.is_finite() && self.centre_distance > 2.0 * self.drum_radius)
-        {
+        if !(self.centre_distance.is_finite() && self.centre_distance > 2.0 * self.drum_radius) {
             return Err(OutOfRange {
                 field: "winding.drums.centre_distance",
                 value: self.centre_distance,

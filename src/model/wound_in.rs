@@ -242,7 +242,11 @@ impl WindingSetup {
         let plateau = self.plateau_load();
         let heaviest = [core_radius, outer_radius]
             .into_iter()
-            .chain(self.nip_programme.iter().flat_map(|p| p.points.iter().map(|&(r, _)| r)))
+            .chain(
+                self.nip_programme
+                    .iter()
+                    .flat_map(|p| p.points.iter().map(|&(r, _)| r)),
+            )
             .filter(|r| (core_radius..=outer_radius).contains(r))
             .map(|r| self.nip_load_at(r, core_radius))
             .fold(0.0, f64::max);
@@ -290,10 +294,14 @@ impl WindingSetup {
 
     fn drum_warnings(&self, core_radius: f64, out: &mut Vec<String>) {
         if self.method == WindingMethod::TwoDrum && self.drums.is_none() {
-            out.push("two-drum winding without drum geometry: the roll's weight is not added".into());
+            out.push(
+                "two-drum winding without drum geometry: the roll's weight is not added".into(),
+            );
         }
         if self.weight_drums().is_some() && self.web_density.is_none() {
-            out.push("two-drum winding without a web density: the roll's weight is not added".into());
+            out.push(
+                "two-drum winding without a web density: the roll's weight is not added".into(),
+            );
         }
         if let Some(drums) = self.weight_drums()
             && drums
@@ -353,7 +361,11 @@ impl WindingSetup {
             self.nip_plateau_load,
             "a finite load > 0 N/m",
         )?;
-        positive("web.density", self.web_density, "a finite density > 0 kg/m³")?;
+        positive(
+            "web.density",
+            self.web_density,
+            "a finite density > 0 kg/m³",
+        )?;
         if let Some(m) = self.centre_torque
             && !m.is_finite()
         {
