@@ -84,7 +84,8 @@ fn assert_below(d: &Diagnosis, lower: &str, higher: &str) {
 
 // ---------------------------------------------------------------------------------------------
 // Telescoping: too little wound-in tension vs air at speed vs too much taper vs a slick web.
-// Roisum, The Mechanics of Winding (1994): telescoping needs low interlayer pressure × friction;
+// Walker, Lock up your valuables (Pulp & Paper Canada 2007): telescoping is sideways slip between
+// layers; Walker, The pressure of winding rolls (PFFC 2006): too little pressure telescopes;
 // Knox & Sweeney (1971) air film; Michal (PFFC): slick webs telescope.
 
 #[test]
@@ -275,7 +276,8 @@ fn kestrel_blocking_from_high_pressure() {
 }
 
 // ---------------------------------------------------------------------------------------------
-// Cinching: stop torque vs slack winding. Roisum (1994); Walker, Cinching (PFFC).
+// Cinching: stop torque vs slack winding. Walker, Lock up your valuables (Pulp & Paper Canada 2007):
+// layers cinch where the applied torque exceeds what they can transmit; Walker, Cinching (PFFC).
 
 #[test]
 fn harbour_cinching_after_emergency_stop() {
@@ -301,7 +303,8 @@ fn harbour_cinching_from_slack_wind() {
 }
 
 // ---------------------------------------------------------------------------------------------
-// Soft rolls, tin canning: air vs taper. Forrest (IWEB) air entrainment; Roisum (1994).
+// Soft rolls, tin canning: air vs taper vs gauge bands. Forrest (IWEB) air entrainment; Hawkins,
+// MD wrinkle formation (PFFC 2001): tin canning sits between gauge bands, air masks it.
 
 #[test]
 fn harbour_soft_roll_from_air_without_rider() {
@@ -342,7 +345,8 @@ fn kestrel_tin_canning_between_gauge_bands() {
 }
 
 // ---------------------------------------------------------------------------------------------
-// Handling and storage. Roisum (2002): soft rolls stored on their side go egg-shaped.
+// Handling and storage. Smith, The art of winding (Black Clawson): soft rolls go out of round when
+// handled or stored; rolls stacked on their side take flat spots (common practice).
 
 #[test]
 fn harbour_out_of_round_from_side_storage() {
@@ -363,7 +367,8 @@ fn fenmoor_wrinkles_diagonal_from_misalignment() {
 
 #[test]
 fn kestrel_gauge_bands_from_heavy_nip() {
-    // Corrugations are almost always nip induced (Roisum, Converting Magazine 2003).
+    // The lay-on roll load concentrates on the gauge bands and stretches the web over them
+    // (Hawkins, MD wrinkle formation causes and cures, PFFC 2001).
     let mut case = with_symptoms(pet_film("Kestrel heavy lay-on"), &["gauge_bands"]);
     case.winding.nip_load = Some(1400.0);
     let case = answer(case, "gauge_bands.worse_with_nip", "yes");
