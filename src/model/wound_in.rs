@@ -155,16 +155,6 @@ impl WindingSetup {
         )
     }
 
-    /// Nip-induced tension (N/m) at the core of the roll, for callers without a radius.
-    pub fn nip_induced_tension(&self) -> f64 {
-        let core = self
-            .nip_programme
-            .as_ref()
-            .and_then(|p| p.points.first().map(|&(r, _)| r))
-            .unwrap_or(0.0);
-        self.nip_induced_tension_at(core, core)
-    }
-
     /// Tension (N/m) the drives add through torque at `radius`: centre torque M/r on a
     /// centre-surface winder, drum torque differential ΔM/Rd on two drums.
     pub fn torque_tension_at(&self, radius: f64) -> f64 {
