@@ -75,9 +75,9 @@ fn main() {
         s.peak_pressure,
         s.min_tangential_stress,
         s.physical_layers,
-        s.elements,
-        s.layers_per_element,
-        s.increments,
-        s.solves
+        profile.solver.elements,
+        profile.solver.grid.layers_per_element,
+        profile.solver.increments,
+        profile.solver.solves
     );
 }

@@ -250,7 +250,6 @@ fn every_case_loads_solves_and_ranks_its_intended_cause() {
             top: 0,
             what_if: false,
             solver,
-            ..DiagnoseOptions::default()
         };
         let diagnosis = diagnose(&rules, &resolved, &profile, &options)
             .unwrap_or_else(|e| panic!("{name}: {e}"));

@@ -143,7 +143,7 @@ fn diagnosis_is_deterministic_and_reasons_add_up() {
         100.0,
     );
     let options = DiagnoseOptions {
-        solve_with: Some(common::solve),
+        solver: common::SOLVER,
         ..Default::default()
     };
     let (_, a) = diagnose::triage(&rules, &case, &options).unwrap();
@@ -182,7 +182,7 @@ fn remedies_are_merged_grouped_and_answer_likely_causes() {
     case.winding.tension.taper = Taper::None;
     case.core.crush_pressure = 1.2e6;
     let options = DiagnoseOptions {
-        solve_with: Some(common::solve),
+        solver: common::SOLVER,
         ..Default::default()
     };
     let (_, d) = diagnose::triage(&rules, &case, &options).unwrap();
@@ -242,7 +242,7 @@ fn what_if_adding_taper_lowers_core_pressure() {
     case.core.crush_pressure = 1.2e6;
     let options = DiagnoseOptions {
         what_if: true,
-        solve_with: Some(common::solve),
+        solver: common::SOLVER,
         ..Default::default()
     };
     let (_, d) = diagnose::triage(&rules, &case, &options).unwrap();
@@ -294,10 +294,6 @@ fn what_if_warns_when_a_change_makes_it_worse() {
         cautions: vec![],
         what_if: None,
     };
-    let options = DiagnoseOptions {
-        solve_with: Some(common::solve),
-        ..Default::default()
-    };
     let w = rolltriage::diagnose::remedies::what_if(
         &rules,
         &ids,
@@ -305,7 +301,7 @@ fn what_if_warns_when_a_change_makes_it_worse() {
         &indicators,
         &causes,
         &wrong,
-        &options,
+        common::SOLVER,
     )
     .unwrap();
     assert!(w.worse, "reducing tension on a slack roll must warn: {w:?}");
@@ -315,7 +311,7 @@ fn what_if_warns_when_a_change_makes_it_worse() {
 fn unknown_symptoms_and_answers_are_rejected_with_suggestions() {
     let rules = rules();
     let options = DiagnoseOptions {
-        solve_with: Some(common::solve),
+        solver: common::SOLVER,
         ..Default::default()
     };
     let case = with_symptoms(newsprint("typo"), &["telescopng"]);

@@ -18,8 +18,7 @@ fn options() -> DiagnoseOptions {
     DiagnoseOptions {
         top: 0,
         what_if: false,
-        solve_with: Some(common::solve),
-        ..DiagnoseOptions::default()
+        solver: common::SOLVER,
     }
 }
 
@@ -486,4 +485,43 @@ fn rigid_core_counts_as_very_stiff() {
         .map(|c| c.belief)
         .unwrap_or(0.0);
     assert!(soft < 0.3, "core_too_soft {soft}: {}", listing(&d));
+}
+
+/// The one triage pipeline: progress runs forward to 1, a `false` from the progress callback
+/// cancels the case's own solve and also the what-if re-solves.
+#[test]
+fn the_triage_pipeline_reports_progress_and_can_be_cancelled() {
+    use rolltriage::diagnose::pipeline;
+    use rolltriage::model::ModelError;
+    let rules = rules();
+    let case = harbour_telescoping_demo();
+    let options = DiagnoseOptions {
+        top: 3,
+        what_if: true,
+        solver: common::SOLVER,
+    };
+    let mut seen: Vec<f64> = Vec::new();
+    let triage = pipeline::triage(&rules, (&case).into(), &options, &mut |f| {
+        seen.push(f);
+        true
+    })
+    .unwrap();
+    let diagnosis = triage.diagnosis.unwrap();
+    assert!(diagnosis.remedies.iter().any(|r| r.what_if.is_some()));
+    assert!(seen.windows(2).all(|w| w[1] >= w[0]), "{seen:?}");
+    assert_eq!(seen.last(), Some(&1.0));
+    // The what-if re-solves ran on the grid of the case's own solve.
+    assert!(triage.profile.solver.grid.layers_per_element > 1);
+
+    let cancelled = pipeline::triage(&rules, (&case).into(), &options, &mut |_| false);
+    assert!(matches!(
+        cancelled,
+        Err(diagnose::DiagnoseError::Model(ModelError::Cancelled))
+    ));
+    // Cancelled once the case's solve is done, during the what-if re-solves.
+    let during_what_if = pipeline::triage(&rules, (&case).into(), &options, &mut |f| f <= 0.5);
+    assert!(matches!(
+        during_what_if,
+        Err(diagnose::DiagnoseError::Model(ModelError::Cancelled))
+    ));
 }

@@ -11,8 +11,7 @@ fn markdown(case: &rolltriage::case::ResolvedCase) -> String {
     let options = DiagnoseOptions {
         top: 5,
         what_if: true,
-        solve_with: Some(common::solve),
-        ..DiagnoseOptions::default()
+        solver: common::SOLVER,
     };
     let (_, d) = diagnose::triage(&rules, case, &options).unwrap();
     render::render_markdown(&case.title, &d)

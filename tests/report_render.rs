@@ -62,10 +62,10 @@ fn synthetic_profile(core_pressure: f64, surface_stress: f64) -> Profile {
             .fold(f64::INFINITY, f64::min),
         min_tangential_radius: CORE_RADIUS,
         physical_layers: 5910,
-        elements: 100,
-        layers_per_element: 59,
         ..ProfileSummary::default()
     };
+    profile.solver.elements = 100;
+    profile.solver.grid.layers_per_element = 59;
     profile
 }
 

@@ -85,8 +85,14 @@ pub fn run(args: &DiagnoseArgs) -> anyhow::Result<()> {
         what_if: !args.no_what_if,
         ..DiagnoseOptions::default()
     };
-    let (_profile, diagnosis) = diagnose::triage(&rules, &resolved, &options)
-        .with_context(|| format!("diagnosing {}", args.case.display()))?;
+    let context = || format!("diagnosing {}", args.case.display());
+    // The cheap checks first, so a mistyped symptom or answer fails before the solve.
+    diagnose::check_inputs(&rules, &resolved).with_context(context)?;
+    let triage = super::progress::with_progress_bar("diagnosing", |progress| {
+        diagnose::pipeline::triage(&rules, (&resolved).into(), &options, progress)
+    })
+    .with_context(context)?;
+    let diagnosis = triage.diagnosis.with_context(context)?;
     let text = match args.format {
         Format::Text => diagnose::render::render_text(&resolved.title, &diagnosis),
         Format::Markdown => diagnose::render::render_markdown(&resolved.title, &diagnosis),

@@ -4,6 +4,7 @@
 pub mod calibrate;
 pub mod case;
 pub mod diagnose;
+pub mod progress;
 pub mod report;
 pub mod rules;
 pub mod stress;

@@ -1,11 +1,12 @@
 //! `rolltriage stress`: compute the stress state inside the wound roll of a case file and print
 //! its summary (table) or its full profile (JSON, CSV).
 
-use std::io::{IsTerminal, Write};
+use std::io::Write;
 use std::path::PathBuf;
 
 use anyhow::{Context, bail};
 use rolltriage::case::Case;
+use rolltriage::diagnose::pipeline::{self, Solved};
 use rolltriage::model::{
     self, ModulusUpdate, Profile, Resolution, SolverOptions, ZoneName, profile::zone_cuts,
 };
@@ -106,9 +107,11 @@ pub fn run(args: &StressArgs) -> anyhow::Result<()> {
             ModulusChoice::Secant => ModulusUpdate::Secant,
         },
     };
+    let Solved { resolved, profile } = super::progress::with_progress_bar("solving", |progress| {
+        pipeline::solve_case((&resolved).into(), options, progress)
+    })
+    .with_context(|| format!("solving the roll of {}", args.case.display()))?;
     let problem = resolved.problem(options);
-    let profile = solve_showing_progress(&problem)
-        .with_context(|| format!("solving the roll of {}", args.case.display()))?;
     let system = match args.units {
         Units::Si => UnitSystem::Si,
         Units::Us => UnitSystem::Us,
@@ -150,32 +153,6 @@ pub fn run(args: &StressArgs) -> anyhow::Result<()> {
     Ok(())
 }
 
-/// Solve with an indicatif progress bar on stderr when stderr is a terminal.
-fn solve_showing_progress(problem: &model::WindingProblem) -> Result<Profile, model::ModelError> {
-    if !std::io::stderr().is_terminal() {
-        return model::solve(problem);
-    }
-    let bar = indicatif::ProgressBar::new(1000);
-    bar.set_style(
-        indicatif::ProgressStyle::with_template("solving {bar:40} {percent:>3}% {elapsed}")
-            .unwrap_or_else(|_| indicatif::ProgressStyle::default_bar()),
-    );
-    // Only show the bar for solves that take a noticeable time.
-    bar.set_draw_target(indicatif::ProgressDrawTarget::hidden());
-    let started = std::time::Instant::now();
-    let mut shown = false;
-    let result = model::solve_with_progress(problem, &mut |fraction| {
-        if !shown && started.elapsed().as_millis() > 300 {
-            bar.set_draw_target(indicatif::ProgressDrawTarget::stderr());
-            shown = true;
-        }
-        bar.set_position((fraction.clamp(0.0, 1.0) * 1000.0) as u64);
-        true
-    });
-    bar.finish_and_clear();
-    result
-}
-
 fn stress(value: f64, system: UnitSystem) -> String {
     units::format_quantity(value, QuantityKind::Stress, system)
 }
@@ -196,12 +173,16 @@ pub fn summary_table(
     system: UnitSystem,
 ) -> String {
     let s = &profile.summary;
+    let solver = &profile.solver;
     let mut t = String::new();
     t.push_str(&format!("Wound-roll stresses: {title}\n\n"));
-    let resolution = if s.layers_per_element <= 1 {
+    let resolution = if solver.grid.is_per_layer() {
         "per layer".to_string()
     } else {
-        format!("grouped, {} wraps per element", s.layers_per_element)
+        format!(
+            "grouped, {} wraps per element",
+            solver.grid.layers_per_element
+        )
     };
     let rows: Vec<(&str, String)> = vec![
         (
@@ -271,7 +252,7 @@ pub fn summary_table(
         ),
     ];
     let mut rows = rows;
-    if let Some(change) = s.group_halving_change {
+    if let Some(change) = solver.group_halving_change {
         rows.push((
             "Core pressure change, elements halved",
             format!("{:.2} % (check: below 1 %)", 100.0 * change),

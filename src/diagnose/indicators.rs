@@ -670,29 +670,13 @@ pub fn taper_percent(case: &ResolvedCase) -> f64 {
     }
 }
 
-/// Scheduled web tension (no upsets) at radius `r`, N/m.
+/// Scheduled web tension (no upsets) at radius `r`, N/m: the model's taper law.
 fn tension_at(case: &ResolvedCase, r: f64) -> f64 {
-    let schedule = &case.winding.tension;
-    let t0 = schedule.start_tension;
-    let rc = case.core.outside_diameter / 2.0;
-    let ro = case.roll.outer_diameter / 2.0;
-    match &schedule.taper {
-        Taper::None => t0,
-        Taper::Linear { fraction } => {
-            let x = if ro > rc {
-                ((r - rc) / (ro - rc)).clamp(0.0, 1.0)
-            } else {
-                0.0
-            };
-            t0 * (1.0 - fraction * x)
-        }
-        Taper::Hyperbolic { fraction } => t0 * (1.0 - fraction * (1.0 - rc / r.max(rc))),
-        Taper::Steps { steps } => steps
-            .iter()
-            .rfind(|s| s.radius <= r)
-            .map(|s| s.tension)
-            .unwrap_or(t0),
-    }
+    case.winding.tension.scheduled_tension_at(
+        r,
+        case.core.outside_diameter / 2.0,
+        case.roll.outer_diameter / 2.0,
+    )
 }
 
 /// Approximate density of the material kind, kg/m³ — typical values `(from memory)`.

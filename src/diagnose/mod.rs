@@ -1,7 +1,9 @@
 //! The expert system: indicators computed from a profile and a case, YAML rules, ranking of
-//! causes with reasons, merged remedies with cautions, and the what-if check. No terminal code.
+//! causes with reasons, merged remedies with cautions, the what-if check, and the one triage
+//! [`pipeline`] from a case to its diagnosis. No terminal code.
 
 pub mod indicators;
+pub mod pipeline;
 pub mod rank;
 pub mod remedies;
 pub mod render;
@@ -93,50 +95,62 @@ pub enum DiagnoseError {
     Rules(#[from] rules::RuleError),
     #[error(transparent)]
     Model(#[from] crate::model::ModelError),
-    #[error("{0}")]
-    Input(String),
+    /// The case's inputs could not be resolved (boxed: a case error carries file and field).
+    #[error(transparent)]
+    Case(Box<crate::case::CaseError>),
+    #[error("symptoms: unknown symptom `{id}`{}", did_you_mean(suggestion))]
+    UnknownSymptom {
+        id: String,
+        suggestion: Option<String>,
+    },
+    #[error("symptoms: `{symptom}` where = `{place}` is not one of {}", accepted.join(", "))]
+    UnknownPlace {
+        symptom: String,
+        place: String,
+        accepted: Vec<String>,
+    },
+    #[error("answers: unknown question `{question}`{}", did_you_mean(suggestion))]
+    UnknownQuestion {
+        question: String,
+        suggestion: Option<String>,
+    },
+    #[error(
+        "answers: `{question}` = `{value}` is not accepted; accepted: {}{}",
+        accepted.join(", "),
+        did_you_mean(suggestion)
+    )]
+    AnswerNotAccepted {
+        question: String,
+        value: String,
+        accepted: Vec<String>,
+        suggestion: Option<String>,
+    },
+}
+
+impl From<crate::case::CaseError> for DiagnoseError {
+    fn from(error: crate::case::CaseError) -> Self {
+        DiagnoseError::Case(Box::new(error))
+    }
+}
+
+/// The " (did you mean `x`?)" tail of a message, or nothing.
+fn did_you_mean(suggestion: &Option<String>) -> String {
+    suggestion
+        .as_ref()
+        .map(|c| format!(" (did you mean `{c}`?)"))
+        .unwrap_or_default()
 }
 
 /// Options of a diagnosis.
-#[derive(Debug, Clone, Default)]
+#[derive(Debug, Clone, PartialEq, Default)]
 pub struct DiagnoseOptions {
     /// Keep at most this many causes (0 = all with positive belief).
     pub top: usize,
     /// Re-solve remedies that change a winder setting (the what-if check).
     pub what_if: bool,
-    /// Numerical options of every solve (the case's own and the what-if re-solves).
+    /// Numerical options of the case's own solve; the what-if re-solves use the grid that solve
+    /// used (see [`pipeline`]).
     pub solver: crate::model::SolverOptions,
-    /// Solver to use instead of `model::solve` (alternative solvers, tests); `None` = the
-    /// crate's solver.
-    pub solve_with: Option<SolveFn>,
-}
-
-/// A stress solver: `model::solve` or a stand-in with the same contract.
-pub type SolveFn =
-    fn(&crate::model::WindingProblem) -> Result<crate::model::Profile, crate::model::ModelError>;
-
-impl PartialEq for DiagnoseOptions {
-    // Function pointers have no meaningful identity; two options are equal when they agree on
-    // everything else and on whether a stand-in solver is set.
-    fn eq(&self, other: &Self) -> bool {
-        self.top == other.top
-            && self.what_if == other.what_if
-            && self.solver == other.solver
-            && self.solve_with.is_some() == other.solve_with.is_some()
-    }
-}
-
-impl DiagnoseOptions {
-    /// Solve `problem` with the configured solver.
-    pub fn solve(
-        &self,
-        problem: &crate::model::WindingProblem,
-    ) -> Result<crate::model::Profile, crate::model::ModelError> {
-        match self.solve_with {
-            Some(f) => f(problem),
-            None => crate::model::solve(problem),
-        }
-    }
 }
 
 /// The observed symptom IDs of a case, deduplicated in case order; unknown IDs are errors with
@@ -149,22 +163,22 @@ pub fn observed_symptoms(
     for symptom in &case.symptoms {
         if rules.symptom(&symptom.id).is_none() {
             let known = rules.symptoms.iter().map(|s| s.id.as_str());
-            let hint = crate::vocabulary::closest(&symptom.id, known)
-                .map(|c| format!(" (did you mean `{c}`?)"))
-                .unwrap_or_default();
-            return Err(DiagnoseError::Input(format!(
-                "symptoms: unknown symptom `{}`{hint}",
-                symptom.id
-            )));
+            return Err(DiagnoseError::UnknownSymptom {
+                id: symptom.id.clone(),
+                suggestion: crate::vocabulary::closest(&symptom.id, known).map(str::to_string),
+            });
         }
         if let Some(place) = &symptom.place
             && !crate::vocabulary::PLACES.contains(&place.as_str())
         {
-            return Err(DiagnoseError::Input(format!(
-                "symptoms: `{}` where = `{place}` is not one of {}",
-                symptom.id,
-                crate::vocabulary::PLACES.join(", ")
-            )));
+            return Err(DiagnoseError::UnknownPlace {
+                symptom: symptom.id.clone(),
+                place: place.clone(),
+                accepted: crate::vocabulary::PLACES
+                    .iter()
+                    .map(|p| p.to_string())
+                    .collect(),
+            });
         }
         if !out.contains(&symptom.id) {
             out.push(symptom.id.clone());
@@ -181,209 +195,53 @@ pub fn check_answers(
     for (question, value) in answers {
         let Some(q) = rules.question(question) else {
             let ids = rules.question_ids();
-            let hint = crate::vocabulary::closest(question, ids.iter().copied())
-                .map(|c| format!(" (did you mean `{c}`?)"))
-                .unwrap_or_default();
-            return Err(DiagnoseError::Input(format!(
-                "answers: unknown question `{question}`{hint}"
-            )));
+            return Err(DiagnoseError::UnknownQuestion {
+                question: question.clone(),
+                suggestion: crate::vocabulary::closest(question, ids.iter().copied())
+                    .map(str::to_string),
+            });
         };
         let accepted = q.accepted();
         if !accepted.contains(&value.as_str()) {
-            let hint = crate::vocabulary::closest(value, accepted.iter().copied())
-                .map(|c| format!(" (did you mean `{c}`?)"))
-                .unwrap_or_default();
-            return Err(DiagnoseError::Input(format!(
-                "answers: `{question}` = `{value}` is not accepted; accepted: {}{hint}",
-                accepted.join(", ")
-            )));
+            return Err(DiagnoseError::AnswerNotAccepted {
+                question: question.clone(),
+                value: value.clone(),
+                suggestion: crate::vocabulary::closest(value, accepted.iter().copied())
+                    .map(str::to_string),
+                accepted: accepted.iter().map(|a| a.to_string()).collect(),
+            });
         }
     }
     Ok(())
 }
 
-/// Diagnose a resolved case whose profile is already computed.
+/// Check the case's symptoms and answers against the rule base (cheap: do it before a solve).
+pub fn check_inputs(
+    rules: &rules::RuleBase,
+    case: &crate::case::ResolvedCase,
+) -> Result<(), DiagnoseError> {
+    observed_symptoms(rules, case)?;
+    check_answers(rules, &case.answers)
+}
+
+/// Diagnose a resolved case whose profile is already computed (no progress reports).
 pub fn diagnose(
     rules: &rules::RuleBase,
     case: &crate::case::ResolvedCase,
     profile: &crate::model::Profile,
     options: &DiagnoseOptions,
 ) -> Result<Diagnosis, DiagnoseError> {
-    let symptoms = observed_symptoms(rules, case)?;
-    check_answers(rules, &case.answers)?;
-    let indicators = indicators::Indicators::compute(case, profile);
-    let mut causes = rank::rank(rules, &symptoms, case, &indicators);
-    if options.top > 0 {
-        causes.truncate(options.top);
-    }
-    let mut remedies = remedies::merge(rules, &symptoms, &causes);
-    if options.what_if
-        && remedies
-            .iter()
-            .any(|r| remedies::changes_setting(rules, &r.id))
-    {
-        // Before and after are compared at the same (what-if) resolution so the direction of a
-        // change is never an artefact of different discretisations. An automatic resolution
-        // that grouped the roll re-solves on the grid it chose, so the case as it stands needs
-        // no second solve.
-        let solver = match (
-            options.solver.resolution,
-            profile.summary.layers_per_element,
-        ) {
-            (crate::model::Resolution::Auto, k) if k > 1 => crate::model::SolverOptions {
-                resolution: crate::model::Resolution::Grouped { layers: k },
-                ..options.solver
-            },
-            _ => remedies::what_if_solver(case, options.solver),
-        };
-        let what_if_options = DiagnoseOptions {
-            solver,
-            ..options.clone()
-        };
-        let same_grid = what_if_options.solver == options.solver
-            || match what_if_options.solver.resolution {
-                crate::model::Resolution::Grouped { layers } => {
-                    profile.summary.layers_per_element == layers
-                }
-                _ => false,
-            };
-        let baseline = if same_grid {
-            (indicators.clone(), causes.clone())
-        } else {
-            let profile = what_if_options.solve(&case.problem(what_if_options.solver))?;
-            let base_indicators = indicators::Indicators::compute(case, &profile);
-            let base_causes = rank::rank(rules, &symptoms, case, &base_indicators);
-            (base_indicators, base_causes)
-        };
-        // Distinct changed cases that need a solve; no-op changes and rating-only changes need none.
-        let changed: Vec<Option<crate::case::ResolvedCase>> = remedies
-            .iter()
-            .map(|r| {
-                let changes = &rules.remedies.get(&r.id)?.changes;
-                (!changes.is_empty() && remedies::needs_solve(changes))
-                    .then(|| remedies::apply_changes(case, changes))
-            })
-            .collect();
-        let mut distinct: Vec<&crate::case::ResolvedCase> = Vec::new();
-        for c in changed.iter().flatten() {
-            if c != case && !distinct.contains(&c) {
-                distinct.push(c);
-            }
-        }
-        let solved = solve_all(&distinct, &what_if_options);
-        for (remedy, changed_case) in remedies.iter_mut().zip(&changed) {
-            remedy.what_if = match changed_case {
-                None => remedies::what_if(
-                    rules,
-                    &symptoms,
-                    case,
-                    &baseline.0,
-                    &baseline.1,
-                    remedy,
-                    &what_if_options,
-                ),
-                Some(c) => {
-                    let result = distinct
-                        .iter()
-                        .position(|d| *d == c)
-                        .map(|i| match &solved[i] {
-                            Ok(p) => Ok(p.clone()),
-                            Err(e) => Err(crate::model::ModelError::NotConverged(e.to_string())),
-                        })
-                        .unwrap_or_else(|| Ok(crate::model::Profile::default()));
-                    remedies::what_if_solved(
-                        rules,
-                        &symptoms,
-                        case,
-                        &baseline.0,
-                        &baseline.1,
-                        remedy,
-                        c,
-                        result,
-                    )
-                }
-            };
-        }
-    }
-    // A remedy the re-solve shows making the physics worse is kept (with its warning) but tried
-    // last; the sort is stable so the order among the others stands.
-    remedies.sort_by_key(|r| r.what_if.as_ref().is_some_and(|w| w.worse));
-    let mut cautions: Vec<Caution> = Vec::new();
-    for id in rules.cautions.keys() {
-        if remedies.iter().any(|r| r.cautions.contains(id))
-            && let Some(c) = rules.cautions.get(id)
-        {
-            cautions.push(Caution {
-                id: c.id.clone(),
-                title: c.title.clone(),
-                text: c.text.clone(),
-            });
-        }
-    }
-    Ok(Diagnosis {
-        causes,
-        remedies,
-        cautions,
-        indicators: indicators.values(),
-    })
+    pipeline::diagnose_solved(rules, case, profile, options, &mut |_| true)
 }
 
-/// Solve several what-if cases, in parallel where the machine has cores to spare.
-fn solve_all(
-    cases: &[&crate::case::ResolvedCase],
-    options: &DiagnoseOptions,
-) -> Vec<Result<crate::model::Profile, crate::model::ModelError>> {
-    let threads = std::thread::available_parallelism()
-        .map(|n| n.get())
-        .unwrap_or(1)
-        .clamp(1, 4)
-        .min(cases.len().max(1));
-    if threads <= 1 {
-        return cases
-            .iter()
-            .map(|c| options.solve(&c.problem(options.solver)))
-            .collect();
-    }
-    let chunk = cases.len().div_ceil(threads);
-    std::thread::scope(|scope| {
-        let handles: Vec<_> = cases
-            .chunks(chunk)
-            .map(|part| {
-                let handle = scope.spawn(move || {
-                    part.iter()
-                        .map(|c| options.solve(&c.problem(options.solver)))
-                        .collect::<Vec<_>>()
-                });
-                (part.len(), handle)
-            })
-            .collect();
-        handles
-            .into_iter()
-            .flat_map(|(len, h)| {
-                h.join().unwrap_or_else(|_| {
-                    (0..len)
-                        .map(|_| {
-                            Err(crate::model::ModelError::NotConverged(
-                                "a what-if solve panicked".into(),
-                            ))
-                        })
-                        .collect()
-                })
-            })
-            .collect()
-    })
-}
-
-/// Solve the case's stress state and diagnose it: the one call the UI and the CLI need.
+/// Solve the case's stress state and diagnose it, through the one [`pipeline`]; the inputs are
+/// checked before the solve so a mistyped symptom or answer fails at once.
 pub fn triage(
     rules: &rules::RuleBase,
     case: &crate::case::ResolvedCase,
     options: &DiagnoseOptions,
 ) -> Result<(crate::model::Profile, Diagnosis), DiagnoseError> {
-    // Check the cheap things before the solve.
-    observed_symptoms(rules, case)?;
-    check_answers(rules, &case.answers)?;
-    let profile = options.solve(&case.problem(options.solver))?;
-    let diagnosis = diagnose(rules, case, &profile, options)?;
-    Ok((profile, diagnosis))
+    check_inputs(rules, case)?;
+    let triage = pipeline::triage(rules, case.into(), options, &mut |_| true)?;
+    Ok((triage.profile, triage.diagnosis?))
 }

@@ -8,7 +8,7 @@ use super::rank::{evaluate, rank};
 use super::rules::{Comparison, RuleBase, SettingChange, Test};
 use super::{MergedRemedy, RankedCause, WhatIf};
 use crate::case::ResolvedCase;
-use crate::model::{Resolution, SolverOptions, Taper, UpsetBand};
+use crate::model::{SolverOptions, Taper, UpsetBand};
 
 /// A cause counts as likely (its remedies are listed) from this belief up.
 pub const LIKELY_BELIEF: f64 = 0.15;
@@ -71,31 +71,6 @@ pub fn merge(rules: &RuleBase, symptoms: &[String], causes: &[RankedCause]) -> V
             .then_with(|| a.0.id.cmp(&b.0.id))
     });
     out.into_iter().map(|(m, _, _)| m).collect()
-}
-
-/// Elements aimed at by what-if re-solves of large rolls (a comparison needs consistency more
-/// than the last percent of accuracy). The automatic resolution's first grid: coarser elements
-/// make the grouped solve no faster, because its graded region under the surface widens with
-/// the element.
-pub const WHAT_IF_ELEMENTS: usize = crate::model::accretion::AUTO_ELEMENTS;
-
-/// Solver options of the what-if re-solves: the caller's, except that an automatic resolution
-/// of a roll with many layers becomes a fixed grouping of about [`WHAT_IF_ELEMENTS`] elements.
-pub fn what_if_solver(case: &ResolvedCase, options: SolverOptions) -> SolverOptions {
-    if options.resolution != Resolution::Auto || case.web.thickness <= 0.0 {
-        return options;
-    }
-    let build = case.roll.outer_diameter / 2.0 - case.core.outside_diameter / 2.0;
-    let layers = (build / case.web.thickness).round().max(1.0) as usize;
-    if layers <= 4 * WHAT_IF_ELEMENTS {
-        return options;
-    }
-    SolverOptions {
-        resolution: Resolution::Grouped {
-            layers: layers.div_ceil(WHAT_IF_ELEMENTS),
-        },
-        ..options
-    }
 }
 
 /// True when the remedy carries a machine-readable setting change.
@@ -263,7 +238,7 @@ pub fn what_if(
     indicators: &Indicators,
     causes: &[RankedCause],
     remedy: &MergedRemedy,
-    options: &super::DiagnoseOptions,
+    solver: SolverOptions,
 ) -> Option<WhatIf> {
     let changes = &rules.remedies.get(&remedy.id)?.changes;
     if changes.is_empty() {
@@ -274,7 +249,7 @@ pub fn what_if(
         // Only the rating changes: the stress state is the same, no re-solve needed.
         return Some(rating_only(case, &changed, indicators, remedy, causes));
     }
-    let solved = options.solve(&changed.problem(options.solver));
+    let solved = crate::model::solve(&changed.problem(solver));
     what_if_solved(
         rules, symptoms, case, indicators, causes, remedy, &changed, solved,
     )

@@ -1089,7 +1089,7 @@ fn compile_symptom(
 }
 
 const MATERIALS: [&str; 6] = ["paper", "board", "film", "foil", "nonwoven", "laminate"];
-const METHODS: [&str; 3] = ["centre", "surface", "centre_surface"];
+const METHODS: [&str; 5] = crate::model::WindingMethod::IDS;
 
 fn compile_evidence(
     ev: RawEvidence,

@@ -28,18 +28,7 @@
 //! region of finer nodes under the surface, lays batches of wraps (each with its own load) in one
 //! increment, and holds the deep part of the stack between full solves (docs/theory.md §3.4).
 
-use super::{
-    ModelError, ModulusUpdate, Profile, RadialStiffness, Resolution, WindingProblem, profile,
-};
-
-/// Auto resolution solves per-layer up to this many physical layers, grouped above it.
-/// Chosen so a per-layer solve of the slowest web (soft in the machine direction, so increments
-/// reach the core) stays near 10 ms; above it the grouped solve with its halving check agrees
-/// with per-layer within 0.2 % on the demo rolls (docs/theory.md, docs/performance.md).
-pub const PER_LAYER_LIMIT: usize = 1500;
-
-/// Number of elements auto resolution aims for when it groups layers.
-pub const AUTO_ELEMENTS: usize = 400;
+use super::{ModelError, ModulusUpdate, Profile, RadialStiffness, WindingProblem, profile};
 
 /// Largest accepted layer count (memory is a few tens of bytes per node).
 pub const MAX_LAYERS: usize = 20_000_000;
@@ -99,104 +88,7 @@ const COMPACT_EVERY: usize = 4;
 pub const WINDOW_MIN: usize = 24;
 pub const WINDOW_MAX: usize = 1500;
 
-/// Solve the finished-roll stress state.
-pub fn solve(problem: &WindingProblem) -> Result<Profile, ModelError> {
-    solve_with_progress(problem, &mut |_| true)
-}
-
-/// Solve, calling `progress(fraction_done)` now and then; returning `false` cancels the solve.
-pub fn solve_with_progress(
-    problem: &WindingProblem,
-    progress: &mut dyn FnMut(f64) -> bool,
-) -> Result<Profile, ModelError> {
-    validate(problem)?;
-    let layers = layer_count(problem);
-    match problem.options.resolution {
-        Resolution::PerLayer => run(problem, layers, 1, progress),
-        Resolution::Grouped { layers: group } => {
-            if group == 0 {
-                return Err(ModelError::OutOfRange {
-                    field: "resolution.layers",
-                    value: 0.0,
-                    accepted: "at least 1 layer per element",
-                });
-            }
-            run(problem, layers, group.min(layers), progress)
-        }
-        Resolution::Auto => {
-            if layers <= PER_LAYER_LIMIT {
-                run(problem, layers, 1, progress)
-            } else {
-                solve_auto_grouped(problem, layers, progress)
-            }
-        }
-    }
-}
-
-/// Grouped solve with the halving check: solve with k and k/2 layers per element; while the
-/// core pressure moves by 1 % or more, halve again.
-fn solve_auto_grouped(
-    problem: &WindingProblem,
-    layers: usize,
-    progress: &mut dyn FnMut(f64) -> bool,
-) -> Result<Profile, ModelError> {
-    let mut group = smooth_group(layers.div_ceil(AUTO_ELEMENTS).max(2));
-    let mut coarse = run(problem, layers, group, &mut |f| progress(0.3 * f))?;
-    loop {
-        let half = (group / 2).max(1);
-        let fine = run(problem, layers, half, &mut |f| progress(0.3 + 0.7 * f))?;
-        let change = relative_change(coarse.summary.core_pressure, fine.summary.core_pressure);
-        let mut result = fine;
-        result.summary.group_halving_change = Some(change);
-        if change < 0.01 || half == 1 {
-            if change >= 0.01 {
-                result.warnings.push(format!(
-                    "halving the element size still moved core pressure by {:.2} %",
-                    100.0 * change
-                ));
-            }
-            return Ok(result);
-        }
-        group = half;
-        coarse = result;
-    }
-}
-
-/// The smallest element size at least `wraps` of the form 2ᵃ·b (a ≥ 1, b = 1, 3 or 5): its
-/// halvings keep many divisors, so the graded region under the surface has intermediate
-/// spacings (a prime size would jump from one wrap straight to the element).
-fn smooth_group(wraps: usize) -> usize {
-    (wraps.max(2)..)
-        .find(|&n| {
-            let mut odd = n;
-            while odd % 2 == 0 {
-                odd /= 2;
-            }
-            n % 2 == 0 && matches!(odd, 1 | 3 | 5)
-        })
-        .unwrap_or(wraps)
-}
-
-fn relative_change(a: f64, b: f64) -> f64 {
-    let scale = a.abs().max(b.abs());
-    if scale == 0.0 {
-        0.0
-    } else {
-        (a - b).abs() / scale
-    }
-}
-
-/// Number of physical layers between core and outer radius.
-pub fn layer_count(problem: &WindingProblem) -> usize {
-    let n = ((problem.outer_radius - problem.core_radius) / problem.thickness).round();
-    if n.is_finite() && n >= 1.0 {
-        n as usize
-    } else {
-        0
-    }
-}
-
-fn validate(problem: &WindingProblem) -> Result<(), ModelError> {
+pub(super) fn validate(problem: &WindingProblem) -> Result<(), ModelError> {
     use ModelError::OutOfRange;
     let p = problem;
     if !(p.core_radius.is_finite() && p.core_radius > 0.0) {
@@ -965,8 +857,8 @@ fn finest_spacing(problem: &WindingProblem, radius: f64) -> usize {
     }
 }
 
-/// Run the accretion with `group` layers per element (1 = per-layer).
-fn run(
+/// Run the accretion with `group` layers per element (1 = per-layer) over `layers` wraps.
+pub(super) fn run(
     problem: &WindingProblem,
     layers: usize,
     group: usize,
@@ -1081,7 +973,9 @@ fn run(
             radial_strain: strain,
             wound_in_tension: wound_in,
             physical_layers: layers,
-            layers_per_element: group,
+            grid: super::Grid {
+                layers_per_element: group,
+            },
             increments: solver.increments,
             solves: solver.iterations,
             air_film: Some((air_start, air_end)),
@@ -1094,16 +988,6 @@ fn run(
 #[cfg(test)]
 mod tests {
     use super::*;
-
-    #[test]
-    fn smooth_group_rounds_up_to_sizes_with_halvings() {
-        assert_eq!(smooth_group(2), 2);
-        assert_eq!(smooth_group(7), 8);
-        assert_eq!(smooth_group(13), 16);
-        assert_eq!(smooth_group(17), 20);
-        assert_eq!(smooth_group(29), 32);
-        assert_eq!(smooth_group(40), 40);
-    }
 
     #[test]
     fn lattice_levels_nest() {

@@ -8,14 +8,15 @@ pub mod accretion;
 pub mod air;
 pub mod core;
 pub mod core_crush;
+pub mod grid;
 pub mod material;
 pub mod profile;
 pub mod schedule;
 pub mod winder;
 pub mod wound_in;
 
-pub use accretion::{solve, solve_with_progress};
 pub use core::{CoreStiffness, CoreSupport};
+pub use grid::{Grid, SolverStats, layer_count, layer_count_between, solve, solve_with_progress};
 pub use material::RadialStiffness;
 pub use profile::{Band, Profile, ProfileSummary, Zone, ZoneName, ZoneStats};
 pub use schedule::{Taper, TensionSchedule, UpsetBand};
@@ -24,7 +25,7 @@ pub use wound_in::{AirFilm, WindingMethod, WindingSetup};
 
 /// Errors of the mechanics layer. Inputs reaching here are SI and already range-checked by the
 /// case layer, but the model checks again so it never panics on direct library use.
-#[derive(Debug, thiserror::Error, PartialEq)]
+#[derive(Debug, Clone, thiserror::Error, PartialEq)]
 pub enum ModelError {
     #[error("{field} = {value} is out of range: accepted {accepted}")]
     OutOfRange {
@@ -49,6 +50,9 @@ pub enum Resolution {
     PerLayer,
     /// `layers` physical layers per element.
     Grouped { layers: usize },
+    /// About `count` elements: per-layer while the roll has at most `count` layers, otherwise
+    /// ⌈layers / count⌉ layers per element (see [`grid`]).
+    Elements { count: usize },
 }
 
 /// How the radial modulus Er is taken over one increment.

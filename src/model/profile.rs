@@ -6,8 +6,10 @@
 //! wrap (or, in grouped resolution, the first wrap of an element); the last node is the outer
 //! surface of the roll, where pressure is zero.
 
-use super::WindingProblem;
 use super::wound_in::AirFilm;
+use super::{Grid, SolverStats, WindingProblem};
+
+mod json;
 
 /// Zone names used by rules (see `docs/rules.md`). Cuts are defined in one place, in this module.
 #[derive(
@@ -79,9 +81,8 @@ pub struct ProfileSummary {
     /// Most compressive (lowest) tangential stress (Pa) and where.
     pub min_tangential_stress: f64,
     pub min_tangential_radius: f64,
+    /// Physical layers (wraps) of the roll.
     pub physical_layers: usize,
-    pub elements: usize,
-    pub layers_per_element: usize,
     /// Radial (compressive) strain of the stack at the core (dimensionless).
     #[serde(default)]
     pub core_radial_strain: f64,
@@ -93,19 +94,11 @@ pub struct ProfileSummary {
     /// [`LOW_PRESSURE_SHARE`] of the peak.
     #[serde(default)]
     pub outer_low_pressure_share: f64,
-    /// Auto grouped resolution: relative change of core pressure when the group size was halved.
-    #[serde(default)]
-    pub group_halving_change: Option<f64>,
     /// Most compressive tangential stress from radial equilibrium, σθ = −d(r·P)/dr, over the
     /// interior nodes (Pa), and where (m): the thin-layer (continuum) estimate, which does not
     /// depend on the caliper the way the accumulated per-wrap value does (docs/theory.md §3.5).
     #[serde(default)]
     pub thin_layer_min_tangential_stress: Option<(f64, f64)>,
-    /// Solver work: increments and tridiagonal solves.
-    #[serde(default)]
-    pub increments: usize,
-    #[serde(default)]
-    pub solves: usize,
 }
 
 /// A contiguous band of nodes.
@@ -128,7 +121,11 @@ pub struct ZoneStats {
 }
 
 /// Stress state of the finished roll, node 0 at the core surface, last node at the outside.
+///
+/// In JSON the solver's figures sit inside `summary` beside the physics, as they always have
+/// (see [`json`]), so saved outputs keep their layout.
 #[derive(Debug, Clone, PartialEq, Default, serde::Serialize, serde::Deserialize)]
+#[serde(into = "json::ProfileRecord", from = "json::ProfileRecord")]
 pub struct Profile {
     /// m
     pub radius: Vec<f64>,
@@ -142,6 +139,8 @@ pub struct Profile {
     pub wound_in_tension: Vec<f64>,
     pub zones: Vec<Zone>,
     pub summary: ProfileSummary,
+    /// The grid the solve used and its work (not physics).
+    pub solver: SolverStats,
     /// Air-film estimate at the core start and at the outside.
     pub air_film: Option<(AirFilm, AirFilm)>,
     /// Human-readable warnings (e.g. nip load outside the validity of the nip model).
@@ -159,7 +158,7 @@ pub(crate) struct Raw {
     pub radial_strain: Vec<f64>,
     pub wound_in_tension: Vec<f64>,
     pub physical_layers: usize,
-    pub layers_per_element: usize,
+    pub grid: Grid,
     pub increments: usize,
     pub solves: usize,
     pub air_film: Option<(AirFilm, AirFilm)>,
@@ -168,6 +167,7 @@ pub(crate) struct Raw {
 
 /// Assemble a profile: zones and summary figures.
 pub(crate) fn build(raw: Raw, problem: &WindingProblem) -> Profile {
+    let elements = raw.radius.len().saturating_sub(1);
     let mut profile = Profile {
         radius: raw.radius,
         pressure: raw.pressure,
@@ -176,6 +176,13 @@ pub(crate) fn build(raw: Raw, problem: &WindingProblem) -> Profile {
         wound_in_tension: raw.wound_in_tension,
         zones: Vec::new(),
         summary: ProfileSummary::default(),
+        solver: SolverStats {
+            grid: raw.grid,
+            elements,
+            increments: raw.increments,
+            solves: raw.solves,
+            group_halving_change: None,
+        },
         air_film: raw.air_film,
         warnings: raw.warnings,
         thickness: problem.thickness,
@@ -183,10 +190,6 @@ pub(crate) fn build(raw: Raw, problem: &WindingProblem) -> Profile {
     profile.zones = default_zones(&profile.radius, &profile.tangential_stress);
     let mut summary = ProfileSummary {
         physical_layers: raw.physical_layers,
-        elements: profile.radius.len().saturating_sub(1),
-        layers_per_element: raw.layers_per_element,
-        increments: raw.increments,
-        solves: raw.solves,
         ..ProfileSummary::default()
     };
     if let Some(&p) = profile.pressure.first() {
@@ -549,6 +552,7 @@ impl Profile {
             wound_in_tension: pick(&self.wound_in_tension),
             zones,
             summary: self.summary.clone(),
+            solver: self.solver,
             air_film: self.air_film,
             warnings: self.warnings.clone(),
             thickness: self.thickness,

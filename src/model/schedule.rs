@@ -57,8 +57,22 @@ impl TensionSchedule {
     /// * steps: T0 until the first step radius, then each step's tension from its radius outward;
     /// * an upset band overrides the schedule for from_radius ≤ r < to_radius (last band wins).
     pub fn tension_at(&self, radius: f64, core_radius: f64, outer_radius: f64) -> f64 {
+        let mut tension = self.scheduled_tension_at(radius, core_radius, outer_radius);
+        for band in &self.upsets {
+            if radius >= band.from_radius && radius < band.to_radius {
+                tension = band.tension;
+            }
+        }
+        tension.max(0.0)
+    }
+
+    /// The schedule's web tension (N/m) at `radius`, upsets left out (what the operator sets):
+    /// the taper law of the crate, written once (see [`TensionSchedule::tension_at`]). Among
+    /// steps, the one with the largest radius at or below `radius` applies; of two steps at the
+    /// same radius the later one.
+    pub fn scheduled_tension_at(&self, radius: f64, core_radius: f64, outer_radius: f64) -> f64 {
         let t0 = self.start_tension;
-        let mut tension = match &self.taper {
+        let tension = match &self.taper {
             Taper::None => t0,
             Taper::Linear { fraction } => {
                 let span = (outer_radius - core_radius).max(f64::MIN_POSITIVE);
@@ -80,11 +94,6 @@ impl TensionSchedule {
                 value
             }
         };
-        for band in &self.upsets {
-            if radius >= band.from_radius && radius < band.to_radius {
-                tension = band.tension;
-            }
-        }
         tension.max(0.0)
     }
 
@@ -174,5 +183,30 @@ mod tests {
         });
         assert_eq!(s.tension_at(0.155, rc, big_r), 400.0);
         assert_eq!(s.tension_at(0.16, rc, big_r), 120.0);
+        assert_eq!(s.scheduled_tension_at(0.155, rc, big_r), 120.0);
+    }
+
+    #[test]
+    fn steps_apply_by_radius_not_by_list_order() {
+        // Steps listed out of order: the step with the largest radius at or below r applies.
+        let s = TensionSchedule {
+            start_tension: 300.0,
+            taper: Taper::Steps {
+                steps: vec![
+                    TensionStep {
+                        radius: 0.15,
+                        tension: 100.0,
+                    },
+                    TensionStep {
+                        radius: 0.10,
+                        tension: 200.0,
+                    },
+                ],
+            },
+            upsets: Vec::new(),
+        };
+        assert_eq!(s.scheduled_tension_at(0.12, 0.05, 0.2), 200.0);
+        assert_eq!(s.scheduled_tension_at(0.16, 0.05, 0.2), 100.0);
+        assert_eq!(s.scheduled_tension_at(0.06, 0.05, 0.2), 300.0);
     }
 }

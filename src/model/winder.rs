@@ -57,7 +57,17 @@ pub enum WindingMethod {
 }
 
 impl WindingMethod {
-    /// Stable ID as written in case files.
+    pub const ALL: [WindingMethod; 5] = [
+        WindingMethod::Centre,
+        WindingMethod::Gap,
+        WindingMethod::Surface,
+        WindingMethod::TwoDrum,
+        WindingMethod::CentreSurface,
+    ];
+    /// The IDs case files and rules use, in the order of [`WindingMethod::ALL`].
+    pub const IDS: [&'static str; 5] = ["centre", "gap", "surface", "two_drum", "centre_surface"];
+
+    /// The ID case files and rules use (the serde name).
     pub fn id(self) -> &'static str {
         match self {
             WindingMethod::Centre => "centre",
@@ -262,6 +272,14 @@ pub fn centrifugal_stress(density: f64, speed: f64) -> f64 {
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    #[test]
+    fn method_ids_are_the_serde_names() {
+        for (method, id) in WindingMethod::ALL.iter().zip(WindingMethod::IDS) {
+            assert_eq!(method.id(), id);
+            assert_eq!(serde_json::to_string(method).unwrap(), format!("\"{id}\""));
+        }
+    }
 
     #[test]
     fn nip_induced_tension_levels_off() {

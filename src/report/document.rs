@@ -659,8 +659,8 @@ pub fn stress_summary(
         wound_in_tension_start: Quantity::new(wit_start, ForcePerWidth, units),
         wound_in_tension_end: Quantity::new(wit_end, ForcePerWidth, units),
         physical_layers: s.physical_layers,
-        elements: s.elements,
-        layers_per_element: s.layers_per_element,
+        elements: profile.solver.elements,
+        layers_per_element: profile.solver.grid.layers_per_element,
         zones,
         air_film_ratio: profile.air_film.map(|(start, end)| {
             (

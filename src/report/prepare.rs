@@ -3,9 +3,10 @@
 
 use super::{RemedyComparison, ReportError, ReportInput, ReportMeta};
 use crate::case::{Case, ResolvedCase};
+use crate::diagnose::pipeline::{self, Triage};
 use crate::diagnose::remedies::apply_changes;
 use crate::diagnose::rules::SettingChange;
-use crate::diagnose::{DiagnoseOptions, diagnose, rules::RuleBase};
+use crate::diagnose::{DiagnoseError, DiagnoseOptions, rules::RuleBase};
 use crate::model::{SolverOptions, Taper, solve};
 use crate::units::{QuantityKind, UnitSystem, format_quantity};
 
@@ -38,32 +39,36 @@ pub fn prepare_from_path(
     prepare(&case, rules, &options)
 }
 
-/// Resolve, solve and diagnose `case`; apply the chosen remedy if any.
+/// Resolve, solve and diagnose `case` through the triage pipeline; apply the chosen remedy if
+/// any and re-solve it on the grid the case's own solve used.
 pub fn prepare(
     case: &Case,
     rules: &RuleBase,
     options: &PrepareOptions,
 ) -> Result<ReportInput, ReportError> {
-    let resolved = case.resolve()?;
-    let profile = solve(&resolved.problem(options.solver))?;
-    let diagnosis = diagnose(
-        rules,
-        &resolved,
-        &profile,
-        &DiagnoseOptions {
-            top: 0,
-            what_if: options.what_if,
-            solver: options.solver,
-            ..DiagnoseOptions::default()
-        },
-    )?;
+    let diagnose_options = DiagnoseOptions {
+        top: 0,
+        what_if: options.what_if,
+        solver: options.solver,
+    };
+    let Triage {
+        resolved,
+        profile,
+        diagnosis,
+    } = pipeline::triage(rules, case.into(), &diagnose_options, &mut |_| true)
+        .map_err(report_error)?;
+    let diagnosis = diagnosis.map_err(report_error)?;
+    let same_grid = SolverOptions {
+        resolution: profile.solver.grid.resolution(),
+        ..options.solver
+    };
     let remedy = match &options.remedy {
         None => None,
         Some(id) => {
             let listed = diagnosis.remedies.iter().find(|r| &r.id == id);
             let text = listed.map(|r| r.text.clone()).unwrap_or_else(|| id.clone());
             let (after_case, change) = apply_remedy(rules, &resolved, id, options.units)?;
-            let after = solve(&after_case.problem(options.solver))?;
+            let after = solve(&after_case.problem(same_grid))?;
             Some(RemedyComparison {
                 remedy_id: id.clone(),
                 remedy_text: text,
@@ -86,6 +91,15 @@ pub fn prepare(
         meta,
         units: options.units,
     })
+}
+
+/// A pipeline error as the report's own: case and model errors keep their kind.
+fn report_error(error: DiagnoseError) -> ReportError {
+    match error {
+        DiagnoseError::Case(e) => ReportError::Case(*e),
+        DiagnoseError::Model(e) => ReportError::Model(e),
+        e => ReportError::Diagnose(e),
+    }
 }
 
 /// Apply the setting changes the rule base's remedy `remedy_id` declares; returns the changed

@@ -262,8 +262,16 @@ pub enum TaperError {
         value: f64,
         accepted: &'static str,
     },
-    #[error("the case cannot be designed for: {0}")]
-    Case(String),
+    /// A case input the design needs is missing or unusable.
+    #[error("the case cannot be designed for: {reason}")]
+    Unusable {
+        /// The case field at fault.
+        field: &'static str,
+        reason: &'static str,
+    },
+    /// Every searched schedule failed to solve and no solver error was kept.
+    #[error("the case cannot be designed for: no schedule could be solved")]
+    NothingSolved,
     #[error(transparent)]
     Model(#[from] ModelError),
 }
@@ -309,23 +317,25 @@ impl TaperLimits {
     }
 }
 
-/// Tension of a continuous ramp at radius `r` (N/m); the forms the model documents.
-pub fn ramp_tension(
-    shape: TaperShape,
-    start: f64,
-    fraction: f64,
-    r: f64,
-    rc: f64,
-    big_r: f64,
-) -> f64 {
-    let t = match shape {
-        TaperShape::Linear => {
-            let span = (big_r - rc).max(f64::MIN_POSITIVE);
-            start * (1.0 - fraction * ((r - rc) / span).clamp(0.0, 1.0))
+impl TaperShape {
+    /// The model's taper of this shape.
+    pub fn taper(self, fraction: f64) -> Taper {
+        match self {
+            TaperShape::Linear => Taper::Linear { fraction },
+            TaperShape::Hyperbolic => Taper::Hyperbolic { fraction },
         }
-        TaperShape::Hyperbolic => start * (1.0 - fraction * (1.0 - rc / r.max(rc))),
-    };
-    t.max(0.0)
+    }
+}
+
+/// Tension of a continuous ramp at radius `r` (N/m): the model's taper law
+/// ([`TensionSchedule::scheduled_tension_at`]).
+fn ramp_tension(shape: TaperShape, start: f64, fraction: f64, r: f64, rc: f64, big_r: f64) -> f64 {
+    TensionSchedule {
+        start_tension: start,
+        taper: shape.taper(fraction),
+        upsets: Vec::new(),
+    }
+    .scheduled_tension_at(r, rc, big_r)
 }
 
 /// The schedule for a ramp (or its steps): steps split the build into equal radial bands, each
@@ -341,10 +351,7 @@ pub fn build_schedule(
     match steps {
         None => TensionSchedule {
             start_tension: start,
-            taper: match shape {
-                TaperShape::Linear => Taper::Linear { fraction },
-                TaperShape::Hyperbolic => Taper::Hyperbolic { fraction },
-            },
+            taper: shape.taper(fraction),
             upsets: Vec::new(),
         },
         Some(n) => {
@@ -363,29 +370,6 @@ pub fn build_schedule(
                 },
                 upsets: Vec::new(),
             }
-        }
-    }
-}
-
-/// Web tension of a schedule at radius `r` (N/m), for tables; upsets are ignored.
-pub fn schedule_tension(schedule: &TensionSchedule, r: f64, rc: f64, big_r: f64) -> f64 {
-    let t0 = schedule.start_tension;
-    match &schedule.taper {
-        Taper::None => t0,
-        Taper::Linear { fraction } => ramp_tension(TaperShape::Linear, t0, *fraction, r, rc, big_r),
-        Taper::Hyperbolic { fraction } => {
-            ramp_tension(TaperShape::Hyperbolic, t0, *fraction, r, rc, big_r)
-        }
-        Taper::Steps { steps } => {
-            let mut value = t0;
-            let mut best = f64::NEG_INFINITY;
-            for s in steps {
-                if s.radius <= r && s.radius >= best {
-                    best = s.radius;
-                    value = s.tension;
-                }
-            }
-            value
         }
     }
 }
@@ -606,14 +590,16 @@ pub fn design_with(
 ) -> Result<TaperDesign, TaperError> {
     limits.validate()?;
     if !(case.core.crush_pressure.is_finite() && case.core.crush_pressure > 0.0) {
-        return Err(TaperError::Case(
-            "core.crush_pressure must be a positive pressure to design against it".into(),
-        ));
+        return Err(TaperError::Unusable {
+            field: "core.crush_pressure",
+            reason: "core.crush_pressure must be a positive pressure to design against it",
+        });
     }
     if !(case.web.strength.is_finite() && case.web.strength > 0.0) {
-        return Err(TaperError::Case(
-            "web.strength must be a positive tension to design against it".into(),
-        ));
+        return Err(TaperError::Unusable {
+            field: "web.strength",
+            reason: "web.strength must be a positive tension to design against it",
+        });
     }
     if let Some(n) = options.steps
         && !(2..=50).contains(&n)
@@ -638,9 +624,10 @@ pub fn design_with(
     let rc = case.core.outside_diameter / 2.0;
     let big_r = case.roll.outer_diameter / 2.0;
     if !(big_r > rc && case.web.thickness > 0.0) {
-        return Err(TaperError::Case(
-            "the roll diameter must exceed the core's outside diameter".into(),
-        ));
+        return Err(TaperError::Unusable {
+            field: "roll.outer_diameter",
+            reason: "the roll diameter must exceed the core's outside diameter",
+        });
     }
     let cx = Context { case, limits };
     let verify = options.verify_resolution;
@@ -715,12 +702,8 @@ pub fn design_with(
     let target = current.min(allowed_tension * (1.0 - options.design_margin));
     let start_of = |u: f64| t_low * (t_high / t_low).powf(u);
     let to_u = |start: f64| ((start / t_low).ln() / (t_high / t_low).ln()).clamp(0.0, 1.0);
-    let layers = ((big_r - rc) / case.web.thickness).ceil().max(1.0) as usize;
-    let group = (layers / options.search_elements.max(10)).max(1);
-    let search = if group > 1 {
-        Resolution::Grouped { layers: group }
-    } else {
-        Resolution::PerLayer
+    let search = Resolution::Elements {
+        count: options.search_elements.max(10),
     };
     let schedule_of = |start: f64, fraction: f64| {
         build_schedule(options.shape, options.steps, start, fraction, rc, big_r)
@@ -778,9 +761,7 @@ pub fn design_with(
         run(target, j as f64 / (nv - 1) as f64 * max_taper, &mut trials);
     }
     if trials.is_empty() {
-        return Err(
-            failure.unwrap_or_else(|| TaperError::Case("no schedule could be solved".into()))
-        );
+        return Err(failure.unwrap_or(TaperError::NothingSolved));
     }
 
     // First corrections: the current schedule at both resolutions.
@@ -1172,7 +1153,7 @@ pub fn operator_table(
                 let r = rc + (big_r - rc) * k as f64 / 10.0;
                 ScheduleRow {
                     diameter: 2.0 * r,
-                    tension: schedule_tension(schedule, r, rc, big_r),
+                    tension: schedule.scheduled_tension_at(r, rc, big_r),
                 }
             })
             .collect(),

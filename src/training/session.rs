@@ -3,8 +3,8 @@
 
 use super::{Question, TrainingError, Walkthrough, fill_placeholders, text_plot};
 use crate::case::{Case, ResolvedCase};
-use crate::diagnose::{DiagnoseOptions, Diagnosis, diagnose, rules::RuleBase};
-use crate::model::{Profile, SolverOptions, solve};
+use crate::diagnose::{DiagnoseOptions, Diagnosis, pipeline, rules::RuleBase};
+use crate::model::{Profile, Resolution, SolverOptions};
 use crate::units::UnitSystem;
 
 /// The computed state of a walk-through's case.
@@ -31,22 +31,27 @@ impl TrainingContext {
     /// Resolve, solve and diagnose `case`. A failure is kept as `problem`, not returned: the
     /// walk-through still runs on its written answers.
     pub fn compute(case: Case, rules: Option<&RuleBase>, units: UnitSystem) -> TrainingContext {
-        let computed = (|| -> Result<Computed, String> {
-            let resolved = case.resolve().map_err(|e| e.to_string())?;
-            let solver = training_solver_options(&resolved);
-            let profile = solve(&resolved.problem(solver)).map_err(|e| e.to_string())?;
-            let options = DiagnoseOptions {
-                solver,
-                ..DiagnoseOptions::default()
-            };
-            let diagnosis =
-                rules.and_then(|rules| diagnose(rules, &resolved, &profile, &options).ok());
-            Ok(Computed {
-                resolved,
-                profile,
-                diagnosis,
-            })
-        })();
+        let options = DiagnoseOptions {
+            solver: TRAINING_SOLVER,
+            ..DiagnoseOptions::default()
+        };
+        let computed = match rules {
+            Some(rules) => {
+                pipeline::triage(rules, (&case).into(), &options, &mut |_| true).map(|t| Computed {
+                    resolved: t.resolved,
+                    profile: t.profile,
+                    diagnosis: t.diagnosis.ok(),
+                })
+            }
+            None => pipeline::solve_case((&case).into(), TRAINING_SOLVER, &mut |_| true).map(|s| {
+                Computed {
+                    resolved: s.resolved,
+                    profile: s.profile,
+                    diagnosis: None,
+                }
+            }),
+        }
+        .map_err(|e| e.to_string());
         match computed {
             Ok(computed) => TrainingContext {
                 case,
@@ -79,18 +84,12 @@ impl TrainingContext {
 /// so a walk-through starts at once even in a debug build.
 pub const TRAINING_ELEMENTS: usize = 300;
 
-fn training_solver_options(case: &ResolvedCase) -> SolverOptions {
-    let layers = ((case.roll.outer_diameter - case.core.outside_diameter)
-        / 2.0
-        / case.web.thickness.max(1e-9)) as usize;
-    let mut options = SolverOptions::default();
-    if layers > TRAINING_ELEMENTS {
-        options.resolution = crate::model::Resolution::Grouped {
-            layers: layers.div_ceil(TRAINING_ELEMENTS),
-        };
-    }
-    options
-}
+const TRAINING_SOLVER: SolverOptions = SolverOptions {
+    resolution: Resolution::Elements {
+        count: TRAINING_ELEMENTS,
+    },
+    modulus_update: crate::model::ModulusUpdate::Secant,
+};
 
 /// What the trainee is told after answering one question.
 #[derive(Debug, Clone, PartialEq)]

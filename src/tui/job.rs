@@ -7,8 +7,9 @@ use std::sync::atomic::{AtomicBool, Ordering};
 use std::sync::mpsc::{Receiver, Sender, channel};
 
 use crate::case::{Case, ResolvedCase};
-use crate::diagnose::{DiagnoseOptions, Diagnosis, rules::RuleBase};
-use crate::model::{Profile, SolverOptions};
+use crate::diagnose::pipeline::CaseInputs;
+use crate::diagnose::{DiagnoseError, DiagnoseOptions, Diagnosis, rules::RuleBase};
+use crate::model::Profile;
 
 /// Why a solve was asked for; results are filed under their purpose.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Hash)]
@@ -72,32 +73,33 @@ pub enum JobMessage {
     },
 }
 
-/// Resolve, solve and diagnose `case` on the calling thread. `progress(fraction)` returning
-/// false cancels the solve.
+/// Resolve, solve and diagnose `case` on the calling thread, through the triage pipeline.
+/// `progress(fraction)` returning false cancels the solve.
 pub fn run_pipeline(
     case: &Case,
     resolved: Option<&ResolvedCase>,
     rules: &RuleBase,
-    progress: &mut dyn FnMut(f64) -> bool,
+    progress: crate::diagnose::pipeline::Progress<'_>,
 ) -> Result<SolveOutcome, String> {
-    let resolved = match resolved {
-        Some(resolved) => resolved.clone(),
-        None => case.resolve().map_err(|e| format!("inputs: {e}"))?,
+    let inputs = match resolved {
+        Some(resolved) => CaseInputs::Resolved(resolved),
+        None => CaseInputs::File(case),
     };
-    let problem = resolved.problem(SolverOptions::default());
-    let profile = crate::model::solve_with_progress(&problem, progress)
-        .map_err(|e| format!("stress solve: {e}"))?;
     let options = DiagnoseOptions {
         top: 0,
         what_if: false,
         ..DiagnoseOptions::default()
     };
-    let diagnosis = crate::diagnose::diagnose(rules, &resolved, &profile, &options)
-        .map_err(|e| format!("diagnosis: {e}"));
+    let triage = crate::diagnose::pipeline::triage(rules, inputs, &options, progress).map_err(
+        |e| match e {
+            DiagnoseError::Case(e) => format!("inputs: {e}"),
+            e => format!("stress solve: {e}"),
+        },
+    )?;
     Ok(SolveOutcome {
-        resolved,
-        profile,
-        diagnosis,
+        resolved: triage.resolved,
+        profile: triage.profile,
+        diagnosis: triage.diagnosis.map_err(|e| format!("diagnosis: {e}")),
     })
 }
 

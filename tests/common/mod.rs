@@ -1,11 +1,10 @@
 //! Shared helpers of the diagnosis tests: invented scenario cases built directly in Rust (so the
 //! tests do not depend on the case-file parser) and a profile source.
 //!
-//! `profile()` uses the crate's solver (`model::solve`). While the solver is not implemented it
-//! falls back to a small stand-alone Hakiel solver below (Hakiel, TAPPI J. 70(5), 1987:
-//! r²·p'' + 3r·p' + (1 − Eθ/Er)·p = 0 per added element, Pfeiffer radial law, elastic core
-//! boundary r·p' = p·(Eθ/Ec − 1 + ν) at the core). It exists only so the rule tests can be
-//! physically honest before the real solver lands.
+//! `profile()` and [`SOLVER`] use the crate's solver at about 200 elements. A small stand-alone
+//! Hakiel solver below (Hakiel, TAPPI J. 70(5), 1987: r²·p'' + 3r·p' + (1 − Eθ/Er)·p = 0 per
+//! added element, Pfeiffer radial law, elastic core boundary r·p' = p·(Eθ/Ec − 1 + ν) at the
+//! core) gives the fast profiles of the property sweeps.
 #![allow(dead_code)]
 
 use std::collections::BTreeMap;
@@ -14,8 +13,9 @@ use rolltriage::case::{
     ObservedSymptom, ResolvedCase, ResolvedCore, ResolvedRoll, ResolvedWeb, ResolvedWinding,
 };
 use rolltriage::model::{
-    CoreStiffness, ModelError, Profile, ProfileSummary, RadialStiffness, Taper, TensionSchedule,
-    UpsetBand, WindingMethod, WindingProblem, Zone, ZoneName,
+    CoreStiffness, Grid, ModelError, Profile, ProfileSummary, RadialStiffness, Resolution,
+    SolverOptions, SolverStats, Taper, TensionSchedule, UpsetBand, WindingMethod, WindingProblem,
+    Zone, ZoneName,
 };
 
 /// Newsprint-like paper, 45 g/m², 75 µm; values typical of the grade (from memory).
@@ -154,34 +154,17 @@ pub fn upset(mut case: ResolvedCase, from_d: f64, to_d: f64, tension: f64) -> Re
     case
 }
 
-/// The stress profile of a case: the crate's solver, or the stand-alone fallback while the
-/// solver is not implemented.
-pub fn profile(case: &ResolvedCase) -> Profile {
-    solve(&case.problem(Default::default())).expect("solve")
-}
+/// Solver options of the diagnosis tests: about 200 elements instead of the automatic halving
+/// keeps them quick (they also run in debug builds); the model's own grid policy picks the
+/// layers per element.
+pub const SOLVER: SolverOptions = SolverOptions {
+    resolution: Resolution::Elements { count: 200 },
+    modulus_update: rolltriage::model::ModulusUpdate::Secant,
+};
 
-/// Same contract as `model::solve`; falls back to [`fallback_solve`] while the crate's solver is
-/// not implemented.
-pub fn solve(problem: &WindingProblem) -> Result<Profile, ModelError> {
-    // A fixed grouping of about 200 elements instead of the automatic halving keeps the
-    // tests quick (they also run in debug builds).
-    let mut problem = problem.clone();
-    if problem.options.resolution == rolltriage::model::Resolution::Auto {
-        let layers =
-            ((problem.outer_radius - problem.core_radius) / problem.thickness).round() as usize;
-        if layers > 800 {
-            problem.options.resolution = rolltriage::model::Resolution::Grouped {
-                layers: layers.div_ceil(200),
-            };
-        }
-    }
-    let problem = &problem;
-    match rolltriage::model::solve(problem) {
-        Err(ModelError::NotConverged(m)) if m.contains("not implemented") => {
-            Ok(fallback_solve(problem, 300))
-        }
-        other => other,
-    }
+/// The stress profile of a case: the crate's solver at [`SOLVER`].
+pub fn profile(case: &ResolvedCase) -> Profile {
+    rolltriage::model::solve(&case.problem(SOLVER)).expect("solve")
 }
 
 fn scheduled_tension(s: &TensionSchedule, rc: f64, ro: f64, r: f64) -> f64 {
@@ -372,9 +355,14 @@ pub fn fallback_solve(problem: &WindingProblem, elements: usize) -> Profile {
             min_tangential_stress: min_s,
             min_tangential_radius: radius[min_i],
             physical_layers: layers,
-            elements: m,
-            layers_per_element: layers_per.round() as usize,
             ..ProfileSummary::default()
+        },
+        solver: SolverStats {
+            grid: Grid {
+                layers_per_element: layers_per.round() as usize,
+            },
+            elements: m,
+            ..SolverStats::default()
         },
         radius,
         pressure: p,

@@ -165,9 +165,14 @@ pub fn profile(scale: f64) -> Profile {
             min_tangential_stress: tangential[0],
             min_tangential_radius: rc,
             physical_layers: 5921,
-            elements: 120,
-            layers_per_element: 49,
             ..ProfileSummary::default()
+        },
+        solver: rolltriage::model::SolverStats {
+            grid: rolltriage::model::Grid {
+                layers_per_element: 49,
+            },
+            elements: 120,
+            ..Default::default()
         },
         thickness: 76e-6,
         radial_strain: vec![0.0; n],

@@ -123,7 +123,7 @@ pub fn summary_lines(
             compact_stress(s.min_tangential_stress, units),
             compact_length(s.min_tangential_radius, units),
             s.physical_layers,
-            s.elements
+            outcome.profile.solver.elements
         )),
     ]
 }

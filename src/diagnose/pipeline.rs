@@ -1,0 +1,292 @@
+//! The one triage pipeline: case → resolved inputs → mechanics problem → stress solve →
+//! diagnosis (indicators, ranking, remedies, what-if re-solves), with progress and
+//! cancellation. The CLI (`stress`, `diagnose`), the terminal UI's solver job, reports and the
+//! training walk-throughs all run it; none of them strings the steps together itself.
+//!
+//! Grid policy: the case's own solve uses the caller's [`SolverOptions`]; every what-if re-solve
+//! asks the model for the grid that solve actually used ([`crate::model::Grid::resolution`]), so
+//! before and after are compared on the same discretisation and the case needs no second solve.
+
+use std::sync::Mutex;
+use std::sync::atomic::{AtomicBool, Ordering};
+
+use super::{
+    Caution, DiagnoseError, DiagnoseOptions, Diagnosis, check_answers, indicators,
+    observed_symptoms, rank, remedies, rules::RuleBase,
+};
+use crate::case::{Case, ResolvedCase};
+use crate::model::{ModelError, Profile, SolverOptions};
+
+/// Progress callback: called with the fraction done (0..=1); returning `false` cancels the work,
+/// which then ends with [`ModelError::Cancelled`]. `Send` because what-if re-solves run on
+/// worker threads and report through it.
+pub type Progress<'a> = &'a mut (dyn FnMut(f64) -> bool + Send);
+
+/// What the pipeline starts from.
+#[derive(Debug, Clone, Copy)]
+pub enum CaseInputs<'a> {
+    /// A case file as read: resolved first.
+    File(&'a Case),
+    /// Inputs already resolved (and perhaps changed, e.g. a remedy tried in the UI).
+    Resolved(&'a ResolvedCase),
+}
+
+impl<'a> From<&'a Case> for CaseInputs<'a> {
+    fn from(case: &'a Case) -> Self {
+        CaseInputs::File(case)
+    }
+}
+
+impl<'a> From<&'a ResolvedCase> for CaseInputs<'a> {
+    fn from(case: &'a ResolvedCase) -> Self {
+        CaseInputs::Resolved(case)
+    }
+}
+
+/// The stress state of a case.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Solved {
+    pub resolved: ResolvedCase,
+    pub profile: Profile,
+}
+
+/// The stress state and its diagnosis. The diagnosis can fail on its own (an unknown symptom
+/// or answer, rule trouble) while the stresses stand.
+#[derive(Debug)]
+pub struct Triage {
+    pub resolved: ResolvedCase,
+    pub profile: Profile,
+    pub diagnosis: Result<Diagnosis, DiagnoseError>,
+}
+
+/// Resolve and solve: the first half of the pipeline (the `stress` command stops here).
+pub fn solve_case(
+    inputs: CaseInputs<'_>,
+    solver: SolverOptions,
+    progress: Progress<'_>,
+) -> Result<Solved, DiagnoseError> {
+    let resolved = match inputs {
+        CaseInputs::File(case) => case.resolve()?,
+        CaseInputs::Resolved(resolved) => resolved.clone(),
+    };
+    let profile = crate::model::solve_with_progress(&resolved.problem(solver), progress)?;
+    Ok(Solved { resolved, profile })
+}
+
+/// Resolve, solve and diagnose. Progress runs over the case's solve and then the what-if
+/// re-solves (when `options.what_if`).
+pub fn triage(
+    rules: &RuleBase,
+    inputs: CaseInputs<'_>,
+    options: &DiagnoseOptions,
+    progress: Progress<'_>,
+) -> Result<Triage, DiagnoseError> {
+    let solve_share = if options.what_if { 0.5 } else { 1.0 };
+    let Solved { resolved, profile } =
+        solve_case(inputs, options.solver, &mut |f| progress(solve_share * f))?;
+    let diagnosis = diagnose_solved(rules, &resolved, &profile, options, &mut |f| {
+        progress(solve_share + (1.0 - solve_share) * f)
+    });
+    if let Err(DiagnoseError::Model(ModelError::Cancelled)) = diagnosis {
+        return Err(ModelError::Cancelled.into());
+    }
+    Ok(Triage {
+        resolved,
+        profile,
+        diagnosis,
+    })
+}
+
+/// Diagnose a case whose profile is already computed (progress covers the what-if re-solves).
+pub fn diagnose_solved(
+    rules: &RuleBase,
+    case: &ResolvedCase,
+    profile: &Profile,
+    options: &DiagnoseOptions,
+    progress: Progress<'_>,
+) -> Result<Diagnosis, DiagnoseError> {
+    let symptoms = observed_symptoms(rules, case)?;
+    check_answers(rules, &case.answers)?;
+    let indicators = indicators::Indicators::compute(case, profile);
+    let mut causes = rank::rank(rules, &symptoms, case, &indicators);
+    if options.top > 0 {
+        causes.truncate(options.top);
+    }
+    let mut remedies = remedies::merge(rules, &symptoms, &causes);
+    if options.what_if
+        && remedies
+            .iter()
+            .any(|r| remedies::changes_setting(rules, &r.id))
+    {
+        let what_if = WhatIfContext {
+            rules,
+            symptoms: &symptoms,
+            case,
+            indicators: &indicators,
+            causes: &causes,
+            solver: SolverOptions {
+                resolution: profile.solver.grid.resolution(),
+                ..options.solver
+            },
+        };
+        what_if.fill(&mut remedies, progress)?;
+    }
+    let _ = progress(1.0);
+    // A remedy the re-solve shows making the physics worse is kept (with its warning) but tried
+    // last; the sort is stable so the order among the others stands.
+    remedies.sort_by_key(|r| r.what_if.as_ref().is_some_and(|w| w.worse));
+    let cautions = rules
+        .cautions
+        .iter()
+        .filter(|(id, _)| remedies.iter().any(|r| r.cautions.contains(id)))
+        .map(|(_, c)| Caution {
+            id: c.id.clone(),
+            title: c.title.clone(),
+            text: c.text.clone(),
+        })
+        .collect();
+    Ok(Diagnosis {
+        causes,
+        remedies,
+        cautions,
+        indicators: indicators.values(),
+    })
+}
+
+/// The case as it stands, diagnosed, and the grid its changed versions are re-solved on.
+struct WhatIfContext<'a> {
+    rules: &'a RuleBase,
+    symptoms: &'a [String],
+    case: &'a ResolvedCase,
+    indicators: &'a indicators::Indicators,
+    causes: &'a [super::RankedCause],
+    solver: SolverOptions,
+}
+
+impl WhatIfContext<'_> {
+    /// Fill each setting-changing remedy's before/after row.
+    fn fill(
+        &self,
+        remedies: &mut [super::MergedRemedy],
+        progress: Progress<'_>,
+    ) -> Result<(), DiagnoseError> {
+        // Distinct changed cases that need a solve; no-op changes and rating-only changes need
+        // none.
+        let changed: Vec<Option<ResolvedCase>> = remedies
+            .iter()
+            .map(|r| {
+                let changes = &self.rules.remedies.get(&r.id)?.changes;
+                (!changes.is_empty() && remedies::needs_solve(changes))
+                    .then(|| remedies::apply_changes(self.case, changes))
+            })
+            .collect();
+        let mut distinct: Vec<&ResolvedCase> = Vec::new();
+        for c in changed.iter().flatten() {
+            if c != self.case && !distinct.contains(&c) {
+                distinct.push(c);
+            }
+        }
+        let solved = solve_all(&distinct, self.solver, progress)?;
+        for (remedy, changed_case) in remedies.iter_mut().zip(&changed) {
+            remedy.what_if = match changed_case {
+                None => remedies::what_if(
+                    self.rules,
+                    self.symptoms,
+                    self.case,
+                    self.indicators,
+                    self.causes,
+                    remedy,
+                    self.solver,
+                ),
+                Some(c) => {
+                    let result = distinct
+                        .iter()
+                        .position(|d| *d == c)
+                        .map(|i| solved[i].clone())
+                        // The changed case equals the case: nothing to solve.
+                        .unwrap_or_else(|| Ok(Profile::default()));
+                    remedies::what_if_solved(
+                        self.rules,
+                        self.symptoms,
+                        self.case,
+                        self.indicators,
+                        self.causes,
+                        remedy,
+                        c,
+                        result,
+                    )
+                }
+            };
+        }
+        Ok(())
+    }
+}
+
+/// Solve several what-if cases, in parallel where the machine has cores to spare. A failed
+/// solve is kept as its error (the what-if row says so); a cancelled one cancels them all.
+fn solve_all(
+    cases: &[&ResolvedCase],
+    solver: SolverOptions,
+    progress: Progress<'_>,
+) -> Result<Vec<Result<Profile, ModelError>>, DiagnoseError> {
+    if cases.is_empty() {
+        return Ok(Vec::new());
+    }
+    let threads = std::thread::available_parallelism()
+        .map(|n| n.get())
+        .unwrap_or(1)
+        .clamp(1, 4)
+        .min(cases.len());
+    let cancelled = AtomicBool::new(false);
+    let done = Mutex::new((0usize, progress));
+    let total = cases.len() as f64;
+    // Each finished solve reports; a `false` from the caller stops the solves still running.
+    let report = || {
+        if let Ok(mut guard) = done.lock() {
+            guard.0 += 1;
+            let fraction = guard.0 as f64 / total;
+            if !(guard.1)(fraction) {
+                cancelled.store(true, Ordering::Relaxed);
+            }
+        }
+    };
+    let solve_one = |case: &ResolvedCase| {
+        let result = crate::model::solve_with_progress(&case.problem(solver), &mut |_| {
+            !cancelled.load(Ordering::Relaxed)
+        });
+        report();
+        result
+    };
+    let results: Vec<Result<Profile, ModelError>> = if threads <= 1 {
+        cases.iter().map(|c| solve_one(c)).collect()
+    } else {
+        let chunk = cases.len().div_ceil(threads);
+        std::thread::scope(|scope| {
+            let handles: Vec<_> = cases
+                .chunks(chunk)
+                .map(|part| {
+                    let solve_one = &solve_one;
+                    let handle =
+                        scope.spawn(move || part.iter().map(|c| solve_one(c)).collect::<Vec<_>>());
+                    (part.len(), handle)
+                })
+                .collect();
+            handles
+                .into_iter()
+                .flat_map(|(len, h)| {
+                    h.join().unwrap_or_else(|_| {
+                        (0..len)
+                            .map(|_| {
+                                Err(ModelError::NotConverged("a what-if solve panicked".into()))
+                            })
+                            .collect()
+                    })
+                })
+                .collect()
+        })
+    };
+    if cancelled.load(Ordering::Relaxed) {
+        return Err(ModelError::Cancelled.into());
+    }
+    Ok(results)
+}
