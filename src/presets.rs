@@ -11,6 +11,8 @@
 
 use serde::Serialize;
 
+use crate::vocabulary::{CoreMaterial, WebMaterial};
+
 /// One preset number with where it came from.
 #[derive(Debug, Clone, Copy, PartialEq, Serialize)]
 pub struct Sourced {
@@ -55,8 +57,7 @@ const FILM_TABLE: &str =
 pub struct WebPreset {
     pub id: &'static str,
     pub name: &'static str,
-    /// paper, board, film, foil, nonwoven.
-    pub material: &'static str,
+    pub material: WebMaterial,
     /// Caliper of one layer (m).
     pub thickness: Sourced,
     /// Machine-direction (tangential) modulus Eθ (Pa).
@@ -86,8 +87,7 @@ pub struct WebPreset {
 pub struct CorePreset {
     pub id: &'static str,
     pub name: &'static str,
-    /// paper, steel, aluminium, plastic, rigid.
-    pub material: &'static str,
+    pub material: CoreMaterial,
     /// Bore (m).
     pub inside_diameter: Sourced,
     /// Outside diameter where winding starts (m).
@@ -113,7 +113,7 @@ const WEB_PRESETS: [WebPreset; 9] = [
     WebPreset {
         id: "newsprint",
         name: "Newsprint-like paper (about 45 g/m²)",
-        material: "paper",
+        material: WebMaterial::Paper,
         thickness: sourced(
             76e-6,
             "common practice: newsprint caliper about 3 mil (76 µm)",
@@ -135,7 +135,7 @@ const WEB_PRESETS: [WebPreset; 9] = [
     WebPreset {
         id: "soft_paper_reference",
         name: "Soft paper-like reference web (engine checks; not a measured grade)",
-        material: "paper",
+        material: WebMaterial::Paper,
         thickness: sourced(76e-6, "rolltriage reference web used by the engine tests"),
         tangential_modulus: sourced(4.5e9, MEMORY),
         k1: sourced(5e3, "rolltriage reference web used by the engine tests"),
@@ -154,7 +154,7 @@ const WEB_PRESETS: [WebPreset; 9] = [
     WebPreset {
         id: "coated_paper",
         name: "Coated printing paper (about 90 g/m²)",
-        material: "paper",
+        material: WebMaterial::Paper,
         thickness: sourced(80e-6, MEMORY),
         tangential_modulus: sourced(6e9, MEMORY),
         k1: sourced(10e3, PFEIFFER_MEMORY),
@@ -176,7 +176,7 @@ const WEB_PRESETS: [WebPreset; 9] = [
     WebPreset {
         id: "board",
         name: "Folding boxboard (about 16 pt)",
-        material: "board",
+        material: WebMaterial::Board,
         thickness: sourced(400e-6, "common practice: 16 pt board is 0.016 in (406 µm)"),
         tangential_modulus: sourced(6e9, MEMORY),
         k1: sourced(15e3, PFEIFFER_MEMORY),
@@ -195,7 +195,7 @@ const WEB_PRESETS: [WebPreset; 9] = [
     WebPreset {
         id: "pet_film",
         name: "PET (polyester) film, 23 µm",
-        material: "film",
+        material: WebMaterial::Film,
         thickness: sourced(23e-6, "common practice: 92 gauge packaging polyester"),
         tangential_modulus: sourced(4.5e9, FILM_TABLE),
         k1: sourced(3e3, PFEIFFER_MEMORY),
@@ -211,7 +211,7 @@ const WEB_PRESETS: [WebPreset; 9] = [
     WebPreset {
         id: "bopp_film",
         name: "BOPP (oriented polypropylene) film, 20 µm",
-        material: "film",
+        material: WebMaterial::Film,
         thickness: sourced(20e-6, "common practice: 20 µm packaging BOPP"),
         tangential_modulus: sourced(2.5e9, FILM_TABLE),
         k1: sourced(3e3, PFEIFFER_MEMORY),
@@ -227,7 +227,7 @@ const WEB_PRESETS: [WebPreset; 9] = [
     WebPreset {
         id: "ldpe_film",
         name: "LDPE (low-density polyethylene) film, 50 µm",
-        material: "film",
+        material: WebMaterial::Film,
         thickness: sourced(50e-6, "common practice: 2 mil blown film"),
         tangential_modulus: sourced(0.2e9, "(from memory) LDPE 0.1–0.3 GPa"),
         k1: sourced(2e3, PFEIFFER_MEMORY),
@@ -249,7 +249,7 @@ const WEB_PRESETS: [WebPreset; 9] = [
     WebPreset {
         id: "aluminium_foil",
         name: "Aluminium foil, 9 µm (soft temper)",
-        material: "foil",
+        material: WebMaterial::Foil,
         thickness: sourced(9e-6, "common practice: 9 µm converter foil"),
         tangential_modulus: sourced(
             69e9,
@@ -274,7 +274,7 @@ const WEB_PRESETS: [WebPreset; 9] = [
     WebPreset {
         id: "spunbond_nonwoven",
         name: "Spunbond polypropylene nonwoven (about 20 g/m²)",
-        material: "nonwoven",
+        material: WebMaterial::Nonwoven,
         thickness: sourced(200e-6, MEMORY),
         tangential_modulus: sourced(0.05e9, MEMORY),
         k1: sourced(1e3, PFEIFFER_MEMORY),
@@ -309,7 +309,7 @@ const CORE_PRESETS: [CorePreset; 7] = [
     CorePreset {
         id: "paper_3in",
         name: "Paper core, 3 in bore, 1/2 in wall",
-        material: "paper",
+        material: CoreMaterial::Paper,
         inside_diameter: sourced(3.0 * INCH, "common practice: 3 in (76.2 mm) bore"),
         outside_diameter: sourced(4.0 * INCH, "common practice: 1/2 in wall"),
         modulus: sourced(2e9, PAPER_CORE_MODULUS),
@@ -321,7 +321,7 @@ const CORE_PRESETS: [CorePreset; 7] = [
     CorePreset {
         id: "paper_3in_thin",
         name: "Paper core, 3 in bore, 1/4 in wall",
-        material: "paper",
+        material: CoreMaterial::Paper,
         inside_diameter: sourced(3.0 * INCH, "common practice: 3 in (76.2 mm) bore"),
         outside_diameter: sourced(3.5 * INCH, "common practice: 1/4 in wall"),
         modulus: sourced(2e9, PAPER_CORE_MODULUS),
@@ -333,7 +333,7 @@ const CORE_PRESETS: [CorePreset; 7] = [
     CorePreset {
         id: "paper_6in",
         name: "Paper core, 6 in bore, 1/2 in wall",
-        material: "paper",
+        material: CoreMaterial::Paper,
         inside_diameter: sourced(6.0 * INCH, "common practice: 6 in (152.4 mm) bore"),
         outside_diameter: sourced(7.0 * INCH, "common practice: 1/2 in wall"),
         modulus: sourced(2e9, PAPER_CORE_MODULUS),
@@ -345,7 +345,7 @@ const CORE_PRESETS: [CorePreset; 7] = [
     CorePreset {
         id: "paper_6in_heavy",
         name: "Paper core, 6 in bore, 3/4 in wall",
-        material: "paper",
+        material: CoreMaterial::Paper,
         inside_diameter: sourced(6.0 * INCH, "common practice: 6 in (152.4 mm) bore"),
         outside_diameter: sourced(7.5 * INCH, "common practice: 3/4 in wall"),
         modulus: sourced(2e9, PAPER_CORE_MODULUS),
@@ -357,7 +357,7 @@ const CORE_PRESETS: [CorePreset; 7] = [
     CorePreset {
         id: "steel_6in",
         name: "Steel core or spool, 6 in bore, 1/4 in wall",
-        material: "steel",
+        material: CoreMaterial::Steel,
         inside_diameter: sourced(6.0 * INCH, "common practice: 6 in bore"),
         outside_diameter: sourced(6.5 * INCH, "common practice: 1/4 in wall"),
         modulus: sourced(
@@ -378,7 +378,7 @@ const CORE_PRESETS: [CorePreset; 7] = [
     CorePreset {
         id: "aluminium_6in",
         name: "Aluminium core, 6 in bore, 1/4 in wall",
-        material: "aluminium",
+        material: CoreMaterial::Aluminium,
         inside_diameter: sourced(6.0 * INCH, "common practice: 6 in bore"),
         outside_diameter: sourced(6.5 * INCH, "common practice: 1/4 in wall"),
         modulus: sourced(
@@ -399,7 +399,7 @@ const CORE_PRESETS: [CorePreset; 7] = [
     CorePreset {
         id: "plastic_3in",
         name: "Plastic (ABS) core, 3 in bore, 6 mm wall",
-        material: "plastic",
+        material: CoreMaterial::Plastic,
         inside_diameter: sourced(3.0 * INCH, "common practice: 3 in bore"),
         outside_diameter: sourced(3.0 * INCH + 0.012, MEMORY),
         modulus: sourced(2.3e9, "(from memory) ABS modulus about 2–2.5 GPa"),
@@ -470,13 +470,13 @@ pub fn suggest_core(id: &str) -> Option<&'static str> {
 }
 
 /// The web preset used for a material kind when the case names no preset.
-pub fn default_web_for_material(material: &str) -> &'static WebPreset {
+pub fn default_web_for_material(material: WebMaterial) -> &'static WebPreset {
     let id = match material {
-        "board" => "board",
-        "film" | "laminate" => "pet_film",
-        "foil" => "aluminium_foil",
-        "nonwoven" => "spunbond_nonwoven",
-        _ => "newsprint",
+        WebMaterial::Board => "board",
+        WebMaterial::Film | WebMaterial::Laminate => "pet_film",
+        WebMaterial::Foil => "aluminium_foil",
+        WebMaterial::Nonwoven => "spunbond_nonwoven",
+        WebMaterial::Paper => "newsprint",
     };
     web_preset(id).unwrap_or(&WEB_PRESETS[0])
 }
@@ -485,14 +485,15 @@ pub fn default_web_for_material(material: &str) -> &'static WebPreset {
 /// (films and foil usually run on 6 in cores, paper on 3 in), and the one whose outside
 /// diameter is nearest to `outside_diameter` when that is given.
 pub fn default_core_for(
-    core_material: Option<&str>,
-    web_material: &str,
+    core_material: Option<CoreMaterial>,
+    web_material: WebMaterial,
     outside_diameter: Option<f64>,
 ) -> &'static CorePreset {
+    // A rigid core is modelled as infinitely stiff; its diameters come from a steel core.
     let material = match core_material {
-        Some("rigid") | Some("steel") => "steel",
+        Some(CoreMaterial::Rigid) => CoreMaterial::Steel,
         Some(m) => m,
-        None => "paper",
+        None => CoreMaterial::Paper,
     };
     let candidates: Vec<&'static CorePreset> = CORE_PRESETS
         .iter()
@@ -509,12 +510,13 @@ pub fn default_core_for(
         }
     }
     let id = match (material, web_material) {
-        ("paper", "film" | "foil" | "laminate") => "paper_6in",
-        ("paper", _) => "paper_3in",
-        ("steel", _) => "steel_6in",
-        ("aluminium", _) => "aluminium_6in",
-        ("plastic", _) => "plastic_3in",
-        _ => "paper_3in",
+        (CoreMaterial::Paper, WebMaterial::Film | WebMaterial::Foil | WebMaterial::Laminate) => {
+            "paper_6in"
+        }
+        (CoreMaterial::Paper, _) => "paper_3in",
+        (CoreMaterial::Steel | CoreMaterial::Rigid, _) => "steel_6in",
+        (CoreMaterial::Aluminium, _) => "aluminium_6in",
+        (CoreMaterial::Plastic, _) => "plastic_3in",
     };
     core_preset(id).unwrap_or(&CORE_PRESETS[0])
 }
@@ -599,14 +601,17 @@ mod tests {
     fn suggestions_and_defaults() {
         assert_eq!(suggest_web("newsprnt"), Some("newsprint"));
         assert_eq!(suggest_core("paper_3inch"), Some("paper_3in"));
-        assert_eq!(default_web_for_material("film").id, "pet_film");
-        assert_eq!(default_core_for(None, "film", None).id, "paper_6in");
+        assert_eq!(default_web_for_material(WebMaterial::Film).id, "pet_film");
         assert_eq!(
-            default_core_for(Some("paper"), "paper", Some(0.18)).id,
+            default_core_for(None, WebMaterial::Film, None).id,
             "paper_6in"
         );
         assert_eq!(
-            default_core_for(Some("steel"), "paper", None).id,
+            default_core_for(Some(CoreMaterial::Paper), WebMaterial::Paper, Some(0.18)).id,
+            "paper_6in"
+        );
+        assert_eq!(
+            default_core_for(Some(CoreMaterial::Steel), WebMaterial::Paper, None).id,
             "steel_6in"
         );
     }

@@ -161,7 +161,10 @@ fn core_materials_give_their_stiffness() {
     }
     assert_eq!(steel.core.preset.as_deref(), Some("steel_6in"));
     let aluminium = resolve("title: t\ncore: {material: aluminum}\n").unwrap();
-    assert_eq!(aluminium.core.material, "aluminium");
+    assert_eq!(
+        aluminium.core.material,
+        rolltriage::vocabulary::CoreMaterial::Aluminium
+    );
     let measured = resolve("title: t\ncore: {stiffness: \"150 MPa\"}\n").unwrap();
     assert_eq!(
         measured.core.stiffness,
@@ -397,4 +400,141 @@ mod properties {
             prop_assert_eq!(back.resolve().unwrap(), case.resolve().unwrap());
         }
     }
+}
+
+// ---- The field registry ----------------------------------------------------------------
+
+/// The keys serde accepts in one section of the schema, read from its "unknown key" message
+/// (so the list comes from the structs themselves, not from a copy).
+fn schema_keys(yaml: &str) -> Vec<String> {
+    match parse(yaml) {
+        Err(CaseError::UnknownKey { accepted, .. }) => {
+            accepted.split(", ").map(str::to_string).collect()
+        }
+        other => panic!("expected an unknown-key error for {yaml:?}, got {other:?}"),
+    }
+}
+
+#[test]
+fn every_schema_key_is_in_the_field_registry_and_back() {
+    use rolltriage::case::registry;
+    let sections = [
+        ("", "title: t\nzz_unknown: 1\n"),
+        ("web", "title: t\nweb: {zz_unknown: 1}\n"),
+        (
+            "web.radial_stiffness",
+            "title: t\nweb: {radial_stiffness: {zz_unknown: 1}}\n",
+        ),
+        ("core", "title: t\ncore: {zz_unknown: 1}\n"),
+        ("roll", "title: t\nroll: {zz_unknown: 1}\n"),
+        ("winding", "title: t\nwinding: {zz_unknown: 1}\n"),
+        (
+            "winding.taper",
+            "title: t\nwinding: {taper: {zz_unknown: 1}}\n",
+        ),
+        (
+            "winding.taper.steps[]",
+            "title: t\nwinding: {taper: {kind: steps, steps: [{zz_unknown: 1}]}}\n",
+        ),
+        (
+            "winding.upsets[]",
+            "title: t\nwinding: {upsets: [{zz_unknown: 1}]}\n",
+        ),
+        ("symptoms[]", "title: t\nsymptoms: [{zz_unknown: 1}]\n"),
+    ];
+    let mut covered = 0;
+    for (section, yaml) in sections {
+        let mut schema = schema_keys(yaml);
+        schema.sort();
+        let mut listed: Vec<String> = registry::section(section)
+            .map(|f| f.key().to_string())
+            .collect();
+        listed.sort();
+        assert_eq!(
+            schema, listed,
+            "section `{section}`: schema keys vs registry entries"
+        );
+        covered += listed.len();
+    }
+    assert_eq!(
+        covered,
+        registry::FIELDS.len(),
+        "a registry entry lies outside the sections checked here"
+    );
+}
+
+#[test]
+fn registry_paths_are_unique_and_ranges_sane() {
+    use rolltriage::case::registry::{FIELDS, FieldKind};
+    for (i, f) in FIELDS.iter().enumerate() {
+        assert!(
+            FIELDS[..i].iter().all(|g| g.path != f.path),
+            "duplicate {}",
+            f.path
+        );
+        assert!(!f.label.is_empty(), "{} has no label", f.path);
+        if let Some(range) = f.range {
+            assert!(range.min < range.max, "{}", f.path);
+            assert!(
+                matches!(f.kind, FieldKind::Quantity(_) | FieldKind::Number),
+                "{} has a range but is not a number",
+                f.path
+            );
+        }
+        if f.form.is_some() {
+            assert!(
+                !f.example.is_empty(),
+                "{} is on the form without an example",
+                f.path
+            );
+        }
+    }
+}
+
+#[test]
+fn every_form_field_has_an_example_that_the_form_accepts() {
+    use rolltriage::tui::fields::{FIELDS, check};
+    assert!(FIELDS.len() >= 20);
+    for spec in FIELDS.iter() {
+        assert!(
+            check(spec, spec.example).is_ok(),
+            "{}: {}",
+            spec.path,
+            spec.example
+        );
+    }
+}
+
+/// docs/case-format.md carries one generated table per section between
+/// `<!-- fields: SECTION -->` and `<!-- end fields -->`. Run with ROLLTRIAGE_UPDATE_DOCS=1 to
+/// rewrite them after changing the registry.
+#[test]
+fn docs_field_tables_match_the_registry() {
+    use rolltriage::case::registry::{DOC_SECTIONS, markdown_table};
+    let path = Path::new(env!("CARGO_MANIFEST_DIR")).join("docs/case-format.md");
+    let text = std::fs::read_to_string(&path).unwrap();
+    let mut out = String::new();
+    let mut rest = text.as_str();
+    let mut seen = Vec::new();
+    while let Some(start) = rest.find("<!-- fields: ") {
+        let open_end = start + rest[start..].find("-->").unwrap() + 3;
+        let section = rest[start + "<!-- fields: ".len()..open_end - 3].trim();
+        let close = open_end + rest[open_end..].find("<!-- end fields -->").unwrap();
+        let section = if section == "top" { "" } else { section };
+        out.push_str(&rest[..open_end]);
+        out.push('\n');
+        out.push_str(&markdown_table(section));
+        seen.push(section.to_string());
+        rest = &rest[close..];
+    }
+    out.push_str(rest);
+    let wanted: Vec<String> = DOC_SECTIONS.iter().map(|s| s.to_string()).collect();
+    if std::env::var_os("ROLLTRIAGE_UPDATE_DOCS").is_some() {
+        std::fs::write(&path, &out).unwrap();
+    }
+    assert_eq!(seen, wanted, "docs/case-format.md: generated sections");
+    assert!(
+        out == text,
+        "docs/case-format.md field tables differ from the registry; run the test with ROLLTRIAGE_UPDATE_DOCS=1 and commit"
+    );
 }

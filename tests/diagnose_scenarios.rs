@@ -256,7 +256,7 @@ fn kestrel_blocking_from_hot_web() {
 #[test]
 fn alder_laminate_blocking_from_tacky_surface() {
     let mut case = with_symptoms(pet_film("Alder label laminate"), &["blocking"]);
-    case.web.material = "laminate".into();
+    case.web.material = rolltriage::vocabulary::WebMaterial::Laminate;
     let case = answer(case, "blocking.tacky_product", "yes");
     let d = run(&case);
     assert_first(&d, "tacky_web");
@@ -390,7 +390,7 @@ fn alder_nonwoven_bulk_loss_from_heavy_nip() {
     // High-loft nonwoven, 0.5 mm, soft stack (Pfeiffer K1 2 kPa, K2 8; representative values,
     // from memory), 80 N/m tension with a 500 N/m lay-on roll.
     let mut case = with_symptoms(newsprint("Alder spunlace"), &["bulk_loss"]);
-    case.web.material = "nonwoven".into();
+    case.web.material = rolltriage::vocabulary::WebMaterial::Nonwoven;
     case.web.thickness = 0.5e-3;
     case.web.tangential_modulus = 0.2e9;
     case.web.radial_stiffness = RadialStiffness::Pfeiffer { k1: 2.0e3, k2: 8.0 };

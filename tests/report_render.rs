@@ -87,7 +87,7 @@ fn fixture(with_remedy: bool) -> ReportInput {
         title: case.title.clone(),
         web: ResolvedWeb {
             preset: Some("newsprint".into()),
-            material: "paper".into(),
+            material: rolltriage::vocabulary::WebMaterial::Paper,
             thickness: 76e-6,
             width: 1.68,
             tangential_modulus: 4.8e9,
@@ -99,7 +99,7 @@ fn fixture(with_remedy: bool) -> ReportInput {
         },
         core: ResolvedCore {
             preset: None,
-            material: "paper".into(),
+            material: rolltriage::vocabulary::CoreMaterial::Paper,
             inside_diameter: 0.0762,
             outside_diameter: 2.0 * CORE_RADIUS,
             stiffness: CoreStiffness::Hollow {

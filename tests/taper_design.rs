@@ -20,7 +20,7 @@ fn film_roll(crush_pressure: f64, start_tension: f64) -> ResolvedCase {
         title: "test film roll".into(),
         web: ResolvedWeb {
             preset: None,
-            material: "film".into(),
+            material: rolltriage::vocabulary::WebMaterial::Film,
             thickness: 80e-6,
             width: 1.0,
             tangential_modulus: 200e6,
@@ -32,7 +32,7 @@ fn film_roll(crush_pressure: f64, start_tension: f64) -> ResolvedCase {
         },
         core: ResolvedCore {
             preset: None,
-            material: "paper".into(),
+            material: rolltriage::vocabulary::CoreMaterial::Paper,
             inside_diameter: 0.0762,
             outside_diameter: 0.09,
             stiffness: CoreStiffness::Hollow {

@@ -680,14 +680,15 @@ fn tension_at(case: &ResolvedCase, r: f64) -> f64 {
 }
 
 /// Approximate density of the material kind, kg/m³ — typical values `(from memory)`.
-fn density(material: &str) -> f64 {
+fn density(material: crate::vocabulary::WebMaterial) -> f64 {
+    use crate::vocabulary::WebMaterial;
     match material {
-        "film" => 1390.0,
-        "foil" => 2700.0,
-        "nonwoven" => 300.0,
-        "board" => 750.0,
-        "laminate" => 1100.0,
-        _ => 700.0,
+        WebMaterial::Film => 1390.0,
+        WebMaterial::Foil => 2700.0,
+        WebMaterial::Nonwoven => 300.0,
+        WebMaterial::Board => 750.0,
+        WebMaterial::Laminate => 1100.0,
+        WebMaterial::Paper => 700.0,
     }
 }
 
@@ -698,7 +699,7 @@ fn acceleration_torque_per_width(case: &ResolvedCase, core_r: f64, outer_r: f64)
     };
     // Solid annulus: J per width = ρ·π·(R⁴ − rc⁴)/2; α = v / (R·t).
     let inertia =
-        density(&case.web.material) * std::f64::consts::PI * (outer_r.powi(4) - core_r.powi(4))
+        density(case.web.material) * std::f64::consts::PI * (outer_r.powi(4) - core_r.powi(4))
             / 2.0;
     let angular_acceleration = case.winding.speed / (outer_r * time);
     inertia * angular_acceleration

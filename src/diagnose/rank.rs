@@ -82,8 +82,8 @@ pub fn evaluate(
         }
         Test::Material(values) => Some((
             values.contains(&case.web.material),
-            Some(case.web.material.clone()),
-            Some(format!("= {}", values.join(" or "))),
+            Some(case.web.material.id().to_string()),
+            Some(format!("= {}", ids(values))),
         )),
         Test::Method(values) => {
             // A rule may name the winder type or its family: a gap winder is centre-driven,
@@ -102,14 +102,20 @@ pub fn evaluate(
                 .symptoms
                 .iter()
                 .find(|s| s.id == symptom)
-                .and_then(|s| s.place.clone())?;
+                .and_then(|s| s.where_seen())?;
             Some((
                 values.contains(&place),
-                Some(place),
-                Some(format!("= {}", values.join(" or "))),
+                Some(place.id().to_string()),
+                Some(format!("= {}", ids(values))),
             ))
         }
     }
+}
+
+/// The IDs of closed-list words, joined as the rule text would say them.
+fn ids<T: std::fmt::Display>(values: &[T]) -> String {
+    let words: Vec<String> = values.iter().map(|v| v.to_string()).collect();
+    words.join(" or ")
 }
 
 fn test_name(test: &Test) -> (String, Option<ZoneName>) {

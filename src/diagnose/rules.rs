@@ -369,9 +369,9 @@ pub enum Test {
         question: String,
         values: Vec<String>,
     },
-    Material(Vec<String>),
+    Material(Vec<vocabulary::WebMaterial>),
     Method(Vec<String>),
-    Place(Vec<String>),
+    Place(Vec<vocabulary::Place>),
 }
 
 /// One piece of evidence: a test and the certainty factor it adds when it holds.
@@ -1088,8 +1088,7 @@ fn compile_symptom(
     })
 }
 
-const MATERIALS: [&str; 6] = ["paper", "board", "film", "foil", "nonwoven", "laminate"];
-const METHODS: [&str; 5] = crate::model::WindingMethod::IDS;
+const METHODS: &[&str] = vocabulary::WINDING_METHOD_IDS;
 
 fn compile_evidence(
     ev: RawEvidence,
@@ -1252,16 +1251,34 @@ fn compile_evidence(
         Test::Answer { question, values }
     } else if let Some(m) = ev.material {
         let values = m.into_vec();
-        check_words(&values, &MATERIALS, "material", file, line, problems);
-        Test::Material(values)
+        let accepted = vocabulary::WebMaterial::IDS;
+        check_words(&values, accepted, "material", file, line, problems);
+        Test::Material(
+            values
+                .iter()
+                .filter_map(|v| vocabulary::WebMaterial::from_id(v))
+                .collect(),
+        )
     } else if let Some(m) = ev.method {
         let values = m.into_vec();
-        check_words(&values, &METHODS, "method", file, line, problems);
+        check_words(&values, METHODS, "method", file, line, problems);
         Test::Method(values)
     } else if let Some(p) = ev.place {
         let values = p.into_vec();
-        check_words(&values, &vocabulary::PLACES, "place", file, line, problems);
-        Test::Place(values)
+        check_words(
+            &values,
+            vocabulary::Place::IDS,
+            "place",
+            file,
+            line,
+            problems,
+        );
+        Test::Place(
+            values
+                .iter()
+                .filter_map(|v| vocabulary::Place::from_id(v))
+                .collect(),
+        )
     } else {
         return None;
     };

@@ -381,107 +381,64 @@ pub fn input_lines(resolved: &ResolvedCase, units: UnitSystem) -> Vec<InputLine>
     let web = &resolved.web;
     let core = &resolved.core;
     let winding = &resolved.winding;
-    let mut lines: Vec<(String, &str, String)> = vec![
-        ("web.material".into(), "Web material", web.material.clone()),
-        (
-            "web.thickness".into(),
-            "Web thickness",
-            q(web.thickness, Length),
-        ),
-        ("web.width".into(), "Web width", q(web.width, Length)),
+    let mut lines: Vec<(String, String)> = vec![
+        ("web.material".into(), web.material.to_string()),
+        ("web.thickness".into(), q(web.thickness, Length)),
+        ("web.width".into(), q(web.width, Length)),
         (
             "web.tangential_modulus".into(),
-            "Tangential (machine-direction) modulus",
             q(web.tangential_modulus, Stress),
         ),
         (
             "web.radial_stiffness".into(),
-            "Radial stiffness law",
             radial_stiffness_text(&web.radial_stiffness, units),
         ),
-        (
-            "web.friction".into(),
-            "Web-to-web friction",
-            format!("{:.2}", web.friction),
-        ),
-        (
-            "web.roughness".into(),
-            "Surface roughness (RMS, one side)",
-            q(web.roughness, Length),
-        ),
-        (
-            "web.strength".into(),
-            "Tensile strength",
-            q(web.strength, ForcePerWidth),
-        ),
-        (
-            "core.material".into(),
-            "Core material",
-            core.material.clone(),
-        ),
+        ("web.friction".into(), format!("{:.2}", web.friction)),
+        ("web.roughness".into(), q(web.roughness, Length)),
+        ("web.strength".into(), q(web.strength, ForcePerWidth)),
+        ("core.material".into(), core.material.to_string()),
         (
             "core.inside_diameter".into(),
-            "Core inside diameter",
             q(core.inside_diameter, Length),
         ),
         (
             "core.outside_diameter".into(),
-            "Core outside diameter",
             q(core.outside_diameter, Length),
         ),
         (
             "core.stiffness".into(),
-            "Core stiffness",
             core_stiffness_text(&core.stiffness, units),
         ),
-        (
-            "core.crush_pressure".into(),
-            "Core rated crush pressure",
-            q(core.crush_pressure, Stress),
-        ),
+        ("core.crush_pressure".into(), q(core.crush_pressure, Stress)),
         (
             "roll.diameter".into(),
-            "Roll diameter",
             q(resolved.roll.outer_diameter, Length),
         ),
-        (
-            "roll.length".into(),
-            "Wound length",
-            q(resolved.roll.length, Length),
-        ),
+        ("roll.length".into(), q(resolved.roll.length, Length)),
         (
             "winding.method".into(),
-            "Winding method",
             method_text(winding.method).to_string(),
         ),
         (
             "winding.tension".into(),
-            "Web tension at the core",
             q(winding.tension.start_tension, ForcePerWidth),
         ),
         (
             "winding.taper".into(),
-            "Taper",
             taper_text(&winding.tension.taper, units),
         ),
         (
             "winding.nip_load".into(),
-            "Nip load",
             winding
                 .nip_load
                 .map(|n| q(n, ForcePerWidth))
                 .unwrap_or_else(|| "none".to_string()),
         ),
-        (
-            "winding.speed".into(),
-            "Line speed",
-            q(winding.speed, Speed),
-        ),
+        ("winding.speed".into(), q(winding.speed, Speed)),
     ];
     for (index, upset) in winding.tension.upsets.iter().enumerate() {
         lines.push((
             format!("winding.upsets[{index}]"),
-            "Tension upset band",
             format!(
                 "{} from diameter {} to {}",
                 q(upset.tension, ForcePerWidth),
@@ -491,29 +448,21 @@ pub fn input_lines(resolved: &ResolvedCase, units: UnitSystem) -> Vec<InputLine>
         ));
     }
     if let Some(t) = winding.temperature {
-        lines.push((
-            "winding.temperature".into(),
-            "Web temperature",
-            q(t, Temperature),
-        ));
+        lines.push(("winding.temperature".into(), q(t, Temperature)));
     }
     if let Some(t) = winding.acceleration_time {
-        lines.push((
-            "winding.acceleration_time".into(),
-            "Time to line speed",
-            format!("{t} s"),
-        ));
+        lines.push(("winding.acceleration_time".into(), format!("{t} s")));
     }
     lines
         .into_iter()
-        .map(|(field, label, value)| {
+        .map(|(field, value)| {
             let assumed = resolved.assumed.iter().find(|a| {
                 a.field == field
                     || a.field.starts_with(&format!("{field}."))
                     || (field == "roll.diameter" && a.field == "roll.outer_diameter")
             });
             InputLine {
-                label: label.to_string(),
+                label: input_label(&field).to_string(),
                 value,
                 assumed: assumed.is_some(),
                 source: assumed.map(|a| a.source.clone()),
@@ -521,6 +470,13 @@ pub fn input_lines(resolved: &ResolvedCase, units: UnitSystem) -> Vec<InputLine>
             }
         })
         .collect()
+}
+
+/// The plain-words label of an input line, from the case field registry (`winding.upsets[2]`
+/// takes the label of `winding.upsets`).
+fn input_label(field: &str) -> &'static str {
+    let path = field.split('[').next().unwrap_or(field);
+    crate::case::registry::field(path).map_or("", |f| f.label)
 }
 
 fn method_text(method: WindingMethod) -> &'static str {

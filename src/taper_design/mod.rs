@@ -1267,7 +1267,7 @@ mod tests {
             title: "unit".into(),
             web: ResolvedWeb {
                 preset: None,
-                material: "film".into(),
+                material: crate::vocabulary::WebMaterial::Film,
                 thickness: 100e-6,
                 width: 1.0,
                 tangential_modulus: 1e9,
@@ -1279,7 +1279,7 @@ mod tests {
             },
             core: ResolvedCore {
                 preset: None,
-                material: "steel".into(),
+                material: crate::vocabulary::CoreMaterial::Steel,
                 inside_diameter: 0.08,
                 outside_diameter: 0.1,
                 stiffness: CoreStiffness::Rigid,

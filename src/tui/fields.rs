@@ -1,13 +1,20 @@
 //! The inputs form: which case fields it shows, how each is edited (a quantity with units, a
-//! plain number, a choice, a preset ID, text), and reading/writing them on a [`Case`].
+//! plain number, a choice, a preset ID, text), and reading/writing them on a [`Case`]. The rows,
+//! labels, examples, choice lists and accepted ranges come from the case field registry
+//! ([`crate::case::registry`]): a field marked for the form there appears here.
 
+use std::sync::LazyLock;
+
+use crate::case::registry::{self, Field, Range};
 use crate::case::{Case, QuantityText, TaperInput};
 use crate::units::{QuantityKind, parse_quantity};
+
+pub use crate::case::registry::PresetFamily;
 
 /// How a field is edited and checked.
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub enum FieldKind {
-    /// A number with a unit, checked with `units::parse_quantity`.
+    /// A number with a unit, checked with `units::parse_quantity` and the field's range.
     Quantity(QuantityKind),
     /// A plain number in an accepted range.
     Number { min: f64, max: f64 },
@@ -17,12 +24,6 @@ pub enum FieldKind {
     Preset(PresetFamily),
     /// Free text.
     Text,
-}
-
-#[derive(Debug, Clone, Copy, PartialEq, Eq)]
-pub enum PresetFamily {
-    Web,
-    Core,
 }
 
 /// One row of the inputs form.
@@ -35,45 +36,64 @@ pub struct FieldSpec {
     pub kind: FieldKind,
     /// An example the user can type.
     pub example: &'static str,
+    /// The accepted range of a number or quantity, from the registry.
+    pub range: Option<Range>,
 }
 
-pub const MATERIALS: &[&str] = &["paper", "board", "film", "foil", "nonwoven", "laminate"];
-pub const CORE_MATERIALS: &[&str] = &["paper", "plastic", "aluminium", "steel", "rigid"];
-pub const WINDING_METHODS: &[&str] = &["centre", "surface", "centre_surface"];
-pub const TAPER_KINDS: &[&str] = &["none", "linear", "hyperbolic"];
+/// The taper kinds the form offers: `steps` needs a list of steps, which the form does not
+/// edit (write them in the case file).
+const FORM_TAPER_KINDS: &[&str] = &["none", "linear", "hyperbolic"];
+
+/// The form group of a registry field: its top-level section.
+fn group(field: &Field) -> &'static str {
+    match field.path.split('.').next() {
+        Some("web") => "Web",
+        Some("core") => "Core",
+        Some("roll") => "Roll",
+        Some("winding") => "Winding",
+        _ => "Case",
+    }
+}
+
+fn spec(field: &'static Field, label: &'static str) -> Option<FieldSpec> {
+    let kind = match field.kind {
+        registry::FieldKind::Quantity(kind) => FieldKind::Quantity(kind),
+        registry::FieldKind::Number => {
+            let range = field.range();
+            FieldKind::Number {
+                min: range.min,
+                max: range.max,
+            }
+        }
+        registry::FieldKind::Choice(_) if field.path == registry::TAPER_KIND.path => {
+            FieldKind::Choice(FORM_TAPER_KINDS)
+        }
+        registry::FieldKind::Choice(words) => FieldKind::Choice(words),
+        registry::FieldKind::Preset(family) => FieldKind::Preset(family),
+        registry::FieldKind::Text => FieldKind::Text,
+        registry::FieldKind::Section | registry::FieldKind::List | registry::FieldKind::Map => {
+            return None;
+        }
+    };
+    Some(FieldSpec {
+        path: field.path,
+        group: group(field),
+        label,
+        kind,
+        example: field.example,
+        range: field.range,
+    })
+}
+
+/// Every field of the form, in display order (the registry's fields marked for the form).
+pub static FIELDS: LazyLock<Vec<FieldSpec>> = LazyLock::new(|| {
+    registry::FIELDS
+        .iter()
+        .filter_map(|f| f.form.and_then(|label| spec(f, label)))
+        .collect()
+});
 
 use FieldKind::{Choice, Number, Preset, Quantity, Text};
-use QuantityKind as Q;
-
-/// Every field of the form, in display order.
-#[rustfmt::skip]
-pub const FIELDS: &[FieldSpec] = &[
-    FieldSpec { path: "title", group: "Case", label: "Title", kind: Text, example: "Reel 4 telescoped" },
-    FieldSpec { path: "web.preset", group: "Web", label: "Web preset", kind: Preset(PresetFamily::Web), example: "newsprint" },
-    FieldSpec { path: "web.material", group: "Web", label: "Material", kind: Choice(MATERIALS), example: "paper" },
-    FieldSpec { path: "web.thickness", group: "Web", label: "Thickness", kind: Quantity(Q::Length), example: "76 um" },
-    FieldSpec { path: "web.width", group: "Web", label: "Width", kind: Quantity(Q::Length), example: "2.4 m" },
-    FieldSpec { path: "web.tangential_modulus", group: "Web", label: "MD modulus", kind: Quantity(Q::Stress), example: "4 GPa" },
-    FieldSpec { path: "web.friction", group: "Web", label: "Web-web friction", kind: Number { min: 0.0, max: 2.0 }, example: "0.4" },
-    FieldSpec { path: "web.roughness", group: "Web", label: "Roughness (RMS)", kind: Quantity(Q::Length), example: "3 um" },
-    FieldSpec { path: "web.strength", group: "Web", label: "Tensile strength", kind: Quantity(Q::ForcePerWidth), example: "3 kN/m" },
-    FieldSpec { path: "core.preset", group: "Core", label: "Core preset", kind: Preset(PresetFamily::Core), example: "paper_3in" },
-    FieldSpec { path: "core.material", group: "Core", label: "Core material", kind: Choice(CORE_MATERIALS), example: "paper" },
-    FieldSpec { path: "core.inside_diameter", group: "Core", label: "Core inside dia.", kind: Quantity(Q::Length), example: "76 mm" },
-    FieldSpec { path: "core.outside_diameter", group: "Core", label: "Core outside dia.", kind: Quantity(Q::Length), example: "100 mm" },
-    FieldSpec { path: "core.modulus", group: "Core", label: "Core modulus", kind: Quantity(Q::Stress), example: "3 GPa" },
-    FieldSpec { path: "core.crush_pressure", group: "Core", label: "Core crush rating", kind: Quantity(Q::Stress), example: "2 MPa" },
-    FieldSpec { path: "roll.diameter", group: "Roll", label: "Roll diameter", kind: Quantity(Q::Length), example: "1 m" },
-    FieldSpec { path: "roll.length", group: "Roll", label: "Wound length", kind: Quantity(Q::Length), example: "12000 m" },
-    FieldSpec { path: "winding.method", group: "Winding", label: "Winding method", kind: Choice(WINDING_METHODS), example: "centre" },
-    FieldSpec { path: "winding.tension", group: "Winding", label: "Web tension", kind: Quantity(Q::ForcePerWidth), example: "3 pli" },
-    FieldSpec { path: "winding.taper.kind", group: "Winding", label: "Taper", kind: Choice(TAPER_KINDS), example: "hyperbolic" },
-    FieldSpec { path: "winding.taper.amount", group: "Winding", label: "Taper amount", kind: Quantity(Q::Percent), example: "25 %" },
-    FieldSpec { path: "winding.nip_load", group: "Winding", label: "Nip load", kind: Quantity(Q::ForcePerWidth), example: "10 pli" },
-    FieldSpec { path: "winding.speed", group: "Winding", label: "Line speed", kind: Quantity(Q::Speed), example: "1200 fpm" },
-    FieldSpec { path: "winding.temperature", group: "Winding", label: "Web temperature", kind: Quantity(Q::Temperature), example: "35 °C" },
-    FieldSpec { path: "winding.acceleration_time", group: "Winding", label: "Run-up time (s)", kind: Number { min: 0.0, max: 3600.0 }, example: "20" },
-];
 
 /// Find a field by its path.
 pub fn field(path: &str) -> Option<&'static FieldSpec> {
@@ -130,14 +150,26 @@ pub fn check(spec: &FieldSpec, text: &str) -> Result<(), String> {
         return Ok(());
     }
     match spec.kind {
-        Quantity(kind) => parse_quantity(spec.path, text, kind)
-            .map(|_| ())
-            .map_err(|e| e.to_string()),
-        Number { min, max } => match text.parse::<f64>() {
-            Ok(v) if v.is_finite() && (min..=max).contains(&v) => Ok(()),
+        Quantity(kind) => {
+            let value = parse_quantity(spec.path, text, kind).map_err(|e| e.to_string())?;
+            match spec.range {
+                Some(range) if !range.contains(value) => Err(format!(
+                    "{}: {} is not accepted; {}",
+                    spec.path,
+                    range.show(value),
+                    range.describe()
+                )),
+                _ => Ok(()),
+            }
+        }
+        Number { min, max } => match (text.parse::<f64>(), spec.range) {
+            (Ok(v), Some(range)) if range.contains(v) => Ok(()),
+            (Ok(v), None) if v.is_finite() && (min..=max).contains(&v) => Ok(()),
             _ => Err(format!(
-                "{}: \"{text}\" is not accepted; a plain number from {min} to {max}",
-                spec.path
+                "{}: \"{text}\" is not accepted; a plain number {}",
+                spec.path,
+                spec.range
+                    .map_or_else(|| format!("from {min} to {max}"), |range| range.describe())
             )),
         },
         Choice(options) => {
@@ -270,9 +302,26 @@ mod tests {
     #[test]
     fn every_path_is_readable() {
         let case = Case::default();
-        for f in FIELDS {
+        for f in FIELDS.iter() {
             assert_eq!(get(&case, f.path), None, "{}", f.path);
         }
+    }
+
+    #[test]
+    fn form_ranges_are_the_registry_ranges() {
+        let friction = field("web.friction").unwrap();
+        // The case file refuses a friction of 0 (more than 0 is required); so does the form.
+        assert!(check(friction, "0").is_err());
+        let thickness = field("web.thickness").unwrap();
+        assert!(check(thickness, "76 um").is_ok());
+        assert!(check(thickness, "5 m").is_err());
+        let registry_paths: Vec<&str> = registry::FIELDS
+            .iter()
+            .filter(|f| f.form.is_some())
+            .map(|f| f.path)
+            .collect();
+        let form_paths: Vec<&str> = FIELDS.iter().map(|f| f.path).collect();
+        assert_eq!(registry_paths, form_paths);
     }
 
     #[test]

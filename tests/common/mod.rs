@@ -24,7 +24,7 @@ pub fn newsprint(title: &str) -> ResolvedCase {
         title: title.to_string(),
         web: ResolvedWeb {
             preset: None,
-            material: "paper".into(),
+            material: rolltriage::vocabulary::WebMaterial::Paper,
             thickness: 75e-6,
             width: 1.6,
             tangential_modulus: 4.0e9,
@@ -67,7 +67,7 @@ pub fn pet_film(title: &str) -> ResolvedCase {
         title: title.to_string(),
         web: ResolvedWeb {
             preset: None,
-            material: "film".into(),
+            material: rolltriage::vocabulary::WebMaterial::Film,
             thickness: 23e-6,
             width: 1.2,
             tangential_modulus: 4.5e9,
@@ -108,7 +108,7 @@ pub fn pet_film(title: &str) -> ResolvedCase {
 pub fn paper_core(inside: f64, outside: f64, modulus: f64, crush: f64) -> ResolvedCore {
     ResolvedCore {
         preset: None,
-        material: "paper".into(),
+        material: rolltriage::vocabulary::CoreMaterial::Paper,
         inside_diameter: inside,
         outside_diameter: outside,
         stiffness: CoreStiffness::Hollow {

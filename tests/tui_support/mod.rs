@@ -81,7 +81,7 @@ pub fn resolved(title: &str) -> ResolvedCase {
         title: title.into(),
         web: ResolvedWeb {
             preset: Some("newsprint".into()),
-            material: "paper".into(),
+            material: rolltriage::vocabulary::WebMaterial::Paper,
             thickness: 76e-6,
             width: 2.4,
             tangential_modulus: 4e9,
@@ -96,7 +96,7 @@ pub fn resolved(title: &str) -> ResolvedCase {
         },
         core: ResolvedCore {
             preset: Some("paper_3in".into()),
-            material: "paper".into(),
+            material: rolltriage::vocabulary::CoreMaterial::Paper,
             inside_diameter: 0.0762,
             outside_diameter: 0.1,
             stiffness: CoreStiffness::Measured { stiffness: 1e9 },

@@ -1,0 +1,217 @@
+//! The case file: web, core, roll, winding settings, observed symptoms and answers to the
+//! symptom questions. Parse (YAML, our own schema), validate, resolve against presets into SI,
+//! and save atomically.
+//!
+//! Every quantity is a string with its unit (`"3 pli"`, `"76 um"`) or a plain number in SI
+//! (m, N/m, Pa, m/s; °C for temperature; a fraction for percentages). The format is described
+//! in docs/case-format.md.
+//!
+//! The parts: [`schema`] (the structs as written), [`yaml_guard`] (size, duplicate-key, nesting
+//! and alias guards, and error locating), [`registry`] (every field's path, label, range,
+//! default, help and example), `resolve` (into SI), [`resolved`] (the result), [`starter`]
+//! (`case new`). Loading and saving are here.
+//!
+//! Guards: files over [`MAX_CASE_FILE_BYTES`] are refused before parsing; the YAML parser's own
+//! limits on nesting depth (128) and alias expansion stop deep or "billion laughs" documents;
+//! duplicate keys are refused everywhere.
+
+pub mod registry;
+mod resolve;
+pub mod resolved;
+pub mod schema;
+pub mod starter;
+pub mod yaml_guard;
+
+pub use registry::MAX_LAYERS;
+pub use resolved::{
+    AssumedValue, ResolvedCase, ResolvedCore, ResolvedRoll, ResolvedWeb, ResolvedWinding,
+};
+pub use schema::{
+    Case, CoreInput, ObservedSymptom, QuantityText, RadialStiffnessInput, RollInput, StepInput,
+    TaperInput, UpsetInput, WebInput, WindingInput,
+};
+pub use starter::starter_yaml;
+
+/// Largest case file accepted (bytes). Real cases are a few kilobytes; refusing anything larger
+/// before parsing keeps a stray log file or a generated monster from eating memory.
+pub const MAX_CASE_FILE_BYTES: u64 = 1024 * 1024;
+
+/// Errors reading, validating, resolving or saving a case file. Every message names the file
+/// (or origin), the field and what is accepted.
+#[derive(Debug, thiserror::Error)]
+pub enum CaseError {
+    #[error("{origin}: {message}")]
+    Invalid { origin: String, message: String },
+    /// A unit error without a file name (prefer [`CaseError::Quantity`]). Boxed to keep the
+    /// error small; `From<UnitError>` still works with `?`.
+    #[error(transparent)]
+    Unit(Box<crate::units::UnitError>),
+    #[error("cannot read {path}: {source}")]
+    Read {
+        path: std::path::PathBuf,
+        source: std::io::Error,
+    },
+    #[error(transparent)]
+    Save(#[from] crate::fsutil::SaveError),
+    /// The file is larger than [`MAX_CASE_FILE_BYTES`]; it was not parsed.
+    #[error("{origin}: the file is {size} bytes; a case file may be at most {limit} bytes")]
+    TooLarge {
+        origin: String,
+        size: u64,
+        limit: u64,
+    },
+    /// The file is not UTF-8 text.
+    #[error(
+        "{origin}: line {line}: not UTF-8 text (bad byte at offset {offset}); save the case as UTF-8"
+    )]
+    NotUtf8 {
+        origin: String,
+        line: usize,
+        offset: usize,
+    },
+    /// YAML that does not parse or does not fit the schema (wrong type, missing field,
+    /// duplicate key, alias or nesting limits).
+    #[error("{origin}: line {line}, column {column}: {message}")]
+    Syntax {
+        origin: String,
+        line: usize,
+        column: usize,
+        message: String,
+    },
+    /// A key the schema does not know.
+    #[error("{origin}: line {line}, column {column}: unknown key `{key}` in {section}{}; accepted keys: {accepted}", suggestion_text(.suggestion.as_deref()))]
+    UnknownKey {
+        origin: String,
+        line: u32,
+        column: u32,
+        /// Where the key was found (`web`, `winding.taper`, `the top level`, ...).
+        section: String,
+        key: String,
+        suggestion: Option<Box<str>>,
+        accepted: Box<str>,
+    },
+    /// A quantity with a missing, unknown or wrong-kind unit.
+    #[error("{origin}: {source}")]
+    Quantity {
+        origin: String,
+        source: Box<crate::units::UnitError>,
+    },
+    /// A value outside its accepted range.
+    #[error("{origin}: {field} = {given} is out of range; accepted: {accepted}")]
+    OutOfRange {
+        origin: String,
+        field: String,
+        given: String,
+        accepted: String,
+    },
+    /// A name (symptom, place, preset, law, method, material) that is not in its list.
+    #[error("{origin}: {field}: unknown {what} \"{given}\"{}; accepted: {accepted}", suggestion_text(*.suggestion))]
+    UnknownName {
+        origin: String,
+        field: String,
+        what: &'static str,
+        given: Box<str>,
+        suggestion: Option<&'static str>,
+        accepted: Box<str>,
+    },
+}
+
+impl From<crate::units::UnitError> for CaseError {
+    fn from(error: crate::units::UnitError) -> Self {
+        CaseError::Unit(Box::new(error))
+    }
+}
+
+fn suggestion_text(suggestion: Option<&str>) -> String {
+    match suggestion {
+        Some(s) => format!(" (did you mean `{s}`?)"),
+        None => String::new(),
+    }
+}
+
+impl Case {
+    /// Parse a case from YAML text; `origin` (usually the file name) is used in messages.
+    pub fn from_yaml_str(text: &str, origin: &str) -> Result<Case, CaseError> {
+        yaml_guard::parse_guarded(text, origin)
+    }
+
+    /// Parse a case from raw bytes (checks size and UTF-8 first).
+    pub fn from_yaml_bytes(bytes: &[u8], origin: &str) -> Result<Case, CaseError> {
+        if bytes.len() as u64 > MAX_CASE_FILE_BYTES {
+            return Err(CaseError::TooLarge {
+                origin: origin.to_string(),
+                size: bytes.len() as u64,
+                limit: MAX_CASE_FILE_BYTES,
+            });
+        }
+        let text = std::str::from_utf8(bytes).map_err(|error| {
+            let offset = error.valid_up_to();
+            CaseError::NotUtf8 {
+                origin: origin.to_string(),
+                line: bytes[..offset].iter().filter(|b| **b == b'\n').count() + 1,
+                offset,
+            }
+        })?;
+        Case::from_yaml_str(text, origin)
+    }
+
+    /// Read and parse a case file. Files over [`MAX_CASE_FILE_BYTES`] are refused unread.
+    pub fn load(path: &std::path::Path) -> Result<Case, CaseError> {
+        use std::io::Read;
+        let origin = path.display().to_string();
+        let read_error = |source| CaseError::Read {
+            path: path.to_path_buf(),
+            source,
+        };
+        let file = std::fs::File::open(path).map_err(read_error)?;
+        let size = file.metadata().map_err(read_error)?.len();
+        if size > MAX_CASE_FILE_BYTES {
+            return Err(CaseError::TooLarge {
+                origin,
+                size,
+                limit: MAX_CASE_FILE_BYTES,
+            });
+        }
+        // Read at most one byte past the limit, in case the file grows or is not a regular file.
+        let mut bytes = Vec::new();
+        file.take(MAX_CASE_FILE_BYTES + 1)
+            .read_to_end(&mut bytes)
+            .map_err(read_error)?;
+        Case::from_yaml_bytes(&bytes, &origin)
+    }
+
+    /// The case as YAML text (the schema of this module).
+    pub fn to_yaml_string(&self) -> Result<String, CaseError> {
+        yaml::to_string(self).map_err(|error| CaseError::Invalid {
+            origin: self.title.clone(),
+            message: format!("cannot write the case as YAML: {error}"),
+        })
+    }
+
+    /// Save atomically (temporary file + rename): a failed save leaves the old file intact.
+    pub fn save(&self, path: &std::path::Path) -> Result<(), CaseError> {
+        let text = self.to_yaml_string()?;
+        crate::fsutil::save_atomic(path, text.as_bytes())?;
+        Ok(())
+    }
+
+    /// Resolve units and presets into SI; lists the assumed values. Messages name the case by
+    /// its title; use [`Case::resolve_as`] to name the file instead.
+    pub fn resolve(&self) -> Result<ResolvedCase, CaseError> {
+        self.resolve_as(&format!("case \"{}\"", self.title))
+    }
+
+    /// Resolve, naming `origin` (usually the file name) in every message.
+    pub fn resolve_as(&self, origin: &str) -> Result<ResolvedCase, CaseError> {
+        resolve::Resolver {
+            origin: origin.to_string(),
+            assumed: Vec::new(),
+        }
+        .resolve(self)
+    }
+
+    /// Load a file and resolve it, naming the file in every message.
+    pub fn load_resolved(path: &std::path::Path) -> Result<ResolvedCase, CaseError> {
+        Case::load(path)?.resolve_as(&path.display().to_string())
+    }
+}

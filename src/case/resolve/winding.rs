@@ -1,0 +1,422 @@
+//! Resolve the roll (diameter and wound length) and the winding settings: method, tension,
+//! taper, upsets, nip load, speed.
+
+use crate::model::schedule::TensionStep;
+use crate::model::{Taper, TensionSchedule, UpsetBand, WindingMethod};
+use crate::presets;
+use crate::units::QuantityKind;
+use crate::vocabulary::TaperKind;
+
+use super::super::registry::{self as reg, MAX_LAYERS, Range};
+use super::super::{
+    CaseError, QuantityText, ResolvedCore, ResolvedRoll, ResolvedWeb, ResolvedWinding, RollInput,
+    TaperInput, WindingInput,
+};
+use super::Resolver;
+
+impl Resolver {
+    pub(super) fn roll(
+        &mut self,
+        roll: &RollInput,
+        web: &ResolvedWeb,
+        core: &ResolvedCore,
+    ) -> Result<ResolvedRoll, CaseError> {
+        let core_radius = core.outside_diameter / 2.0;
+        let diameter = self.quantity(
+            reg::ROLL_DIAMETER.path,
+            roll.diameter.as_ref(),
+            QuantityKind::Length,
+        )?;
+        let length = self.quantity(
+            reg::ROLL_LENGTH.path,
+            roll.length.as_ref(),
+            QuantityKind::Length,
+        )?;
+        // Wound length of an ideal stack: L = π·(R² − rc²)/h.
+        let length_of = |d: f64| {
+            std::f64::consts::PI * ((d / 2.0).powi(2) - core_radius.powi(2)) / web.thickness
+        };
+        let (diameter, length) = match (diameter, length) {
+            (Some(d), given_length) => {
+                let d = self.check(reg::ROLL_DIAMETER.path, d, &reg::ROLL_DIAMETER.range())?;
+                if d <= core.outside_diameter {
+                    return Err(self.out_of_range(
+                        reg::ROLL_DIAMETER.path,
+                        reg::ROLL_DIAMETER.range().show(d),
+                        format!(
+                            "larger than the core outside diameter {} (the core is bigger than the roll)",
+                            reg::CORE_OUTSIDE.range().show(core.outside_diameter)
+                        ),
+                    ));
+                }
+                // The length derived from a given diameter is informational (the model works
+                // on radii), so it is not listed as assumed.
+                let length = match given_length {
+                    Some(l) => self.check(reg::ROLL_LENGTH.path, l, &reg::ROLL_LENGTH.range())?,
+                    None => length_of(d),
+                };
+                (d, length)
+            }
+            (None, Some(l)) => {
+                let l = self.check(reg::ROLL_LENGTH.path, l, &reg::ROLL_LENGTH.range())?;
+                let d =
+                    2.0 * (core_radius.powi(2) + l * web.thickness / std::f64::consts::PI).sqrt();
+                self.assume(
+                    reg::ROLL_DIAMETER.path,
+                    reg::ROLL_DIAMETER.range().show(d),
+                    "",
+                    "computed from the length and the caliper: R = √(rc² + L·h/π)",
+                );
+                (
+                    self.check(reg::ROLL_DIAMETER.path, d, &reg::ROLL_DIAMETER.range())?,
+                    l,
+                )
+            }
+            (None, None) => {
+                let fallback = presets::DEFAULT_ROLL_DIAMETER;
+                if fallback.value <= core.outside_diameter {
+                    return Err(self.invalid(
+                        "roll.diameter is needed: the core is larger than the default roll",
+                    ));
+                }
+                let d = self.assumed(
+                    reg::ROLL_DIAMETER.path,
+                    &reg::ROLL_DIAMETER.range(),
+                    fallback,
+                    "",
+                );
+                let l = length_of(d);
+                self.assume(
+                    reg::ROLL_LENGTH.path,
+                    reg::ROLL_LENGTH.range().show(l),
+                    "",
+                    "computed from the diameters and the caliper: L = π(R² − rc²)/h",
+                );
+                (d, l)
+            }
+        };
+        let layers = (diameter / 2.0 - core_radius) / web.thickness;
+        if layers > MAX_LAYERS {
+            return Err(self.out_of_range(
+                reg::ROLL_DIAMETER.path,
+                reg::ROLL_DIAMETER.range().show(diameter),
+                format!(
+                    "a build of at most {MAX_LAYERS:e} layers of this caliper ({} would be {layers:.3e} layers)",
+                    reg::WEB_THICKNESS.range().show(web.thickness)
+                ),
+            ));
+        }
+        Ok(ResolvedRoll {
+            outer_diameter: diameter,
+            length,
+        })
+    }
+
+    /// A diameter inside the wound part of the roll, returned as a radius.
+    fn radius_in_roll(
+        &self,
+        field: &str,
+        value: &QuantityText,
+        core: &ResolvedCore,
+        roll: &ResolvedRoll,
+    ) -> Result<f64, CaseError> {
+        let d = self
+            .quantity(field, Some(value), QuantityKind::Length)?
+            .unwrap_or(f64::NAN);
+        let range = reg::from(
+            core.outside_diameter,
+            roll.outer_diameter,
+            QuantityKind::Length,
+        );
+        Ok(self.check(field, d, &range)? / 2.0)
+    }
+
+    fn tension_below_strength(
+        &self,
+        field: &str,
+        value: f64,
+        web: &ResolvedWeb,
+        range: &Range,
+    ) -> Result<f64, CaseError> {
+        let value = self.check(field, value, range)?;
+        if value >= web.strength {
+            return Err(self.out_of_range(
+                field,
+                range.show(value),
+                format!(
+                    "less than the web strength {} (the web would break)",
+                    reg::STRENGTH.range().show(web.strength)
+                ),
+            ));
+        }
+        Ok(value)
+    }
+
+    /// The `tension` of a listed band (a taper step or an upset) at `{field}.tension`: a
+    /// required force per width, in `range` and below the web strength.
+    fn band_tension(
+        &self,
+        field: &str,
+        text: &QuantityText,
+        web: &ResolvedWeb,
+        range: &Range,
+    ) -> Result<f64, CaseError> {
+        let field = format!("{field}.tension");
+        let tension = self
+            .quantity(&field, Some(text), QuantityKind::ForcePerWidth)?
+            .unwrap_or(f64::NAN);
+        self.tension_below_strength(&field, tension, web, range)
+    }
+
+    pub(super) fn winding(
+        &mut self,
+        winding: &WindingInput,
+        web: &ResolvedWeb,
+        core: &ResolvedCore,
+        roll: &ResolvedRoll,
+    ) -> Result<ResolvedWinding, CaseError> {
+        let method = match &winding.method {
+            Some(m) => self.word(
+                &reg::METHOD,
+                "winding method",
+                m,
+                WindingMethod::from_id,
+                crate::vocabulary::WINDING_METHOD_IDS,
+            )?,
+            None => {
+                self.assume(
+                    reg::METHOD.path,
+                    "centre".to_string(),
+                    "",
+                    "default: centre winding",
+                );
+                WindingMethod::Centre
+            }
+        };
+        let preset_id = web.preset.clone().unwrap_or_default();
+        let typical = presets::web_preset(&preset_id)
+            .map(|p| p.typical_tension)
+            .unwrap_or(presets::web_presets()[0].typical_tension);
+        let start_tension = match self.quantity(
+            reg::TENSION.path,
+            winding.tension.as_ref(),
+            QuantityKind::ForcePerWidth,
+        )? {
+            Some(t) => t,
+            None => {
+                self.assume(
+                    reg::TENSION.path,
+                    reg::TENSION.range().show(typical.value),
+                    &format!("preset {preset_id}"),
+                    typical.source,
+                );
+                typical.value
+            }
+        };
+        let start_tension = self.tension_below_strength(
+            reg::TENSION.path,
+            start_tension,
+            web,
+            &reg::TENSION.range(),
+        )?;
+        let taper = match &winding.taper {
+            None => {
+                self.assume(
+                    reg::TAPER_KIND.path,
+                    "none".to_string(),
+                    "",
+                    "default: constant tension",
+                );
+                Taper::None
+            }
+            Some(taper) => self.taper(taper, web, core, roll)?,
+        };
+        let upsets = self.upsets(winding, web, core, roll)?;
+        let nip_load = match self.quantity(
+            reg::NIP.path,
+            winding.nip_load.as_ref(),
+            QuantityKind::ForcePerWidth,
+        )? {
+            Some(n) => Some(self.check(reg::NIP.path, n, &reg::NIP.range())?),
+            None => {
+                self.assume(
+                    reg::NIP.path,
+                    "none".to_string(),
+                    "",
+                    "default: no nip or rider roll, so no nip-induced tension",
+                );
+                None
+            }
+        };
+        let speed = self.quantity_or(&reg::SPEED, winding.speed.as_ref(), None, None)?;
+        let temperature = match self.quantity(
+            reg::TEMPERATURE.path,
+            winding.temperature.as_ref(),
+            QuantityKind::Temperature,
+        )? {
+            Some(t) => Some(self.check(reg::TEMPERATURE.path, t, &reg::TEMPERATURE.range())?),
+            None => None,
+        };
+        let acceleration_time = match winding.acceleration_time {
+            Some(t) => Some(self.check(reg::ACCELERATION.path, t, &reg::ACCELERATION.range())?),
+            None => None,
+        };
+        Ok(ResolvedWinding {
+            method,
+            tension: TensionSchedule {
+                start_tension,
+                taper,
+                upsets,
+            },
+            nip_load,
+            speed,
+            temperature,
+            acceleration_time,
+        })
+    }
+
+    /// The tension upset bands, diameters turned into radii.
+    fn upsets(
+        &self,
+        winding: &WindingInput,
+        web: &ResolvedWeb,
+        core: &ResolvedCore,
+        roll: &ResolvedRoll,
+    ) -> Result<Vec<UpsetBand>, CaseError> {
+        let mut upsets = Vec::with_capacity(winding.upsets.len());
+        for (index, upset) in winding.upsets.iter().enumerate() {
+            let field = format!("winding.upsets[{index}]");
+            let from_radius = self.radius_in_roll(
+                &format!("{field}.from_diameter"),
+                &upset.from_diameter,
+                core,
+                roll,
+            )?;
+            let to_radius = self.radius_in_roll(
+                &format!("{field}.to_diameter"),
+                &upset.to_diameter,
+                core,
+                roll,
+            )?;
+            if to_radius <= from_radius {
+                return Err(self.out_of_range(
+                    &format!("{field}.to_diameter"),
+                    reg::CORE_OUTSIDE.range().show(2.0 * to_radius),
+                    format!(
+                        "larger than from_diameter {}",
+                        reg::CORE_OUTSIDE.range().show(2.0 * from_radius)
+                    ),
+                ));
+            }
+            let tension =
+                self.band_tension(&field, &upset.tension, web, &reg::UPSET_TENSION.range())?;
+            upsets.push(UpsetBand {
+                from_radius,
+                to_radius,
+                tension,
+            });
+        }
+        Ok(upsets)
+    }
+
+    fn taper(
+        &mut self,
+        taper: &TaperInput,
+        web: &ResolvedWeb,
+        core: &ResolvedCore,
+        roll: &ResolvedRoll,
+    ) -> Result<Taper, CaseError> {
+        let kind = self.word(
+            &reg::TAPER_KIND,
+            "taper kind",
+            &taper.kind,
+            TaperKind::from_id,
+            TaperKind::IDS,
+        )?;
+        if kind != TaperKind::Steps && !taper.steps.is_empty() {
+            return Err(self.invalid(format!(
+                "winding.taper.steps are given but winding.taper.kind is `{kind}`; use kind `steps`"
+            )));
+        }
+        let fraction = |this: &mut Self| -> Result<f64, CaseError> {
+            let field = reg::TAPER_AMOUNT.path;
+            match this.quantity(field, taper.amount.as_ref(), QuantityKind::Percent)? {
+                Some(f) => {
+                    if f > 1.0 {
+                        return Err(this.out_of_range(
+                            field,
+                            reg::TAPER_AMOUNT.range().show(f),
+                            "0 % to 100 % (a taper cannot take away more than all of the tension)"
+                                .into(),
+                        ));
+                    }
+                    this.check(field, f, &reg::TAPER_AMOUNT.range())
+                }
+                None => Err(this.invalid(format!(
+                    "{field} is required for a {kind} taper, e.g. amount: \"25 %\""
+                ))),
+            }
+        };
+        match kind {
+            TaperKind::None => {
+                if taper.amount.is_some() {
+                    return Err(
+                        self.invalid("winding.taper.amount is given but the taper kind is `none`")
+                    );
+                }
+                Ok(Taper::None)
+            }
+            TaperKind::Linear => Ok(Taper::Linear {
+                fraction: fraction(self)?,
+            }),
+            TaperKind::Hyperbolic => Ok(Taper::Hyperbolic {
+                fraction: fraction(self)?,
+            }),
+            TaperKind::Steps => self.steps(taper, web, core, roll),
+        }
+    }
+
+    /// The steps of a `steps` taper, diameters turned into radii.
+    fn steps(
+        &self,
+        taper: &TaperInput,
+        web: &ResolvedWeb,
+        core: &ResolvedCore,
+        roll: &ResolvedRoll,
+    ) -> Result<Taper, CaseError> {
+        if taper.amount.is_some() {
+            return Err(self.invalid(
+                "winding.taper.amount is not used by a `steps` taper; give the tension of each step",
+            ));
+        }
+        if taper.steps.is_empty() {
+            return Err(self
+                .invalid("winding.taper.steps is empty; a `steps` taper needs at least one step"));
+        }
+        let mut steps = Vec::with_capacity(taper.steps.len());
+        let mut last_radius = 0.0;
+        for (index, step) in taper.steps.iter().enumerate() {
+            let field = format!("winding.taper.steps[{index}]");
+            let radius = self.radius_in_roll(
+                &format!("{field}.from_diameter"),
+                &step.from_diameter,
+                core,
+                roll,
+            )?;
+            if index > 0 && radius <= last_radius {
+                return Err(self.out_of_range(
+                    &format!("{field}.from_diameter"),
+                    reg::CORE_OUTSIDE.range().show(2.0 * radius),
+                    format!(
+                        "larger than the previous step's diameter {} (list steps from the core outward)",
+                        reg::CORE_OUTSIDE.range().show(2.0 * last_radius)
+                    ),
+                ));
+            }
+            last_radius = radius;
+            let tension = self.band_tension(&field, &step.tension, web, &reg::TENSION.range())?;
+            steps.push(TensionStep { radius, tension });
+        }
+        Ok(Taper::Steps { steps })
+    }
+}

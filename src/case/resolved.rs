@@ -1,0 +1,116 @@
+//! The resolved case: every value in SI with presets applied, the enums of `vocabulary` in
+//! place of names, and the list of values that were assumed. What the model and the rules
+//! consume.
+
+use std::collections::BTreeMap;
+
+use serde::{Deserialize, Serialize};
+
+use super::ObservedSymptom;
+use crate::vocabulary::{CoreMaterial, WebMaterial};
+
+/// A case resolved into SI with presets applied: what the model and the rules consume.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct ResolvedCase {
+    pub title: String,
+    pub web: ResolvedWeb,
+    pub core: ResolvedCore,
+    pub roll: ResolvedRoll,
+    pub winding: ResolvedWinding,
+    pub symptoms: Vec<ObservedSymptom>,
+    pub answers: BTreeMap<String, String>,
+    /// Values that were not given and came from a preset or default.
+    pub assumed: Vec<AssumedValue>,
+}
+
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct ResolvedWeb {
+    /// Preset ID used for missing values, if any.
+    pub preset: Option<String>,
+    pub material: WebMaterial,
+    /// m
+    pub thickness: f64,
+    /// m
+    pub width: f64,
+    /// Pa
+    pub tangential_modulus: f64,
+    pub radial_stiffness: crate::model::RadialStiffness,
+    pub poisson_ratio: f64,
+    pub friction: f64,
+    /// RMS roughness of one surface, m
+    pub roughness: f64,
+    /// Tensile strength per width, N/m
+    pub strength: f64,
+}
+
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct ResolvedCore {
+    pub preset: Option<String>,
+    pub material: CoreMaterial,
+    /// m
+    pub inside_diameter: f64,
+    /// m
+    pub outside_diameter: f64,
+    pub stiffness: crate::model::CoreStiffness,
+    /// Pa
+    pub crush_pressure: f64,
+}
+
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct ResolvedRoll {
+    /// m
+    pub outer_diameter: f64,
+    /// Wound length, m
+    pub length: f64,
+}
+
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct ResolvedWinding {
+    pub method: crate::model::WindingMethod,
+    pub tension: crate::model::TensionSchedule,
+    /// N/m
+    pub nip_load: Option<f64>,
+    /// m/s
+    pub speed: f64,
+    /// °C
+    pub temperature: Option<f64>,
+    /// s
+    pub acceleration_time: Option<f64>,
+}
+
+/// One value that was not in the case file.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct AssumedValue {
+    /// Dotted field path, e.g. `web.tangential_modulus`.
+    pub field: String,
+    /// The value used, formatted with its unit.
+    pub value: String,
+    /// Where it came from: preset ID and the value's source note.
+    pub source: String,
+}
+
+impl ResolvedCase {
+    /// The mechanics problem for this case.
+    pub fn problem(&self, options: crate::model::SolverOptions) -> crate::model::WindingProblem {
+        crate::model::WindingProblem {
+            core_radius: self.core.outside_diameter / 2.0,
+            outer_radius: self.roll.outer_diameter / 2.0,
+            thickness: self.web.thickness,
+            tangential_modulus: self.web.tangential_modulus,
+            radial_stiffness: self.web.radial_stiffness,
+            poisson_ratio: self.web.poisson_ratio,
+            core: self.core.stiffness,
+            winding: crate::model::WindingSetup {
+                method: self.winding.method,
+                tension: self.winding.tension.clone(),
+                nip_load: self.winding.nip_load,
+                friction: self.web.friction,
+                speed: self.winding.speed,
+                // Two contacting surfaces of the same web: RMS roughnesses add in quadrature.
+                combined_roughness: self.web.roughness * std::f64::consts::SQRT_2,
+                ..Default::default()
+            },
+            options,
+        }
+    }
+}

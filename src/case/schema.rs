@@ -1,0 +1,195 @@
+//! The case file as written: the serde structs of the YAML schema, before presets and unit
+//! conversion. Names of materials, laws and methods stay text here (what the user typed); the
+//! resolver turns them into the enums of `vocabulary` with a "did you mean" when they are not
+//! known. Every key here has its entry in [`super::fields`] (a test checks).
+
+use std::collections::BTreeMap;
+
+use serde::{Deserialize, Serialize};
+
+/// A quantity as written in a case file: a string with a unit, or a number in SI.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(untagged)]
+pub enum QuantityText {
+    Number(f64),
+    Text(String),
+}
+
+/// The case file as written (before presets and unit conversion).
+#[derive(Debug, Clone, PartialEq, Default, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct Case {
+    pub title: String,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub description: Option<String>,
+    #[serde(default)]
+    pub web: WebInput,
+    #[serde(default)]
+    pub core: CoreInput,
+    #[serde(default)]
+    pub roll: RollInput,
+    #[serde(default)]
+    pub winding: WindingInput,
+    #[serde(default, skip_serializing_if = "Vec::is_empty")]
+    pub symptoms: Vec<ObservedSymptom>,
+    /// Answers to symptom questions, by question ID ("yes" / "no" / "unknown" / a choice ID).
+    #[serde(default, skip_serializing_if = "BTreeMap::is_empty")]
+    pub answers: BTreeMap<String, String>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub notes: Option<String>,
+}
+
+#[derive(Debug, Clone, PartialEq, Default, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct WebInput {
+    /// Preset ID (see `presets`), e.g. `newsprint`, `pet_film`.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub preset: Option<String>,
+    /// Material kind: paper, board, film, foil, nonwoven, laminate.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub material: Option<String>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub thickness: Option<QuantityText>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub width: Option<QuantityText>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub tangential_modulus: Option<QuantityText>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub radial_stiffness: Option<RadialStiffnessInput>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub poisson_ratio: Option<f64>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub friction: Option<f64>,
+    /// RMS roughness of one surface.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub roughness: Option<QuantityText>,
+    /// Tensile strength per unit width (force per width).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub strength: Option<QuantityText>,
+}
+
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct RadialStiffnessInput {
+    /// `pfeiffer`, `constant` or `power_law`.
+    pub law: String,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub k1: Option<QuantityText>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub k2: Option<f64>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub modulus: Option<QuantityText>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub coefficient: Option<QuantityText>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub exponent: Option<f64>,
+}
+
+#[derive(Debug, Clone, PartialEq, Default, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct CoreInput {
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub preset: Option<String>,
+    /// paper, steel, aluminium, plastic, rigid.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub material: Option<String>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub inside_diameter: Option<QuantityText>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub outside_diameter: Option<QuantityText>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub modulus: Option<QuantityText>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub poisson_ratio: Option<f64>,
+    /// Measured effective core stiffness Ec, overrides modulus/geometry.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub stiffness: Option<QuantityText>,
+    /// Rated crush pressure (external radial pressure the core carries).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub crush_pressure: Option<QuantityText>,
+}
+
+#[derive(Debug, Clone, PartialEq, Default, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct RollInput {
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub diameter: Option<QuantityText>,
+    /// Wound length; used when diameter is not given.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub length: Option<QuantityText>,
+}
+
+#[derive(Debug, Clone, PartialEq, Default, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct WindingInput {
+    /// centre, surface, centre_surface.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub method: Option<String>,
+    /// Web tension at the start of the roll (force per width).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub tension: Option<QuantityText>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub taper: Option<TaperInput>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub nip_load: Option<QuantityText>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub speed: Option<QuantityText>,
+    /// Bands of diameter wound at a different tension.
+    #[serde(default, skip_serializing_if = "Vec::is_empty")]
+    pub upsets: Vec<UpsetInput>,
+    /// Web temperature at the winder.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub temperature: Option<QuantityText>,
+    /// Time to reach line speed (acceleration torque check), e.g. "20 s" as a plain number of seconds.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub acceleration_time: Option<f64>,
+}
+
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct TaperInput {
+    /// none, linear, hyperbolic, steps.
+    pub kind: String,
+    /// Taper amount in percent ("25 %"), for linear and hyperbolic.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub amount: Option<QuantityText>,
+    #[serde(default, skip_serializing_if = "Vec::is_empty")]
+    pub steps: Vec<StepInput>,
+}
+
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct StepInput {
+    pub from_diameter: QuantityText,
+    pub tension: QuantityText,
+}
+
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct UpsetInput {
+    pub from_diameter: QuantityText,
+    pub to_diameter: QuantityText,
+    pub tension: QuantityText,
+}
+
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct ObservedSymptom {
+    /// Symptom ID from `vocabulary::SYMPTOM_IDS`.
+    pub id: String,
+    /// core, body, outside, edges, whole_roll.
+    #[serde(default, rename = "where", skip_serializing_if = "Option::is_none")]
+    pub place: Option<String>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub notes: Option<String>,
+}
+
+impl ObservedSymptom {
+    /// Where the symptom was seen, when that is one of the known places (the resolver refuses
+    /// any other word).
+    pub fn where_seen(&self) -> Option<crate::vocabulary::Place> {
+        self.place
+            .as_deref()
+            .and_then(crate::vocabulary::Place::from_id)
+    }
+}
