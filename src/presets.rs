@@ -422,6 +422,16 @@ pub const DEFAULT_SPEED: Sourced =
 /// Web width used when a case gives none (m). Stresses are per unit width, so it only scales
 /// totals (forces, torques).
 pub const DEFAULT_WIDTH: Sourced = sourced(1.0, "default: results are per unit width");
+/// Nip load above which the nip-induced tension is held (N/m).
+pub const DEFAULT_NIP_PLATEAU: Sourced = sourced(
+    crate::model::winder::NIP_MODEL_LIMIT,
+    "common practice: μ·N is a good estimate up to about 10 pli (2 kN/m), where measured nip-induced tension levels off (PFFC Web Lines; Good and co-workers)",
+);
+/// Drum diameter of a two-drum winder when a case gives none (m).
+pub const DEFAULT_DRUM_DIAMETER: Sourced = sourced(
+    0.5,
+    "(from memory) a common two-drum winder drum size, about 20 in",
+);
 /// Finished roll diameter used when a case gives neither diameter nor length (m).
 pub const DEFAULT_ROLL_DIAMETER: Sourced = sourced(1.0, "common practice: a 1 m finished roll");
 
@@ -584,7 +594,10 @@ mod tests {
 
     #[test]
     fn paper_cores_are_orthotropic() {
-        for p in core_presets().iter().filter(|p| p.material == "paper") {
+        for p in core_presets()
+            .iter()
+            .filter(|p| p.material == crate::vocabulary::CoreMaterial::Paper)
+        {
             assert!(p.radial_modulus.value < 0.1 * p.modulus.value, "{}", p.id);
         }
     }

@@ -128,7 +128,8 @@ fn build(s: &Scenario) -> ResolvedCase {
         case.web.strength = s;
     }
     if let Some(m) = &set.material {
-        case.web.material = m.clone();
+        case.web.material = rolltriage::vocabulary::WebMaterial::from_id(m)
+            .unwrap_or_else(|| panic!("{}: unknown material {m}", s.name));
     }
     if let Some(m) = &set.method {
         case.winding.method = match m.as_str() {

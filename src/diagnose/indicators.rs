@@ -434,8 +434,9 @@ impl Indicators {
         if tension > 0.0 {
             self.set("nip_to_tension", None, nip / tension);
         }
-        // Wound-in tension from the nip ≈ μ·N on top of the web tension (Good, Wu & Fikes 1994).
-        let nip_part = case.web.friction * nip;
+        // Wound-in tension from the nip: μk·N with its levelling-off, as the model computes it
+        // (Good, Wu & Fikes 1994; Good, Hartwig & Markum 1999).
+        let nip_part = case.nip_induced_tension_at_core();
         if tension + nip_part > 0.0 {
             self.set("nip_wit_share", None, nip_part / (tension + nip_part));
         }

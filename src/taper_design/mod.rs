@@ -1231,10 +1231,14 @@ fn explain(
             && let (Some(nip), Some(wit)) =
                 (case.winding.nip_load, after.check(Limit::WoundInTension))
         {
-            let nip_part = nip * case.web.friction;
+            let nip_part = if nip > 0.0 {
+                case.nip_induced_tension_at_core()
+            } else {
+                0.0
+            };
             if nip_part > 0.25 * wit.value {
                 out.push(format!(
-                    "The nip adds about {nip_part:.0} N/m (friction × nip load) to the wound-in tension; a lighter nip would leave room for more web tension."
+                    "The nip adds about {nip_part:.0} N/m (kinetic friction × nip load) to the wound-in tension; a lighter nip would leave room for more web tension."
                 ));
             }
         }
@@ -1274,6 +1278,8 @@ mod tests {
                 radial_stiffness: RadialStiffness::Constant { modulus: 1e7 },
                 poisson_ratio: 0.01,
                 friction: 0.3,
+                kinetic_friction: 0.3,
+                density: 1000.0,
                 roughness: 1e-6,
                 strength: 1000.0,
             },
@@ -1284,6 +1290,8 @@ mod tests {
                 outside_diameter: 0.1,
                 stiffness: CoreStiffness::Rigid,
                 crush_pressure: 1e6,
+                support: crate::model::CoreSupport::Free,
+                crush_basis: crate::model::core_crush::CrushBasis::Given,
             },
             roll: ResolvedRoll {
                 outer_diameter: 0.3,
@@ -1297,6 +1305,10 @@ mod tests {
                     upsets: vec![],
                 },
                 nip_load: None,
+                nip_programme: None,
+                nip_plateau: crate::model::winder::NIP_MODEL_LIMIT,
+                centre_torque: None,
+                drums: None,
                 speed: 1.0,
                 temperature: None,
                 acceleration_time: None,

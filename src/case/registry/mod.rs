@@ -300,5 +300,7 @@ pub const DOC_SECTIONS: &[&str] = &[
     "winding.taper",
     "winding.taper.steps[]",
     "winding.upsets[]",
+    "winding.nip_programme[]",
+    "winding.drums",
     "symptoms[]",
 ];
