@@ -4,9 +4,10 @@
 use std::hint::black_box;
 
 use criterion::{Criterion, criterion_group, criterion_main};
+use rolltriage::model::schedule::TensionStep;
 use rolltriage::model::{
-    CoreStiffness, ModulusUpdate, RadialStiffness, Resolution, SolverOptions, TensionSchedule,
-    WindingMethod, WindingProblem, WindingSetup, solve,
+    CoreStiffness, ModulusUpdate, RadialStiffness, Resolution, SolverOptions, Taper,
+    TensionSchedule, WindingMethod, WindingProblem, WindingSetup, solve,
 };
 
 #[allow(clippy::too_many_arguments)]
@@ -108,5 +109,30 @@ fn large(c: &mut Criterion) {
     g.finish();
 }
 
-criterion_group!(benches, per_layer, grouped, large);
+/// A stepped taper with 15,000 steps on a 100,000-layer roll: the step lookup is a binary
+/// search, so this costs about what a plain taper costs (it was steps × wraps before).
+fn many_steps(c: &mut Criterion) {
+    let mut g = c.benchmark_group("steps_15000_on_100000_layers");
+    g.sample_size(10);
+    let mut p = set(
+        film(100_000, 12e-6),
+        Resolution::Auto,
+        ModulusUpdate::Secant,
+    );
+    let (rc, big_r) = (p.core_radius, p.outer_radius);
+    p.winding.tension.taper = Taper::Steps {
+        steps: (1..15_000)
+            .map(|k| TensionStep {
+                radius: rc + (big_r - rc) * k as f64 / 15_000.0,
+                tension: 175.0 - 50.0 * k as f64 / 15_000.0,
+            })
+            .collect(),
+    };
+    g.bench_function("auto_grouped_secant", |b| {
+        b.iter(|| solve(black_box(&p)).unwrap())
+    });
+    g.finish();
+}
+
+criterion_group!(benches, per_layer, grouped, large, many_steps);
 criterion_main!(benches);

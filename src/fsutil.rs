@@ -1,4 +1,5 @@
-//! File helpers shared by the modules that read folders of YAML files or write user files.
+//! File helpers shared by the modules that read folders of YAML files or write user files:
+//! [`save_atomic`] is the one way a user file is written.
 
 use std::io::Write;
 use std::path::{Path, PathBuf};
@@ -19,6 +20,21 @@ pub fn yaml_files(dir: &Path) -> std::io::Result<Vec<PathBuf>> {
     Ok(paths)
 }
 
+/// True for a case file of the shipped demo scenario: a file under a `cases` folder that sits
+/// beside the shipped rule base (`rules/causes.yaml`), as in the source tree and the release
+/// archive. The terminal UI asks for a file name before saving over one of these.
+pub fn is_shipped_demo_case(path: &Path) -> bool {
+    let Ok(full) = std::fs::canonicalize(path) else {
+        return false;
+    };
+    full.ancestors().skip(1).take(3).any(|folder| {
+        folder.file_name().is_some_and(|n| n == "cases")
+            && folder
+                .parent()
+                .is_some_and(|root| root.join("rules").join("causes.yaml").is_file())
+    })
+}
+
 /// Distinguishes temporary files of concurrent saves within one process.
 static SAVE_COUNTER: AtomicU64 = AtomicU64::new(0);
 
@@ -35,39 +51,127 @@ pub enum SaveError {
         path: PathBuf,
         source: std::io::Error,
     },
+    #[error("{path} is read-only; not replaced (make it writable or save under another name)")]
+    ReadOnly { path: PathBuf },
+    #[error(
+        "{path} is not a regular file (a pipe, device or folder); not written (save to a file instead)"
+    )]
+    NotRegular { path: PathBuf },
+    #[error("{path} is a symbolic link that cannot be followed: {source}")]
+    BrokenLink {
+        path: PathBuf,
+        source: std::io::Error,
+    },
+}
+
+/// Where a save really goes: the file a symbolic link points to (the link itself is kept), or
+/// the path as given. An existing target must be a writable regular file.
+fn save_target(path: &Path) -> Result<(PathBuf, Option<std::fs::Permissions>), SaveError> {
+    let target = match std::fs::symlink_metadata(path) {
+        Ok(meta) if meta.file_type().is_symlink() => {
+            std::fs::canonicalize(path).map_err(|source| SaveError::BrokenLink {
+                path: path.to_path_buf(),
+                source,
+            })?
+        }
+        _ => path.to_path_buf(),
+    };
+    match std::fs::metadata(&target) {
+        Ok(meta) if !meta.is_file() => Err(SaveError::NotRegular { path: target }),
+        Ok(meta) if meta.permissions().readonly() => Err(SaveError::ReadOnly { path: target }),
+        Ok(meta) => Ok((target, Some(meta.permissions()))),
+        Err(_) => Ok((target, None)),
+    }
+}
+
+/// The temporary file name of a save of `name` by process `pid`: `.NAME.PID.SERIAL.tmp`.
+fn temp_name(name: &str, pid: u32, serial: u64) -> String {
+    format!(".{name}.{pid}.{serial}.tmp")
+}
+
+/// Remove temporary files that an earlier save of `name` into `folder` left behind when its
+/// process was killed (SIGKILL, power loss). Only files of processes that no longer run are
+/// touched; where that cannot be told (no /proc), nothing is removed and the leftovers stay
+/// harmless: they never take part in a save.
+fn remove_stale_temps(folder: &Path, name: &str) {
+    let proc_root = Path::new("/proc");
+    if !proc_root.join("self").exists() {
+        return;
+    }
+    let Ok(entries) = std::fs::read_dir(folder) else {
+        return;
+    };
+    let prefix = format!(".{name}.");
+    for entry in entries.flatten() {
+        let file_name = entry.file_name();
+        let Some(rest) = file_name
+            .to_str()
+            .and_then(|n| n.strip_prefix(&prefix))
+            .and_then(|r| r.strip_suffix(".tmp"))
+        else {
+            continue;
+        };
+        let Some((pid, serial)) = rest.split_once('.') else {
+            continue;
+        };
+        let (Ok(pid), Ok(_)) = (pid.parse::<u32>(), serial.parse::<u64>()) else {
+            continue;
+        };
+        let is_file = entry.file_type().is_ok_and(|t| t.is_file());
+        if is_file && pid != std::process::id() && !proc_root.join(pid.to_string()).exists() {
+            let _ = std::fs::remove_file(entry.path());
+        }
+    }
 }
 
 /// Write `contents` to `path` atomically: write a temporary file in the same folder, flush it to
 /// disk, then rename it over the target. A failure at any step leaves the old file intact.
+///
+/// The saved file keeps what the user gave the old one: its permission bits, and a symbolic
+/// link stays a link (the file it points to is replaced). A read-only target and anything that
+/// is not a regular file (a pipe, a device, a folder) are refused without being touched. The
+/// temporary file is removed if the program is stopped by SIGINT, SIGTERM, SIGHUP or SIGQUIT
+/// ([`crate::signals`]); leftovers of a killed run are removed by the next save of that file.
 pub fn save_atomic(path: &Path, contents: &[u8]) -> Result<(), SaveError> {
-    let folder = match path.parent() {
+    let (target, permissions) = save_target(path)?;
+    let folder = match target.parent() {
         Some(p) if !p.as_os_str().is_empty() => p.to_path_buf(),
         _ => PathBuf::from("."),
     };
-    let name = path
+    let name = target
         .file_name()
         .map(|n| n.to_string_lossy().into_owned())
         .unwrap_or_else(|| "rolltriage".to_string());
+    remove_stale_temps(&folder, &name);
     let serial = SAVE_COUNTER.fetch_add(1, Ordering::Relaxed);
-    let temp = folder.join(format!(".{name}.{}.{serial}.tmp", std::process::id()));
+    let temp = folder.join(temp_name(&name, std::process::id(), serial));
     let write = || -> std::io::Result<()> {
         // create_new: never follow or reuse something already at the temporary path.
-        let mut file = std::fs::File::options()
-            .write(true)
-            .create_new(true)
-            .open(&temp)?;
+        let mut file = crate::signals::create_registered(&temp, || {
+            std::fs::File::options()
+                .write(true)
+                .create_new(true)
+                .open(&temp)
+        })?;
+        if let Some(permissions) = &permissions {
+            file.set_permissions(permissions.clone())?;
+        }
         file.write_all(contents)?;
         file.sync_all()?;
         Ok(())
     };
     if let Err(source) = write() {
-        let _ = std::fs::remove_file(&temp);
+        let _ = crate::signals::finish_registered(&temp, || std::fs::remove_file(&temp));
         return Err(SaveError::WriteTemp { path: temp, source });
     }
-    if let Err(source) = std::fs::rename(&temp, path) {
-        let _ = std::fs::remove_file(&temp);
+    let renamed = crate::signals::finish_registered(&temp, || {
+        std::fs::rename(&temp, &target).inspect_err(|_| {
+            let _ = std::fs::remove_file(&temp);
+        })
+    });
+    if let Err(source) = renamed {
         return Err(SaveError::Rename {
-            path: path.to_path_buf(),
+            path: target.clone(),
             source,
         });
     }
@@ -107,5 +211,115 @@ mod tests {
         let text = std::fs::read_to_string(&path).unwrap();
         assert!(text.starts_with("writer "), "{text}");
         assert_eq!(std::fs::read_dir(dir.path()).unwrap().count(), 1);
+    }
+
+    #[cfg(unix)]
+    mod unix {
+        use super::super::*;
+        use std::os::unix::fs::PermissionsExt;
+
+        fn mode(path: &Path) -> u32 {
+            std::fs::metadata(path).unwrap().permissions().mode() & 0o7777
+        }
+
+        #[test]
+        fn saving_over_a_file_keeps_its_permission_bits() {
+            let dir = tempfile::tempdir().unwrap();
+            let path = dir.path().join("private.yaml");
+            std::fs::write(&path, "old").unwrap();
+            std::fs::set_permissions(&path, std::fs::Permissions::from_mode(0o600)).unwrap();
+            save_atomic(&path, b"new").unwrap();
+            assert_eq!(std::fs::read(&path).unwrap(), b"new");
+            assert_eq!(mode(&path), 0o600);
+            std::fs::set_permissions(&path, std::fs::Permissions::from_mode(0o640)).unwrap();
+            save_atomic(&path, b"newer").unwrap();
+            assert_eq!(mode(&path), 0o640);
+        }
+
+        #[test]
+        fn a_read_only_target_is_refused_and_left_alone() {
+            let dir = tempfile::tempdir().unwrap();
+            let path = dir.path().join("locked.yaml");
+            std::fs::write(&path, "old").unwrap();
+            std::fs::set_permissions(&path, std::fs::Permissions::from_mode(0o444)).unwrap();
+            let error = save_atomic(&path, b"new").unwrap_err();
+            assert!(matches!(error, SaveError::ReadOnly { .. }), "{error:?}");
+            assert!(error.to_string().contains("read-only"));
+            assert_eq!(std::fs::read(&path).unwrap(), b"old");
+            assert_eq!(mode(&path), 0o444);
+            assert_eq!(std::fs::read_dir(dir.path()).unwrap().count(), 1);
+        }
+
+        #[test]
+        fn a_symbolic_link_is_followed_and_kept() {
+            let dir = tempfile::tempdir().unwrap();
+            let real_dir = dir.path().join("real");
+            std::fs::create_dir(&real_dir).unwrap();
+            let real = real_dir.join("case.yaml");
+            std::fs::write(&real, "old").unwrap();
+            std::fs::set_permissions(&real, std::fs::Permissions::from_mode(0o600)).unwrap();
+            let link = dir.path().join("link.yaml");
+            std::os::unix::fs::symlink(&real, &link).unwrap();
+            save_atomic(&link, b"new").unwrap();
+            assert!(
+                std::fs::symlink_metadata(&link)
+                    .unwrap()
+                    .file_type()
+                    .is_symlink()
+            );
+            assert_eq!(std::fs::read(&real).unwrap(), b"new");
+            assert_eq!(mode(&real), 0o600);
+            assert_eq!(std::fs::read_dir(&real_dir).unwrap().count(), 1);
+        }
+
+        #[test]
+        fn a_dangling_link_is_refused() {
+            let dir = tempfile::tempdir().unwrap();
+            let link = dir.path().join("link.yaml");
+            std::os::unix::fs::symlink(dir.path().join("gone.yaml"), &link).unwrap();
+            let error = save_atomic(&link, b"new").unwrap_err();
+            assert!(matches!(error, SaveError::BrokenLink { .. }), "{error:?}");
+            assert!(
+                std::fs::symlink_metadata(&link)
+                    .unwrap()
+                    .file_type()
+                    .is_symlink()
+            );
+        }
+
+        #[test]
+        fn a_fifo_or_folder_is_refused_without_blocking() {
+            let dir = tempfile::tempdir().unwrap();
+            let fifo = dir.path().join("pipe.yaml");
+            let made = std::process::Command::new("mkfifo").arg(&fifo).status();
+            if made.is_ok_and(|s| s.success()) {
+                let error = save_atomic(&fifo, b"new").unwrap_err();
+                assert!(matches!(error, SaveError::NotRegular { .. }), "{error:?}");
+            }
+            let folder = dir.path().join("folder");
+            std::fs::create_dir(&folder).unwrap();
+            let error = save_atomic(&folder, b"new").unwrap_err();
+            assert!(matches!(error, SaveError::NotRegular { .. }), "{error:?}");
+        }
+
+        #[test]
+        fn stale_temporary_files_of_dead_processes_are_removed() {
+            let dir = tempfile::tempdir().unwrap();
+            let path = dir.path().join("case.yaml");
+            // A pid above the kernel's maximum (4194304) never runs.
+            let dead = dir.path().join(temp_name("case.yaml", 999_999_999, 3));
+            let alive = dir.path().join(temp_name("case.yaml", 1, 0));
+            let other = dir.path().join(temp_name("other.yaml", 999_999_999, 0));
+            for f in [&dead, &alive, &other] {
+                std::fs::write(f, "partial").unwrap();
+            }
+            save_atomic(&path, b"new").unwrap();
+            assert!(!dead.exists(), "a dead run's temporary file must go");
+            assert!(alive.exists(), "a running process's temporary file stays");
+            assert!(
+                other.exists(),
+                "only temporary files of the saved file are touched"
+            );
+        }
     }
 }

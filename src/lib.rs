@@ -9,10 +9,13 @@
 pub mod calibrate;
 pub mod case;
 pub mod diagnose;
+pub mod finite;
 pub mod fsutil;
+pub mod mechanics;
 pub mod model;
 pub mod presets;
 pub mod report;
+pub mod signals;
 pub mod taper_design;
 pub mod training;
 pub mod tui;

@@ -22,13 +22,10 @@ fn main() -> ExitCode {
         Some(cli::Command::Case(a)) => commands::case::run(a),
         Some(cli::Command::Tui(a)) => commands::tui::run(a),
         Some(cli::Command::Completions { shell }) => {
-            clap_complete::generate(
-                *shell,
-                &mut cli::Cli::command(),
-                "rolltriage",
-                &mut std::io::stdout(),
-            );
-            Ok(())
+            // Generated into memory: clap_complete panics when its writer fails.
+            let mut script = Vec::new();
+            clap_complete::generate(*shell, &mut cli::Cli::command(), "rolltriage", &mut script);
+            commands::output::write_bytes(&script)
         }
     };
     match result {

@@ -188,6 +188,10 @@ const UNITS: &[Unit] = &[
     unit(&["n/mm"], QuantityKind::ForcePerWidth, 1000.0),
     unit(&["n/cm"], QuantityKind::ForcePerWidth, 100.0),
     unit(&["kn/m"], QuantityKind::ForcePerWidth, 1000.0),
+    // The case file's own limits are stated in MN/m (web strength at most 10 MN/m). Symbols
+    // are matched without case, so `parse_quantity` refuses the millinewton spelling "mN/m"
+    // rather than read it as a million times too large.
+    unit(&["mn/m"], QuantityKind::ForcePerWidth, 1e6),
     unit(
         &["pli", "lbf/in", "lb/in", "lbs/in"],
         QuantityKind::ForcePerWidth,
@@ -331,6 +335,15 @@ pub fn parse_quantity(field: &str, text: &str, kind: QuantityKind) -> Result<f64
         return Err(not_a_number());
     }
     let symbol = normalise_unit(unit_text);
+    if unit_text.trim_start().starts_with("mN") || unit_text.trim_start().starts_with("mn") {
+        // Millinewtons: no winding quantity is that small, and "mn/m" is MN/m to the lookup.
+        return Err(UnitError::UnknownUnit {
+            field: field.to_string(),
+            given: text.to_string(),
+            unit: unit_text.trim().to_string(),
+            accepted: kind.accepted().to_string(),
+        });
+    }
     if symbol.is_empty() {
         return match kind {
             QuantityKind::Percent => Ok(number),
@@ -477,6 +490,53 @@ pub fn format_quantity(value: f64, kind: QuantityKind, system: UnitSystem) -> St
     format!("{} {symbol}", format_number(scaled))
 }
 
+/// Three significant figures without trailing zeros ("412345", "1.25", "-0.5"): the compact
+/// numbers of plot axes, tables and taper amounts.
+pub fn sig3(value: f64) -> String {
+    if value == 0.0 || !value.is_finite() {
+        return format!("{}", if value.is_finite() { 0.0 } else { value });
+    }
+    let digits = (2 - value.abs().log10().floor() as i32).clamp(0, 6) as usize;
+    let text = format!("{value:.digits$}");
+    if text.contains('.') {
+        text.trim_end_matches('0').trim_end_matches('.').to_string()
+    } else {
+        text
+    }
+}
+
+/// A stress in compact form for plot axes and tables: "412 kPa", "1.25 MPa", "59.8 psi".
+pub fn compact_stress(value: f64, units: UnitSystem) -> String {
+    match units {
+        UnitSystem::Si => {
+            let a = value.abs();
+            if a >= 1e6 {
+                format!("{} MPa", sig3(value / 1e6))
+            } else if a >= 1e3 {
+                format!("{} kPa", sig3(value / 1e3))
+            } else {
+                format!("{} Pa", sig3(value))
+            }
+        }
+        UnitSystem::Us => {
+            let psi = value / 6_894.757_293_168;
+            if psi.abs() >= 1e3 {
+                format!("{} ksi", sig3(psi / 1e3))
+            } else {
+                format!("{} psi", sig3(psi))
+            }
+        }
+    }
+}
+
+/// A radius in compact form: "48 mm" or "1.9 in".
+pub fn compact_length(value: f64, units: UnitSystem) -> String {
+    match units {
+        UnitSystem::Si => format!("{} mm", sig3(value * 1e3)),
+        UnitSystem::Us => format!("{} in", sig3(value / 0.0254)),
+    }
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
@@ -506,5 +566,18 @@ mod tests {
         assert_eq!(format_number(-0.00001234567), "-1.235e-5");
         assert_eq!(format_number(2.0e12), "2e12");
         assert_eq!(format_number(0.0), "0");
+    }
+
+    #[test]
+    fn compact_numbers() {
+        assert_eq!(sig3(412_345.0), "412345");
+        assert_eq!(sig3(1.2504), "1.25");
+        assert_eq!(sig3(-0.5), "-0.5");
+        assert_eq!(compact_stress(412_345.0, UnitSystem::Si), "412 kPa");
+        assert_eq!(compact_stress(-1_250_000.0, UnitSystem::Si), "-1.25 MPa");
+        // 1 psi = 6894.757 Pa (NIST SP 811, appendix B).
+        assert_eq!(compact_stress(6_894.757, UnitSystem::Us), "1 psi");
+        // 1 in = 25.4 mm exactly (NIST SP 811, appendix B).
+        assert_eq!(compact_length(0.0508, UnitSystem::Us), "2 in");
     }
 }

@@ -96,6 +96,49 @@ fn case_check_rejects_every_corpus_file_naming_it() {
     )));
 }
 
+/// `case check` accepts exactly what the solver accepts: every corpus file it refuses, `stress`
+/// refuses too (exit 1, the file named), so nothing fails only later in the solver. Answers
+/// are checked against the rule base, which `stress` does not read.
+#[test]
+fn stress_refuses_every_file_case_check_refuses() {
+    let mut files: Vec<PathBuf> = std::fs::read_dir(root().join("tests/bad_inputs"))
+        .unwrap()
+        .map(|e| e.unwrap().path())
+        .filter(|p| p.file_name().is_some_and(|n| n != "unknown_answer.yaml"))
+        .collect();
+    files.sort();
+    for file in &files {
+        let output = binary().arg("stress").arg(file).output().unwrap();
+        let stderr = text(&output.stderr);
+        assert_eq!(
+            output.status.code(),
+            Some(1),
+            "{}: {stderr}",
+            file.display()
+        );
+        assert!(
+            stderr.contains(&file.display().to_string()),
+            "{}: {stderr}",
+            file.display()
+        );
+        assert!(!stderr.contains("outer_radius"), "{stderr}");
+    }
+}
+
+#[test]
+fn case_check_refuses_unknown_answers_like_diagnose() {
+    let file = root().join("tests/bad_inputs/unknown_answer.yaml");
+    for args in [vec!["case", "check"], vec!["diagnose"]] {
+        let output = binary().args(&args).arg(&file).output().unwrap();
+        let stderr = text(&output.stderr);
+        assert_eq!(output.status.code(), Some(1), "{args:?}: {stderr}");
+        assert!(
+            stderr.contains("unknown question `splice_nearby`"),
+            "{args:?}: {stderr}"
+        );
+    }
+}
+
 #[test]
 fn case_new_writes_a_case_that_checks_with_nothing_assumed() {
     let dir = tempfile::tempdir().unwrap();

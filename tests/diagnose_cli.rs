@@ -72,7 +72,8 @@ fn malformed_answer_is_a_usage_message() {
         ])
         .output()
         .unwrap();
-    assert_eq!(out.status.code(), Some(1));
+    // A malformed option value is a usage error (exit 2), like an unknown option.
+    assert_eq!(out.status.code(), Some(2));
     assert!(String::from_utf8_lossy(&out.stderr).contains("QUESTION=VALUE"));
 }
 

@@ -294,16 +294,14 @@ fn what_if_warns_when_a_change_makes_it_worse() {
         cautions: vec![],
         what_if: None,
     };
-    let w = rolltriage::diagnose::remedies::what_if(
-        &rules,
-        &ids,
-        &case,
-        &indicators,
-        &causes,
-        &wrong,
-        common::SOLVER,
-    )
-    .unwrap();
+    let before = rolltriage::diagnose::what_if::Before {
+        rules: &rules,
+        symptoms: &ids,
+        case: &case,
+        indicators: &indicators,
+        causes: &causes,
+    };
+    let w = rolltriage::diagnose::what_if::what_if(&before, &wrong, common::SOLVER).unwrap();
     assert!(w.worse, "reducing tension on a slack roll must warn: {w:?}");
 }
 

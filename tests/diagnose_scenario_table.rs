@@ -129,7 +129,7 @@ fn build(s: &Scenario) -> ResolvedCase {
     }
     if let Some(m) = &set.material {
         case.web.material = rolltriage::vocabulary::WebMaterial::from_id(m)
-            .unwrap_or_else(|| panic!("{}: unknown material {m}", s.name));
+            .unwrap_or_else(|| panic!("unknown material `{m}` in a scenario row"));
     }
     if let Some(m) = &set.method {
         case.winding.method = match m.as_str() {

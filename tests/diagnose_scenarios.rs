@@ -525,3 +525,65 @@ fn the_triage_pipeline_reports_progress_and_can_be_cancelled() {
         Err(diagnose::DiagnoseError::Model(ModelError::Cancelled))
     ));
 }
+
+/// Common practice: a roll telescopes where it is wound loosely. A band wound at 5 % of the
+/// tension in the middle of a newsprint roll has a smaller telescoping margin than the wraps a
+/// tenth of the build inside and outside it (mechanics layer, the margin diagnosis and taper
+/// design read). Lifting by the core loads the inner wraps most (the whole roll's weight on the
+/// smallest interface), so on a well-wound roll the smallest margin is near the core.
+#[test]
+fn telescoping_margin_dips_in_a_slack_band() {
+    use rolltriage::mechanics::{MechanicsInputs, telescoping};
+    let case = newsprint("slack band");
+    let t = case.winding.tension.start_tension;
+    let rc = case.core.outside_diameter / 2.0;
+    let big_r = case.roll.outer_diameter / 2.0;
+    let at = |share: f64| rc + share * (big_r - rc);
+    let case = upset(case, 2.0 * at(0.5), 2.0 * at(0.55), 0.05 * t);
+    let profile = profile(&case);
+    let margins = telescoping::handling_margins(&profile, &MechanicsInputs::from_case(&case));
+    let smallest = |from: f64, to: f64| {
+        (0..margins.radius.len())
+            .filter(|&i| margins.radius[i] >= from && margins.radius[i] <= to)
+            .map(|i| margins.margin_at(i))
+            .fold(f64::INFINITY, f64::min)
+    };
+    let band = smallest(at(0.5), at(0.55));
+    assert!(band < smallest(at(0.38), at(0.42)), "band {band}");
+    assert!(band < smallest(at(0.63), at(0.67)), "band {band}");
+    // The well-wound roll without the band: smallest margin in the first tenth of the build.
+    let plain = newsprint("no band");
+    let plain_margins = telescoping::handling_margins(
+        &common::profile(&plain),
+        &MechanicsInputs::from_case(&plain),
+    );
+    assert!(
+        plain_margins.min_radius <= at(0.1),
+        "{}",
+        plain_margins.min_radius
+    );
+}
+
+/// Common practice: on a centre-driven roll stopped hard, cinching starts near the core — the
+/// whole roll's inertia passes through the inner wraps, whose friction acts on a small radius.
+#[test]
+fn an_emergency_stop_slips_a_centre_wound_roll_first_near_the_core() {
+    use rolltriage::mechanics::{MechanicsInputs, torque};
+    let case = pet_film("hard stop");
+    let profile = profile(&case);
+    let mut inputs = MechanicsInputs::from_case(&case);
+    inputs.method = WindingMethod::Centre;
+    let check = torque::torque_check(&profile, &inputs);
+    let stop = check
+        .events
+        .iter()
+        .find(|e| e.event == torque::Event::EmergencyStop)
+        .unwrap();
+    let rc = inputs.core_radius;
+    let build = inputs.outer_radius - rc;
+    assert!(
+        stop.margins.min_radius <= rc + 0.35 * build,
+        "emergency stop margin smallest at r = {} m (core {rc} m, build {build} m)",
+        stop.margins.min_radius
+    );
+}

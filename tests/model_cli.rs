@@ -76,6 +76,7 @@ fn json_and_csv_carry_the_profile() {
 #[test]
 fn bad_options_fail_with_a_message() {
     let out = stress(&["--resolution", "coarse"]);
-    assert_eq!(out.status.code(), Some(1));
+    // A bad option value is a usage error (exit 2).
+    assert_eq!(out.status.code(), Some(2));
     assert!(String::from_utf8_lossy(&out.stderr).contains("grouped:K"));
 }

@@ -177,3 +177,100 @@ fn grouped_core_and_peak_pressure_match_scipy() {
         }
     }
 }
+
+/// The mechanics layer's demand and capacity at every interface against SciPy quadrature over
+/// the wraps (tests/reference/mechanics_margins.py): a simple roll with a prescribed linear
+/// pressure profile, telescoping under handling and torque for centre and surface drives.
+#[test]
+fn mechanism_margins_match_the_scipy_reference() {
+    use rolltriage::mechanics::{Events, MechanicsInputs, telescoping, torque};
+    let text = std::fs::read_to_string(concat!(
+        env!("CARGO_MANIFEST_DIR"),
+        "/tests/reference/mechanics_margins.json"
+    ))
+    .unwrap();
+    let v: Value = serde_json::from_str(&text).unwrap();
+    let roll = &v["roll"];
+    let (rc, big_r) = (f(roll, "core_radius"), f(roll, "outer_radius"));
+    let n = roll["nodes"].as_u64().unwrap() as usize;
+    let radius: Vec<f64> = (0..n)
+        .map(|i| rc + (big_r - rc) * i as f64 / (n - 1) as f64)
+        .collect();
+    let pressure: Vec<f64> = radius
+        .iter()
+        .map(|r| f(roll, "core_pressure") * (big_r - r) / (big_r - rc))
+        .collect();
+    // Compressive everywhere but the outside: the surface zone is the outermost node only.
+    let mut tangential = vec![-1.0; n];
+    tangential[n - 1] = 1.0;
+    let profile = rolltriage::model::Profile {
+        zones: rolltriage::model::profile::default_zones(&radius, &tangential),
+        radius,
+        pressure,
+        tangential_stress: tangential,
+        ..Default::default()
+    };
+    let inputs = |method| MechanicsInputs {
+        core_radius: rc,
+        outer_radius: big_r,
+        density: f(roll, "density"),
+        friction: f(roll, "friction"),
+        method,
+        speed: f(roll, "speed"),
+        outer_tension: f(roll, "outer_tension"),
+        events: Events {
+            shock_factor: f(roll, "shock_factor"),
+            start_ramp_time: f(roll, "start_ramp_time"),
+            normal_stop_time: f(roll, "normal_stop_time"),
+            emergency_stop_time: f(roll, "emergency_stop_time"),
+            unwind_tension: None,
+        },
+    };
+    let close = |a: f64, b: f64, what: &str| {
+        assert!(
+            (a - b).abs() <= 1e-9 * b.abs().max(1e-12),
+            "{what}: {a} vs {b}"
+        );
+    };
+    let node = |r: f64| ((r - rc) / (big_r - rc) * (n - 1) as f64).round() as usize;
+
+    let centre = inputs(WindingMethod::Centre);
+    let tele = telescoping::handling_margins(&profile, &centre);
+    close(
+        tele.min_margin,
+        f(&v["telescoping"], "min_margin"),
+        "telescoping margin",
+    );
+    close(
+        tele.min_radius,
+        f(&v["telescoping"], "min_radius"),
+        "telescoping radius",
+    );
+    for s in v["telescoping"]["samples"].as_array().unwrap() {
+        let i = node(f(s, "radius"));
+        close(tele.demand[i], f(s, "demand"), "telescoping demand");
+        close(tele.capacity[i], f(s, "capacity"), "telescoping capacity");
+    }
+
+    for (drive, method) in [
+        ("centre", WindingMethod::Centre),
+        ("surface", WindingMethod::Surface),
+    ] {
+        let check = torque::torque_check(&profile, &inputs(method));
+        for e in &check.events {
+            let id = serde_json::to_value(e.event).unwrap();
+            let expected = &v[drive]["events"][id.as_str().unwrap()];
+            close(e.margins.min_margin, f(expected, "min_margin"), drive);
+            close(e.margins.min_radius, f(expected, "min_radius"), drive);
+            close(e.margins.margin_at(0), f(expected, "core_margin"), drive);
+        }
+        for s in v[drive]["samples"].as_array().unwrap() {
+            let r = f(s, "radius");
+            for event in torque::Event::ALL {
+                let id = serde_json::to_value(event).unwrap();
+                let demand = torque::demand(&inputs(method), big_r, r, event);
+                close(demand, f(s, id.as_str().unwrap()), drive);
+            }
+        }
+    }
+}

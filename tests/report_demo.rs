@@ -163,11 +163,12 @@ fn report_command_rejects_bad_options_with_clear_messages() {
     let (code, err) = run(&["report", case, "-o", "/tmp/report.pdf"]);
     assert_eq!(code, Some(1));
     assert!(err.contains(".md, .html or .json"), "{err}");
+    // Bad option values are usage errors (exit 2).
     let (code, err) = run(&["report", case, "-o", "x.md", "--format", "docx"]);
-    assert_eq!(code, Some(1));
+    assert_eq!(code, Some(2));
     assert!(err.contains("accepted: markdown"), "{err}");
     let (code, err) = run(&["report", case, "-o", "x.md", "--date", "2.12.2026"]);
-    assert_eq!(code, Some(1));
+    assert_eq!(code, Some(2));
     assert!(err.contains("YYYY-MM-DD"), "{err}");
     let (code, err) = run(&["report", "cases/no_such_case.yaml", "-o", "x.md"]);
     assert_eq!(code, Some(1));

@@ -1,5 +1,6 @@
-//! `rolltriage taper` end to end on a demo case whose schedule already meets every limit (the
-//! design keeps it, so the run is quick): the operator table in SI and trade units, exit codes.
+//! `rolltriage taper` end to end: a demo case whose schedule already meets every limit (the
+//! design keeps it, so the run is quick), one the diagnosis blames for telescoping, the operator
+//! table in SI and trade units, exit codes.
 
 use std::process::Command;
 
@@ -14,7 +15,7 @@ fn a_schedule_that_meets_every_limit_is_kept_and_tabled() {
     let out = bin()
         .args([
             "taper",
-            "cases/harbour_newsprint_telescoping.yaml",
+            "cases/harbour_newsprint_out_of_round.yaml",
             "--json",
         ])
         .output()
@@ -26,15 +27,39 @@ fn a_schedule_that_meets_every_limit_is_kept_and_tabled() {
     );
     let v: serde_json::Value = serde_json::from_slice(&out.stdout).unwrap();
     assert_eq!(v["feasible"], true);
-    // The case winds 0.5 pli constant: 0.5 lbf/in = 87.56 N/m (NIST SP 811).
+    assert_eq!(v["solves"], 1);
+    // The case winds 1.6 pli with a 20 % linear taper: 1.6 lbf/in = 280.20 N/m (NIST SP 811).
     let t0 = v["start_tension_n_per_m"].as_f64().unwrap();
-    assert!((t0 - 87.563).abs() < 0.01, "{t0}");
-    assert_eq!(v["taper_fraction"].as_f64().unwrap(), 0.0);
+    assert!((t0 - 280.203).abs() < 0.01, "{t0}");
+    assert!((v["taper_fraction"].as_f64().unwrap() - 0.2).abs() < 1e-12);
     let table = v["table"].as_array().unwrap();
     assert_eq!(table.len(), 11);
-    // From the 101.6 mm core to the 1000 mm roll.
+    // From the 101.6 mm core to the 1250 mm roll; 80 % of the start tension at the outside.
     assert!((table[0]["diameter"].as_f64().unwrap() - 0.1016).abs() < 1e-9);
-    assert!((table[10]["diameter"].as_f64().unwrap() - 1.0).abs() < 1e-9);
+    assert!((table[10]["diameter"].as_f64().unwrap() - 1.25).abs() < 1e-9);
+    assert!((table[10]["tension"].as_f64().unwrap() - 0.8 * t0).abs() < 1e-6);
+}
+
+/// The newsprint telescoping demo: the diagnosis blames its low tension (telescoping margin
+/// below 1), and taper design no longer keeps that schedule (issue: one criterion everywhere).
+#[test]
+fn the_schedule_the_diagnosis_blames_for_telescoping_is_not_kept() {
+    let out = bin()
+        .args([
+            "taper",
+            "cases/harbour_newsprint_telescoping.yaml",
+            "--json",
+        ])
+        .output()
+        .unwrap();
+    assert!(out.status.success());
+    let v: serde_json::Value = serde_json::from_slice(&out.stdout).unwrap();
+    let before = v["before"].as_array().unwrap();
+    let telescoping = before.iter().find(|c| c["limit"] == "telescoping").unwrap();
+    assert_eq!(telescoping["met"], false);
+    assert!(telescoping["value"].as_f64().unwrap() < 1.0);
+    // 0.5 pli = 87.56 N/m is not kept: the design winds tighter.
+    assert!(v["start_tension_n_per_m"].as_f64().unwrap() > 87.6);
 }
 
 #[test]
@@ -66,19 +91,20 @@ fn bad_options_are_refused() {
         ])
         .output()
         .unwrap();
-    assert_eq!(out.status.code(), Some(1));
-    assert!(String::from_utf8_lossy(&out.stderr).contains("core_share"));
+    // A bad option value is a usage error (exit 2), like an unknown option.
+    assert_eq!(out.status.code(), Some(2));
+    assert!(String::from_utf8_lossy(&out.stderr).contains("--core-share"));
     let out = bin()
         .args([
             "taper",
             "cases/harbour_newsprint_telescoping.yaml",
-            "--min-outer-pressure",
-            "14",
+            "--min-telescoping-margin",
+            "0",
         ])
         .output()
         .unwrap();
-    assert_eq!(out.status.code(), Some(1));
-    assert!(String::from_utf8_lossy(&out.stderr).contains("--min-outer-pressure"));
+    assert_eq!(out.status.code(), Some(2));
+    assert!(String::from_utf8_lossy(&out.stderr).contains("--min-telescoping-margin"));
 }
 
 #[test]

@@ -5,7 +5,7 @@
 use rolltriage::case::{ResolvedCase, ResolvedCore, ResolvedRoll, ResolvedWeb, ResolvedWinding};
 use rolltriage::model::{
     CoreStiffness, RadialStiffness, Resolution, SolverOptions, Taper, TensionSchedule,
-    WindingMethod, ZoneName, solve,
+    WindingMethod, solve,
 };
 use std::sync::OnceLock;
 
@@ -148,15 +148,16 @@ fn assert_meets_every_limit(case: &ResolvedCase, schedule: &TensionSchedule, lim
             p.radius[i]
         );
     }
-    let outer = p.zone(ZoneName::Outer).expect("profile has an outer zone");
-    let outer_min = p.pressure[outer.start..outer.end]
-        .iter()
-        .cloned()
-        .fold(f64::INFINITY, f64::min);
+    // Telescoping: the same margin the diagnosis reads (mechanics layer).
+    let telescoping = rolltriage::mechanics::telescoping::handling_margins(
+        &p,
+        &rolltriage::mechanics::MechanicsInputs::from_case(case),
+    );
     assert!(
-        outer_min >= limits.min_outer_pressure,
-        "outer pressure {outer_min} below {}",
-        limits.min_outer_pressure
+        telescoping.min_margin >= limits.min_telescoping_margin,
+        "telescoping margin {} below {}",
+        telescoping.min_margin,
+        limits.min_telescoping_margin
     );
     let wit = p.wound_in_tension.iter().cloned().fold(0.0, f64::max);
     assert!(
@@ -234,17 +235,17 @@ fn conflicting_limits_are_reported_with_the_pair_named() {
         ..SolverOptions::default()
     });
     let constant = solve(&problem).unwrap();
-    let outer = constant.zone(ZoneName::Outer).unwrap();
-    let outer_min = constant.pressure[outer.start..outer.end]
-        .iter()
-        .cloned()
-        .fold(f64::INFINITY, f64::min);
     // A very weak core (rated at half the constant-tension core pressure) and a demand for 90 %
-    // of the constant-tension roll's outer-zone pressure: reachable on its own, but the core
-    // wants little tension where the outside wants a lot.
+    // of the constant-tension roll's telescoping margin: reachable on its own, but the core
+    // wants little tension where the layers want a lot.
     let weak = film_roll(constant.pressure[0] / 2.0, 100.0);
+    let margin = rolltriage::mechanics::telescoping::handling_margins(
+        &constant,
+        &rolltriage::mechanics::MechanicsInputs::from_case(&weak),
+    )
+    .min_margin;
     let limits = TaperLimits {
-        min_outer_pressure: 0.9 * outer_min,
+        min_telescoping_margin: 0.9 * margin,
         ..TaperLimits::default()
     };
     let design = design_with(&weak, &limits, &options()).unwrap();
@@ -252,13 +253,13 @@ fn conflicting_limits_are_reported_with_the_pair_named() {
     let conflict = design.conflict.as_ref().expect("a conflict is named");
     let pair = [conflict.first, conflict.second];
     assert!(pair.contains(&Limit::CorePressure), "{pair:?}");
-    assert!(pair.contains(&Limit::OuterPressure), "{pair:?}");
+    assert!(pair.contains(&Limit::Telescoping), "{pair:?}");
     assert!(conflict.best_margin < 0.0);
     assert!(
         conflict
             .advice
             .iter()
-            .any(|a| a.contains("--min-outer-pressure"))
+            .any(|a| a.contains("--min-telescoping-margin"))
     );
     assert!(
         conflict
@@ -323,7 +324,7 @@ fn limits_out_of_range_are_rejected() {
             ..TaperLimits::default()
         },
         TaperLimits {
-            min_outer_pressure: f64::NAN,
+            min_telescoping_margin: f64::NAN,
             ..TaperLimits::default()
         },
     ] {

@@ -1,4 +1,5 @@
-//! Runs tests/tui_smoke.sh (the real binary driven in tmux) when tmux is installed. On CI
+//! Runs tests/tui_smoke.sh (the real binary driven in tmux) and tests/tui_signals.sh (the
+//! terminal restored on SIGTERM, SIGINT, SIGHUP, SIGQUIT) when tmux is installed. On CI
 //! (`CI=true`) a missing tmux is a failure, not a skip: .ci/run installs it.
 
 use std::process::Command;
@@ -12,6 +13,15 @@ fn tmux_present() -> bool {
 
 #[test]
 fn terminal_ui_end_to_end_in_tmux() {
+    run_script("tui_smoke");
+}
+
+#[test]
+fn terminal_restored_on_stop_signals_in_tmux() {
+    run_script("tui_signals");
+}
+
+fn run_script(name: &str) {
     if !tmux_present() {
         let on_ci = std::env::var("CI").is_ok_and(|v| v == "true" || v == "1");
         assert!(
@@ -23,7 +33,7 @@ fn terminal_ui_end_to_end_in_tmux() {
     }
     let root = env!("CARGO_MANIFEST_DIR");
     let output = Command::new("bash")
-        .arg(format!("{root}/tests/tui_smoke.sh"))
+        .arg(format!("{root}/tests/{name}.sh"))
         .arg(env!("CARGO_BIN_EXE_rolltriage"))
         .current_dir(root)
         .output()
@@ -32,7 +42,7 @@ fn terminal_ui_end_to_end_in_tmux() {
     let stderr = String::from_utf8_lossy(&output.stderr);
     assert!(
         output.status.success(),
-        "smoke test failed\nstdout:\n{stdout}\nstderr:\n{stderr}"
+        "{name} failed\nstdout:\n{stdout}\nstderr:\n{stderr}"
     );
-    assert!(stdout.contains("tui_smoke: ok"), "{stdout}");
+    assert!(stdout.contains(&format!("{name}: ok")), "{stdout}");
 }

@@ -86,7 +86,7 @@ fn inputs_screen_with_a_rejected_entry() {
     type_text(&mut app, "48 mil");
     app.handle_key(Key::Enter);
     // A fixed resolved case so the snapshot does not follow edits to the preset table.
-    app.resolved = Ok(resolved_with_assumed());
+    app.session.resolved = Ok(resolved_with_assumed());
     snapshot_all_sizes("inputs_rejected", &app);
 }
 
@@ -120,7 +120,7 @@ fn results_while_solving() {
 #[test]
 fn what_if_screen_before_and_after() {
     let mut app = with_results();
-    app.resolved = Ok(resolved("Sample"));
+    app.session.resolved = Ok(resolved("Sample"));
     app.handle_key(Key::F(5));
     app.handle_key(Key::Right);
     finish_requests(&mut app, &outcome(1.0), &outcome(0.8));
@@ -174,13 +174,13 @@ fn plots_label_every_zone_and_the_reference_lines_at_120_columns() {
 #[test]
 fn training_picker() {
     let mut app = app();
-    app.walkthroughs = rolltriage::training::library::embedded().unwrap();
+    app.session.walkthroughs = rolltriage::training::library::embedded().unwrap();
     app.handle_key(Key::Ctrl('t'));
     // Draw only the first size: the list itself follows the shipped walk-throughs.
     let screen = draw(&app, 80, 24);
     assert!(screen.contains("Training walk-throughs"), "{screen}");
     assert!(
-        screen.contains(&app.walkthroughs[0].walkthrough.title),
+        screen.contains(&app.session.walkthroughs[0].walkthrough.title),
         "{screen}"
     );
 }
@@ -188,8 +188,9 @@ fn training_picker() {
 #[test]
 fn training_walkthrough_question_and_feedback() {
     let mut app = app();
-    app.walkthroughs = rolltriage::training::library::embedded().unwrap();
+    app.session.walkthroughs = rolltriage::training::library::embedded().unwrap();
     let index = app
+        .session
         .walkthroughs
         .iter()
         .position(|w| w.walkthrough.id == "telescoping_newsprint")
@@ -232,7 +233,7 @@ fn what_if_shows_a_taper_design_with_its_limits() {
     // A small roll (about 260 wraps) keeps the design's many solves quick in debug builds.
     let mut small = resolved("Sample");
     small.roll.outer_diameter = 0.14;
-    app.resolved = Ok(small);
+    app.session.resolved = Ok(small);
     app.handle_key(Key::F(5));
     app.handle_key(Key::Char('d'));
     let request = app.take_requests().pop().unwrap();

@@ -3,7 +3,8 @@
 mod tui_support;
 
 use rolltriage::tui::app::{
-    PendingAction, Popup, ResultsFocus, Screen, Setting, SymptomFocus, WalkStage,
+    ConfirmPopup, HelpPopup, PendingAction, Popup, ResultsFocus, Screen, Setting, SymptomFocus,
+    TrainingPopup, WalkStage,
 };
 use rolltriage::tui::event::Key;
 use rolltriage::tui::job::Purpose;
@@ -19,29 +20,41 @@ fn type_text(app: &mut rolltriage::tui::app::App, text: &str) {
 fn opens_on_the_symptom_picker_with_a_clean_case() {
     let app = app();
     assert_eq!(app.screen, Screen::Symptoms);
-    assert!(!app.dirty);
-    assert!(app.case.symptoms.is_empty());
+    assert!(!app.session.dirty);
+    assert!(app.session.case.symptoms.is_empty());
 }
 
 #[test]
 fn typing_an_alias_finds_the_symptom_and_enter_picks_it() {
     let mut app = app();
     type_text(&mut app, "coning");
-    assert_eq!(app.highlighted_symptom().unwrap().id, "telescoping");
+    assert_eq!(
+        app.symptoms.highlighted_symptom(&app.session).unwrap().id,
+        "telescoping"
+    );
     app.handle_key(Key::Enter);
-    assert!(app.is_selected("telescoping"));
-    assert!(app.dirty);
+    assert!(app.session.is_selected("telescoping"));
+    assert!(app.session.dirty);
     // Esc clears the search; a second symptom by another alias.
     app.handle_key(Key::Esc);
     assert_eq!(app.symptoms.query, "");
     type_text(&mut app, "stars");
-    assert_eq!(app.highlighted_symptom().unwrap().id, "starring");
+    assert_eq!(
+        app.symptoms.highlighted_symptom(&app.session).unwrap().id,
+        "starring"
+    );
     app.handle_key(Key::Enter);
-    let ids: Vec<&str> = app.case.symptoms.iter().map(|s| s.id.as_str()).collect();
+    let ids: Vec<&str> = app
+        .session
+        .case
+        .symptoms
+        .iter()
+        .map(|s| s.id.as_str())
+        .collect();
     assert_eq!(ids, ["telescoping", "starring"]);
     // Enter again unpicks.
     app.handle_key(Key::Enter);
-    assert!(!app.is_selected("starring"));
+    assert!(!app.session.is_selected("starring"));
 }
 
 #[test]
@@ -60,22 +73,31 @@ fn where_on_the_roll_and_questions_are_stored_in_the_case() {
     assert_eq!(app.symptoms.focus, SymptomFocus::Details);
     // Saying where it shows also picks it.
     app.handle_key(Key::Right);
-    let observed = &app.case.symptoms[0];
+    let observed = &app.session.case.symptoms[0];
     assert_eq!(observed.id, "telescoping");
     assert_eq!(observed.place.as_deref(), Some("core"));
     app.handle_key(Key::Right);
-    assert_eq!(app.case.symptoms[0].place.as_deref(), Some("body"));
+    assert_eq!(app.session.case.symptoms[0].place.as_deref(), Some("body"));
     app.handle_key(Key::Left);
     app.handle_key(Key::Left);
-    assert_eq!(app.case.symptoms[0].place.as_deref(), Some("whole_roll"));
+    assert_eq!(
+        app.session.case.symptoms[0].place.as_deref(),
+        Some("whole_roll")
+    );
     // The yes/no question.
     app.handle_key(Key::Down);
     app.handle_key(Key::Char('y'));
-    assert_eq!(app.case.answers["telescoping_after_handling"], "yes");
+    assert_eq!(
+        app.session.case.answers["telescoping_after_handling"],
+        "yes"
+    );
     app.handle_key(Key::Enter);
-    assert_eq!(app.case.answers["telescoping_after_handling"], "no");
+    assert_eq!(app.session.case.answers["telescoping_after_handling"], "no");
     app.handle_key(Key::Char('u'));
-    assert_eq!(app.case.answers["telescoping_after_handling"], "unknown");
+    assert_eq!(
+        app.session.case.answers["telescoping_after_handling"],
+        "unknown"
+    );
     app.handle_key(Key::Esc);
     assert_eq!(app.symptoms.focus, SymptomFocus::List);
 }
@@ -87,12 +109,12 @@ fn choice_questions_store_the_choice_id() {
     app.handle_key(Key::Right);
     app.handle_key(Key::Down);
     app.handle_key(Key::Right);
-    assert_eq!(app.case.answers["starring_radius"], "near_core");
+    assert_eq!(app.session.case.answers["starring_radius"], "near_core");
     app.handle_key(Key::Right);
-    assert_eq!(app.case.answers["starring_radius"], "mid_roll");
+    assert_eq!(app.session.case.answers["starring_radius"], "mid_roll");
     // y is not one of this question's answers: ignored.
     app.handle_key(Key::Char('y'));
-    assert_eq!(app.case.answers["starring_radius"], "mid_roll");
+    assert_eq!(app.session.case.answers["starring_radius"], "mid_roll");
 }
 
 fn go_to_field(app: &mut rolltriage::tui::app::App, path: &str) {
@@ -116,7 +138,7 @@ fn unit_aware_fields_accept_trade_units_and_reject_wrong_ones_in_place() {
     app.handle_key(Key::Enter);
     assert_eq!(app.inputs.error, None);
     assert_eq!(
-        rolltriage::tui::fields::get(&app.case, "winding.tension").as_deref(),
+        rolltriage::tui::fields::get(&app.session.case, "winding.tension").as_deref(),
         Some("3 pli")
     );
     // A length is not a tension: rejected, the text stays for correction, the case unchanged.
@@ -134,7 +156,7 @@ fn unit_aware_fields_accept_trade_units_and_reject_wrong_ones_in_place() {
     assert_eq!(error, expected);
     assert_eq!(app.inputs.editing.as_deref(), Some("48 mil"));
     assert_eq!(
-        rolltriage::tui::fields::get(&app.case, "winding.tension").as_deref(),
+        rolltriage::tui::fields::get(&app.session.case, "winding.tension").as_deref(),
         Some("3 pli")
     );
     // Correct it in place.
@@ -145,14 +167,14 @@ fn unit_aware_fields_accept_trade_units_and_reject_wrong_ones_in_place() {
     app.handle_key(Key::Enter);
     assert_eq!(app.inputs.error, None);
     assert_eq!(
-        rolltriage::tui::fields::get(&app.case, "winding.tension").as_deref(),
+        rolltriage::tui::fields::get(&app.session.case, "winding.tension").as_deref(),
         Some("525 N/m")
     );
     // Delete clears the field back to "assumed".
     go_to_field(&mut app, "winding.tension");
     app.handle_key(Key::Delete);
     assert_eq!(
-        rolltriage::tui::fields::get(&app.case, "winding.tension"),
+        rolltriage::tui::fields::get(&app.session.case, "winding.tension"),
         None
     );
 }
@@ -163,12 +185,15 @@ fn presets_and_choices_cycle_with_arrows() {
     app.handle_key(Key::F(3));
     go_to_field(&mut app, "web.preset");
     app.handle_key(Key::Right);
-    assert_eq!(app.case.web.preset.as_deref(), Some("newsprint"));
+    assert_eq!(app.session.case.web.preset.as_deref(), Some("newsprint"));
     app.handle_key(Key::Right);
-    assert_eq!(app.case.web.preset.as_deref(), Some("pet_film"));
+    assert_eq!(app.session.case.web.preset.as_deref(), Some("pet_film"));
     go_to_field(&mut app, "winding.taper.kind");
     app.handle_key(Key::Left);
-    assert_eq!(app.case.winding.taper.as_ref().unwrap().kind, "hyperbolic");
+    assert_eq!(
+        app.session.case.winding.taper.as_ref().unwrap().kind,
+        "hyperbolic"
+    );
 }
 
 #[test]
@@ -179,7 +204,7 @@ fn leaving_for_results_queues_one_solve_and_shows_the_outcome() {
     let requests = app.take_requests();
     assert_eq!(requests.len(), 1);
     assert_eq!(requests[0].purpose, Purpose::Baseline);
-    assert!(app.is_solving());
+    assert!(app.session.is_solving());
     // Switching screens while the solve runs queues nothing more.
     app.handle_key(Key::Tab);
     app.handle_key(Key::BackTab);
@@ -188,15 +213,15 @@ fn leaving_for_results_queues_one_solve_and_shows_the_outcome() {
         id: requests[0].id,
         fraction: 0.4,
     });
-    assert_eq!(app.running_baseline.unwrap().fraction, 0.4);
+    assert_eq!(app.session.running_baseline.unwrap().fraction, 0.4);
     app.on_job(rolltriage::tui::job::JobMessage::Finished {
         id: requests[0].id,
         purpose: Purpose::Baseline,
         generation: requests[0].generation,
         result: Ok(Box::new(outcome(1.0))),
     });
-    assert!(!app.is_solving());
-    assert!(app.current_outcome().is_some());
+    assert!(!app.session.is_solving());
+    assert!(app.session.current_outcome().is_some());
 }
 
 #[test]
@@ -206,7 +231,7 @@ fn stale_results_are_marked_and_resolved_again_on_return() {
     finish_requests(&mut app, &outcome(1.0), &outcome(1.0));
     app.handle_key(Key::F(2));
     app.handle_key(Key::Enter); // unpick the first symptom: the case changed
-    assert!(app.baseline_is_stale());
+    assert!(app.session.baseline_is_stale());
     app.handle_key(Key::F(4));
     assert_eq!(app.take_requests().len(), 1);
 }
@@ -226,7 +251,7 @@ fn causes_expand_and_remedies_lead_to_what_if() {
     // Remedies: "raise_tension" is a setting the what-if can try.
     app.handle_key(Key::Right);
     assert_eq!(app.results.focus, ResultsFocus::Remedies);
-    app.resolved = Ok(resolved("Sample"));
+    app.session.resolved = Ok(resolved("Sample"));
     app.handle_key(Key::Enter);
     assert_eq!(app.screen, Screen::WhatIf);
     assert_eq!(app.what_if.remedy.as_deref(), Some("raise_tension"));
@@ -242,12 +267,12 @@ fn causes_expand_and_remedies_lead_to_what_if() {
     assert!((trial.winding.tension.start_tension - 525.0 * 1.15).abs() < 1e-9);
     // Keeping it writes the new tension into the case.
     app.handle_key(Key::Char('a'));
-    match app.case.winding.tension {
+    match app.session.case.winding.tension {
         Some(rolltriage::case::QuantityText::Number(v)) => assert!((v - 603.75).abs() < 1e-9),
         ref other => panic!("unexpected tension {other:?}"),
     }
     // "store_rolls_on_end" changes no winder setting.
-    assert!(!app.remedy_is_tryable("store_rolls_on_end"));
+    assert!(!app.session.remedy_is_tryable("store_rolls_on_end"));
 }
 
 #[test]
@@ -255,7 +280,7 @@ fn what_if_changes_one_setting_and_can_be_kept() {
     let mut app = app();
     app.set_case(sample_case(), None);
     finish_requests(&mut app, &outcome(1.0), &outcome(1.0));
-    app.resolved = Ok(resolved("Sample"));
+    app.session.resolved = Ok(resolved("Sample"));
     app.handle_key(Key::F(5));
     assert_eq!(app.screen, Screen::WhatIf);
     // Web tension up two steps: +20 % of 525 N/m.
@@ -292,10 +317,13 @@ fn what_if_changes_one_setting_and_can_be_kept() {
         .unwrap();
     assert_eq!(taper.kind, "hyperbolic");
     // Keep it: the case changes and is unsaved.
-    app.dirty = false;
+    app.session.dirty = false;
     app.handle_key(Key::Char('a'));
-    assert!(app.dirty);
-    assert_eq!(app.case.winding.taper.as_ref().unwrap().kind, "hyperbolic");
+    assert!(app.session.dirty);
+    assert_eq!(
+        app.session.case.winding.taper.as_ref().unwrap().kind,
+        "hyperbolic"
+    );
     assert!(app.what_if.change.is_none());
 }
 
@@ -304,7 +332,7 @@ fn what_if_messages_of_an_older_request_are_ignored() {
     let mut app = app();
     app.set_case(sample_case(), None);
     finish_requests(&mut app, &outcome(1.0), &outcome(1.0));
-    app.resolved = Ok(resolved("Sample"));
+    app.session.resolved = Ok(resolved("Sample"));
     app.handle_key(Key::F(5));
     app.handle_key(Key::Right);
     let old = app.take_requests().pop().unwrap();
@@ -332,10 +360,13 @@ fn quitting_with_unsaved_changes_asks_first() {
     type_text(&mut app, "telesc");
     app.handle_key(Key::Enter);
     app.handle_key(Key::Ctrl('q'));
-    assert_eq!(app.popup, Some(Popup::Confirm(PendingAction::Quit)));
+    assert_eq!(
+        app.popup(),
+        Some(&Popup::Confirm(ConfirmPopup(PendingAction::Quit)))
+    );
     assert!(!app.should_quit);
     app.handle_key(Key::Esc);
-    assert_eq!(app.popup, None);
+    assert_eq!(app.popup(), None);
     assert!(!app.should_quit);
     app.handle_key(Key::Ctrl('q'));
     app.handle_key(Key::Char('d'));
@@ -360,8 +391,8 @@ fn save_writes_the_case_atomically_and_clears_the_modified_mark() {
     app.handle_key(Key::Enter);
     app.handle_key(Key::Ctrl('s'));
     // No file yet: asks for a name, suggested from the title.
-    match &app.popup {
-        Some(Popup::SaveAs { input, .. }) => assert_eq!(input, "new_case.yaml"),
+    match app.popup() {
+        Some(Popup::File(p)) => assert_eq!(p.prompt.input, "new_case.yaml"),
         other => panic!("expected the save prompt, got {other:?}"),
     }
     for _ in 0.."new_case.yaml".len() {
@@ -369,8 +400,8 @@ fn save_writes_the_case_atomically_and_clears_the_modified_mark() {
     }
     type_text(&mut app, path.to_str().unwrap());
     app.handle_key(Key::Enter);
-    assert_eq!(app.popup, None, "status: {:?}", app.status);
-    assert!(!app.dirty);
+    assert_eq!(app.popup(), None, "status: {:?}", app.session.status);
+    assert!(!app.session.dirty);
     let text = std::fs::read_to_string(&path).unwrap();
     assert!(text.contains("telescoping"), "{text}");
     // No temporary file left behind.
@@ -391,12 +422,12 @@ fn save_writes_the_case_atomically_and_clears_the_modified_mark() {
 fn help_popup_opens_and_closes() {
     let mut app = app();
     app.handle_key(Key::F(1));
-    assert_eq!(app.popup, Some(Popup::Help));
+    assert_eq!(app.popup(), Some(&Popup::Help(HelpPopup::default())));
     // Keys do not leak through the popup.
     app.handle_key(Key::Char('x'));
     assert_eq!(app.symptoms.query, "");
     app.handle_key(Key::Esc);
-    assert_eq!(app.popup, None);
+    assert_eq!(app.popup(), None);
 }
 
 #[test]
@@ -453,13 +484,17 @@ fn a_blank_case_shows_preset_values_as_assumed_not_entered() {
     // The case layer resolves a blank case from presets and defaults; every field it fills
     // is listed as assumed, and the form shows it so.
     let resolved = app
+        .session
         .resolved
         .as_ref()
         .expect("a blank case resolves from presets");
     assert!(!resolved.assumed.is_empty());
     for field in ["web.thickness", "winding.method"] {
-        assert!(app.assumed(field).is_some(), "{field} should be assumed");
-        assert_eq!(rolltriage::tui::fields::get(&app.case, field), None);
+        assert!(
+            app.session.assumed(field).is_some(),
+            "{field} should be assumed"
+        );
+        assert_eq!(rolltriage::tui::fields::get(&app.session.case, field), None);
     }
 }
 
@@ -470,11 +505,13 @@ fn export_writes_a_report_of_the_results_in_the_format_of_the_file_name() {
     app.set_case(sample_case(), None);
     finish_requests(&mut app, &outcome(1.0), &outcome(1.0));
     app.handle_key(Key::Ctrl('e'));
-    match &app.popup {
-        Some(Popup::Export { input, .. }) => assert!(input.ends_with("_report.md"), "{input}"),
+    match app.popup() {
+        Some(Popup::File(p)) => {
+            assert!(p.prompt.input.ends_with("_report.md"), "{}", p.prompt.input)
+        }
         other => panic!("expected the export prompt, got {other:?}"),
     }
-    app.popup = None;
+    app.popups.clear();
     for (name, needle) in [
         ("r.md", "Web tension too low for this web"),
         ("r.json", "tension_too_low"),
@@ -498,14 +535,18 @@ fn export_refuses_out_of_date_results() {
 }
 
 fn start_walkthrough(app: &mut rolltriage::tui::app::App, id: &str) {
-    app.walkthroughs = rolltriage::training::library::embedded().unwrap();
+    app.session.walkthroughs = rolltriage::training::library::embedded().unwrap();
     let index = app
+        .session
         .walkthroughs
         .iter()
         .position(|w| w.walkthrough.id == id)
         .unwrap();
     app.handle_key(Key::Ctrl('t'));
-    assert_eq!(app.popup, Some(Popup::Training { selected: 0 }));
+    assert_eq!(
+        app.popup(),
+        Some(&Popup::Training(TrainingPopup { selected: 0 }))
+    );
     for _ in 0..index {
         app.handle_key(Key::Down);
     }
@@ -513,9 +554,12 @@ fn start_walkthrough(app: &mut rolltriage::tui::app::App, id: &str) {
 }
 
 fn walk_stage(app: &rolltriage::tui::app::App) -> WalkStage {
-    match &app.popup {
+    match app.popup() {
         Some(Popup::Walkthrough(run)) => run.stage.clone(),
-        other => panic!("expected a walk-through, got {other:?} ({:?})", app.status),
+        other => panic!(
+            "expected a walk-through, got {other:?} ({:?})",
+            app.session.status
+        ),
     }
 }
 
@@ -524,7 +568,7 @@ fn training_walkthrough_is_answered_inside_the_ui_and_scored() {
     let mut app = app();
     start_walkthrough(&mut app, "telescoping_newsprint");
     // Its case is open, on the symptoms (the walk-through asks for the cause).
-    assert!(!app.case.symptoms.is_empty());
+    assert!(!app.session.case.symptoms.is_empty());
     assert_eq!(app.screen, Screen::Symptoms);
     assert_eq!(walk_stage(&app), WalkStage::Briefing);
     app.handle_key(Key::Enter);
@@ -578,7 +622,7 @@ fn training_walkthrough_is_answered_inside_the_ui_and_scored() {
     app.handle_key(Key::Char('2'));
     app.handle_key(Key::Enter);
     assert_eq!(walk_stage(&app), WalkStage::Done);
-    match &app.popup {
+    match app.popup() {
         Some(Popup::Walkthrough(run)) => {
             let score = run.session.score();
             assert_eq!((score.correct, score.answered, score.total), (3, 4, 4));
@@ -591,9 +635,9 @@ fn training_walkthrough_is_answered_inside_the_ui_and_scored() {
         other => panic!("{other:?}"),
     }
     app.handle_key(Key::Enter);
-    assert_eq!(app.popup, None);
+    assert_eq!(app.popup(), None);
     assert_eq!(
-        app.status.as_deref(),
+        app.session.status.as_deref(),
         Some("Walk-through left: 3 of 4 correct (75 %)")
     );
 }
@@ -605,13 +649,13 @@ fn escape_leaves_a_walkthrough_half_way() {
     app.handle_key(Key::Enter);
     app.handle_key(Key::Char('1'));
     app.handle_key(Key::Esc);
-    assert_eq!(app.popup, None);
+    assert_eq!(app.popup(), None);
     assert_eq!(
-        app.status.as_deref(),
+        app.session.status.as_deref(),
         Some("Walk-through left: 0 of 4 correct (0 %), 3 not answered")
     );
     // The case stays open and the UI answers keys again.
-    assert!(!app.case.symptoms.is_empty());
+    assert!(!app.session.case.symptoms.is_empty());
     app.handle_key(Key::F(3));
     assert_eq!(app.screen, Screen::Inputs);
 }
@@ -624,12 +668,12 @@ fn taper_design_runs_as_a_background_job_and_can_be_kept() {
     // A small roll (about 260 wraps) keeps the many solves of the design quick in debug builds.
     let mut small = resolved("Sample");
     small.roll.outer_diameter = 0.14;
-    app.resolved = Ok(small);
+    app.session.resolved = Ok(small);
     app.handle_key(Key::F(5));
     app.handle_key(Key::Char('d'));
     let request = app.take_requests().pop().unwrap();
     assert_eq!(request.task, rolltriage::tui::job::Task::DesignTaper);
-    assert!(app.is_solving());
+    assert!(app.session.is_solving());
     // Run the real design on the sample case, as the worker thread would.
     let design =
         rolltriage::taper_design::design(request.resolved.as_ref().unwrap(), &Default::default())
@@ -639,7 +683,7 @@ fn taper_design_runs_as_a_background_job_and_can_be_kept() {
         generation: request.generation,
         result: Ok(Box::new(design.clone())),
     });
-    assert!(!app.is_solving());
+    assert!(!app.session.is_solving());
     assert!(
         app.what_if
             .description
@@ -648,14 +692,14 @@ fn taper_design_runs_as_a_background_job_and_can_be_kept() {
             .starts_with("Designed taper")
     );
     app.handle_key(Key::Char('a'));
-    assert!(app.dirty);
-    match &app.case.winding.tension {
+    assert!(app.session.dirty);
+    match &app.session.case.winding.tension {
         Some(rolltriage::case::QuantityText::Number(v)) => {
             assert!((v - design.start_tension).abs() < 1e-9)
         }
         other => panic!("unexpected tension {other:?}"),
     }
-    assert!(app.case.winding.taper.is_some());
+    assert!(app.session.case.winding.taper.is_some());
 }
 
 #[test]
@@ -663,7 +707,7 @@ fn core_step_doubles_the_effective_core_stiffness_at_the_same_size() {
     let mut app = app();
     app.set_case(sample_case(), None);
     finish_requests(&mut app, &outcome(1.0), &outcome(1.0));
-    app.resolved = Ok(resolved("Sample"));
+    app.session.resolved = Ok(resolved("Sample"));
     app.handle_key(Key::F(5));
     for _ in 0..3 {
         app.handle_key(Key::Down);
@@ -682,8 +726,8 @@ fn core_step_doubles_the_effective_core_stiffness_at_the_same_size() {
     );
 }
 
-fn calibrate_popup(app: &rolltriage::tui::app::App) -> &rolltriage::tui::app::CalibratePrompt {
-    match &app.popup {
+fn calibrate_popup(app: &rolltriage::tui::app::App) -> &rolltriage::tui::app::CalibratePopup {
+    match app.popup() {
         Some(Popup::Calibrate(prompt)) => prompt,
         other => panic!("expected the calibration popup, got {other:?}"),
     }
@@ -704,7 +748,7 @@ fn stack_calibration_fits_the_csv_and_writes_k1_k2_into_the_case() {
     type_into(&mut app, "cases/calibration/harbour_news_45.csv");
     app.handle_key(Key::Enter);
     let prompt = calibrate_popup(&app);
-    assert_eq!(prompt.error, None);
+    assert_eq!(prompt.prompt.error, None);
     let fitted = prompt.fit.as_ref().unwrap();
     // SciPy's curve_fit on the same file, relative weighting
     // (tests/reference/curve_fit_pfeiffer.json): K1 4398.08 Pa, K2 21.2723, 19 loading points.
@@ -722,24 +766,24 @@ fn stack_calibration_fits_the_csv_and_writes_k1_k2_into_the_case() {
     assert!(rel(fitted.fit.k1_standard_error, 83.44074773345993) < 0.05);
     assert_eq!(fitted.fit.points.len(), 19);
     // Nothing is written until it is confirmed.
-    assert!(!app.dirty);
-    let generation = app.generation;
+    assert!(!app.session.dirty);
+    let generation = app.session.generation;
     app.handle_key(Key::Enter);
-    assert_eq!(app.popup, None);
-    assert!(app.dirty);
-    assert!(app.generation > generation);
-    let stiffness = app.case.web.radial_stiffness.clone().unwrap();
+    assert_eq!(app.popup(), None);
+    assert!(app.session.dirty);
+    assert!(app.session.generation > generation);
+    let stiffness = app.session.case.web.radial_stiffness.clone().unwrap();
     assert_eq!(stiffness.law, "pfeiffer");
     assert!(rel(stiffness.k2.unwrap(), 21.272339472054416) < 1e-3);
     // The case resolves with the fitted law in Pa.
-    match app.resolved.as_ref().unwrap().web.radial_stiffness {
+    match app.session.resolved.as_ref().unwrap().web.radial_stiffness {
         rolltriage::model::RadialStiffness::Pfeiffer { k1, k2 } => {
             assert!(rel(k1, 4398.079832042864) < 1e-3, "{k1}");
             assert!(rel(k2, 21.272339472054416) < 1e-3, "{k2}");
         }
         ref other => panic!("{other:?}"),
     }
-    assert!(app.status.as_deref().unwrap().contains("unsaved"));
+    assert!(app.session.status.as_deref().unwrap().contains("unsaved"));
 }
 
 #[test]
@@ -750,7 +794,7 @@ fn stack_calibration_reports_bad_files_in_the_popup() {
     app.handle_key(Key::Ctrl('k'));
     type_into(&mut app, "cases/calibration/no_such_file.csv");
     app.handle_key(Key::Enter);
-    let error = calibrate_popup(&app).error.clone().unwrap();
+    let error = calibrate_popup(&app).prompt.error.clone().unwrap();
     assert!(error.contains("no_such_file.csv"), "{error}");
     assert!(calibrate_popup(&app).fit.is_none());
 
@@ -762,12 +806,22 @@ fn stack_calibration_reports_bad_files_in_the_popup() {
     }
     type_into(&mut app, bad.to_str().unwrap());
     app.handle_key(Key::Enter);
-    let error = calibrate_popup(&app).error.clone().unwrap();
+    let error = calibrate_popup(&app).prompt.error.clone().unwrap();
     assert!(error.contains("bad.csv"), "{error}");
     // Enter again with the error shown does not write anything; Esc closes.
     app.handle_key(Key::Enter);
     app.handle_key(Key::Esc);
-    assert_eq!(app.popup, None);
-    assert!(!app.dirty);
-    assert!(app.case.web.radial_stiffness.is_none());
+    assert_eq!(app.popup(), None);
+    assert!(!app.session.dirty);
+    assert!(app.session.case.web.radial_stiffness.is_none());
+}
+
+#[test]
+fn esc_run_together_with_a_letter_is_esc_then_the_letter() {
+    // Terminals send Esc then "c" as Alt-c when they arrive together (a busy machine): the
+    // search must be cleared, then "c" typed, not "c" added to the old search.
+    let mut app = app();
+    type_text(&mut app, "telesc");
+    app.handle_event(rolltriage::tui::event::Event::Key(Key::Alt('c')));
+    assert_eq!(app.symptoms.query, "c");
 }

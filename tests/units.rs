@@ -72,6 +72,16 @@ fn nist_pli_is_175_1268_n_per_m() {
 }
 
 #[test]
+fn mega_newton_per_metre_is_accepted_and_milli_is_refused() {
+    // NIST SP 811 section 4 (SI prefixes): mega = 1E+06. The case-format limits are given in
+    // MN/m, so the unit named there must parse; "mN/m" (milli) must not be read as mega.
+    assert_relative_eq!(si("10 MN/m", QuantityKind::ForcePerWidth), 1.0e7);
+    assert_relative_eq!(si("0.002 MN/m", QuantityKind::ForcePerWidth), 2000.0);
+    assert!(parse_quantity("web.strength", "300 mN/m", QuantityKind::ForcePerWidth).is_err());
+    assert!(parse_quantity("web.strength", "300 mn/m", QuantityKind::ForcePerWidth).is_err());
+}
+
+#[test]
 fn nist_psi_is_6894_757_pa() {
     // NIST SP 811 B.8: pound-force per square inch (psi) → pascal (Pa), 6.894 757 E+03;
     // kip per square inch (ksi) → pascal, 6.894 757 E+06.

@@ -81,25 +81,27 @@ impl MaterialEntry {
             id: id.to_string(),
             title,
             radial_stiffness: super::radial_stiffness_input(fit),
-            caliper: caliper.map(|c| format!("{} um", super::significant(c * 1e6, 4))),
+            caliper: caliper.map(|c| format!("{} um", number(super::significant(c * 1e6, 4)))),
             fit: Some(FitRecord {
                 source: source.to_string(),
                 points: fit.points.len(),
                 r_squared: super::significant(fit.r_squared, 6),
                 k1_standard_error: format!(
                     "{} kPa",
-                    super::significant(fit.k1_standard_error / 1e3, 3)
+                    number(super::significant(fit.k1_standard_error / 1e3, 3))
                 ),
                 k2_standard_error: super::significant(fit.k2_standard_error, 3),
                 weighting: fit.weighting,
                 max_measured_pressure: format!(
                     "{} kPa",
-                    super::significant(fit.max_measured_pressure() / 1e3, 4)
+                    number(super::significant(fit.max_measured_pressure() / 1e3, 4))
                 ),
             }),
         }
     }
 }
+
+use super::write_case::case_number as number;
 
 /// Check a material ID: lowercase letters, digits and `_`, starting with a letter.
 pub fn check_id(id: &str) -> Result<(), String> {
@@ -119,6 +121,16 @@ pub fn check_id(id: &str) -> Result<(), String> {
 impl MaterialLibrary {
     /// Parse a library file's text.
     pub fn from_yaml_str(text: &str, origin: &str) -> Result<MaterialLibrary, CalibrateError> {
+        // Aliases are refused before parsing: expanding an alias chain costs work exponential
+        // in the file size.
+        if let Some((line, column)) = crate::case::yaml_guard::first_alias(text) {
+            return Err(CalibrateError::Library {
+                path: origin.to_string(),
+                message: format!(
+                    "line {line}, column {column}: a YAML alias (`*name`) is not accepted in a material library; write the value out instead"
+                ),
+            });
+        }
         let library: MaterialLibrary =
             yaml::from_str(text).map_err(|e| CalibrateError::Library {
                 path: origin.to_string(),
@@ -142,8 +154,23 @@ impl MaterialLibrary {
         Ok(library)
     }
 
-    /// Read a library file; a missing file is an empty library.
+    /// Read a library file; a missing file is an empty library. Like case files, a library
+    /// is at most 1 MiB, and a pipe or device is refused rather than waited on.
     pub fn load_or_new(path: &Path) -> Result<MaterialLibrary, CalibrateError> {
+        if let Ok(meta) = std::fs::metadata(path) {
+            let refused = |message: &str| CalibrateError::Library {
+                path: path.display().to_string(),
+                message: message.to_string(),
+            };
+            if !meta.is_file() {
+                return Err(refused("not a regular file (a folder, pipe or device)"));
+            }
+            if meta.len() > crate::case::MAX_CASE_FILE_BYTES {
+                return Err(refused(
+                    "larger than 1 MiB, the limit for material libraries; not read",
+                ));
+            }
+        }
         match std::fs::read_to_string(path) {
             Ok(text) => MaterialLibrary::from_yaml_str(&text, &path.display().to_string()),
             Err(e) if e.kind() == std::io::ErrorKind::NotFound => Ok(MaterialLibrary::default()),

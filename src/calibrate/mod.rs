@@ -9,12 +9,14 @@
 pub mod levenberg_marquardt;
 pub mod library;
 pub mod stack_data;
+pub mod write_case;
 
 use nalgebra::{DMatrix, DVector};
 
 pub use library::{MaterialEntry, MaterialLibrary};
 pub use stack_data::{
-    LoadingBranch, StackPoint, StackReadOptions, StackTest, loading_branch, parse_stack_csv,
+    LoadingBranch, MAX_STACK_FILE_BYTES, StackPoint, StackReadOptions, StackTest, loading_branch,
+    parse_stack_csv, read_stack_file,
 };
 
 use levenberg_marquardt::{LeastSquaresModel, LmOptions};
@@ -61,6 +63,8 @@ pub enum CalibrateError {
     Library { path: String, message: String },
     #[error(transparent)]
     Save(#[from] crate::fsutil::SaveError),
+    #[error(transparent)]
+    NotFinite(#[from] crate::finite::NonFinite),
     #[error("cannot read {path}: {source}")]
     Read {
         path: std::path::PathBuf,
@@ -452,7 +456,7 @@ pub fn radial_stiffness_input(fit: &PfeifferFit) -> crate::case::RadialStiffness
         law: "pfeiffer".into(),
         k1: Some(crate::case::QuantityText::Text(format!(
             "{} kPa",
-            significant(fit.k1 / 1e3, 5)
+            write_case::case_number(significant(fit.k1 / 1e3, 5))
         ))),
         k2: Some(significant(fit.k2, 5)),
         modulus: None,
@@ -474,6 +478,36 @@ pub fn significant(value: f64, digits: i32) -> f64 {
 /// Write the fit into a case's `web.radial_stiffness` (in memory; the caller saves).
 pub fn apply_to_case(case: &mut crate::case::Case, fit: &PfeifferFit) {
     case.web.radial_stiffness = Some(radial_stiffness_input(fit));
+}
+
+/// Read a stack-compression CSV file and fit Pfeiffer's law to it: what
+/// `rolltriage calibrate stack` and the terminal UI's calibration both do.
+pub fn fit_stack_file(
+    path: &std::path::Path,
+    read: &StackReadOptions,
+    options: &FitOptions,
+) -> Result<(StackTest, PfeifferFit), CalibrateError> {
+    let text = read_stack_file(path)?;
+    let origin = path.display().to_string();
+    let test = parse_stack_csv(&text, &origin, read)?;
+    let fit = fit_pfeiffer(&test, options)?;
+    // Whatever the input checks let through, a non-finite fit is refused, not shown.
+    crate::finite::ensure_finite(&format!("the stack fit of {origin}"), &fit)?;
+    Ok((test, fit))
+}
+
+/// A warning when the stack's caliper and the case's web thickness (m) differ by more than
+/// 10 %: the stack is probably another web. `field` names the thickness as the reader knows it.
+pub fn caliper_warning(test: &StackTest, thickness: f64, field: &str) -> Option<String> {
+    let caliper = test.caliper()?;
+    (thickness > 0.0 && (caliper / thickness - 1.0).abs() > 0.10).then(|| {
+        format!(
+            "the stack's caliper ({:.1} µm) differs from the case's {field} ({:.1} µm) by more \
+             than 10 %; is this the same web?",
+            caliper * 1e6,
+            thickness * 1e6
+        )
+    })
 }
 
 #[cfg(test)]
@@ -516,5 +550,26 @@ mod tests {
     fn significant_digits() {
         assert_eq!(significant(12_345.678, 3), 12_300.0);
         assert_eq!(significant(0.012_345, 2), 0.012);
+    }
+
+    #[test]
+    fn a_stack_file_fits_as_its_text_does() {
+        // fit_stack_file is reading the file plus the two calls the command line makes.
+        let path = std::path::Path::new(env!("CARGO_MANIFEST_DIR"))
+            .join("cases/calibration/harbour_news_45.csv");
+        let read = StackReadOptions::default();
+        let options = FitOptions::default();
+        let (test, fit) = fit_stack_file(&path, &read, &options).unwrap();
+        let text = std::fs::read_to_string(&path).unwrap();
+        let direct = parse_stack_csv(&text, &path.display().to_string(), &read).unwrap();
+        assert_eq!(test.points.len(), direct.points.len());
+        assert_eq!(fit.k1, fit_pfeiffer(&direct, &options).unwrap().k1);
+        let missing = fit_stack_file(&path.with_extension("none"), &read, &options);
+        assert!(matches!(missing, Err(CalibrateError::Read { .. })));
+        // The caliper check: a thickness 5 % off is the same web, 25 % off is not (limit 10 %).
+        if let Some(caliper) = test.caliper() {
+            assert!(caliper_warning(&test, caliper * 1.05, "t").is_none());
+            assert!(caliper_warning(&test, caliper * 1.25, "t").is_some());
+        }
     }
 }

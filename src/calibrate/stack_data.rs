@@ -5,8 +5,14 @@
 //! `strain` (a fraction), `strain [%]`, `height [mm]` (any length unit), `pressure [kPa]`
 //! (any stress unit). Lines starting with `#` are comments; `# key: value` comments at the top
 //! carry metadata: `initial_height`, `layers`, `sample`, `material`.
+//!
+//! Read exactly: a data row with more cells than the header is an error (a decimal-comma file
+//! would otherwise be read as extra columns), line endings may be LF, CRLF or CR alone, and
+//! files over [`MAX_STACK_FILE_BYTES`] are refused unread, like case files.
 
 use std::collections::BTreeMap;
+use std::io::Read;
+use std::path::Path;
 
 use crate::units::{QuantityKind, parse_quantity};
 
@@ -148,12 +154,73 @@ fn read_metadata(text: &str) -> BTreeMap<String, String> {
     metadata
 }
 
+/// Largest stack-test file read (1 MiB, as for case files): tens of thousands of rows, far
+/// more than a stack test has.
+pub const MAX_STACK_FILE_BYTES: u64 = 1024 * 1024;
+
+fn too_large(origin: &str) -> CalibrateError {
+    CalibrateError::Csv {
+        origin: origin.to_string(),
+        message: format!(
+            "the file is larger than {} KiB, the limit for stack-test data; thin the rows out",
+            MAX_STACK_FILE_BYTES / 1024
+        ),
+    }
+}
+
+/// Read a stack-test file: a regular file (a pipe or device is refused rather than waited
+/// on) of at most [`MAX_STACK_FILE_BYTES`], in UTF-8.
+pub fn read_stack_file(path: &Path) -> Result<String, CalibrateError> {
+    let origin = path.display().to_string();
+    let read_error = |source| CalibrateError::Read {
+        path: path.to_path_buf(),
+        source,
+    };
+    // Checked before opening: opening a pipe for reading waits for a writer.
+    let meta = std::fs::metadata(path).map_err(read_error)?;
+    if !meta.is_file() {
+        return Err(CalibrateError::Csv {
+            origin,
+            message: "not a regular file (a folder, pipe or device)".into(),
+        });
+    }
+    if meta.len() > MAX_STACK_FILE_BYTES {
+        return Err(too_large(&origin));
+    }
+    let file = std::fs::File::open(path).map_err(read_error)?;
+    let mut bytes = Vec::new();
+    file.take(MAX_STACK_FILE_BYTES + 1)
+        .read_to_end(&mut bytes)
+        .map_err(read_error)?;
+    if bytes.len() as u64 > MAX_STACK_FILE_BYTES {
+        return Err(too_large(&origin));
+    }
+    String::from_utf8(bytes).map_err(|e| CalibrateError::Csv {
+        origin,
+        message: format!(
+            "not UTF-8 text (byte {}); save the file as UTF-8 CSV",
+            e.utf8_error().valid_up_to()
+        ),
+    })
+}
+
 /// Parse a stack-compression CSV. `origin` names the file in messages.
 pub fn parse_stack_csv(
     text: &str,
     origin: &str,
     options: &StackReadOptions,
 ) -> Result<StackTest, CalibrateError> {
+    if text.len() as u64 > MAX_STACK_FILE_BYTES {
+        return Err(too_large(origin));
+    }
+    // Old Mac files end lines with CR alone; the metadata and comment readers split on LF.
+    let normalised;
+    let text = if text.contains('\r') {
+        normalised = text.replace("\r\n", "\n").replace('\r', "\n");
+        normalised.as_str()
+    } else {
+        text
+    };
     let metadata = read_metadata(text);
     let mut notes = Vec::new();
     let mut reader = csv::ReaderBuilder::new()
@@ -278,6 +345,19 @@ pub fn parse_stack_csv(
         let line = record.position().map(|p| p.line() as usize).unwrap_or(0);
         if record.iter().all(|f| f.trim().is_empty()) {
             continue;
+        }
+        if record.len() > headers.len() {
+            return Err(CalibrateError::Value {
+                origin: origin.to_string(),
+                line,
+                column: headers.len() + 1,
+                header: "beyond the header".to_string(),
+                message: format!(
+                    "the row has {} cells but the header names {} columns; if the numbers use a decimal comma (\"0,05\"), write them with a decimal point or quote them",
+                    record.len(),
+                    headers.len()
+                ),
+            });
         }
         let field = |index: usize, header: &str| -> Result<f64, CalibrateError> {
             let text = record.get(index).unwrap_or("");

@@ -46,10 +46,12 @@ pub enum CaseError {
     /// error small; `From<UnitError>` still works with `?`.
     #[error(transparent)]
     Unit(Box<crate::units::UnitError>),
-    #[error("cannot read {path}: {source}")]
+    /// The field is not called `source` on purpose: the message already includes it, and an
+    /// error chain printer (`{:#}`) would print it a second time.
+    #[error("cannot read {path}: {error}")]
     Read {
         path: std::path::PathBuf,
-        source: std::io::Error,
+        error: std::io::Error,
     },
     #[error(transparent)]
     Save(#[from] crate::fsutil::SaveError),
@@ -91,10 +93,11 @@ pub enum CaseError {
         accepted: Box<str>,
     },
     /// A quantity with a missing, unknown or wrong-kind unit.
-    #[error("{origin}: {source}")]
+    /// As for `Read`, the unit error is part of the message, not a separate cause.
+    #[error("{origin}: {error}")]
     Quantity {
         origin: String,
-        source: Box<crate::units::UnitError>,
+        error: Box<crate::units::UnitError>,
     },
     /// A value outside its accepted range.
     #[error("{origin}: {field} = {given} is out of range; accepted: {accepted}")]
@@ -159,9 +162,9 @@ impl Case {
     pub fn load(path: &std::path::Path) -> Result<Case, CaseError> {
         use std::io::Read;
         let origin = path.display().to_string();
-        let read_error = |source| CaseError::Read {
+        let read_error = |error| CaseError::Read {
             path: path.to_path_buf(),
-            source,
+            error,
         };
         let file = std::fs::File::open(path).map_err(read_error)?;
         let size = file.metadata().map_err(read_error)?.len();
@@ -183,7 +186,7 @@ impl Case {
     /// The case as YAML text (the schema of this module).
     pub fn to_yaml_string(&self) -> Result<String, CaseError> {
         yaml::to_string(self).map_err(|error| CaseError::Invalid {
-            origin: self.title.clone(),
+            origin: "the case".to_string(),
             message: format!("cannot write the case as YAML: {error}"),
         })
     }
@@ -195,10 +198,11 @@ impl Case {
         Ok(())
     }
 
-    /// Resolve units and presets into SI; lists the assumed values. Messages name the case by
-    /// its title; use [`Case::resolve_as`] to name the file instead.
+    /// Resolve units and presets into SI; lists the assumed values. Messages say "the case"
+    /// (the title is never echoed: it can be anything, of any length); use
+    /// [`Case::resolve_as`] or [`Case::load_resolved`] to name the file instead.
     pub fn resolve(&self) -> Result<ResolvedCase, CaseError> {
-        self.resolve_as(&format!("case \"{}\"", self.title))
+        self.resolve_as("the case")
     }
 
     /// Resolve, naming `origin` (usually the file name) in every message.

@@ -1,18 +1,62 @@
 //! The case file as written: the serde structs of the YAML schema, before presets and unit
 //! conversion. Names of materials, laws and methods stay text here (what the user typed); the
 //! resolver turns them into the enums of `vocabulary` with a "did you mean" when they are not
-//! known. Every key here has its entry in [`super::fields`] (a test checks).
+//! known. Every key here has its entry in [`super::registry`] (a test checks).
 
 use std::collections::BTreeMap;
 
 use serde::{Deserialize, Serialize};
 
 /// A quantity as written in a case file: a string with a unit, or a number in SI.
-#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+///
+/// Read with its own visitor rather than `#[serde(untagged)]`: an untagged enum buffers the
+/// value and loses its position, so a wrong type was blamed on the first key of the section.
+#[derive(Debug, Clone, PartialEq, Serialize)]
 #[serde(untagged)]
 pub enum QuantityText {
     Number(f64),
     Text(String),
+}
+
+/// What a quantity must look like, for messages.
+pub const QUANTITY_EXPECTED: &str = "a quantity: a string with its unit such as \"76 um\" or \"2 pli\", or a plain number in SI units";
+
+impl<'de> Deserialize<'de> for QuantityText {
+    fn deserialize<D: serde::Deserializer<'de>>(deserializer: D) -> Result<Self, D::Error> {
+        struct Quantity;
+        impl serde::de::Visitor<'_> for Quantity {
+            type Value = QuantityText;
+
+            fn expecting(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+                f.write_str(QUANTITY_EXPECTED)
+            }
+
+            fn visit_f64<E: serde::de::Error>(self, v: f64) -> Result<QuantityText, E> {
+                Ok(QuantityText::Number(v))
+            }
+
+            fn visit_i64<E: serde::de::Error>(self, v: i64) -> Result<QuantityText, E> {
+                Ok(QuantityText::Number(v as f64))
+            }
+
+            fn visit_u64<E: serde::de::Error>(self, v: u64) -> Result<QuantityText, E> {
+                Ok(QuantityText::Number(v as f64))
+            }
+
+            fn visit_i128<E: serde::de::Error>(self, v: i128) -> Result<QuantityText, E> {
+                Ok(QuantityText::Number(v as f64))
+            }
+
+            fn visit_u128<E: serde::de::Error>(self, v: u128) -> Result<QuantityText, E> {
+                Ok(QuantityText::Number(v as f64))
+            }
+
+            fn visit_str<E: serde::de::Error>(self, v: &str) -> Result<QuantityText, E> {
+                Ok(QuantityText::Text(v.to_string()))
+            }
+        }
+        deserializer.deserialize_any(Quantity)
+    }
 }
 
 /// The case file as written (before presets and unit conversion).

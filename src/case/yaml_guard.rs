@@ -1,10 +1,71 @@
-//! YAML guards and error locating for case files: the size limit, the generic pre-pass that
-//! refuses duplicate keys and applies the parser's nesting and alias limits, and the rewriting
-//! of serde's messages into ones that name the line, the column and the case field.
+//! YAML guards and error locating for case files: the size limit, the refusal of YAML aliases
+//! (found on the parser's event stream, before anything expands them), the generic pre-pass
+//! that refuses duplicate keys and applies the parser's nesting limit, and the rewriting of
+//! serde's messages into ones that name the line, the column and the case field.
+//!
+//! [`first_alias`] is also used for rule files, material libraries and walk-throughs: nobody
+//! writes aliases by hand in these files, and an alias chain ("billion laughs") makes the
+//! parser's work grow exponentially with the file size.
+
+use std::mem::MaybeUninit;
 
 use serde::de::DeserializeOwned;
+use unsafe_libyaml_norway as unsafe_libyaml;
 
 use super::{CaseError, MAX_CASE_FILE_BYTES};
+
+/// The message for a refused alias (files other than case files say it in their own words).
+pub const ALIAS_REFUSED: &str =
+    "a YAML alias (`*name`) is not accepted in a case file; write the value out instead";
+
+/// Line and column (1-based) of the first YAML alias (`*name`) in `text`, if any. Reads the
+/// parser's event stream, where an alias is one event, so the work is linear in the size of the
+/// text whatever the aliases would expand to. Text that does not parse gives `None` here: the
+/// parse that follows reports the syntax error.
+pub fn first_alias(text: &str) -> Option<(usize, usize)> {
+    // The parser keeps a pointer to itself once it has an input, so it lives on the heap and
+    // does not move.
+    let mut storage = Box::<unsafe_libyaml::yaml_parser_t>::new_uninit();
+    let parser = storage.as_mut_ptr();
+    // SAFETY: `parser` points to writable memory for a `yaml_parser_t`; initialising it is what
+    // `yaml_parser_initialize` is for. On failure nothing was allocated.
+    if unsafe { unsafe_libyaml::yaml_parser_initialize(parser) }.fail {
+        return None;
+    }
+    // SAFETY: the parser is initialised and has no input yet; `text` outlives the parser (it
+    // is deleted at the end of this function) and is valid UTF-8 of `text.len()` bytes.
+    unsafe {
+        unsafe_libyaml::yaml_parser_set_encoding(parser, unsafe_libyaml::YAML_UTF8_ENCODING);
+        unsafe_libyaml::yaml_parser_set_input_string(parser, text.as_ptr(), text.len() as u64);
+    }
+    let mut found = None;
+    loop {
+        let mut event = MaybeUninit::<unsafe_libyaml::yaml_event_t>::uninit();
+        let event = event.as_mut_ptr();
+        // SAFETY: the parser is initialised with a live input; on success `event` is
+        // initialised and owned by us until `yaml_event_delete`.
+        if unsafe { unsafe_libyaml::yaml_parser_parse(parser, event) }.fail {
+            break;
+        }
+        // SAFETY: `event` was initialised by the successful parse above.
+        let (kind, mark) = unsafe { ((*event).type_, (*event).start_mark) };
+        // SAFETY: the event is initialised and deleted exactly once.
+        unsafe { unsafe_libyaml::yaml_event_delete(event) };
+        match kind {
+            unsafe_libyaml::YAML_ALIAS_EVENT => {
+                found = Some((mark.line as usize + 1, mark.column as usize + 1));
+                break;
+            }
+            unsafe_libyaml::YAML_STREAM_END_EVENT => break,
+            _ => {}
+        }
+    }
+    // SAFETY: the parser was initialised above and is deleted exactly once, before the box
+    // that owns its memory.
+    unsafe { unsafe_libyaml::yaml_parser_delete(parser) };
+    drop(storage);
+    found
+}
 
 /// Parse `text` as one YAML document of type `T` behind the case-file guards; `origin` (usually
 /// the file name) is used in messages.
@@ -16,9 +77,17 @@ pub(crate) fn parse_guarded<T: DeserializeOwned>(text: &str, origin: &str) -> Re
             limit: MAX_CASE_FILE_BYTES,
         });
     }
+    if let Some((line, column)) = first_alias(text) {
+        return Err(CaseError::Syntax {
+            origin: origin.to_string(),
+            line,
+            column,
+            message: ALIAS_REFUSED.to_string(),
+        });
+    }
     // A generic pass first: it rejects duplicate keys anywhere (also inside `answers`, which
-    // a typed map would silently overwrite) and applies the parser's nesting and
-    // alias-expansion limits before any typed work.
+    // a typed map would silently overwrite) and applies the parser's nesting limit before any
+    // typed work.
     if let Err(error) = yaml::from_str::<yaml::Value>(text) {
         return Err(yaml_error(origin, text, &error));
     }
@@ -72,20 +141,9 @@ pub(crate) fn yaml_error(origin: &str, text: &str, error: &yaml::Error) -> CaseE
             };
         }
     }
-    const UNTAGGED: &str = "data did not match any variant of untagged enum QuantityText";
-    if let Some(at) = message.find(UNTAGGED) {
-        // The parser loses the field name here but points at its key: read it from the text.
-        let section = message[..at].trim_end_matches(": ").trim().to_string();
-        let field = match key_at(text, line, column) {
-            Some(key) if section.is_empty() => key,
-            Some(key) => format!("{section}.{key}"),
-            None => section,
-        };
-        message = format!(
-            "{field}: expected a quantity: a string with its unit such as \"76 um\" or \"2 pli\", or a plain number in SI units"
-        );
-    }
+    message = plain_type_names(&message);
     if message.contains("repetition limit exceeded") {
+        // Not reached for case files (aliases are refused before parsing); kept for safety.
         message.push_str(" (too many YAML alias expansions; write the values out instead)");
     }
     if message.contains("recursion limit exceeded") {
@@ -99,13 +157,41 @@ pub(crate) fn yaml_error(origin: &str, text: &str, error: &yaml::Error) -> CaseE
     }
 }
 
-/// The mapping key starting at 1-based `line`, `column`, if there is one.
-fn key_at(text: &str, line: usize, column: usize) -> Option<String> {
-    let row = text.lines().nth(line.checked_sub(1)?)?;
-    let rest = row.get(column.checked_sub(1)?..)?;
-    let key = rest.split(':').next()?.trim();
-    let plain = !key.is_empty() && key.chars().all(|c| c.is_ascii_alphanumeric() || c == '_');
-    plain.then(|| key.to_string())
+/// serde's messages name Rust types ("expected struct WebInput", "expected f64", "integer
+/// `…` as u128"): say what the case file needs instead.
+fn plain_type_names(message: &str) -> String {
+    // A whole number too large for 64 bits fails the generic pass with "as u128, expected any
+    // YAML value".
+    if let Some(at) = message.find("invalid type: integer `")
+        && (message.contains("` as u128") || message.contains("` as i128"))
+    {
+        let start = at + "invalid type: integer `".len();
+        let number = message[start..].split('`').next().unwrap_or("");
+        return format!(
+            "{}the whole number {number} is too large to read; write it with an exponent (e.g. 1e23) or a unit",
+            &message[..at]
+        );
+    }
+    let mut out = message.to_string();
+    if let Some(at) = out.find("expected struct ") {
+        let end = out[at + "expected struct ".len()..]
+            .find(|c: char| !c.is_alphanumeric() && c != '_')
+            .map_or(out.len(), |i| at + "expected struct ".len() + i);
+        out.replace_range(at..end, "expected a section of `key: value` lines");
+    }
+    for (rust, plain) in [
+        ("expected f64", "expected a plain number"),
+        ("expected f32", "expected a plain number"),
+        ("expected u64", "expected a whole number"),
+        ("expected usize", "expected a whole number"),
+        ("expected a sequence", "expected a list"),
+        ("expected a map", "expected a mapping of `key: value` lines"),
+        ("invalid type: sequence", "invalid type: a list"),
+        ("invalid type: map", "invalid type: a mapping"),
+    ] {
+        out = out.replace(rust, plain);
+    }
+    out
 }
 
 /// The parser reports some duplicate keys without a position: find the second line that

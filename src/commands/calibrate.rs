@@ -2,7 +2,6 @@
 
 use std::path::PathBuf;
 
-use anyhow::Context;
 use rolltriage::calibrate::{
     self, FitOptions, MaterialEntry, MaterialLibrary, PfeifferFit, StackReadOptions, StackTest,
     Weighting,
@@ -30,10 +29,10 @@ pub struct StackArgs {
     /// The stack test CSV.
     pub data: PathBuf,
     /// Initial stack height, e.g. "25.4 mm" (overrides the file's "# initial_height:").
-    #[arg(long, value_name = "LENGTH")]
+    #[arg(long, value_name = "LENGTH", value_parser = super::arg_check::length)]
     pub initial_height: Option<String>,
     /// Number of layers in the stack (overrides the file's "# layers:").
-    #[arg(long, value_name = "N")]
+    #[arg(long, value_name = "N", value_parser = super::arg_check::count)]
     pub layers: Option<usize>,
     /// Residual weighting: relative (each residual as a share of its pressure; every decade
     /// counts alike) or absolute (plain pressure; the high-pressure rows dominate).
@@ -45,9 +44,15 @@ pub struct StackArgs {
     /// Print the fit as JSON (parameters, uncertainty, residuals) instead of a table.
     #[arg(long)]
     pub json: bool,
-    /// Write the fitted law into this case file's web.radial_stiffness (saved atomically).
+    /// Write the fitted law into this case file's web.radial_stiffness (saved atomically;
+    /// only those lines change). Refused, the file untouched, when the fit is outside the
+    /// case file's accepted range.
     #[arg(long, value_name = "CASE.yaml")]
     pub write_case: Option<PathBuf>,
+    /// With --write-case: allow a full rewrite of a case file whose layout cannot be edited in
+    /// place, which drops its comments.
+    #[arg(long, requires = "write_case")]
+    pub drop_comments: bool,
     /// Add or replace the fitted material in this material library file (created if missing).
     #[arg(long, value_name = "LIBRARY.yaml", requires = "material_id")]
     pub write_library: Option<PathBuf>,
@@ -78,8 +83,7 @@ pub fn run(args: &CalibrateArgs) -> anyhow::Result<()> {
 }
 
 fn run_stack(args: &StackArgs) -> anyhow::Result<()> {
-    let text = std::fs::read_to_string(&args.data)
-        .with_context(|| format!("cannot read {}", args.data.display()))?;
+    let text = calibrate::read_stack_file(&args.data)?;
     let origin = args.data.display().to_string();
     let initial_height = args
         .initial_height
@@ -102,6 +106,7 @@ fn run_stack(args: &StackArgs) -> anyhow::Result<()> {
         ..FitOptions::default()
     };
     let fit = calibrate::fit_pfeiffer(&test, &options)?;
+    rolltriage::finite::ensure_finite(&format!("the stack fit of {origin}"), &fit)?;
 
     if args.json {
         let value = serde_json::json!({
@@ -110,40 +115,27 @@ fn run_stack(args: &StackArgs) -> anyhow::Result<()> {
             "caliper_m": test.caliper(),
             "notes": test.notes,
         });
-        println!("{}", serde_json::to_string_pretty(&value)?);
+        super::output::write_stdout(&(serde_json::to_string_pretty(&value)? + "\n"))?;
     } else {
-        print!("{}", render_fit(&test, &fit, args.units));
+        super::output::write_stdout(&render_fit(&test, &fit, args.units))?;
     }
 
     if let Some(path) = &args.write_case {
-        let mut case = rolltriage::case::Case::load(path)
-            .with_context(|| format!("cannot write the fit into {}", path.display()))?;
-        calibrate::apply_to_case(&mut case, &fit);
-        if let (Some(caliper), Some(thickness)) = (test.caliper(), case.web.thickness.as_ref()) {
-            let field = format!("{} web.thickness", path.display());
-            let thickness = match thickness {
-                rolltriage::case::QuantityText::Number(v) => Some(*v),
-                rolltriage::case::QuantityText::Text(t) => {
-                    parse_quantity(&field, t, QuantityKind::Length).ok()
-                }
-            };
-            if let Some(t) = thickness
-                && t > 0.0
-                && (caliper / t - 1.0).abs() > 0.10
-            {
-                eprintln!(
-                    "warning: the stack's caliper ({:.1} µm) differs from the case's web.thickness ({:.1} µm) by more than 10 %; is this the same web?",
-                    caliper * 1e6,
-                    t * 1e6
-                );
-            }
+        // Loaded first only for the caliper check; the write below re-reads and checks it.
+        if let Ok(case) = rolltriage::case::Case::load(path) {
+            warn_on_caliper_mismatch(path, &case, &test);
         }
-        case.save(path)?;
+        let edit = calibrate::write_case::write_fit_into_case(path, &fit, args.drop_comments)?;
         eprintln!(
-            "wrote web.radial_stiffness (pfeiffer, K1 {:.4} kPa, K2 {:.4}) into {} — comments in that file are not kept",
-            fit.k1 / 1e3,
-            fit.k2,
-            path.display()
+            "wrote web.radial_stiffness (pfeiffer, K1 {} kPa, K2 {}) into {}{}",
+            calibrate::write_case::case_number(calibrate::significant(fit.k1 / 1e3, 5)),
+            calibrate::write_case::case_number(calibrate::significant(fit.k2, 5)),
+            path.display(),
+            match edit {
+                calibrate::write_case::CaseEdit::InPlace => "; the rest of the file is unchanged",
+                calibrate::write_case::CaseEdit::Rewritten =>
+                    " (the file was rewritten; its comments were not kept)",
+            }
         );
     }
     if let Some(path) = &args.write_library {
@@ -160,6 +152,29 @@ fn run_stack(args: &StackArgs) -> anyhow::Result<()> {
         );
     }
     Ok(())
+}
+
+/// Warn when the stack's caliper differs from the case's web thickness by more than 10 %.
+fn warn_on_caliper_mismatch(
+    path: &std::path::Path,
+    case: &rolltriage::case::Case,
+    test: &StackTest,
+) {
+    let Some(thickness) = case.web.thickness.as_ref() else {
+        return;
+    };
+    let field = format!("{} web.thickness", path.display());
+    let thickness = match thickness {
+        rolltriage::case::QuantityText::Number(v) => Some(*v),
+        rolltriage::case::QuantityText::Text(t) => {
+            parse_quantity(&field, t, QuantityKind::Length).ok()
+        }
+    };
+    if let Some(warning) =
+        thickness.and_then(|t| calibrate::caliper_warning(test, t, "web.thickness"))
+    {
+        eprintln!("warning: {warning}");
+    }
 }
 
 /// 1 psi in Pa (NIST SP 811: 1 lbf = 4.448 221 615 260 5 N, 1 in = 0.0254 m).

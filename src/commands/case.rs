@@ -4,7 +4,8 @@ use std::io::Write;
 use std::path::PathBuf;
 
 use anyhow::{Context, bail};
-use rolltriage::case::{Case, starter_yaml};
+use rolltriage::case::{Case, ResolvedCase, starter_yaml};
+use rolltriage::diagnose::{self, rules::RuleBase};
 use rolltriage::presets::{self, Sourced};
 use rolltriage::units::{QuantityKind, UnitSystem, format_quantity};
 
@@ -57,6 +58,10 @@ pub struct CheckArgs {
     /// Also list the values taken from presets or defaults.
     #[arg(long)]
     pub assumed: bool,
+    /// Check symptoms and answers against the rule base in DIR instead of the shipped one
+    /// (as `diagnose --rules DIR` would read them).
+    #[arg(long = "rules", value_name = "DIR")]
+    pub rules: Option<PathBuf>,
 }
 
 #[derive(Debug, clap::Args)]
@@ -98,7 +103,7 @@ fn new(args: &NewArgs) -> anyhow::Result<()> {
         .and_then(|c| c.resolve_as("starting case"))
         .context("internal error: the starting case does not check")?;
     match &args.output {
-        None => std::io::stdout().lock().write_all(text.as_bytes())?,
+        None => super::output::write_stdout(&text)?,
         Some(path) => {
             if path.exists() && !args.force {
                 bail!(
@@ -135,11 +140,22 @@ fn unknown_preset_message(what: &str, id: &str, suggestion: Option<&str>) -> Str
     )
 }
 
+/// Resolve a case file and check its symptoms and answers against the rule base: the same
+/// checks `stress` and `diagnose` make, so a file that passes here runs there.
+fn check_one(path: &std::path::Path, rules: &RuleBase) -> anyhow::Result<ResolvedCase> {
+    let resolved = Case::load_resolved(path)?;
+    diagnose::observed_symptoms(rules, &resolved)
+        .and_then(|_| diagnose::check_answers(rules, &resolved.answers))
+        .with_context(|| path.display().to_string())?;
+    Ok(resolved)
+}
+
 fn check(args: &CheckArgs) -> anyhow::Result<()> {
-    let mut out = std::io::stdout().lock();
+    let rules = super::diagnose::load_rules(args.rules.as_ref())?;
+    let mut out = super::output::stdout();
     let mut failed = 0usize;
     for path in &args.files {
-        match Case::load_resolved(path) {
+        match check_one(path, &rules) {
             Ok(resolved) => {
                 writeln!(
                     out,
@@ -157,7 +173,9 @@ fn check(args: &CheckArgs) -> anyhow::Result<()> {
             Err(error) => {
                 failed += 1;
                 writeln!(out, "FAILED  {}", path.display())?;
-                eprintln!("error: {error}");
+                // Flush first so the FAILED line comes before the message on a terminal.
+                out.flush()?;
+                eprintln!("error: {error:#}");
             }
         }
     }
@@ -171,7 +189,7 @@ fn check(args: &CheckArgs) -> anyhow::Result<()> {
 }
 
 fn list_presets(args: &PresetsArgs) -> anyhow::Result<()> {
-    let mut out = std::io::stdout().lock();
+    let mut out = super::output::stdout();
     if args.json {
         let all = serde_json::json!({
             "units": "SI (m, Pa, N/m)",
@@ -185,7 +203,7 @@ fn list_presets(args: &PresetsArgs) -> anyhow::Result<()> {
         UnitsArg::Si => UnitSystem::Si,
         UnitsArg::Us => UnitSystem::Us,
     };
-    let show = |out: &mut std::io::StdoutLock<'_>,
+    let show = |out: &mut super::output::Stdout,
                 label: &str,
                 value: Sourced,
                 kind: Option<QuantityKind>|

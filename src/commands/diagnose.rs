@@ -28,7 +28,7 @@ pub struct DiagnoseArgs {
     #[arg(long = "symptom", value_name = "ID")]
     pub symptoms: Vec<String>,
     /// Answer a symptom question, e.g. `starring.after_splice=yes`; repeatable.
-    #[arg(long = "answer", value_name = "QUESTION=VALUE")]
+    #[arg(long = "answer", value_name = "QUESTION=VALUE", value_parser = super::arg_check::answer)]
     pub answers: Vec<String>,
     /// Use the rule base in DIR instead of the shipped one.
     #[arg(long = "rules", value_name = "DIR")]
@@ -92,21 +92,16 @@ pub fn run(args: &DiagnoseArgs) -> anyhow::Result<()> {
         diagnose::pipeline::triage(&rules, (&resolved).into(), &options, progress)
     })
     .with_context(context)?;
+    // A non-finite pressure would silently drop its evidence from the ranking.
+    let what = format!("the stress profile of {}", args.case.display());
+    rolltriage::finite::ensure_finite(&what, &triage.profile)?;
     let diagnosis = triage.diagnosis.with_context(context)?;
+    let what = format!("the diagnosis of {}", args.case.display());
+    rolltriage::finite::ensure_finite(&what, &diagnosis)?;
     let text = match args.format {
         Format::Text => diagnose::render::render_text(&resolved.title, &diagnosis),
         Format::Markdown => diagnose::render::render_markdown(&resolved.title, &diagnosis),
         Format::Json => serde_json::to_string_pretty(&diagnosis)? + "\n",
     };
-    write_stdout(&text)
-}
-
-/// Write to standard output; a closed pipe (`| head`) is not an error.
-pub fn write_stdout(text: &str) -> anyhow::Result<()> {
-    use std::io::Write;
-    let mut out = std::io::stdout().lock();
-    match out.write_all(text.as_bytes()).and_then(|()| out.flush()) {
-        Err(e) if e.kind() == std::io::ErrorKind::BrokenPipe => Ok(()),
-        other => Ok(other.context("writing to standard output")?),
-    }
+    super::output::write_stdout(&text)
 }

@@ -1,9 +1,11 @@
 //! One module per subcommand: its clap options and its `run` function. Errors are reported by
 //! `main` with context.
 
+pub mod arg_check;
 pub mod calibrate;
 pub mod case;
 pub mod diagnose;
+pub mod output;
 pub mod progress;
 pub mod report;
 pub mod rules;

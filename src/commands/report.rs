@@ -21,16 +21,16 @@ pub struct ReportArgs {
     #[arg(short, long)]
     pub output: PathBuf,
     /// markdown, html or json.
-    #[arg(long)]
+    #[arg(long, value_parser = super::arg_check::report_format)]
     pub format: Option<String>,
     /// Apply this remedy (by ID), re-solve and show before/after.
     #[arg(long)]
     pub remedy: Option<String>,
     /// Date printed in the report (YYYY-MM-DD); today (UTC) by default.
-    #[arg(long)]
+    #[arg(long, value_parser = super::arg_check::date)]
     pub date: Option<String>,
     /// Print quantities in SI (default) or US trade units: si or us.
-    #[arg(long, default_value = "si")]
+    #[arg(long, default_value = "si", value_parser = super::arg_check::unit_system)]
     pub units: String,
     /// Skip the predicted effect (what-if re-solve) of each remedy in the list.
     #[arg(long)]
@@ -48,22 +48,6 @@ fn parse_units(text: &str) -> anyhow::Result<UnitSystem> {
     }
 }
 
-fn check_date(text: &str) -> anyhow::Result<()> {
-    let parts: Vec<&str> = text.split('-').collect();
-    let ok = parts.len() == 3
-        && parts[0].len() == 4
-        && parts[1].len() == 2
-        && parts[2].len() == 2
-        && parts.iter().all(|p| p.chars().all(|c| c.is_ascii_digit()))
-        && (1..=12).contains(&parts[1].parse::<u32>().unwrap_or(0))
-        && (1..=31).contains(&parts[2].parse::<u32>().unwrap_or(0));
-    if ok {
-        Ok(())
-    } else {
-        anyhow::bail!("--date: \"{text}\" is not a date; accepted: YYYY-MM-DD, e.g. 2026-12-02")
-    }
-}
-
 pub fn run(args: &ReportArgs) -> anyhow::Result<()> {
     let to_stdout = args.output.as_os_str() == "-";
     let format = match &args.format {
@@ -76,9 +60,6 @@ pub fn run(args: &ReportArgs) -> anyhow::Result<()> {
             )
         })?,
     };
-    if let Some(date) = &args.date {
-        check_date(date)?;
-    }
     let rules = match &args.rules {
         Some(dir) => RuleBase::load_dir(dir)
             .with_context(|| format!("loading the rule base from {}", dir.display()))?,
@@ -94,9 +75,16 @@ pub fn run(args: &ReportArgs) -> anyhow::Result<()> {
     };
     let input = prepare_from_path(&args.case, &rules, &options)
         .with_context(|| format!("preparing the report for {}", args.case.display()))?;
+    let case = args.case.display();
+    rolltriage::finite::ensure_finite(&format!("the stress profile of {case}"), &input.profile)?;
+    rolltriage::finite::ensure_finite(&format!("the diagnosis of {case}"), &input.diagnosis)?;
+    if let Some(remedy) = &input.remedy {
+        let what = format!("the re-solved roll of {case} with {}", remedy.remedy_id);
+        rolltriage::finite::ensure_finite(&what, &remedy.after)?;
+    }
     let text = render(&input, format).context("rendering the report")?;
     if to_stdout {
-        print!("{text}");
+        super::output::write_stdout(&text)?;
     } else {
         rolltriage::fsutil::save_atomic(&args.output, text.as_bytes())
             .with_context(|| format!("saving the report to {}", args.output.display()))?;

@@ -6,7 +6,8 @@ use anyhow::bail;
 
 use std::fmt::Write as _;
 
-use super::diagnose::{load_rules, write_stdout};
+use super::diagnose::load_rules;
+use super::output::write_stdout;
 
 #[derive(Debug, clap::Args)]
 pub struct RulesArgs {

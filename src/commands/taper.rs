@@ -12,26 +12,26 @@ pub struct TaperArgs {
     /// The case file (web, core, roll, current winding settings).
     pub case: PathBuf,
     /// Largest share of the core's rated crush pressure the core may carry.
-    #[arg(long, default_value_t = taper_design::DEFAULT_CORE_SHARE, value_name = "SHARE")]
+    #[arg(long, default_value_t = taper_design::DEFAULT_CORE_SHARE, value_name = "SHARE", value_parser = super::arg_check::core_share)]
     pub core_share: f64,
-    /// Lowest pressure allowed in the outer zone (telescoping), e.g. "14 kPa" or "2 psi".
-    /// Default 14 kPa: our choice, common practice (see docs/taper-design.md).
-    #[arg(long, value_name = "PRESSURE")]
-    pub min_outer_pressure: Option<String>,
+    /// Smallest telescoping margin allowed: friction × pressure over the axial shear of lifting
+    /// the roll by its core, at every interface (see docs/taper-design.md).
+    #[arg(long, default_value_t = taper_design::DEFAULT_MIN_TELESCOPING_MARGIN, value_name = "RATIO", value_parser = super::arg_check::telescoping_margin)]
+    pub min_telescoping_margin: f64,
     /// Share of the peak pressure below which a compressive band counts as starring risk.
-    #[arg(long, default_value_t = taper_design::DEFAULT_STARRING_PRESSURE_SHARE, value_name = "SHARE")]
+    #[arg(long, default_value_t = taper_design::DEFAULT_STARRING_PRESSURE_SHARE, value_name = "SHARE", value_parser = super::arg_check::starring_share)]
     pub starring_share: f64,
     /// Largest wound-in tension as a share of the web's tensile strength.
-    #[arg(long, default_value_t = taper_design::DEFAULT_TENSION_SHARE, value_name = "SHARE")]
+    #[arg(long, default_value_t = taper_design::DEFAULT_TENSION_SHARE, value_name = "SHARE", value_parser = super::arg_check::tension_share)]
     pub tension_share: f64,
     /// Taper shape.
     #[arg(long, value_enum, default_value_t = KindArg::Linear)]
     pub kind: KindArg,
     /// Wind the taper in this many equal-build steps (for winders with stepped tension).
-    #[arg(long, value_name = "N")]
+    #[arg(long, value_name = "N", value_parser = super::arg_check::count)]
     pub steps: Option<usize>,
     /// Largest taper searched, e.g. "60 %" (default 80 % linear, 100 % hyperbolic).
-    #[arg(long, value_name = "PERCENT")]
+    #[arg(long, value_name = "PERCENT", value_parser = super::arg_check::percent)]
     pub max_taper: Option<String>,
     /// Units to print in (both are always shown in the operator table).
     #[arg(long, value_enum, default_value_t = UnitsArg::Si)]
@@ -59,10 +59,6 @@ pub fn run(args: &TaperArgs) -> anyhow::Result<()> {
     let resolved = case
         .resolve()
         .with_context(|| format!("cannot resolve {}", args.case.display()))?;
-    let min_outer_pressure = match &args.min_outer_pressure {
-        Some(t) => parse_quantity("--min-outer-pressure", t, QuantityKind::Stress)?,
-        None => taper_design::DEFAULT_MIN_OUTER_PRESSURE,
-    };
     let max_taper = args
         .max_taper
         .as_deref()
@@ -70,7 +66,7 @@ pub fn run(args: &TaperArgs) -> anyhow::Result<()> {
         .transpose()?;
     let limits = TaperLimits {
         core_share: args.core_share,
-        min_outer_pressure,
+        min_telescoping_margin: args.min_telescoping_margin,
         starring_pressure_share: args.starring_share,
         tension_share: args.tension_share,
     };
@@ -85,6 +81,8 @@ pub fn run(args: &TaperArgs) -> anyhow::Result<()> {
     };
     let design = taper_design::design_with(&resolved, &limits, &options)
         .with_context(|| format!("taper design for {}", args.case.display()))?;
+    let what = format!("the taper design for {}", args.case.display());
+    rolltriage::finite::ensure_finite(&what, &design)?;
     let system = match args.units {
         UnitsArg::Si => UnitSystem::Si,
         UnitsArg::Us => UnitSystem::Us,
@@ -109,9 +107,9 @@ pub fn run(args: &TaperArgs) -> anyhow::Result<()> {
             "before_profile": plot_series(&design.before.profile),
             "after_profile": plot_series(&design.after.profile),
         });
-        println!("{}", serde_json::to_string_pretty(&value)?);
+        super::output::write_stdout(&(serde_json::to_string_pretty(&value)? + "\n"))?;
     } else {
-        print!("{}", render(&resolved.title, &design, system));
+        super::output::write_stdout(&render(&resolved.title, &design, system))?;
     }
     if !design.feasible {
         anyhow::bail!(
@@ -139,7 +137,8 @@ fn quantity(value: f64, kind: QuantityKind, system: UnitSystem) -> String {
 
 fn check_value(limit: Limit, value: f64, system: UnitSystem) -> String {
     match limit {
-        Limit::CorePressure | Limit::OuterPressure => quantity(value, QuantityKind::Stress, system),
+        Limit::CorePressure => quantity(value, QuantityKind::Stress, system),
+        Limit::Telescoping => format!("{value:.2}"),
         Limit::WoundInTension => quantity(value, QuantityKind::ForcePerWidth, system),
         Limit::Starring => {
             if value > 0.0 {
@@ -175,7 +174,7 @@ pub fn render(title: &str, design: &TaperDesign, system: UnitSystem) -> String {
             continue;
         };
         let allowed = match limit {
-            Limit::OuterPressure => format!("≥ {}", check_value(limit, a.allowed, system)),
+            Limit::Telescoping => format!("≥ {}", check_value(limit, a.allowed, system)),
             Limit::Starring => "no band".to_string(),
             _ => format!("≤ {}", check_value(limit, a.allowed, system)),
         };

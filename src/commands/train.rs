@@ -34,7 +34,7 @@ pub struct TrainArgs {
     #[arg(long, value_name = "DIR")]
     pub dir: Option<PathBuf>,
     /// Print quantities in SI (default) or US trade units: si or us.
-    #[arg(long, default_value = "si")]
+    #[arg(long, default_value = "si", value_parser = super::arg_check::unit_system)]
     pub units: String,
 }
 
@@ -73,8 +73,10 @@ fn run_inner(args: &TrainArgs) -> anyhow::Result<()> {
     if let Some(dir) = &args.lint {
         let problems = lint_dir(dir).with_context(|| format!("linting {}", dir.display()))?;
         if problems.is_empty() {
-            println!("{}: all walk-throughs are fine", dir.display());
-            return Ok(());
+            return super::output::write_stdout(&format!(
+                "{}: all walk-throughs are fine\n",
+                dir.display()
+            ));
         }
         for problem in &problems {
             eprintln!("{problem}");
@@ -114,8 +116,7 @@ fn run_inner(args: &TrainArgs) -> anyhow::Result<()> {
     let rules = RuleBase::embedded().ok();
     let context = TrainingContext::compute(case, rules.as_ref(), unit_system);
     let mut session = Session::new(loaded.walkthrough.clone(), context);
-    let stdout = std::io::stdout();
-    let mut out = stdout.lock();
+    let mut out = super::output::stdout();
     writeln!(out, "{}", session.briefing())?;
     let count = session.walkthrough.questions.len();
     match &args.answers {
@@ -168,17 +169,20 @@ fn run_inner(args: &TrainArgs) -> anyhow::Result<()> {
         }
     }
     write!(out, "{}", session.closing())?;
+    out.flush()?;
     Ok(())
 }
 
 fn list(walkthroughs: &[LoadedWalkthrough]) -> anyhow::Result<()> {
-    println!(
-        "{:<26} {:<13} {:>9}  title",
+    use std::fmt::Write as _;
+    let mut text = format!(
+        "{:<26} {:<13} {:>9}  title\n",
         "walk-through", "level", "questions"
     );
     for loaded in walkthroughs {
         let w = &loaded.walkthrough;
-        println!(
+        let _ = writeln!(
+            text,
             "{:<26} {:<13} {:>9}  {}",
             w.id,
             w.level.as_deref().unwrap_or("-"),
@@ -186,6 +190,8 @@ fn list(walkthroughs: &[LoadedWalkthrough]) -> anyhow::Result<()> {
             w.title
         );
     }
-    println!("\nStart one with: rolltriage train ID   (or --answers 1,2,... to run it scripted)");
-    Ok(())
+    text.push_str(
+        "\nStart one with: rolltriage train ID   (or --answers 1,2,... to run it scripted)\n",
+    );
+    super::output::write_stdout(&text)
 }

@@ -119,10 +119,10 @@ pub const INDICATORS: &[IndicatorSpec] = &[
         "share of the zone's build where the interlayer pressure is below 20 kPa (loosely held layers)",
     ),
     spec(
-        "shear_capacity",
-        Dimension::Pressure,
-        ZoneUse::Required,
-        "friction stress the layers can carry before sliding: friction coefficient × mean pressure in the zone",
+        "telescoping_margin",
+        Dimension::Ratio,
+        ZoneUse::None,
+        "smallest ratio, over every interface, of the friction the pressure gives to the axial shear of lifting the roll by its core (with the shock factor); below 1 = layers slide",
     ),
     spec(
         "min_tangential_stress",
@@ -152,7 +152,19 @@ pub const INDICATORS: &[IndicatorSpec] = &[
         "slip_margin",
         Dimension::Ratio,
         ZoneUse::None,
-        "interlayer friction torque the inner part of the roll can carry divided by the torque applied (below 1 = layers slip)",
+        "smallest ratio, over every interface inside the surface wraps and every event (start-up, stops, unwind), of the friction torque the interface can carry to the torque it must pass (below 1 = layers slip)",
+    ),
+    spec(
+        "speed_change_slip_margin",
+        Dimension::Ratio,
+        ZoneUse::None,
+        "the slip margin over the speed-change events only (start-up, normal stop, emergency stop): what the roll's inertia asks of the layers",
+    ),
+    spec(
+        "core_slip_margin",
+        Dimension::Ratio,
+        ZoneUse::None,
+        "the same ratio at the core/web interface, smallest over the events (below 1 = the roll turns on its core)",
     ),
     spec(
         "air_film_ratio",
@@ -499,7 +511,6 @@ impl Indicators {
         } else {
             0.0
         };
-        let friction = case.web.friction;
 
         // Whole-roll and per-zone band measures.
         let mut ranges: Vec<(Option<ZoneName>, usize, usize)> = vec![(None, 0, n)];
@@ -544,7 +555,6 @@ impl Indicators {
                     zone,
                     pp.iter().copied().fold(f64::NEG_INFINITY, f64::max),
                 );
-                self.set("shear_capacity", zone, friction * mean_p);
                 self.set("min_tangential_stress", zone, min_zone_s);
             }
             self.set(
@@ -627,23 +637,14 @@ impl Indicators {
                 acceleration_torque / tension_torque,
             );
         }
-        let applied = tension_torque + acceleration_torque;
-        if applied > 0.0 {
-            // Each interface inside the roll carries the whole applied torque; its friction
-            // capacity per width is μ·p·2πr². Surface wraps (still tensile) are held by their own
-            // tension and are left out.
-            let limit = profile
-                .zone(ZoneName::Middle)
-                .map(|z| z.end.min(n))
-                .unwrap_or(n * 3 / 4)
-                .max(1);
-            let capacity = (0..limit)
-                .map(|i| friction * p[i] * 2.0 * std::f64::consts::PI * r[i] * r[i])
-                .fold(f64::INFINITY, f64::min);
-            self.set("slip_margin", None, (capacity / applied).min(1.0e3));
-        } else {
-            self.set("slip_margin", None, 1.0e3);
-        }
+        // Demand against capacity at every interface (the mechanics layer's one criterion).
+        let inputs = crate::mechanics::MechanicsInputs::from_case(case);
+        let torque = crate::mechanics::torque::torque_check(profile, &inputs);
+        self.set("slip_margin", None, torque.min_margin);
+        self.set("core_slip_margin", None, torque.core_margin);
+        self.set("speed_change_slip_margin", None, torque.speed_change_margin);
+        let telescoping = crate::mechanics::telescoping::handling_margins(profile, &inputs);
+        self.set("telescoping_margin", None, telescoping.min_margin);
 
         // Air film: the solver's estimate when present, otherwise the foil-bearing estimate.
         let ratio = match &profile.air_film {
@@ -680,28 +681,17 @@ fn tension_at(case: &ResolvedCase, r: f64) -> f64 {
     )
 }
 
-/// Approximate density of the material kind, kg/m³ — typical values `(from memory)`.
-fn density(material: crate::vocabulary::WebMaterial) -> f64 {
-    use crate::vocabulary::WebMaterial;
-    match material {
-        WebMaterial::Film => 1390.0,
-        WebMaterial::Foil => 2700.0,
-        WebMaterial::Nonwoven => 300.0,
-        WebMaterial::Board => 750.0,
-        WebMaterial::Laminate => 1100.0,
-        WebMaterial::Paper => 700.0,
-    }
-}
-
 /// Torque per unit width to bring the full roll to line speed in the acceleration time.
 fn acceleration_torque_per_width(case: &ResolvedCase, core_r: f64, outer_r: f64) -> f64 {
     let Some(time) = case.winding.acceleration_time.filter(|t| *t > 0.0) else {
         return 0.0;
     };
     // Solid annulus: J per width = ρ·π·(R⁴ − rc⁴)/2; α = v / (R·t).
-    let inertia =
-        density(case.web.material) * std::f64::consts::PI * (outer_r.powi(4) - core_r.powi(4))
-            / 2.0;
+    let inertia = crate::mechanics::torque::annulus_inertia(
+        crate::mechanics::density_of(case.web.material),
+        core_r,
+        outer_r,
+    );
     let angular_acceleration = case.winding.speed / (outer_r * time);
     inertia * angular_acceleration
 }

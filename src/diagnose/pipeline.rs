@@ -12,7 +12,7 @@ use std::sync::atomic::{AtomicBool, Ordering};
 
 use super::{
     Caution, DiagnoseError, DiagnoseOptions, Diagnosis, check_answers, indicators,
-    observed_symptoms, rank, remedies, rules::RuleBase,
+    observed_symptoms, rank, remedies, rules::RuleBase, what_if,
 };
 use crate::case::{Case, ResolvedCase};
 use crate::model::{ModelError, Profile, SolverOptions};
@@ -116,14 +116,16 @@ pub fn diagnose_solved(
     if options.what_if
         && remedies
             .iter()
-            .any(|r| remedies::changes_setting(rules, &r.id))
+            .any(|r| what_if::changes_setting(rules, &r.id))
     {
         let what_if = WhatIfContext {
-            rules,
-            symptoms: &symptoms,
-            case,
-            indicators: &indicators,
-            causes: &causes,
+            before: what_if::Before {
+                rules,
+                symptoms: &symptoms,
+                case,
+                indicators: &indicators,
+                causes: &causes,
+            },
             solver: SolverOptions {
                 resolution: profile.solver.grid.resolution(),
                 ..options.solver
@@ -155,11 +157,7 @@ pub fn diagnose_solved(
 
 /// The case as it stands, diagnosed, and the grid its changed versions are re-solved on.
 struct WhatIfContext<'a> {
-    rules: &'a RuleBase,
-    symptoms: &'a [String],
-    case: &'a ResolvedCase,
-    indicators: &'a indicators::Indicators,
-    causes: &'a [super::RankedCause],
+    before: what_if::Before<'a>,
     solver: SolverOptions,
 }
 
@@ -175,46 +173,30 @@ impl WhatIfContext<'_> {
         let changed: Vec<Option<ResolvedCase>> = remedies
             .iter()
             .map(|r| {
-                let changes = &self.rules.remedies.get(&r.id)?.changes;
-                (!changes.is_empty() && remedies::needs_solve(changes))
-                    .then(|| remedies::apply_changes(self.case, changes))
+                let changes = &self.before.rules.remedies.get(&r.id)?.changes;
+                (!changes.is_empty() && what_if::needs_solve(changes))
+                    .then(|| what_if::apply_changes(self.before.case, changes))
             })
             .collect();
         let mut distinct: Vec<&ResolvedCase> = Vec::new();
         for c in changed.iter().flatten() {
-            if c != self.case && !distinct.contains(&c) {
+            if c != self.before.case && !distinct.contains(&c) {
                 distinct.push(c);
             }
         }
         let solved = solve_all(&distinct, self.solver, progress)?;
+        let unchanged = Profile::default();
         for (remedy, changed_case) in remedies.iter_mut().zip(&changed) {
             remedy.what_if = match changed_case {
-                None => remedies::what_if(
-                    self.rules,
-                    self.symptoms,
-                    self.case,
-                    self.indicators,
-                    self.causes,
-                    remedy,
-                    self.solver,
-                ),
+                None => what_if::what_if(&self.before, remedy, self.solver),
                 Some(c) => {
+                    // A changed case equal to the case was not solved: what_if_solved answers
+                    // "nothing to change" without looking at the profile.
                     let result = distinct
                         .iter()
                         .position(|d| *d == c)
-                        .map(|i| solved[i].clone())
-                        // The changed case equals the case: nothing to solve.
-                        .unwrap_or_else(|| Ok(Profile::default()));
-                    remedies::what_if_solved(
-                        self.rules,
-                        self.symptoms,
-                        self.case,
-                        self.indicators,
-                        self.causes,
-                        remedy,
-                        c,
-                        result,
-                    )
+                        .map_or(Ok(&unchanged), |i| solved[i].as_ref());
+                    what_if::what_if_solved(&self.before, remedy, c, result)
                 }
             };
         }

@@ -709,6 +709,16 @@ fn parse<T: serde::de::DeserializeOwned>(
     text: &str,
     problems: &mut Problems,
 ) -> Option<T> {
+    // Aliases are refused before parsing: expanding an alias chain costs work exponential in
+    // the file size.
+    if let Some((line, _)) = crate::case::yaml_guard::first_alias(text) {
+        problems.add(
+            file,
+            line,
+            "a YAML alias (`*name`) is not accepted in a rule file; write the value out instead",
+        );
+        return None;
+    }
     match yaml::from_str::<T>(text) {
         Ok(v) => Some(v),
         Err(e) => {

@@ -31,6 +31,10 @@ pub struct UpsetBand {
     pub tension: f64,
 }
 
+/// Step lists up to this long are looked up by a plain scan and may be in any order; longer
+/// ones must be in increasing radius and are searched by bisection.
+pub const SHORT_STEP_LIST: usize = 32;
+
 /// Web tension as a function of radius.
 #[derive(Debug, Clone, PartialEq, serde::Serialize, serde::Deserialize)]
 pub struct TensionSchedule {
@@ -54,7 +58,8 @@ impl TensionSchedule {
     ///
     /// * linear: T = T0·(1 − f·(r − rc)/(R − rc)), so the outermost wrap runs at (1 − f)·T0;
     /// * hyperbolic: T = T0·(1 − f·(1 − rc/r)); f = 1 is constant torque (T·r constant);
-    /// * steps: T0 until the first step radius, then each step's tension from its radius outward;
+    /// * steps: T0 until the first step radius, then each step's tension from its radius outward
+    ///   (see [`TensionSchedule::scheduled_tension_at`] for long step lists);
     /// * an upset band overrides the schedule for from_radius ≤ r < to_radius (last band wins).
     pub fn tension_at(&self, radius: f64, core_radius: f64, outer_radius: f64) -> f64 {
         let mut tension = self.scheduled_tension_at(radius, core_radius, outer_radius);
@@ -69,7 +74,10 @@ impl TensionSchedule {
     /// The schedule's web tension (N/m) at `radius`, upsets left out (what the operator sets):
     /// the taper law of the crate, written once (see [`TensionSchedule::tension_at`]). Among
     /// steps, the one with the largest radius at or below `radius` applies; of two steps at the
-    /// same radius the later one.
+    /// same radius the later one. Lists of more than [`SHORT_STEP_LIST`] steps must be in
+    /// increasing radius ([`TensionSchedule::validate`] refuses them otherwise, and the case
+    /// file requires it anyway): their step is found by binary search, so a solve costs
+    /// wraps × log(steps) rather than wraps × steps.
     pub fn scheduled_tension_at(&self, radius: f64, core_radius: f64, outer_radius: f64) -> f64 {
         let t0 = self.start_tension;
         let tension = match &self.taper {
@@ -82,7 +90,8 @@ impl TensionSchedule {
             Taper::Hyperbolic { fraction } => {
                 t0 * (1.0 - fraction * (1.0 - core_radius / radius.max(core_radius)))
             }
-            Taper::Steps { steps } => {
+            Taper::Steps { steps } if steps.len() <= SHORT_STEP_LIST => {
+                // Any order: the largest radius at or below `radius`, the later on a tie.
                 let mut value = t0;
                 let mut best = f64::NEG_INFINITY;
                 for step in steps {
@@ -92,6 +101,13 @@ impl TensionSchedule {
                     }
                 }
                 value
+            }
+            Taper::Steps { steps } => {
+                // In increasing radius: the last step at or inside `radius`.
+                match steps.partition_point(|step| step.radius <= radius) {
+                    0 => t0,
+                    after => steps[after - 1].tension,
+                }
             }
         };
         tension.max(0.0)
@@ -124,6 +140,7 @@ impl TensionSchedule {
                 }
             }
             Taper::Steps { steps } => {
+                let mut previous = f64::NEG_INFINITY;
                 for step in steps {
                     tension("winding.taper.steps.tension", step.tension)?;
                     if !(step.radius.is_finite() && step.radius >= 0.0) {
@@ -133,6 +150,15 @@ impl TensionSchedule {
                             accepted: "a finite diameter ≥ 0",
                         });
                     }
+                    // The binary search of long lists relies on this order.
+                    if step.radius < previous && steps.len() > SHORT_STEP_LIST {
+                        return Err(OutOfRange {
+                            field: "winding.taper.steps.from_diameter",
+                            value: step.radius,
+                            accepted: "diameters increasing from the core outward",
+                        });
+                    }
+                    previous = step.radius;
                 }
             }
         }
@@ -208,5 +234,62 @@ mod tests {
         assert_eq!(s.scheduled_tension_at(0.12, 0.05, 0.2), 200.0);
         assert_eq!(s.scheduled_tension_at(0.16, 0.05, 0.2), 100.0);
         assert_eq!(s.scheduled_tension_at(0.06, 0.05, 0.2), 300.0);
+    }
+
+    /// The step lookup by binary search gives what the plain definition gives (the last step
+    /// at or inside the radius; T0 inside the first), for many steps and radii on and
+    /// between the step radii.
+    #[test]
+    fn step_lookup_matches_the_definition() {
+        let (rc, big_r) = (0.05, 0.6);
+        let steps: Vec<TensionStep> = (1..2000)
+            .map(|k| TensionStep {
+                radius: rc + (big_r - rc) * k as f64 / 2000.0,
+                tension: 100.0 + (k % 37) as f64,
+            })
+            .collect();
+        let definition = |r: f64| {
+            steps
+                .iter()
+                .rev()
+                .find(|s| s.radius <= r)
+                .map_or(250.0, |s| s.tension)
+        };
+        let s = TensionSchedule {
+            start_tension: 250.0,
+            taper: Taper::Steps {
+                steps: steps.clone(),
+            },
+            upsets: Vec::new(),
+        };
+        for i in 0..=20_000 {
+            let r = rc + (big_r - rc) * i as f64 / 20_000.0;
+            assert_eq!(s.tension_at(r, rc, big_r), definition(r), "r = {r}");
+        }
+        for step in &steps {
+            assert_eq!(s.tension_at(step.radius, rc, big_r), step.tension);
+        }
+    }
+
+    #[test]
+    fn long_step_lists_out_of_order_are_refused() {
+        let mut steps: Vec<TensionStep> = (0..=SHORT_STEP_LIST)
+            .map(|k| TensionStep {
+                radius: 0.1 + 0.001 * k as f64,
+                tension: 150.0,
+            })
+            .collect();
+        let mut s = TensionSchedule {
+            start_tension: 250.0,
+            taper: Taper::Steps {
+                steps: steps.clone(),
+            },
+            upsets: Vec::new(),
+        };
+        assert!(s.validate().is_ok());
+        steps.swap(0, 5);
+        s.taper = Taper::Steps { steps };
+        let error = s.validate().unwrap_err().to_string();
+        assert!(error.contains("increasing"), "{error}");
     }
 }

@@ -17,7 +17,7 @@ pub use document::{
     RemedyComparisonSummary, RemedyEntry, ReportDocument, StressSummary, ZoneSummary,
     build_document,
 };
-pub use prepare::{PrepareOptions, prepare, prepare_from_path};
+pub use prepare::{PrepareOptions, Solved, comparison, prepare, prepare_from_path, solved_report};
 
 use crate::case::{Case, ResolvedCase};
 use crate::diagnose::Diagnosis;

@@ -4,10 +4,10 @@
 use super::{RemedyComparison, ReportError, ReportInput, ReportMeta};
 use crate::case::{Case, ResolvedCase};
 use crate::diagnose::pipeline::{self, Triage};
-use crate::diagnose::remedies::apply_changes;
 use crate::diagnose::rules::SettingChange;
-use crate::diagnose::{DiagnoseError, DiagnoseOptions, rules::RuleBase};
-use crate::model::{SolverOptions, Taper, solve};
+use crate::diagnose::what_if::apply_changes;
+use crate::diagnose::{DiagnoseError, DiagnoseOptions, Diagnosis, rules::RuleBase};
+use crate::model::{Profile, SolverOptions, Taper, solve};
 use crate::units::{QuantityKind, UnitSystem, format_quantity};
 
 /// Options of [`prepare`].
@@ -65,32 +65,76 @@ pub fn prepare(
     let remedy = match &options.remedy {
         None => None,
         Some(id) => {
-            let listed = diagnosis.remedies.iter().find(|r| &r.id == id);
-            let text = listed.map(|r| r.text.clone()).unwrap_or_else(|| id.clone());
             let (after_case, change) = apply_remedy(rules, &resolved, id, options.units)?;
             let after = solve(&after_case.problem(same_grid))?;
-            Some(RemedyComparison {
-                remedy_id: id.clone(),
-                remedy_text: text,
-                change,
-                after_case,
-                after,
-            })
+            Some(comparison(&diagnosis, id, change, after_case, after))
         }
     };
     let meta = match &options.date {
         Some(date) => ReportMeta::dated(date, options.source_file.clone()),
         None => ReportMeta::now(options.source_file.clone()),
     };
-    Ok(ReportInput {
-        case: case.clone(),
-        resolved,
-        profile,
-        diagnosis,
+    Ok(solved_report(
+        case,
+        Solved {
+            resolved,
+            profile,
+            diagnosis,
+        },
         remedy,
         meta,
-        units: options.units,
-    })
+        options.units,
+    ))
+}
+
+/// A case already resolved, solved and diagnosed (e.g. by the terminal UI's background job).
+#[derive(Debug, Clone, PartialEq)]
+pub struct Solved {
+    pub resolved: ResolvedCase,
+    pub profile: Profile,
+    pub diagnosis: Diagnosis,
+}
+
+/// The report input of a case already solved: no solve here, so the UI can export what it
+/// shows without waiting.
+pub fn solved_report(
+    case: &Case,
+    solved: Solved,
+    remedy: Option<RemedyComparison>,
+    meta: ReportMeta,
+    units: UnitSystem,
+) -> ReportInput {
+    ReportInput {
+        case: case.clone(),
+        resolved: solved.resolved,
+        profile: solved.profile,
+        diagnosis: solved.diagnosis,
+        remedy,
+        meta,
+        units,
+    }
+}
+
+/// The before/after comparison of remedy `id` (its text from the diagnosis' remedy list, else
+/// the ID), with the changed case `after_case` solved as `after`.
+pub fn comparison(
+    diagnosis: &Diagnosis,
+    id: &str,
+    change: String,
+    after_case: ResolvedCase,
+    after: Profile,
+) -> RemedyComparison {
+    RemedyComparison {
+        remedy_id: id.to_string(),
+        remedy_text: diagnosis
+            .remedies
+            .iter()
+            .find(|r| r.id == id)
+            .map_or_else(|| id.to_string(), |r| r.text.clone()),
+        change,
+        after_case,
+        after,
+    }
 }
 
 /// A pipeline error as the report's own: case and model errors keep their kind.

@@ -4,8 +4,9 @@
 //! * **core pressure** at most a chosen share of the core's rated crush pressure;
 //! * **starring**: no band with compressive tangential stress and low pressure (pressure below a
 //!   share of the roll's peak pressure — the same definition the profile summary uses);
-//! * **outer pressure**: the lowest pressure in the `outer` zone at least a threshold, so the
-//!   outside resists telescoping;
+//! * **telescoping**: at every interface, friction × pressure at least a chosen multiple of the
+//!   axial shear of lifting the roll by its core (the margin of `mechanics::telescoping`, the
+//!   same one diagnosis tests, so a designed roll is never one the diagnosis calls too soft);
 //! * **wound-in tension** at most a safe share of the web's strength.
 //!
 //! Criterion (documented in docs/taper-design.md): among schedules that meet every limit with the
@@ -22,18 +23,17 @@ use serde::Serialize;
 
 use crate::case::ResolvedCase;
 use crate::model::{
-    ModelError, Profile, Resolution, SolverOptions, Taper, TensionSchedule, ZoneName,
-    schedule::TensionStep,
+    ModelError, Profile, Resolution, SolverOptions, Taper, TensionSchedule, schedule::TensionStep,
 };
 
 /// Default share of the rated crush pressure the core may carry. Common practice: keep a
 /// margin below the maker's rating because ratings are short-term tests and cores creep.
 pub const DEFAULT_CORE_SHARE: f64 = 0.8;
-/// Default minimum pressure in the outer zone, Pa (14 kPa ≈ 2 psi). Our choice, common practice:
-/// trade articles note that about 1 psi (7 kPa) may not hold a roll together against winding and
-/// handling forces (Walker, "Winding Process Fundamentals, Pt. 3", PFFC Web Lines, 2013); we
-/// double it. Set it from your own roll-handling experience.
-pub const DEFAULT_MIN_OUTER_PRESSURE: f64 = 14e3;
+/// Default smallest telescoping margin: friction must hold the handling shear (which already
+/// carries the shock factor of `mechanics::Events`) at every interface. Margins below 1 are the
+/// ones the diagnosis' telescoping rules count as evidence; set a higher one from your own
+/// roll-handling experience.
+pub const DEFAULT_MIN_TELESCOPING_MARGIN: f64 = 1.0;
 /// Default share of the peak pressure below which a compressive band counts as starring risk:
 /// the model's own low-pressure share (see `model::profile`).
 pub const DEFAULT_STARRING_PRESSURE_SHARE: f64 = crate::model::profile::LOW_PRESSURE_SHARE;
@@ -49,8 +49,8 @@ pub const DEFAULT_DESIGN_MARGIN: f64 = 0.05;
 pub struct TaperLimits {
     /// Core pressure ≤ core_share × rated crush pressure (0 < share ≤ 1.5).
     pub core_share: f64,
-    /// Lowest pressure in the outer zone ≥ this, Pa.
-    pub min_outer_pressure: f64,
+    /// Smallest telescoping margin (friction capacity / handling shear) ≥ this.
+    pub min_telescoping_margin: f64,
     /// A node with compressive tangential stress and pressure below this share of the peak
     /// pressure is starring risk (0 < share < 1).
     pub starring_pressure_share: f64,
@@ -62,7 +62,7 @@ impl Default for TaperLimits {
     fn default() -> Self {
         TaperLimits {
             core_share: DEFAULT_CORE_SHARE,
-            min_outer_pressure: DEFAULT_MIN_OUTER_PRESSURE,
+            min_telescoping_margin: DEFAULT_MIN_TELESCOPING_MARGIN,
             starring_pressure_share: DEFAULT_STARRING_PRESSURE_SHARE,
             tension_share: DEFAULT_TENSION_SHARE,
         }
@@ -118,7 +118,7 @@ impl Default for DesignOptions {
 pub enum Limit {
     CorePressure,
     Starring,
-    OuterPressure,
+    Telescoping,
     WoundInTension,
 }
 
@@ -126,7 +126,7 @@ impl Limit {
     pub const ALL: [Limit; 4] = [
         Limit::CorePressure,
         Limit::Starring,
-        Limit::OuterPressure,
+        Limit::Telescoping,
         Limit::WoundInTension,
     ];
     fn index(self) -> usize {
@@ -137,7 +137,7 @@ impl Limit {
         match self {
             Limit::CorePressure => "core pressure",
             Limit::Starring => "no starring band",
-            Limit::OuterPressure => "outer-zone pressure (telescoping)",
+            Limit::Telescoping => "telescoping margin",
             Limit::WoundInTension => "wound-in tension",
         }
     }
@@ -146,7 +146,7 @@ impl Limit {
         match self {
             Limit::CorePressure => "--core-share",
             Limit::Starring => "--starring-share",
-            Limit::OuterPressure => "--min-outer-pressure",
+            Limit::Telescoping => "--min-telescoping-margin",
             Limit::WoundInTension => "--tension-share",
         }
     }
@@ -156,10 +156,10 @@ impl Limit {
 #[derive(Debug, Clone, Copy, PartialEq, Serialize)]
 pub struct LimitCheck {
     pub limit: Limit,
-    /// Core pressure (Pa); starring band extent (share of the build); lowest outer-zone pressure
-    /// (Pa); largest wound-in tension (N/m).
+    /// Core pressure (Pa); starring band extent (share of the build); smallest telescoping
+    /// margin (ratio); largest wound-in tension (N/m).
     pub value: f64,
-    /// The allowed maximum (core, starring, tension) or minimum (outer pressure), same unit.
+    /// The allowed maximum (core, starring, tension) or minimum (telescoping), same unit.
     pub allowed: f64,
     /// Relative margin, positive when met (e.g. 0.1 = 10 % to spare).
     pub margin: f64,
@@ -297,10 +297,10 @@ impl TaperLimits {
             "0 < share ≤ 1.5",
         )?;
         check(
-            "min_outer_pressure",
-            self.min_outer_pressure,
-            self.min_outer_pressure >= 0.0,
-            "a pressure ≥ 0",
+            "min_telescoping_margin",
+            self.min_telescoping_margin,
+            self.min_telescoping_margin > 0.0 && self.min_telescoping_margin <= 100.0,
+            "0 < margin ≤ 100",
         )?;
         check(
             "starring_pressure_share",
@@ -423,34 +423,17 @@ pub fn check_limits(
         met: depth <= 0.0,
     };
 
-    let (start, end) = match profile.zone(ZoneName::Outer) {
-        Some(z) if z.end > z.start && z.end <= n => (z.start, z.end),
-        // Fallback when a profile carries no zones: 70 % to 90 % of the build.
-        _ => {
-            let r0 = profile.radius.first().copied().unwrap_or(0.0);
-            let idx = |f: f64| profile.radius.partition_point(|&r| r < r0 + f * span);
-            (idx(0.70), idx(0.90).max(idx(0.70) + 1).min(n))
-        }
-    };
-    let outer_min = profile.pressure[start.min(n)..end.min(n)]
-        .iter()
-        .cloned()
-        .fold(f64::INFINITY, f64::min);
-    let outer_min = if outer_min.is_finite() {
-        outer_min
-    } else {
-        0.0
-    };
+    // Telescoping: the mechanics layer's margin, the one the diagnosis reads.
+    let telescoping = crate::mechanics::telescoping::handling_margins(
+        profile,
+        &crate::mechanics::MechanicsInputs::from_case(case),
+    );
     let outer = LimitCheck {
-        limit: Limit::OuterPressure,
-        value: outer_min,
-        allowed: limits.min_outer_pressure,
-        margin: if limits.min_outer_pressure > 0.0 {
-            outer_min / limits.min_outer_pressure - 1.0
-        } else {
-            1.0
-        },
-        met: outer_min >= limits.min_outer_pressure,
+        limit: Limit::Telescoping,
+        value: telescoping.min_margin,
+        allowed: limits.min_telescoping_margin,
+        margin: telescoping.min_margin / limits.min_telescoping_margin - 1.0,
+        met: telescoping.min_margin >= limits.min_telescoping_margin,
     };
 
     let wit_max = profile.wound_in_tension.iter().cloned().fold(0.0, f64::max);
@@ -522,7 +505,7 @@ impl Corrections {
         };
         Corrections {
             core: ratio(Limit::CorePressure),
-            outer: ratio(Limit::OuterPressure),
+            outer: ratio(Limit::Telescoping),
         }
     }
 }
@@ -562,11 +545,7 @@ impl Trial {
     /// Corrected margins, same definitions as [`check_limits`].
     fn margins(&self, k: Corrections, cx: &Context) -> [f64; 4] {
         let v = self.values(k);
-        let outer = if cx.limits.min_outer_pressure > 0.0 {
-            v[2] / cx.limits.min_outer_pressure - 1.0
-        } else {
-            1.0
-        };
+        let outer = v[2] / cx.limits.min_telescoping_margin - 1.0;
         [
             1.0 - v[0] / (cx.limits.core_share * cx.case.core.crush_pressure),
             self.raw[1],
@@ -1034,7 +1013,7 @@ fn find_conflict(cx: &Context, trials: &[Trial], k: Corrections) -> Conflict {
         }
     }
     let (first, second, best_margin) =
-        worst.unwrap_or((Limit::CorePressure, Limit::OuterPressure, 0.0));
+        worst.unwrap_or((Limit::CorePressure, Limit::Telescoping, 0.0));
     let mut advice = Vec::new();
     if first == second {
         advice.push(format!(
@@ -1109,11 +1088,11 @@ fn relax_advice(
                 )
             }
         }
-        Limit::OuterPressure => format!(
-            "{keeping}, the outer-zone pressure reaches at most {}: lower {} to that (now {})",
-            kpa(best),
+        Limit::Telescoping => format!(
+            "{keeping}, the telescoping margin reaches at most {:.2}: lower {} to that (now {:.2}), or handle the rolls more gently",
+            best,
             relax.option(),
-            kpa(limits.min_outer_pressure)
+            limits.min_telescoping_margin
         ),
         Limit::WoundInTension => format!(
             "{keeping}, the wound-in tension must reach {:.0} N/m: raise {} to {:.2} (now {:.2}) if the web's strength allows it",
@@ -1209,8 +1188,8 @@ fn explain(
                 Limit::CorePressure => {
                     "more start tension or less taper would load the core beyond the chosen share of its crush rating"
                 }
-                Limit::OuterPressure => {
-                    "less tension at the outside (lower start or more taper) would leave the outer zone too loose to resist telescoping"
+                Limit::Telescoping => {
+                    "less tension (lower start or more taper) would leave some layers too loosely held to carry the roll's weight in handling (telescoping)"
                 }
                 Limit::WoundInTension => {
                     "a higher start tension would exceed the web's safe share of its strength"
@@ -1364,24 +1343,6 @@ mod tests {
         assert!(!s.met && s.margin < 0.0, "{s:?}");
         // Ten nodes of 1 mm over a 100 mm build.
         assert!((s.value - 0.10).abs() < 1e-9, "{}", s.value);
-    }
-
-    #[test]
-    fn the_outer_zone_minimum_is_checked_against_the_threshold() {
-        let p = profile(0..0);
-        let outer = p.zone(ZoneName::Outer).unwrap().clone();
-        let expected = p.pressure[outer.end - 1];
-        let checks = check_limits(
-            &case(),
-            &p,
-            &TaperLimits {
-                min_outer_pressure: 2.0 * expected,
-                ..TaperLimits::default()
-            },
-        );
-        let o = checks[Limit::OuterPressure.index()];
-        assert!((o.value - expected).abs() < 1e-9);
-        assert!(!o.met && (o.margin + 0.5).abs() < 1e-12);
     }
 
     #[test]

@@ -148,6 +148,16 @@ pub enum TrainingError {
 impl Walkthrough {
     /// Parse a walk-through from YAML; `origin` names the file in messages.
     pub fn from_yaml_str(text: &str, origin: &str) -> Result<Walkthrough, TrainingError> {
+        // Aliases are refused before parsing: expanding an alias chain costs work exponential
+        // in the file size.
+        if let Some((line, column)) = crate::case::yaml_guard::first_alias(text) {
+            return Err(TrainingError::Invalid {
+                origin: origin.to_string(),
+                message: format!(
+                    "line {line}, column {column}: a YAML alias (`*name`) is not accepted in a walk-through; write the value out instead"
+                ),
+            });
+        }
         yaml::from_str(text).map_err(|e| TrainingError::Invalid {
             origin: origin.to_string(),
             message: e.to_string(),

@@ -9,6 +9,10 @@ pub enum Key {
     Char(char),
     /// Ctrl held with a letter, lower-case.
     Ctrl(char),
+    /// Alt held with a character. Terminals send Alt-x as Esc then x, so an Esc followed
+    /// quickly by a letter (a busy machine, a fast typist) arrives as this too: the app takes
+    /// it as Esc, then the character.
+    Alt(char),
     Enter,
     Esc,
     Backspace,
@@ -65,6 +69,7 @@ fn translate_key(key: &ct::KeyEvent) -> Option<Key> {
     let ctrl = key.modifiers.contains(ct::KeyModifiers::CONTROL);
     Some(match key.code {
         ct::KeyCode::Char(c) if ctrl => Key::Ctrl(c.to_ascii_lowercase()),
+        ct::KeyCode::Char(c) if key.modifiers.contains(ct::KeyModifiers::ALT) => Key::Alt(c),
         ct::KeyCode::Char(c) => Key::Char(c),
         ct::KeyCode::Enter => Key::Enter,
         ct::KeyCode::Esc => Key::Esc,
@@ -100,5 +105,14 @@ mod tests {
         let mut release = ct::KeyEvent::new(ct::KeyCode::Char('a'), ct::KeyModifiers::NONE);
         release.kind = ct::KeyEventKind::Release;
         assert_eq!(from_crossterm(&ct::Event::Key(release)), None);
+    }
+
+    #[test]
+    fn esc_and_a_letter_run_together_arrive_as_alt() {
+        let alt = ct::KeyEvent::new(ct::KeyCode::Char('c'), ct::KeyModifiers::ALT);
+        assert_eq!(
+            from_crossterm(&ct::Event::Key(alt)),
+            Some(Event::Key(Key::Alt('c')))
+        );
     }
 }

@@ -149,44 +149,71 @@ pub fn get(case: &Case, path: &str) -> Option<String> {
     }
 }
 
-/// Check `text` for the field; returns the message to show in place when it is not accepted.
-pub fn check(spec: &FieldSpec, text: &str) -> Result<(), String> {
+/// Why a value typed into a field is not accepted (shown under the field).
+#[derive(Debug, Clone, PartialEq, thiserror::Error)]
+pub enum FieldError {
+    #[error(transparent)]
+    Unit(#[from] crate::units::UnitError),
+    #[error("{0}: not a field of the form")]
+    NotInForm(String),
+    #[error("{path}: \"{text}\" is not accepted; a plain number {accepted}")]
+    Number {
+        path: &'static str,
+        text: String,
+        accepted: String,
+    },
+    #[error("{path}: {shown} is not accepted; {accepted}")]
+    OutOfRange {
+        path: &'static str,
+        shown: String,
+        accepted: String,
+    },
+    #[error("{path}: \"{text}\" is not accepted; one of {}", options.join(", "))]
+    Choice {
+        path: &'static str,
+        text: String,
+        options: &'static [&'static str],
+    },
+}
+
+/// Check `text` for the field.
+pub fn check(spec: &FieldSpec, text: &str) -> Result<(), FieldError> {
     let text = text.trim();
     if text.is_empty() {
         return Ok(());
     }
     match spec.kind {
         Quantity(kind) => {
-            let value = parse_quantity(spec.path, text, kind).map_err(|e| e.to_string())?;
+            let value = parse_quantity(spec.path, text, kind)?;
             match spec.range {
-                Some(range) if !range.contains(value) => Err(format!(
-                    "{}: {} is not accepted; {}",
-                    spec.path,
-                    range.show(value),
-                    range.describe()
-                )),
+                Some(range) if !range.contains(value) => Err(FieldError::OutOfRange {
+                    path: spec.path,
+                    shown: range.show(value),
+                    accepted: range.describe(),
+                }),
                 _ => Ok(()),
             }
         }
         Number { min, max } => match (text.parse::<f64>(), spec.range) {
             (Ok(v), Some(range)) if range.contains(v) => Ok(()),
             (Ok(v), None) if v.is_finite() && (min..=max).contains(&v) => Ok(()),
-            _ => Err(format!(
-                "{}: \"{text}\" is not accepted; a plain number {}",
-                spec.path,
-                spec.range
-                    .map_or_else(|| format!("from {min} to {max}"), |range| range.describe())
-            )),
+            _ => Err(FieldError::Number {
+                path: spec.path,
+                text: text.to_string(),
+                accepted: spec
+                    .range
+                    .map_or_else(|| format!("from {min} to {max}"), |range| range.describe()),
+            }),
         },
         Choice(options) => {
             if options.contains(&text) {
                 Ok(())
             } else {
-                Err(format!(
-                    "{}: \"{text}\" is not accepted; one of {}",
-                    spec.path,
-                    options.join(", ")
-                ))
+                Err(FieldError::Choice {
+                    path: spec.path,
+                    text: text.to_string(),
+                    options,
+                })
             }
         }
         Preset(_) | Text => Ok(()),
@@ -194,7 +221,7 @@ pub fn check(spec: &FieldSpec, text: &str) -> Result<(), String> {
 }
 
 /// Write `text` (None or empty clears the field) after checking it.
-pub fn set(case: &mut Case, spec: &FieldSpec, text: Option<&str>) -> Result<(), String> {
+pub fn set(case: &mut Case, spec: &FieldSpec, text: Option<&str>) -> Result<(), FieldError> {
     let text = text.map(str::trim).filter(|t| !t.is_empty());
     if let Some(t) = text {
         check(spec, t)?;
@@ -258,7 +285,7 @@ pub fn set(case: &mut Case, spec: &FieldSpec, text: Option<&str>) -> Result<(), 
         "winding.speed" => case.winding.speed = quantity(),
         "winding.temperature" => case.winding.temperature = quantity(),
         "winding.acceleration_time" => case.winding.acceleration_time = number(),
-        other => return Err(format!("{other}: not a field of the form")),
+        other => return Err(FieldError::NotInForm(other.to_string())),
     }
     Ok(())
 }

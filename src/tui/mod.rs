@@ -1,13 +1,18 @@
-//! Terminal UI (the only module that imports ratatui/crossterm): app state ([`app`]), input
-//! events ([`event`]), one file per screen ([`screens`]), the background solver ([`job`]) and
-//! terminal setup with a panic hook ([`terminal`]).
+//! Terminal UI (the only module that imports ratatui/crossterm): the app and its action queue
+//! ([`app`]), the component trait and key maps ([`component`]), the shared state
+//! ([`session`]), one module per screen ([`screens`]) and per popup ([`popups`]), input events
+//! ([`event`]), the background solver ([`job`]) and terminal setup with a panic hook
+//! ([`terminal`]).
 
 pub mod app;
 pub mod catalogue;
+pub mod component;
 pub mod event;
 pub mod fields;
 pub mod job;
+pub mod popups;
 pub mod screens;
+pub mod session;
 pub mod terminal;
 pub mod theme;
 
@@ -24,8 +29,8 @@ use crate::diagnose::rules::RuleBase;
 pub enum TuiError {
     #[error("terminal: {0}")]
     Terminal(#[from] std::io::Error),
-    #[error("{0}")]
-    Case(String),
+    #[error(transparent)]
+    Case(#[from] crate::case::CaseError),
     #[error(transparent)]
     Rules(#[from] crate::diagnose::rules::RuleError),
 }
@@ -64,16 +69,16 @@ pub fn build_app(options: &Options, rules: Arc<RuleBase>) -> Result<app::App, Tu
         web,
         core,
     );
-    app.units = options.units;
+    app.session.units = options.units;
     // Walk-throughs are optional extras: a broken one must not keep the UI from opening.
-    app.walkthroughs = crate::training::library::embedded().unwrap_or_default();
-    app.remedy_changes = rules
+    app.session.walkthroughs = crate::training::library::embedded().unwrap_or_default();
+    app.session.remedy_changes = rules
         .remedies
         .iter()
         .map(|(id, remedy)| (id.clone(), remedy.changes.clone()))
         .collect();
     if let Some(path) = &options.case {
-        let case = crate::case::Case::load(path).map_err(|e| TuiError::Case(e.to_string()))?;
+        let case = crate::case::Case::load(path)?;
         app.set_case(case, Some(path.clone()));
     }
     Ok(app)
@@ -94,7 +99,7 @@ pub fn run(options: &Options) -> Result<(), TuiError> {
     let mut terminal = terminal::setup(options.mouse)?;
     let result = event_loop(&mut terminal, &mut app, &mut jobs, theme);
     jobs.cancel_all();
-    terminal::restore(options.mouse);
+    terminal::teardown(options.mouse);
     result
 }
 

@@ -1,5 +1,7 @@
-//! Terminal setup and restore: raw mode, alternate screen, optional mouse capture, and a panic
-//! hook that puts the terminal back before the panic message is printed.
+//! Terminal setup and restore: raw mode, alternate screen, optional mouse capture, a panic
+//! hook that puts the terminal back before the panic message is printed, and a stop-signal
+//! hook (SIGTERM, SIGINT, SIGHUP, SIGQUIT, through [`crate::signals`]) that does the same
+//! before the signal ends the program.
 
 use std::io::{Stdout, stdout};
 
@@ -17,6 +19,7 @@ pub type UiTerminal = Terminal<CrosstermBackend<Stdout>>;
 /// half-way through setup leaves a usable terminal.
 pub fn setup(mouse: bool) -> std::io::Result<UiTerminal> {
     install_panic_hook(mouse);
+    crate::signals::set_restore_hook(Some(Box::new(move || restore(mouse))));
     enable_raw_mode()?;
     let entered = if mouse {
         execute!(stdout(), EnterAlternateScreen, EnableMouseCapture)
@@ -24,7 +27,7 @@ pub fn setup(mouse: bool) -> std::io::Result<UiTerminal> {
         execute!(stdout(), EnterAlternateScreen)
     };
     if let Err(error) = entered {
-        restore(mouse);
+        teardown(mouse);
         return Err(error);
     }
     match Terminal::new(CrosstermBackend::new(stdout())) {
@@ -33,10 +36,16 @@ pub fn setup(mouse: bool) -> std::io::Result<UiTerminal> {
             Ok(terminal)
         }
         Err(error) => {
-            restore(mouse);
+            teardown(mouse);
             Err(error)
         }
     }
+}
+
+/// Restore the terminal at the end of a run and stop watching for stop signals on its behalf.
+pub fn teardown(mouse: bool) {
+    crate::signals::set_restore_hook(None);
+    restore(mouse);
 }
 
 /// Leave the alternate screen and raw mode. Safe to call more than once.

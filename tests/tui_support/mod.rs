@@ -61,7 +61,7 @@ pub fn app() -> App {
         vec!["paper_3in".into(), "steel_6in".into()],
     );
     // The setting changes the rule base gives these sample remedies.
-    app.remedy_changes = [
+    app.session.remedy_changes = [
         (
             "raise_tension".to_string(),
             vec![SettingChange::TensionScale(1.15)],

@@ -12,13 +12,14 @@ mod table;
 
 pub use table::*;
 
-/// Accepted range of a number: `min <= value <= max` (or `min < value` when `min_exclusive`),
-/// and always finite.
+/// Accepted range of a number: `min <= value <= max` (`min < value` when `min_exclusive`,
+/// `value < max` when `max_exclusive`), and always finite.
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub struct Range {
     pub min: f64,
     pub max: f64,
     pub min_exclusive: bool,
+    pub max_exclusive: bool,
     /// The quantity kind, for printing the limits with a unit; `None` for a plain number.
     pub kind: Option<QuantityKind>,
 }
@@ -29,6 +30,7 @@ pub const fn above(min: f64, max: f64, kind: QuantityKind) -> Range {
         min,
         max,
         min_exclusive: true,
+        max_exclusive: false,
         kind: Some(kind),
     }
 }
@@ -39,6 +41,7 @@ pub const fn from(min: f64, max: f64, kind: QuantityKind) -> Range {
         min,
         max,
         min_exclusive: false,
+        max_exclusive: false,
         kind: Some(kind),
     }
 }
@@ -49,6 +52,7 @@ pub(crate) const fn plain_above(min: f64, max: f64) -> Range {
         min,
         max,
         min_exclusive: true,
+        max_exclusive: false,
         kind: None,
     }
 }
@@ -59,15 +63,28 @@ pub(crate) const fn plain_from(min: f64, max: f64) -> Range {
         min,
         max,
         min_exclusive: false,
+        max_exclusive: false,
         kind: None,
     }
 }
 
 impl Range {
+    /// The same range with its upper limit excluded (`value < max`).
+    pub const fn below_max(self) -> Range {
+        Range {
+            max_exclusive: true,
+            ..self
+        }
+    }
+
     /// `value` as the user would write it (SI unit for a quantity).
     pub fn show(&self, value: f64) -> String {
         match self.kind {
             Some(kind) => format_quantity(value, kind, UnitSystem::Si),
+            // Very small or large plain numbers in exponent form (1e-300, not 300 zeros).
+            None if value != 0.0 && (value.abs() < 1e-4 || value.abs() >= 1e15) => {
+                format!("{value:e}")
+            }
             None => format!("{value}"),
         }
     }
@@ -79,7 +96,11 @@ impl Range {
         } else {
             format!("at least {}", self.show(self.min))
         };
-        format!("{low} and at most {}", self.show(self.max))
+        if self.max_exclusive {
+            format!("{low} and less than {}", self.show(self.max))
+        } else {
+            format!("{low} and at most {}", self.show(self.max))
+        }
     }
 
     pub fn contains(&self, value: f64) -> bool {
@@ -88,7 +109,12 @@ impl Range {
         } else {
             value >= self.min
         };
-        low && value <= self.max && value.is_finite()
+        let high = if self.max_exclusive {
+            value < self.max
+        } else {
+            value <= self.max
+        };
+        low && high && value.is_finite()
     }
 }
 
@@ -194,6 +220,7 @@ impl Field {
             min: f64::MIN,
             max: f64::MAX,
             min_exclusive: false,
+            max_exclusive: false,
             kind: match self.kind {
                 FieldKind::Quantity(kind) => Some(kind),
                 _ => None,

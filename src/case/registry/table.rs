@@ -65,6 +65,7 @@ pub const WEB_MATERIAL: Field = Field {
 pub const WEB_THICKNESS: Field = Field {
     form: Some("Thickness"),
     range: Some(from(0.5e-6, 10e-3, Q::Length)),
+    accepted_also: "less than the core outside radius",
     default: FromWeb(|p| p.thickness),
     help: "Caliper of one layer.",
     example: "76 um",
@@ -117,14 +118,17 @@ pub const K1: Field = Field {
     )
 };
 pub const K2: Field = Field {
-    range: Some(plain_above(0.0, 1e5)),
+    // Er = K2·(P + K1): a vanishing K2 leaves the stack without radial stiffness and the
+    // solution without a finite value; published fits are in the tens to hundreds.
+    range: Some(plain_from(1.0, 1e5)),
     default: FromWeb(|p| p.k2),
     help: "Pfeiffer K2 (law `pfeiffer`).",
     example: "50",
     ..plain("web.radial_stiffness.k2", "Pfeiffer K2", Number)
 };
 pub const RADIAL_MODULUS: Field = Field {
-    range: Some(above(0.0, 400e9, Q::Stress)),
+    // A vanishing modulus gives no finite solution (1e-300 Pa made every pressure NaN).
+    range: Some(from(1e3, 400e9, Q::Stress)),
     default: Required,
     help: "Constant radial modulus (law `constant`).",
     example: "20 MPa",
@@ -135,7 +139,8 @@ pub const RADIAL_MODULUS: Field = Field {
     )
 };
 pub const POWER_COEFFICIENT: Field = Field {
-    range: Some(above(0.0, 1e12, Q::Stress)),
+    // As for the constant modulus: a vanishing coefficient gives no finite solution.
+    range: Some(from(1e-3, 1e12, Q::Stress)),
     default: Required,
     help: "Coefficient C of Er = C·Pⁿ (law `power_law`), taken in Pa-based units.",
     example: "2000",
@@ -146,7 +151,8 @@ pub const POWER_COEFFICIENT: Field = Field {
     )
 };
 pub const POWER_EXPONENT: Field = Field {
-    range: Some(plain_from(0.0, 2.0)),
+    // The solver integrates Er = C·Pⁿ only for n below 1.
+    range: Some(plain_from(0.0, 1.0).below_max()),
     default: Required,
     help: "Exponent n of Er = C·Pⁿ (law `power_law`).",
     example: "0.6",
@@ -157,7 +163,8 @@ pub const POWER_EXPONENT: Field = Field {
     )
 };
 pub const WEB_POISSON: Field = Field {
-    range: Some(plain_from(0.0, 0.5)),
+    // The accretion model needs ν below 0.5 (incompressible stack).
+    range: Some(plain_from(0.0, 0.5).below_max()),
     default: FromWeb(|p| p.poisson_ratio),
     help: "Poisson ratio ν of the wound stack.",
     example: "0.01",
@@ -193,7 +200,9 @@ pub const DENSITY: Field = Field {
 };
 pub const ROUGHNESS: Field = Field {
     form: Some("Roughness (RMS)"),
-    range: Some(from(0.0, 200e-6, Q::Length)),
+    // The air-film check divides by the roughness: 0 would make the ratio infinite. 10 nm is
+    // smoother than polished foil.
+    range: Some(from(10e-9, 200e-6, Q::Length)),
     default: FromWeb(|p| p.roughness),
     help: "RMS roughness of one surface.",
     example: "3 um",
@@ -277,7 +286,8 @@ pub const CORE_POISSON: Field = Field {
     ..plain("core.poisson_ratio", "Core Poisson ratio", Number)
 };
 pub const CORE_STIFFNESS: Field = Field {
-    range: Some(above(0.0, 1e12, Q::Stress)),
+    // A vanishing core stiffness gives no finite solution (1e-300 Pa made every pressure NaN).
+    range: Some(from(1e3, 1e12, Q::Stress)),
     default: Rule("— (from modulus and geometry, or rigid)"),
     help: "A measured effective core stiffness Ec; overrides modulus and geometry.",
     example: "1 GPa",
@@ -346,7 +356,7 @@ pub const ROLL: Field = Field {
 pub const ROLL_DIAMETER: Field = Field {
     form: Some("Roll diameter"),
     range: Some(above(0.0, 5.0, Q::Length)),
-    accepted_also: "larger than the core outside diameter, at most 2 million layers",
+    accepted_also: "at least one layer larger than the core outside diameter, at most 2 million layers",
     default: Fixed(crate::presets::DEFAULT_ROLL_DIAMETER),
     help: "Finished roll diameter; from `length` when only that is given (R = √(rc² + L·h/π)).",
     example: "1 m",
@@ -355,6 +365,7 @@ pub const ROLL_DIAMETER: Field = Field {
 pub const ROLL_LENGTH: Field = Field {
     form: Some("Wound length"),
     range: Some(above(0.0, 1e8, Q::Length)),
+    accepted_also: "at least one wrap around the core",
     default: Rule("from `diameter`"),
     help: "Wound length; used when the diameter is not given (L = π(R² − rc²)/h).",
     example: "12000 m",
@@ -403,7 +414,9 @@ pub const TAPER_KIND: Field = Field {
 };
 pub const TAPER_AMOUNT: Field = Field {
     form: Some("Taper amount"),
-    range: Some(from(0.0, 1.0, Q::Percent)),
+    // At 100 % a linear taper winds the last wrap at no tension, where the air film is
+    // infinite.
+    range: Some(from(0.0, 1.0, Q::Percent).below_max()),
     accepted_also: "required for linear and hyperbolic, refused for none and steps",
     default: Rule("—"),
     help: "Share of the starting tension taken off by the outside (`\"25 %\"` or `0.25`).",
@@ -571,7 +584,8 @@ pub const UPSET_TO: Field = Field {
     )
 };
 pub const UPSET_TENSION: Field = Field {
-    range: Some(from(0.0, 1e6, Q::ForcePerWidth)),
+    // A band at no tension has an infinite air film.
+    range: Some(above(0.0, 1e6, Q::ForcePerWidth)),
     accepted_also: "below the web strength",
     default: Required,
     help: "Tension the band was wound at.",

@@ -28,7 +28,7 @@ impl Resolver {
     fn unit_error(&self, source: crate::units::UnitError) -> CaseError {
         CaseError::Quantity {
             origin: self.origin.clone(),
-            source: Box::new(source),
+            error: Box::new(source),
         }
     }
 
@@ -179,7 +179,7 @@ impl Resolver {
                 ));
             }
         }
-        Ok(ResolvedCase {
+        let resolved = ResolvedCase {
             title: case.title.clone(),
             web,
             core,
@@ -187,8 +187,42 @@ impl Resolver {
             winding,
             symptoms: case.symptoms.clone(),
             answers: case.answers.clone(),
-            assumed: self.assumed,
-        })
+            assumed: std::mem::take(&mut self.assumed),
+        };
+        self.model_accepts(&resolved)?;
+        Ok(resolved)
+    }
+
+    /// The model's own parameter checks, as a guard: the registry's ranges are at least as
+    /// strict, so a case that resolves is one the solver accepts (`case check` and `stress`
+    /// agree). Should one ever fail, the message names the case field.
+    fn model_accepts(&self, case: &ResolvedCase) -> Result<(), CaseError> {
+        let problem = case.problem(crate::model::SolverOptions::default());
+        let checks = [
+            problem.radial_stiffness.validate(),
+            problem.core.validate(),
+            problem.winding.validate(),
+        ];
+        for check in checks {
+            match check {
+                Ok(()) => {}
+                Err(crate::model::ModelError::OutOfRange {
+                    field,
+                    value,
+                    accepted,
+                }) => {
+                    let field = match field {
+                        "core.inner_radius" => "core.inside_diameter".to_string(),
+                        "core.outer_radius" => "core.outside_diameter".to_string(),
+                        f if f.starts_with("radial_stiffness.") => format!("web.{f}"),
+                        f => f.to_string(),
+                    };
+                    return Err(self.out_of_range(&field, format!("{value}"), accepted.into()));
+                }
+                Err(other) => return Err(self.invalid(other.to_string())),
+            }
+        }
+        Ok(())
     }
 
     /// A preset chosen by default is listed as assumed only when some value actually came from
@@ -598,6 +632,11 @@ impl Resolver {
         outside: f64,
         support: CoreSupport,
     ) -> Result<CoreStiffness, CaseError> {
+        // A Poisson ratio that is given is checked even when the stiffness does not use it (a
+        // rigid or measured core): the file must not carry a value no core can have.
+        if let Some(nu) = core.poisson_ratio {
+            self.check(reg::CORE_POISSON.path, nu, &reg::CORE_POISSON.range())?;
+        }
         if let Some(text) = &core.stiffness {
             if core.modulus.is_some() {
                 return Err(self.invalid(

@@ -22,6 +22,20 @@ impl Resolver {
         core: &ResolvedCore,
     ) -> Result<ResolvedRoll, CaseError> {
         let core_radius = core.outside_diameter / 2.0;
+        let h = web.thickness;
+        let length_range = reg::ROLL_LENGTH.range();
+        let diameter_range = reg::ROLL_DIAMETER.range();
+        // The accretion model needs a caliper smaller than the core radius.
+        if h >= core_radius {
+            return Err(self.out_of_range(
+                reg::WEB_THICKNESS.path,
+                reg::WEB_THICKNESS.range().show(h),
+                format!(
+                    "less than the core outside radius {}",
+                    reg::CORE_OUTSIDE.range().show(core_radius)
+                ),
+            ));
+        }
         let diameter = self.quantity(
             reg::ROLL_DIAMETER.path,
             roll.diameter.as_ref(),
@@ -32,84 +46,140 @@ impl Resolver {
             roll.length.as_ref(),
             QuantityKind::Length,
         )?;
-        // Wound length of an ideal stack: L = π·(R² − rc²)/h.
-        let length_of = |d: f64| {
-            std::f64::consts::PI * ((d / 2.0).powi(2) - core_radius.powi(2)) / web.thickness
+        // Wound length of an ideal stack: L = π·(R² − rc²)/h; one wrap (R = rc + h) is
+        // π·(2·rc + h).
+        let length_of =
+            |d: f64| std::f64::consts::PI * ((d / 2.0).powi(2) - core_radius.powi(2)) / h;
+        let one_wrap = std::f64::consts::PI * (2.0 * core_radius + h);
+        let length = match length {
+            Some(l) => Some(self.at_least_one_wrap(l, one_wrap)?),
+            None => None,
         };
         let (diameter, length) = match (diameter, length) {
             (Some(d), given_length) => {
-                let d = self.check(reg::ROLL_DIAMETER.path, d, &reg::ROLL_DIAMETER.range())?;
+                let d = self.check(reg::ROLL_DIAMETER.path, d, &diameter_range)?;
                 if d <= core.outside_diameter {
                     return Err(self.out_of_range(
                         reg::ROLL_DIAMETER.path,
-                        reg::ROLL_DIAMETER.range().show(d),
+                        diameter_range.show(d),
                         format!(
                             "larger than the core outside diameter {} (the core is bigger than the roll)",
                             reg::CORE_OUTSIDE.range().show(core.outside_diameter)
                         ),
                     ));
                 }
+                if d < core.outside_diameter + 2.0 * h {
+                    return Err(self.out_of_range(
+                        reg::ROLL_DIAMETER.path,
+                        diameter_range.show(d),
+                        format!(
+                            "at least one layer over the core: {} or more",
+                            diameter_range.show(core.outside_diameter + 2.0 * h)
+                        ),
+                    ));
+                }
                 // The length derived from a given diameter is informational (the model works
                 // on radii), so it is not listed as assumed.
-                let length = match given_length {
-                    Some(l) => self.check(reg::ROLL_LENGTH.path, l, &reg::ROLL_LENGTH.range())?,
-                    None => length_of(d),
-                };
-                (d, length)
+                (d, given_length.unwrap_or_else(|| length_of(d)))
             }
             (None, Some(l)) => {
-                let l = self.check(reg::ROLL_LENGTH.path, l, &reg::ROLL_LENGTH.range())?;
-                let d =
-                    2.0 * (core_radius.powi(2) + l * web.thickness / std::f64::consts::PI).sqrt();
+                let d = 2.0 * (core_radius.powi(2) + l * h / std::f64::consts::PI).sqrt();
                 self.assume(
                     reg::ROLL_DIAMETER.path,
-                    reg::ROLL_DIAMETER.range().show(d),
+                    diameter_range.show(d),
                     "",
                     "computed from the length and the caliper: R = √(rc² + L·h/π)",
                 );
-                (
-                    self.check(reg::ROLL_DIAMETER.path, d, &reg::ROLL_DIAMETER.range())?,
-                    l,
-                )
+                if !diameter_range.contains(d) {
+                    // Name the field the user wrote, not the one derived from it.
+                    return Err(self.out_of_range(
+                        reg::ROLL_LENGTH.path,
+                        length_range.show(l),
+                        format!(
+                            "a length that gives a roll diameter {} ({} with this core and caliper)",
+                            diameter_range.describe(),
+                            diameter_range.show(d)
+                        ),
+                    ));
+                }
+                (d, l)
             }
             (None, None) => {
                 let fallback = presets::DEFAULT_ROLL_DIAMETER;
-                if fallback.value <= core.outside_diameter {
+                if fallback.value < core.outside_diameter + 2.0 * h {
                     return Err(self.invalid(
                         "roll.diameter is needed: the core is larger than the default roll",
                     ));
                 }
-                let d = self.assumed(
-                    reg::ROLL_DIAMETER.path,
-                    &reg::ROLL_DIAMETER.range(),
-                    fallback,
-                    "",
-                );
+                let d = self.assumed(reg::ROLL_DIAMETER.path, &diameter_range, fallback, "");
                 let l = length_of(d);
                 self.assume(
                     reg::ROLL_LENGTH.path,
-                    reg::ROLL_LENGTH.range().show(l),
+                    length_range.show(l),
                     "",
                     "computed from the diameters and the caliper: L = π(R² − rc²)/h",
                 );
                 (d, l)
             }
         };
-        let layers = (diameter / 2.0 - core_radius) / web.thickness;
-        if layers > MAX_LAYERS {
-            return Err(self.out_of_range(
-                reg::ROLL_DIAMETER.path,
-                reg::ROLL_DIAMETER.range().show(diameter),
-                format!(
-                    "a build of at most {MAX_LAYERS:e} layers of this caliper ({} would be {layers:.3e} layers)",
-                    reg::WEB_THICKNESS.range().show(web.thickness)
-                ),
-            ));
-        }
+        self.at_most_max_layers(
+            roll,
+            (diameter / 2.0 - core_radius) / h,
+            diameter,
+            length,
+            h,
+        )?;
         Ok(ResolvedRoll {
             outer_diameter: diameter,
             length,
         })
+    }
+
+    /// A given wound length: in range and at least one wrap around the core.
+    fn at_least_one_wrap(&self, length: f64, one_wrap: f64) -> Result<f64, CaseError> {
+        let range = reg::ROLL_LENGTH.range();
+        let length = self.check(reg::ROLL_LENGTH.path, length, &range)?;
+        if length < one_wrap {
+            return Err(self.out_of_range(
+                reg::ROLL_LENGTH.path,
+                range.show(length),
+                format!(
+                    "at least one wrap around the core ({})",
+                    range.show(one_wrap)
+                ),
+            ));
+        }
+        Ok(length)
+    }
+
+    /// At most [`MAX_LAYERS`] layers, naming the field the user wrote: the length when the
+    /// diameter came from it.
+    fn at_most_max_layers(
+        &self,
+        roll: &RollInput,
+        layers: f64,
+        diameter: f64,
+        length: f64,
+        h: f64,
+    ) -> Result<(), CaseError> {
+        if layers <= MAX_LAYERS {
+            return Ok(());
+        }
+        let (field, given) = match (roll.diameter.is_some(), roll.length.is_some()) {
+            (false, true) => (reg::ROLL_LENGTH.path, reg::ROLL_LENGTH.range().show(length)),
+            _ => (
+                reg::ROLL_DIAMETER.path,
+                reg::ROLL_DIAMETER.range().show(diameter),
+            ),
+        };
+        Err(self.out_of_range(
+            field,
+            given,
+            format!(
+                "a build of at most {MAX_LAYERS:e} layers of this caliper ({} would be {layers:.3e} layers)",
+                reg::WEB_THICKNESS.range().show(h)
+            ),
+        ))
     }
 
     /// A diameter inside the wound part of the roll, returned as a radius.
@@ -348,12 +418,14 @@ impl Resolver {
             let field = reg::TAPER_AMOUNT.path;
             match this.quantity(field, taper.amount.as_ref(), QuantityKind::Percent)? {
                 Some(f) => {
-                    if f > 1.0 {
+                    if f >= 1.0 {
                         return Err(this.out_of_range(
                             field,
                             reg::TAPER_AMOUNT.range().show(f),
-                            "0 % to 100 % (a taper cannot take away more than all of the tension)"
-                                .into(),
+                            format!(
+                                "{} (a taper cannot take away all of the tension)",
+                                reg::TAPER_AMOUNT.range().describe()
+                            ),
                         ));
                     }
                     this.check(field, f, &reg::TAPER_AMOUNT.range())

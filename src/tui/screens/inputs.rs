@@ -7,9 +7,148 @@ use ratatui::layout::{Constraint, Layout, Rect};
 use ratatui::text::{Line, Span};
 use ratatui::widgets::{Block, Paragraph, Widget, Wrap};
 
-use crate::tui::app::App;
+use crate::tui::component::{Action, Binding, Component, Handled};
+use crate::tui::event::Key;
 use crate::tui::fields::{self, FIELDS, FieldKind, PresetFamily};
+use crate::tui::popups::Popup;
+use crate::tui::session::Session;
 use crate::tui::theme::Theme;
+
+const BROWSE: u8 = 1;
+const EDIT: u8 = 2;
+
+/// The input screen's keys. Delete (clear) is in the help screen only: the line has 80 columns.
+#[rustfmt::skip]
+pub const KEYS: &[Binding] = &[
+    Binding::both(BROWSE, "↑↓", "move", "↑ ↓", "move between fields"),
+    Binding::line(EDIT, "type", "value+unit"),
+    Binding::both(BROWSE, "type", "edit", "type or Enter", "edit: a number and its unit, e.g. 3 pli, 525 N/m, 48 mil"),
+    Binding::line(EDIT, "Enter", "ok"),
+    Binding::line(EDIT, "Esc", "cancel"),
+    Binding::help("Enter / Esc", "accept (checked at once) / cancel"),
+    Binding::both(BROWSE, "←→", "set", "← →", "choose on choice and preset rows"),
+    Binding::help("Delete", "clear a field: the preset or default value is used"),
+    Binding::both(BROWSE, "^K", "calibrate", "Ctrl-K", "fit Pfeiffer K1, K2 to a stack-test CSV"),
+];
+
+#[derive(Debug, Clone, PartialEq, Default)]
+pub struct InputsScreen {
+    /// Index into `fields::FIELDS`.
+    pub selected: usize,
+    /// The text being typed, while a field is being edited.
+    pub editing: Option<String>,
+    /// Why the last entry was not accepted (shown under the field).
+    pub error: Option<String>,
+}
+
+impl InputsScreen {
+    fn edit_key(&mut self, key: Key, mut text: String, ctx: &mut Session) {
+        let spec = FIELDS[self.selected.min(FIELDS.len() - 1)];
+        match key {
+            Key::Esc => self.error = None,
+            Key::Enter | Key::Tab => match fields::set(&mut ctx.case, &spec, Some(&text)) {
+                Ok(()) => {
+                    self.error = None;
+                    ctx.edited();
+                    if key == Key::Enter {
+                        self.selected = (self.selected + 1).min(FIELDS.len() - 1);
+                    }
+                }
+                Err(message) => {
+                    // Rejected in place: keep the text so it can be corrected.
+                    self.error = Some(message.to_string());
+                    self.editing = Some(text);
+                }
+            },
+            Key::Backspace => {
+                text.pop();
+                self.editing = Some(text);
+            }
+            Key::Char(c) => {
+                text.push(c);
+                self.editing = Some(text);
+            }
+            _ => self.editing = Some(text),
+        }
+    }
+
+    fn browse_key(&mut self, key: Key, ctx: &mut Session) -> Handled {
+        let last = FIELDS.len() - 1;
+        let spec = FIELDS[self.selected.min(last)];
+        match key {
+            Key::Ctrl('k') => ctx.push(Action::Push(Popup::Calibrate(Box::default()))),
+            Key::Up => {
+                self.selected = self.selected.saturating_sub(1);
+                self.error = None;
+            }
+            Key::Down => {
+                self.selected = (self.selected + 1).min(last);
+                self.error = None;
+            }
+            Key::PageUp => self.selected = self.selected.saturating_sub(8),
+            Key::PageDown => self.selected = (self.selected + 8).min(last),
+            Key::Home => self.selected = 0,
+            Key::End => self.selected = last,
+            Key::Enter => {
+                self.editing = Some(fields::get(&ctx.case, spec.path).unwrap_or_default())
+            }
+            Key::Delete | Key::Backspace
+                if fields::get(&ctx.case, spec.path).is_some()
+                    && fields::set(&mut ctx.case, &spec, None).is_ok() =>
+            {
+                ctx.edited();
+            }
+            Key::Left | Key::Right => {
+                let options: Vec<String> = match spec.kind {
+                    FieldKind::Choice(options) => options.iter().map(|o| o.to_string()).collect(),
+                    FieldKind::Preset(family) => ctx.preset_options(family).to_vec(),
+                    _ => Vec::new(),
+                };
+                let current = fields::get(&ctx.case, spec.path);
+                if let Some(next) = fields::cycle(&options, current.as_deref(), key == Key::Right)
+                    && fields::set(&mut ctx.case, &spec, Some(&next)).is_ok()
+                {
+                    ctx.edited();
+                }
+            }
+            Key::Char(c) => {
+                // Typing on a field starts editing it: quick entry without Enter first.
+                self.editing = Some(c.to_string());
+                self.error = None;
+            }
+            _ => return Handled::No,
+        }
+        Handled::Yes
+    }
+}
+
+impl Component for InputsScreen {
+    fn on_key(&mut self, key: Key, ctx: &mut Session) -> Handled {
+        match self.editing.take() {
+            Some(text) => {
+                self.edit_key(key, text, ctx);
+                Handled::Yes
+            }
+            None => self.browse_key(key, ctx),
+        }
+    }
+
+    fn key_map(&self) -> &'static [Binding] {
+        KEYS
+    }
+
+    fn mode(&self, _ctx: &Session) -> u8 {
+        if self.editing.is_some() { EDIT } else { BROWSE }
+    }
+
+    fn is_typing(&self) -> bool {
+        true
+    }
+
+    fn render(&self, ctx: &Session, theme: Theme, area: Rect, buf: &mut Buffer) {
+        render(self, ctx, theme, area, buf);
+    }
+}
 
 fn accepted_text(kind: FieldKind) -> String {
     match kind {
@@ -21,9 +160,8 @@ fn accepted_text(kind: FieldKind) -> String {
     }
 }
 
-pub fn render(app: &App, theme: Theme, area: Rect, buf: &mut Buffer) {
+fn render(state: &InputsScreen, app: &Session, theme: Theme, area: Rect, buf: &mut Buffer) {
     let [table, info] = Layout::vertical([Constraint::Min(5), Constraint::Length(5)]).areas(area);
-    let state = &app.inputs;
     let inner_height = usize::from(table.height.saturating_sub(2)).max(1);
     // The error line under the selected field takes one row.
     let room = if state.error.is_some() {
@@ -103,7 +241,7 @@ pub fn render(app: &App, theme: Theme, area: Rect, buf: &mut Buffer) {
             ),
             theme.good(),
         )),
-        Err(error) if error.is_empty() => Line::from(""),
+        Err(error) if error.to_string().is_empty() => Line::from(""),
         Err(error) => Line::from(Span::styled(
             format!("Not solvable yet: {error}"),
             theme.warn(),

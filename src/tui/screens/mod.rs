@@ -1,10 +1,8 @@
-//! Rendering: the frame around every screen (tabs, status, help line), one file per screen, the
-//! popups, and the shared plot widget. Everything draws from `&App`; nothing here changes state.
+//! The screens, one module each (state, keys, hints, drawing), the frame around them (tabs,
+//! status, help line) and the shared plot widget. Drawing changes no state.
 
-pub mod help;
 pub mod inputs;
 pub mod plot;
-pub mod popups;
 pub mod results;
 pub mod symptoms;
 pub mod what_if;
@@ -15,8 +13,9 @@ use ratatui::text::{Line, Span};
 use ratatui::widgets::{Block, Paragraph, Widget, Wrap};
 
 use super::app::{App, Screen, tab_labels};
+use super::component::Component;
 use super::theme::Theme;
-use crate::units::UnitSystem;
+pub use crate::units::{compact_length, compact_stress, sig3};
 
 /// The whole UI drawn for one frame.
 pub struct AppView<'a> {
@@ -39,6 +38,7 @@ const SPINNER: [char; 8] = ['⠁', '⠂', '⠄', '⡀', '⢀', '⠠', '⠐', '�
 impl Widget for AppView<'_> {
     fn render(self, area: Rect, buf: &mut Buffer) {
         let app = self.app;
+        let session = &app.session;
         let theme = self.theme;
         let [header, body, status, help_line] = Layout::vertical([
             Constraint::Length(1),
@@ -61,21 +61,21 @@ impl Widget for AppView<'_> {
         }
         Paragraph::new(Line::from(spans)).render(header, buf);
         let mut right = String::new();
-        if let Some(running) = app.running_baseline.or(app.running_what_if) {
-            let frame = SPINNER[(app.tick as usize) % SPINNER.len()];
+        if let Some(running) = session.running_baseline.or(session.running_what_if) {
+            let frame = SPINNER[(session.tick as usize) % SPINNER.len()];
             right.push_str(&format!(
                 "{frame} solving{:>4.0}%  ",
                 running.fraction * 100.0
             ));
         }
-        let name = app
+        let name = session
             .case_path
             .as_ref()
             .and_then(|p| p.file_name())
             .map(|n| n.to_string_lossy().into_owned())
             .unwrap_or_else(|| "new case".into());
         right.push_str(&name);
-        if app.dirty {
+        if session.dirty {
             right.push_str(" *changed");
         }
         let tabs_width: usize = tab_labels().iter().map(|l| l.chars().count() + 1).sum();
@@ -91,21 +91,16 @@ impl Widget for AppView<'_> {
                 .render(header, buf);
         }
 
-        match app.screen {
-            Screen::Symptoms => symptoms::render(app, theme, body, buf),
-            Screen::Inputs => inputs::render(app, theme, body, buf),
-            Screen::Results => results::render(app, theme, body, buf),
-            Screen::WhatIf => what_if::render(app, theme, body, buf),
-        }
+        app.render_screen(theme, body, buf);
 
-        if let Some(message) = &app.status {
+        if let Some(message) = &session.status {
             Paragraph::new(Line::from(Span::styled(message.clone(), theme.warn())))
                 .render(status, buf);
         }
         help_line_widget(app, theme).render(help_line, buf);
 
-        if let Some(popup) = &app.popup {
-            popups::render(app, popup, theme, area, buf);
+        for popup in &app.popups {
+            popup.render(session, theme, area, buf);
         }
     }
 }
@@ -118,52 +113,6 @@ fn help_line_widget(app: &App, theme: Theme) -> Paragraph<'static> {
         spans.push(Span::raw(format!(" {what}  ")));
     }
     Paragraph::new(Line::from(spans))
-}
-
-/// A stress in compact form for plot axes and tables: "412 kPa", "1.25 MPa", "59.8 psi".
-pub fn compact_stress(value: f64, units: UnitSystem) -> String {
-    match units {
-        UnitSystem::Si => {
-            let a = value.abs();
-            if a >= 1e6 {
-                format!("{} MPa", sig3(value / 1e6))
-            } else if a >= 1e3 {
-                format!("{} kPa", sig3(value / 1e3))
-            } else {
-                format!("{} Pa", sig3(value))
-            }
-        }
-        UnitSystem::Us => {
-            let psi = value / 6_894.757_293_168;
-            if psi.abs() >= 1e3 {
-                format!("{} ksi", sig3(psi / 1e3))
-            } else {
-                format!("{} psi", sig3(psi))
-            }
-        }
-    }
-}
-
-/// A radius in compact form: "48 mm" or "1.9 in".
-pub fn compact_length(value: f64, units: UnitSystem) -> String {
-    match units {
-        UnitSystem::Si => format!("{} mm", sig3(value * 1e3)),
-        UnitSystem::Us => format!("{} in", sig3(value / 0.0254)),
-    }
-}
-
-/// Three significant figures without trailing zeros.
-pub fn sig3(value: f64) -> String {
-    if value == 0.0 || !value.is_finite() {
-        return format!("{}", if value.is_finite() { 0.0 } else { value });
-    }
-    let digits = (2 - value.abs().log10().floor() as i32).clamp(0, 6) as usize;
-    let text = format!("{value:.digits$}");
-    if text.contains('.') {
-        text.trim_end_matches('0').trim_end_matches('.').to_string()
-    } else {
-        text
-    }
 }
 
 /// Scroll offset that keeps logical line `target` (and the line after it) of a wrapped
@@ -210,22 +159,5 @@ pub fn centred(area: Rect, width: u16, height: u16) -> Rect {
         y: area.y + (area.height - height) / 2,
         width,
         height,
-    }
-}
-
-#[cfg(test)]
-mod tests {
-    use super::*;
-
-    #[test]
-    fn compact_numbers() {
-        assert_eq!(sig3(412_345.0), "412345");
-        assert_eq!(sig3(1.2504), "1.25");
-        assert_eq!(sig3(-0.5), "-0.5");
-        assert_eq!(compact_stress(412_345.0, UnitSystem::Si), "412 kPa");
-        assert_eq!(compact_stress(-1_250_000.0, UnitSystem::Si), "-1.25 MPa");
-        // 1 psi = 6894.757 Pa (NIST SP 811, appendix B).
-        assert_eq!(compact_stress(6_894.757, UnitSystem::Us), "1 psi");
-        assert_eq!(compact_length(0.0508, UnitSystem::Us), "2 in");
     }
 }

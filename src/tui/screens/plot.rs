@@ -76,24 +76,59 @@ fn fitted_label(label: &str, width: usize) -> String {
     }
 }
 
-impl Widget for ZonePlot<'_> {
-    fn render(self, area: Rect, buf: &mut Buffer) {
-        let inner = self.block.inner(area);
-        self.block.render(area, buf);
-        if inner.width < 16 || inner.height < 5 {
-            Paragraph::new("(enlarge the window to see this plot)").render(inner, buf);
-            return;
-        }
-        let Some((x0, x1)) = range_of(
-            self.series
-                .iter()
-                .flat_map(|s| s.points.iter().map(|p| p.0))
-                .chain(self.bands.iter().flat_map(|b| [b.from, b.to])),
-        ) else {
-            Paragraph::new("no data").render(inner, buf);
-            return;
-        };
-        let x1 = if x1 > x0 { x1 } else { x0 + 1.0 };
+/// Where the plot area is and which data ranges it shows.
+#[derive(Debug, Clone, Copy)]
+struct Frame {
+    plot: Rect,
+    w: usize,
+    h: usize,
+    x0: f64,
+    x1: f64,
+    y0: f64,
+    y1: f64,
+}
+
+impl Frame {
+    /// The data x at the middle of column `c`.
+    fn column_x(&self, c: usize) -> f64 {
+        self.x0 + (c as f64 + 0.5) / self.w as f64 * (self.x1 - self.x0)
+    }
+
+    /// The row showing `y`, if it is on the plot.
+    fn row_of(&self, y: f64) -> Option<usize> {
+        let f = (self.y1 - y) / (self.y1 - self.y0);
+        (0.0..=1.0)
+            .contains(&f)
+            .then(|| ((f * self.h as f64) as usize).min(self.h - 1))
+    }
+
+    /// Braille dot column (two per cell).
+    fn dot_x(&self, x: f64) -> f64 {
+        ((x - self.x0) / (self.x1 - self.x0) * (self.w * 2) as f64)
+            .clamp(0.0, (self.w * 2 - 1) as f64)
+    }
+
+    /// Braille dot row (four per cell).
+    fn dot_y(&self, y: f64) -> f64 {
+        ((self.y1 - y) / (self.y1 - self.y0) * (self.h * 4) as f64)
+            .clamp(0.0, (self.h * 4 - 1) as f64)
+    }
+
+    /// The dot coordinates of a segment's ends: (ax, ay, bx, by).
+    fn segment(&self, pair: &[(f64, f64)]) -> (f64, f64, f64, f64) {
+        (
+            self.dot_x(pair[0].0),
+            self.dot_y(pair[0].1),
+            self.dot_x(pair[1].0),
+            self.dot_y(pair[1].1),
+        )
+    }
+}
+
+impl ZonePlot<'_> {
+    /// The y range: the data (and zero), widened for the reference lines near it. Returns the
+    /// range and the lines shown and off the plot.
+    fn y_range(&self) -> ((f64, f64), Vec<&ReferenceLine>, Vec<&ReferenceLine>) {
         let data = range_of(
             self.series
                 .iter()
@@ -119,46 +154,22 @@ impl Widget for ZonePlot<'_> {
         let pad = (y1 - y0) * 0.05;
         y0 -= if y0 < 0.0 { pad } else { 0.0 };
         y1 += pad;
+        ((y0, y1), shown_lines, off_plot)
+    }
 
-        let label_rows = [y1, y0];
-        let y_label_width = label_rows
-            .iter()
-            .chain(std::iter::once(&0.0))
-            .map(|v| (self.format_y)(*v).chars().count())
-            .max()
-            .unwrap_or(4) as u16
-            + 1;
-        let plot = Rect {
-            x: inner.x + y_label_width,
-            y: inner.y + 1,
-            width: inner.width.saturating_sub(y_label_width),
-            height: inner.height.saturating_sub(2),
-        };
-        if plot.width < 4 || plot.height < 2 {
-            return;
-        }
-        let w = usize::from(plot.width);
-        let h = usize::from(plot.height);
-        let column_x = |c: usize| x0 + (c as f64 + 0.5) / w as f64 * (x1 - x0);
-        let row_of = |y: f64| -> Option<usize> {
-            let f = (y1 - y) / (y1 - y0);
-            (0.0..=1.0)
-                .contains(&f)
-                .then(|| ((f * h as f64) as usize).min(h - 1))
-        };
-
-        // Bands: dotted background in alternate bands, a boundary mark, labels on the top row.
+    /// Bands: dotted background in alternate bands, a boundary mark, labels on the top row.
+    fn draw_bands(&self, f: &Frame, label_row: u16, buf: &mut Buffer) {
         let band_of = |x: f64| self.bands.iter().position(|b| x >= b.from && x <= b.to);
         let mut spans: Vec<(usize, usize, usize)> = Vec::new(); // band, first col, last col
-        for c in 0..w {
-            if let Some(b) = band_of(column_x(c)) {
+        for c in 0..f.w {
+            if let Some(b) = band_of(f.column_x(c)) {
                 match spans.last_mut() {
                     Some(last) if last.0 == b => last.2 = c,
                     _ => spans.push((b, c, c)),
                 }
                 if b % 2 == 1 {
-                    for r in 0..h {
-                        buf[(plot.x + c as u16, plot.y + r as u16)]
+                    for r in 0..f.h {
+                        buf[(f.plot.x + c as u16, f.plot.y + r as u16)]
                             .set_char('·')
                             .set_style(self.band_style);
                     }
@@ -167,8 +178,8 @@ impl Widget for ZonePlot<'_> {
         }
         for (i, &(b, first, last)) in spans.iter().enumerate() {
             if i > 0 {
-                for r in 0..h {
-                    buf[(plot.x + first as u16, plot.y + r as u16)]
+                for r in 0..f.h {
+                    buf[(f.plot.x + first as u16, f.plot.y + r as u16)]
                         .set_char('┆')
                         .set_style(self.band_style);
                 }
@@ -177,53 +188,46 @@ impl Widget for ZonePlot<'_> {
             let text = fitted_label(&self.bands[b].label, width);
             let offset = (width.saturating_sub(text.chars().count())) / 2;
             buf.set_string(
-                plot.x + (first + offset) as u16,
-                inner.y,
+                f.plot.x + (first + offset) as u16,
+                label_row,
                 &text,
                 self.band_style,
             );
         }
-        // Reference lines far off the plot are named on the bottom border, right-aligned.
-        if let Some(line) = off_plot.first() {
-            let text = format!(" ↑ {} {} ", line.label, (self.format_y)(line.y));
-            let x = inner.right().saturating_sub(text.chars().count() as u16);
-            if area.bottom() > inner.bottom() && x > inner.x {
-                buf.set_string(x, area.bottom() - 1, &text, line.style);
-            }
-        }
+    }
 
-        // Reference lines with their labels at the right end.
-        for line in &shown_lines {
-            if let Some(r) = row_of(line.y) {
-                for c in 0..w {
-                    buf[(plot.x + c as u16, plot.y + r as u16)]
+    /// Reference lines with their labels at the right end.
+    fn draw_lines(&self, f: &Frame, shown: &[&ReferenceLine], buf: &mut Buffer) {
+        for line in shown {
+            if let Some(r) = f.row_of(line.y) {
+                for c in 0..f.w {
+                    buf[(f.plot.x + c as u16, f.plot.y + r as u16)]
                         .set_char(line.glyph)
                         .set_style(line.style);
                 }
-                if !line.label.is_empty() && line.label.chars().count() + 2 < w {
-                    let x = plot.right() - line.label.chars().count() as u16;
-                    buf.set_string(x, plot.y + r as u16, &line.label, line.style);
+                if !line.label.is_empty() && line.label.chars().count() + 2 < f.w {
+                    let x = f.plot.right() - line.label.chars().count() as u16;
+                    buf.set_string(x, f.plot.y + r as u16, &line.label, line.style);
                 }
             }
         }
+    }
 
-        // Curves: comparison bullets first, then the braille curve on top.
-        let dot_x = |x: f64| ((x - x0) / (x1 - x0) * (w * 2) as f64).clamp(0.0, (w * 2 - 1) as f64);
-        let dot_y = |y: f64| ((y1 - y) / (y1 - y0) * (h * 4) as f64).clamp(0.0, (h * 4 - 1) as f64);
+    /// Curves: comparison bullets first, then the braille curve on top.
+    fn draw_curves(&self, f: &Frame, buf: &mut Buffer) {
+        let (w, h) = (f.w, f.h);
         for series in self.series.iter().filter(|s| s.glyph == Glyph::Bullet) {
             for pair in series.points.windows(2) {
-                let (ax, ay, bx, by) = (
-                    dot_x(pair[0].0),
-                    dot_y(pair[0].1),
-                    dot_x(pair[1].0),
-                    dot_y(pair[1].1),
-                );
+                let (ax, ay, bx, by) = f.segment(pair);
                 let steps = ((bx - ax).abs().max((by - ay).abs()) / 2.0).ceil().max(1.0) as usize;
                 for s in 0..=steps {
                     let t = s as f64 / steps as f64;
                     let c = ((ax + t * (bx - ax)) / 2.0) as usize;
                     let r = ((ay + t * (by - ay)) / 4.0) as usize;
-                    buf[(plot.x + c.min(w - 1) as u16, plot.y + r.min(h - 1) as u16)]
+                    buf[(
+                        f.plot.x + c.min(w - 1) as u16,
+                        f.plot.y + r.min(h - 1) as u16,
+                    )]
                         .set_char('•')
                         .set_style(series.style);
                 }
@@ -237,15 +241,10 @@ impl Widget for ZonePlot<'_> {
                 cells[cell] |= BRAILLE_BITS[dx % 2][dy % 4];
             };
             if series.points.len() == 1 {
-                set(dot_x(series.points[0].0), dot_y(series.points[0].1));
+                set(f.dot_x(series.points[0].0), f.dot_y(series.points[0].1));
             }
             for pair in series.points.windows(2) {
-                let (ax, ay, bx, by) = (
-                    dot_x(pair[0].0),
-                    dot_y(pair[0].1),
-                    dot_x(pair[1].0),
-                    dot_y(pair[1].1),
-                );
+                let (ax, ay, bx, by) = f.segment(pair);
                 let steps = (bx - ax).abs().max((by - ay).abs()).ceil().max(1.0) as usize;
                 for s in 0..=steps {
                     let t = s as f64 / steps as f64;
@@ -255,18 +254,20 @@ impl Widget for ZonePlot<'_> {
             for (i, bits) in cells.iter().enumerate() {
                 if *bits != 0 {
                     let ch = char::from_u32(0x2800 + u32::from(*bits)).unwrap_or('•');
-                    buf[(plot.x + (i % w) as u16, plot.y + (i / w) as u16)]
+                    buf[(f.plot.x + (i % w) as u16, f.plot.y + (i / w) as u16)]
                         .set_char(ch)
                         .set_style(series.style);
                 }
             }
         }
+    }
 
-        // Axes: y labels at top, bottom and zero; x labels at both ends and the middle.
-        let mut y_marks = vec![(0usize, y1), (h - 1, y0)];
-        if let Some(r) = row_of(0.0)
+    /// Axes: y labels at top, bottom and zero; x labels at both ends and the middle.
+    fn draw_axes(&self, f: &Frame, inner: Rect, y_label_width: u16, buf: &mut Buffer) {
+        let mut y_marks = vec![(0usize, f.y1), (f.h - 1, f.y0)];
+        if let Some(r) = f.row_of(0.0)
             && r != 0
-            && r != h - 1
+            && r != f.h - 1
         {
             y_marks.push((r, 0.0));
         }
@@ -274,20 +275,78 @@ impl Widget for ZonePlot<'_> {
             let text = (self.format_y)(v);
             let x =
                 inner.x + y_label_width - 1 - (text.chars().count() as u16).min(y_label_width - 1);
-            buf.set_string(x, plot.y + r as u16, &text, self.axis_style);
+            buf.set_string(x, f.plot.y + r as u16, &text, self.axis_style);
         }
         let bottom = inner.bottom() - 1;
-        let left = (self.format_x)(x0);
-        let right = (self.format_x)(x1);
-        let middle = format!("radius {}", (self.format_x)((x0 + x1) / 2.0));
-        buf.set_string(plot.x, bottom, &left, self.axis_style);
-        let rx = plot.right().saturating_sub(right.chars().count() as u16);
+        let left = (self.format_x)(f.x0);
+        let right = (self.format_x)(f.x1);
+        let middle = format!("radius {}", (self.format_x)((f.x0 + f.x1) / 2.0));
+        buf.set_string(f.plot.x, bottom, &left, self.axis_style);
+        let rx = f.plot.right().saturating_sub(right.chars().count() as u16);
         buf.set_string(rx, bottom, &right, self.axis_style);
         let mid_len = middle.chars().count() as u16;
-        let mx = plot.x + plot.width.saturating_sub(mid_len) / 2;
-        if mx > plot.x + left.chars().count() as u16 && mx + mid_len < rx {
+        let mx = f.plot.x + f.plot.width.saturating_sub(mid_len) / 2;
+        if mx > f.plot.x + left.chars().count() as u16 && mx + mid_len < rx {
             buf.set_string(mx, bottom, &middle, self.axis_style);
         }
+    }
+}
+
+impl Widget for ZonePlot<'_> {
+    fn render(self, area: Rect, buf: &mut Buffer) {
+        let inner = self.block.inner(area);
+        self.block.clone().render(area, buf);
+        if inner.width < 16 || inner.height < 5 {
+            Paragraph::new("(enlarge the window to see this plot)").render(inner, buf);
+            return;
+        }
+        let Some((x0, x1)) = range_of(
+            self.series
+                .iter()
+                .flat_map(|s| s.points.iter().map(|p| p.0))
+                .chain(self.bands.iter().flat_map(|b| [b.from, b.to])),
+        ) else {
+            Paragraph::new("no data").render(inner, buf);
+            return;
+        };
+        let x1 = if x1 > x0 { x1 } else { x0 + 1.0 };
+        let ((y0, y1), shown_lines, off_plot) = self.y_range();
+        let y_label_width = [y1, y0, 0.0]
+            .iter()
+            .map(|v| (self.format_y)(*v).chars().count())
+            .max()
+            .unwrap_or(4) as u16
+            + 1;
+        let plot = Rect {
+            x: inner.x + y_label_width,
+            y: inner.y + 1,
+            width: inner.width.saturating_sub(y_label_width),
+            height: inner.height.saturating_sub(2),
+        };
+        if plot.width < 4 || plot.height < 2 {
+            return;
+        }
+        let frame = Frame {
+            plot,
+            w: usize::from(plot.width),
+            h: usize::from(plot.height),
+            x0,
+            x1,
+            y0,
+            y1,
+        };
+        self.draw_bands(&frame, inner.y, buf);
+        // Reference lines far off the plot are named on the bottom border, right-aligned.
+        if let Some(line) = off_plot.first() {
+            let text = format!(" ↑ {} {} ", line.label, (self.format_y)(line.y));
+            let x = inner.right().saturating_sub(text.chars().count() as u16);
+            if area.bottom() > inner.bottom() && x > inner.x {
+                buf.set_string(x, area.bottom() - 1, &text, line.style);
+            }
+        }
+        self.draw_lines(&frame, &shown_lines, buf);
+        self.draw_curves(&frame, buf);
+        self.draw_axes(&frame, inner, y_label_width, buf);
     }
 }
 

@@ -11,13 +11,164 @@ use super::plot::{Band, Glyph, ReferenceLine, Series, ZonePlot, legend};
 use super::{compact_length, compact_stress};
 use crate::diagnose::Diagnosis;
 use crate::model::Profile;
-use crate::tui::app::{App, ResultsFocus};
+use crate::tui::component::{ANY, Action, Binding, Component, Handled, Screen};
+use crate::tui::event::Key;
 use crate::tui::job::SolveOutcome;
+use crate::tui::session::Session;
 use crate::tui::theme::Theme;
 use crate::units::UnitSystem;
 
+/// The results screen's keys.
+#[rustfmt::skip]
+pub const KEYS: &[Binding] = &[
+    Binding::help("← →", "causes / remedies"),
+    Binding::both(ANY, "↑↓", "move", "↑ ↓", "move"),
+    Binding::line(ANY, "←→", "pane"),
+    Binding::both(ANY, "Enter", "reasons/try", "Enter on a cause", "show its reasons: indicator, value, threshold"),
+    Binding::help("Enter on a remedy", "try it on the What-if screen"),
+];
+
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
+pub enum ResultsFocus {
+    #[default]
+    Causes,
+    Remedies,
+}
+
+#[derive(Debug, Clone, PartialEq, Default)]
+pub struct ResultsScreen {
+    pub focus: ResultsFocus,
+    pub cause: usize,
+    /// Cause IDs whose reasons are shown.
+    pub expanded: std::collections::BTreeSet<String>,
+    pub remedy: usize,
+}
+
+impl ResultsScreen {
+    /// A new baseline arrived: back to the top of both lists.
+    pub fn on_new_baseline(&mut self) {
+        self.cause = 0;
+        self.remedy = 0;
+    }
+
+    fn enter(&mut self, ctx: &mut Session) {
+        let Some(diagnosis) = ctx.latest_diagnosis() else {
+            return;
+        };
+        match self.focus {
+            ResultsFocus::Causes => {
+                if let Some(id) = diagnosis.causes.get(self.cause).map(|c| c.id.clone())
+                    && !self.expanded.remove(&id)
+                {
+                    self.expanded.insert(id);
+                }
+            }
+            ResultsFocus::Remedies => {
+                let Some(id) = diagnosis.remedies.get(self.remedy).map(|r| r.id.clone()) else {
+                    return;
+                };
+                if ctx.remedy_is_tryable(&id) {
+                    ctx.push(Action::GoTo(Screen::WhatIf));
+                    ctx.push(Action::TryRemedy(id));
+                } else {
+                    ctx.set_status(format!(
+                        "{id}: not a winder setting change the what-if can try"
+                    ));
+                }
+            }
+        }
+    }
+}
+
+impl Component for ResultsScreen {
+    fn key_map(&self) -> &'static [Binding] {
+        KEYS
+    }
+
+    fn on_key(&mut self, key: Key, ctx: &mut Session) -> Handled {
+        let (causes, remedies) = ctx
+            .latest_diagnosis()
+            .map_or((0, 0), |d| (d.causes.len(), d.remedies.len()));
+        match key {
+            Key::Left => self.focus = ResultsFocus::Causes,
+            Key::Right => self.focus = ResultsFocus::Remedies,
+            Key::Up => match self.focus {
+                ResultsFocus::Causes => self.cause = self.cause.saturating_sub(1),
+                ResultsFocus::Remedies => self.remedy = self.remedy.saturating_sub(1),
+            },
+            Key::Down => match self.focus {
+                ResultsFocus::Causes => self.cause = (self.cause + 1).min(causes.saturating_sub(1)),
+                ResultsFocus::Remedies => {
+                    self.remedy = (self.remedy + 1).min(remedies.saturating_sub(1))
+                }
+            },
+            Key::Enter | Key::Char(' ') => self.enter(ctx),
+            Key::Char('w') => ctx.push(Action::GoTo(Screen::WhatIf)),
+            _ => return Handled::No,
+        }
+        Handled::Yes
+    }
+
+    fn render(&self, ctx: &Session, theme: Theme, area: Rect, buf: &mut Buffer) {
+        let (state, app) = (self, ctx);
+        let Some(outcome) = app.latest_outcome() else {
+            let text = waiting_text(app).unwrap_or_default();
+            Paragraph::new(text)
+                .wrap(Wrap { trim: true })
+                .block(Block::bordered().title(" Results "))
+                .render(area, buf);
+            return;
+        };
+        let plots_height = (area.height.saturating_sub(2) * 9 / 20).max(7);
+        let [summary, plots, lists] = Layout::vertical([
+            Constraint::Length(2),
+            Constraint::Length(plots_height),
+            Constraint::Min(3),
+        ])
+        .areas(area);
+        let mut summary_lines = summary_lines(outcome, app.units, theme);
+        if app.baseline_is_stale() {
+            summary_lines.insert(
+                0,
+                Line::from(Span::styled(
+                    "Out of date: inputs changed since this solve — ^R to solve again.",
+                    theme.warn(),
+                )),
+            );
+        }
+        Paragraph::new(summary_lines)
+            .wrap(Wrap { trim: true })
+            .render(summary, buf);
+        render_plots(
+            &outcome.profile,
+            None,
+            outcome.resolved.core.crush_pressure,
+            app.units,
+            theme,
+            plots,
+            buf,
+        );
+
+        let [causes, remedies] =
+            Layout::horizontal([Constraint::Percentage(50), Constraint::Percentage(50)])
+                .areas(lists);
+        match &outcome.diagnosis {
+            Ok(diagnosis) => {
+                render_causes(state, app, diagnosis, theme, causes, buf);
+                render_remedies(state, diagnosis, theme, remedies, buf);
+            }
+            Err(error) => {
+                Paragraph::new(format!("No diagnosis: {error}"))
+                    .wrap(Wrap { trim: true })
+                    .block(Block::bordered().title(" Ranked causes "))
+                    .render(lists, buf);
+            }
+        }
+    }
+}
+
 /// What to draw when there is nothing to show yet (or the result is out of date).
-pub fn waiting_text(app: &App) -> Option<String> {
+pub fn waiting_text(app: &Session) -> Option<String> {
     if let Some(running) = app.running_baseline {
         return Some(format!(
             "Solving the wound-roll stresses… {:.0}% (the screen stays live; keep working)",
@@ -26,65 +177,10 @@ pub fn waiting_text(app: &App) -> Option<String> {
     }
     match &app.baseline {
         None => Some(match &app.resolved {
-            Err(e) if !e.is_empty() => format!("Inputs are not complete yet: {e}"),
+            Err(e) if !e.to_string().is_empty() => format!("Inputs are not complete yet: {e}"),
             _ => "No results yet: ^R solves the case.".into(),
         }),
         Some(b) => b.result.as_ref().err().map(|e| format!("No results: {e}")),
-    }
-}
-
-pub fn render(app: &App, theme: Theme, area: Rect, buf: &mut Buffer) {
-    let Some(outcome) = app.latest_outcome() else {
-        let text = waiting_text(app).unwrap_or_default();
-        Paragraph::new(text)
-            .wrap(Wrap { trim: true })
-            .block(Block::bordered().title(" Results "))
-            .render(area, buf);
-        return;
-    };
-    let plots_height = (area.height.saturating_sub(2) * 9 / 20).max(7);
-    let [summary, plots, lists] = Layout::vertical([
-        Constraint::Length(2),
-        Constraint::Length(plots_height),
-        Constraint::Min(3),
-    ])
-    .areas(area);
-    let mut summary_lines = summary_lines(outcome, app.units, theme);
-    if app.baseline_is_stale() {
-        summary_lines.insert(
-            0,
-            Line::from(Span::styled(
-                "Out of date: inputs changed since this solve — ^R to solve again.",
-                theme.warn(),
-            )),
-        );
-    }
-    Paragraph::new(summary_lines)
-        .wrap(Wrap { trim: true })
-        .render(summary, buf);
-    render_plots(
-        &outcome.profile,
-        None,
-        outcome.resolved.core.crush_pressure,
-        app.units,
-        theme,
-        plots,
-        buf,
-    );
-
-    let [causes, remedies] =
-        Layout::horizontal([Constraint::Percentage(50), Constraint::Percentage(50)]).areas(lists);
-    match &outcome.diagnosis {
-        Ok(diagnosis) => {
-            render_causes(app, diagnosis, theme, causes, buf);
-            render_remedies(app, diagnosis, theme, remedies, buf);
-        }
-        Err(error) => {
-            Paragraph::new(format!("No diagnosis: {error}"))
-                .wrap(Wrap { trim: true })
-                .block(Block::bordered().title(" Ranked causes "))
-                .render(lists, buf);
-        }
     }
 }
 
@@ -227,8 +323,15 @@ fn belief_bar(belief: f64) -> String {
     format!("{}{}", "■".repeat(filled), "□".repeat(5 - filled))
 }
 
-fn render_causes(app: &App, diagnosis: &Diagnosis, theme: Theme, area: Rect, buf: &mut Buffer) {
-    let focus = app.results.focus == ResultsFocus::Causes;
+fn render_causes(
+    state: &ResultsScreen,
+    app: &Session,
+    diagnosis: &Diagnosis,
+    theme: Theme,
+    area: Rect,
+    buf: &mut Buffer,
+) {
+    let focus = state.focus == ResultsFocus::Causes;
     let mut lines: Vec<Line> = Vec::new();
     let mut target = 0;
     if app.case.symptoms.is_empty() {
@@ -241,11 +344,11 @@ fn render_causes(app: &App, diagnosis: &Diagnosis, theme: Theme, area: Rect, buf
         ));
     }
     for (i, cause) in diagnosis.causes.iter().enumerate() {
-        let selected = i == app.results.cause;
+        let selected = i == state.cause;
         if selected {
             target = lines.len();
         }
-        let open = app.results.expanded.contains(&cause.id);
+        let open = state.expanded.contains(&cause.id);
         let marker = if open { "▾" } else { "▸" };
         let style = if selected && focus {
             theme.selected()
@@ -313,8 +416,14 @@ pub fn group_title(group: &str) -> String {
     }
 }
 
-fn render_remedies(app: &App, diagnosis: &Diagnosis, theme: Theme, area: Rect, buf: &mut Buffer) {
-    let focus = app.results.focus == ResultsFocus::Remedies;
+fn render_remedies(
+    state: &ResultsScreen,
+    diagnosis: &Diagnosis,
+    theme: Theme,
+    area: Rect,
+    buf: &mut Buffer,
+) {
+    let focus = state.focus == ResultsFocus::Remedies;
     let mut lines: Vec<Line> = Vec::new();
     let mut target = 0;
     let mut last_group: Option<&str> = None;
@@ -326,7 +435,7 @@ fn render_remedies(app: &App, diagnosis: &Diagnosis, theme: Theme, area: Rect, b
             )));
             last_group = Some(remedy.group.as_str());
         }
-        let selected = i == app.results.remedy;
+        let selected = i == state.remedy;
         if selected {
             target = lines.len();
         }

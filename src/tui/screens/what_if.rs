@@ -8,8 +8,15 @@ use ratatui::widgets::{Block, Paragraph, Widget, Wrap};
 
 use super::results::render_plots;
 use super::{compact_stress, sig3};
-use crate::tui::app::{App, Setting};
-use crate::tui::job::SolveOutcome;
+use crate::case::{QuantityText, TaperInput};
+use crate::diagnose::what_if::{
+    Setting, SettingStep, apply_changes, describe_change, keep_changes, trial_case,
+};
+use crate::taper_design::{TaperDesign, TaperShape};
+use crate::tui::component::{ANY, Binding, Component, Handled};
+use crate::tui::event::Key;
+use crate::tui::job::{Purpose, SolveOutcome, Task};
+use crate::tui::session::Session;
 use crate::tui::theme::Theme;
 use crate::units::UnitSystem;
 
@@ -121,7 +128,8 @@ pub fn design_rows(
 ) -> Vec<[String; 4]> {
     use crate::taper_design::Limit;
     let show = |limit: Limit, v: f64| match limit {
-        Limit::CorePressure | Limit::OuterPressure => compact_stress(v, units),
+        Limit::CorePressure => compact_stress(v, units),
+        Limit::Telescoping => format!("{v:.2}"),
         Limit::Starring => format!("{:.1}%", v * 100.0),
         Limit::WoundInTension => {
             crate::units::format_quantity(v, crate::units::QuantityKind::ForcePerWidth, units)
@@ -130,7 +138,7 @@ pub fn design_rows(
     let mut rows = Vec::new();
     for after in &design.after.checks {
         let before = design.before.check(after.limit).map(|c| c.value);
-        let bound = if after.limit == Limit::OuterPressure {
+        let bound = if after.limit == Limit::Telescoping {
             "≥"
         } else {
             "≤"
@@ -157,35 +165,302 @@ pub fn design_rows(
     rows
 }
 
-pub fn render(app: &App, theme: Theme, area: Rect, buf: &mut Buffer) {
-    let top_height = (area.height / 2).max(8).min(area.height);
-    let [top, plots] =
-        Layout::vertical([Constraint::Length(top_height), Constraint::Min(0)]).areas(area);
-    let left_width = if area.width >= 110 { 40 } else { 30 };
-    let [choices, compare] =
-        Layout::horizontal([Constraint::Length(left_width), Constraint::Min(10)]).areas(top);
+/// The what-if screen's keys.
+#[rustfmt::skip]
+pub const KEYS: &[Binding] = &[
+    Binding::both(ANY, "↑↓", "pick", "↑ ↓", "pick a setting or a remedy"),
+    Binding::both(ANY, "←→", "change", "← →", "change the setting one step down / up"),
+    Binding::help("Enter", "try the highlighted remedy"),
+    Binding::both(ANY, "d", "taper", "d", "design a taper that keeps the roll inside every limit"),
+    Binding::both(ANY, "a", "keep", "a / r", "keep the change (or the designed taper) in the case / reset"),
+];
 
-    // Settings, then remedies that are one setting change.
+#[derive(Debug, Clone, PartialEq, Default)]
+pub struct WhatIfScreen {
+    /// 0..5 = settings, 5.. = remedies that change a setting.
+    pub row: usize,
+    pub change: Option<SettingStep>,
+    /// A remedy being tried instead (its changes come from the rule base).
+    pub remedy: Option<String>,
+    /// Plain words for the change ("Web tension 525 N/m → 578 N/m").
+    pub description: Option<String>,
+    pub outcome: Option<(u64, Box<SolveOutcome>)>,
+    /// A designed taper schedule (what-if `d`), with the generation it was made for.
+    pub design: Option<(u64, Box<TaperDesign>)>,
+    pub error: Option<String>,
+}
+
+/// Why a what-if cannot start: the inputs do not resolve.
+fn fix_inputs_first(ctx: &Session) -> Option<String> {
+    ctx.resolved
+        .as_ref()
+        .err()
+        .map(|e| format!("fix the inputs first: {e}"))
+}
+
+impl WhatIfScreen {
+    /// The case was edited: the trial of the old case no longer applies.
+    pub fn on_case_edited(&mut self) {
+        self.outcome = None;
+        self.change = None;
+        self.description = None;
+    }
+
+    /// A finished what-if solve.
+    pub fn on_solved(&mut self, generation: u64, result: Result<Box<SolveOutcome>, String>) {
+        match result {
+            Ok(outcome) => {
+                self.outcome = Some((generation, outcome));
+                self.error = None;
+            }
+            Err(error) => {
+                self.outcome = None;
+                self.error = Some(error);
+            }
+        }
+    }
+
+    /// A finished taper design.
+    pub fn on_designed(
+        &mut self,
+        generation: u64,
+        result: Result<Box<TaperDesign>, String>,
+        ctx: &Session,
+    ) {
+        match result {
+            Ok(design) => {
+                self.description = Some(design_summary(&design, ctx.units));
+                self.design = Some((generation, design));
+                self.error = None;
+            }
+            Err(error) => self.error = Some(error),
+        }
+    }
+
+    /// Ask for a taper schedule that keeps the roll inside every limit (`taper_design`).
+    pub fn design_taper(&mut self, ctx: &mut Session) {
+        let resolved = match &ctx.resolved {
+            Ok(resolved) => resolved.clone(),
+            Err(error) => {
+                self.error = Some(format!("fix the inputs first: {error}"));
+                return;
+            }
+        };
+        self.clear(ctx);
+        self.description = Some("Designing a taper schedule (many solves)…".into());
+        let case = ctx.case.clone();
+        ctx.queue(Purpose::WhatIf, case, Some(resolved), Task::DesignTaper);
+    }
+
+    fn clear(&mut self, ctx: &mut Session) {
+        *self = WhatIfScreen {
+            row: self.row,
+            ..WhatIfScreen::default()
+        };
+        ctx.running_what_if = None;
+    }
+
+    /// Apply `change` to a copy of the case and queue its solve.
+    pub fn set_change(&mut self, change: SettingStep, ctx: &mut Session) {
+        self.change = Some(change);
+        self.remedy = None;
+        if let Some(row) = Setting::ALL.iter().position(|s| *s == change.setting)
+            && self.row < Setting::ALL.len()
+        {
+            self.row = row;
+        }
+        self.run(ctx);
+    }
+
+    /// Try a remedy's own setting changes (from the rule base) on the case.
+    pub fn try_remedy(&mut self, remedy: &str, ctx: &mut Session) {
+        self.change = None;
+        self.remedy = Some(remedy.to_string());
+        self.run(ctx);
+    }
+
+    /// Queue the solve of the change being tried (again, after ^R).
+    pub fn run(&mut self, ctx: &mut Session) {
+        let trial = match (&self.remedy, self.change, &ctx.resolved) {
+            (_, _, Err(_)) if self.remedy.is_some() || self.change.is_some() => {
+                Err(fix_inputs_first(ctx).unwrap_or_default())
+            }
+            (Some(remedy), _, Ok(resolved)) => {
+                let changes = ctx.remedy_changes.get(remedy).cloned().unwrap_or_default();
+                let words: Vec<String> = changes.iter().map(describe_change).collect();
+                Ok((
+                    ctx.case.clone(),
+                    Some(apply_changes(resolved, &changes)),
+                    format!("{remedy}: {}", words.join(", ")),
+                ))
+            }
+            (None, Some(change), Ok(resolved)) => {
+                trial_case(&ctx.case, resolved, change, ctx.units)
+                    .map(|(case, description)| (case, None, description))
+                    .map_err(|e| e.to_string())
+            }
+            _ => return,
+        };
+        match trial {
+            Ok((case, resolved, description)) => {
+                self.description = Some(description);
+                self.error = None;
+                ctx.ensure_baseline();
+                ctx.queue(Purpose::WhatIf, case, resolved, Task::Solve);
+            }
+            Err(error) => {
+                self.description = None;
+                self.error = Some(error);
+                self.outcome = None;
+            }
+        }
+    }
+
+    /// Keep the what-if change: it becomes part of the case.
+    fn adopt(&mut self, ctx: &mut Session) {
+        if let Some((_, design)) = self.design.clone() {
+            if design.steps.is_some() {
+                ctx.set_status("A stepped schedule: enter its steps in the case file");
+                return;
+            }
+            let kind = match design.shape {
+                TaperShape::Linear => "linear",
+                TaperShape::Hyperbolic => "hyperbolic",
+            };
+            ctx.case.winding.tension = Some(QuantityText::Number(design.start_tension));
+            ctx.case.winding.taper = Some(TaperInput {
+                kind: kind.into(),
+                amount: Some(QuantityText::Text(format!(
+                    "{} %",
+                    sig3(design.taper_fraction * 100.0)
+                ))),
+                steps: Vec::new(),
+            });
+            ctx.edited();
+            ctx.set_status("Kept the designed taper schedule");
+            return;
+        }
+        let kept = match (&self.remedy, self.change, &ctx.resolved) {
+            (None, None, _) => {
+                ctx.set_status("No change to keep; use ←/→ on a setting first");
+                return;
+            }
+            (_, _, Err(_)) => Err(fix_inputs_first(ctx).unwrap_or_default()),
+            (Some(remedy), _, Ok(resolved)) => {
+                let changes = ctx.remedy_changes.get(remedy).cloned().unwrap_or_default();
+                keep_changes(&ctx.case, resolved, &changes)
+                    .map(|case| (case, remedy.clone()))
+                    .map_err(|e| e.to_string())
+            }
+            (None, Some(change), Ok(resolved)) => {
+                trial_case(&ctx.case, resolved, change, ctx.units).map_err(|e| e.to_string())
+            }
+        };
+        match kept {
+            Ok((case, description)) => {
+                ctx.case = case;
+                ctx.edited();
+                ctx.set_status(format!("Kept: {description}"));
+            }
+            Err(error) => ctx.set_status(error),
+        }
+    }
+}
+
+impl Component for WhatIfScreen {
+    fn key_map(&self) -> &'static [Binding] {
+        KEYS
+    }
+
+    fn on_key(&mut self, key: Key, ctx: &mut Session) -> Handled {
+        let rows = Setting::ALL.len() + ctx.what_if_remedies().len();
+        match key {
+            Key::Up => self.row = self.row.saturating_sub(1),
+            Key::Down => self.row = (self.row + 1).min(rows - 1),
+            Key::Left | Key::Right => {
+                if let Some(setting) = Setting::ALL.get(self.row).copied() {
+                    let delta = if key == Key::Right { 1 } else { -1 };
+                    let steps = match self.change {
+                        Some(c) if c.setting == setting => c.steps + delta,
+                        _ => delta,
+                    };
+                    if steps == 0 {
+                        self.clear(ctx);
+                    } else {
+                        self.set_change(SettingStep { setting, steps }, ctx);
+                    }
+                }
+            }
+            Key::Enter if self.row >= Setting::ALL.len() => {
+                let remedies = ctx.what_if_remedies();
+                if let Some((id, _)) = remedies.get(self.row - Setting::ALL.len()) {
+                    self.try_remedy(id, ctx);
+                }
+            }
+            Key::Char('r') | Key::Esc => self.clear(ctx),
+            Key::Char('d') => self.design_taper(ctx),
+            Key::Char('a') => self.adopt(ctx),
+            _ => return Handled::No,
+        }
+        Handled::Yes
+    }
+
+    fn render(&self, ctx: &Session, theme: Theme, area: Rect, buf: &mut Buffer) {
+        let (state, app) = (self, ctx);
+        let top_height = (area.height / 2).max(8).min(area.height);
+        let [top, plots] =
+            Layout::vertical([Constraint::Length(top_height), Constraint::Min(0)]).areas(area);
+        let left_width = if area.width >= 110 { 40 } else { 30 };
+        let [choices, compare] =
+            Layout::horizontal([Constraint::Length(left_width), Constraint::Min(10)]).areas(top);
+        render_choices(state, app, theme, choices, buf);
+        render_comparison(state, app, theme, compare, plots, buf);
+    }
+}
+
+/// One line about a taper design: the schedule, and whether it meets every limit.
+pub fn design_summary(design: &TaperDesign, units: UnitSystem) -> String {
+    let shape = match design.shape {
+        TaperShape::Linear => "linear",
+        TaperShape::Hyperbolic => "hyperbolic",
+    };
+    let verdict = if design.feasible {
+        "meets every limit"
+    } else {
+        "no schedule meets every limit (closest shown)"
+    };
+    format!(
+        "Designed taper: start {}, {shape} {} % — {verdict}",
+        crate::units::format_quantity(
+            design.start_tension,
+            crate::units::QuantityKind::ForcePerWidth,
+            units
+        ),
+        sig3(design.taper_fraction * 100.0)
+    )
+}
+
+/// Settings, then remedies that are one setting change.
+fn render_choices(state: &WhatIfScreen, app: &Session, theme: Theme, area: Rect, buf: &mut Buffer) {
     let mut lines = Vec::new();
     for (row, setting) in Setting::ALL.iter().enumerate() {
-        let steps = app
-            .what_if
+        let steps = state
             .change
             .filter(|c| c.setting == *setting)
             .map_or(0, |c| c.steps);
-        let style = if row == app.what_if.row {
+        let style = if row == state.row {
             theme.selected()
         } else {
             theme.plain()
         };
-        let state = if steps == 0 {
+        let shown = if steps == 0 {
             "as is".to_string()
         } else {
             format!("{steps:+} step")
         };
         lines.push(Line::from(vec![
             Span::styled(format!("‹ {:<12} › ", setting.label()), style),
-            Span::styled(state, if steps == 0 { theme.dim() } else { theme.key() }),
+            Span::styled(shown, if steps == 0 { theme.dim() } else { theme.key() }),
         ]));
     }
     let remedies = app.what_if_remedies();
@@ -197,12 +472,12 @@ pub fn render(app: &App, theme: Theme, area: Rect, buf: &mut Buffer) {
     }
     for (i, (id, text)) in remedies.iter().enumerate() {
         let row = Setting::ALL.len() + i;
-        let style = if row == app.what_if.row {
+        let style = if row == state.row {
             theme.selected()
         } else {
             theme.plain()
         };
-        let mark = if app.what_if.remedy.as_deref() == Some(id) {
+        let mark = if state.remedy.as_deref() == Some(id) {
             "▶"
         } else {
             "•"
@@ -210,25 +485,35 @@ pub fn render(app: &App, theme: Theme, area: Rect, buf: &mut Buffer) {
         lines.push(Line::from(Span::styled(format!("{mark} {text}"), style)));
     }
     let step_help = Setting::ALL
-        .get(app.what_if.row)
+        .get(state.row)
         .map(|s| s.step_text())
         .unwrap_or("Enter applies the remedy's setting change");
     lines.push(Line::from(Span::styled(step_help, theme.dim())));
     Paragraph::new(lines)
         .wrap(Wrap { trim: true })
         .block(Block::bordered().title(" Change one setting "))
-        .render(choices, buf);
+        .render(area, buf);
+}
 
+/// The before/after table and the plots (after over before).
+fn render_comparison(
+    state: &WhatIfScreen,
+    app: &Session,
+    theme: Theme,
+    compare: Rect,
+    plots: Rect,
+    buf: &mut Buffer,
+) {
     let before = app.current_outcome();
-    let after = app.what_if.outcome.as_ref().map(|(_, o)| o.as_ref());
+    let after = state.outcome.as_ref().map(|(_, o)| o.as_ref());
     let mut text: Vec<Line> = Vec::new();
-    match &app.what_if.description {
+    match &state.description {
         Some(description) => {
             text.push(Line::from(Span::styled(description.clone(), theme.title())))
         }
         None => text.push(Line::from("Pick a setting with ↑↓ and change it with ←→.")),
     }
-    if let Some(error) = &app.what_if.error {
+    if let Some(error) = &state.error {
         text.push(Line::from(Span::styled(error.clone(), theme.error())));
     }
     if let Some(running) = app.running_what_if {
@@ -236,10 +521,10 @@ pub fn render(app: &App, theme: Theme, area: Rect, buf: &mut Buffer) {
             "re-solving… {:.0}%",
             running.fraction * 100.0
         )));
-    } else if before.is_none() && app.what_if.change.is_some() {
+    } else if before.is_none() && state.change.is_some() {
         text.push(Line::from("waiting for the case's own solve…"));
     }
-    let design = app.what_if.design.as_ref().map(|(_, d)| d.as_ref());
+    let design = state.design.as_ref().map(|(_, d)| d.as_ref());
     let rows = match (before, after, design) {
         (Some(before), Some(after), _) => Some(comparison(before, after, app.units)),
         (_, None, Some(design)) => Some(design_rows(design, app.units)),

@@ -1,0 +1,296 @@
+//! The what-if check: re-solve the roll with a remedy's setting changes and compare the
+//! driving indicator before and after. The change appliers (to a resolved case, and written
+//! back into a case file) live in [`apply`].
+
+pub mod apply;
+
+pub use apply::{
+    Setting, SettingStep, WhatIfError, apply_changes, apply_step, changes_setting, describe_change,
+    keep_changes, trial_case, write_into_case,
+};
+
+use super::indicators::{Indicators, format_value, indicator_spec};
+use super::rank::{evaluate, rank};
+use super::rules::{Comparison, RuleBase, SettingChange, Test};
+use super::{MergedRemedy, RankedCause, WhatIf};
+use crate::case::ResolvedCase;
+use crate::model::SolverOptions;
+
+/// The indicator tests that raise belief in `cause` under the observed symptoms, each with
+/// whether it holds now and its weight.
+fn driving_tests<'a>(
+    rules: &'a RuleBase,
+    symptoms: &[String],
+    cause: &str,
+    case: &ResolvedCase,
+    indicators: &Indicators,
+) -> Vec<(&'a Test, bool, f64)> {
+    let mut out = Vec::new();
+    for symptom in symptoms.iter().filter_map(|s| rules.symptom(s)) {
+        for rule in symptom.rules.iter().filter(|r| r.cause == cause) {
+            for ev in &rule.evidence {
+                if ev.weight <= 0.0 || !matches!(ev.test, Test::Indicator { .. }) {
+                    continue;
+                }
+                let holds =
+                    evaluate(&ev.test, &symptom.id, case, indicators).is_some_and(|(h, _, _)| h);
+                out.push((&ev.test, holds, ev.weight));
+            }
+        }
+    }
+    out
+}
+
+/// Pick the indicator to show before/after: among the tests that drive the cause, the one the
+/// change moves most (relative), preferring tests that hold now; ties go to the larger weight.
+fn pick_driver<'a>(
+    candidates: &[(&'a Test, bool, f64)],
+    before: &Indicators,
+    after: &Indicators,
+) -> Option<&'a Test> {
+    let change = |t: &Test| -> f64 {
+        let Test::Indicator { id, zone, .. } = t else {
+            return 0.0;
+        };
+        match (before.get(id, *zone), after.get(id, *zone)) {
+            (Some(b), Some(a)) => (a - b).abs() / b.abs().max(a.abs()).max(1e-30),
+            _ => 0.0,
+        }
+    };
+    let best = |only_holding: bool| {
+        candidates
+            .iter()
+            .filter(|(_, holds, _)| !only_holding || *holds)
+            .filter(|(t, _, _)| change(t) > 1e-3)
+            .max_by(|a, b| {
+                change(a.0)
+                    .total_cmp(&change(b.0))
+                    .then(a.2.total_cmp(&b.2))
+            })
+            .map(|(t, _, _)| *t)
+    };
+    best(true).or_else(|| best(false)).or_else(|| {
+        // Nothing moves: show the strongest holding test (or the strongest at all).
+        candidates
+            .iter()
+            .max_by(|a, b| a.1.cmp(&b.1).then(a.2.total_cmp(&b.2)))
+            .map(|(t, _, _)| *t)
+    })
+}
+
+/// The case as it stands, which every what-if compares against.
+#[derive(Debug, Clone, Copy)]
+pub struct Before<'a> {
+    pub rules: &'a RuleBase,
+    /// The observed symptom IDs.
+    pub symptoms: &'a [String],
+    pub case: &'a ResolvedCase,
+    pub indicators: &'a Indicators,
+    pub causes: &'a [RankedCause],
+}
+
+/// Re-solve the case with the remedy's setting changes and report the driving indicator
+/// before and after. `None` for remedies that change no setting.
+pub fn what_if(before: &Before, remedy: &MergedRemedy, solver: SolverOptions) -> Option<WhatIf> {
+    let changes = &before.rules.remedies.get(&remedy.id)?.changes;
+    if changes.is_empty() {
+        return None;
+    }
+    let changed = apply_changes(before.case, changes);
+    if !needs_solve(changes) {
+        // Only the rating changes: the stress state is the same, no re-solve needed.
+        return Some(rating_only(before, &changed, remedy));
+    }
+    let solved = crate::model::solve(&changed.problem(solver));
+    what_if_solved(before, remedy, &changed, solved.as_ref())
+}
+
+/// True when the changes alter the stress state (anything but the crush rating).
+pub fn needs_solve(changes: &[SettingChange]) -> bool {
+    changes
+        .iter()
+        .any(|c| !matches!(c, SettingChange::CoreCrushScale(_)))
+}
+
+/// The what-if of a remedy whose changed case `changed` is already solved.
+pub fn what_if_solved(
+    before: &Before,
+    remedy: &MergedRemedy,
+    changed: &ResolvedCase,
+    solved: Result<&crate::model::Profile, &crate::model::ModelError>,
+) -> Option<WhatIf> {
+    let Before {
+        rules,
+        symptoms,
+        case,
+        indicators,
+        causes,
+    } = *before;
+    // A what-if with no indicator to compare, only a note why.
+    let note_only = |note: String| WhatIf {
+        indicator: String::new(),
+        before: String::new(),
+        after: String::new(),
+        worse: false,
+        note,
+    };
+    if changed == case {
+        return Some(note_only(
+            "the setting change does not apply to this case (nothing to change)".into(),
+        ));
+    }
+    let profile = match solved {
+        Ok(p) => p,
+        Err(e) => {
+            return Some(note_only(format!(
+                "could not re-solve with the change: {e}"
+            )));
+        }
+    };
+    let after_indicators = Indicators::compute(changed, profile);
+    let after_causes = rank(rules, symptoms, changed, &after_indicators);
+    let belief = |list: &[RankedCause], id: &str| {
+        list.iter()
+            .find(|c| c.id == id)
+            .map(|c| c.belief)
+            .unwrap_or(0.0)
+    };
+    let primary = remedy.answers.first()?;
+    let before_belief = causes
+        .iter()
+        .find(|c| c.id == *primary)
+        .map(|c| c.belief)
+        .unwrap_or(0.0);
+    let after_belief = belief(&after_causes, primary);
+    let mut notes = vec![format!(
+        "belief in {primary} {before_belief:.2} → {after_belief:.2}"
+    )];
+    let mut worse = after_belief > before_belief + 0.02;
+    // Side effects: other listed causes that the change makes more likely.
+    for other in causes.iter().filter(|c| c.id != *primary) {
+        let after = belief(&after_causes, &other.id);
+        if after > other.belief + 0.05 {
+            notes.push(format!(
+                "raises {} {:.2} → {after:.2}",
+                other.id, other.belief
+            ));
+        }
+    }
+    let candidates = driving_tests(rules, symptoms, primary, case, indicators);
+    let driver = pick_driver(&candidates, indicators, &after_indicators).and_then(|test| {
+        compare_driver(test, indicators, &after_indicators, &mut notes, &mut worse)
+    });
+    let (indicator, before_text, after_text) = driver.unwrap_or_else(|| {
+        (
+            format!("belief in {primary}"),
+            format!("{before_belief:.2}"),
+            format!("{after_belief:.2}"),
+        )
+    });
+    Some(WhatIf {
+        indicator,
+        before: before_text,
+        after: after_text,
+        worse,
+        note: notes.join("; "),
+    })
+}
+
+/// The before/after texts of the driving indicator `test`; adds notes on its direction and
+/// threshold, and sets `worse` when the change moves it the wrong way.
+fn compare_driver(
+    test: &Test,
+    indicators: &Indicators,
+    after_indicators: &Indicators,
+    notes: &mut Vec<String>,
+    worse: &mut bool,
+) -> Option<(String, String, String)> {
+    let Test::Indicator {
+        id,
+        zone,
+        comparison,
+        threshold,
+        dimension,
+    } = test
+    else {
+        return None;
+    };
+    let before = indicators.get(id, *zone);
+    let after = after_indicators.get(id, *zone);
+    if let (Some(b), Some(a)) = (before, after) {
+        let tolerance = 1e-3 * b.abs().max(a.abs()).max(1e-12);
+        let moved_wrong = match comparison {
+            Comparison::Above => a > b + tolerance,
+            Comparison::Below => a < b - tolerance,
+        };
+        if moved_wrong {
+            *worse = true;
+            notes.push(format!("{id} moves the wrong way"));
+        }
+        let still = match comparison {
+            Comparison::Above => a > *threshold,
+            Comparison::Below => a < *threshold,
+        };
+        if still && !moved_wrong {
+            notes.push("a first step: still past the rule threshold".into());
+        }
+        let sign = match comparison {
+            Comparison::Above => "above",
+            Comparison::Below => "below",
+        };
+        notes.push(format!(
+            "rule threshold: {sign} {}",
+            format_value(*threshold, *dimension)
+        ));
+    }
+    let name = match zone {
+        Some(z) => format!("{id} ({})", z.as_str()),
+        None => id.clone(),
+    };
+    Some((
+        name,
+        before
+            .map(|v| format_value(v, *dimension))
+            .unwrap_or_default(),
+        after
+            .map(|v| format_value(v, *dimension))
+            .unwrap_or_default(),
+    ))
+}
+
+/// What-if for a change of the core's rating alone: the core pressure ratio moves, the stress
+/// state does not.
+fn rating_only(before: &Before, changed: &ResolvedCase, remedy: &MergedRemedy) -> WhatIf {
+    let (case, indicators) = (before.case, before.indicators);
+    let dimension = indicator_spec("core_pressure_ratio")
+        .map(|s| s.dimension)
+        .unwrap_or(super::indicators::Dimension::Ratio);
+    let before = indicators.get("core_pressure_ratio", None);
+    let pressure = indicators.get("core_pressure", None);
+    let after = match (pressure, changed.core.crush_pressure > 0.0) {
+        (Some(p), true) => Some(p / changed.core.crush_pressure),
+        _ => None,
+    };
+    WhatIf {
+        indicator: "core_pressure_ratio".into(),
+        before: before
+            .map(|v| format_value(v, dimension))
+            .unwrap_or_default(),
+        after: after
+            .map(|v| format_value(v, dimension))
+            .unwrap_or_default(),
+        worse: false,
+        note: format!(
+            "rated crush pressure {} → {} for remedy {}",
+            format_value(
+                case.core.crush_pressure,
+                super::indicators::Dimension::Pressure
+            ),
+            format_value(
+                changed.core.crush_pressure,
+                super::indicators::Dimension::Pressure
+            ),
+            remedy.id
+        ),
+    }
+}

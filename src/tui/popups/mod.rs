@@ -1,0 +1,89 @@
+//! Popups drawn over the screens, one module each with its state, keys, hints and drawing. The
+//! app keeps them on a stack; the top one gets every key.
+
+pub mod calibrate;
+pub mod confirm;
+pub mod help;
+pub mod open;
+pub mod prompt;
+pub mod training;
+pub mod walkthrough;
+
+use ratatui::buffer::Buffer;
+use ratatui::layout::Rect;
+
+pub use calibrate::{CalibratePopup, StackFit};
+pub use confirm::ConfirmPopup;
+pub use help::HelpPopup;
+pub use open::OpenPopup;
+pub use prompt::{FilePopup, FilePurpose, PathPrompt};
+pub use training::TrainingPopup;
+pub use walkthrough::{WalkStage, WalkthroughRun};
+
+use super::component::{Binding, Component, Handled, Hint};
+use super::event::Key;
+use super::session::Session;
+use super::theme::Theme;
+
+#[derive(Debug, Clone, PartialEq)]
+pub enum Popup {
+    Help(HelpPopup),
+    Confirm(ConfirmPopup),
+    Open(OpenPopup),
+    /// Save the case as, or export a report (the format follows the file's extension).
+    File(FilePopup),
+    /// Pick a training walk-through.
+    Training(TrainingPopup),
+    /// A training walk-through being answered inside the UI.
+    Walkthrough(Box<WalkthroughRun>),
+    /// Fit the web's radial stiffness (Pfeiffer K1, K2) to a stack-compression test CSV.
+    Calibrate(Box<CalibratePopup>),
+}
+
+/// Run `$body` with `$p` bound to the popup's own component.
+macro_rules! each_popup {
+    ($popup:expr, $p:ident => $body:expr) => {
+        match $popup {
+            Popup::Help($p) => $body,
+            Popup::Confirm($p) => $body,
+            Popup::Open($p) => $body,
+            Popup::File($p) => $body,
+            Popup::Training($p) => $body,
+            Popup::Walkthrough($p) => $body,
+            Popup::Calibrate($p) => $body,
+        }
+    };
+}
+
+impl Popup {
+    /// Show why the popup's request failed (file prompts).
+    pub fn show_error(&mut self, error: String) {
+        match self {
+            Popup::Open(p) => p.prompt.error = Some(error),
+            Popup::File(p) => p.prompt.error = Some(error),
+            _ => {}
+        }
+    }
+}
+
+impl Component for Popup {
+    fn on_key(&mut self, key: Key, ctx: &mut Session) -> Handled {
+        each_popup!(self, p => p.on_key(key, ctx))
+    }
+
+    fn key_map(&self) -> &'static [Binding] {
+        each_popup!(self, p => p.key_map())
+    }
+
+    fn mode(&self, ctx: &Session) -> u8 {
+        each_popup!(self, p => p.mode(ctx))
+    }
+
+    fn hints(&self, ctx: &Session) -> Vec<Hint> {
+        each_popup!(self, p => p.hints(ctx))
+    }
+
+    fn render(&self, ctx: &Session, theme: Theme, area: Rect, buf: &mut Buffer) {
+        each_popup!(self, p => p.render(ctx, theme, area, buf))
+    }
+}
