@@ -15,6 +15,7 @@ Examples:
   rolltriage case check cases/harbour_*.yaml
   rolltriage case presets --units us
   rolltriage rules check rules/
+  rolltriage history add cases/harbour_newsprint_telescoping.yaml
 
 Exit codes: 0 ok, 1 bad input or failed work, 2 usage error.";
 
@@ -43,6 +44,8 @@ pub enum Command {
     Rules(commands::rules::RulesArgs),
     /// Create and check case files.
     Case(commands::case::CaseArgs),
+    /// The plant's complaint history: record, list, confirm, find similar, export, import.
+    History(commands::history::HistoryArgs),
     /// Open the terminal UI, optionally on a case file.
     Tui(commands::tui::TuiArgs),
     /// Print shell completions.

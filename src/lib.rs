@@ -8,9 +8,11 @@
 
 pub mod calibrate;
 pub mod case;
+pub mod complaint;
 pub mod diagnose;
 pub mod finite;
 pub mod fsutil;
+pub mod history;
 pub mod mechanics;
 pub mod model;
 pub mod presets;

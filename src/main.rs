@@ -20,6 +20,7 @@ fn main() -> ExitCode {
         Some(cli::Command::Taper(a)) => commands::taper::run(a),
         Some(cli::Command::Rules(a)) => commands::rules::run(a),
         Some(cli::Command::Case(a)) => commands::case::run(a),
+        Some(cli::Command::History(a)) => commands::history::run(a),
         Some(cli::Command::Tui(a)) => commands::tui::run(a),
         Some(cli::Command::Completions { shell }) => {
             // Generated into memory: clap_complete panics when its writer fails.

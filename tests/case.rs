@@ -617,6 +617,52 @@ fn docs_field_tables_match_the_registry() {
     );
 }
 
+/// The slip-check event inputs (docs/theory.md §5): read, range-checked, and used by the
+/// mechanics layer; a case without them takes the stated defaults.
+#[test]
+fn event_inputs_reach_the_mechanics() {
+    use rolltriage::mechanics::{DEFAULT_EMERGENCY_STOP_TIME, MechanicsInputs};
+    let text = std::fs::read_to_string(concat!(
+        env!("CARGO_MANIFEST_DIR"),
+        "/tests/fixtures/complete_newsprint.yaml"
+    ))
+    .unwrap();
+    let plain = Case::from_yaml_str(&text, "plain.yaml")
+        .unwrap()
+        .resolve()
+        .unwrap();
+    let events = MechanicsInputs::from_case(&plain).events;
+    assert_eq!(events.normal_stop_time, 20.0);
+    assert_eq!(events.emergency_stop_time, DEFAULT_EMERGENCY_STOP_TIME);
+    assert_eq!(events.unwind_tension, None);
+
+    let with = text.replace(
+        "acceleration_time: 20",
+        "acceleration_time: 20\n  stop_time: 30\n  emergency_stop_time: 2.5\n  unwind_tension: 1 pli",
+    );
+    let resolved = Case::from_yaml_str(&with, "events.yaml")
+        .unwrap()
+        .resolve()
+        .unwrap();
+    let events = MechanicsInputs::from_case(&resolved).events;
+    assert_eq!(events.start_ramp_time, 20.0);
+    assert_eq!(events.normal_stop_time, 30.0);
+    assert_eq!(events.emergency_stop_time, 2.5);
+    // 1 pli = 175.126835 N/m (NIST SP 811: 1 lbf = 4.448222 N, 1 in = 0.0254 m).
+    assert!((events.unwind_tension.unwrap() - 175.126835).abs() < 1e-3);
+
+    let bad = text.replace(
+        "acceleration_time: 20",
+        "acceleration_time: 20\n  emergency_stop_time: 0",
+    );
+    let error = Case::from_yaml_str(&bad, "bad.yaml")
+        .unwrap()
+        .resolve()
+        .unwrap_err()
+        .to_string();
+    assert!(error.contains("winding.emergency_stop_time"), "{error}");
+}
+
 // ---- Hostile or careless input (issue 14) ------------------------------------------------
 
 /// An alias chain: `levels` levels of `fan` references each (10⁸ nodes for 8 × 10).

@@ -73,6 +73,7 @@ fn every_command_in_the_usage_table_exists() {
         "taper",
         "rules",
         "case",
+        "history",
         "tui",
         "completions",
     ] {

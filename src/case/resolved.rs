@@ -93,6 +93,15 @@ pub struct ResolvedWinding {
     pub temperature: Option<f64>,
     /// s
     pub acceleration_time: Option<f64>,
+    /// Normal stop time, s (`None`: the acceleration time, else the mechanics default).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub stop_time: Option<f64>,
+    /// Emergency stop time, s (`None`: the mechanics default).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub emergency_stop_time: Option<f64>,
+    /// Unwind tension at the customer, N/m (`None`: the tension the outside was wound at).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub unwind_tension: Option<f64>,
 }
 
 /// One value that was not in the case file.

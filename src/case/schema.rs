@@ -81,6 +81,9 @@ pub struct Case {
     pub answers: BTreeMap<String, String>,
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub notes: Option<String>,
+    /// The complaint record (docs/history.md); every field optional.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub complaint: Option<crate::complaint::Complaint>,
 }
 
 #[derive(Debug, Clone, PartialEq, Default, Serialize, Deserialize)]
@@ -217,6 +220,15 @@ pub struct WindingInput {
     /// Time to reach line speed (acceleration torque check), e.g. "20 s" as a plain number of seconds.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub acceleration_time: Option<f64>,
+    /// Time of a normal stop from line speed, seconds (slip check).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub stop_time: Option<f64>,
+    /// Time of an emergency stop from line speed, seconds (slip check).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub emergency_stop_time: Option<f64>,
+    /// Unwind tension at the customer (slip check when a full roll is braked).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub unwind_tension: Option<QuantityText>,
 }
 
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]

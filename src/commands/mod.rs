@@ -5,6 +5,7 @@ pub mod arg_check;
 pub mod calibrate;
 pub mod case;
 pub mod diagnose;
+pub mod history;
 pub mod output;
 pub mod progress;
 pub mod report;

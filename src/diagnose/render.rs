@@ -33,7 +33,8 @@ fn groups_in_order(diagnosis: &Diagnosis) -> Vec<&str> {
 }
 
 fn reason_line(r: &super::Reason) -> String {
-    if r.test == "prior" {
+    // The prior and site history are reasons without an indicator test: their text says it all.
+    if r.test == "prior" || r.test == "site_history" {
         return format!("{:+.2}  [{}] {}", r.weight, r.symptom, r.text);
     }
     let zone = r

@@ -201,6 +201,9 @@ pub struct ReportDocument {
     pub cautions: Vec<Caution>,
     pub indicators: Vec<IndicatorEntry>,
     pub remedy_comparison: Option<RemedyComparisonSummary>,
+    /// The case's complaint record as (label, value) lines; empty when the case has none.
+    #[serde(default, skip_serializing_if = "Vec::is_empty")]
+    pub complaint: Vec<(String, String)>,
     pub model_limits: Vec<String>,
     /// The profile thinned to at most [`PROFILE_POINTS`] points, core first.
     pub profile: Vec<ProfilePoint>,
@@ -301,6 +304,17 @@ pub fn build_document(input: &ReportInput) -> Result<ReportDocument, ReportError
         cautions: input.diagnosis.cautions.clone(),
         indicators,
         remedy_comparison,
+        complaint: input
+            .case
+            .complaint
+            .as_ref()
+            .map(|c| {
+                c.lines()
+                    .into_iter()
+                    .map(|(label, value)| (label.to_string(), value))
+                    .collect()
+            })
+            .unwrap_or_default(),
         model_limits: MODEL_LIMITS.iter().map(|s| s.to_string()).collect(),
         profile: thin_profile(&input.profile, PROFILE_POINTS),
     })

@@ -120,6 +120,20 @@ fn write_report(
     }
     writeln!(out, "</table>")?;
 
+    if !doc.complaint.is_empty() {
+        writeln!(out, "<h2 id=\"complaint\">Complaint record</h2>")?;
+        writeln!(out, "<table id=\"complaint-record\">")?;
+        for (label, value) in &doc.complaint {
+            writeln!(
+                out,
+                "<tr><th>{}</th><td>{}</td></tr>",
+                escape(label),
+                escape(value)
+            )?;
+        }
+        writeln!(out, "</table>")?;
+    }
+
     let stress = &doc.stress;
     writeln!(out, "<h2 id=\"stress\">Stress inside the roll</h2>")?;
     writeln!(out, "<table id=\"stress-summary\">")?;

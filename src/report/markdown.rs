@@ -64,6 +64,14 @@ fn write_report(out: &mut String, doc: &ReportDocument) -> std::fmt::Result {
         writeln!(out, "Notes: {notes}")?;
         writeln!(out)?;
     }
+    if !doc.complaint.is_empty() {
+        writeln!(out, "## Complaint record")?;
+        writeln!(out)?;
+        for (label, value) in &doc.complaint {
+            writeln!(out, "- **{label}**: {value}")?;
+        }
+        writeln!(out)?;
+    }
     writeln!(out, "### Inputs")?;
     writeln!(out)?;
     writeln!(out, "| Input | Value | Given or assumed |")?;

@@ -616,6 +616,31 @@ pub const ACCELERATION: Field = Field {
     example: "20",
     ..plain("winding.acceleration_time", "Time to line speed", Number)
 };
+pub const STOP_TIME: Field = Field {
+    range: Some(plain_above(0.0, 3600.0)),
+    default: Rule("the run-up time, else 20 s (assumed; docs/theory.md §5)"),
+    help: "Time of a normal stop from line speed in seconds (slip check of the layers).",
+    example: "20",
+    ..plain("winding.stop_time", "Normal stop time", Number)
+};
+pub const EMERGENCY_STOP_TIME: Field = Field {
+    range: Some(plain_above(0.0, 3600.0)),
+    default: Rule("4 s, web tension lost (assumed; docs/theory.md §5)"),
+    help: "Time of an emergency stop from line speed in seconds (slip check of the layers).",
+    example: "4",
+    ..plain("winding.emergency_stop_time", "Emergency stop time", Number)
+};
+pub const UNWIND_TENSION: Field = Field {
+    range: Some(from(0.0, 1e5, Q::ForcePerWidth)),
+    default: Rule("the tension the outside was wound at (assumed; docs/theory.md §5)"),
+    help: "Web tension at the customer's unwind, which the brake holds through the layers.",
+    example: "1 pli",
+    ..plain(
+        "winding.unwind_tension",
+        "Unwind tension",
+        Quantity(Q::ForcePerWidth),
+    )
+};
 pub const SYMPTOMS: Field = Field {
     help: "Observed defects.",
     ..plain("symptoms", "Symptoms", List)
@@ -648,6 +673,11 @@ pub const ANSWERS: Field = Field {
 pub const NOTES: Field = Field {
     help: "Anything else.",
     ..plain("notes", "Notes", Text)
+};
+/// The complaint record's own fields and checks live in `complaint.rs` (docs/history.md).
+pub const COMPLAINT: Field = Field {
+    help: "The complaint record: reference, customer, dates, rolls, status, confirmed causes, actions (docs/history.md).",
+    ..plain("complaint", "Complaint record", Section)
 };
 
 /// Every field of the case file, in schema order (the inputs form keeps this order).
@@ -715,10 +745,14 @@ pub const FIELDS: &[&Field] = &[
     &UPSET_TENSION,
     &TEMPERATURE,
     &ACCELERATION,
+    &STOP_TIME,
+    &EMERGENCY_STOP_TIME,
+    &UNWIND_TENSION,
     &SYMPTOMS,
     &SYMPTOM_ID,
     &SYMPTOM_WHERE,
     &SYMPTOM_NOTES,
     &ANSWERS,
     &NOTES,
+    &COMPLAINT,
 ];

@@ -149,6 +149,9 @@ impl Resolver {
         if case.title.trim().is_empty() {
             return Err(self.invalid("title is empty; give the case a short title"));
         }
+        if let Some(record) = &case.complaint {
+            record.check(None).map_err(|m| self.invalid(m))?;
+        }
         let web = self.web(&case.web)?;
         if case.web.preset.is_none() {
             self.note_default_preset("web", web.preset.as_deref());

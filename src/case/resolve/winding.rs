@@ -333,7 +333,26 @@ impl Resolver {
             Some(t) => Some(self.check(reg::ACCELERATION.path, t, &reg::ACCELERATION.range())?),
             None => None,
         };
+        let time = |field: &super::super::registry::Field, value: Option<f64>| match value {
+            Some(t) => self.check(field.path, t, &field.range()).map(Some),
+            None => Ok(None),
+        };
+        let stop_time = time(&reg::STOP_TIME, winding.stop_time)?;
+        let emergency_stop_time = time(&reg::EMERGENCY_STOP_TIME, winding.emergency_stop_time)?;
+        let unwind_tension = match self.quantity(
+            reg::UNWIND_TENSION.path,
+            winding.unwind_tension.as_ref(),
+            QuantityKind::ForcePerWidth,
+        )? {
+            Some(t) => {
+                Some(self.check(reg::UNWIND_TENSION.path, t, &reg::UNWIND_TENSION.range())?)
+            }
+            None => None,
+        };
         Ok(ResolvedWinding {
+            stop_time,
+            emergency_stop_time,
+            unwind_tension,
             method,
             tension: TensionSchedule {
                 start_tension,
