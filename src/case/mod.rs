@@ -29,8 +29,8 @@ pub use resolved::{
     ValueOrigin,
 };
 pub use schema::{
-    Case, CoreInput, ObservedSymptom, QuantityText, RadialStiffnessInput, RollInput, StepInput,
-    TaperInput, UpsetInput, WebInput, WindingInput,
+    Case, CoreInput, DrumsInput, NipPointInput, ObservedSymptom, QuantityText,
+    RadialStiffnessInput, RollInput, StepInput, TaperInput, UpsetInput, WebInput, WindingInput,
 };
 pub use starter::starter_yaml;
 

@@ -39,7 +39,12 @@ pub struct ResolvedWeb {
     pub tangential_modulus: f64,
     pub radial_stiffness: crate::model::RadialStiffness,
     pub poisson_ratio: f64,
+    /// Static web-to-web friction (slip checks).
     pub friction: f64,
+    /// Kinetic web-to-web friction (nip-induced tension).
+    pub kinetic_friction: f64,
+    /// kg/m³
+    pub density: f64,
     /// RMS roughness of one surface, m
     pub roughness: f64,
     /// Tensile strength per width, N/m
@@ -55,8 +60,12 @@ pub struct ResolvedCore {
     /// m
     pub outside_diameter: f64,
     pub stiffness: crate::model::CoreStiffness,
-    /// Pa
+    /// Interlayer pressure on the core the core is judged to carry (Pa).
     pub crush_pressure: f64,
+    /// The state the core was judged in (and wound in).
+    pub support: crate::model::CoreSupport,
+    /// What `crush_pressure` rests on.
+    pub crush_basis: crate::model::core_crush::CrushBasis,
 }
 
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
@@ -73,6 +82,14 @@ pub struct ResolvedWinding {
     pub tension: crate::model::TensionSchedule,
     /// N/m
     pub nip_load: Option<f64>,
+    /// Nip load against radius; replaces `nip_load` where given.
+    pub nip_programme: Option<crate::model::NipProgramme>,
+    /// Knee of the nip-induced tension's levelling-off, N/m.
+    pub nip_plateau: f64,
+    /// Centre torque per width (N·m per m) of a centre-surface winder.
+    pub centre_torque: Option<f64>,
+    /// Two-drum geometry (torque differential per width).
+    pub drums: Option<crate::model::DrumSet>,
     /// m/s
     pub speed: f64,
     /// °C
@@ -141,12 +158,32 @@ impl ResolvedCase {
                 method: self.winding.method,
                 tension: self.winding.tension.clone(),
                 nip_load: self.winding.nip_load,
+                nip_programme: self.winding.nip_programme.clone(),
                 friction: self.web.friction,
+                kinetic_friction: Some(self.web.kinetic_friction),
                 speed: self.winding.speed,
                 // Two contacting surfaces of the same web: RMS roughnesses add in quadrature.
                 combined_roughness: self.web.roughness * std::f64::consts::SQRT_2,
+                nip_plateau_load: Some(self.winding.nip_plateau),
+                centre_torque: self.winding.centre_torque,
+                drums: self.winding.drums,
+                web_density: Some(self.web.density),
+                permeable_web: matches!(
+                    self.web.material,
+                    WebMaterial::Paper | WebMaterial::Board | WebMaterial::Nonwoven
+                ),
+                nonwoven: self.web.material == WebMaterial::Nonwoven,
             },
             options,
         }
+    }
+
+    /// Nip-induced tension (N/m) of the first wrap on the core, as the model computes it
+    /// (kinetic friction, levelling-off, drum weight share).
+    pub fn nip_induced_tension_at_core(&self) -> f64 {
+        let rc = self.core.outside_diameter / 2.0;
+        self.problem(crate::model::SolverOptions::default())
+            .winding
+            .nip_induced_tension_at(rc, rc)
     }
 }

@@ -245,7 +245,9 @@ fn list_presets(args: &PresetsArgs) -> anyhow::Result<()> {
         show(&mut out, "Pfeiffer K1", p.k1, Some(QuantityKind::Stress))?;
         show(&mut out, "Pfeiffer K2", p.k2, None)?;
         show(&mut out, "Poisson ratio", p.poisson_ratio, None)?;
-        show(&mut out, "friction", p.friction, None)?;
+        show(&mut out, "static friction", p.friction, None)?;
+        show(&mut out, "kinetic friction", p.kinetic_friction, None)?;
+        show(&mut out, "density (kg/m³)", p.density, None)?;
         show(
             &mut out,
             "roughness (RMS)",
@@ -280,8 +282,25 @@ fn list_presets(args: &PresetsArgs) -> anyhow::Result<()> {
             p.outside_diameter,
             Some(QuantityKind::Length),
         )?;
-        show(&mut out, "modulus", p.modulus, Some(QuantityKind::Stress))?;
+        show(
+            &mut out,
+            "hoop modulus",
+            p.modulus,
+            Some(QuantityKind::Stress),
+        )?;
+        show(
+            &mut out,
+            "radial modulus",
+            p.radial_modulus,
+            Some(QuantityKind::Stress),
+        )?;
         show(&mut out, "Poisson ratio", p.poisson_ratio, None)?;
+        show(
+            &mut out,
+            "compressive strength",
+            p.compressive_strength,
+            Some(QuantityKind::Stress),
+        )?;
         show(
             &mut out,
             "crush pressure",

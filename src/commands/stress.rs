@@ -312,13 +312,15 @@ pub fn summary_table(
         rows.push((
             "Entrained air film (Knox & Sweeney)",
             format!(
-                "{} at the core, {} at the outside ({:.2} / {:.2} × roughness){}",
+                "{} at the core, {} at the outside ({:.2} / {:.2} × roughness, {:.0} % of the \
+                 friction left at the outside){}",
                 length(start.thickness, system),
                 length(end.thickness, system),
                 start.ratio_to_roughness,
                 end.ratio_to_roughness,
-                if start.suppressed_by_nip {
-                    ", suppressed by the nip"
+                100.0 * end.traction,
+                if end.reduced_by_nip {
+                    ", reduced by the nip"
                 } else {
                     ""
                 }

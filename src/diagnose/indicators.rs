@@ -84,9 +84,6 @@ pub const EVIDENCE_IDS: &[&str] = &[
 /// value `(from memory)`.
 pub const LOW_PRESSURE_LIMIT: f64 = 20.0e3;
 
-/// Dynamic viscosity of air at room temperature, Pa·s (handbook value).
-const AIR_VISCOSITY: f64 = 1.8e-5;
-
 /// Every indicator the rules may test.
 pub const INDICATORS: &[IndicatorSpec] = &[
     spec(
@@ -580,8 +577,9 @@ impl Indicators {
         if tension > 0.0 {
             self.set("nip_to_tension", None, nip / tension);
         }
-        // Wound-in tension from the nip ≈ μ·N on top of the web tension (Good, Wu & Fikes 1994).
-        let nip_part = case.web.friction * nip;
+        // Wound-in tension from the nip: μk·N with its levelling-off, as the model computes it
+        // (Good, Wu & Fikes 1994; Good, Hartwig & Markum 1999).
+        let nip_part = case.nip_induced_tension_at_core();
         if tension + nip_part > 0.0 {
             self.set("nip_wit_share", None, nip_part / (tension + nip_part));
         }
@@ -757,8 +755,10 @@ impl Indicators {
         // Torques: steady tension torque (centre winding) plus the torque to accelerate the roll.
         let outer_tension = tension_at(case, outer_r);
         let tension_torque = match case.winding.method {
-            WindingMethod::Surface => 0.0,
-            WindingMethod::Centre | WindingMethod::CentreSurface => outer_tension * outer_r,
+            WindingMethod::Surface | WindingMethod::TwoDrum => 0.0,
+            WindingMethod::Centre | WindingMethod::Gap | WindingMethod::CentreSurface => {
+                outer_tension * outer_r
+            }
         };
         let acceleration_torque = acceleration_torque_per_width(case, core_r, outer_r);
         if tension_torque > 0.0 {
@@ -779,16 +779,9 @@ impl Indicators {
 
         // Air film: the solver's estimate when present, otherwise the foil-bearing estimate.
         let ratio = match &profile.air_film {
-            Some((start, outside)) => [start, outside]
-                .iter()
-                .map(|f| {
-                    if f.suppressed_by_nip {
-                        0.0
-                    } else {
-                        f.ratio_to_roughness
-                    }
-                })
-                .fold(0.0, f64::max),
+            // The film as wound (after the nip where there is one): the same figure the
+            // reports print.
+            Some((start, outside)) => start.ratio_to_roughness.max(outside.ratio_to_roughness),
             None => foil_bearing_ratio(case, outer_r),
         };
         self.set("air_film_ratio", None, ratio);
@@ -838,16 +831,13 @@ fn acceleration_torque_per_width(case: &ResolvedCase, core_r: f64, outer_r: f64)
 /// combined roughness. Knox & Sweeney (1971): h0 = 0.643·R·(12·μ·V/T)^(2/3). With a nip the
 /// film is taken as squeezed out.
 fn foil_bearing_ratio(case: &ResolvedCase, outer_r: f64) -> f64 {
-    if case.winding.nip_load.is_some_and(|n| n > 0.0) {
-        return 0.0;
-    }
     let t = tension_at(case, outer_r);
     let roughness = case.web.roughness * std::f64::consts::SQRT_2;
     if t <= 0.0 || roughness <= 0.0 {
         return 0.0;
     }
-    let h0 = 0.643 * outer_r * (12.0 * AIR_VISCOSITY * case.winding.speed / t).powf(2.0 / 3.0);
-    h0 / roughness
+    let nip = case.winding.nip_load.is_some_and(|n| n > 0.0);
+    crate::model::air::film_at(outer_r, case.winding.speed, t, roughness, nip).ratio_to_roughness
 }
 
 /// Radial extent each node represents inside `[start, end)` (trapezoid weights).

@@ -91,10 +91,14 @@ pub fn evaluate(
             Some(format!("= {}", ids(values))),
         )),
         Test::Method(values) => {
-            let method = case.winding.method.id();
+            // A rule may name the winder type or its family: a gap winder is centre-driven,
+            // two drums are a surface winder.
+            let method = case.winding.method;
             Some((
-                values.iter().any(|v| v == method),
-                Some(method.to_string()),
+                values
+                    .iter()
+                    .any(|v| v == method.id() || v == method.family()),
+                Some(method.id().to_string()),
                 Some(format!("= {}", values.join(" or "))),
             ))
         }

@@ -591,11 +591,7 @@ fn input_label(field: &str) -> &'static str {
 }
 
 fn method_text(method: WindingMethod) -> &'static str {
-    match method {
-        WindingMethod::Centre => "centre winding",
-        WindingMethod::Surface => "surface winding",
-        WindingMethod::CentreSurface => "centre-surface winding",
-    }
+    method.describe()
 }
 
 fn radial_stiffness_text(law: &RadialStiffness, units: UnitSystem) -> String {
@@ -632,6 +628,20 @@ fn core_stiffness_text(core: &CoreStiffness, units: UnitSystem) -> String {
             "hollow cylinder, E = {}, ν = {}, effective Ec = {}",
             format_quantity(modulus, QuantityKind::Stress, units),
             round_sig(poisson_ratio, 3),
+            format_quantity(effective, QuantityKind::Stress, units)
+        ),
+        CoreStiffness::Tube {
+            hoop_modulus,
+            radial_modulus,
+            poisson_ratio,
+            support,
+            ..
+        } => format!(
+            "orthotropic tube, hoop E = {}, radial E = {}, ν = {}, {}, effective Ec = {}",
+            format_quantity(hoop_modulus, QuantityKind::Stress, units),
+            format_quantity(radial_modulus, QuantityKind::Stress, units),
+            round_sig(poisson_ratio, 3),
+            support.describe(),
             format_quantity(effective, QuantityKind::Stress, units)
         ),
         CoreStiffness::Measured { stiffness } => format!(

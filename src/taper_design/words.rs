@@ -231,10 +231,14 @@ pub(super) fn explain(
             && let (Some(nip), Some(wit)) =
                 (case.winding.nip_load, after.check(Limit::WoundInTension))
         {
-            let nip_part = nip * case.web.friction;
+            let nip_part = if nip > 0.0 {
+                case.nip_induced_tension_at_core()
+            } else {
+                0.0
+            };
             if nip_part > 0.25 * wit.value {
                 out.push(format!(
-                    "The nip adds about {nip_part:.0} N/m (friction × nip load) to the wound-in tension; a lighter nip would leave room for more web tension."
+                    "The nip adds about {nip_part:.0} N/m (kinetic friction × nip load) to the wound-in tension; a lighter nip would leave room for more web tension."
                 ));
             }
         }

@@ -192,10 +192,11 @@ pub(crate) fn value_of(
         "layers" => s.physical_layers.to_string(),
         "air_film_ratio" => {
             let (_, outside) = profile.air_film?;
-            if outside.suppressed_by_nip {
+            if outside.reduced_by_nip {
                 format!(
-                    "{:.2} (but the nip squeezes the air out)",
-                    outside.ratio_to_roughness
+                    "{:.2} (reduced by the nip from {:.1})",
+                    outside.ratio_to_roughness,
+                    outside.free_thickness / (outside.thickness / outside.ratio_to_roughness)
                 )
             } else {
                 format!("{:.1}", outside.ratio_to_roughness)

@@ -187,11 +187,81 @@ fn core_materials_give_their_stiffness() {
 }
 
 #[test]
+fn paper_core_preset_is_orthotropic_and_its_crush_is_estimated() {
+    // Orthotropic tube (Gerhardt 1990) solved numerically in tests/reference/orthotropic_core.py:
+    // 3 in bore, 1/2 in wall, Eθ = 2 GPa, Er = 40 MPa, free → Ec/Eθ = 0.142508.
+    let resolved = resolve("title: t\ncore: {preset: paper_3in}\n").unwrap();
+    assert_relative_eq!(
+        resolved.core.stiffness.effective_stiffness() / 2e9,
+        0.142508,
+        max_relative = 1e-5
+    );
+    assert_eq!(resolved.core.support, rolltriage::model::CoreSupport::Free);
+    assert_eq!(
+        resolved.core.crush_basis,
+        rolltriage::model::core_crush::CrushBasis::WallStrength
+    );
+    // Wall strength 20 MPa over the outer-wall hoop stress 7.317 p (same reference) = 2.73 MPa.
+    assert_relative_eq!(
+        resolved.core.crush_pressure,
+        20e6 / 7.317165,
+        max_relative = 1e-5
+    );
+    let crush = resolved
+        .assumed
+        .iter()
+        .find(|a| a.field == "core.crush_pressure")
+        .unwrap();
+    assert!(crush.source.contains("free core"), "{crush:?}");
+    // A flat crush rating of 4 kN per 100 mm on the 12.7 mm wall: 6·40e3/(π·0.0127) = 6.015 MPa.
+    let rated = resolve("title: t\ncore: {preset: paper_3in, flat_crush: 40 kN/m}\n").unwrap();
+    assert_relative_eq!(rated.core.crush_pressure, 6.015e6, max_relative = 1e-3);
+    // On a shaft the core is stiffer.
+    let held = resolve("title: t\ncore: {preset: paper_3in, support: shaft}\n").unwrap();
+    assert!(
+        held.core.stiffness.effective_stiffness() > resolved.core.stiffness.effective_stiffness()
+    );
+}
+
+#[test]
+fn winder_settings_resolve_per_width_and_by_type() {
+    let case = resolve(
+        "title: t\nweb: {width: 2 m}\nwinding: {method: centre_surface, centre_torque: 100 N·m, nip_load: 1 kN/m}\n",
+    )
+    .unwrap();
+    assert_relative_eq!(case.winding.centre_torque.unwrap(), 50.0);
+    let drums = resolve("title: t\nwinding: {method: two_drum, nip_load: 500 N/m}\n").unwrap();
+    let set = drums.winding.drums.unwrap();
+    assert_relative_eq!(set.drum_radius, 0.25);
+    assert!(
+        drums
+            .assumed
+            .iter()
+            .any(|a| a.field == "winding.drums.centre_distance")
+    );
+    let refused = resolve("title: t\nwinding: {method: centre, centre_torque: 100 N·m}\n");
+    assert!(refused.unwrap_err().to_string().contains("centre_surface"));
+    let programme = resolve(
+        "title: t\nroll: {diameter: 1 m}\nwinding: {nip_programme: [{diameter: 200 mm, nip_load: 2 kN/m}, {diameter: 800 mm, nip_load: 1 kN/m}]}\n",
+    )
+    .unwrap();
+    let p = programme.winding.nip_programme.unwrap();
+    assert_relative_eq!(p.load_at(0.25), 1500.0);
+    assert!(
+        !programme
+            .assumed
+            .iter()
+            .any(|a| a.field == "winding.nip_load")
+    );
+}
+
+#[test]
 fn hollow_core_stiffness_matches_lame() {
     // Lamé thick-walled cylinder under external pressure (e.g. Timoshenko & Goodier, Theory of
     // Elasticity, §28): radial compliance at the outer surface gives
     // Ec = E / ((b² + a²)/(b² − a²) − ν).
-    let resolved = resolve("title: t\ncore: {preset: paper_3in}\n").unwrap();
+    // A paper core given with equal hoop and radial moduli is isotropic.
+    let resolved = resolve("title: t\ncore: {preset: paper_3in, radial_modulus: 2 GPa}\n").unwrap();
     let (a, b): (f64, f64) = (0.0381, 0.0508);
     let expected = 2e9 / ((b * b + a * a) / (b * b - a * a) - 0.3);
     assert_relative_eq!(
@@ -445,6 +515,14 @@ fn every_schema_key_is_in_the_field_registry_and_back() {
         (
             "winding.upsets[]",
             "title: t\nwinding: {upsets: [{zz_unknown: 1}]}\n",
+        ),
+        (
+            "winding.nip_programme[]",
+            "title: t\nwinding: {nip_programme: [{zz_unknown: 1}]}\n",
+        ),
+        (
+            "winding.drums",
+            "title: t\nwinding: {drums: {zz_unknown: 1}}\n",
         ),
         ("symptoms[]", "title: t\nsymptoms: [{zz_unknown: 1}]\n"),
         ("measurements", "title: t\nmeasurements: {zz_unknown: 1}\n"),

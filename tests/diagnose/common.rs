@@ -31,6 +31,8 @@ pub fn newsprint(title: &str) -> ResolvedCase {
             },
             poisson_ratio: 0.01,
             friction: 0.4,
+            kinetic_friction: 0.4,
+            density: 1000.0,
             roughness: 3.0e-6,
             // ~2.7 kN/m machine-direction tensile strength (tensile index ~60 N·m/g × 45 g/m², from memory).
             strength: 2700.0,
@@ -48,6 +50,10 @@ pub fn newsprint(title: &str) -> ResolvedCase {
                 upsets: vec![],
             },
             nip_load: Some(350.0),
+            nip_programme: None,
+            nip_plateau: rolltriage::model::winder::NIP_MODEL_LIMIT,
+            centre_torque: None,
+            drums: None,
             speed: 15.0,
             temperature: None,
             acceleration_time: None,
@@ -78,6 +84,8 @@ pub fn pet_film(title: &str) -> ResolvedCase {
             },
             poisson_ratio: 0.01,
             friction: 0.35,
+            kinetic_friction: 0.35,
+            density: 1000.0,
             roughness: 0.05e-6,
             // ~200 MPa × 23 µm ≈ 4.6 kN/m (from memory).
             strength: 4600.0,
@@ -95,6 +103,10 @@ pub fn pet_film(title: &str) -> ResolvedCase {
                 upsets: vec![],
             },
             nip_load: Some(350.0),
+            nip_programme: None,
+            nip_plateau: rolltriage::model::winder::NIP_MODEL_LIMIT,
+            centre_torque: None,
+            drums: None,
             speed: 4.0,
             temperature: Some(25.0),
             acceleration_time: None,
@@ -123,6 +135,8 @@ pub fn paper_core(inside: f64, outside: f64, modulus: f64, crush: f64) -> Resolv
             poisson_ratio: 0.3,
         },
         crush_pressure: crush,
+        support: rolltriage::model::CoreSupport::Free,
+        crush_basis: rolltriage::model::core_crush::CrushBasis::Given,
     }
 }
 

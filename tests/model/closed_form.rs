@@ -43,6 +43,7 @@ fn problem(case: &serde_json::Value, update: ModulusUpdate) -> WindingProblem {
             friction: 0.3,
             speed: 0.0,
             combined_roughness: 1e-6,
+            ..WindingSetup::default()
         },
         options: SolverOptions {
             resolution: Resolution::PerLayer,

@@ -13,3 +13,5 @@ mod numerics;
 mod physics;
 mod properties;
 mod reference_scipy;
+mod winder;
+mod winder_properties;

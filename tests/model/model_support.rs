@@ -33,6 +33,7 @@ pub fn roll(
             friction: 0.3,
             speed: 0.0,
             combined_roughness: 1e-6,
+            ..WindingSetup::default()
         },
         options: SolverOptions {
             resolution: Resolution::PerLayer,

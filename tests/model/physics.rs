@@ -174,7 +174,7 @@ fn fast_unnipped_winding_warns_about_air() {
     let p = solve(&problem).unwrap();
     assert!(p.warnings.iter().any(|w| w.contains("entrained air")));
     let (start, _) = p.air_film.unwrap();
-    assert!(start.ratio_to_roughness > 1.0 && !start.suppressed_by_nip);
+    assert!(start.ratio_to_roughness > 1.0 && !start.reduced_by_nip);
     problem.winding.nip_load = Some(300.0);
     let p = solve(&problem).unwrap();
     assert!(!p.warnings.iter().any(|w| w.contains("entrained air")));

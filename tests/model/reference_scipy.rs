@@ -73,6 +73,7 @@ pub fn problem_from(case: &Value, update: ModulusUpdate, resolution: Resolution)
             friction: 0.3,
             speed: 0.0,
             combined_roughness: 1e-6,
+            ..WindingSetup::default()
         },
         options: SolverOptions {
             resolution,

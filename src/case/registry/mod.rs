@@ -329,6 +329,8 @@ pub const DOC_SECTIONS: &[&str] = &[
     "winding.taper",
     "winding.taper.steps[]",
     "winding.upsets[]",
+    "winding.nip_programme[]",
+    "winding.drums",
     "symptoms[]",
     "measurements",
     "measurements.uncertainty",

@@ -3,9 +3,11 @@
 //! the enums of `vocabulary`. The web and the core are resolved here, the roll and the winding
 //! settings in `winding`.
 
+mod winder;
 mod winding;
 
-use crate::model::{CoreStiffness, RadialStiffness};
+use crate::model::core_crush::{self, CrushBasis, CrushRatings};
+use crate::model::{CoreStiffness, CoreSupport, RadialStiffness};
 use crate::presets::{self, CorePreset, Sourced, WebPreset};
 use crate::units::{QuantityKind, UnitSystem, format_quantity, parse_quantity};
 use crate::vocabulary::{CoreMaterial, Place, RadialLaw, WebMaterial};
@@ -371,6 +373,21 @@ impl Resolver {
         };
         let poisson_ratio = self.number_or(&reg::WEB_POISSON, web.poisson_ratio, p, None)?;
         let friction = self.number_or(&reg::FRICTION, web.friction, p, None)?;
+        let kinetic_friction = match web.kinetic_friction {
+            // Kinetic friction does not exceed static: a preset value above the static
+            // friction the case gives is held at it.
+            None if preset.kinetic_friction.value > friction => {
+                self.assume(
+                    reg::KINETIC_FRICTION.path,
+                    format!("{friction}"),
+                    &from,
+                    "held at the static friction given (the preset's kinetic value is higher)",
+                );
+                friction
+            }
+            given => self.number_or(&reg::KINETIC_FRICTION, given, p, None)?,
+        };
+        let density = self.number_or(&reg::DENSITY, web.density, p, None)?;
         let roughness = self.quantity_or(&reg::ROUGHNESS, web.roughness.as_ref(), p, None)?;
         let strength = self.quantity_or(&reg::STRENGTH, web.strength.as_ref(), p, None)?;
         Ok(ResolvedWeb {
@@ -382,6 +399,8 @@ impl Resolver {
             radial_stiffness,
             poisson_ratio,
             friction,
+            kinetic_friction,
+            density,
             roughness,
             strength,
         })
@@ -523,13 +542,32 @@ impl Resolver {
             }
         };
         let (inside, outside) = self.core_diameters(preset, inside_given, outside_given)?;
-        let stiffness = self.core_stiffness(core, material, preset, inside, outside)?;
-        let crush_pressure = self.quantity_or(
-            &reg::CRUSH,
-            core.crush_pressure.as_ref(),
-            None,
-            Some(preset),
-        )?;
+        let support = match &core.support {
+            Some(word) => match word.as_str() {
+                "free" => CoreSupport::Free,
+                "shaft" => CoreSupport::Shaft,
+                other => {
+                    return Err(self.unknown_name(
+                        reg::CORE_SUPPORT.path,
+                        "core support",
+                        other,
+                        reg::CORE_SUPPORTS,
+                    ));
+                }
+            },
+            None => {
+                self.assume(
+                    reg::CORE_SUPPORT.path,
+                    "free".to_string(),
+                    "",
+                    "default: judged as a free core (shaft pulled, in storage), the state in which cores crush",
+                );
+                CoreSupport::Free
+            }
+        };
+        let stiffness = self.core_stiffness(core, material, preset, inside, outside, support)?;
+        let (crush_pressure, crush_basis) =
+            self.core_crush(core, preset, &stiffness, inside, outside, support)?;
         Ok(ResolvedCore {
             preset: Some(preset.id.to_string()),
             material,
@@ -537,7 +575,58 @@ impl Resolver {
             outside_diameter: outside,
             stiffness,
             crush_pressure,
+            support,
+            crush_basis,
         })
+    }
+
+    /// The crush limit: the supplier's radial and flat crush ratings (the lower governs), else
+    /// an estimate from the wall's hoop stress and buckling, else the preset's value.
+    fn core_crush(
+        &mut self,
+        core: &CoreInput,
+        preset: &CorePreset,
+        stiffness: &CoreStiffness,
+        inside: f64,
+        outside: f64,
+        support: CoreSupport,
+    ) -> Result<(f64, CrushBasis), CaseError> {
+        let radial = match &core.crush_pressure {
+            Some(text) => Some(self.required_quantity(&reg::CRUSH, Some(text))?),
+            None => None,
+        };
+        let flat = match &core.flat_crush {
+            Some(text) => Some(self.required_quantity(&reg::FLAT_CRUSH, Some(text))?),
+            None => None,
+        };
+        let ratings = CrushRatings {
+            radial_pressure: radial,
+            flat_load: flat,
+        };
+        if let Some(limit) = core_crush::rated_limit(&ratings, (outside - inside) / 2.0, support) {
+            return Ok((limit.pressure, limit.basis));
+        }
+        let strength = self.quantity_or(
+            &reg::CORE_STRENGTH,
+            core.compressive_strength.as_ref(),
+            None,
+            Some(preset),
+        )?;
+        match core_crush::estimated_limit(stiffness, strength) {
+            Some(limit) => {
+                self.assume(
+                    reg::CRUSH.path,
+                    reg::CRUSH.range().show(limit.pressure),
+                    "",
+                    &format!("{} ({})", limit.basis.describe(), limit.support.describe()),
+                );
+                Ok((limit.pressure, limit.basis))
+            }
+            None => {
+                let value = self.quantity_or(&reg::CRUSH, None, None, Some(preset))?;
+                Ok((value, CrushBasis::Given))
+            }
+        }
     }
 
     /// The core's inside and outside diameters: as given, one from the other and the preset's
@@ -617,6 +706,7 @@ impl Resolver {
         preset: &CorePreset,
         inside: f64,
         outside: f64,
+        support: CoreSupport,
     ) -> Result<CoreStiffness, CaseError> {
         // A Poisson ratio that is given is checked even when the stiffness does not use it (a
         // rigid or measured core): the file must not carry a value no core can have.
@@ -644,11 +734,34 @@ impl Resolver {
         let p = Some(preset);
         let modulus = self.quantity_or(&reg::CORE_MODULUS, core.modulus.as_ref(), None, p)?;
         let poisson_ratio = self.number_or(&reg::CORE_POISSON, core.poisson_ratio, None, p)?;
-        Ok(CoreStiffness::Hollow {
+        let radial_modulus = match (&core.radial_modulus, material) {
+            (Some(_), _) | (None, CoreMaterial::Paper) => self.quantity_or(
+                &reg::CORE_RADIAL_MODULUS,
+                core.radial_modulus.as_ref(),
+                None,
+                p,
+            )?,
+            // Steel, aluminium and plastic cores are isotropic.
+            (None, _) => modulus,
+        };
+        if radial_modulus == modulus && support == CoreSupport::Free {
+            // The isotropic tube with a free bore is Lamé's cylinder.
+            return Ok(CoreStiffness::Hollow {
+                inner_radius: inside / 2.0,
+                outer_radius: outside / 2.0,
+                modulus,
+                poisson_ratio,
+            });
+        }
+        let tube = CoreStiffness::Tube {
             inner_radius: inside / 2.0,
             outer_radius: outside / 2.0,
-            modulus,
+            hoop_modulus: modulus,
+            radial_modulus,
             poisson_ratio,
-        })
+            support,
+        };
+        tube.validate().map_err(|e| self.invalid(e.to_string()))?;
+        Ok(tube)
     }
 }

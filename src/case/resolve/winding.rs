@@ -194,7 +194,7 @@ impl Resolver {
     }
 
     /// A diameter inside the wound part of the roll, returned as a radius.
-    fn radius_in_roll(
+    pub(super) fn radius_in_roll(
         &self,
         field: &str,
         value: &QuantityText,
@@ -327,12 +327,14 @@ impl Resolver {
             Some(taper) => self.taper(taper, web, core, roll)?,
         };
         let upsets = self.upsets(winding, web, core, roll)?;
+        let winder = self.winder(method, winding, web, core, roll)?;
         let nip_load = match self.quantity(
             reg::NIP.path,
             winding.nip_load.as_ref(),
             QuantityKind::ForcePerWidth,
         )? {
             Some(n) => Some(self.check(reg::NIP.path, n, &reg::NIP.range())?),
+            None if winder.nip_programme.is_some() => None,
             None => {
                 self.assume(
                     reg::NIP.path,
@@ -383,6 +385,10 @@ impl Resolver {
                 upsets,
             },
             nip_load,
+            nip_programme: winder.nip_programme,
+            nip_plateau: winder.nip_plateau,
+            centre_torque: winder.centre_torque,
+            drums: winder.drums,
             speed,
             temperature,
             acceleration_time,
