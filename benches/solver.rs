@@ -27,6 +27,7 @@ fn roll(rc: f64, h: f64, layers: usize, et: f64, k1: f64, k2: f64, t: f64) -> Wi
             friction: 0.3,
             speed: 0.0,
             combined_roughness: 1e-6,
+            ..WindingSetup::default()
         },
         options: SolverOptions::default(),
     }

@@ -35,6 +35,7 @@ fn roll(name: &str) -> WindingProblem {
             friction: 0.3,
             speed: 0.0,
             combined_roughness: 1e-6,
+            ..WindingSetup::default()
         },
         options: SolverOptions::default(),
     }

@@ -8,9 +8,12 @@
 
 pub mod calibrate;
 pub mod case;
+pub mod complaint;
 pub mod diagnose;
+pub mod evidence;
 pub mod finite;
 pub mod fsutil;
+pub mod history;
 pub mod mechanics;
 pub mod model;
 pub mod presets;

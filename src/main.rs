@@ -14,12 +14,14 @@ fn main() -> ExitCode {
         None => commands::tui::run(&commands::tui::TuiArgs::default()),
         Some(cli::Command::Stress(a)) => commands::stress::run(a),
         Some(cli::Command::Diagnose(a)) => commands::diagnose::run(a),
+        Some(cli::Command::Compare(a)) => commands::measure::run(a),
         Some(cli::Command::Report(a)) => commands::report::run(a),
         Some(cli::Command::Train(a)) => commands::train::run(a),
         Some(cli::Command::Calibrate(a)) => commands::calibrate::run(a),
         Some(cli::Command::Taper(a)) => commands::taper::run(a),
         Some(cli::Command::Rules(a)) => commands::rules::run(a),
         Some(cli::Command::Case(a)) => commands::case::run(a),
+        Some(cli::Command::History(a)) => commands::history::run(a),
         Some(cli::Command::Tui(a)) => commands::tui::run(a),
         Some(cli::Command::Completions { shell }) => {
             // Generated into memory: clap_complete panics when its writer fails.

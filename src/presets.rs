@@ -29,6 +29,15 @@ const MEMORY: &str = "(from memory)";
 /// Pfeiffer constants: order of magnitude only.
 const PFEIFFER_MEMORY: &str =
     "(from memory) order of magnitude of published Pfeiffer (1966) fits for this kind of web";
+/// Kinetic web-to-web friction of newsprint, measured for wound-in tension work.
+const GOOD_1999_KINETIC: &str = "Good, Hartwig & Markum, Proc. 5th Int. Conf. Web Handling (1999): kinetic coefficient 0.19 newsprint on newsprint";
+/// Kinetic friction recalled, not checked.
+const KINETIC_MEMORY: &str = "(from memory) kinetic web-to-web friction, below the static value as for newsprint (0.19 kinetic against about 0.4 static)";
+/// PET film friction from published datasheet ranges.
+const PET_FRICTION: &str = "mid-range of PET film datasheets (ASTM D1894 film to film): static 0.35–0.55, kinetic 0.30–0.45";
+/// Nonwoven kinetic friction: recalled; measured nip-induced tension on a nonwoven was well
+/// below μk·N (Balaji & Good), so the wound-in tension from it is high.
+const NONWOVEN_KINETIC: &str = "(from memory); measured nip-induced tension on a polyethylene nonwoven was much less than this × nip load (Balaji & Good)";
 /// Tension rule of thumb per mil of caliper for films and foil.
 const FILM_TENSION_RULE: &str = "(from memory) trade rule of thumb for this film in pli per mil of caliper; common practice is 10–25 % of tensile strength at most";
 /// Tension rule of thumb for paper grades.
@@ -59,8 +68,12 @@ pub struct WebPreset {
     pub k2: Sourced,
     /// Poisson ratio of the wound stack (ν_θr).
     pub poisson_ratio: Sourced,
-    /// Web-to-web friction coefficient.
+    /// Static web-to-web friction coefficient (slip checks: cinching, telescoping, core slip).
     pub friction: Sourced,
+    /// Kinetic web-to-web friction coefficient (nip-induced tension).
+    pub kinetic_friction: Sourced,
+    /// Density of the web (kg/m³): roll weight on winder drums, centrifugal unloading.
+    pub density: Sourced,
     /// RMS roughness of one surface (m).
     pub roughness: Sourced,
     /// Machine-direction tensile strength per width (N/m).
@@ -79,10 +92,17 @@ pub struct CorePreset {
     pub inside_diameter: Sourced,
     /// Outside diameter where winding starts (m).
     pub outside_diameter: Sourced,
-    /// Modulus of the core material for the hollow-cylinder (Lamé) stiffness (Pa).
+    /// Hoop (tangential) modulus of the core wall (Pa); the modulus of isotropic cores.
     pub modulus: Sourced,
+    /// Radial (through-the-wall) modulus (Pa); equal to `modulus` for isotropic cores, far
+    /// below it for spiral-wound paper cores (Gerhardt 1990).
+    pub radial_modulus: Sourced,
     pub poisson_ratio: Sourced,
-    /// Typical external radial pressure the core carries before crushing (Pa).
+    /// Hoop compressive stress the wall carries (Pa), for the crush estimate.
+    pub compressive_strength: Sourced,
+    /// Interlayer pressure on the core it is estimated to carry before crushing (Pa), free
+    /// core: `model::core_crush::estimated_limit` from the values above (a test keeps the two
+    /// in step). A supplier's rating replaces it in a case.
     pub crush_pressure: Sourced,
 }
 
@@ -103,6 +123,8 @@ const WEB_PRESETS: [WebPreset; 9] = [
         k2: sourced(50.0, PFEIFFER_MEMORY),
         poisson_ratio: sourced(0.01, STACK_POISSON),
         friction: sourced(0.4, "(from memory) paper-to-paper static friction 0.3–0.5"),
+        kinetic_friction: sourced(0.19, GOOD_1999_KINETIC),
+        density: sourced(590.0, "computed: 45 g/m² over the 76 µm caliper"),
         roughness: sourced(4e-6, "(from memory) uncoated mechanical paper, Rq a few µm"),
         strength: sourced(
             2.3e3,
@@ -120,6 +142,8 @@ const WEB_PRESETS: [WebPreset; 9] = [
         k2: sourced(50.0, "rolltriage reference web used by the engine tests"),
         poisson_ratio: sourced(0.01, STACK_POISSON),
         friction: sourced(0.4, "(from memory) paper-to-paper static friction 0.3–0.5"),
+        kinetic_friction: sourced(0.19, GOOD_1999_KINETIC),
+        density: sourced(590.0, "computed: 45 g/m² over the 76 µm caliper"),
         roughness: sourced(4e-6, "(from memory) uncoated mechanical paper, Rq a few µm"),
         strength: sourced(
             2.3e3,
@@ -140,6 +164,8 @@ const WEB_PRESETS: [WebPreset; 9] = [
             0.3,
             "(from memory) coated paper slides more easily than uncoated",
         ),
+        kinetic_friction: sourced(0.2, KINETIC_MEMORY),
+        density: sourced(1125.0, "computed: 90 g/m² over the 80 µm caliper"),
         roughness: sourced(
             1e-6,
             "(from memory) calendered coated surface, Rq about 1 µm",
@@ -157,6 +183,8 @@ const WEB_PRESETS: [WebPreset; 9] = [
         k2: sourced(40.0, PFEIFFER_MEMORY),
         poisson_ratio: sourced(0.01, STACK_POISSON),
         friction: sourced(0.4, MEMORY),
+        kinetic_friction: sourced(0.3, KINETIC_MEMORY),
+        density: sourced(700.0, "(from memory) folding boxboard 0.6–0.8 g/cm³"),
         roughness: sourced(3e-6, MEMORY),
         strength: sourced(15e3, MEMORY),
         typical_tension: sourced(
@@ -173,7 +201,9 @@ const WEB_PRESETS: [WebPreset; 9] = [
         k1: sourced(3e3, PFEIFFER_MEMORY),
         k2: sourced(300.0, PFEIFFER_MEMORY),
         poisson_ratio: sourced(0.01, STACK_POISSON),
-        friction: sourced(0.4, "(from memory) film-to-film with slip additive 0.3–0.5"),
+        friction: sourced(0.4, PET_FRICTION),
+        kinetic_friction: sourced(0.35, PET_FRICTION),
+        density: sourced(1390.0, "(from memory) PET 1.39–1.40 g/cm³"),
         roughness: sourced(50e-9, "(from memory) filled PET film surface Rq tens of nm"),
         strength: sourced(23e-6 * 200e6, FILM_TABLE),
         typical_tension: sourced(0.75 * PLI * 23.0 / 25.4, FILM_TENSION_RULE),
@@ -188,6 +218,8 @@ const WEB_PRESETS: [WebPreset; 9] = [
         k2: sourced(250.0, PFEIFFER_MEMORY),
         poisson_ratio: sourced(0.01, STACK_POISSON),
         friction: sourced(0.3, MEMORY),
+        kinetic_friction: sourced(0.25, KINETIC_MEMORY),
+        density: sourced(905.0, "(from memory) polypropylene 0.90–0.91 g/cm³"),
         roughness: sourced(100e-9, MEMORY),
         strength: sourced(20e-6 * 150e6, FILM_TABLE),
         typical_tension: sourced(0.375 * PLI * 20.0 / 25.4, FILM_TENSION_RULE),
@@ -205,6 +237,8 @@ const WEB_PRESETS: [WebPreset; 9] = [
             0.5,
             "(from memory) polyethylene film-to-film is grippy, 0.4–0.7",
         ),
+        kinetic_friction: sourced(0.4, KINETIC_MEMORY),
+        density: sourced(920.0, "(from memory) LDPE 0.91–0.93 g/cm³"),
         roughness: sourced(300e-9, MEMORY),
         strength: sourced(
             50e-6 * 20e6,
@@ -225,6 +259,11 @@ const WEB_PRESETS: [WebPreset; 9] = [
         k2: sourced(400.0, PFEIFFER_MEMORY),
         poisson_ratio: sourced(0.01, STACK_POISSON),
         friction: sourced(0.3, MEMORY),
+        kinetic_friction: sourced(0.25, KINETIC_MEMORY),
+        density: sourced(
+            2700.0,
+            "(from memory) handbook density of aluminium 2.70 g/cm³",
+        ),
         roughness: sourced(200e-9, MEMORY),
         strength: sourced(
             9e-6 * 70e6,
@@ -242,6 +281,8 @@ const WEB_PRESETS: [WebPreset; 9] = [
         k2: sourced(20.0, PFEIFFER_MEMORY),
         poisson_ratio: sourced(0.01, STACK_POISSON),
         friction: sourced(0.5, MEMORY),
+        kinetic_friction: sourced(0.4, NONWOVEN_KINETIC),
+        density: sourced(100.0, "computed: 20 g/m² over the 200 µm caliper"),
         roughness: sourced(20e-6, "(from memory) fibrous surface, Rq tens of µm"),
         strength: sourced(800.0, "(from memory) about 40 N per 50 mm strip MD"),
         typical_tension: sourced(
@@ -251,12 +292,18 @@ const WEB_PRESETS: [WebPreset; 9] = [
     },
 ];
 
-/// Paperboard cores: hoop stress at the bore of a thick-walled (Lamé) cylinder under external
-/// pressure P is 2·P·b²/(b² − a²); the crush ratings below are the P at which that reaches a
-/// compressive strength of about 20 MPa for laminated paperboard (from memory).
-const PAPER_CORE_CRUSH: &str = "estimate: Lamé bore hoop stress reaching ~20 MPa paperboard compressive strength (from memory)";
+/// Paperboard cores are spiral-wound and strongly orthotropic: the radial modulus is far below
+/// the hoop modulus (Gerhardt, J. Eng. Mater. Technol. 112:144, 1990). Their crush estimate is
+/// the lower of the wall's hoop stress (orthotropic tube, which puts the peak at the outer wall)
+/// reaching the board's compressive strength and buckling of the free tube.
+const PAPER_CORE_CRUSH: &str = "estimate: orthotropic wall hoop stress (Gerhardt 1990) reaching the paperboard strength, or buckling of the free core if lower";
 const PAPER_CORE_MODULUS: &str =
-    "(from memory) effective modulus of spiral-wound paperboard cores 1–3 GPa";
+    "(from memory) hoop modulus of spiral-wound paperboard cores 1–3 GPa";
+const PAPER_CORE_RADIAL: &str = "(from memory) estimate: paperboard's through-thickness modulus is one to two orders of magnitude below its in-plane modulus; Gerhardt (1990) calls the radial modulus of paper tubes extremely small";
+const PAPER_CORE_STRENGTH: &str =
+    "(from memory) compressive strength of laminated core board about 20 MPa";
+
+const ISOTROPIC_CORE: &str = "isotropic material: radial modulus equals the hoop modulus";
 
 const CORE_PRESETS: [CorePreset; 7] = [
     CorePreset {
@@ -266,8 +313,10 @@ const CORE_PRESETS: [CorePreset; 7] = [
         inside_diameter: sourced(3.0 * INCH, "common practice: 3 in (76.2 mm) bore"),
         outside_diameter: sourced(4.0 * INCH, "common practice: 1/2 in wall"),
         modulus: sourced(2e9, PAPER_CORE_MODULUS),
+        radial_modulus: sourced(40e6, PAPER_CORE_RADIAL),
         poisson_ratio: sourced(0.3, MEMORY),
-        crush_pressure: sourced(4e6, PAPER_CORE_CRUSH),
+        compressive_strength: sourced(20e6, PAPER_CORE_STRENGTH),
+        crush_pressure: sourced(2.7e6, PAPER_CORE_CRUSH),
     },
     CorePreset {
         id: "paper_3in_thin",
@@ -276,8 +325,10 @@ const CORE_PRESETS: [CorePreset; 7] = [
         inside_diameter: sourced(3.0 * INCH, "common practice: 3 in (76.2 mm) bore"),
         outside_diameter: sourced(3.5 * INCH, "common practice: 1/4 in wall"),
         modulus: sourced(2e9, PAPER_CORE_MODULUS),
+        radial_modulus: sourced(40e6, PAPER_CORE_RADIAL),
         poisson_ratio: sourced(0.3, MEMORY),
-        crush_pressure: sourced(2e6, PAPER_CORE_CRUSH),
+        compressive_strength: sourced(20e6, PAPER_CORE_STRENGTH),
+        crush_pressure: sourced(1.8e6, PAPER_CORE_CRUSH),
     },
     CorePreset {
         id: "paper_6in",
@@ -286,8 +337,10 @@ const CORE_PRESETS: [CorePreset; 7] = [
         inside_diameter: sourced(6.0 * INCH, "common practice: 6 in (152.4 mm) bore"),
         outside_diameter: sourced(7.0 * INCH, "common practice: 1/2 in wall"),
         modulus: sourced(2e9, PAPER_CORE_MODULUS),
+        radial_modulus: sourced(40e6, PAPER_CORE_RADIAL),
         poisson_ratio: sourced(0.3, MEMORY),
-        crush_pressure: sourced(2.5e6, PAPER_CORE_CRUSH),
+        compressive_strength: sourced(20e6, PAPER_CORE_STRENGTH),
+        crush_pressure: sourced(1.8e6, PAPER_CORE_CRUSH),
     },
     CorePreset {
         id: "paper_6in_heavy",
@@ -296,8 +349,10 @@ const CORE_PRESETS: [CorePreset; 7] = [
         inside_diameter: sourced(6.0 * INCH, "common practice: 6 in (152.4 mm) bore"),
         outside_diameter: sourced(7.5 * INCH, "common practice: 3/4 in wall"),
         modulus: sourced(2e9, PAPER_CORE_MODULUS),
+        radial_modulus: sourced(40e6, PAPER_CORE_RADIAL),
         poisson_ratio: sourced(0.3, MEMORY),
-        crush_pressure: sourced(3.5e6, PAPER_CORE_CRUSH),
+        compressive_strength: sourced(20e6, PAPER_CORE_STRENGTH),
+        crush_pressure: sourced(2.6e6, PAPER_CORE_CRUSH),
     },
     CorePreset {
         id: "steel_6in",
@@ -309,10 +364,15 @@ const CORE_PRESETS: [CorePreset; 7] = [
             200e9,
             "(from memory) handbook modulus of carbon steel about 200 GPa",
         ),
+        radial_modulus: sourced(200e9, ISOTROPIC_CORE),
         poisson_ratio: sourced(0.3, "(from memory) handbook value for steel"),
+        compressive_strength: sourced(
+            250e6,
+            "(from memory) yield stress of structural steel about 250 MPa",
+        ),
         crush_pressure: sourced(
             18e6,
-            "estimate: Lamé bore hoop stress reaching 250 MPa yield (from memory)",
+            "estimate: Lamé bore hoop stress reaching the 250 MPa yield",
         ),
     },
     CorePreset {
@@ -325,10 +385,15 @@ const CORE_PRESETS: [CorePreset; 7] = [
             69e9,
             "(from memory) handbook modulus of aluminium alloys about 69 GPa",
         ),
+        radial_modulus: sourced(69e9, ISOTROPIC_CORE),
         poisson_ratio: sourced(0.33, "(from memory) handbook value for aluminium"),
+        compressive_strength: sourced(
+            200e6,
+            "(from memory) yield stress of aluminium alloys about 200 MPa",
+        ),
         crush_pressure: sourced(
-            15e6,
-            "estimate: Lamé bore hoop stress reaching about 200 MPa yield (from memory)",
+            8.8e6,
+            "estimate: buckling of the free thin-walled core (below the yield estimate)",
         ),
     },
     CorePreset {
@@ -338,10 +403,15 @@ const CORE_PRESETS: [CorePreset; 7] = [
         inside_diameter: sourced(3.0 * INCH, "common practice: 3 in bore"),
         outside_diameter: sourced(3.0 * INCH + 0.012, MEMORY),
         modulus: sourced(2.3e9, "(from memory) ABS modulus about 2–2.5 GPa"),
+        radial_modulus: sourced(2.3e9, ISOTROPIC_CORE),
         poisson_ratio: sourced(0.35, MEMORY),
+        compressive_strength: sourced(
+            24e6,
+            "(from memory) about half the compressive strength of ABS (~50 MPa), allowing for creep",
+        ),
         crush_pressure: sourced(
-            3e6,
-            "estimate: Lamé bore stress well below ABS compressive strength, allowing for creep (from memory)",
+            1.8e6,
+            "estimate: buckling of the free core (below the wall-stress estimate)",
         ),
     },
 ];
@@ -352,8 +422,32 @@ pub const DEFAULT_SPEED: Sourced =
 /// Web width used when a case gives none (m). Stresses are per unit width, so it only scales
 /// totals (forces, torques).
 pub const DEFAULT_WIDTH: Sourced = sourced(1.0, "default: results are per unit width");
+/// Nip load above which the nip-induced tension is held (N/m).
+pub const DEFAULT_NIP_PLATEAU: Sourced = sourced(
+    crate::model::winder::NIP_MODEL_LIMIT,
+    "common practice: μ·N is a good estimate up to about 10 pli (2 kN/m), where measured nip-induced tension levels off (PFFC Web Lines; Good and co-workers)",
+);
+/// Drum diameter of a two-drum winder when a case gives none (m).
+pub const DEFAULT_DRUM_DIAMETER: Sourced = sourced(
+    0.5,
+    "(from memory) a common two-drum winder drum size, about 20 in",
+);
 /// Finished roll diameter used when a case gives neither diameter nor length (m).
 pub const DEFAULT_ROLL_DIAMETER: Sourced = sourced(1.0, "common practice: a 1 m finished roll");
+
+impl CorePreset {
+    /// The preset as a hollow tube (orthotropic where the moduli differ) in the given support.
+    pub fn tube(&self, support: crate::model::CoreSupport) -> crate::model::CoreStiffness {
+        crate::model::CoreStiffness::Tube {
+            inner_radius: self.inside_diameter.value / 2.0,
+            outer_radius: self.outside_diameter.value / 2.0,
+            hoop_modulus: self.modulus.value,
+            radial_modulus: self.radial_modulus.value,
+            poisson_ratio: self.poisson_ratio.value,
+            support,
+        }
+    }
+}
 
 /// All web presets.
 pub fn web_presets() -> &'static [WebPreset] {
@@ -451,6 +545,8 @@ mod tests {
                 p.k2,
                 p.poisson_ratio,
                 p.friction,
+                p.kinetic_friction,
+                p.density,
                 p.roughness,
                 p.strength,
                 p.typical_tension,
@@ -458,6 +554,9 @@ mod tests {
                 assert!(s.value.is_finite() && s.value > 0.0, "{}", p.id);
                 assert!(!s.source.trim().is_empty(), "{}", p.id);
             }
+            // Kinetic friction is below static (Good, Hartwig & Markum 1999 for newsprint;
+            // ASTM D1894 film data).
+            assert!(p.kinetic_friction.value <= p.friction.value, "{}", p.id);
             // Common practice: winding tension stays well under the web's strength.
             assert!(p.typical_tension.value < 0.3 * p.strength.value, "{}", p.id);
         }
@@ -467,9 +566,39 @@ mod tests {
                 "{}",
                 p.id
             );
-            for s in [p.modulus, p.poisson_ratio, p.crush_pressure] {
+            for s in [
+                p.modulus,
+                p.radial_modulus,
+                p.poisson_ratio,
+                p.compressive_strength,
+                p.crush_pressure,
+            ] {
                 assert!(s.value > 0.0 && !s.source.is_empty(), "{}", p.id);
             }
+        }
+    }
+
+    #[test]
+    fn core_crush_ratings_follow_the_crush_estimate() {
+        // The preset crush pressure is the model's own estimate from the preset's moduli and
+        // strength (orthotropic wall stress or buckling of the free core), rounded.
+        for p in core_presets() {
+            let tube = p.tube(crate::model::CoreSupport::Free);
+            let limit =
+                crate::model::core_crush::estimated_limit(&tube, p.compressive_strength.value)
+                    .unwrap();
+            let ratio = p.crush_pressure.value / limit.pressure;
+            assert!((0.95..1.05).contains(&ratio), "{}: {ratio}", p.id);
+        }
+    }
+
+    #[test]
+    fn paper_cores_are_orthotropic() {
+        for p in core_presets()
+            .iter()
+            .filter(|p| p.material == crate::vocabulary::CoreMaterial::Paper)
+        {
+            assert!(p.radial_modulus.value < 0.1 * p.modulus.value, "{}", p.id);
         }
     }
 

@@ -35,11 +35,15 @@ pub enum QuantityKind {
     Temperature,
     /// %, or a plain fraction
     Percent,
+    /// kg, g, t, lb (a roll's weight)
+    Mass,
+    /// g/m² (gsm), kg/m², lb/3000 ft², lb/3300 ft² (basis weight, grammage)
+    BasisWeight,
 }
 
 impl QuantityKind {
     /// Every kind, in a stable order.
-    pub const ALL: [QuantityKind; 8] = [
+    pub const ALL: [QuantityKind; 10] = [
         QuantityKind::Length,
         QuantityKind::ForcePerWidth,
         QuantityKind::Stress,
@@ -48,6 +52,8 @@ impl QuantityKind {
         QuantityKind::Torque,
         QuantityKind::Temperature,
         QuantityKind::Percent,
+        QuantityKind::Mass,
+        QuantityKind::BasisWeight,
     ];
 
     /// Plain-words name used in messages ("a length", "a stress or pressure").
@@ -61,6 +67,8 @@ impl QuantityKind {
             QuantityKind::Torque => "torque",
             QuantityKind::Temperature => "temperature",
             QuantityKind::Percent => "percentage",
+            QuantityKind::Mass => "weight (mass)",
+            QuantityKind::BasisWeight => "basis weight (mass per area)",
         }
     }
 
@@ -75,6 +83,8 @@ impl QuantityKind {
             QuantityKind::Torque => "N·m (N m, Nm), kN·m, lbf·ft, lbf·in",
             QuantityKind::Temperature => "°C (C, degC), K, °F (F, degF)",
             QuantityKind::Percent => "% (or a plain fraction such as 0.25)",
+            QuantityKind::Mass => "kg, g, t, lb",
+            QuantityKind::BasisWeight => "g/m2 (gsm), kg/m2, lb/3000 ft2, lb/3300 ft2",
         }
     }
 }
@@ -133,6 +143,14 @@ pub const NEWTONS_PER_METRE_PER_PLI: f64 = NEWTONS_PER_POUND_FORCE / METRES_PER_
 pub const PASCALS_PER_PSI: f64 = NEWTONS_PER_POUND_FORCE / (METRES_PER_INCH * METRES_PER_INCH);
 /// 1 ft/min = 0.00508 m/s exactly.
 pub const METRES_PER_SECOND_PER_FPM: f64 = METRES_PER_FOOT / 60.0;
+/// Avoirdupois pound, exact (NIST SP 811, Appendix B).
+pub const KILOGRAMS_PER_POUND: f64 = 0.453_592_37;
+/// One pound per 3000 ft² and per 3300 ft² (the paper trade's reams), in kg/m²:
+/// 0.45359237 kg / (3000 or 3300 × 0.09290304 m²), the foot exact (NIST SP 811).
+pub const KG_PER_M2_PER_LB_3000: f64 =
+    KILOGRAMS_PER_POUND / (3000.0 * METRES_PER_FOOT * METRES_PER_FOOT);
+pub const KG_PER_M2_PER_LB_3300: f64 =
+    KILOGRAMS_PER_POUND / (3300.0 * METRES_PER_FOOT * METRES_PER_FOOT);
 
 /// How a unit maps to the internal value: `internal = given · factor + offset`.
 struct Unit {
@@ -257,6 +275,26 @@ const UNITS: &[Unit] = &[
     },
     // Percent, returned as a fraction.
     unit(&["%", "percent", "pct"], QuantityKind::Percent, 0.01),
+    unit(&["kg", "kilogram", "kilograms"], QuantityKind::Mass, 1.0),
+    unit(&["g", "gram", "grams"], QuantityKind::Mass, 1e-3),
+    unit(&["t", "tonne", "tonnes"], QuantityKind::Mass, 1e3),
+    unit(
+        &["lb", "lbs", "pound", "pounds"],
+        QuantityKind::Mass,
+        KILOGRAMS_PER_POUND,
+    ),
+    unit(&["g/m2", "g/m²", "gsm"], QuantityKind::BasisWeight, 1e-3),
+    unit(&["kg/m2", "kg/m²"], QuantityKind::BasisWeight, 1.0),
+    unit(
+        &["lb/3000ft2", "lb/3000ft²"],
+        QuantityKind::BasisWeight,
+        KG_PER_M2_PER_LB_3000,
+    ),
+    unit(
+        &["lb/3300ft2", "lb/3300ft²"],
+        QuantityKind::BasisWeight,
+        KG_PER_M2_PER_LB_3300,
+    ),
 ];
 
 /// Normalise a unit symbol for lookup: lower case, no spaces or product separators.
@@ -479,6 +517,18 @@ fn display_unit(value: f64, kind: QuantityKind, system: UnitSystem) -> (f64, &'s
         (QuantityKind::Temperature, UnitSystem::Si) => (value, "°C"),
         (QuantityKind::Temperature, UnitSystem::Us) => (value * 1.8 + 32.0, "°F"),
         (QuantityKind::Percent, _) => (value * 100.0, "%"),
+        (QuantityKind::Mass, UnitSystem::Si) => {
+            if size == 0.0 || size >= 1.0 {
+                (value, "kg")
+            } else {
+                (value * 1e3, "g")
+            }
+        }
+        (QuantityKind::Mass, UnitSystem::Us) => (value / KILOGRAMS_PER_POUND, "lb"),
+        (QuantityKind::BasisWeight, UnitSystem::Si) => (value * 1e3, "g/m²"),
+        (QuantityKind::BasisWeight, UnitSystem::Us) => {
+            (value / KG_PER_M2_PER_LB_3000, "lb/3000 ft²")
+        }
     }
 }
 

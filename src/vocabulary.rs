@@ -150,7 +150,9 @@ impl crate::model::WindingMethod {
         use crate::model::WindingMethod;
         match word {
             "centre" | "center" => Some(WindingMethod::Centre),
+            "gap" => Some(WindingMethod::Gap),
             "surface" => Some(WindingMethod::Surface),
+            "two_drum" | "two-drum" => Some(WindingMethod::TwoDrum),
             "centre_surface" | "center_surface" | "centre-surface" | "center-surface" => {
                 Some(WindingMethod::CentreSurface)
             }

@@ -15,6 +15,7 @@
 //! limits on nesting depth (128) and alias expansion stop deep or "billion laughs" documents;
 //! duplicate keys are refused everywhere.
 
+pub mod measurements;
 pub mod registry;
 mod resolve;
 pub mod resolved;
@@ -25,10 +26,11 @@ pub mod yaml_guard;
 pub use registry::MAX_LAYERS;
 pub use resolved::{
     AssumedValue, ResolvedCase, ResolvedCore, ResolvedRoll, ResolvedWeb, ResolvedWinding,
+    ValueOrigin,
 };
 pub use schema::{
-    Case, CoreInput, ObservedSymptom, QuantityText, RadialStiffnessInput, RollInput, StepInput,
-    TaperInput, UpsetInput, WebInput, WindingInput,
+    Case, CoreInput, DrumsInput, NipPointInput, ObservedSymptom, QuantityText,
+    RadialStiffnessInput, RollInput, StepInput, TaperInput, UpsetInput, WebInput, WindingInput,
 };
 pub use starter::starter_yaml;
 
@@ -210,6 +212,8 @@ impl Case {
         resolve::Resolver {
             origin: origin.to_string(),
             assumed: Vec::new(),
+            named_web: None,
+            named_core: None,
         }
         .resolve(self)
     }

@@ -21,6 +21,9 @@ pub struct ResolvedCase {
     pub answers: BTreeMap<String, String>,
     /// Values that were not given and came from a preset or default.
     pub assumed: Vec<AssumedValue>,
+    /// What was measured on the bad roll (docs/evidence.md); `None` when nothing was.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub measurements: Option<crate::evidence::Measurements>,
 }
 
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
@@ -36,7 +39,12 @@ pub struct ResolvedWeb {
     pub tangential_modulus: f64,
     pub radial_stiffness: crate::model::RadialStiffness,
     pub poisson_ratio: f64,
+    /// Static web-to-web friction (slip checks).
     pub friction: f64,
+    /// Kinetic web-to-web friction (nip-induced tension).
+    pub kinetic_friction: f64,
+    /// kg/m³
+    pub density: f64,
     /// RMS roughness of one surface, m
     pub roughness: f64,
     /// Tensile strength per width, N/m
@@ -52,8 +60,12 @@ pub struct ResolvedCore {
     /// m
     pub outside_diameter: f64,
     pub stiffness: crate::model::CoreStiffness,
-    /// Pa
+    /// Interlayer pressure on the core the core is judged to carry (Pa).
     pub crush_pressure: f64,
+    /// The state the core was judged in (and wound in).
+    pub support: crate::model::CoreSupport,
+    /// What `crush_pressure` rests on.
+    pub crush_basis: crate::model::core_crush::CrushBasis,
 }
 
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
@@ -70,6 +82,14 @@ pub struct ResolvedWinding {
     pub tension: crate::model::TensionSchedule,
     /// N/m
     pub nip_load: Option<f64>,
+    /// Nip load against radius; replaces `nip_load` where given.
+    pub nip_programme: Option<crate::model::NipProgramme>,
+    /// Knee of the nip-induced tension's levelling-off, N/m.
+    pub nip_plateau: f64,
+    /// Centre torque per width (N·m per m) of a centre-surface winder.
+    pub centre_torque: Option<f64>,
+    /// Two-drum geometry (torque differential per width).
+    pub drums: Option<crate::model::DrumSet>,
     /// m/s
     pub speed: f64,
     /// °C
@@ -79,6 +99,15 @@ pub struct ResolvedWinding {
     /// N/m: the tension this grade usually runs at (recipe value), when the case states it.
     #[serde(default)]
     pub recipe_tension: Option<f64>,
+    /// Normal stop time, s (`None`: the acceleration time, else the mechanics default).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub stop_time: Option<f64>,
+    /// Emergency stop time, s (`None`: the mechanics default).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub emergency_stop_time: Option<f64>,
+    /// Unwind tension at the customer, N/m (`None`: the tension the outside was wound at).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub unwind_tension: Option<f64>,
 }
 
 /// One value that was not in the case file.
@@ -90,6 +119,31 @@ pub struct AssumedValue {
     pub value: String,
     /// Where it came from: preset ID and the value's source note.
     pub source: String,
+    /// Whether it was left out, copied unchanged from its preset, or computed from others.
+    #[serde(default)]
+    pub origin: ValueOrigin,
+}
+
+/// How a value of [`ResolvedCase::assumed`] came about. All three are guesses of a kind: the
+/// results say how much of the answer rests on them.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Default, Serialize, Deserialize)]
+#[serde(rename_all = "snake_case")]
+pub enum ValueOrigin {
+    /// Not in the case file: taken from a preset or a fixed default.
+    #[default]
+    Default,
+    /// In the case file but equal to the named preset's (or the fixed default's) value, as
+    /// `case new` writes it: still the preset's value, not a measurement.
+    Preset,
+    /// Computed from other inputs (wound length from the diameters and the caliper, ...).
+    Computed,
+}
+
+impl AssumedValue {
+    /// True for a value the case file did not give at all (not a preset copy or computed).
+    pub fn is_default(&self) -> bool {
+        self.origin == ValueOrigin::Default
+    }
 }
 
 impl ResolvedCase {
@@ -107,12 +161,32 @@ impl ResolvedCase {
                 method: self.winding.method,
                 tension: self.winding.tension.clone(),
                 nip_load: self.winding.nip_load,
+                nip_programme: self.winding.nip_programme.clone(),
                 friction: self.web.friction,
+                kinetic_friction: Some(self.web.kinetic_friction),
                 speed: self.winding.speed,
                 // Two contacting surfaces of the same web: RMS roughnesses add in quadrature.
                 combined_roughness: self.web.roughness * std::f64::consts::SQRT_2,
+                nip_plateau_load: Some(self.winding.nip_plateau),
+                centre_torque: self.winding.centre_torque,
+                drums: self.winding.drums,
+                web_density: Some(self.web.density),
+                permeable_web: matches!(
+                    self.web.material,
+                    WebMaterial::Paper | WebMaterial::Board | WebMaterial::Nonwoven
+                ),
+                nonwoven: self.web.material == WebMaterial::Nonwoven,
             },
             options,
         }
+    }
+
+    /// Nip-induced tension (N/m) of the first wrap on the core, as the model computes it
+    /// (kinetic friction, levelling-off, drum weight share).
+    pub fn nip_induced_tension_at_core(&self) -> f64 {
+        let rc = self.core.outside_diameter / 2.0;
+        self.problem(crate::model::SolverOptions::default())
+            .winding
+            .nip_induced_tension_at(rc, rc)
     }
 }

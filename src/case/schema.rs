@@ -81,6 +81,12 @@ pub struct Case {
     pub answers: BTreeMap<String, String>,
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub notes: Option<String>,
+    /// The complaint record (docs/history.md); every field optional.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub complaint: Option<crate::complaint::Complaint>,
+    /// What was measured on the bad roll (docs/evidence.md).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub measurements: Option<super::measurements::MeasurementsInput>,
 }
 
 #[derive(Debug, Clone, PartialEq, Default, Serialize, Deserialize)]
@@ -104,6 +110,12 @@ pub struct WebInput {
     pub poisson_ratio: Option<f64>,
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub friction: Option<f64>,
+    /// Kinetic web-to-web friction (nip-induced tension); `friction` is the static one.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub kinetic_friction: Option<f64>,
+    /// Density of the web, kg/m³ (roll weight on drums, centrifugal unloading).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub density: Option<f64>,
     /// RMS roughness of one surface.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub roughness: Option<QuantityText>,
@@ -148,9 +160,21 @@ pub struct CoreInput {
     /// Measured effective core stiffness Ec, overrides modulus/geometry.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub stiffness: Option<QuantityText>,
-    /// Rated crush pressure (external radial pressure the core carries).
+    /// Supplier's radial (bladder) crush pressure.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub crush_pressure: Option<QuantityText>,
+    /// Radial (through-the-wall) modulus; `modulus` is the hoop modulus.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub radial_modulus: Option<QuantityText>,
+    /// `free` or `shaft` (on an expanding shaft).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub support: Option<String>,
+    /// Supplier's flat crush load per length of core (force per width, e.g. "40 kN/m").
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub flat_crush: Option<QuantityText>,
+    /// Hoop compressive strength of the wall, for the crush estimate.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub compressive_strength: Option<QuantityText>,
 }
 
 #[derive(Debug, Clone, PartialEq, Default, Serialize, Deserialize)]
@@ -166,7 +190,7 @@ pub struct RollInput {
 #[derive(Debug, Clone, PartialEq, Default, Serialize, Deserialize)]
 #[serde(deny_unknown_fields)]
 pub struct WindingInput {
-    /// centre, surface, centre_surface.
+    /// centre, gap, surface, two_drum, centre_surface.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub method: Option<String>,
     /// Web tension at the start of the roll (force per width).
@@ -176,6 +200,18 @@ pub struct WindingInput {
     pub taper: Option<TaperInput>,
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub nip_load: Option<QuantityText>,
+    /// Nip load against diameter; replaces `nip_load`.
+    #[serde(default, skip_serializing_if = "Vec::is_empty")]
+    pub nip_programme: Vec<NipPointInput>,
+    /// Nip load above which the nip-induced tension no longer grows.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub nip_plateau: Option<QuantityText>,
+    /// Centre torque of a centre-surface winder (whole width).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub centre_torque: Option<QuantityText>,
+    /// Drum geometry and torque differential of a two-drum winder.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub drums: Option<DrumsInput>,
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub speed: Option<QuantityText>,
     /// Bands of diameter wound at a different tension.
@@ -191,6 +227,15 @@ pub struct WindingInput {
     /// the diagnosis judges the tension against it.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub recipe_tension: Option<QuantityText>,
+    /// Time of a normal stop from line speed, seconds (slip check).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub stop_time: Option<f64>,
+    /// Time of an emergency stop from line speed, seconds (slip check).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub emergency_stop_time: Option<f64>,
+    /// Unwind tension at the customer (slip check when a full roll is braked).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub unwind_tension: Option<QuantityText>,
 }
 
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
@@ -210,6 +255,27 @@ pub struct TaperInput {
 pub struct StepInput {
     pub from_diameter: QuantityText,
     pub tension: QuantityText,
+}
+
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct NipPointInput {
+    pub diameter: QuantityText,
+    pub nip_load: QuantityText,
+}
+
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct DrumsInput {
+    /// Drum diameter.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub diameter: Option<QuantityText>,
+    /// Distance between the two drum centres.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub centre_distance: Option<QuantityText>,
+    /// Front drum torque minus the torque of the drum the web wraps (whole width).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub torque_differential: Option<QuantityText>,
 }
 
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]

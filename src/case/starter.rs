@@ -77,6 +77,8 @@ pub fn starter_yaml(web: &WebPreset, core: &CorePreset) -> String {
     for field in [
         &reg::WEB_POISSON,
         &reg::FRICTION,
+        &reg::KINETIC_FRICTION,
+        &reg::DENSITY,
         &reg::ROUGHNESS,
         &reg::STRENGTH,
     ] {
@@ -94,6 +96,7 @@ pub fn starter_yaml(web: &WebPreset, core: &CorePreset) -> String {
             out.push_str(&default_line("  ", field, web, core));
         }
     }
+    out.push_str(&choice_line("  ", &reg::CORE_SUPPORT, "free", "or"));
     out.push_str("roll:\n");
     out.push_str(&value_line(
         "  ",
@@ -113,6 +116,7 @@ pub fn starter_yaml(web: &WebPreset, core: &CorePreset) -> String {
     out.push_str(
         "  nip_load: \"0 N/m\"  # rider or lay-on roll load per width; 0 when there is none\n",
     );
+    out.push_str(&default_line("  ", &reg::NIP_PLATEAU, web, core));
     out.push_str(&default_line("  ", &reg::SPEED, web, core));
     out.push_str("  # upsets:  # bands wound at a different tension, e.g. after a splice\n");
     out.push_str(

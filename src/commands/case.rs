@@ -4,7 +4,7 @@ use std::io::Write;
 use std::path::PathBuf;
 
 use anyhow::{Context, bail};
-use rolltriage::case::{Case, ResolvedCase, starter_yaml};
+use rolltriage::case::{Case, ResolvedCase, ValueOrigin, starter_yaml};
 use rolltriage::diagnose::{self, rules::RuleBase};
 use rolltriage::presets::{self, Sourced};
 use rolltriage::units::{QuantityKind, UnitSystem, format_quantity};
@@ -159,14 +159,24 @@ fn check(args: &CheckArgs) -> anyhow::Result<()> {
             Ok(resolved) => {
                 writeln!(
                     out,
-                    "ok      {}  ({} symptom(s), {} value(s) assumed)",
+                    "ok      {}  ({} symptom(s), {} value(s) assumed{})",
                     path.display(),
                     resolved.symptoms.len(),
-                    resolved.assumed.len()
+                    resolved.assumed.iter().filter(|a| a.is_default()).count(),
+                    origin_counts(&resolved.assumed)
                 )?;
                 if args.assumed {
                     for a in &resolved.assumed {
-                        writeln!(out, "          {} = {}  [{}]", a.field, a.value, a.source)?;
+                        let how = match a.origin {
+                            ValueOrigin::Default => "",
+                            ValueOrigin::Preset => "preset value, unchanged: ",
+                            ValueOrigin::Computed => "",
+                        };
+                        writeln!(
+                            out,
+                            "          {} = {}  [{how}{}]",
+                            a.field, a.value, a.source
+                        )?;
                     }
                 }
             }
@@ -235,7 +245,9 @@ fn list_presets(args: &PresetsArgs) -> anyhow::Result<()> {
         show(&mut out, "Pfeiffer K1", p.k1, Some(QuantityKind::Stress))?;
         show(&mut out, "Pfeiffer K2", p.k2, None)?;
         show(&mut out, "Poisson ratio", p.poisson_ratio, None)?;
-        show(&mut out, "friction", p.friction, None)?;
+        show(&mut out, "static friction", p.friction, None)?;
+        show(&mut out, "kinetic friction", p.kinetic_friction, None)?;
+        show(&mut out, "density (kg/m³)", p.density, None)?;
         show(
             &mut out,
             "roughness (RMS)",
@@ -270,8 +282,25 @@ fn list_presets(args: &PresetsArgs) -> anyhow::Result<()> {
             p.outside_diameter,
             Some(QuantityKind::Length),
         )?;
-        show(&mut out, "modulus", p.modulus, Some(QuantityKind::Stress))?;
+        show(
+            &mut out,
+            "hoop modulus",
+            p.modulus,
+            Some(QuantityKind::Stress),
+        )?;
+        show(
+            &mut out,
+            "radial modulus",
+            p.radial_modulus,
+            Some(QuantityKind::Stress),
+        )?;
         show(&mut out, "Poisson ratio", p.poisson_ratio, None)?;
+        show(
+            &mut out,
+            "compressive strength",
+            p.compressive_strength,
+            Some(QuantityKind::Stress),
+        )?;
         show(
             &mut out,
             "crush pressure",
@@ -284,4 +313,25 @@ fn list_presets(args: &PresetsArgs) -> anyhow::Result<()> {
         "\nA core with `material: rigid` is infinitely stiff; `stiffness:` gives a measured Ec."
     )?;
     Ok(())
+}
+
+/// ", 14 preset value(s) unchanged, 1 computed" for the values the file gives as its preset's
+/// or that were computed from others (empty when there are none).
+fn origin_counts(assumed: &[rolltriage::case::AssumedValue]) -> String {
+    let presets = assumed
+        .iter()
+        .filter(|a| a.origin == ValueOrigin::Preset)
+        .count();
+    let computed = assumed
+        .iter()
+        .filter(|a| a.origin == ValueOrigin::Computed)
+        .count();
+    let mut out = String::new();
+    if presets > 0 {
+        out.push_str(&format!(", {presets} preset value(s) unchanged"));
+    }
+    if computed > 0 {
+        out.push_str(&format!(", {computed} computed"));
+    }
+    out
 }

@@ -36,6 +36,18 @@ pub struct DiagnoseArgs {
     /// Skip the what-if re-solves of setting changes.
     #[arg(long)]
     pub no_what_if: bool,
+    /// Also print the IDs of causes, remedies and cautions (as the rule files and JSON use them).
+    #[arg(long, short = 'v')]
+    pub verbose: bool,
+    /// Complaint history to learn from (SQLite file, postgres:// URL, or `default`): site
+    /// experience joins the ranking as its own reason and similar past complaints are listed.
+    #[arg(long = "history", value_name = "PATH|URL")]
+    pub history: Option<String>,
+    /// With --history: list similar past complaints but leave site experience out of the ranking.
+    #[arg(long, requires = "history")]
+    pub no_site_history: bool,
+    #[arg(long = "measure", value_name = "KEY=VALUE", help = super::measure::MEASURE_HELP)]
+    pub measure: Vec<String>,
 }
 
 /// The rule base: `--rules DIR` or the shipped one.
@@ -50,8 +62,9 @@ pub fn load_rules(dir: Option<&PathBuf>) -> anyhow::Result<RuleBase> {
 
 pub fn run(args: &DiagnoseArgs) -> anyhow::Result<()> {
     let rules = load_rules(args.rules.as_ref())?;
-    let case =
+    let mut case =
         Case::load(&args.case).with_context(|| format!("reading {}", args.case.display()))?;
+    super::measure::apply_measure_args(&mut case, &args.measure)?;
     let mut resolved = case
         .resolve()
         .with_context(|| format!("resolving {}", args.case.display()))?;
@@ -81,7 +94,8 @@ pub fn run(args: &DiagnoseArgs) -> anyhow::Result<()> {
         );
     }
     let options = DiagnoseOptions {
-        top: args.top,
+        // With a history, all causes are ranked first: site experience may lift one into the top.
+        top: if args.history.is_some() { 0 } else { args.top },
         what_if: !args.no_what_if,
         ..DiagnoseOptions::default()
     };
@@ -95,12 +109,19 @@ pub fn run(args: &DiagnoseArgs) -> anyhow::Result<()> {
     // A non-finite pressure would silently drop its evidence from the ranking.
     let what = format!("the stress profile of {}", args.case.display());
     rolltriage::finite::ensure_finite(&what, &triage.profile)?;
-    let diagnosis = triage.diagnosis.with_context(context)?;
+    let mut diagnosis = triage.diagnosis.with_context(context)?;
+    let mut past = String::new();
+    if let Some(place) = &args.history {
+        let site = super::history::SiteView::new(place, !args.no_site_history, args.top);
+        (diagnosis, past) = site.apply(&rules, &case, &resolved, diagnosis)?;
+    }
     let what = format!("the diagnosis of {}", args.case.display());
     rolltriage::finite::ensure_finite(&what, &diagnosis)?;
     let text = match args.format {
-        Format::Text => diagnose::render::render_text(&resolved.title, &diagnosis),
-        Format::Markdown => diagnose::render::render_markdown(&resolved.title, &diagnosis),
+        Format::Text => {
+            diagnose::render::render_text(&resolved.title, &diagnosis, args.verbose) + &past
+        }
+        Format::Markdown => diagnose::render::render_markdown(&resolved.title, &diagnosis) + &past,
         Format::Json => serde_json::to_string_pretty(&diagnosis)? + "\n",
     };
     super::output::write_stdout(&text)

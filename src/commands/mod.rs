@@ -5,6 +5,8 @@ pub mod arg_check;
 pub mod calibrate;
 pub mod case;
 pub mod diagnose;
+pub mod history;
+pub mod measure;
 pub mod output;
 pub mod progress;
 pub mod report;

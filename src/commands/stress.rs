@@ -173,7 +173,8 @@ pub fn run(args: &StressArgs) -> anyhow::Result<()> {
     };
     let text = match args.format {
         Format::Table => {
-            let mut t = summary_table(&resolved.title, &problem, &profile, system);
+            let mechanics = rolltriage::mechanics::MechanicsInputs::from_case(&resolved);
+            let mut t = summary_table(&resolved.title, &problem, &profile, &mechanics, system);
             if !resolved.assumed.is_empty() {
                 t.push_str("\nAssumed (not in the case file):\n");
                 for a in &resolved.assumed {
@@ -217,6 +218,7 @@ pub fn summary_table(
     title: &str,
     problem: &model::WindingProblem,
     profile: &Profile,
+    mechanics: &rolltriage::mechanics::MechanicsInputs,
     system: UnitSystem,
 ) -> String {
     let s = &profile.summary;
@@ -299,6 +301,7 @@ pub fn summary_table(
         ),
     ];
     let mut rows = rows;
+    rows.extend(mechanism_rows(profile, mechanics, system));
     if let Some(change) = solver.group_halving_change {
         rows.push((
             "Core pressure change, elements halved",
@@ -309,13 +312,15 @@ pub fn summary_table(
         rows.push((
             "Entrained air film (Knox & Sweeney)",
             format!(
-                "{} at the core, {} at the outside ({:.2} / {:.2} × roughness){}",
+                "{} at the core, {} at the outside ({:.2} / {:.2} × roughness, {:.0} % of the \
+                 friction left at the outside){}",
                 length(start.thickness, system),
                 length(end.thickness, system),
                 start.ratio_to_roughness,
                 end.ratio_to_roughness,
-                if start.suppressed_by_nip {
-                    ", suppressed by the nip"
+                100.0 * end.traction,
+                if end.reduced_by_nip {
+                    ", reduced by the nip"
                 } else {
                     ""
                 }
@@ -371,6 +376,46 @@ pub fn summary_table(
         }
     }
     t
+}
+
+/// The failure mechanisms' smallest margins and where (docs/theory.md §5), the same functions
+/// the diagnosis and taper design read.
+fn mechanism_rows(
+    profile: &Profile,
+    inputs: &rolltriage::mechanics::MechanicsInputs,
+    system: UnitSystem,
+) -> Vec<(&'static str, String)> {
+    use rolltriage::mechanics::{telescoping, torque};
+    let telescoping = telescoping::handling_margins(profile, inputs);
+    let torque = torque::torque_check(profile, inputs);
+    vec![
+        (
+            "Telescoping margin (lifted by its core)",
+            format!(
+                "{:.2} at {} (friction / handling shear, shock factor {}; below 1 = layers slide)",
+                telescoping.min_margin,
+                diameter_at(telescoping.min_radius, system),
+                inputs.events.shock_factor
+            ),
+        ),
+        (
+            "Slip margin (start, stops, unwind)",
+            format!(
+                "{:.2} at {} in the {} (below 1 = layers slip)",
+                torque.min_margin,
+                diameter_at(torque.min_radius, system),
+                torque.worst_event.title()
+            ),
+        ),
+        (
+            "Core slip margin",
+            format!(
+                "{:.2} in the {}",
+                torque.core_margin,
+                torque.core_event.title()
+            ),
+        ),
+    ]
 }
 
 /// The full profile as CSV, one row per node.

@@ -85,13 +85,26 @@ pub const INPUT_INDICATORS: &[&str] = &[
     "build_ratio",
 ];
 
+/// The indicators that come from measurements (src/evidence), not from the solve.
+pub const EVIDENCE_IDS: &[&str] = &[
+    "measured_density_ratio",
+    "density_deviation",
+    "hardness_shape_agreement",
+    "hardness_soft_band",
+    "lane_hardness_spread",
+    "end_line_offset",
+    "end_line_bend_position",
+    "slip_location_match",
+    "core_bore_ratio",
+    "bad_roll_share",
+    "bad_edge_share",
+    "bad_parent_share",
+];
+
 /// Pressure below which a layer counts as loosely held (20 kPa ≈ 3 psi): an order of magnitude
 /// for the interlayer pressure below which layers slide under handling loads — `common practice`,
 /// value `(from memory)`.
 pub const LOW_PRESSURE_LIMIT: f64 = 20.0e3;
-
-/// Dynamic viscosity of air at room temperature, Pa·s (handbook value).
-const AIR_VISCOSITY: f64 = 1.8e-5;
 
 /// Every indicator the rules may test.
 pub const INDICATORS: &[IndicatorSpec] = &[
@@ -335,6 +348,79 @@ pub const INDICATORS: &[IndicatorSpec] = &[
         ZoneUse::None,
         "web-to-web friction coefficient",
     ),
+    // Measured evidence (src/evidence): present only when the case carries the measurement.
+    spec(
+        "measured_density_ratio",
+        Dimension::Ratio,
+        ZoneUse::None,
+        "wound density measured (length or weight and diameter) divided by the computed one (below 1 = looser than the settings give)",
+    ),
+    spec(
+        "density_deviation",
+        Dimension::Ratio,
+        ZoneUse::None,
+        "measured minus computed mean radial compression in standard uncertainties of the measurement (below −2 = clearly looser than the settings give, above 2 = clearly denser)",
+    ),
+    spec(
+        "hardness_shape_agreement",
+        Dimension::Ratio,
+        ZoneUse::None,
+        "rank correlation of the hardness readings along the radius with the computed pressure (1 = same shape, 0 = none)",
+    ),
+    spec(
+        "hardness_soft_band",
+        Dimension::Fraction,
+        ZoneUse::None,
+        "deepest dip in the hardness readings the computed pressure does not have, as a share of the readings' range",
+    ),
+    spec(
+        "lane_hardness_spread",
+        Dimension::Fraction,
+        ZoneUse::None,
+        "hardness spread across the width (hardest minus softest lane over the mean); the model cannot compute it",
+    ),
+    spec(
+        "end_line_offset",
+        Dimension::Length,
+        ZoneUse::None,
+        "largest sideways offset of a straight line drawn on the roll end (0 = stayed straight)",
+    ),
+    spec(
+        "end_line_bend_position",
+        Dimension::Fraction,
+        ZoneUse::None,
+        "where the line on the roll end bends, as a share of the build from the core (middle of the bend)",
+    ),
+    spec(
+        "slip_location_match",
+        Dimension::Ratio,
+        ZoneUse::None,
+        "1 when the line on the roll end bends where the computed friction torque capacity is lowest, 0 when not",
+    ),
+    spec(
+        "core_bore_ratio",
+        Dimension::Ratio,
+        ZoneUse::None,
+        "measured closing of the core bore divided by the computed elastic closing under the core pressure",
+    ),
+    spec(
+        "bad_roll_share",
+        Dimension::Fraction,
+        ZoneUse::None,
+        "share of the rolls in the set that are bad",
+    ),
+    spec(
+        "bad_edge_share",
+        Dimension::Fraction,
+        ZoneUse::None,
+        "share of the bad rolls that sat at the two edge positions of the set",
+    ),
+    spec(
+        "bad_parent_share",
+        Dimension::Fraction,
+        ZoneUse::None,
+        "share of the parent rolls looked at that gave bad rolls",
+    ),
 ];
 
 const fn spec(
@@ -421,12 +507,28 @@ fn sig(value: f64) -> String {
 #[derive(Debug, Clone, PartialEq, Default)]
 pub struct Indicators {
     values: BTreeMap<(String, Option<ZoneName>), f64>,
+    /// Measured and computed values in words, for the measured-evidence indicators.
+    details: BTreeMap<String, String>,
 }
 
 impl Indicators {
     /// The value of `id` in `zone` (or for the whole roll), if it could be computed.
     pub fn get(&self, id: &str, zone: Option<ZoneName>) -> Option<f64> {
         self.values.get(&(id.to_string(), zone)).copied()
+    }
+
+    /// The measured and computed values behind an evidence indicator, in words.
+    pub fn detail(&self, id: &str) -> Option<&str> {
+        self.details.get(id).map(String::as_str)
+    }
+
+    /// Add the measured-evidence indicators (none when nothing was measured: rules testing
+    /// them stay neutral).
+    pub fn add_evidence(&mut self, evidence: &crate::evidence::Evidence) {
+        for e in evidence.indicators() {
+            self.set(e.id, None, e.value);
+            self.details.insert(e.id.to_string(), e.detail);
+        }
     }
 
     fn set(&mut self, id: &'static str, zone: Option<ZoneName>, value: f64) {
@@ -452,12 +554,38 @@ impl Indicators {
             .collect()
     }
 
-    /// Compute every indicator of `profile` for `case`.
+    /// Compute every indicator of `profile` for `case`, with the measured evidence when the case
+    /// carries measurements (a measurement that cannot be compared is left out: neutral).
     pub fn compute(case: &ResolvedCase, profile: &Profile) -> Indicators {
         let mut out = Indicators::default();
         out.add_case_inputs(case);
         out.add_profile(case, profile);
+        if let Some(m) = &case.measurements
+            && let Ok(evidence) = crate::evidence::compare(
+                m,
+                &case.problem(crate::model::SolverOptions::default()),
+                profile,
+            )
+        {
+            out.add_evidence(&evidence);
+        }
         out
+    }
+
+    /// These indicators with the measured evidence of `other` in place of their own: a what-if
+    /// re-solve changes the settings, not what was measured on the roll, so the evidence stays
+    /// as measured against the case as wound.
+    pub fn with_evidence_of(mut self, other: &Indicators) -> Indicators {
+        let evidence = |id: &str| EVIDENCE_IDS.contains(&id);
+        self.values.retain(|(id, _), _| !evidence(id));
+        self.details.clear();
+        for ((id, zone), value) in &other.values {
+            if evidence(id) {
+                self.values.insert((id.clone(), *zone), *value);
+            }
+        }
+        self.details = other.details.clone();
+        self
     }
 
     fn add_case_inputs(&mut self, case: &ResolvedCase) {
@@ -491,8 +619,9 @@ impl Indicators {
         if tension > 0.0 {
             self.set("nip_to_tension", None, nip / tension);
         }
-        // Wound-in tension from the nip ≈ μ·N on top of the web tension (Good, Wu & Fikes 1994).
-        let nip_part = case.web.friction * nip;
+        // Wound-in tension from the nip: μk·N with its levelling-off, as the model computes it
+        // (Good, Wu & Fikes 1994; Good, Hartwig & Markum 1999).
+        let nip_part = case.nip_induced_tension_at_core();
         if tension + nip_part > 0.0 {
             self.set("nip_wit_share", None, nip_part / (tension + nip_part));
         }
@@ -668,8 +797,10 @@ impl Indicators {
         // Torques: steady tension torque (centre winding) plus the torque to accelerate the roll.
         let outer_tension = tension_at(case, outer_r);
         let tension_torque = match case.winding.method {
-            WindingMethod::Surface => 0.0,
-            WindingMethod::Centre | WindingMethod::CentreSurface => outer_tension * outer_r,
+            WindingMethod::Surface | WindingMethod::TwoDrum => 0.0,
+            WindingMethod::Centre | WindingMethod::Gap | WindingMethod::CentreSurface => {
+                outer_tension * outer_r
+            }
         };
         let acceleration_torque = acceleration_torque_per_width(case, core_r, outer_r);
         if tension_torque > 0.0 {
@@ -690,16 +821,9 @@ impl Indicators {
 
         // Air film: the solver's estimate when present, otherwise the foil-bearing estimate.
         let ratio = match &profile.air_film {
-            Some((start, outside)) => [start, outside]
-                .iter()
-                .map(|f| {
-                    if f.suppressed_by_nip {
-                        0.0
-                    } else {
-                        f.ratio_to_roughness
-                    }
-                })
-                .fold(0.0, f64::max),
+            // The film as wound (after the nip where there is one): the same figure the
+            // reports print.
+            Some((start, outside)) => start.ratio_to_roughness.max(outside.ratio_to_roughness),
             None => foil_bearing_ratio(case, outer_r),
         };
         self.set("air_film_ratio", None, ratio);
@@ -749,16 +873,13 @@ fn acceleration_torque_per_width(case: &ResolvedCase, core_r: f64, outer_r: f64)
 /// combined roughness. Knox & Sweeney (1971): h0 = 0.643·R·(12·μ·V/T)^(2/3). With a nip the
 /// film is taken as squeezed out.
 fn foil_bearing_ratio(case: &ResolvedCase, outer_r: f64) -> f64 {
-    if case.winding.nip_load.is_some_and(|n| n > 0.0) {
-        return 0.0;
-    }
     let t = tension_at(case, outer_r);
     let roughness = case.web.roughness * std::f64::consts::SQRT_2;
     if t <= 0.0 || roughness <= 0.0 {
         return 0.0;
     }
-    let h0 = 0.643 * outer_r * (12.0 * AIR_VISCOSITY * case.winding.speed / t).powf(2.0 / 3.0);
-    h0 / roughness
+    let nip = case.winding.nip_load.is_some_and(|n| n > 0.0);
+    crate::model::air::film_at(outer_r, case.winding.speed, t, roughness, nip).ratio_to_roughness
 }
 
 /// Radial extent each node represents inside `[start, end)` (trapezoid weights).

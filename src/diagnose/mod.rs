@@ -26,6 +26,67 @@ pub struct Diagnosis {
     pub cautions: Vec<Caution>,
     /// Every indicator value computed for this case.
     pub indicators: Vec<indicators::IndicatorValue>,
+    /// What was measured on the roll against what was computed (docs/evidence.md); absent
+    /// when nothing was measured.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub evidence: Option<crate::evidence::Evidence>,
+}
+
+/// Remedy groups in words: the one name each group has in the CLI, the UI and reports.
+pub const GROUP_TITLES: [(&str, &str); 5] = [
+    ("winder_setting", "Winder settings"),
+    ("equipment", "Equipment"),
+    ("material_or_core", "Material and core"),
+    ("handling_and_storage", "Handling and storage"),
+    ("process_upstream", "Upstream process"),
+];
+
+/// The plain-words name of a remedy group (an unknown group shows its ID with spaces).
+pub fn group_title(group: &str) -> String {
+    GROUP_TITLES
+        .iter()
+        .find(|(g, _)| *g == group)
+        .map(|(_, t)| (*t).to_string())
+        .unwrap_or_else(|| group.replace('_', " "))
+}
+
+impl Diagnosis {
+    /// The title of a ranked cause, or its ID in words when it is not ranked.
+    pub fn cause_title(&self, id: &str) -> String {
+        self.causes
+            .iter()
+            .find(|c| c.id == id)
+            .map(|c| c.title.clone())
+            .unwrap_or_else(|| id.replace('_', " "))
+    }
+
+    /// "Web tension too low; Slippery web" — the causes a remedy answers, in words.
+    pub fn answers_text(&self, remedy: &MergedRemedy) -> String {
+        remedy
+            .answers
+            .iter()
+            .map(|id| self.cause_title(id))
+            .collect::<Vec<_>>()
+            .join("; ")
+    }
+
+    /// The cautions of one remedy, in full.
+    pub fn cautions_of<'a>(
+        &'a self,
+        remedy: &'a MergedRemedy,
+    ) -> impl Iterator<Item = &'a Caution> {
+        self.cautions
+            .iter()
+            .filter(|c| remedy.cautions.contains(&c.id))
+    }
+
+    /// The titles of one remedy's cautions, joined.
+    pub fn caution_titles(&self, remedy: &MergedRemedy) -> String {
+        self.cautions_of(remedy)
+            .map(|c| c.title.clone())
+            .collect::<Vec<_>>()
+            .join(", ")
+    }
 }
 
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
@@ -104,6 +165,9 @@ pub enum DiagnoseError {
     /// The case's inputs could not be resolved (boxed: a case error carries file and field).
     #[error(transparent)]
     Case(Box<crate::case::CaseError>),
+    /// The measurements could not be compared with the profile (names the field).
+    #[error("measurements: {0}")]
+    Evidence(#[from] crate::evidence::EvidenceError),
     #[error("symptoms: unknown symptom `{id}`{}", did_you_mean(suggestion))]
     UnknownSymptom {
         id: String,

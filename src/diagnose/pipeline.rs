@@ -139,6 +139,7 @@ pub fn diagnose_solved(
     // A remedy the re-solve shows making the physics worse is kept (with its warning) but tried
     // last; the sort is stable so the order among the others stands.
     remedies.sort_by_key(|r| r.what_if.as_ref().is_some_and(|w| w.worse));
+    remedies::group_in_order(&mut remedies);
     let cautions = rules
         .cautions
         .iter()
@@ -149,11 +150,20 @@ pub fn diagnose_solved(
             text: c.text.clone(),
         })
         .collect();
+    let evidence = match case.measurements.as_ref().filter(|m| !m.is_empty()) {
+        Some(m) => Some(crate::evidence::compare(
+            m,
+            &case.problem(options.solver),
+            profile,
+        )?),
+        None => None,
+    };
     Ok(Diagnosis {
         causes,
         remedies,
         cautions,
         indicators: indicators.values(),
+        evidence,
     })
 }
 
@@ -194,7 +204,11 @@ impl WhatIfContext<'_> {
         let solved: Vec<Result<indicators::Indicators, ModelError>> = distinct
             .iter()
             .zip(solved)
-            .map(|(c, s)| s.map(|p| indicators::Indicators::compute(c, &p)))
+            .map(|(c, s)| {
+                s.map(|p| {
+                    indicators::Indicators::compute(c, &p).with_evidence_of(self.before.indicators)
+                })
+            })
             .collect();
         let unchanged = indicators::Indicators::default();
         let mut after = Vec::with_capacity(remedies.len());
@@ -213,6 +227,7 @@ impl WhatIfContext<'_> {
                             .map(|r| {
                                 let c = what_if::apply_changes(self.before.case, &r.changes);
                                 indicators::Indicators::compute(&c, self.profile)
+                                    .with_evidence_of(self.before.indicators)
                             }),
                     );
                 }

@@ -63,9 +63,14 @@ pub fn evaluate(
                 Comparison::Above => ">",
                 Comparison::Below => "<",
             };
+            // Measured evidence quotes the measurement and the computed value side by side.
+            let shown = match indicators.detail(id) {
+                Some(detail) => format!("{} ({detail})", format_value(value, *dimension)),
+                None => format_value(value, *dimension),
+            };
             Some((
                 holds,
-                Some(format_value(value, *dimension)),
+                Some(shown),
                 Some(format!("{sign} {}", format_value(*threshold, *dimension))),
             ))
         }
@@ -86,10 +91,14 @@ pub fn evaluate(
             Some(format!("= {}", ids(values))),
         )),
         Test::Method(values) => {
-            let method = case.winding.method.id();
+            // A rule may name the winder type or its family: a gap winder is centre-driven,
+            // two drums are a surface winder.
+            let method = case.winding.method;
             Some((
-                values.iter().any(|v| v == method),
-                Some(method.to_string()),
+                values
+                    .iter()
+                    .any(|v| v == method.id() || v == method.family()),
+                Some(method.id().to_string()),
                 Some(format!("= {}", values.join(" or "))),
             ))
         }

@@ -201,3 +201,37 @@ fn test_holds(test: &Test, indicators: &Indicators) -> bool {
         Comparison::Below => v < *threshold,
     })
 }
+
+/// Keep the list in the order to try but gather each group together, the groups in the order
+/// their first remedy comes: the one order the CLI, the UI and reports all show, each group
+/// named once. The sort is stable, so within a group the order to try stands. Remedies the
+/// what-if shows making things worse stay after all the others (see [`heading`]).
+pub fn group_in_order(remedies: &mut [MergedRemedy]) {
+    let mut groups: Vec<String> = Vec::new();
+    for r in remedies.iter() {
+        if !groups.contains(&r.group) {
+            groups.push(r.group.clone());
+        }
+    }
+    remedies.sort_by_key(|r| (is_worse(r), groups.iter().position(|g| *g == r.group)));
+}
+
+fn is_worse(r: &MergedRemedy) -> bool {
+    r.what_if.as_ref().is_some_and(|w| w.worse)
+}
+
+/// The heading to print before `remedies[index]`, if it starts a new group: the group's name,
+/// or "Predicted to make it worse — try last" for the first of those.
+pub fn heading(remedies: &[MergedRemedy], index: usize) -> Option<String> {
+    let r = remedies.get(index)?;
+    let title = if is_worse(r) {
+        "Predicted to make it worse — try last".to_string()
+    } else {
+        super::group_title(&r.group)
+    };
+    let new = match index.checked_sub(1).and_then(|i| remedies.get(i)) {
+        None => true,
+        Some(prev) => (is_worse(prev) != is_worse(r)) || (!is_worse(r) && prev.group != r.group),
+    };
+    new.then_some(title)
+}

@@ -5,35 +5,11 @@ use std::fmt::Write;
 
 use super::Diagnosis;
 
-const GROUP_TITLES: [(&str, &str); 5] = [
-    ("winder_setting", "Winder settings"),
-    ("equipment", "Equipment"),
-    ("material_or_core", "Material or core"),
-    ("handling_and_storage", "Handling and storage"),
-    ("process_upstream", "Upstream process"),
-];
-
-fn group_title(group: &str) -> &str {
-    GROUP_TITLES
-        .iter()
-        .find(|(g, _)| *g == group)
-        .map(|(_, t)| *t)
-        .unwrap_or(group)
-}
-
-/// Groups in the order their first remedy appears (the list is already in the order to try).
-fn groups_in_order(diagnosis: &Diagnosis) -> Vec<&str> {
-    let mut out: Vec<&str> = Vec::new();
-    for r in &diagnosis.remedies {
-        if !out.contains(&r.group.as_str()) {
-            out.push(&r.group);
-        }
-    }
-    out
-}
+use super::remedies::heading;
 
 fn reason_line(r: &super::Reason) -> String {
-    if r.test == "prior" {
+    // The prior and site history are reasons without an indicator test: their text says it all.
+    if r.test == "prior" || r.test == "site_history" {
         return format!("{:+.2}  [{}] {}", r.weight, r.symptom, r.text);
     }
     let zone = r
@@ -50,7 +26,8 @@ fn reason_line(r: &super::Reason) -> String {
 }
 
 /// Plain text for the terminal.
-pub fn render_text(title: &str, diagnosis: &Diagnosis) -> String {
+/// Plain text for the terminal; `verbose` adds the IDs of causes, remedies and cautions.
+pub fn render_text(title: &str, diagnosis: &Diagnosis, verbose: bool) -> String {
     let mut out = String::new();
     let _ = writeln!(out, "Diagnosis: {title}\n");
     if diagnosis.causes.is_empty() {
@@ -60,44 +37,57 @@ pub fn render_text(title: &str, diagnosis: &Diagnosis) -> String {
         );
     }
     for (i, c) in diagnosis.causes.iter().enumerate() {
-        let _ = writeln!(
-            out,
-            "{}. {} ({}) — belief {:.2}",
-            i + 1,
-            c.title,
-            c.id,
-            c.belief
-        );
+        let id = if verbose {
+            format!(" ({})", c.id)
+        } else {
+            String::new()
+        };
+        let _ = writeln!(out, "{}. {}{id} — belief {:.2}", i + 1, c.title, c.belief);
         let _ = writeln!(out, "   {}", c.mechanism);
         for r in &c.reasons {
             let _ = writeln!(out, "     {}", reason_line(r));
         }
         out.push('\n');
     }
+    if let Some(evidence) = diagnosis.evidence.as_ref().filter(|e| !e.is_empty()) {
+        let _ = writeln!(out, "Measured on the roll, against the model");
+        for line in evidence.lines() {
+            let _ = writeln!(out, "  {line}");
+        }
+        out.push('\n');
+    }
     if !diagnosis.remedies.is_empty() {
         let _ = writeln!(out, "Remedies (in the order to try)");
-        for group in groups_in_order(diagnosis) {
-            let _ = writeln!(out, "  {}", group_title(group));
-            for r in diagnosis.remedies.iter().filter(|r| r.group == group) {
-                let _ = writeln!(out, "  - {} [{}; cost {}]", r.text, r.id, r.cost);
-                let _ = writeln!(out, "      answers: {}", r.answers.join(", "));
-                if !r.cautions.is_empty() {
-                    let _ = writeln!(out, "      cautions: {}", r.cautions.join(", "));
-                }
-                if let Some(w) = r.what_if.as_ref().filter(|w| w.indicator.is_empty()) {
-                    let _ = writeln!(out, "      what-if: {}", w.note);
-                } else if let Some(w) = &r.what_if {
-                    let flag = if w.worse {
-                        "  WARNING: makes it worse"
-                    } else {
-                        ""
-                    };
-                    let _ = writeln!(
-                        out,
-                        "      what-if: {} {} → {}{flag} ({})",
-                        w.indicator, w.before, w.after, w.note
-                    );
-                }
+        for (i, r) in diagnosis.remedies.iter().enumerate() {
+            if let Some(h) = heading(&diagnosis.remedies, i) {
+                let _ = writeln!(out, "  {h}");
+            }
+            let id = if verbose {
+                format!("{}; ", r.id)
+            } else {
+                String::new()
+            };
+            let _ = writeln!(out, "  {}. {} [{id}cost {}]", i + 1, r.text, r.cost);
+            let _ = writeln!(out, "      answers: {}", diagnosis.answers_text(r));
+            for c in diagnosis.cautions_of(r) {
+                let _ = writeln!(out, "      ! caution, {}: {}", c.title, c.text);
+            }
+            if let Some(w) = r.what_if.as_ref().filter(|w| w.indicator.is_empty()) {
+                let _ = writeln!(out, "      what-if: {}", w.note);
+            } else if let Some(w) = &r.what_if {
+                let flag = if w.worse {
+                    "  WARNING: makes it worse"
+                } else {
+                    ""
+                };
+                let _ = writeln!(
+                    out,
+                    "      what-if: {} {} → {}{flag} ({})",
+                    w.indicator.replace('_', " "),
+                    w.before,
+                    w.after,
+                    w.note
+                );
             }
         }
         out.push('\n');
@@ -105,7 +95,11 @@ pub fn render_text(title: &str, diagnosis: &Diagnosis) -> String {
     if !diagnosis.cautions.is_empty() {
         let _ = writeln!(out, "Cautions");
         for c in &diagnosis.cautions {
-            let _ = writeln!(out, "  ! {} [{}]: {}", c.title, c.id, c.text);
+            if verbose {
+                let _ = writeln!(out, "  ! {} [{}]: {}", c.title, c.id, c.text);
+            } else {
+                let _ = writeln!(out, "  ! {}: {}", c.title, c.text);
+            }
         }
     }
     out
@@ -120,14 +114,7 @@ pub fn render_markdown(title: &str, diagnosis: &Diagnosis) -> String {
         let _ = writeln!(out, "No cause reached positive belief.\n");
     }
     for (i, c) in diagnosis.causes.iter().enumerate() {
-        let _ = writeln!(
-            out,
-            "### {}. {} (`{}`) — belief {:.2}\n",
-            i + 1,
-            c.title,
-            c.id,
-            c.belief
-        );
+        let _ = writeln!(out, "### {}. {} — belief {:.2}\n", i + 1, c.title, c.belief);
         let _ = writeln!(out, "{}\n", c.mechanism);
         let _ = writeln!(
             out,
@@ -151,36 +138,42 @@ pub fn render_markdown(title: &str, diagnosis: &Diagnosis) -> String {
     }
     if !diagnosis.remedies.is_empty() {
         let _ = writeln!(out, "## Remedies (in the order to try)\n");
-        for group in groups_in_order(diagnosis) {
-            let _ = writeln!(out, "### {}\n", group_title(group));
-            for r in diagnosis.remedies.iter().filter(|r| r.group == group) {
-                let _ = writeln!(out, "- **{}** (`{}`, cost {})", r.text, r.id, r.cost);
-                let _ = writeln!(out, "  - answers: {}", r.answers.join(", "));
-                if !r.cautions.is_empty() {
-                    let _ = writeln!(out, "  - cautions: {}", r.cautions.join(", "));
+        for (i, r) in diagnosis.remedies.iter().enumerate() {
+            if let Some(h) = heading(&diagnosis.remedies, i) {
+                if i > 0 {
+                    out.push('\n');
                 }
-                if let Some(w) = r.what_if.as_ref().filter(|w| w.indicator.is_empty()) {
-                    let _ = writeln!(out, "  - what-if: {}", w.note);
-                } else if let Some(w) = &r.what_if {
-                    let flag = if w.worse {
-                        " — **warning: makes it worse**"
-                    } else {
-                        ""
-                    };
-                    let _ = writeln!(
-                        out,
-                        "  - what-if: {} {} → {}{flag} ({})",
-                        w.indicator, w.before, w.after, w.note
-                    );
-                }
+                let _ = writeln!(out, "### {h}\n");
             }
-            out.push('\n');
+            let _ = writeln!(out, "{}. **{}** (cost {})", i + 1, r.text, r.cost);
+            let _ = writeln!(out, "   - answers: {}", diagnosis.answers_text(r));
+            for c in diagnosis.cautions_of(r) {
+                let _ = writeln!(out, "   - ⚠ caution, {}: {}", c.title, c.text);
+            }
+            if let Some(w) = r.what_if.as_ref().filter(|w| w.indicator.is_empty()) {
+                let _ = writeln!(out, "   - what-if: {}", w.note);
+            } else if let Some(w) = &r.what_if {
+                let flag = if w.worse {
+                    " — **warning: makes it worse**"
+                } else {
+                    ""
+                };
+                let _ = writeln!(
+                    out,
+                    "   - what-if: {} {} → {}{flag} ({})",
+                    w.indicator.replace('_', " "),
+                    w.before,
+                    w.after,
+                    w.note
+                );
+            }
         }
+        out.push('\n');
     }
     if !diagnosis.cautions.is_empty() {
         let _ = writeln!(out, "## Cautions\n");
         for c in &diagnosis.cautions {
-            let _ = writeln!(out, "- **{}** (`{}`): {}", c.title, c.id, c.text);
+            let _ = writeln!(out, "- **{}**: {}", c.title, c.text);
         }
         out.push('\n');
     }

@@ -32,8 +32,10 @@ pub(crate) fn driving_tests<'a>(
                 if ev.weight <= 0.0 || !matches!(ev.test, Test::Indicator { .. }) {
                     continue;
                 }
-                let holds =
-                    evaluate(&ev.test, &symptom.id, case, indicators).is_some_and(|(h, _, _)| h);
+                // An indicator without a value (a measurement not taken) has nothing to show.
+                let Some((holds, _, _)) = evaluate(&ev.test, &symptom.id, case, indicators) else {
+                    continue;
+                };
                 out.push((&ev.test, holds, ev.weight));
             }
         }
@@ -180,7 +182,7 @@ pub fn what_if_solved(
     changed: &ResolvedCase,
     solved: Result<&crate::model::Profile, &crate::model::ModelError>,
 ) -> Option<WhatIf> {
-    let after = solved.map(|p| Indicators::compute(changed, p));
+    let after = solved.map(|p| Indicators::compute(changed, p).with_evidence_of(before.indicators));
     what_if_after(before, remedy, changed, after.as_ref().map_err(|e| *e))
 }
 

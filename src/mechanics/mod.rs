@@ -8,8 +8,9 @@
 //!   (start-up, normal stop, emergency stop, unwind braking) against friction × pressure × 2πr².
 //!
 //! Inputs are SI and come from [`MechanicsInputs`] (built from a resolved case by
-//! [`MechanicsInputs::from_case`]); event inputs the case does not give are defaults listed in
-//! [`Events`], stated as assumed. Layer above `model`: nothing here solves, it reads profiles.
+//! [`MechanicsInputs::from_case`]: `winding.acceleration_time`, `stop_time`,
+//! `emergency_stop_time`, `unwind_tension`); what the case does not give takes the defaults
+//! listed in [`Events`], stated as assumed. Layer above `model`: nothing here solves, it reads profiles.
 
 pub mod telescoping;
 pub mod torque;
@@ -37,14 +38,14 @@ pub struct Events {
     /// Time to ramp from standstill to line speed (s); the case's `winding.acceleration_time`
     /// when given, else [`DEFAULT_RAMP_TIME`] (assumed).
     pub start_ramp_time: f64,
-    /// Time of a normal stop from line speed (s); the start ramp time unless given.
+    /// Time of a normal stop from line speed (s): `winding.stop_time`, else the start ramp time.
     pub normal_stop_time: f64,
-    /// Time of an emergency stop from line speed (s), default [`DEFAULT_EMERGENCY_STOP_TIME`]
-    /// (assumed). The web tension is taken as lost in an emergency stop (a web break is the
+    /// Time of an emergency stop from line speed (s): `winding.emergency_stop_time`, else
+    /// [`DEFAULT_EMERGENCY_STOP_TIME`] (assumed). The web tension is taken as lost in an emergency stop (a web break is the
     /// usual trigger), so the interfaces carry the inertia alone.
     pub emergency_stop_time: f64,
-    /// Unwind tension at the customer, N/m; `None` = the web tension the outside was wound at
-    /// (assumed).
+    /// Unwind tension at the customer, N/m: `winding.unwind_tension`; `None` = the web tension
+    /// the outside was wound at (assumed).
     pub unwind_tension: Option<f64>,
 }
 
@@ -95,10 +96,18 @@ impl MechanicsInputs {
         let core_radius = case.core.outside_diameter / 2.0;
         let outer_radius = case.roll.outer_diameter / 2.0;
         let mut events = Events::default();
-        if let Some(t) = case.winding.acceleration_time.filter(|t| *t > 0.0) {
+        let w = &case.winding;
+        if let Some(t) = w.acceleration_time.filter(|t| *t > 0.0) {
             events.start_ramp_time = t;
             events.normal_stop_time = t;
         }
+        if let Some(t) = w.stop_time.filter(|t| *t > 0.0) {
+            events.normal_stop_time = t;
+        }
+        if let Some(t) = w.emergency_stop_time.filter(|t| *t > 0.0) {
+            events.emergency_stop_time = t;
+        }
+        events.unwind_tension = w.unwind_tension;
         MechanicsInputs {
             core_radius,
             outer_radius,

@@ -961,19 +961,9 @@ pub(super) fn run(
     let law = problem.radial_stiffness;
     let strain = pressure.iter().map(|&p| law.strain_at(p)).collect();
 
-    let mut warnings = winding.warnings();
+    let warnings = winding.warnings(rc, outer, h);
     let air_start = winding.air_film(rc, rc, outer);
     let air_end = winding.air_film(outer, rc, outer);
-    for (place, film) in [("core", air_start), ("outside", air_end)] {
-        if film.ratio_to_roughness > super::wound_in::TRACTION_LOSS_RATIO && !film.suppressed_by_nip
-        {
-            warnings.push(format!(
-                "entrained air: the estimated air film at the {place} ({:.1} µm) exceeds the \
-                 combined roughness; layers may float and lose traction",
-                film.thickness * 1e6
-            ));
-        }
-    }
     let _ = progress(1.0);
     Ok(profile::build(
         profile::Raw {

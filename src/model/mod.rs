@@ -5,18 +5,22 @@
 //! (pressure = −σr). `tangential_stress` is σθ, positive in tension.
 
 pub mod accretion;
+pub mod air;
 pub mod core;
+pub mod core_crush;
 pub mod grid;
 pub mod material;
 pub mod profile;
 pub mod schedule;
+pub mod winder;
 pub mod wound_in;
 
-pub use core::CoreStiffness;
+pub use core::{CoreStiffness, CoreSupport};
 pub use grid::{Grid, SolverStats, layer_count, layer_count_between, solve, solve_with_progress};
 pub use material::RadialStiffness;
 pub use profile::{Band, Profile, ProfileSummary, Zone, ZoneName, ZoneStats};
 pub use schedule::{Taper, TensionSchedule, UpsetBand};
+pub use winder::{DrumSet, NipProgramme};
 pub use wound_in::{AirFilm, WindingMethod, WindingSetup};
 
 /// Errors of the mechanics layer. Inputs reaching here are SI and already range-checked by the

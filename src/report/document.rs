@@ -58,6 +58,8 @@ fn si_unit(kind: QuantityKind) -> &'static str {
         QuantityKind::Torque => "N·m",
         QuantityKind::Temperature => "°C",
         QuantityKind::Percent => "1",
+        QuantityKind::Mass => "kg",
+        QuantityKind::BasisWeight => "kg/m²",
     }
 }
 
@@ -81,6 +83,76 @@ pub struct InputLine {
     pub assumed: bool,
     /// Where an assumed value came from.
     pub source: Option<String>,
+    /// How a value not typed by hand came about: left out (`default`), written unchanged from
+    /// its preset (`preset`) or computed from other inputs (`computed`).
+    #[serde(default)]
+    pub origin: Option<crate::case::ValueOrigin>,
+}
+
+impl InputLine {
+    /// The "given or assumed" cell in words.
+    pub fn origin_text(&self) -> String {
+        use crate::case::ValueOrigin;
+        let source = self.source.clone().unwrap_or_default();
+        let with = |what: &str| {
+            if source.is_empty() {
+                what.to_string()
+            } else {
+                format!("{what}: {source}")
+            }
+        };
+        match self.origin {
+            Some(ValueOrigin::Default) => with("assumed"),
+            Some(ValueOrigin::Preset) => with("preset value, unchanged"),
+            Some(ValueOrigin::Computed) if source.starts_with("computed") => source,
+            Some(ValueOrigin::Computed) => with("computed"),
+            None => "given".to_string(),
+        }
+    }
+}
+
+impl ReportDocument {
+    /// The causes a remedy answers, in words.
+    pub fn answers_text(&self, remedy: &crate::diagnose::MergedRemedy) -> String {
+        remedy
+            .answers
+            .iter()
+            .map(|id| {
+                self.causes
+                    .iter()
+                    .find(|c| c.id == *id)
+                    .map(|c| c.title.clone())
+                    .unwrap_or_else(|| id.replace('_', " "))
+            })
+            .collect::<Vec<_>>()
+            .join("; ")
+    }
+}
+
+/// "3 of 20 inputs were assumed …" for the report's inputs table.
+pub fn assumed_summary(inputs: &[InputLine]) -> String {
+    use crate::case::ValueOrigin;
+    let count = |o: ValueOrigin| inputs.iter().filter(|l| l.origin == Some(o)).count();
+    let (defaults, presets, computed) = (
+        count(ValueOrigin::Default),
+        count(ValueOrigin::Preset),
+        count(ValueOrigin::Computed),
+    );
+    let mut out = format!(
+        "{} of {} inputs were assumed from presets or defaults",
+        defaults + presets,
+        inputs.len()
+    );
+    if presets > 0 {
+        out.push_str(&format!(
+            " ({presets} of them preset values written into the case file unchanged)"
+        ));
+    }
+    if computed > 0 {
+        out.push_str(&format!("; {computed} computed from other inputs"));
+    }
+    out.push('.');
+    out
 }
 
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
@@ -201,9 +273,25 @@ pub struct ReportDocument {
     pub cautions: Vec<Caution>,
     pub indicators: Vec<IndicatorEntry>,
     pub remedy_comparison: Option<RemedyComparisonSummary>,
+    /// The case's complaint record as (label, value) lines; empty when the case has none.
+    #[serde(default, skip_serializing_if = "Vec::is_empty")]
+    pub complaint: Vec<(String, String)>,
     pub model_limits: Vec<String>,
     /// The profile thinned to at most [`PROFILE_POINTS`] points, core first.
     pub profile: Vec<ProfilePoint>,
+    /// What was measured on the roll against what was computed; absent without measurements.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub measured: Option<MeasuredSection>,
+}
+
+/// The measurements against the model (docs/evidence.md).
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct MeasuredSection {
+    pub rows: Vec<crate::evidence::ComparisonRow>,
+    /// Plain-words findings and notes.
+    pub lines: Vec<String>,
+    /// The full comparison, for other systems.
+    pub evidence: crate::evidence::Evidence,
 }
 
 /// At most this many profile points go into a report (enough to redraw the curves).
@@ -301,8 +389,29 @@ pub fn build_document(input: &ReportInput) -> Result<ReportDocument, ReportError
         cautions: input.diagnosis.cautions.clone(),
         indicators,
         remedy_comparison,
+        complaint: input
+            .case
+            .complaint
+            .as_ref()
+            .map(|c| {
+                c.lines()
+                    .into_iter()
+                    .map(|(label, value)| (label.to_string(), value))
+                    .collect()
+            })
+            .unwrap_or_default(),
         model_limits: MODEL_LIMITS.iter().map(|s| s.to_string()).collect(),
         profile: thin_profile(&input.profile, PROFILE_POINTS),
+        measured: input
+            .diagnosis
+            .evidence
+            .as_ref()
+            .filter(|e| !e.is_empty())
+            .map(|e| MeasuredSection {
+                rows: e.rows(),
+                lines: e.lines(),
+                evidence: e.clone(),
+            }),
     })
 }
 
@@ -463,12 +572,14 @@ pub fn input_lines(resolved: &ResolvedCase, units: UnitSystem) -> Vec<InputLine>
                 a.field == field
                     || a.field.starts_with(&format!("{field}."))
                     || (field == "roll.diameter" && a.field == "roll.outer_diameter")
+                    || (field == "core.stiffness" && a.field == "core.modulus")
             });
             InputLine {
                 label: input_label(&field).to_string(),
                 value,
-                assumed: assumed.is_some(),
+                assumed: assumed.is_some_and(|a| a.origin != crate::case::ValueOrigin::Computed),
                 source: assumed.map(|a| a.source.clone()),
+                origin: assumed.map(|a| a.origin),
                 field,
             }
         })
@@ -483,11 +594,7 @@ fn input_label(field: &str) -> &'static str {
 }
 
 fn method_text(method: WindingMethod) -> &'static str {
-    match method {
-        WindingMethod::Centre => "centre winding",
-        WindingMethod::Surface => "surface winding",
-        WindingMethod::CentreSurface => "centre-surface winding",
-    }
+    method.describe()
 }
 
 fn radial_stiffness_text(law: &RadialStiffness, units: UnitSystem) -> String {
@@ -524,6 +631,20 @@ fn core_stiffness_text(core: &CoreStiffness, units: UnitSystem) -> String {
             "hollow cylinder, E = {}, ν = {}, effective Ec = {}",
             format_quantity(modulus, QuantityKind::Stress, units),
             round_sig(poisson_ratio, 3),
+            format_quantity(effective, QuantityKind::Stress, units)
+        ),
+        CoreStiffness::Tube {
+            hoop_modulus,
+            radial_modulus,
+            poisson_ratio,
+            support,
+            ..
+        } => format!(
+            "orthotropic tube, hoop E = {}, radial E = {}, ν = {}, {}, effective Ec = {}",
+            format_quantity(hoop_modulus, QuantityKind::Stress, units),
+            format_quantity(radial_modulus, QuantityKind::Stress, units),
+            round_sig(poisson_ratio, 3),
+            support.describe(),
             format_quantity(effective, QuantityKind::Stress, units)
         ),
         CoreStiffness::Measured { stiffness } => format!(
@@ -618,5 +739,44 @@ pub fn stress_summary(
             )
         }),
         warnings: profile.warnings.clone(),
+    }
+}
+
+/// How much of an answer rests on assumed inputs: how many of the listed inputs were assumed
+/// (left out, or preset values written unchanged), their labels, and the factor the shown
+/// confidence is multiplied by.
+#[derive(Debug, Clone, PartialEq)]
+pub struct AssumedShare {
+    pub assumed: usize,
+    pub total: usize,
+    pub labels: Vec<String>,
+}
+
+/// Half the confidence at most is taken off, in proportion to the share of inputs assumed: a
+/// case that gives nothing keeps half its belief, a case that gives everything all of it. A
+/// plain, stated discount rather than a computed uncertainty (see docs/tui.md).
+pub const ASSUMED_DISCOUNT: f64 = 0.5;
+
+impl AssumedShare {
+    pub fn of(resolved: &ResolvedCase) -> Self {
+        let lines = input_lines(resolved, UnitSystem::Si);
+        let labels: Vec<String> = lines
+            .iter()
+            .filter(|l| l.assumed)
+            .map(|l| l.label.clone())
+            .collect();
+        AssumedShare {
+            assumed: labels.len(),
+            total: lines.len(),
+            labels,
+        }
+    }
+
+    /// The factor applied to a belief before it is shown.
+    pub fn factor(&self) -> f64 {
+        if self.total == 0 {
+            return 1.0;
+        }
+        1.0 - ASSUMED_DISCOUNT * self.assumed as f64 / self.total as f64
     }
 }

@@ -105,11 +105,12 @@ fn write_report(
         "<tr><th>Input</th><th>Value</th><th>Given or assumed</th></tr>"
     )?;
     for line in &case.inputs {
-        let (class, origin) = match (&line.assumed, &line.source) {
-            (true, Some(source)) => (" class=\"assumed\"", format!("assumed: {source}")),
-            (true, None) => (" class=\"assumed\"", "assumed".to_string()),
-            (false, _) => ("", "given".to_string()),
+        let class = if line.assumed {
+            " class=\"assumed\""
+        } else {
+            ""
         };
+        let origin = line.origin_text();
         writeln!(
             out,
             "<tr{class}><td>{}</td><td>{}</td><td>{}</td></tr>",
@@ -119,6 +120,25 @@ fn write_report(
         )?;
     }
     writeln!(out, "</table>")?;
+    writeln!(
+        out,
+        "<p>{}</p>",
+        escape(&super::document::assumed_summary(&case.inputs))
+    )?;
+
+    if !doc.complaint.is_empty() {
+        writeln!(out, "<h2 id=\"complaint\">Complaint record</h2>")?;
+        writeln!(out, "<table id=\"complaint-record\">")?;
+        for (label, value) in &doc.complaint {
+            writeln!(
+                out,
+                "<tr><th>{}</th><td>{}</td></tr>",
+                escape(label),
+                escape(value)
+            )?;
+        }
+        writeln!(out, "</table>")?;
+    }
 
     let stress = &doc.stress;
     writeln!(out, "<h2 id=\"stress\">Stress inside the roll</h2>")?;
@@ -202,6 +222,31 @@ fn write_report(
     )?;
     writeln!(out, "</figure>")?;
 
+    if let Some(measured) = &doc.measured {
+        writeln!(
+            out,
+            "<h2 id=\"measured\">Measured on the roll, against the model</h2>"
+        )?;
+        writeln!(
+            out,
+            "<table><thead><tr><th></th><th>Measured</th><th>Computed</th></tr></thead><tbody>"
+        )?;
+        for r in &measured.rows {
+            writeln!(
+                out,
+                "<tr><td>{}</td><td>{}</td><td>{}</td></tr>",
+                escape(&r.what),
+                escape(&r.measured),
+                escape(&r.computed)
+            )?;
+        }
+        writeln!(out, "</tbody></table>")?;
+        writeln!(out, "<ul>")?;
+        for line in measured.lines.iter().filter(|l| !l.starts_with("  ")) {
+            writeln!(out, "<li>{}</li>", escape(line))?;
+        }
+        writeln!(out, "</ul>")?;
+    }
     writeln!(out, "<h2 id=\"causes\">Likely causes</h2>")?;
     if doc.causes.is_empty() {
         writeln!(out, "<p>No cause reached a positive belief.</p>")?;
@@ -246,21 +291,29 @@ fn write_report(
         out,
         "<h2 id=\"remedies\">Remedies, in the order to try</h2>"
     )?;
-    writeln!(out, "<ol>")?;
-    for RemedyEntry { remedy, .. } in &doc.remedies {
+    let merged: Vec<_> = doc.remedies.iter().map(|e| e.remedy.clone()).collect();
+    let mut open_list = false;
+    for (i, RemedyEntry { rank, remedy }) in doc.remedies.iter().enumerate() {
+        if let Some(heading) = crate::diagnose::remedies::heading(&merged, i) {
+            if open_list {
+                writeln!(out, "</ol>")?;
+            }
+            writeln!(out, "<h3>{}</h3>", escape(&heading))?;
+            writeln!(out, "<ol start=\"{rank}\">")?;
+            open_list = true;
+        }
         write!(
             out,
-            "<li><strong>{}</strong> [{}, cost {}] — answers {}.",
+            "<li><strong>{}</strong> [cost {}] — answers {}.",
             escape(remedy.text.trim()),
-            escape(&remedy.group),
             escape(&remedy.cost),
-            escape(&remedy.answers.join(", "))
+            escape(&doc.answers_text(remedy))
         )?;
         if let Some(what_if) = &remedy.what_if {
             write!(
                 out,
                 "<br>Predicted effect: {} {} → {}",
-                escape(&what_if.indicator),
+                escape(&what_if.indicator.replace('_', " ")),
                 escape(&what_if.before),
                 escape(&what_if.after)
             )?;
@@ -272,16 +325,23 @@ fn write_report(
             }
             write!(out, ". {}", escape(what_if.note.trim()))?;
         }
-        if !remedy.cautions.is_empty() {
+        for caution in doc
+            .cautions
+            .iter()
+            .filter(|c| remedy.cautions.contains(&c.id))
+        {
             write!(
                 out,
-                "<br>Cautions: {}.",
-                escape(&remedy.cautions.join(", "))
+                "<br><span class=\"caution\">⚠ Caution — {}: {}</span>",
+                escape(&caution.title),
+                escape(caution.text.trim())
             )?;
         }
         writeln!(out, "</li>")?;
     }
-    writeln!(out, "</ol>")?;
+    if open_list {
+        writeln!(out, "</ol>")?;
+    }
 
     if let Some(comparison) = &doc.remedy_comparison {
         writeln!(

@@ -64,16 +64,20 @@ fn write_report(out: &mut String, doc: &ReportDocument) -> std::fmt::Result {
         writeln!(out, "Notes: {notes}")?;
         writeln!(out)?;
     }
+    if !doc.complaint.is_empty() {
+        writeln!(out, "## Complaint record")?;
+        writeln!(out)?;
+        for (label, value) in &doc.complaint {
+            writeln!(out, "- **{label}**: {value}")?;
+        }
+        writeln!(out)?;
+    }
     writeln!(out, "### Inputs")?;
     writeln!(out)?;
     writeln!(out, "| Input | Value | Given or assumed |")?;
     writeln!(out, "|---|---|---|")?;
     for line in &case.inputs {
-        let origin = match (&line.assumed, &line.source) {
-            (true, Some(source)) => format!("assumed: {source}"),
-            (true, None) => "assumed".to_string(),
-            (false, _) => "given".to_string(),
-        };
+        let origin = line.origin_text();
         writeln!(
             out,
             "| {} | {} | {} |",
@@ -82,13 +86,8 @@ fn write_report(out: &mut String, doc: &ReportDocument) -> std::fmt::Result {
             cell(&origin)
         )?;
     }
-    let assumed = case.inputs.iter().filter(|l| l.assumed).count();
     writeln!(out)?;
-    writeln!(
-        out,
-        "{assumed} of {} inputs were assumed from presets or defaults.",
-        case.inputs.len()
-    )?;
+    writeln!(out, "{}", super::document::assumed_summary(&case.inputs))?;
     writeln!(out)?;
 
     let stress = &doc.stress;
@@ -156,6 +155,27 @@ fn write_report(out: &mut String, doc: &ReportDocument) -> std::fmt::Result {
         writeln!(out)?;
     }
 
+    if let Some(measured) = &doc.measured {
+        writeln!(out, "## Measured on the roll, against the model")?;
+        writeln!(out)?;
+        writeln!(out, "| | Measured | Computed |")?;
+        writeln!(out, "|---|---|---|")?;
+        for r in &measured.rows {
+            writeln!(
+                out,
+                "| {} | {} | {} |",
+                cell(&r.what),
+                cell(&r.measured),
+                cell(&r.computed)
+            )?;
+        }
+        writeln!(out)?;
+        for line in measured.lines.iter().filter(|l| !l.starts_with("  ")) {
+            writeln!(out, "- {line}")?;
+        }
+        writeln!(out)?;
+    }
+
     writeln!(out, "## Likely causes")?;
     writeln!(out)?;
     if doc.causes.is_empty() {
@@ -193,21 +213,25 @@ fn write_report(out: &mut String, doc: &ReportDocument) -> std::fmt::Result {
 
     writeln!(out, "## Remedies, in the order to try")?;
     writeln!(out)?;
-    for RemedyEntry { rank, remedy } in &doc.remedies {
+    let merged: Vec<_> = doc.remedies.iter().map(|e| e.remedy.clone()).collect();
+    for (i, RemedyEntry { rank, remedy }) in doc.remedies.iter().enumerate() {
+        if let Some(heading) = crate::diagnose::remedies::heading(&merged, i) {
+            writeln!(out, "### {heading}")?;
+            writeln!(out)?;
+        }
         writeln!(
             out,
-            "{}. **{}** [{}, cost {}] — answers {}.",
+            "{}. **{}** [cost {}] — answers {}.",
             rank,
             remedy.text.trim(),
-            remedy.group,
             remedy.cost,
-            remedy.answers.join(", ")
+            doc.answers_text(remedy)
         )?;
         if let Some(what_if) = &remedy.what_if {
             writeln!(
                 out,
                 "   Predicted effect: {} {} → {}{}. {}",
-                what_if.indicator,
+                what_if.indicator.replace('_', " "),
                 what_if.before,
                 what_if.after,
                 if what_if.worse {
@@ -218,8 +242,17 @@ fn write_report(out: &mut String, doc: &ReportDocument) -> std::fmt::Result {
                 what_if.note.trim()
             )?;
         }
-        if !remedy.cautions.is_empty() {
-            writeln!(out, "   Cautions: {}.", remedy.cautions.join(", "))?;
+        for caution in doc
+            .cautions
+            .iter()
+            .filter(|c| remedy.cautions.contains(&c.id))
+        {
+            writeln!(
+                out,
+                "   ⚠ Caution — {}: {}",
+                caution.title,
+                caution.text.trim()
+            )?;
         }
     }
     writeln!(out)?;

@@ -13,9 +13,9 @@ pub mod plots;
 mod prepare;
 
 pub use document::{
-    CaseSummary, CauseEntry, InputLine, MODEL_LIMITS, ProfilePoint, Quantity, ReasonEntry,
-    RemedyComparisonSummary, RemedyEntry, ReportDocument, StressSummary, ZoneSummary,
-    build_document,
+    ASSUMED_DISCOUNT, AssumedShare, CaseSummary, CauseEntry, InputLine, MODEL_LIMITS,
+    MeasuredSection, ProfilePoint, Quantity, ReasonEntry, RemedyComparisonSummary, RemedyEntry,
+    ReportDocument, StressSummary, ZoneSummary, build_document,
 };
 pub use prepare::{PrepareOptions, Solved, comparison, prepare, prepare_from_path, solved_report};
 

@@ -10,7 +10,7 @@ macro_rules! embed {
 }
 
 /// Demo case files by file name.
-pub const DEMO_CASES: [(&str, &str); 16] = embed![
+pub const DEMO_CASES: [(&str, &str); 17] = embed![
     "harbour_newsprint_telescoping.yaml",
     "harbour_newsprint_bursts.yaml",
     "harbour_newsprint_out_of_round.yaml",
@@ -27,10 +27,11 @@ pub const DEMO_CASES: [(&str, &str); 16] = embed![
     "harbour_spunbond_soft_roll.yaml",
     "harbour_spunbond_bulk_loss.yaml",
     "harbour_spunlace_dishing.yaml",
+    "harbour_newsprint_soft_measured.yaml",
 ];
 
 /// Shipped walk-through files by file name (under `cases/training/`).
-pub const WALKTHROUGHS: [(&str, &str); 9] = embed![
+pub const WALKTHROUGHS: [(&str, &str); 10] = embed![
     "training/telescoping_newsprint.yaml",
     "training/crushed_core_coated.yaml",
     "training/starring_after_restart.yaml",
@@ -40,6 +41,7 @@ pub const WALKTHROUGHS: [(&str, &str); 9] = embed![
     "training/cinching_steep_taper.yaml",
     "training/bursts_hard_winding.yaml",
     "training/core_slip_fast_ramp.yaml",
+    "training/soft_roll_measured.yaml",
 ];
 
 /// The text of a shipped demo case, by file name (a leading `cases/` is ignored).

@@ -7,7 +7,7 @@ use crate::units::{QuantityKind, UnitSystem, format_quantity};
 
 /// Every placeholder name and what it stands for. Zone placeholders take a zone after a colon,
 /// e.g. `{pressure_mean:outer}`.
-pub const PLACEHOLDERS: [(&str, &str); 25] = [
+pub const PLACEHOLDERS: [(&str, &str); 30] = [
     ("core_pressure", "interlayer pressure on the core"),
     ("crush_pressure", "the core's rated crush pressure"),
     (
@@ -57,6 +57,17 @@ pub const PLACEHOLDERS: [(&str, &str); 25] = [
     ),
     ("tangential_max", "highest tangential stress in a zone"),
     ("zone_radii", "radius range of a zone (`{zone_radii:core}`)"),
+    ("measured_length", "wound length measured on the roll"),
+    ("measured_diameter", "diameter measured on the roll"),
+    (
+        "computed_diameter",
+        "diameter the model gives for the measured length",
+    ),
+    (
+        "measured_compression",
+        "mean radial compression from the measured size, with its uncertainty",
+    ),
+    ("computed_compression", "mean radial compression computed"),
 ];
 
 /// True when `{name}` or `{name:zone}` is a known placeholder.
@@ -181,10 +192,11 @@ pub(crate) fn value_of(
         "layers" => s.physical_layers.to_string(),
         "air_film_ratio" => {
             let (_, outside) = profile.air_film?;
-            if outside.suppressed_by_nip {
+            if outside.reduced_by_nip {
                 format!(
-                    "{:.2} (but the nip squeezes the air out)",
-                    outside.ratio_to_roughness
+                    "{:.2} (reduced by the nip from {:.1})",
+                    outside.ratio_to_roughness,
+                    outside.free_thickness / (outside.thickness / outside.ratio_to_roughness)
                 )
             } else {
                 format!("{:.1}", outside.ratio_to_roughness)
@@ -192,6 +204,24 @@ pub(crate) fn value_of(
         }
         "top_cause" => computed.diagnosis.as_ref()?.causes.first()?.title.clone(),
         "top_cause_belief" => format!("{:.2}", computed.diagnosis.as_ref()?.causes.first()?.belief),
+        "measured_length"
+        | "measured_diameter"
+        | "computed_diameter"
+        | "measured_compression"
+        | "computed_compression" => {
+            let d = computed.diagnosis.as_ref()?.evidence.as_ref()?.density?;
+            match name {
+                "measured_length" => length(d.length),
+                "measured_diameter" => length(d.measured_diameter),
+                "computed_diameter" => length(d.computed_diameter),
+                "measured_compression" => format!(
+                    "{:.1} % ± {:.1} %",
+                    100.0 * d.measured_compression,
+                    100.0 * d.compression_uncertainty
+                ),
+                _ => format!("{:.1} %", 100.0 * d.computed_compression),
+            }
+        }
         _ => return None,
     };
     Some(value)

@@ -8,8 +8,10 @@
 use crate::presets::{CorePreset, Sourced, WebPreset};
 use crate::units::{QuantityKind, UnitSystem, format_quantity};
 
+mod measured;
 mod table;
 
+pub use measured::*;
 pub use table::*;
 
 /// Accepted range of a number: `min <= value <= max` (`min < value` when `min_exclusive`,
@@ -327,5 +329,15 @@ pub const DOC_SECTIONS: &[&str] = &[
     "winding.taper",
     "winding.taper.steps[]",
     "winding.upsets[]",
+    "winding.nip_programme[]",
+    "winding.drums",
     "symptoms[]",
+    "measurements",
+    "measurements.uncertainty",
+    "measurements.hardness",
+    "measurements.hardness.readings[]",
+    "measurements.hardness.calibration[]",
+    "measurements.lanes",
+    "measurements.end_line",
+    "measurements.set",
 ];

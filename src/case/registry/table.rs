@@ -11,6 +11,9 @@ use DefaultValue::{CorePreset as FromCore, Fixed, Required, Rule, WebPreset as F
 use FieldKind::{Choice, List, Map, Number, Preset, Quantity, Section, Text};
 use QuantityKind as Q;
 
+/// Core support states, as written in case files.
+pub const CORE_SUPPORTS: &[&str] = &["free", "shaft"];
+
 /// A field with no range, no form row and nothing else required: the common case for
 /// sections, text and lists.
 const fn plain(path: &'static str, label: &'static str, kind: FieldKind) -> Field {
@@ -171,9 +174,29 @@ pub const FRICTION: Field = Field {
     form: Some("Web-web friction"),
     range: Some(plain_above(0.0, 2.0)),
     default: FromWeb(|p| p.friction),
-    help: "Web-to-web friction coefficient.",
+    help: "Static web-to-web friction coefficient: judges slip (cinching, telescoping, core slip).",
     example: "0.4",
     ..plain("web.friction", "Web-to-web friction", Number)
+};
+pub const KINETIC_FRICTION: Field = Field {
+    form: Some("Kinetic friction"),
+    range: Some(plain_above(0.0, 2.0)),
+    default: FromWeb(|p| p.kinetic_friction),
+    help: "Kinetic web-to-web friction coefficient: drives the nip-induced tension (the outer layer slips under the nip).",
+    example: "0.2",
+    ..plain(
+        "web.kinetic_friction",
+        "Web-to-web kinetic friction",
+        Number,
+    )
+};
+pub const DENSITY: Field = Field {
+    form: Some("Density (kg/m³)"),
+    range: Some(plain_from(10.0, 25_000.0)),
+    default: FromWeb(|p| p.density),
+    help: "Density of the web in kg/m³ (basis weight over caliper): roll weight on winder drums, centrifugal unloading.",
+    example: "600",
+    ..plain("web.density", "Web density (kg/m³)", Number)
 };
 pub const ROUGHNESS: Field = Field {
     form: Some("Roughness (RMS)"),
@@ -274,11 +297,55 @@ pub const CRUSH: Field = Field {
     form: Some("Core crush rating"),
     range: Some(above(0.0, 1e9, Q::Stress)),
     default: FromCore(|p| p.crush_pressure),
-    help: "Rated crush pressure: the external radial pressure the core carries.",
+    accepted_also: "without it or `flat_crush`, estimated from the wall stress or buckling",
+    help: "Supplier's radial (bladder) crush pressure, compared with the pressure on the core directly.",
     example: "2 MPa",
     ..plain(
         "core.crush_pressure",
         "Core rated crush pressure",
+        Quantity(Q::Stress),
+    )
+};
+pub const CORE_RADIAL_MODULUS: Field = Field {
+    form: Some("Core radial E"),
+    range: Some(from(1e5, 400e9, Q::Stress)),
+    default: FromCore(|p| p.radial_modulus),
+    accepted_also: "for steel, aluminium and plastic it follows `modulus` when not given",
+    help: "Radial (through-the-wall) modulus of the core; spiral-wound paper cores are strongly orthotropic (Gerhardt 1990).",
+    example: "40 MPa",
+    ..plain(
+        "core.radial_modulus",
+        "Core radial modulus",
+        Quantity(Q::Stress),
+    )
+};
+pub const CORE_SUPPORT: Field = Field {
+    form: Some("Core support"),
+    default: Rule("free (shaft pulled, in storage: the state in which cores crush)"),
+    help: "Whether the core sits on an expanding shaft (bore held) or is free; the winding solve and the crush check use it.",
+    example: "free",
+    ..plain("core.support", "Core support", Choice(CORE_SUPPORTS))
+};
+pub const FLAT_CRUSH: Field = Field {
+    form: Some("Core flat crush"),
+    range: Some(above(0.0, 1e8, Q::ForcePerWidth)),
+    default: Rule("none"),
+    help: "Supplier's flat crush load per length of core (4 kN per 100 mm = 40 kN/m), turned into a radial pressure 6·W/(π·t).",
+    example: "40 kN/m",
+    ..plain(
+        "core.flat_crush",
+        "Core flat crush rating",
+        Quantity(Q::ForcePerWidth),
+    )
+};
+pub const CORE_STRENGTH: Field = Field {
+    range: Some(above(0.0, 2e9, Q::Stress)),
+    default: FromCore(|p| p.compressive_strength),
+    help: "Hoop compressive strength of the core wall, for the crush estimate when no rating is given.",
+    example: "20 MPa",
+    ..plain(
+        "core.compressive_strength",
+        "Core wall compressive strength",
         Quantity(Q::Stress),
     )
 };
@@ -392,6 +459,96 @@ pub const NIP: Field = Field {
     example: "10 pli",
     ..plain("winding.nip_load", "Nip load", Quantity(Q::ForcePerWidth))
 };
+pub const NIP_PROGRAMME: Field = Field {
+    accepted_also: "diameters within the roll, increasing; replaces `nip_load`",
+    help: "Nip (rider) load as a table against diameter, interpolated linearly and held beyond its ends.",
+    ..plain("winding.nip_programme", "Nip programme", List)
+};
+pub const NIP_POINT_DIAMETER: Field = Field {
+    accepted_also: "within the roll",
+    default: Required,
+    help: "Roll diameter of this point of the programme.",
+    example: "400 mm",
+    ..plain(
+        "winding.nip_programme[].diameter",
+        "Nip programme diameter",
+        Quantity(Q::Length),
+    )
+};
+pub const NIP_POINT_LOAD: Field = Field {
+    range: Some(from(0.0, 1e5, Q::ForcePerWidth)),
+    default: Required,
+    help: "Nip load at this diameter.",
+    example: "5 pli",
+    ..plain(
+        "winding.nip_programme[].nip_load",
+        "Nip programme load",
+        Quantity(Q::ForcePerWidth),
+    )
+};
+pub const NIP_PLATEAU: Field = Field {
+    range: Some(above(0.0, 1e5, Q::ForcePerWidth)),
+    default: Fixed(crate::presets::DEFAULT_NIP_PLATEAU),
+    help: "Nip load above which the nip-induced tension no longer grows (measurements level off).",
+    example: "2 kN/m",
+    ..plain(
+        "winding.nip_plateau",
+        "Nip load where nip-induced tension levels off",
+        Quantity(Q::ForcePerWidth),
+    )
+};
+pub const CENTRE_TORQUE: Field = Field {
+    form: Some("Centre torque"),
+    range: Some(from(-1e6, 1e6, Q::Torque)),
+    accepted_also: "centre_surface winders only",
+    default: Rule("none (no centre drive torque)"),
+    help: "Centre drive torque of a centre-surface winder for the whole width; adds torque/radius to the wound-in tension.",
+    example: "150 N·m",
+    ..plain(
+        "winding.centre_torque",
+        "Centre torque",
+        Quantity(Q::Torque),
+    )
+};
+pub const DRUMS: Field = Field {
+    accepted_also: "two_drum and centre_surface winders only",
+    help: "Drum geometry and torque differential of a two-drum winder.",
+    ..plain("winding.drums", "Winder drums", Section)
+};
+pub const DRUM_DIAMETER: Field = Field {
+    range: Some(above(0.0, 5.0, Q::Length)),
+    default: Fixed(crate::presets::DEFAULT_DRUM_DIAMETER),
+    help: "Diameter of each winder drum.",
+    example: "500 mm",
+    ..plain(
+        "winding.drums.diameter",
+        "Drum diameter",
+        Quantity(Q::Length),
+    )
+};
+pub const DRUM_DISTANCE: Field = Field {
+    range: Some(above(0.0, 10.0, Q::Length)),
+    accepted_also: "more than one drum diameter, less than the core diameter plus one drum diameter",
+    default: Rule("drum diameter + 20 mm (common practice: a narrow gap between the drums)"),
+    help: "Distance between the two drum centres.",
+    example: "520 mm",
+    ..plain(
+        "winding.drums.centre_distance",
+        "Drum centre distance",
+        Quantity(Q::Length),
+    )
+};
+pub const DRUM_DIFFERENTIAL: Field = Field {
+    range: Some(from(-1e6, 1e6, Q::Torque)),
+    default: Rule("0 (both drums at the same torque)"),
+    help: "Front drum torque minus the torque of the drum the web wraps, whole width; positive tightens the roll.",
+    example: "40 N·m",
+    ..plain(
+        "winding.drums.torque_differential",
+        "Drum torque differential",
+        Quantity(Q::Torque),
+    )
+};
 pub const SPEED: Field = Field {
     form: Some("Line speed"),
     range: Some(above(0.0, 60.0, Q::Speed)),
@@ -472,6 +629,31 @@ pub const RECIPE_TENSION: Field = Field {
         Quantity(Q::ForcePerWidth),
     )
 };
+pub const STOP_TIME: Field = Field {
+    range: Some(plain_above(0.0, 3600.0)),
+    default: Rule("the run-up time, else 20 s (assumed; docs/theory.md §5)"),
+    help: "Time of a normal stop from line speed in seconds (slip check of the layers).",
+    example: "20",
+    ..plain("winding.stop_time", "Normal stop time", Number)
+};
+pub const EMERGENCY_STOP_TIME: Field = Field {
+    range: Some(plain_above(0.0, 3600.0)),
+    default: Rule("4 s, web tension lost (assumed; docs/theory.md §5)"),
+    help: "Time of an emergency stop from line speed in seconds (slip check of the layers).",
+    example: "4",
+    ..plain("winding.emergency_stop_time", "Emergency stop time", Number)
+};
+pub const UNWIND_TENSION: Field = Field {
+    range: Some(from(0.0, 1e5, Q::ForcePerWidth)),
+    default: Rule("the tension the outside was wound at (assumed; docs/theory.md §5)"),
+    help: "Web tension at the customer's unwind, which the brake holds through the layers.",
+    example: "1 pli",
+    ..plain(
+        "winding.unwind_tension",
+        "Unwind tension",
+        Quantity(Q::ForcePerWidth),
+    )
+};
 pub const SYMPTOMS: Field = Field {
     help: "Observed defects.",
     ..plain("symptoms", "Symptoms", List)
@@ -505,6 +687,11 @@ pub const NOTES: Field = Field {
     help: "Anything else.",
     ..plain("notes", "Notes", Text)
 };
+/// The complaint record's own fields and checks live in `complaint.rs` (docs/history.md).
+pub const COMPLAINT: Field = Field {
+    help: "The complaint record: reference, customer, dates, rolls, status, confirmed causes, actions (docs/history.md).",
+    ..plain("complaint", "Complaint record", Section)
+};
 
 /// Every field of the case file, in schema order (the inputs form keeps this order).
 pub const FIELDS: &[&Field] = &[
@@ -525,6 +712,8 @@ pub const FIELDS: &[&Field] = &[
     &POWER_EXPONENT,
     &WEB_POISSON,
     &FRICTION,
+    &KINETIC_FRICTION,
+    &DENSITY,
     &ROUGHNESS,
     &STRENGTH,
     &CORE,
@@ -536,6 +725,10 @@ pub const FIELDS: &[&Field] = &[
     &CORE_POISSON,
     &CORE_STIFFNESS,
     &CRUSH,
+    &CORE_RADIAL_MODULUS,
+    &CORE_SUPPORT,
+    &FLAT_CRUSH,
+    &CORE_STRENGTH,
     &ROLL,
     &ROLL_DIAMETER,
     &ROLL_LENGTH,
@@ -549,6 +742,15 @@ pub const FIELDS: &[&Field] = &[
     &STEP_FROM,
     &STEP_TENSION,
     &NIP,
+    &NIP_PROGRAMME,
+    &NIP_POINT_DIAMETER,
+    &NIP_POINT_LOAD,
+    &NIP_PLATEAU,
+    &CENTRE_TORQUE,
+    &DRUMS,
+    &DRUM_DIAMETER,
+    &DRUM_DISTANCE,
+    &DRUM_DIFFERENTIAL,
     &SPEED,
     &UPSETS,
     &UPSET_FROM,
@@ -557,10 +759,50 @@ pub const FIELDS: &[&Field] = &[
     &TEMPERATURE,
     &ACCELERATION,
     &RECIPE_TENSION,
+    &STOP_TIME,
+    &EMERGENCY_STOP_TIME,
+    &UNWIND_TENSION,
     &SYMPTOMS,
     &SYMPTOM_ID,
     &SYMPTOM_WHERE,
     &SYMPTOM_NOTES,
     &ANSWERS,
     &NOTES,
+    &COMPLAINT,
+    &super::MEASUREMENTS,
+    &super::DIAMETER,
+    &super::LENGTH,
+    &super::WEIGHT,
+    &super::BASIS_WEIGHT,
+    &super::WIDTH,
+    &super::UNCERTAINTY,
+    &super::U_AMOUNT,
+    &super::U_DIAMETER,
+    &super::U_CALIPER,
+    &super::HARDNESS,
+    &super::HARDNESS_DIRECTION,
+    &super::READINGS,
+    &super::READING_DIAMETER,
+    &super::READING_VALUE,
+    &super::CALIBRATION,
+    &super::CAL_READING,
+    &super::CAL_PRESSURE,
+    &super::LANES,
+    &super::LANES_DIRECTION,
+    &super::LANE_READINGS,
+    &super::END_LINE,
+    &super::BEND,
+    &super::BEND_FROM,
+    &super::BEND_TO,
+    &super::BEND_DIRECTION,
+    &super::BEND_OFFSET,
+    &super::CORE_BORE,
+    &super::SET,
+    &super::SET_ROLLS,
+    &super::SET_BAD,
+    &super::SET_POSITIONS,
+    &super::SET_PARENT,
+    &super::SET_PARENT_POSITION,
+    &super::SET_PARENTS,
+    &super::SET_BAD_PARENTS,
 ];

@@ -3,9 +3,11 @@
 //! the enums of `vocabulary`. The web and the core are resolved here, the roll and the winding
 //! settings in `winding`.
 
+mod winder;
 mod winding;
 
-use crate::model::{CoreStiffness, RadialStiffness};
+use crate::model::core_crush::{self, CrushBasis, CrushRatings};
+use crate::model::{CoreStiffness, CoreSupport, RadialStiffness};
 use crate::presets::{self, CorePreset, Sourced, WebPreset};
 use crate::units::{QuantityKind, UnitSystem, format_quantity, parse_quantity};
 use crate::vocabulary::{CoreMaterial, Place, RadialLaw, WebMaterial};
@@ -13,14 +15,22 @@ use crate::vocabulary::{CoreMaterial, Place, RadialLaw, WebMaterial};
 use super::registry::{self as reg, Field, Range};
 use super::{
     AssumedValue, Case, CaseError, CoreInput, QuantityText, RadialStiffnessInput, ResolvedCase,
-    ResolvedCore, ResolvedWeb, WebInput,
+    ResolvedCore, ResolvedWeb, ValueOrigin, WebInput,
 };
 
 /// Resolves one case; `origin` names the file (or the case) in every message.
 pub(super) struct Resolver {
     pub(super) origin: String,
     pub(super) assumed: Vec<AssumedValue>,
+    /// The web and core presets the case names (not the defaults picked for it): a value given
+    /// equal to one of theirs is recorded as a preset copy.
+    pub(super) named_web: Option<&'static WebPreset>,
+    pub(super) named_core: Option<&'static CorePreset>,
 }
+
+/// A value written by `case new` is the preset's value printed to about four significant
+/// figures; within this share it is taken as the preset's value, unchanged.
+pub(super) const PRESET_COPY_TOLERANCE: f64 = 5e-3;
 
 impl Resolver {
     fn unit_error(&self, source: crate::units::UnitError) -> CaseError {
@@ -118,7 +128,11 @@ impl Resolver {
     ) -> Result<f64, CaseError> {
         let range = field.range();
         match (value, field.preset_value(web, core)) {
-            (Some(v), _) => self.check(field.path, v, &range),
+            (Some(v), _) => {
+                let v = self.check(field.path, v, &range)?;
+                self.note_preset_copy(field, v);
+                Ok(v)
+            }
             (None, Some((fallback, from))) => Ok(self.assumed(field.path, &range, fallback, &from)),
             (None, None) => Err(self.invalid(format!("{} is required", field.path))),
         }
@@ -130,7 +144,45 @@ impl Resolver {
         fallback.value
     }
 
+    /// Record a given value that equals the named preset's value (or the fixed default, in a
+    /// case that names a preset) as a preset copy: `case new` wrote it, nobody measured it.
+    fn note_preset_copy(&mut self, field: &Field, value: f64) {
+        let named = match field.default {
+            reg::DefaultValue::WebPreset(_) => self.named_web.is_some(),
+            reg::DefaultValue::CorePreset(_) => self.named_core.is_some(),
+            reg::DefaultValue::Fixed(_) => self.named_web.is_some() || self.named_core.is_some(),
+            _ => false,
+        };
+        if !named {
+            return;
+        }
+        let Some((preset, from)) = field.preset_value(self.named_web, self.named_core) else {
+            return;
+        };
+        let scale = preset.value.abs().max(f64::MIN_POSITIVE);
+        if (value - preset.value).abs() / scale <= PRESET_COPY_TOLERANCE {
+            let shown = field.range().show(value);
+            self.push_assumed(field.path, shown, &from, preset.source, ValueOrigin::Preset);
+        }
+    }
+
     fn assume(&mut self, field: &str, value: String, from: &str, source: &str) {
+        self.push_assumed(field, value, from, source, ValueOrigin::Default);
+    }
+
+    /// Record a value computed from other inputs (shown as computed, not given).
+    pub(super) fn computed(&mut self, field: &str, value: String, how: &str) {
+        self.push_assumed(field, value, "", how, ValueOrigin::Computed);
+    }
+
+    pub(super) fn push_assumed(
+        &mut self,
+        field: &str,
+        value: String,
+        from: &str,
+        source: &str,
+        origin: ValueOrigin,
+    ) {
         let source = if from.is_empty() {
             source.to_string()
         } else {
@@ -140,12 +192,16 @@ impl Resolver {
             field: field.to_string(),
             value,
             source,
+            origin,
         });
     }
 
     pub(super) fn resolve(mut self, case: &Case) -> Result<ResolvedCase, CaseError> {
         if case.title.trim().is_empty() {
             return Err(self.invalid("title is empty; give the case a short title"));
+        }
+        if let Some(record) = &case.complaint {
+            record.check(None).map_err(|m| self.invalid(m))?;
         }
         let web = self.web(&case.web)?;
         if case.web.preset.is_none() {
@@ -177,6 +233,14 @@ impl Resolver {
                 ));
             }
         }
+        // A weight needs the width; an assumed width would make up a length.
+        let width_given = !self.assumed.iter().any(|a| a.field == "web.width");
+        let measurements = match &case.measurements {
+            Some(input) => {
+                super::measurements::resolve(input, &self.origin, width_given.then_some(web.width))?
+            }
+            None => None,
+        };
         let resolved = ResolvedCase {
             title: case.title.clone(),
             web,
@@ -186,6 +250,7 @@ impl Resolver {
             symptoms: case.symptoms.clone(),
             answers: case.answers.clone(),
             assumed: std::mem::take(&mut self.assumed),
+            measurements,
         };
         self.model_accepts(&resolved)?;
         Ok(resolved)
@@ -277,6 +342,9 @@ impl Resolver {
             },
             None => presets::default_web_for_material(material_given.unwrap_or(WebMaterial::Paper)),
         };
+        if web.preset.is_some() {
+            self.named_web = Some(preset);
+        }
         let from = format!("preset {}", preset.id);
         let material = match material_given {
             Some(m) => m,
@@ -305,6 +373,21 @@ impl Resolver {
         };
         let poisson_ratio = self.number_or(&reg::WEB_POISSON, web.poisson_ratio, p, None)?;
         let friction = self.number_or(&reg::FRICTION, web.friction, p, None)?;
+        let kinetic_friction = match web.kinetic_friction {
+            // Kinetic friction does not exceed static: a preset value above the static
+            // friction the case gives is held at it.
+            None if preset.kinetic_friction.value > friction => {
+                self.assume(
+                    reg::KINETIC_FRICTION.path,
+                    format!("{friction}"),
+                    &from,
+                    "held at the static friction given (the preset's kinetic value is higher)",
+                );
+                friction
+            }
+            given => self.number_or(&reg::KINETIC_FRICTION, given, p, None)?,
+        };
+        let density = self.number_or(&reg::DENSITY, web.density, p, None)?;
         let roughness = self.quantity_or(&reg::ROUGHNESS, web.roughness.as_ref(), p, None)?;
         let strength = self.quantity_or(&reg::STRENGTH, web.strength.as_ref(), p, None)?;
         Ok(ResolvedWeb {
@@ -316,6 +399,8 @@ impl Resolver {
             radial_stiffness,
             poisson_ratio,
             friction,
+            kinetic_friction,
+            density,
             roughness,
             strength,
         })
@@ -381,10 +466,13 @@ impl Resolver {
             }
         }
         Ok(match law {
-            RadialLaw::Pfeiffer => RadialStiffness::Pfeiffer {
-                k1: self.required_quantity(&reg::K1, input.k1.as_ref())?,
-                k2: self.required_number(&reg::K2, input.k2)?,
-            },
+            RadialLaw::Pfeiffer => {
+                let k1 = self.required_quantity(&reg::K1, input.k1.as_ref())?;
+                let k2 = self.required_number(&reg::K2, input.k2)?;
+                self.note_preset_copy(&reg::K1, k1);
+                self.note_preset_copy(&reg::K2, k2);
+                RadialStiffness::Pfeiffer { k1, k2 }
+            }
             RadialLaw::Constant => RadialStiffness::Constant {
                 modulus: self.required_quantity(&reg::RADIAL_MODULUS, input.modulus.as_ref())?,
             },
@@ -428,6 +516,9 @@ impl Resolver {
             },
             None => presets::default_core_for(material_given, web.material, outside_given),
         };
+        if core.preset.is_some() {
+            self.named_core = Some(preset);
+        }
         if let Some(m) = material_given
             && m != CoreMaterial::Rigid
             && m != preset.material
@@ -451,13 +542,32 @@ impl Resolver {
             }
         };
         let (inside, outside) = self.core_diameters(preset, inside_given, outside_given)?;
-        let stiffness = self.core_stiffness(core, material, preset, inside, outside)?;
-        let crush_pressure = self.quantity_or(
-            &reg::CRUSH,
-            core.crush_pressure.as_ref(),
-            None,
-            Some(preset),
-        )?;
+        let support = match &core.support {
+            Some(word) => match word.as_str() {
+                "free" => CoreSupport::Free,
+                "shaft" => CoreSupport::Shaft,
+                other => {
+                    return Err(self.unknown_name(
+                        reg::CORE_SUPPORT.path,
+                        "core support",
+                        other,
+                        reg::CORE_SUPPORTS,
+                    ));
+                }
+            },
+            None => {
+                self.assume(
+                    reg::CORE_SUPPORT.path,
+                    "free".to_string(),
+                    "",
+                    "default: judged as a free core (shaft pulled, in storage), the state in which cores crush",
+                );
+                CoreSupport::Free
+            }
+        };
+        let stiffness = self.core_stiffness(core, material, preset, inside, outside, support)?;
+        let (crush_pressure, crush_basis) =
+            self.core_crush(core, preset, &stiffness, inside, outside, support)?;
         Ok(ResolvedCore {
             preset: Some(preset.id.to_string()),
             material,
@@ -465,7 +575,58 @@ impl Resolver {
             outside_diameter: outside,
             stiffness,
             crush_pressure,
+            support,
+            crush_basis,
         })
+    }
+
+    /// The crush limit: the supplier's radial and flat crush ratings (the lower governs), else
+    /// an estimate from the wall's hoop stress and buckling, else the preset's value.
+    fn core_crush(
+        &mut self,
+        core: &CoreInput,
+        preset: &CorePreset,
+        stiffness: &CoreStiffness,
+        inside: f64,
+        outside: f64,
+        support: CoreSupport,
+    ) -> Result<(f64, CrushBasis), CaseError> {
+        let radial = match &core.crush_pressure {
+            Some(text) => Some(self.required_quantity(&reg::CRUSH, Some(text))?),
+            None => None,
+        };
+        let flat = match &core.flat_crush {
+            Some(text) => Some(self.required_quantity(&reg::FLAT_CRUSH, Some(text))?),
+            None => None,
+        };
+        let ratings = CrushRatings {
+            radial_pressure: radial,
+            flat_load: flat,
+        };
+        if let Some(limit) = core_crush::rated_limit(&ratings, (outside - inside) / 2.0, support) {
+            return Ok((limit.pressure, limit.basis));
+        }
+        let strength = self.quantity_or(
+            &reg::CORE_STRENGTH,
+            core.compressive_strength.as_ref(),
+            None,
+            Some(preset),
+        )?;
+        match core_crush::estimated_limit(stiffness, strength) {
+            Some(limit) => {
+                self.assume(
+                    reg::CRUSH.path,
+                    reg::CRUSH.range().show(limit.pressure),
+                    "",
+                    &format!("{} ({})", limit.basis.describe(), limit.support.describe()),
+                );
+                Ok((limit.pressure, limit.basis))
+            }
+            None => {
+                let value = self.quantity_or(&reg::CRUSH, None, None, Some(preset))?;
+                Ok((value, CrushBasis::Given))
+            }
+        }
     }
 
     /// The core's inside and outside diameters: as given, one from the other and the preset's
@@ -481,7 +642,11 @@ impl Resolver {
         let outside_range = reg::CORE_OUTSIDE.range();
         let wall_twice = preset.outside_diameter.value - preset.inside_diameter.value;
         let (inside, outside) = match (inside_given, outside_given) {
-            (Some(i), Some(o)) => (i, o),
+            (Some(i), Some(o)) => {
+                self.note_preset_copy(&reg::CORE_INSIDE, i);
+                self.note_preset_copy(&reg::CORE_OUTSIDE, o);
+                (i, o)
+            }
             (None, Some(o)) => {
                 let i = o - wall_twice;
                 self.assume(
@@ -541,6 +706,7 @@ impl Resolver {
         preset: &CorePreset,
         inside: f64,
         outside: f64,
+        support: CoreSupport,
     ) -> Result<CoreStiffness, CaseError> {
         // A Poisson ratio that is given is checked even when the stiffness does not use it (a
         // rigid or measured core): the file must not carry a value no core can have.
@@ -568,11 +734,34 @@ impl Resolver {
         let p = Some(preset);
         let modulus = self.quantity_or(&reg::CORE_MODULUS, core.modulus.as_ref(), None, p)?;
         let poisson_ratio = self.number_or(&reg::CORE_POISSON, core.poisson_ratio, None, p)?;
-        Ok(CoreStiffness::Hollow {
+        let radial_modulus = match (&core.radial_modulus, material) {
+            (Some(_), _) | (None, CoreMaterial::Paper) => self.quantity_or(
+                &reg::CORE_RADIAL_MODULUS,
+                core.radial_modulus.as_ref(),
+                None,
+                p,
+            )?,
+            // Steel, aluminium and plastic cores are isotropic.
+            (None, _) => modulus,
+        };
+        if radial_modulus == modulus && support == CoreSupport::Free {
+            // The isotropic tube with a free bore is Lamé's cylinder.
+            return Ok(CoreStiffness::Hollow {
+                inner_radius: inside / 2.0,
+                outer_radius: outside / 2.0,
+                modulus,
+                poisson_ratio,
+            });
+        }
+        let tube = CoreStiffness::Tube {
             inner_radius: inside / 2.0,
             outer_radius: outside / 2.0,
-            modulus,
+            hoop_modulus: modulus,
+            radial_modulus,
             poisson_ratio,
-        })
+            support,
+        };
+        tube.validate().map_err(|e| self.invalid(e.to_string()))?;
+        Ok(tube)
     }
 }

@@ -58,6 +58,7 @@ impl Resolver {
         let (diameter, length) = match (diameter, length) {
             (Some(d), given_length) => {
                 let d = self.check(reg::ROLL_DIAMETER.path, d, &diameter_range)?;
+                self.note_preset_copy(&reg::ROLL_DIAMETER, d);
                 if d <= core.outside_diameter {
                     return Err(self.out_of_range(
                         reg::ROLL_DIAMETER.path,
@@ -79,15 +80,26 @@ impl Resolver {
                     ));
                 }
                 // The length derived from a given diameter is informational (the model works
-                // on radii), so it is not listed as assumed.
-                (d, given_length.unwrap_or_else(|| length_of(d)))
+                // on radii); it is listed as computed so no report calls it given.
+                let length = match given_length {
+                    Some(l) => l,
+                    None => {
+                        let l = length_of(d);
+                        self.computed(
+                            reg::ROLL_LENGTH.path,
+                            length_range.show(l),
+                            "computed from the diameters and the caliper: L = π(R² − rc²)/h",
+                        );
+                        l
+                    }
+                };
+                (d, length)
             }
             (None, Some(l)) => {
                 let d = 2.0 * (core_radius.powi(2) + l * h / std::f64::consts::PI).sqrt();
-                self.assume(
+                self.computed(
                     reg::ROLL_DIAMETER.path,
                     diameter_range.show(d),
-                    "",
                     "computed from the length and the caliper: R = √(rc² + L·h/π)",
                 );
                 if !diameter_range.contains(d) {
@@ -113,10 +125,9 @@ impl Resolver {
                 }
                 let d = self.assumed(reg::ROLL_DIAMETER.path, &diameter_range, fallback, "");
                 let l = length_of(d);
-                self.assume(
+                self.computed(
                     reg::ROLL_LENGTH.path,
                     length_range.show(l),
-                    "",
                     "computed from the diameters and the caliper: L = π(R² − rc²)/h",
                 );
                 (d, l)
@@ -183,7 +194,7 @@ impl Resolver {
     }
 
     /// A diameter inside the wound part of the roll, returned as a radius.
-    fn radius_in_roll(
+    pub(super) fn radius_in_roll(
         &self,
         field: &str,
         value: &QuantityText,
@@ -272,7 +283,21 @@ impl Resolver {
             winding.tension.as_ref(),
             QuantityKind::ForcePerWidth,
         )? {
-            Some(t) => t,
+            Some(t) => {
+                if let Some(named) = self.named_web
+                    && (t - named.typical_tension.value).abs()
+                        <= super::PRESET_COPY_TOLERANCE * named.typical_tension.value
+                {
+                    self.push_assumed(
+                        reg::TENSION.path,
+                        reg::TENSION.range().show(t),
+                        &format!("preset {}", named.id),
+                        named.typical_tension.source,
+                        crate::case::ValueOrigin::Preset,
+                    );
+                }
+                t
+            }
             None => {
                 self.assume(
                     reg::TENSION.path,
@@ -302,12 +327,14 @@ impl Resolver {
             Some(taper) => self.taper(taper, web, core, roll)?,
         };
         let upsets = self.upsets(winding, web, core, roll)?;
+        let winder = self.winder(method, winding, web, core, roll)?;
         let nip_load = match self.quantity(
             reg::NIP.path,
             winding.nip_load.as_ref(),
             QuantityKind::ForcePerWidth,
         )? {
             Some(n) => Some(self.check(reg::NIP.path, n, &reg::NIP.range())?),
+            None if winder.nip_programme.is_some() => None,
             None => {
                 self.assume(
                     reg::NIP.path,
@@ -341,7 +368,26 @@ impl Resolver {
             }
             None => None,
         };
+        let time = |field: &super::super::registry::Field, value: Option<f64>| match value {
+            Some(t) => self.check(field.path, t, &field.range()).map(Some),
+            None => Ok(None),
+        };
+        let stop_time = time(&reg::STOP_TIME, winding.stop_time)?;
+        let emergency_stop_time = time(&reg::EMERGENCY_STOP_TIME, winding.emergency_stop_time)?;
+        let unwind_tension = match self.quantity(
+            reg::UNWIND_TENSION.path,
+            winding.unwind_tension.as_ref(),
+            QuantityKind::ForcePerWidth,
+        )? {
+            Some(t) => {
+                Some(self.check(reg::UNWIND_TENSION.path, t, &reg::UNWIND_TENSION.range())?)
+            }
+            None => None,
+        };
         Ok(ResolvedWinding {
+            stop_time,
+            emergency_stop_time,
+            unwind_tension,
             method,
             tension: TensionSchedule {
                 start_tension,
@@ -349,6 +395,10 @@ impl Resolver {
                 upsets,
             },
             nip_load,
+            nip_programme: winder.nip_programme,
+            nip_plateau: winder.nip_plateau,
+            centre_torque: winder.centre_torque,
+            drums: winder.drums,
             speed,
             temperature,
             acceleration_time,

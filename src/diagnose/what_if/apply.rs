@@ -233,6 +233,23 @@ pub fn write_into_case(
             return Err(WhatIfError::RigidCore);
         }
         out.core.stiffness = Some(QuantityText::Number(stiffness));
+        // A measured stiffness has no wall to estimate the crush pressure from: keep the
+        // estimate the case had.
+        if out.core.crush_pressure.is_none() && out.core.flat_crush.is_none() {
+            out.core.crush_pressure = Some(QuantityText::Number(after.core.crush_pressure));
+        }
+    }
+    if after.winding.nip_programme != before.winding.nip_programme
+        && let Some(programme) = &after.winding.nip_programme
+    {
+        out.winding.nip_programme = programme
+            .points
+            .iter()
+            .map(|&(radius, load)| crate::case::NipPointInput {
+                diameter: QuantityText::Number(2.0 * radius),
+                nip_load: QuantityText::Number(load),
+            })
+            .collect();
     }
     Ok(out)
 }
@@ -283,26 +300,15 @@ pub fn apply_changes(case: &ResolvedCase, changes: &[SettingChange]) -> Resolved
             SettingChange::TaperTo(t) => set_taper(schedule, Some(t), 0.0),
             SettingChange::NipScale(f) => {
                 out.winding.nip_load = out.winding.nip_load.map(|n| n * f);
+                if let Some(programme) = out.winding.nip_programme.as_mut() {
+                    for point in programme.points.iter_mut() {
+                        point.1 *= f;
+                    }
+                }
             }
             SettingChange::SpeedScale(f) => out.winding.speed *= f,
             SettingChange::CoreStiffnessScale(f) => {
-                out.core.stiffness = match out.core.stiffness {
-                    CoreStiffness::Rigid => CoreStiffness::Rigid,
-                    CoreStiffness::Hollow {
-                        inner_radius,
-                        outer_radius,
-                        modulus,
-                        poisson_ratio,
-                    } => CoreStiffness::Hollow {
-                        inner_radius,
-                        outer_radius,
-                        modulus: modulus * f,
-                        poisson_ratio,
-                    },
-                    CoreStiffness::Measured { stiffness } => CoreStiffness::Measured {
-                        stiffness: stiffness * f,
-                    },
-                }
+                out.core.stiffness = out.core.stiffness.scaled(f);
             }
             SettingChange::CoreCrushScale(f) => out.core.crush_pressure *= f,
             SettingChange::ClearUpsets => schedule.upsets.clear(),

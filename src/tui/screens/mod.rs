@@ -118,6 +118,22 @@ fn help_line_widget(app: &App, theme: Theme) -> Paragraph<'static> {
 /// Scroll offset that keeps logical line `target` (and the line after it) of a wrapped
 /// paragraph in a box `width`×`height` (inside its borders) in view. Word wrapping can take a
 /// row more than the estimate, hence the spare line.
+/// Scroll so that lines `first..=last` show (a remedy with its cautions below it): their end
+/// comes into view, but never so far that `first` scrolls off the top.
+pub fn scroll_to_keep_block(
+    lines: &[Line],
+    first: usize,
+    last: usize,
+    width: u16,
+    height: u16,
+) -> u16 {
+    let width_rows = usize::from(width).max(1);
+    let rows = |l: &Line| l.width().div_ceil(width_rows).max(1);
+    let before_first: usize = lines.iter().take(first).map(rows).sum();
+    let to_end = scroll_to_keep(lines, last.max(first), width, height);
+    (usize::from(to_end).min(before_first)) as u16
+}
+
 pub fn scroll_to_keep(lines: &[Line], target: usize, width: u16, height: u16) -> u16 {
     let width = usize::from(width).max(1);
     let rows = |l: &Line| l.width().div_ceil(width).max(1);
@@ -128,6 +144,28 @@ pub fn scroll_to_keep(lines: &[Line], target: usize, width: u16, height: u16) ->
 
 /// Draw `lines` word-wrapped inside `block`, scrolled so that logical line `target` stays in
 /// view (`None`: from the top).
+/// Like [`render_scrolled`], keeping the block `first..=last` in view.
+pub fn render_scrolled_block<'a>(
+    lines: Vec<Line<'a>>,
+    (first, last): (usize, usize),
+    block: Block<'a>,
+    area: Rect,
+    buf: &mut Buffer,
+) {
+    let scroll = scroll_to_keep_block(
+        &lines,
+        first,
+        last,
+        area.width.saturating_sub(2),
+        area.height.saturating_sub(2),
+    );
+    Paragraph::new(lines)
+        .wrap(Wrap { trim: false })
+        .scroll((scroll, 0))
+        .block(block)
+        .render(area, buf);
+}
+
 pub fn render_scrolled<'a>(
     lines: Vec<Line<'a>>,
     target: Option<usize>,

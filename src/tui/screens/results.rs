@@ -121,12 +121,13 @@ impl Component for ResultsScreen {
         };
         let plots_height = (area.height.saturating_sub(2) * 9 / 20).max(7);
         let [summary, plots, lists] = Layout::vertical([
-            Constraint::Length(2),
+            Constraint::Length(3),
             Constraint::Length(plots_height),
             Constraint::Min(3),
         ])
         .areas(area);
         let mut summary_lines = summary_lines(outcome, app.units, theme);
+        summary_lines.push(assumed_line(outcome, theme, summary.width));
         if app.baseline_is_stale() {
             summary_lines.insert(
                 0,
@@ -222,6 +223,49 @@ pub fn summary_lines(
             outcome.profile.solver.elements
         )),
     ]
+}
+
+/// "⚠ 13 of 20 inputs assumed (…): causes shown at 68 % of their belief" — how much of the
+/// answer rests on defaults, and how the shown beliefs were lowered for it.
+pub fn assumed_line(outcome: &SolveOutcome, theme: Theme, width: u16) -> Line<'static> {
+    let share = crate::report::AssumedShare::of(&outcome.resolved);
+    if share.assumed == 0 {
+        return Line::from(Span::styled(
+            format!("All {} inputs given in the case.", share.total),
+            theme.dim(),
+        ));
+    }
+    let mut text = format!(
+        "⚠ {} of {} inputs assumed: beliefs shown at {:.0} % (F3 to enter them)",
+        share.assumed,
+        share.total,
+        share.factor() * 100.0
+    );
+    // Name as many of the assumed inputs as fit on the line.
+    let room = usize::from(width);
+    let mut names = String::new();
+    for (i, label) in share.labels.iter().enumerate() {
+        let more = share.labels.len() - i - 1;
+        let candidate = if names.is_empty() {
+            format!(": {label}")
+        } else {
+            format!("{names}, {label}")
+        };
+        let tail = if more > 0 {
+            format!(" +{more}")
+        } else {
+            String::new()
+        };
+        if text.chars().count() + candidate.chars().count() + tail.chars().count() > room {
+            if !names.is_empty() {
+                names.push_str(&format!(" +{}", more + 1));
+            }
+            break;
+        }
+        names = candidate;
+    }
+    text.push_str(&names);
+    Line::from(Span::styled(text, theme.warn()))
 }
 
 /// The two plots side by side; with `before`, the earlier profile is overlaid in bullets.
@@ -332,6 +376,9 @@ fn render_causes(
     buf: &mut Buffer,
 ) {
     let focus = state.focus == ResultsFocus::Causes;
+    let factor = app.latest_outcome().map_or(1.0, |o| {
+        crate::report::AssumedShare::of(&o.resolved).factor()
+    });
     let mut lines: Vec<Line> = Vec::new();
     let mut target = 0;
     if app.case.symptoms.is_empty() {
@@ -360,8 +407,8 @@ fn render_causes(
                 format!(
                     "{marker}{:>2}. {} {:>3.0}% ",
                     i + 1,
-                    belief_bar(cause.belief),
-                    cause.belief * 100.0
+                    belief_bar(cause.belief * factor),
+                    cause.belief * factor * 100.0
                 ),
                 style,
             ),
@@ -404,16 +451,9 @@ fn render_causes(
     );
 }
 
-/// Plain words for a remedy group ID.
+/// Plain words for a remedy group ID (the one name the CLI and reports use too).
 pub fn group_title(group: &str) -> String {
-    match group {
-        "winder_setting" => "Winder settings".into(),
-        "equipment" => "Equipment".into(),
-        "material_or_core" => "Material and core".into(),
-        "handling_and_storage" => "Handling and storage".into(),
-        "process_upstream" => "Upstream process".into(),
-        other => crate::tui::catalogue::plain_name(other),
-    }
+    crate::diagnose::group_title(group)
 }
 
 fn render_remedies(
@@ -426,14 +466,17 @@ fn render_remedies(
     let focus = state.focus == ResultsFocus::Remedies;
     let mut lines: Vec<Line> = Vec::new();
     let mut target = 0;
-    let mut last_group: Option<&str> = None;
+    let mut target_end = 0;
+    if !diagnosis.cautions.is_empty() {
+        // Always in view at the top of the pane; each remedy's own cautions follow it in full.
+        lines.push(Line::from(Span::styled(
+            "⚠ Follow site procedures, local codes and lockout/tagout before working on the winder.",
+            theme.warn(),
+        )));
+    }
     for (i, remedy) in diagnosis.remedies.iter().enumerate() {
-        if last_group != Some(remedy.group.as_str()) {
-            lines.push(Line::from(Span::styled(
-                group_title(&remedy.group),
-                theme.title(),
-            )));
-            last_group = Some(remedy.group.as_str());
+        if let Some(heading) = crate::diagnose::remedies::heading(&diagnosis.remedies, i) {
+            lines.push(Line::from(Span::styled(heading, theme.title())));
         }
         let selected = i == state.remedy;
         if selected {
@@ -463,15 +506,17 @@ fn render_remedies(
         ]));
         if !remedy.answers.is_empty() {
             lines.push(Line::from(Span::styled(
-                format!("    for: {}", remedy.answers.join(", ")),
+                format!("    for: {}", diagnosis.answers_text(remedy)),
                 theme.dim(),
             )));
         }
-        if let Some(what_if) = &remedy.what_if {
+        if let Some(what_if) = &remedy.what_if
+            && !what_if.indicator.is_empty()
+        {
             lines.push(Line::from(Span::styled(
                 format!(
                     "    {}: {} → {}{}",
-                    what_if.indicator,
+                    what_if.indicator.replace('_', " "),
                     what_if.before,
                     what_if.after,
                     if what_if.small_effect {
@@ -487,26 +532,22 @@ fn render_remedies(
                 },
             )));
         }
+        for caution in diagnosis.cautions_of(remedy) {
+            lines.push(Line::from(vec![
+                Span::styled(format!("    ⚠ {}: ", caution.title), theme.warn()),
+                Span::raw(caution.text.clone()),
+            ]));
+        }
+        if selected {
+            target_end = lines.len() - 1;
+        }
     }
     if diagnosis.remedies.is_empty() {
         lines.push(Line::from("No remedies listed."));
     }
-    if !diagnosis.cautions.is_empty() {
-        lines.push(Line::from(Span::styled("⚠ Cautions", theme.warn())));
-        for caution in &diagnosis.cautions {
-            lines.push(Line::from(vec![
-                Span::styled(format!("⚠ {}: ", caution.title), theme.warn()),
-                Span::raw(caution.text.clone()),
-            ]));
-        }
-        lines.push(Line::from(Span::styled(
-            "Follow site procedures, local codes and lockout/tagout before working on the winder.",
-            theme.dim(),
-        )));
-    }
-    super::render_scrolled(
+    super::render_scrolled_block(
         lines,
-        Some(target),
+        (target, target_end.max(target)),
         Block::bordered().title(" Remedies, in the order to try "),
         area,
         buf,

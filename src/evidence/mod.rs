@@ -1,0 +1,727 @@
+//! Measured evidence: what people measure on the bad roll, compared with what the model
+//! computes for it, and the inverse estimate of the wound-in tension the roll actually got.
+//!
+//! Owns the measurement types ([`measurements`]), the comparisons (density and mean radial
+//! compression from the roll's size, hardness shape along the radius, the lane pattern across
+//! the width, the bend of a line on the roll end against the slip capacity, the core bore
+//! against the computed core deformation, the pattern of bad rolls in the set), the indicator
+//! values the rule base tests ([`Evidence::indicators`]) and the least-squares fit of a tension
+//! (and stiffness) scale ([`fit`]). Depends on `model` only (and the small Levenberg–Marquardt
+//! solver the stack-test calibration also uses). Theory and limits: docs/evidence.md.
+
+pub mod fit;
+pub mod geometry;
+pub mod hardness;
+pub mod measurements;
+pub mod slip;
+
+use serde::{Deserialize, Serialize};
+
+pub use fit::{Estimate, FitOptions, InverseEstimate, estimate};
+pub use hardness::{HardnessComparison, LaneComparison};
+pub use measurements::{
+    BendDirection, BendPlace, CalibrationPoint, EndLine, HardnessProfile, HardnessReading,
+    LaneHardness, LaneReading, Measurements, ParentPosition, RollSet, RollSize, SizeUncertainty,
+    WoundAmount,
+};
+pub use slip::SlipComparison;
+
+use crate::model::{Profile, WindingProblem};
+
+/// Errors of the evidence layer; messages name the field and what is accepted.
+#[derive(Debug, thiserror::Error, PartialEq)]
+pub enum EvidenceError {
+    #[error("{field} = {value} is out of range: accepted {accepted}")]
+    OutOfRange {
+        field: String,
+        value: String,
+        accepted: String,
+    },
+    #[error(transparent)]
+    Model(#[from] crate::model::ModelError),
+}
+
+/// Size of the roll against the computed compression.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
+pub struct DensityComparison {
+    /// Wound length (m), given or from the weight.
+    pub length: f64,
+    /// Measured outside diameter (m).
+    pub measured_diameter: f64,
+    /// Diameter the model predicts for that length (m).
+    pub computed_diameter: f64,
+    /// Mean radial compression of the stack, measured and computed (shares).
+    pub measured_compression: f64,
+    pub computed_compression: f64,
+    /// Standard uncertainty of the measured compression (share).
+    pub compression_uncertainty: f64,
+    /// Measured wound density / computed wound density = (1 − ε̄ computed)/(1 − ε̄ measured).
+    pub density_ratio: f64,
+    /// Wound densities (kg/m³) when a basis weight is known.
+    pub measured_density: Option<f64>,
+    pub computed_density: Option<f64>,
+    /// Diameter the case was solved at (m).
+    pub solved_diameter: f64,
+}
+
+/// Core bore closing, measured against the elastic closing under the computed core pressure.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
+pub struct CoreBoreComparison {
+    /// m
+    pub measured: f64,
+    /// m; `None` when the core is given only by a measured stiffness.
+    pub computed: Option<f64>,
+    /// Computed pressure on the core (Pa).
+    pub core_pressure: f64,
+    /// measured / computed; `None` when nothing is computed or the computed value is 0.
+    pub ratio: Option<f64>,
+}
+
+/// What the pattern of bad rolls in the set says.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "snake_case")]
+pub enum SetPatternKind {
+    /// Every roll of the set is bad: the settings, not the web's profile.
+    AllRolls,
+    /// Only the edge positions are bad.
+    Edges,
+    /// One position (lane) only.
+    OneLane,
+    /// Some rolls, no single pattern.
+    SomeRolls,
+    /// None bad.
+    NoneBad,
+}
+
+/// The set the roll came from.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct SetPattern {
+    pub rolls: u32,
+    pub bad: u32,
+    /// bad / rolls.
+    pub bad_share: f64,
+    /// Share of the bad rolls (with known positions) at the two edge positions.
+    pub edge_share: Option<f64>,
+    /// Bad parent rolls / parent rolls looked at.
+    pub parent_share: Option<f64>,
+    pub pattern: SetPatternKind,
+    pub position_in_parent: Option<ParentPosition>,
+    pub parent_roll: Option<String>,
+}
+
+/// Every comparison of the measurements with the computed profile.
+#[derive(Debug, Clone, PartialEq, Default, Serialize, Deserialize)]
+pub struct Evidence {
+    pub density: Option<DensityComparison>,
+    pub hardness: Option<HardnessComparison>,
+    pub lanes: Option<LaneComparison>,
+    pub end_line: Option<SlipComparison>,
+    pub core_bore: Option<CoreBoreComparison>,
+    pub set: Option<SetPattern>,
+    /// What could not be compared, and why; limits of a comparison.
+    pub notes: Vec<String>,
+}
+
+/// One evidence indicator for the rule base, with the measured and computed values side by side
+/// in words.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct EvidenceIndicator {
+    pub id: &'static str,
+    pub value: f64,
+    /// "measured 812 kg/m³, computed 873 kg/m³" and the like.
+    pub detail: String,
+}
+
+/// Compare `measurements` with `profile`, the solution of `problem`.
+pub fn compare(
+    measurements: &Measurements,
+    problem: &WindingProblem,
+    profile: &Profile,
+) -> Result<Evidence, EvidenceError> {
+    measurements.validate()?;
+    let mut out = Evidence::default();
+    if let Some(size) = &measurements.size {
+        out.density = compare_size(size, problem, profile);
+        if let Some(d) = &out.density
+            && (d.measured_diameter / d.solved_diameter - 1.0).abs() > 0.02
+        {
+            out.notes.push(format!(
+                "the measured diameter ({}) differs from the diameter the case was solved at ({}) \
+                 by more than 2 %: the computed compression is that of the case's roll",
+                mm(d.measured_diameter),
+                mm(d.solved_diameter)
+            ));
+        }
+        if out.density.is_none() {
+            out.notes
+                .push("the roll's size could not be compared (no computed compression)".into());
+        }
+    }
+    if let Some(h) = &measurements.hardness {
+        out.hardness = hardness::compare_profile(h, profile);
+        match &out.hardness {
+            Some(c) => {
+                out.notes.extend(c.left_out.iter().cloned());
+                if c.rank_correlation.is_none() {
+                    out.notes.push(
+                        "hardness shape: at least 3 readings inside the roll are needed for a \
+                         rank correlation"
+                            .into(),
+                    );
+                }
+            }
+            None => out.notes.push(
+                "hardness along the radius: fewer than 2 readings lie inside the roll".into(),
+            ),
+        }
+    }
+    if let Some(l) = &measurements.lanes {
+        out.lanes = hardness::compare_lanes(l);
+        out.notes.push(
+            "hardness across the width: the model is one-dimensional (one pressure for the whole \
+             width) and cannot compute lane differences; the spread itself is the evidence"
+                .into(),
+        );
+    }
+    if let Some(line) = &measurements.end_line {
+        out.end_line = slip::compare(line, problem, profile);
+    }
+    if let Some(measured) = measurements.core_bore_reduction {
+        let core_pressure = profile.pressure.first().copied().unwrap_or(0.0);
+        let computed = geometry::core_bore_reduction(&problem.core, core_pressure);
+        if computed.is_none() {
+            out.notes.push(
+                "core bore: the core is given by a measured stiffness only, so its bore change \
+                 is not computed"
+                    .into(),
+            );
+        } else if computed == Some(0.0) {
+            out.notes
+                .push("core bore: the model takes the core as rigid (no bore change)".into());
+        }
+        out.core_bore = Some(CoreBoreComparison {
+            measured,
+            computed,
+            core_pressure,
+            ratio: computed.filter(|c| *c > 0.0).map(|c| measured / c),
+        });
+    }
+    if let Some(set) = &measurements.set {
+        out.set = Some(set_pattern(set));
+    }
+    Ok(out)
+}
+
+fn compare_size(
+    size: &RollSize,
+    problem: &WindingProblem,
+    profile: &Profile,
+) -> Option<DensityComparison> {
+    let length = size.amount.length();
+    let core_d = 2.0 * problem.core_radius;
+    let h = problem.thickness;
+    let computed = geometry::model_mean_compression(profile)?;
+    let measured = geometry::mean_compression(length, size.diameter, core_d, h);
+    // Relative uncertainty of the loose-stack share 1 − ε̄ = A/(L·h): length (or weight),
+    // caliper and area add in quadrature; δA/A = R·δD/(R² − rc²).
+    let r = size.diameter / 2.0;
+    let rc = problem.core_radius;
+    let u = size.uncertainty;
+    let area_share = r * u.diameter / (r * r - rc * rc).max(f64::MIN_POSITIVE);
+    let relative = (u.amount.powi(2) + u.caliper.powi(2) + area_share.powi(2)).sqrt();
+    let basis = size.amount.basis_weight();
+    Some(DensityComparison {
+        length,
+        measured_diameter: size.diameter,
+        computed_diameter: geometry::diameter_for(length, h, core_d, computed),
+        measured_compression: measured,
+        computed_compression: computed,
+        compression_uncertainty: relative * (1.0 - measured),
+        density_ratio: (1.0 - computed) / (1.0 - measured),
+        measured_density: basis.map(|g| geometry::wound_density(length, g, size.diameter, core_d)),
+        computed_density: basis.map(|g| g / (h * (1.0 - computed))),
+        solved_diameter: 2.0 * problem.outer_radius,
+    })
+}
+
+fn set_pattern(set: &RollSet) -> SetPattern {
+    let edge = |p: u32| p == 1 || p == set.rolls;
+    let known = set.bad_positions.len();
+    let edge_share = (known > 0 && set.rolls >= 3)
+        .then(|| set.bad_positions.iter().filter(|&&p| edge(p)).count() as f64 / known as f64);
+    let mut distinct = set.bad_positions.clone();
+    distinct.sort_unstable();
+    distinct.dedup();
+    let pattern = if set.bad == 0 {
+        SetPatternKind::NoneBad
+    } else if set.bad == set.rolls {
+        SetPatternKind::AllRolls
+    } else if set.bad == 1 || (distinct.len() == 1 && known == set.bad as usize) {
+        SetPatternKind::OneLane
+    } else if edge_share == Some(1.0) && known == set.bad as usize {
+        SetPatternKind::Edges
+    } else {
+        SetPatternKind::SomeRolls
+    };
+    SetPattern {
+        rolls: set.rolls,
+        bad: set.bad,
+        bad_share: f64::from(set.bad) / f64::from(set.rolls),
+        edge_share,
+        parent_share: match (set.parent_rolls, set.bad_parent_rolls) {
+            (Some(n), Some(b)) if n > 0 => Some(f64::from(b) / f64::from(n)),
+            _ => None,
+        },
+        pattern,
+        position_in_parent: set.position_in_parent,
+        parent_roll: set.parent_roll.clone(),
+    }
+}
+
+/// Lane spread below which the text calls the width even (the rules use 5 % the same way).
+const EVEN_LANES: f64 = 0.05;
+
+fn mm(metres: f64) -> String {
+    let v = metres * 1e3;
+    if v.abs() >= 100.0 {
+        format!("{v:.0} mm")
+    } else if v.abs() >= 1.0 {
+        format!("{v:.1} mm")
+    } else {
+        format!("{v:.2} mm")
+    }
+}
+
+fn kpa(pascal: f64) -> String {
+    if pascal.abs() >= 1e6 {
+        format!("{:.2} MPa", pascal / 1e6)
+    } else {
+        format!("{:.0} kPa", pascal / 1e3)
+    }
+}
+
+fn pct(share: f64) -> String {
+    format!("{:.1} %", share * 100.0)
+}
+
+impl Evidence {
+    /// True when nothing was compared.
+    pub fn is_empty(&self) -> bool {
+        self.density.is_none()
+            && self.hardness.is_none()
+            && self.lanes.is_none()
+            && self.end_line.is_none()
+            && self.core_bore.is_none()
+            && self.set.is_none()
+    }
+
+    /// The values the rule base may test (IDs listed in docs/rules.md); a measurement not
+    /// taken gives no value, so rules testing it stay neutral.
+    pub fn indicators(&self) -> Vec<EvidenceIndicator> {
+        let mut out = Vec::new();
+        let mut push = |id: &'static str, value: f64, detail: String| {
+            if value.is_finite() {
+                out.push(EvidenceIndicator { id, value, detail });
+            }
+        };
+        if let Some(d) = &self.density {
+            let detail = match (d.measured_density, d.computed_density) {
+                (Some(m), Some(c)) => format!(
+                    "measured {m:.0} kg/m³ (Ø {} for {:.0} m), computed {c:.0} kg/m³ (Ø {})",
+                    mm(d.measured_diameter),
+                    d.length,
+                    mm(d.computed_diameter)
+                ),
+                _ => format!(
+                    "measured Ø {} for {:.0} m (compression {}), computed Ø {} (compression {})",
+                    mm(d.measured_diameter),
+                    d.length,
+                    pct(d.measured_compression),
+                    mm(d.computed_diameter),
+                    pct(d.computed_compression)
+                ),
+            };
+            push("measured_density_ratio", d.density_ratio, detail.clone());
+            if d.compression_uncertainty > 0.0 {
+                push(
+                    "density_deviation",
+                    (d.measured_compression - d.computed_compression) / d.compression_uncertainty,
+                    format!(
+                        "{detail}; compression {} ± {} measured, {} computed",
+                        pct(d.measured_compression),
+                        pct(d.compression_uncertainty),
+                        pct(d.computed_compression)
+                    ),
+                );
+            }
+        }
+        if let Some(h) = &self.hardness {
+            if let Some(rho) = h.rank_correlation {
+                push(
+                    "hardness_shape_agreement",
+                    rho,
+                    format!(
+                        "softest reading at Ø {}, computed lowest pressure at Ø {}; hardest at Ø {}, computed at Ø {}",
+                        mm(h.softest_diameter),
+                        mm(h.computed_softest_diameter),
+                        mm(h.hardest_diameter),
+                        mm(h.computed_hardest_diameter)
+                    ),
+                );
+            }
+            if let Some(dip) = h.unexplained_dip {
+                let detail = match &h.soft_band {
+                    Some(b) => format!(
+                        "soft band at Ø {}: readings dip {} of their range, computed pressure {}",
+                        mm(b.diameter),
+                        pct(b.depth),
+                        pct(b.computed_depth)
+                    ),
+                    None => "no soft band the computed pressure does not have".into(),
+                };
+                push("hardness_soft_band", dip, detail);
+            }
+        }
+        if let Some(l) = &self.lanes {
+            push(
+                "lane_hardness_spread",
+                l.spread,
+                format!(
+                    "hard lanes {:?}, soft lanes {:?}{}; the model computes one value across the width",
+                    l.hard_lanes,
+                    l.soft_lanes,
+                    if l.hard_edges {
+                        ", both edges hard"
+                    } else {
+                        ""
+                    }
+                ),
+            );
+        }
+        if let Some(s) = &self.end_line {
+            push(
+                "end_line_offset",
+                s.offset.unwrap_or(0.0),
+                format!("line on the roll end: {}", bend_words(&s.observed)),
+            );
+            if let (Some(agrees), Some((a, b))) = (s.agrees, s.observed_fractions) {
+                push(
+                    "slip_location_match",
+                    if agrees { 1.0 } else { 0.0 },
+                    format!(
+                        "bends at {:.0}–{:.0} % of the build; computed weakest interface at Ø {} ({:.0} % of the build)",
+                        a * 100.0,
+                        b * 100.0,
+                        mm(s.weakest_diameter),
+                        s.weakest_fraction * 100.0
+                    ),
+                );
+                push(
+                    "end_line_bend_position",
+                    0.5 * (a + b),
+                    format!("line on the roll end: {}", bend_words(&s.observed)),
+                );
+            }
+        }
+        if let Some(c) = &self.core_bore
+            && let Some(ratio) = c.ratio
+        {
+            push(
+                "core_bore_ratio",
+                ratio,
+                format!(
+                    "bore closed {} measured, {} computed under {} on the core",
+                    mm(c.measured),
+                    mm(c.computed.unwrap_or(0.0)),
+                    kpa(c.core_pressure)
+                ),
+            );
+        }
+        if let Some(s) = &self.set {
+            push(
+                "bad_roll_share",
+                s.bad_share,
+                format!("{} of {} rolls in the set bad", s.bad, s.rolls),
+            );
+            if let Some(e) = s.edge_share {
+                push(
+                    "bad_edge_share",
+                    e,
+                    format!("{} of the bad rolls at the two edge positions", pct(e)),
+                );
+            }
+            if let Some(p) = s.parent_share {
+                push(
+                    "bad_parent_share",
+                    p,
+                    format!("{} of the parent rolls looked at gave bad rolls", pct(p)),
+                );
+            }
+        }
+        out
+    }
+
+    /// Plain-words lines, measured beside computed, for the text output and reports.
+    pub fn lines(&self) -> Vec<String> {
+        let mut out = Vec::new();
+        if let Some(d) = &self.density {
+            let mut line = format!(
+                "Roll size: {:.0} m wound to Ø {} measured; the model predicts Ø {}. Mean radial \
+                 compression {} measured (± {}), {} computed; wound density measured/computed {:.3}.",
+                d.length,
+                mm(d.measured_diameter),
+                mm(d.computed_diameter),
+                pct(d.measured_compression),
+                pct(d.compression_uncertainty),
+                pct(d.computed_compression),
+                d.density_ratio
+            );
+            if let (Some(m), Some(c)) = (d.measured_density, d.computed_density) {
+                line.push_str(&format!(" ({m:.0} against {c:.0} kg/m³.)"));
+            }
+            let gap = d.measured_compression - d.computed_compression;
+            if gap.abs() > 2.0 * d.compression_uncertainty {
+                line.push_str(if gap < 0.0 {
+                    " Larger than the model for its length: less wound-in tension than the \
+                     settings say (tension reading, entrained air, nip)."
+                } else {
+                    " Smaller than the model for its length: more wound-in tension than the \
+                     settings say."
+                });
+            } else {
+                line.push_str(" Within the measurement's uncertainty of the model.");
+            }
+            out.push(line);
+        }
+        if let Some(h) = &self.hardness {
+            let mut line = match h.rank_correlation {
+                Some(rho) => format!(
+                    "Hardness along the radius: rank correlation with the computed pressure {rho:.2} \
+                     (1 = same shape)."
+                ),
+                None => {
+                    "Hardness along the radius: too few readings for a shape comparison.".into()
+                }
+            };
+            line.push_str(&format!(
+                " Softest at Ø {} (model: Ø {}), hardest at Ø {} (model: Ø {}).",
+                mm(h.softest_diameter),
+                mm(h.computed_softest_diameter),
+                mm(h.hardest_diameter),
+                mm(h.computed_hardest_diameter)
+            ));
+            if let Some(b) = &h.soft_band {
+                line.push_str(&format!(
+                    " Soft band at Ø {} the model does not have.",
+                    mm(b.diameter)
+                ));
+            }
+            out.push(line);
+            for p in &h.points {
+                out.push(format!(
+                    "  Ø {:>8}  reading {:>7}  {}computed {}",
+                    mm(p.diameter),
+                    p.reading,
+                    p.measured_pressure
+                        .map(|m| format!("≈ {} measured, ", kpa(m)))
+                        .unwrap_or_default(),
+                    kpa(p.computed_pressure)
+                ));
+            }
+        }
+        if let Some(l) = &self.lanes {
+            out.push(if l.spread < EVEN_LANES {
+                format!(
+                    "Hardness across the width: even (spread {} of the mean). The model cannot \
+                     compute lanes; these readings show none.",
+                    pct(l.spread)
+                )
+            } else {
+                format!(
+                    "Hardness across the width: spread {} of the mean; hard lanes {:?}, soft lanes \
+                     {:?}{}. The model cannot compute lanes: hard and soft lanes point to caliper \
+                     variation across the width (gauge bands) or an uneven nip.",
+                    pct(l.spread),
+                    l.hard_lanes,
+                    l.soft_lanes,
+                    if l.hard_edges {
+                        ", both edges hard"
+                    } else {
+                        ""
+                    }
+                )
+            });
+        }
+        if let Some(s) = &self.end_line {
+            let mut line = format!(
+                "Line on the roll end: {}{}. The model's weakest interface (lowest friction torque) \
+                 is at Ø {}, weak from Ø {} to Ø {}",
+                bend_words(&s.observed),
+                s.offset
+                    .map(|o| format!(", offset {}", mm(o)))
+                    .unwrap_or_default(),
+                mm(s.weakest_diameter),
+                mm(s.weak_band.0),
+                mm(s.weak_band.1)
+            );
+            line.push_str(match s.agrees {
+                Some(true) => ": the bend is where the model expects slip.",
+                Some(false) => ": the bend is not where the model expects slip.",
+                None => ".",
+            });
+            out.push(line);
+        }
+        if let Some(c) = &self.core_bore {
+            out.push(match c.computed {
+                Some(comp) => format!(
+                    "Core bore: closed {} measured, {} computed (elastic, under {} on the core).",
+                    mm(c.measured),
+                    mm(comp),
+                    kpa(c.core_pressure)
+                ),
+                None => format!(
+                    "Core bore: closed {} measured; not computed for a core given by stiffness only.",
+                    mm(c.measured)
+                ),
+            });
+        }
+        if let Some(s) = &self.set {
+            out.push(format!(
+                "The set: {} of {} rolls bad ({}){}.",
+                s.bad,
+                s.rolls,
+                match s.pattern {
+                    SetPatternKind::AllRolls => "all of them: points to the settings",
+                    SetPatternKind::Edges =>
+                        "only edge positions: points to the web's profile or the trim",
+                    SetPatternKind::OneLane =>
+                        "one position: points to the web's profile or the slitter",
+                    SetPatternKind::SomeRolls => "some of them",
+                    SetPatternKind::NoneBad => "none",
+                },
+                s.parent_share
+                    .map(|p| format!("; {} of the parent rolls gave bad rolls", pct(p)))
+                    .unwrap_or_default()
+            ));
+        }
+        out.extend(self.notes.iter().map(|n| format!("Note: {n}.")));
+        out
+    }
+}
+
+/// One row of the measured-against-computed table of reports.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct ComparisonRow {
+    pub what: String,
+    pub measured: String,
+    pub computed: String,
+}
+
+impl Evidence {
+    /// The measured-against-computed table (reports): one row per compared figure.
+    pub fn rows(&self) -> Vec<ComparisonRow> {
+        let mut out = Vec::new();
+        let mut row = |what: String, measured: String, computed: String| {
+            out.push(ComparisonRow {
+                what,
+                measured,
+                computed,
+            })
+        };
+        if let Some(d) = &self.density {
+            row(
+                format!("Diameter for {:.0} m wound", d.length),
+                mm(d.measured_diameter),
+                mm(d.computed_diameter),
+            );
+            row(
+                "Mean radial compression".into(),
+                format!(
+                    "{} ± {}",
+                    pct(d.measured_compression),
+                    pct(d.compression_uncertainty)
+                ),
+                pct(d.computed_compression),
+            );
+            if let (Some(m), Some(c)) = (d.measured_density, d.computed_density) {
+                row(
+                    "Wound density".into(),
+                    format!("{m:.0} kg/m³"),
+                    format!("{c:.0} kg/m³"),
+                );
+            }
+        }
+        if let Some(h) = &self.hardness {
+            for p in &h.points {
+                row(
+                    format!("Hardness at Ø {}", mm(p.diameter)),
+                    match p.measured_pressure {
+                        Some(m) => format!("{} (≈ {})", p.reading, kpa(m)),
+                        None => format!("{} (tester scale)", p.reading),
+                    },
+                    format!("pressure {}", kpa(p.computed_pressure)),
+                );
+            }
+            if let Some(rho) = h.rank_correlation {
+                row(
+                    "Softest / hardest".into(),
+                    format!(
+                        "Ø {} / Ø {} (rank correlation {rho:.2})",
+                        mm(h.softest_diameter),
+                        mm(h.hardest_diameter)
+                    ),
+                    format!(
+                        "Ø {} / Ø {}",
+                        mm(h.computed_softest_diameter),
+                        mm(h.computed_hardest_diameter)
+                    ),
+                );
+            }
+        }
+        if let Some(l) = &self.lanes {
+            row(
+                "Hardness spread across the width".into(),
+                pct(l.spread),
+                "not computed (one-dimensional model)".into(),
+            );
+        }
+        if let Some(s) = &self.end_line {
+            row(
+                "Line on the roll end".into(),
+                bend_words(&s.observed),
+                format!("weakest interface at Ø {}", mm(s.weakest_diameter)),
+            );
+        }
+        if let Some(c) = &self.core_bore {
+            row(
+                "Core bore closing".into(),
+                mm(c.measured),
+                c.computed.map_or_else(|| "not computed".into(), mm),
+            );
+        }
+        if let Some(s) = &self.set {
+            row(
+                "Bad rolls in the set".into(),
+                format!("{} of {}", s.bad, s.rolls),
+                "—".into(),
+            );
+        }
+        out
+    }
+}
+
+fn bend_words(place: &BendPlace) -> String {
+    match place {
+        BendPlace::Straight => "stayed straight".into(),
+        BendPlace::NearCore => "bends near the core".into(),
+        BendPlace::Band {
+            from_diameter,
+            to_diameter,
+        } => format!(
+            "bends in a band from Ø {} to Ø {}",
+            mm(*from_diameter),
+            mm(*to_diameter)
+        ),
+        BendPlace::Throughout => "curves throughout".into(),
+    }
+}

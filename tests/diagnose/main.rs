@@ -1,0 +1,16 @@
+//! Integration tests of diagnosis: the rule base (lint and consistency), scenario tables, ranking properties,
+//! the Markdown output and the `diagnose` command.
+//!
+//! One test binary per area (each module a former stand-alone test file), so the crate is
+//! linked once per area instead of once per file. See DEVELOPERS.md, "Tests".
+
+mod common;
+
+mod cli;
+mod evidence_compare;
+mod markdown;
+mod properties;
+mod rules_consistency;
+mod rules_lint;
+mod scenario_table;
+mod scenarios;

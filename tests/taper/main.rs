@@ -1,0 +1,7 @@
+//! Integration tests of taper design: the library and the `taper` command.
+//!
+//! One test binary per area (each module a former stand-alone test file), so the crate is
+//! linked once per area instead of once per file. See DEVELOPERS.md, "Tests".
+
+mod cli;
+mod design;

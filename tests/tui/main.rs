@@ -1,0 +1,12 @@
+//! Integration tests of the terminal UI: app state driven by keys, the solve job, screen snapshots and the tmux
+//! smoke scripts.
+//!
+//! One test binary per area (each module a former stand-alone test file), so the crate is
+//! linked once per area instead of once per file. See DEVELOPERS.md, "Tests".
+
+mod tui_support;
+
+mod job;
+mod screens;
+mod smoke;
+mod state;

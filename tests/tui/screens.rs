@@ -1,0 +1,277 @@
+//! Render tests: every screen drawn on ratatui's TestBackend at 80×24 (the smallest terminal we
+//! support) and 120×40, compared with committed insta snapshots. Drawn in monochrome: the
+//! snapshots hold only the characters, which must carry all the meaning without colour.
+
+use crate::tui_support;
+
+use ratatui::Terminal;
+use ratatui::backend::TestBackend;
+use rolltriage::tui::app::App;
+use rolltriage::tui::event::Key;
+use rolltriage::tui::screens::AppView;
+use rolltriage::tui::theme::Theme;
+use tui_support::*;
+
+const SIZES: [(u16, u16); 2] = [(80, 24), (120, 40)];
+
+fn draw(app: &App, width: u16, height: u16) -> String {
+    let mut terminal = Terminal::new(TestBackend::new(width, height)).unwrap();
+    terminal
+        .draw(|frame| {
+            frame.render_widget(
+                AppView {
+                    app,
+                    theme: Theme::monochrome(),
+                },
+                frame.area(),
+            )
+        })
+        .unwrap();
+    terminal.backend().to_string()
+}
+
+fn snapshot_all_sizes(name: &str, app: &App) {
+    for (w, h) in SIZES {
+        insta::assert_snapshot!(format!("{name}_{w}x{h}"), draw(app, w, h));
+    }
+}
+
+fn type_text(app: &mut App, text: &str) {
+    for c in text.chars() {
+        app.handle_key(Key::Char(c));
+    }
+}
+
+fn with_results() -> App {
+    let mut app = app();
+    app.set_case(sample_case(), Some("cases/reel7.yaml".into()));
+    finish_requests(&mut app, &outcome(1.0), &outcome(1.0));
+    app
+}
+
+#[test]
+fn symptoms_screen() {
+    let mut app = app();
+    type_text(&mut app, "telesc");
+    app.handle_key(Key::Enter);
+    app.handle_key(Key::Esc);
+    type_text(&mut app, "st");
+    snapshot_all_sizes("symptoms", &app);
+}
+
+#[test]
+fn symptoms_details_with_questions() {
+    let mut app = app();
+    type_text(&mut app, "coning");
+    app.handle_key(Key::Right);
+    app.handle_key(Key::Right);
+    app.handle_key(Key::Right);
+    app.handle_key(Key::Right);
+    app.handle_key(Key::Down);
+    app.handle_key(Key::Char('y'));
+    snapshot_all_sizes("symptoms_details", &app);
+}
+
+#[test]
+fn inputs_screen_with_a_rejected_entry() {
+    let mut app = app();
+    app.handle_key(Key::F(3));
+    let index = rolltriage::tui::fields::FIELDS
+        .iter()
+        .position(|f| f.path == "winding.tension")
+        .unwrap();
+    for _ in 0..index {
+        app.handle_key(Key::Down);
+    }
+    type_text(&mut app, "48 mil");
+    app.handle_key(Key::Enter);
+    // A fixed resolved case so the snapshot does not follow edits to the preset table.
+    app.session.resolved = Ok(resolved_with_assumed());
+    snapshot_all_sizes("inputs_rejected", &app);
+}
+
+#[test]
+fn results_screen() {
+    let app = with_results();
+    snapshot_all_sizes("results", &app);
+}
+
+#[test]
+fn results_with_reasons_and_remedies_focused() {
+    let mut app = with_results();
+    app.handle_key(Key::Enter);
+    app.handle_key(Key::Right);
+    app.handle_key(Key::Down);
+    snapshot_all_sizes("results_reasons", &app);
+}
+
+#[test]
+fn results_while_solving() {
+    let mut app = app();
+    app.set_case(sample_case(), None);
+    let request = app.take_requests().pop().unwrap();
+    app.on_job(rolltriage::tui::job::JobMessage::Progress {
+        id: request.id,
+        fraction: 0.42,
+    });
+    snapshot_all_sizes("results_solving", &app);
+}
+
+#[test]
+fn what_if_screen_before_and_after() {
+    let mut app = with_results();
+    app.session.resolved = Ok(resolved("Sample"));
+    app.handle_key(Key::F(5));
+    app.handle_key(Key::Right);
+    finish_requests(&mut app, &outcome(1.0), &outcome(0.8));
+    snapshot_all_sizes("what_if", &app);
+}
+
+#[test]
+fn help_popup() {
+    let mut app = app();
+    app.handle_key(Key::F(1));
+    snapshot_all_sizes("help", &app);
+}
+
+#[test]
+fn unsaved_changes_popup() {
+    let mut app = app();
+    type_text(&mut app, "telesc");
+    app.handle_key(Key::Enter);
+    app.handle_key(Key::Ctrl('q'));
+    snapshot_all_sizes("confirm_quit", &app);
+}
+
+#[test]
+fn monochrome_and_colour_draw_the_same_characters() {
+    let app = with_results();
+    let mono = draw(&app, 80, 24);
+    let mut terminal = Terminal::new(TestBackend::new(80, 24)).unwrap();
+    terminal
+        .draw(|frame| {
+            frame.render_widget(
+                AppView {
+                    app: &app,
+                    theme: Theme { color: true },
+                },
+                frame.area(),
+            )
+        })
+        .unwrap();
+    assert_eq!(mono, terminal.backend().to_string());
+}
+
+#[test]
+fn plots_label_every_zone_and_the_reference_lines_at_120_columns() {
+    let app = with_results();
+    let screen = draw(&app, 120, 40);
+    for label in ["inner", "middle", "outer", "crush rating"] {
+        assert!(screen.contains(label), "missing {label}:\n{screen}");
+    }
+}
+
+#[test]
+fn training_picker() {
+    let mut app = app();
+    app.session.walkthroughs = rolltriage::training::library::embedded().unwrap();
+    app.handle_key(Key::Ctrl('t'));
+    // Draw only the first size: the list itself follows the shipped walk-throughs.
+    let screen = draw(&app, 80, 24);
+    assert!(screen.contains("Training walk-throughs"), "{screen}");
+    assert!(
+        screen.contains(&app.session.walkthroughs[0].walkthrough.title),
+        "{screen}"
+    );
+}
+
+#[test]
+fn training_walkthrough_question_and_feedback() {
+    let mut app = app();
+    app.session.walkthroughs = rolltriage::training::library::embedded().unwrap();
+    let index = app
+        .session
+        .walkthroughs
+        .iter()
+        .position(|w| w.walkthrough.id == "telescoping_newsprint")
+        .unwrap();
+    app.handle_key(Key::Ctrl('t'));
+    for _ in 0..index {
+        app.handle_key(Key::Down);
+    }
+    app.handle_key(Key::Enter);
+    app.handle_key(Key::Enter);
+    app.handle_key(Key::Down);
+    insta::assert_snapshot!("training_question_80x24", draw(&app, 80, 24));
+    app.handle_key(Key::Char('1'));
+    let feedback = draw(&app, 80, 24);
+    assert!(
+        feedback.contains("Not quite. The best answer is 2"),
+        "{feedback}"
+    );
+}
+
+#[test]
+fn stack_calibration_fit() {
+    let mut app = app();
+    app.set_case(sample_case(), None);
+    app.handle_key(Key::F(3));
+    // The key is on the inputs screen's help line, which stays within 80 columns.
+    let screen = draw(&app, 80, 24);
+    let help_line = screen.lines().last().unwrap();
+    assert!(help_line.contains("^K calibrate"), "{help_line}");
+    assert!(help_line.contains("^Q quit"), "{help_line}");
+    app.handle_key(Key::Ctrl('k'));
+    type_text(&mut app, "cases/calibration/harbour_news_45.csv");
+    app.handle_key(Key::Enter);
+    insta::assert_snapshot!("stack_calibration_80x24", draw(&app, 80, 24));
+}
+
+#[test]
+fn what_if_shows_a_taper_design_with_its_limits() {
+    let mut app = with_results();
+    // A small roll (about 260 wraps) keeps the design's many solves quick in debug builds.
+    let mut small = resolved("Sample");
+    small.roll.outer_diameter = 0.14;
+    app.session.resolved = Ok(small);
+    app.handle_key(Key::F(5));
+    app.handle_key(Key::Char('d'));
+    let request = app.take_requests().pop().unwrap();
+    let design =
+        rolltriage::taper_design::design(request.resolved.as_ref().unwrap(), &Default::default())
+            .unwrap();
+    app.on_job(rolltriage::tui::job::JobMessage::DesignFinished {
+        id: request.id,
+        generation: request.generation,
+        result: Ok(Box::new(design)),
+    });
+    let screen = draw(&app, 120, 40);
+    for text in [
+        "Designed taper",
+        "allowed",
+        "core pressure",
+        "wound-in tension",
+        "• before",
+    ] {
+        assert!(screen.contains(text), "missing {text}:\n{screen}");
+    }
+}
+
+/// Issue 19: an answer resting on assumed inputs says so, names them and lowers the shown
+/// beliefs; the selected remedy's caution is shown in full beside it.
+#[test]
+fn results_resting_on_assumed_inputs_say_so() {
+    let mut app = app();
+    app.set_case(sample_case(), Some("cases/reel7.yaml".into()));
+    let mut assumed = outcome(1.0);
+    assumed.resolved = resolved_with_assumed();
+    finish_requests(&mut app, &assumed, &assumed);
+    app.handle_key(Key::Right);
+    app.handle_key(Key::Down);
+    snapshot_all_sizes("results_assumed", &app);
+    for (w, h) in [(80, 24), (120, 40)] {
+        let screen = draw(&app, w, h);
+        assert!(screen.contains("inputs assumed"), "{screen}");
+        assert!(screen.contains("Nip pinch point"), "{screen}");
+    }
+}
