@@ -1,685 +1,24 @@
-//! Rule-base YAML schema → validated, compiled rules; lint with file/line errors.
-//!
-//! A rule directory holds `causes.yaml` (cause catalogue), `remedies.yaml` (remedy catalogue),
-//! `cautions.yaml` (safety cautions) and one `<symptom>.yaml` per symptom. The schema is
-//! described in `docs/rules.md`. The shipped rule base is compiled into the binary.
+//! Compiling raw rule files into the rule base: name checks, thresholds in trade units,
+//! problems collected with file and line.
 
-use std::collections::{BTreeMap, BTreeSet};
-use std::path::Path;
-
-use serde::Deserialize;
-
-use super::indicators::{self, Dimension, ZoneUse};
-use crate::model::ZoneName;
-use crate::vocabulary;
-
-/// A rule-base error naming file, line and the closest valid name.
-#[derive(Debug, thiserror::Error)]
-pub enum RuleError {
-    #[error("{file}:{line}: {message}")]
-    Invalid {
-        file: String,
-        line: usize,
-        message: String,
-    },
-    #[error("cannot read rule directory {path}: {message}")]
-    Read { path: String, message: String },
-    #[error("{count} problems in the rule base:\n{listing}")]
-    Many { count: usize, listing: String },
-}
-
-/// The shipped rule files, compiled into the binary.
-const EMBEDDED: &[(&str, &str)] = &[
-    ("causes.yaml", include_str!("../../rules/causes.yaml")),
-    ("remedies.yaml", include_str!("../../rules/remedies.yaml")),
-    ("cautions.yaml", include_str!("../../rules/cautions.yaml")),
-    (
-        "telescoping.yaml",
-        include_str!("../../rules/telescoping.yaml"),
-    ),
-    ("starring.yaml", include_str!("../../rules/starring.yaml")),
-    ("blocking.yaml", include_str!("../../rules/blocking.yaml")),
-    (
-        "crushed_core.yaml",
-        include_str!("../../rules/crushed_core.yaml"),
-    ),
-    ("bulk_loss.yaml", include_str!("../../rules/bulk_loss.yaml")),
-    ("cinching.yaml", include_str!("../../rules/cinching.yaml")),
-    ("soft_roll.yaml", include_str!("../../rules/soft_roll.yaml")),
-    (
-        "out_of_round.yaml",
-        include_str!("../../rules/out_of_round.yaml"),
-    ),
-    ("wrinkles.yaml", include_str!("../../rules/wrinkles.yaml")),
-    (
-        "gauge_bands.yaml",
-        include_str!("../../rules/gauge_bands.yaml"),
-    ),
-    ("dishing.yaml", include_str!("../../rules/dishing.yaml")),
-    ("bursts.yaml", include_str!("../../rules/bursts.yaml")),
-    ("core_slip.yaml", include_str!("../../rules/core_slip.yaml")),
-    (
-        "tin_canning.yaml",
-        include_str!("../../rules/tin_canning.yaml"),
-    ),
-];
-
-// ---------------------------------------------------------------------------------------------
-// Raw schema (what the YAML says).
-
-#[derive(Debug, Deserialize)]
-#[serde(deny_unknown_fields)]
-struct RawCauseFile {
-    #[serde(default)]
-    sources: Vec<String>,
-    causes: BTreeMap<String, RawCause>,
-}
-
-#[derive(Debug, Deserialize)]
-#[serde(deny_unknown_fields)]
-struct RawCause {
-    title: String,
-    mechanism: String,
-    #[serde(default)]
-    remedies: Vec<String>,
-}
-
-#[derive(Debug, Deserialize)]
-#[serde(deny_unknown_fields)]
-struct RawRemedyFile {
-    #[serde(default)]
-    sources: Vec<String>,
-    remedies: BTreeMap<String, RawRemedy>,
-}
-
-#[derive(Debug, Deserialize)]
-#[serde(deny_unknown_fields)]
-struct RawRemedy {
-    text: String,
-    group: String,
-    cost: String,
-    #[serde(default)]
-    cautions: Vec<String>,
-    #[serde(default)]
-    change: Vec<RawChange>,
-}
-
-#[derive(Debug, Deserialize)]
-#[serde(deny_unknown_fields)]
-struct RawChange {
-    setting: String,
-    #[serde(default)]
-    scale: Option<f64>,
-    #[serde(default)]
-    by_percent_points: Option<f64>,
-    #[serde(default)]
-    to_percent: Option<f64>,
-    #[serde(default)]
-    clear: Option<bool>,
-}
-
-#[derive(Debug, Deserialize)]
-#[serde(deny_unknown_fields)]
-struct RawCautionFile {
-    #[serde(default)]
-    sources: Vec<String>,
-    cautions: BTreeMap<String, RawCaution>,
-}
-
-#[derive(Debug, Deserialize)]
-#[serde(deny_unknown_fields)]
-struct RawCaution {
-    title: String,
-    text: String,
-}
-
-#[derive(Debug, Deserialize)]
-#[serde(deny_unknown_fields)]
-struct RawSymptomFile {
-    symptom: String,
-    title: String,
-    description: String,
-    #[serde(default)]
-    aliases: Vec<String>,
-    #[serde(default)]
-    places: Vec<String>,
-    #[serde(default)]
-    sources: Vec<String>,
-    #[serde(default)]
-    questions: Vec<RawQuestion>,
-    causes: Vec<RawRule>,
-}
-
-#[derive(Debug, Deserialize)]
-#[serde(deny_unknown_fields)]
-struct RawQuestion {
-    id: String,
-    text: String,
-    #[serde(default)]
-    choices: Vec<RawChoice>,
-}
-
-#[derive(Debug, Deserialize)]
-#[serde(deny_unknown_fields)]
-struct RawChoice {
-    id: String,
-    text: String,
-}
-
-#[derive(Debug, Deserialize)]
-#[serde(deny_unknown_fields)]
-struct RawRule {
-    cause: String,
-    because: String,
-    prior: f64,
-    #[serde(default)]
-    evidence: Vec<RawEvidence>,
-    #[serde(default)]
-    remedies: Vec<String>,
-}
-
-#[derive(Debug, Deserialize)]
-#[serde(untagged)]
-enum RawThreshold {
-    Number(f64),
-    Text(String),
-}
-
-#[derive(Debug, Deserialize)]
-#[serde(untagged)]
-enum OneOrMany {
-    One(String),
-    Many(Vec<String>),
-}
-
-impl OneOrMany {
-    fn into_vec(self) -> Vec<String> {
-        match self {
-            OneOrMany::One(s) => vec![s],
-            OneOrMany::Many(v) => v,
-        }
-    }
-}
-
-#[derive(Debug, Deserialize)]
-#[serde(deny_unknown_fields)]
-struct RawEvidence {
-    #[serde(default)]
-    indicator: Option<String>,
-    #[serde(default)]
-    zone: Option<String>,
-    #[serde(default)]
-    above: Option<RawThreshold>,
-    #[serde(default)]
-    below: Option<RawThreshold>,
-    #[serde(default)]
-    question: Option<String>,
-    #[serde(default)]
-    is: Option<OneOrMany>,
-    #[serde(default)]
-    material: Option<OneOrMany>,
-    #[serde(default)]
-    method: Option<OneOrMany>,
-    #[serde(default)]
-    place: Option<OneOrMany>,
-    weight: f64,
-    says: String,
-}
-
-// ---------------------------------------------------------------------------------------------
-// Compiled rule base.
-
-/// A cause in the catalogue.
-#[derive(Debug, Clone, PartialEq)]
-pub struct CauseInfo {
-    pub id: String,
-    pub title: String,
-    pub mechanism: String,
-    /// Remedies that answer this cause whatever the symptom.
-    pub remedies: Vec<String>,
-}
-
-/// How costly a remedy is to try.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, PartialOrd, Ord)]
-pub enum Cost {
-    Low,
-    Medium,
-    High,
-}
-
-impl Cost {
-    pub fn as_str(self) -> &'static str {
-        match self {
-            Cost::Low => "low",
-            Cost::Medium => "medium",
-            Cost::High => "high",
-        }
-    }
-}
-
-/// Remedy groups, in display order.
-pub const REMEDY_GROUPS: [&str; 5] = [
-    "winder_setting",
-    "equipment",
-    "material_or_core",
-    "handling_and_storage",
-    "process_upstream",
-];
-
-/// Winder settings a remedy may change for the what-if re-solve.
-pub const SETTINGS: [&str; 8] = [
-    "tension",
-    "taper",
-    "nip_load",
-    "speed",
-    "core_stiffness",
-    "core_crush_rating",
-    "tension_upsets",
-    "core_zone_tension",
-];
-
-/// One machine-readable setting change.
-#[derive(Debug, Clone, PartialEq)]
-pub enum SettingChange {
-    /// Multiply web tension (start tension, steps and upsets) by the factor.
-    TensionScale(f64),
-    /// Add percent points to the taper (negative = less taper).
-    TaperBy(f64),
-    /// Set the taper to this many percent.
-    TaperTo(f64),
-    /// Multiply the nip load by the factor.
-    NipScale(f64),
-    /// Multiply the line speed by the factor.
-    SpeedScale(f64),
-    /// Multiply the core's effective stiffness by the factor.
-    CoreStiffnessScale(f64),
-    /// Multiply the core's rated crush pressure by the factor.
-    CoreCrushScale(f64),
-    /// Remove tension upset bands (steady tension control).
-    ClearUpsets,
-    /// Wind the core zone (first tenth of the build) at this multiple of the start tension.
-    CoreZoneTensionScale(f64),
-}
-
-/// A remedy in the catalogue.
-#[derive(Debug, Clone, PartialEq)]
-pub struct Remedy {
-    pub id: String,
-    pub text: String,
-    pub group: String,
-    pub cost: Cost,
-    pub cautions: Vec<String>,
-    pub changes: Vec<SettingChange>,
-}
-
-/// A safety caution.
-#[derive(Debug, Clone, PartialEq)]
-pub struct CautionInfo {
-    pub id: String,
-    pub title: String,
-    pub text: String,
-}
-
-/// One answer choice of a question.
-#[derive(Debug, Clone, PartialEq, serde::Serialize)]
-pub struct Choice {
-    pub id: String,
-    pub text: String,
-}
-
-/// A question that tells causes of a symptom apart. Answers live in `Case.answers` by `id`.
-#[derive(Debug, Clone, PartialEq, serde::Serialize)]
-pub struct Question {
-    /// `<symptom>.<name>`, e.g. `starring.after_splice`.
-    pub id: String,
-    pub text: String,
-    /// Accepted answers. Yes/no questions accept `yes`, `no`, `unknown`; choice questions their
-    /// choice IDs plus `unknown`.
-    pub choices: Vec<Choice>,
-    pub yes_no: bool,
-}
-
-impl Question {
-    /// Accepted answer values.
-    pub fn accepted(&self) -> Vec<&str> {
-        let mut out: Vec<&str> = self.choices.iter().map(|c| c.id.as_str()).collect();
-        out.push("unknown");
-        out
-    }
-}
-
-/// Comparison of an indicator against its threshold.
-#[derive(Debug, Clone, Copy, PartialEq, Eq)]
-pub enum Comparison {
-    Above,
-    Below,
-}
-
-/// What a piece of evidence tests.
-#[derive(Debug, Clone, PartialEq)]
-pub enum Test {
-    Indicator {
-        id: String,
-        zone: Option<ZoneName>,
-        comparison: Comparison,
-        threshold: f64,
-        dimension: Dimension,
-    },
-    Answer {
-        question: String,
-        values: Vec<String>,
-    },
-    Material(Vec<vocabulary::WebMaterial>),
-    Method(Vec<String>),
-    Place(Vec<vocabulary::Place>),
-}
-
-/// One piece of evidence: a test and the certainty factor it adds when it holds.
-#[derive(Debug, Clone, PartialEq)]
-pub struct Evidence {
-    pub test: Test,
-    /// Certainty factor in −1..=1 (negative = evidence against).
-    pub weight: f64,
-    pub says: String,
-}
-
-/// A link from a symptom to a cause.
-#[derive(Debug, Clone, PartialEq)]
-pub struct CauseRule {
-    pub cause: String,
-    pub because: String,
-    /// Belief from the symptom alone, 0..=1.
-    pub prior: f64,
-    pub evidence: Vec<Evidence>,
-    pub remedies: Vec<String>,
-}
-
-/// Everything known about one symptom.
-#[derive(Debug, Clone, PartialEq)]
-pub struct SymptomRules {
-    pub id: String,
-    pub title: String,
-    pub description: String,
-    pub aliases: Vec<String>,
-    pub places: Vec<String>,
-    pub sources: Vec<String>,
-    pub questions: Vec<Question>,
-    pub rules: Vec<CauseRule>,
-    pub file: String,
-}
-
-/// The compiled rule base.
-#[derive(Debug, Clone, Default)]
-pub struct RuleBase {
-    pub symptoms: Vec<SymptomRules>,
-    pub causes: BTreeMap<String, CauseInfo>,
-    pub remedies: BTreeMap<String, Remedy>,
-    pub cautions: BTreeMap<String, CautionInfo>,
-    /// Literature cited across the files.
-    pub sources: Vec<String>,
-}
-
-impl RuleBase {
-    /// The rule base shipped inside the binary.
-    pub fn embedded() -> Result<RuleBase, RuleError> {
-        let files: Vec<(String, String)> = EMBEDDED
-            .iter()
-            .map(|(name, text)| (format!("rules/{name}"), (*text).to_string()))
-            .collect();
-        RuleBase::from_files(&files)
-    }
-
-    /// Load a rule directory (overrides the shipped rules).
-    pub fn load_dir(path: &Path) -> Result<RuleBase, RuleError> {
-        let read_error = |e: std::io::Error| RuleError::Read {
-            path: path.display().to_string(),
-            message: e.to_string(),
-        };
-        let names = crate::fsutil::yaml_files(path).map_err(read_error)?;
-        let mut files = Vec::new();
-        for name in names {
-            let text = std::fs::read_to_string(&name).map_err(read_error)?;
-            files.push((name.display().to_string(), text));
-        }
-        RuleBase::from_files(&files)
-    }
-
-    /// Compile a set of `(file name, text)` pairs. Every problem found is reported, each with
-    /// file and line.
-    pub fn from_files(files: &[(String, String)]) -> Result<RuleBase, RuleError> {
-        let mut problems = Problems::default();
-        let mut base = RuleBase::default();
-        let base_name = |f: &str| {
-            Path::new(f)
-                .file_name()
-                .map(|n| n.to_string_lossy().to_string())
-                .unwrap_or_default()
-        };
-        let find = |wanted: &str| files.iter().find(|(f, _)| base_name(f) == wanted);
-
-        // Catalogues first: symptom files refer to them.
-        let mut remedy_refs: Vec<(String, String, String)> = Vec::new(); // (file, text, remedy)
-        match find("causes.yaml") {
-            None => problems.add("causes.yaml", 1, "the rule directory has no causes.yaml"),
-            Some((file, text)) => {
-                if let Some(raw) = parse::<RawCauseFile>(file, text, &mut problems) {
-                    base.sources.extend(raw.sources);
-                    for (id, cause) in raw.causes {
-                        for remedy in &cause.remedies {
-                            remedy_refs.push((file.clone(), text.clone(), remedy.clone()));
-                        }
-                        base.causes.insert(
-                            id.clone(),
-                            CauseInfo {
-                                id,
-                                title: cause.title,
-                                mechanism: cause.mechanism,
-                                remedies: cause.remedies,
-                            },
-                        );
-                    }
-                    for required in vocabulary::CAUSE_IDS {
-                        if !base.causes.contains_key(required) {
-                            problems.add(
-                                file,
-                                1,
-                                &format!("cause `{required}` of the vocabulary is missing"),
-                            );
-                        }
-                    }
-                }
-            }
-        }
-        match find("cautions.yaml") {
-            None => problems.add(
-                "cautions.yaml",
-                1,
-                "the rule directory has no cautions.yaml",
-            ),
-            Some((file, text)) => {
-                if let Some(raw) = parse::<RawCautionFile>(file, text, &mut problems) {
-                    base.sources.extend(raw.sources);
-                    for (id, c) in raw.cautions {
-                        base.cautions.insert(
-                            id.clone(),
-                            CautionInfo {
-                                id,
-                                title: c.title,
-                                text: c.text,
-                            },
-                        );
-                    }
-                }
-            }
-        }
-        match find("remedies.yaml") {
-            None => problems.add(
-                "remedies.yaml",
-                1,
-                "the rule directory has no remedies.yaml",
-            ),
-            Some((file, text)) => {
-                if let Some(raw) = parse::<RawRemedyFile>(file, text, &mut problems) {
-                    base.sources.extend(raw.sources);
-                    for (id, r) in raw.remedies {
-                        if let Some(remedy) =
-                            compile_remedy(&id, r, file, text, &base, &mut problems)
-                        {
-                            base.remedies.insert(id, remedy);
-                        }
-                    }
-                }
-            }
-        }
-        for (file, text, remedy) in &remedy_refs {
-            check_remedy(remedy, file, text, &base, &mut problems);
-        }
-
-        // Symptom files.
-        for (file, text) in files {
-            let name = base_name(file);
-            if matches!(
-                name.as_str(),
-                "causes.yaml" | "remedies.yaml" | "cautions.yaml"
-            ) {
-                continue;
-            }
-            let Some(raw) = parse::<RawSymptomFile>(file, text, &mut problems) else {
-                continue;
-            };
-            if let Some(symptom) = compile_symptom(raw, file, text, &base, &mut problems) {
-                if base.symptoms.iter().any(|s| s.id == symptom.id) {
-                    problems.add(
-                        file,
-                        line_of(text, &symptom.id),
-                        &format!("symptom `{}` is defined twice", symptom.id),
-                    );
-                } else {
-                    base.symptoms.push(symptom);
-                }
-            }
-        }
-        base.symptoms.sort_by_key(|s| {
-            vocabulary::SYMPTOM_IDS
-                .iter()
-                .position(|x| *x == s.id)
-                .unwrap_or(usize::MAX)
-        });
-        base.sources.sort();
-        base.sources.dedup();
-        problems.into_result(base)
-    }
-
-    /// Coverage problems that do not stop loading (missing symptom files, unreachable causes,
-    /// unreferenced remedies and cautions). The shipped rule base has none.
-    pub fn lint(&self) -> Vec<String> {
-        let mut out = Vec::new();
-        for id in vocabulary::SYMPTOM_IDS {
-            if self.symptom(id).is_none() {
-                out.push(format!("symptom `{id}` has no rule file"));
-            }
-        }
-        let reachable: BTreeSet<&str> = self
-            .symptoms
-            .iter()
-            .flat_map(|s| s.rules.iter().map(|r| r.cause.as_str()))
-            .collect();
-        for id in self.causes.keys() {
-            if !reachable.contains(id.as_str()) {
-                out.push(format!("cause `{id}` is not reachable from any symptom"));
-            }
-        }
-        let referenced: BTreeSet<&str> = self
-            .symptoms
-            .iter()
-            .flat_map(|s| s.rules.iter().flat_map(|r| r.remedies.iter()))
-            .chain(self.causes.values().flat_map(|c| c.remedies.iter()))
-            .map(String::as_str)
-            .collect();
-        for id in self.remedies.keys() {
-            if !referenced.contains(id.as_str()) {
-                out.push(format!(
-                    "remedy `{id}` is not referenced by any cause or rule"
-                ));
-            }
-        }
-        let cautioned: BTreeSet<&str> = self
-            .remedies
-            .values()
-            .flat_map(|r| r.cautions.iter().map(String::as_str))
-            .collect();
-        for id in self.cautions.keys() {
-            if !cautioned.contains(id.as_str()) {
-                out.push(format!("caution `{id}` is not used by any remedy"));
-            }
-        }
-        for cause in self.causes.values() {
-            if self.causes_remedies(&cause.id).is_empty() {
-                out.push(format!("cause `{}` has no remedy", cause.id));
-            }
-        }
-        out
-    }
-
-    /// The rules of symptom `id`.
-    pub fn symptom(&self, id: &str) -> Option<&SymptomRules> {
-        self.symptoms.iter().find(|s| s.id == id)
-    }
-
-    /// The question with ID `id`, across all symptoms.
-    pub fn question(&self, id: &str) -> Option<&Question> {
-        self.symptoms
-            .iter()
-            .flat_map(|s| s.questions.iter())
-            .find(|q| q.id == id)
-    }
-
-    /// Every question ID, for "did you mean".
-    pub fn question_ids(&self) -> Vec<&str> {
-        self.symptoms
-            .iter()
-            .flat_map(|s| s.questions.iter().map(|q| q.id.as_str()))
-            .collect()
-    }
-
-    /// Every remedy that answers `cause` from any rule or the catalogue.
-    pub fn causes_remedies(&self, cause: &str) -> Vec<&str> {
-        let mut out: Vec<&str> = Vec::new();
-        let from_rules = self
-            .symptoms
-            .iter()
-            .flat_map(|s| s.rules.iter())
-            .filter(|r| r.cause == cause)
-            .flat_map(|r| r.remedies.iter());
-        let from_catalogue = self
-            .causes
-            .get(cause)
-            .into_iter()
-            .flat_map(|c| c.remedies.iter());
-        for id in from_rules.chain(from_catalogue) {
-            if !out.contains(&id.as_str()) {
-                out.push(id);
-            }
-        }
-        out
-    }
-}
+use super::raw::*;
+use super::*;
 
 // ---------------------------------------------------------------------------------------------
 // Compilation helpers.
 
 #[derive(Default)]
-struct Problems {
+pub(super) struct Problems {
     list: Vec<(String, usize, String)>,
 }
 
 impl Problems {
-    fn add(&mut self, file: &str, line: usize, message: &str) {
+    pub(super) fn add(&mut self, file: &str, line: usize, message: &str) {
         self.list
             .push((file.to_string(), line.max(1), message.to_string()));
     }
 
-    fn into_result(self, base: RuleBase) -> Result<RuleBase, RuleError> {
+    pub(super) fn into_result(self, base: RuleBase) -> Result<RuleBase, RuleError> {
         match self.list.len() {
             0 => Ok(base),
             1 => {
@@ -704,7 +43,7 @@ impl Problems {
 }
 
 /// Parse YAML, turning serde's message into one with a line and a "did you mean".
-fn parse<T: serde::de::DeserializeOwned>(
+pub(super) fn parse<T: serde::de::DeserializeOwned>(
     file: &str,
     text: &str,
     problems: &mut Problems,
@@ -732,7 +71,7 @@ fn parse<T: serde::de::DeserializeOwned>(
 }
 
 /// For "unknown field `x`, expected one of `a`, `b`" messages: the closest expected name.
-fn unknown_field_hint(message: &str) -> String {
+pub(super) fn unknown_field_hint(message: &str) -> String {
     if !message.contains("unknown field") && !message.contains("unknown variant") {
         return String::new();
     }
@@ -747,12 +86,12 @@ fn unknown_field_hint(message: &str) -> String {
 }
 
 /// Line (1-based) of the first line mentioning `needle` as a whole word; 1 when not found.
-fn line_of(text: &str, needle: &str) -> usize {
+pub(super) fn line_of(text: &str, needle: &str) -> usize {
     line_of_after(text, needle, 0)
 }
 
 /// Like [`line_of`] but only lines after `after` (1-based) count.
-fn line_of_after(text: &str, needle: &str, after: usize) -> usize {
+pub(super) fn line_of_after(text: &str, needle: &str, after: usize) -> usize {
     for (i, line) in text.lines().enumerate() {
         if i < after {
             continue;
@@ -772,14 +111,23 @@ fn line_of_after(text: &str, needle: &str, after: usize) -> usize {
     if after > 0 { after } else { 1 }
 }
 
-fn did_you_mean<'a, I: IntoIterator<Item = &'a str>>(given: &str, candidates: I) -> String {
+pub(super) fn did_you_mean<'a, I: IntoIterator<Item = &'a str>>(
+    given: &str,
+    candidates: I,
+) -> String {
     match vocabulary::closest(given, candidates) {
         Some(best) => format!(" (did you mean `{best}`?)"),
         None => String::new(),
     }
 }
 
-fn check_remedy(id: &str, file: &str, text: &str, base: &RuleBase, problems: &mut Problems) {
+pub(super) fn check_remedy(
+    id: &str,
+    file: &str,
+    text: &str,
+    base: &RuleBase,
+    problems: &mut Problems,
+) {
     if !base.remedies.contains_key(id) {
         problems.add(
             file,
@@ -792,7 +140,7 @@ fn check_remedy(id: &str, file: &str, text: &str, base: &RuleBase, problems: &mu
     }
 }
 
-fn compile_remedy(
+pub(super) fn compile_remedy(
     id: &str,
     raw: RawRemedy,
     file: &str,
@@ -939,7 +287,7 @@ fn compile_remedy(
     })
 }
 
-fn compile_symptom(
+pub(super) fn compile_symptom(
     raw: RawSymptomFile,
     file: &str,
     text: &str,
@@ -1098,9 +446,9 @@ fn compile_symptom(
     })
 }
 
-const METHODS: &[&str] = vocabulary::WINDING_METHOD_IDS;
+pub(super) const METHODS: &[&str] = vocabulary::WINDING_METHOD_IDS;
 
-fn compile_evidence(
+pub(super) fn compile_evidence(
     ev: RawEvidence,
     symptom: &str,
     questions: &[Question],
@@ -1302,7 +650,7 @@ fn compile_evidence(
     })
 }
 
-fn check_words(
+pub(super) fn check_words(
     values: &[String],
     accepted: &[&str],
     what: &str,
