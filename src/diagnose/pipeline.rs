@@ -206,7 +206,7 @@ impl WhatIfContext<'_> {
             .zip(solved)
             .map(|(c, s)| {
                 s.map(|p| {
-                    indicators::Indicators::compute(c, &p).with_evidence_of(self.before.indicators)
+                    indicators::Indicators::compute_after_change(c, &p, self.before.indicators)
                 })
             })
             .collect();
@@ -226,8 +226,11 @@ impl WhatIfContext<'_> {
                             .filter(|r| !r.changes.is_empty())
                             .map(|r| {
                                 let c = what_if::apply_changes(self.before.case, &r.changes);
-                                indicators::Indicators::compute(&c, self.profile)
-                                    .with_evidence_of(self.before.indicators)
+                                indicators::Indicators::compute_after_change(
+                                    &c,
+                                    self.profile,
+                                    self.before.indicators,
+                                )
                             }),
                     );
                 }

@@ -78,9 +78,24 @@ fn pick_driver<'a>(
             })
             .map(|(t, _, _)| *t)
     };
+    // Tests that hold now come first, so the row shows an indicator that decides the cause and
+    // not a stress-state value still short of its threshold; when none that holds moves, the
+    // strongest holding one is shown unmoved (what `deciding_test` picks).
+    let strongest_holding = || {
+        candidates
+            .iter()
+            .filter(|(_, holds, _)| *holds)
+            .max_by(|a, b| {
+                from_profile(a.0)
+                    .cmp(&from_profile(b.0))
+                    .then(a.2.total_cmp(&b.2))
+            })
+            .map(|(t, _, _)| *t)
+    };
     best(true, true)
-        .or_else(|| best(false, true))
         .or_else(|| best(true, false))
+        .or_else(strongest_holding)
+        .or_else(|| best(false, true))
         .or_else(|| best(false, false))
         .or_else(|| {
             // Nothing moves: show the strongest holding test (or the strongest at all).
@@ -182,7 +197,7 @@ pub fn what_if_solved(
     changed: &ResolvedCase,
     solved: Result<&crate::model::Profile, &crate::model::ModelError>,
 ) -> Option<WhatIf> {
-    let after = solved.map(|p| Indicators::compute(changed, p).with_evidence_of(before.indicators));
+    let after = solved.map(|p| Indicators::compute_after_change(changed, p, before.indicators));
     what_if_after(before, remedy, changed, after.as_ref().map_err(|e| *e))
 }
 

@@ -53,6 +53,34 @@ proptest! {
         prop_assert!(strong_belief <= weak_belief + 1e-12, "{strong_belief} > {weak_belief}");
     }
 
+    /// A normal ramp with a huge torque margin never puts acceleration torque first: torque
+    /// causes need torque (common practice: a gentle ramp passes little inertia torque through
+    /// the layers; T. J. Walker, PFFC: inertia × acceleration against friction). Only rolls whose
+    /// computed start/stop slip margin is above 20 count, with no answers given.
+    #[test]
+    fn normal_ramp_with_huge_margin_never_puts_torque_first(
+        tension in 200.0f64..700.0,
+        diameter in 0.6f64..1.4,
+        ramp in 20.0f64..120.0,
+        which in 0usize..3,
+    ) {
+        let rules = rules();
+        let symptom = ["cinching", "core_slip", "telescoping"][which];
+        let mut case = with_symptoms(newsprint("ramp"), &[symptom]);
+        case.winding.tension.start_tension = tension;
+        case.roll.outer_diameter = diameter;
+        case.winding.acceleration_time = Some(ramp);
+        let profile = coarse_profile(&case, 120);
+        let indicators = Indicators::compute(&case, &profile);
+        prop_assume!(indicators.get("speed_change_slip_margin", None).is_some_and(|m| m > 20.0));
+        let ids = vec![symptom.to_string()];
+        let ranked = rank(&rules, &ids, &case, &indicators);
+        prop_assert!(
+            ranked.first().is_none_or(|c| c.id != "acceleration_torque"),
+            "{symptom}: acceleration torque leads at a {ramp:.0} s ramp"
+        );
+    }
+
     /// Certainty-factor combination is monotone in each factor (Shortliffe & Buchanan 1975).
     #[test]
     fn combination_is_monotone(a in -0.99f64..0.99, b in -0.99f64..0.99, c in -0.99f64..0.99, d in 0.0f64..0.5) {

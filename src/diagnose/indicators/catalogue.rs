@@ -18,6 +18,24 @@ pub const INDICATORS: &[IndicatorSpec] = &[
         "pressure on the core divided by the core's rated crush pressure (above 1 = overloaded)",
     ),
     spec(
+        "first_wraps_pressure_ratio",
+        Dimension::Ratio,
+        ZoneUse::None,
+        "mean pressure in the first wraps (core zone) over that of the inner zone (under 1 = the first wraps are held less hard than the wraps outside them)",
+    ),
+    spec(
+        "core_pressure_size_share",
+        Dimension::Fraction,
+        ZoneUse::None,
+        "share of the computed core pressure that the outer half of the build adds (re-solved at half the build; near 0 = roll size cannot move it)",
+    ),
+    spec(
+        "core_pressure_taper_share",
+        Dimension::Fraction,
+        ZoneUse::None,
+        "share of the computed core pressure that 30 percent points more taper removes (re-solved; near 0 = taper cannot move it)",
+    ),
+    spec(
         "peak_pressure",
         Dimension::Pressure,
         ZoneUse::None,

@@ -4,6 +4,20 @@
 use super::*;
 
 impl Indicators {
+    /// How hard the first wraps are held against the wraps just outside them: the mean
+    /// pressure of the core zone over that of the inner zone. On a sound start the pressure is
+    /// highest at the core and the ratio is 1 or more; slack first wraps (a low core-zone
+    /// tension, a soft core giving way) show as a ratio under 1.
+    pub(super) fn add_first_wraps(&mut self) {
+        let core = self.get("pressure_mean", Some(ZoneName::Core));
+        let inner = self.get("pressure_mean", Some(ZoneName::Inner));
+        if let (Some(core), Some(inner)) = (core, inner)
+            && inner > 0.0
+        {
+            self.set("first_wraps_pressure_ratio", None, core / inner);
+        }
+    }
+
     pub(super) fn add_case_inputs(&mut self, case: &ResolvedCase) {
         let tension = case.winding.tension.start_tension;
         let thickness = case.web.thickness;

@@ -13,6 +13,7 @@ use crate::model::{Profile, Taper, WindingMethod, ZoneName};
 
 mod catalogue;
 mod compute;
+pub mod levers;
 
 pub use catalogue::INDICATORS;
 pub use compute::taper_percent;
@@ -235,6 +236,8 @@ impl Indicators {
         let mut out = Indicators::default();
         out.add_case_inputs(case);
         out.add_profile(case, profile);
+        out.add_first_wraps();
+        out.add_core_levers(case, profile);
         if let Some(m) = &case.measurements
             && let Ok(evidence) = crate::evidence::compare(
                 m,
@@ -247,11 +250,26 @@ impl Indicators {
         out
     }
 
-    /// These indicators with the measured evidence of `other` in place of their own: a what-if
-    /// re-solve changes the settings, not what was measured on the roll, so the evidence stays
-    /// as measured against the case as wound.
+    /// The indicators of a changed case (a what-if): its own inputs and stress state, with the
+    /// measured evidence and the core-pressure levers of the case as wound (`before`). Saves the
+    /// lever re-solves and the measurement comparison, whose results would be replaced anyway.
+    pub fn compute_after_change(
+        case: &ResolvedCase,
+        profile: &Profile,
+        before: &Indicators,
+    ) -> Indicators {
+        let mut out = Indicators::default();
+        out.add_case_inputs(case);
+        out.add_profile(case, profile);
+        out.add_first_wraps();
+        out.with_evidence_of(before)
+    }
+
+    /// These indicators with the measured evidence (and the core-pressure levers) of `other` in
+    /// place of their own: a what-if re-solve changes the settings, not what was measured on the
+    /// roll, so the evidence stays as measured against the case as wound.
     pub fn with_evidence_of(mut self, other: &Indicators) -> Indicators {
-        let evidence = |id: &str| EVIDENCE_IDS.contains(&id);
+        let evidence = |id: &str| EVIDENCE_IDS.contains(&id) || levers::LEVER_IDS.contains(&id);
         self.values.retain(|(id, _), _| !evidence(id));
         self.details.clear();
         for ((id, zone), value) in &other.values {
