@@ -111,10 +111,17 @@ impl PastComplaint {
 
     /// "line 4, news 45" — where and on what it happened, when known.
     pub fn place(&self) -> String {
-        [self.line.as_deref(), self.grade.as_deref()]
-            .iter()
+        // A bare number is a line number ("4" reads as "line 4").
+        let line = self.line.as_ref().map(|l| {
+            if l.chars().all(|c| c.is_ascii_digit()) {
+                format!("line {l}")
+            } else {
+                l.clone()
+            }
+        });
+        [line, self.grade.clone()]
+            .into_iter()
             .flatten()
-            .copied()
             .collect::<Vec<_>>()
             .join(", ")
     }

@@ -70,7 +70,8 @@ pub const KEYS: &[Binding] = &[
     Binding::both(ANY_VIEW, "s", "similar", "s", "past complaints most like this case, their confirmed causes and what worked"),
     Binding::both(ANY_VIEW, "a", "add this case", "a", "add the case on screen to the history as a new complaint"),
     Binding::both(LIST, "r", "reload", "r", "read the list again"),
-    Binding::both(ANY_VIEW, "Esc", "back", "Esc", "back to the list / close"),
+    Binding::both(LIST, "Esc", "close", "Esc", "back to the list / close"),
+    Binding::line(DETAIL, "Esc", "back to the list"),
 ];
 
 const LIST: u8 = 1;
@@ -175,7 +176,7 @@ impl HistoryPopup {
         }
     }
 
-    fn list_lines(&self, ctx: &Session, theme: Theme) -> (Vec<Line<'static>>, usize) {
+    fn list_lines(&self, ctx: &Session, theme: Theme, width: usize) -> (Vec<Line<'static>>, usize) {
         let mut lines = Vec::new();
         let mut selected_line = 0;
         match &self.list {
@@ -203,7 +204,7 @@ impl HistoryPopup {
                 lines.push(Line::from(Span::styled(
                     format!(
                         "{:>5}  {:<10}  {:<15}  {}",
-                        "No.", "Received", "Status", "Title — seen — confirmed cause"
+                        "No.", "Received", "Status", "Title; what was seen — confirmed cause"
                     ),
                     theme.title(),
                 )));
@@ -229,16 +230,20 @@ impl HistoryPopup {
                     } else {
                         theme.plain()
                     };
+                    let row = format!(
+                        "{:>5}  {:<10}  {:<15}  {}",
+                        c.id,
+                        when,
+                        c.status.replace('_', " "),
+                        c.title,
+                    );
                     lines.push(Line::from(Span::styled(
-                        format!(
-                            "{:>5}  {:<10}  {:<15}  {} — {} — {cause}",
-                            c.id,
-                            when,
-                            c.status.replace('_', " "),
-                            c.title,
-                            seen.join(", ")
-                        ),
+                        super::story::clip(&row, width),
                         style,
+                    )));
+                    lines.push(Line::from(Span::styled(
+                        format!("{:>7}{} — {cause}", "", seen.join(", ")),
+                        theme.dim(),
                     )));
                 }
             }
@@ -307,7 +312,7 @@ impl HistoryPopup {
         lines
     }
 
-    fn similar_lines(&self, theme: Theme) -> Vec<Line<'static>> {
+    fn similar_lines(&self, theme: Theme, width: usize) -> Vec<Line<'static>> {
         let past = match &self.similar {
             Loaded::Idle => return vec![],
             Loaded::Waiting(_) => {
@@ -324,15 +329,9 @@ impl HistoryPopup {
             lines.push(Line::from("None stored yet."));
         }
         for p in past {
-            let place = p.place();
-            let place = if place.is_empty() {
-                String::new()
-            } else {
-                format!(" [{place}]")
-            };
             lines.push(Line::from(Span::styled(
                 format!(
-                    "{:>5}  distance {:.2}  {}  {}{place}",
+                    "{:>5}  distance {:.2}  {}  {}",
                     p.id,
                     p.distance,
                     p.received.as_deref().unwrap_or("no date"),
@@ -340,19 +339,54 @@ impl HistoryPopup {
                 ),
                 theme.key(),
             )));
-            lines.push(Line::from(format!(
-                "       seen: {}",
-                p.symptoms.join(", ")
-            )));
-            lines.push(Line::from(format!("       cause: {}", p.cause_line())));
-            lines.push(Line::from(format!(
-                "       what was done: {}",
+            let place = p.place();
+            let mut told = vec![("seen", p.symptoms.join(", "))];
+            if !place.is_empty() {
+                told.push(("where", place));
+            }
+            told.push(("cause", p.cause_line()));
+            told.push((
+                "what was done",
                 p.worked_line()
-                    .unwrap_or_else(|| "nothing recorded".to_string())
-            )));
+                    .unwrap_or_else(|| "nothing recorded".to_string()),
+            ));
+            for (label, text) in told {
+                lines.extend(indented(&format!("       {label}: "), &text, width));
+            }
         }
         lines
     }
+}
+
+/// `text` after `prefix`, word-wrapped to `width` with the continuation lines indented under
+/// the text (wrapped lines must not run back to the margin).
+fn indented(prefix: &str, text: &str, width: usize) -> Vec<Line<'static>> {
+    let indent = prefix.chars().count();
+    let room = width.saturating_sub(indent).max(10);
+    let mut out = Vec::new();
+    let mut line = String::new();
+    for word in text.split_whitespace() {
+        let needed = line.chars().count() + usize::from(!line.is_empty()) + word.chars().count();
+        if !line.is_empty() && needed > room {
+            out.push(std::mem::take(&mut line));
+        }
+        if !line.is_empty() {
+            line.push(' ');
+        }
+        line.push_str(word);
+    }
+    out.push(line);
+    out.into_iter()
+        .enumerate()
+        .map(|(i, l)| {
+            let lead = if i == 0 {
+                prefix.to_string()
+            } else {
+                " ".repeat(indent)
+            };
+            Line::from(format!("{lead}{l}"))
+        })
+        .collect()
 }
 
 impl Component for HistoryPopup {
@@ -441,7 +475,7 @@ impl Component for HistoryPopup {
         };
         match self.view {
             HistoryView::List => {
-                let (lines, selected) = self.list_lines(ctx, theme);
+                let (lines, selected) = self.list_lines(ctx, theme, usize::from(body.width));
                 let first = (selected + 2).saturating_sub(usize::from(body.height));
                 let no_store = matches!(self.list, Loaded::Failed(_));
                 let mut paragraph = Paragraph::new(lines).scroll((first as u16, 0));
@@ -454,10 +488,12 @@ impl Component for HistoryPopup {
                 .wrap(Wrap { trim: false })
                 .scroll((self.scroll, 0))
                 .render(body, buf),
-            HistoryView::Similar => Paragraph::new(self.similar_lines(theme))
-                .wrap(Wrap { trim: false })
-                .scroll((self.scroll, 0))
-                .render(body, buf),
+            HistoryView::Similar => {
+                Paragraph::new(self.similar_lines(theme, usize::from(body.width)))
+                    .wrap(Wrap { trim: false })
+                    .scroll((self.scroll, 0))
+                    .render(body, buf)
+            }
         }
     }
 }

@@ -509,6 +509,17 @@ impl StoryPopup {
     }
 }
 
+/// `text` cut to `width` characters, ending in "…" when cut (the full text shows below).
+pub fn clip(text: &str, width: usize) -> String {
+    if text.chars().count() <= width {
+        text.to_string()
+    } else {
+        let mut cut: String = text.chars().take(width.saturating_sub(1)).collect();
+        cut.push('…');
+        cut
+    }
+}
+
 fn is_choice(field: Field) -> bool {
     field.choices().is_some() || matches!(field, Field::Cause(_, CausePart::Cause))
 }
@@ -647,6 +658,8 @@ impl Component for StoryPopup {
                             _ => "—".into(),
                         };
                     }
+                    let room = usize::from(inner.width).saturating_sub(label_width + 2);
+                    value = clip(&value, room);
                     let label = format!(" {:<w$} ", r.label, w = label_width);
                     let style = if is_selected {
                         theme.selected()
