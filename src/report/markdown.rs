@@ -72,6 +72,7 @@ fn write_report(out: &mut String, doc: &ReportDocument) -> std::fmt::Result {
         }
         writeln!(out)?;
     }
+    super::past_section::markdown(out, doc)?;
     writeln!(out, "### Inputs")?;
     writeln!(out)?;
     writeln!(out, "| Input | Value | Given or assumed |")?;
