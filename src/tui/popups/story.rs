@@ -318,9 +318,8 @@ pub fn set(
                 .split([',', ' ', ';'])
                 .filter(|p| !p.trim().is_empty())
             {
-                match count("slit positions", part)? {
-                    Some(n) => positions.push(n),
-                    None => {}
+                if let Some(n) = count("slit positions", part)? {
+                    positions.push(n);
                 }
             }
             c.slit_positions = positions;
