@@ -40,8 +40,8 @@ pub const GLOBAL_KEYS: &[Binding] = &[
     Binding::help("Ctrl-U", "SI / US units"),
     Binding::help("Ctrl-E", "export a report (.md, .html or .json by the file name)"),
     Binding::help("Ctrl-T / F6", "training walk-throughs: answer a guided case"),
-    Binding::help("F7", "the complaint's story: title, description, notes, complaint record"),
-    Binding::help("F8", "the plant's complaint history: past complaints, similar ones, add this case"),
+    Binding::help("F7", "the complaint's story and the complaint record"),
+    Binding::help("F8", "the plant's complaint history, similar complaints"),
     Binding::both(ANY, "^Q", "quit", "Ctrl-Q (q off text)", "quit — asks when there are unsaved changes"),
 ];
 

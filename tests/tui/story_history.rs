@@ -250,7 +250,30 @@ fn f7_and_f8_do_not_clash_and_are_in_the_help() {
     assert!(everywhere.iter().any(|(k, _)| *k == "F8"));
     assert!(sections.iter().any(|(s, _)| s.contains("story")));
     assert!(sections.iter().any(|(s, _)| s.contains("history")));
+    // Their help lines fit the 80-column help box (2 + 24 columns of keys, then the text).
+    for (section, entries) in &sections {
+        if section.contains("F7") || section.contains("F8") {
+            for (keys, what) in entries {
+                assert!(2 + 24 + what.chars().count() <= 78, "{keys}: {what}");
+            }
+        }
+    }
+    for (keys, what) in everywhere
+        .iter()
+        .filter(|(k, _)| k.starts_with("F7") || k.starts_with("F8"))
+    {
+        assert!(2 + 24 + what.chars().count() <= 78, "{keys}: {what}");
+    }
     let mut app = tui_support::app();
+    // The help still scrolls to its last section at 80×24 with the two new sections.
+    app.handle_key(Key::F(1));
+    for _ in 0..10 {
+        app.handle_key(Key::PageDown);
+    }
+    let help = draw(&app, 80, 24);
+    assert!(help.contains("Reading the plots"), "{help}");
+    assert!(help.contains("crush rating"), "{help}");
+    app.handle_key(Key::Esc);
     // No other key of the app opens these popups, and they close with their own key.
     app.handle_key(Key::F(7));
     app.handle_key(Key::F(7));

@@ -66,9 +66,9 @@ pub struct HistoryPopup {
 #[rustfmt::skip]
 pub const KEYS: &[Binding] = &[
     Binding::both(LIST, "↑↓", "pick", "↑↓ PgUp PgDn", "pick a complaint / scroll"),
-    Binding::both(LIST, "Enter", "show", "Enter", "show the complaint: its record, the causes ranked then, its versions"),
-    Binding::both(ANY_VIEW, "s", "similar", "s", "past complaints most like this case, their confirmed causes and what worked"),
-    Binding::both(ANY_VIEW, "a", "add this case", "a", "add the case on screen to the history as a new complaint"),
+    Binding::both(LIST, "Enter", "show", "Enter", "show one: its record, causes ranked then, versions"),
+    Binding::both(ANY_VIEW, "s", "similar", "s", "past complaints like this one and what worked"),
+    Binding::both(ANY_VIEW, "a", "add this case", "a", "add the case on screen to the history"),
     Binding::both(LIST, "r", "reload", "r", "read the list again"),
     Binding::both(LIST, "Esc", "close", "Esc", "back to the list / close"),
     Binding::line(DETAIL, "Esc", "back to the list"),

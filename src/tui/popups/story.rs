@@ -426,7 +426,7 @@ pub const KEYS: &[Binding] = &[
     Binding::both(MOVE, "↑↓", "move", "↑↓ PgUp PgDn", "move between the fields"),
     Binding::both(MOVE, "Enter", "edit", "Enter", "edit the field (Enter again keeps it, Esc cancels)"),
     Binding::both(CHOICE, "←→", "choose", "←→", "choose (from, found at, status, result, cause)"),
-    Binding::both(MOVE, "Del", "clear", "Delete", "clear the field; on a cause's or action's first row, remove it"),
+    Binding::both(MOVE, "Del", "clear", "Delete", "clear the field; removes a cause or an action"),
     Binding::both(MOVE, "^S", "save", "Ctrl-S", "save the case file"),
     Binding::both(MOVE, "Esc", "close", "Esc", "close (the edits stay in the case until you save)"),
     Binding::both(TYPING, "Enter", "keep", "Ctrl-U / Ctrl-W", "while typing: clear the text / the last word"),
