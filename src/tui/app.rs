@@ -528,7 +528,7 @@ impl App {
             _ => None,
         };
         let source = session.case_path.as_ref().map(|p| p.display().to_string());
-        let input = crate::report::solved_report(
+        let mut input = crate::report::solved_report(
             &session.case,
             crate::report::Solved {
                 resolved: outcome.resolved.clone(),
@@ -539,6 +539,13 @@ impl App {
             crate::report::ReportMeta::now(source),
             session.units,
         );
+        // Similar past complaints the history screen found for this very case (no store
+        // access here: exporting stays on the UI thread).
+        input.similar_past = session
+            .similar_past
+            .as_ref()
+            .filter(|(generation, _)| *generation == session.generation)
+            .map(|(_, past)| past.clone());
         crate::finite::ensure_finite("the stress profile", &input.profile)?;
         crate::finite::ensure_finite("the diagnosis", &input.diagnosis)?;
         let text = crate::report::render(&input, format)?;

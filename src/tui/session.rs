@@ -57,6 +57,9 @@ pub struct Session {
     pub walkthroughs: Vec<crate::training::LoadedWalkthrough>,
     /// The complaint history store (as `rolltriage history` finds it), or why there is none.
     pub history: Result<crate::history::Location, String>,
+    /// The past complaints the history screen found similar to the case, with the case
+    /// generation they were found for (exports include them while the case is unchanged).
+    pub similar_past: Option<(u64, Vec<crate::history::PastComplaint>)>,
     requests: Vec<JobRequest>,
     history_requests: Vec<HistoryRequest>,
     next_job_id: u64,
@@ -94,6 +97,7 @@ impl Session {
             remedy_changes: BTreeMap::new(),
             walkthroughs: Vec::new(),
             history: Err(NO_HISTORY.into()),
+            similar_past: None,
             requests: Vec::new(),
             history_requests: Vec::new(),
             next_job_id: 1,

@@ -416,4 +416,16 @@ fn history_lists_shows_finds_similar_and_adds() {
     for (w, h) in SIZES {
         insta::assert_snapshot!(format!("history_similar_{w}x{h}"), draw(&app, w, h));
     }
+
+    // A report exported now carries them (read from the answer, not from the store again).
+    app.handle_key(Key::Esc);
+    app.handle_key(Key::Esc);
+    app.session.solve_again();
+    let sample = tui_support::outcome(1.0);
+    tui_support::finish_requests(&mut app, &sample, &sample);
+    let report = folder.path().join("r.md");
+    app.export_to(&report).unwrap();
+    let text = std::fs::read_to_string(&report).unwrap();
+    assert!(text.contains("## Similar past complaints"), "{text}");
+    assert!(text.contains("Web tension too low"), "{text}");
 }

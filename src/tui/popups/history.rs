@@ -61,6 +61,8 @@ pub struct HistoryPopup {
     /// The last thing done ("Stored as complaint 12 …") or why it was not.
     pub note: Option<String>,
     pub scroll: u16,
+    /// The case generation the similar complaints were asked for.
+    pub similar_for: u64,
 }
 
 #[rustfmt::skip]
@@ -101,6 +103,7 @@ impl HistoryPopup {
                 Loaded::Failed("Pick the symptoms of this case first (F2): similar complaints are found by what was seen.".into());
             return;
         }
+        self.similar_for = ctx.generation;
         self.similar = match ctx.queue_history(HistoryTask::Similar(Box::new(ctx.case.clone()))) {
             Ok(id) => Loaded::Waiting(id),
             Err(reason) => Loaded::Failed(reason),
@@ -160,7 +163,10 @@ impl HistoryPopup {
         }
         if self.similar.waiting_for(id) {
             self.similar = match reply.result {
-                Ok(HistoryAnswer::Similar(p)) => Loaded::Ready(p),
+                Ok(HistoryAnswer::Similar(p)) => {
+                    ctx.similar_past = Some((self.similar_for, p.clone()));
+                    Loaded::Ready(p)
+                }
                 Ok(_) => Loaded::Idle,
                 Err(e) => Loaded::Failed(e),
             };
