@@ -9,7 +9,8 @@ pub use apply::{
     keep_changes, trial_case, write_into_case,
 };
 
-use super::indicators::{INPUT_INDICATORS, Indicators, format_value, indicator_spec};
+use super::indicators::levers::LEVER_IDS;
+use super::indicators::{EVIDENCE_IDS, INPUT_INDICATORS, Indicators, format_value, indicator_spec};
 use super::rank::{evaluate, rank};
 use super::rules::{Comparison, RuleBase, SettingChange, Test};
 use super::{MergedRemedy, RankedCause, WhatIf};
@@ -29,7 +30,7 @@ pub(crate) fn driving_tests<'a>(
     for symptom in symptoms.iter().filter_map(|s| rules.symptom(s)) {
         for rule in symptom.rules.iter().filter(|r| r.cause == cause) {
             for ev in &rule.evidence {
-                if ev.weight <= 0.0 || !matches!(ev.test, Test::Indicator { .. }) {
+                if ev.weight <= 0.0 || !movable(&ev.test) {
                     continue;
                 }
                 // An indicator without a value (a measurement not taken) has nothing to show.
@@ -41,6 +42,18 @@ pub(crate) fn driving_tests<'a>(
         }
     }
     out
+}
+
+/// True for an indicator test that a re-solve can move: what was measured on the roll and the
+/// core-pressure levers of the case as wound stay as they are in every what-if, so they can
+/// neither show a remedy's effect nor mark it as doing little.
+fn movable(test: &Test) -> bool {
+    match test {
+        Test::Indicator { id, .. } => {
+            !EVIDENCE_IDS.contains(&id.as_str()) && !LEVER_IDS.contains(&id.as_str())
+        }
+        _ => false,
+    }
 }
 
 /// Pick the indicator to show before/after: among the tests that drive the cause, the one the
