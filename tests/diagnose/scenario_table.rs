@@ -284,6 +284,7 @@ fn every_scenario_ranks_as_its_source_says() {
             s.first.is_some()
                 || !s.top3.is_empty()
                 || !s.below.is_empty()
+                || !s.not_first.is_empty()
                 || !s.remedy_order.is_empty(),
             "{}: expects nothing",
             s.name
