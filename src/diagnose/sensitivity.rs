@@ -355,9 +355,9 @@ impl Sensitivity {
             return Vec::new();
         }
         let mut out = vec![format!(
-            "{} input(s) were assumed. Each assumed number was moved across its plausible range \
-             and the diagnosis re-run.",
-            self.assumed
+            "Each assumed number ({} of them) was moved to the low and the high end of its \
+             plausible range and the diagnosis re-run.",
+            self.inputs.len()
         )];
         let top: Vec<String> = self.top(n).map(|i| i.describe(self)).collect();
         if top.is_empty() {
@@ -415,6 +415,9 @@ fn range_of(knob: &Knob, case: &ResolvedCase, used: f64) -> Option<(f64, f64, St
             preset_spread(&values, used, &format!("{kind} core presets"))
         }
     };
+    // Two significant digits: a plausible range is not known better than that, and the tried
+    // values print as a person would write them.
+    (low, high) = (round2(low), round2(high));
     let accepted = field.range();
     if !accepted.contains(low) {
         low = used;
@@ -423,6 +426,14 @@ fn range_of(knob: &Knob, case: &ResolvedCase, used: f64) -> Option<(f64, f64, St
         high = used;
     }
     (high > low).then(|| (low, high, source))
+}
+
+fn round2(value: f64) -> f64 {
+    if value == 0.0 || !value.is_finite() {
+        return value;
+    }
+    let scale = 10f64.powi(1 - value.abs().log10().floor() as i32);
+    (value * scale).round() / scale
 }
 
 /// The spread of `values` and `used`, widened to at least ±[`MIN_PRESET_SPREAD`].
@@ -449,7 +460,9 @@ fn preset_spread(values: &[f64], used: f64, kind: &str) -> (f64, f64, String) {
 fn assumed_paths(case: &ResolvedCase) -> Vec<&str> {
     let mut paths: Vec<&str> = Vec::new();
     for a in &case.assumed {
-        if a.origin != ValueOrigin::Computed && !paths.contains(&a.field.as_str()) {
+        // The preset's name is where values came from, not an input of its own.
+        let preset = a.field.ends_with(".preset");
+        if a.origin != ValueOrigin::Computed && !preset && !paths.contains(&a.field.as_str()) {
             paths.push(a.field.as_str());
         }
     }
