@@ -276,12 +276,12 @@ impl InputSensitivity {
         self.changes_first_cause || self.belief_shift >= NO_CHANGE
     }
 
-    /// One line in plain words (no IDs), e.g. "Web-to-web friction (assumed 0.4; tried 0.3 to
-    /// 0.5 …): at 0.3 the first cause becomes "Slippery web" (belief 0.62)".
+    /// One line in plain words (no IDs), e.g. "Web-to-web friction: assumed 0.3, tried 0.22 to
+    /// 0.38 (…). At 0.22, "Slippery web" comes first (belief 0.59)."
     pub fn describe(&self, sensitivity: &Sensitivity) -> String {
         let base = sensitivity.first_cause.as_deref();
         let head = format!(
-            "{} (assumed {}; tried {}, {})",
+            "{}: assumed {}, tried {} ({})",
             self.label, self.used, self.range_text, self.range_source
         );
         if self.changes_first_cause
@@ -294,7 +294,7 @@ impl InputSensitivity {
                 Some(title) => format!("\"{title}\" comes first (belief {:.2})", t.first_belief),
                 None => "no cause keeps a belief".to_string(),
             };
-            return format!("{head}: at {} {becomes}", t.value_text);
+            return format!("{head}. At {}, {becomes}.", t.value_text);
         }
         let title = sensitivity.first_title.clone().unwrap_or_default();
         let beliefs: Vec<String> = self
@@ -303,7 +303,7 @@ impl InputSensitivity {
             .map(|t| format!("{:.2} at {}", t.base_cause_belief, t.value_text))
             .collect();
         format!(
-            "{head}: belief in \"{title}\" {:.2} as assumed, {}",
+            "{head}. Belief in \"{title}\": {:.2} as assumed, {}.",
             sensitivity.first_belief,
             beliefs.join(", ")
         )
@@ -354,11 +354,16 @@ impl Sensitivity {
         if self.is_empty() {
             return Vec::new();
         }
-        let mut out = vec![format!(
-            "Each assumed number ({} of them) was moved to the low and the high end of its \
-             plausible range and the diagnosis re-run.",
-            self.inputs.len()
-        )];
+        let mut out = vec![match self.inputs.len() {
+            0 => "No assumed number could be varied.".to_string(),
+            1 => "The one assumed number was moved to the low and the high end of its plausible \
+                  range and the diagnosis re-run."
+                .to_string(),
+            n => format!(
+                "Each of the {n} assumed numbers was moved to the low and the high end of its \
+                 plausible range and the diagnosis re-run."
+            ),
+        }];
         let top: Vec<String> = self.top(n).map(|i| i.describe(self)).collect();
         if top.is_empty() {
             out.push(
