@@ -25,8 +25,6 @@ const SPLIT_PLOT_HEIGHT: u32 = 520;
 const MAX_PLOT_POINTS: usize = 400;
 
 /// Series labels in the key, also used by tests to find them in the SVG.
-pub const LABEL_PRESSURE: &str = "interlayer pressure";
-pub const LABEL_TANGENTIAL: &str = "tangential stress";
 pub const LABEL_AFTER_SUFFIX: &str = "after remedy";
 pub const LABEL_CRUSH: &str = "core rated crush pressure";
 /// The flag written when the crush rating is above the plotted range.
@@ -47,8 +45,9 @@ const ZONE_FONT: u32 = 13;
 /// Rows of zone names above the plot, and the height of one.
 const ZONE_ROWS: i32 = 3;
 const ZONE_ROW_HEIGHT: i32 = 15;
-/// Room for the key under the plot.
-const KEY_HEIGHT: u32 = 24;
+/// Room for the key under the plot (two rows at most).
+const KEY_HEIGHT: u32 = 40;
+const KEY_ROW_HEIGHT: i32 = 18;
 /// Room right of the plot so the last tick label is not cut off.
 const RIGHT_MARGIN: u32 = 30;
 
@@ -281,22 +280,19 @@ pub fn stress_svg(
         PlotKind::Tangential => tangential_panels(largest, smallest, units),
     };
 
+    // The axis names the quantity; the key only tells the curves apart.
     let mut key: Vec<KeyEntry> = Vec::new();
-    let (name, dashed_after) = match kind {
-        PlotKind::Pressure => (LABEL_PRESSURE, true),
-        PlotKind::Tangential => (LABEL_TANGENTIAL, true),
-    };
     if after.is_some() {
         key.push(KeyEntry {
-            text: format!("{name}, before"),
+            text: "before".to_string(),
             colour: BEFORE_COLOUR,
             dashed: false,
             marker: false,
         });
         key.push(KeyEntry {
-            text: format!("{name}, {LABEL_AFTER_SUFFIX}"),
+            text: LABEL_AFTER_SUFFIX.to_string(),
             colour: AFTER_COLOUR,
-            dashed: dashed_after,
+            dashed: true,
             marker: false,
         });
     }
@@ -306,7 +302,7 @@ pub fn stress_svg(
         let unit = stress_unit(c, units);
         let value = format!("{} {}", tick_label(c / unit.size), unit.name);
         let text = if crush_on_scale.is_some() {
-            format!("{LABEL_CRUSH} {value} (marked at the core)")
+            format!("{LABEL_CRUSH} {value} (bar at the core)")
         } else {
             format!("▲ {LABEL_CRUSH} {value}, {LABEL_CRUSH_OFF_SCALE} (above the top of the plot)")
         };
@@ -352,7 +348,8 @@ pub fn stress_svg(
             let options = PanelOptions {
                 zone_names: index == 0,
                 x_axis: index == last,
-                top_room: if index == 0 { top_room } else { 6 },
+                // A gap between the panels keeps their two zero labels apart.
+                top_room: if index == 0 { top_room } else { 14 },
                 crush: crush_on_scale.filter(|_| index == 0 && kind == PlotKind::Pressure),
                 crush_flag: crush.is_some() && crush_on_scale.is_none() && index == 0,
             };
@@ -524,9 +521,11 @@ fn zone_span(zone: &Zone, x_unit: AxisUnit) -> Option<(f64, f64)> {
     (x0.is_finite() && x1.is_finite() && x1 > x0).then_some((x0, x1))
 }
 
-/// Estimated width of a text in pixels (no font metrics: a generous average character width).
+/// Estimated width of a text in pixels (no font metrics). The SVG backend writes a font of
+/// nominal size `size` at about 0.81 of it, and sans-serif glyphs average about 0.6 em: 0.5 of
+/// the nominal size per character, with room to spare.
 fn text_width(text: &str, size: u32) -> i32 {
-    (text.chars().count() as f64 * f64::from(size) * 0.62).ceil() as i32
+    (text.chars().count() as f64 * f64::from(size) * 0.5).ceil() as i32
 }
 
 /// Zone names above the plot area, each centred over its zone; a name that would run into the
@@ -575,42 +574,41 @@ fn label_zones(
     Ok(())
 }
 
-/// The key under the plot: a short sample of each line and its text, no frame.
+/// The key under the plot: a short sample of each line and its text, no frame; an entry that
+/// would run past the right edge starts a second row.
 fn draw_key(
     area: &DrawingArea<SVGBackend<'_>, Shift>,
     key: &[KeyEntry],
 ) -> Result<(), DrawingAreaErrorKind<std::io::Error>> {
-    let mut x = 90;
-    let y = 8;
+    const LEFT: i32 = 90;
+    let right = PLOT_SIZE.0 as i32 - RIGHT_MARGIN as i32;
+    let (mut x, mut y) = (LEFT, 6);
     for entry in key {
-        if entry.marker {
-            area.draw(&Text::new(
-                entry.text.clone(),
-                (x, y - 1),
-                (FONT, TICK_FONT).into_font().color(&entry.colour),
-            ))?;
-        } else {
-            let sample = vec![(x, y + 7), (x + 24, y + 7)];
-            if entry.dashed {
-                area.draw(&PathElement::new(
-                    vec![(x, y + 7), (x + 9, y + 7)],
-                    entry.colour.stroke_width(2),
-                ))?;
-                area.draw(&PathElement::new(
-                    vec![(x + 14, y + 7), (x + 24, y + 7)],
-                    entry.colour.stroke_width(2),
-                ))?;
-            } else {
-                area.draw(&PathElement::new(sample, entry.colour.stroke_width(2)))?;
-            }
-            area.draw(&Text::new(
-                entry.text.clone(),
-                (x + 30, y - 1),
-                (FONT, TICK_FONT).into_font().color(&BLACK),
-            ))?;
-            x += 30;
+        let sample = if entry.marker { 0 } else { 30 };
+        let width = sample + text_width(&entry.text, TICK_FONT);
+        if x > LEFT && x + width > right {
+            (x, y) = (LEFT, y + KEY_ROW_HEIGHT);
         }
-        x += text_width(&entry.text, TICK_FONT) + 24;
+        if !entry.marker {
+            let pieces: Vec<(i32, i32)> = if entry.dashed {
+                vec![(x, x + 9), (x + 14, x + 24)]
+            } else {
+                vec![(x, x + 24)]
+            };
+            for (from, to) in pieces {
+                area.draw(&PathElement::new(
+                    vec![(from, y + 7), (to, y + 7)],
+                    entry.colour.stroke_width(2),
+                ))?;
+            }
+        }
+        let colour = if entry.marker { entry.colour } else { BLACK };
+        area.draw(&Text::new(
+            entry.text.clone(),
+            (x + sample, y - 1),
+            (FONT, TICK_FONT).into_font().color(&colour),
+        ))?;
+        x += width + 24;
     }
     Ok(())
 }
