@@ -430,7 +430,7 @@ fn range_of(knob: &Knob, case: &ResolvedCase, used: f64) -> Option<(f64, f64, St
     if !accepted.contains(high) {
         high = used;
     }
-    (high > low).then(|| (low, high, source))
+    (high > low).then_some((low, high, source))
 }
 
 fn round2(value: f64) -> f64 {
@@ -549,10 +549,8 @@ pub fn sensitivity(
     for m in &moves {
         let knob = &KNOBS[m.knob];
         let label = registry::field(knob.path).map_or(knob.path, |f| f.label);
-        let text = registry::field(knob.path).map_or_else(
-            || format!("{}", m.value),
-            |f| f.range().show(m.value),
-        );
+        let text = registry::field(knob.path)
+            .map_or_else(|| format!("{}", m.value), |f| f.range().show(m.value));
         let own;
         let outcome: Result<&Profile, ModelError> = if m.case.problem(solver) == base_problem {
             Ok(profile)

@@ -50,7 +50,11 @@ fn assumed_friction_that_flips_the_ranking_is_named_first() {
     // Given values are never moved: friction is the only assumed number of this case.
     assert_eq!(s.inputs.len(), 1, "{:?}", s.inputs);
     let lines = s.lines(3);
-    assert!(lines.iter().any(|l| l.starts_with("- Web-to-web friction:")));
+    assert!(
+        lines
+            .iter()
+            .any(|l| l.starts_with("- Web-to-web friction:"))
+    );
     assert!(lines.iter().all(|l| !l.contains("web.friction")));
 }
 

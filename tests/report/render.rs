@@ -295,8 +295,22 @@ fn fixture_sensitivity() -> Sensitivity {
             range_text: "1 µm to 5 µm".into(),
             range_source: "the spread of the shipped paper presets, at least ±25 %".into(),
             trials: vec![
-                trial(1e-6, "1 µm", "air_entrainment", "Air carried into the roll", 0.84, 0.8),
-                trial(5e-6, "5 µm", "tension_too_low", "Web tension too low", 0.81, 0.81),
+                trial(
+                    1e-6,
+                    "1 µm",
+                    "air_entrainment",
+                    "Air carried into the roll",
+                    0.84,
+                    0.8,
+                ),
+                trial(
+                    5e-6,
+                    "5 µm",
+                    "tension_too_low",
+                    "Web tension too low",
+                    0.81,
+                    0.81,
+                ),
             ],
             changes_first_cause: true,
             belief_shift: 0.0125,
@@ -450,7 +464,10 @@ fn svg_plots_hold_before_after_series_zones_and_labels() {
         assert!(svg.starts_with("<svg"));
         // Before (blue, solid) and after (orange, dashed: many short pieces).
         assert!(polylines_with_stroke(svg, "#1F58A0") >= 1, "before series");
-        assert!(polylines_with_stroke(svg, "#D66E00") >= 5, "after series, dashed");
+        assert!(
+            polylines_with_stroke(svg, "#D66E00") >= 5,
+            "after series, dashed"
+        );
         for zone in ["core", "inner", "middle", "outer", "surface"] {
             assert!(
                 svg_texts(svg).iter().any(|t| t == zone),
@@ -493,7 +510,13 @@ fn text_spans(svg: &str) -> Vec<(String, f64, f64, f64)> {
             let (attrs, rest) = s.split_once('>')?;
             let text = rest.split("</text>").next()?.trim().to_string();
             let number = |key: &str| -> Option<f64> {
-                attrs.split(&format!("{key}=\"")).nth(1)?.split('"').next()?.parse().ok()
+                attrs
+                    .split(&format!("{key}=\""))
+                    .nth(1)?
+                    .split('"')
+                    .next()?
+                    .parse()
+                    .ok()
             };
             let x = number("x")?;
             let y = number("y")?;
