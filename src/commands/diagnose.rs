@@ -121,7 +121,10 @@ pub fn run(args: &DiagnoseArgs) -> anyhow::Result<()> {
         &mut |_| true,
     )
     .with_context(context)?;
-    let what = format!("the sensitivity to the assumed inputs of {}", args.case.display());
+    let what = format!(
+        "the sensitivity to the assumed inputs of {}",
+        args.case.display()
+    );
     rolltriage::finite::ensure_finite(&what, &sensitivity)?;
     let mut past = String::new();
     if let Some(place) = &args.history {
