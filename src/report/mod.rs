@@ -9,6 +9,7 @@ mod document;
 mod html;
 mod json;
 mod markdown;
+mod past_section;
 pub mod plots;
 mod prepare;
 
@@ -126,6 +127,8 @@ pub struct ReportInput {
     /// Which assumed inputs the answer rests on ([`crate::diagnose::sensitivity`]); `None` when
     /// not worked out (a report exported from the terminal UI without it).
     pub sensitivity: Option<crate::diagnose::sensitivity::Sensitivity>,
+    /// Similar past complaints from a history store (`report --history`); `None` without one.
+    pub similar_past: Option<Vec<crate::history::PastComplaint>>,
 }
 
 impl ReportInput {

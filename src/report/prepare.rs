@@ -123,6 +123,7 @@ pub fn solved_report(
         meta,
         units,
         sensitivity: None,
+        similar_past: None,
     }
 }
 
