@@ -20,8 +20,16 @@
 //! load are skipped (the shooting starts above them with a zero value below), see
 //! docs/theory.md for the error bound.
 //!
-//! Tangential stress of a wrap starts at its wound-in stress T/h and accumulates
-//! δσθ = δσr + r·δσr' from every later increment.
+//! Tangential (hoop) stress is kept in the conservative thin-ring form. The ring between node i
+//! and the next node (one wrap, or in grouped resolution one element of wraps) carries a hoop
+//! force per unit width F_i = Σ σθ·h over its wraps, and radial statics of that ring say
+//! F_i = (r·σr) at its outer face − (r·σr) at its inner face, whatever the material law. Each
+//! increment δσr therefore moves F_i by r_{i+1}·δσr_{i+1} − r_i·δσr_i (zero above the top: the
+//! outer surface is free): every node's r·δσr leaves the ring above it and enters the ring below
+//! it, so the sum telescopes and the accumulated hoop stress σθ_i = F_i/(r_{i+1} − r_i) equals
+//! the statics of the finished roll exactly (to rounding), in per-layer and grouped resolution
+//! alike. A new wrap's own load −T/s on its own node gives it F = T, i.e. its wound-in stress
+//! T/h. Dropping a node merges its ring into the one below (F adds). See docs/theory.md §3.5.
 //!
 //! Per-layer resolution is the reference: one node per wrap, one increment per wrap, moduli
 //! settled to 1e-9. Grouped resolution keeps element boundaries deep in the roll and a graded
@@ -166,10 +174,10 @@ struct Solver {
     /// Normalised diagonal (B − g)/C = beta − gamma·g with g = Eθ/Er.
     beta: Vec<f64>,
     gamma: Vec<f64>,
-    /// First-derivative stencil (x[i−1], x[i], x[i+1]) of each node.
-    derivative: Vec<[f64; 3]>,
     pressure: Vec<f64>,
-    tangential: Vec<f64>,
+    /// Hoop force per unit width (N/m) of the ring from this node to the next (or to the
+    /// outside): Σ σθ·h over its wraps (see the module docs).
+    hoop_force: Vec<f64>,
     wound_in: Vec<f64>,
     /// Negated normalised diagonal of the current solve.
     diagonal: Vec<f64>,
@@ -201,7 +209,7 @@ struct Solver {
     /// Modulus convergence tolerance of this solve.
     tolerance: f64,
     /// Nodes `low..held_top` are held (0: nothing held). Their increments since the last full
-    /// solve are `held_scale · raw`, not yet added to pressure and tangential stress.
+    /// solve are `held_scale · raw`, not yet added to pressure and hoop force.
     held_top: usize,
     held_scale: f64,
     /// Scale of the full solve the held shape comes from, and the held increments' size in
@@ -232,9 +240,8 @@ impl Solver {
             lower: v(),
             beta: v(),
             gamma: v(),
-            derivative: Vec::with_capacity(capacity),
             pressure: v(),
-            tangential: v(),
+            hoop_force: v(),
             wound_in: v(),
             diagonal: v(),
             shot: v(),
@@ -266,16 +273,16 @@ impl Solver {
     }
 
     /// Add a wrap node at the outside (it becomes the loaded top).
-    fn push(&mut self, wrap: usize, radius: f64, wound_in: f64, stress: f64, permanent: bool) {
+    /// Its hoop force starts at zero: the wrap's own load gives it its wound-in tension.
+    fn push(&mut self, wrap: usize, radius: f64, wound_in: f64, permanent: bool) {
         self.radius.push(radius);
         self.permanent.push(permanent);
         self.wrap.push(wrap);
         self.lower.push(0.0);
         self.beta.push(0.0);
         self.gamma.push(0.0);
-        self.derivative.push([0.0; 3]);
         self.pressure.push(0.0);
-        self.tangential.push(stress);
+        self.hoop_force.push(0.0);
         self.wound_in.push(wound_in);
         self.diagonal.push(0.0);
         self.shot.push(0.0);
@@ -302,7 +309,6 @@ impl Solver {
         self.lower[i] = -a / c;
         self.beta[i] = b / c;
         self.gamma[i] = 1.0 / c;
-        self.derivative[i] = [m1, c1, p1];
     }
 }
 
@@ -351,7 +357,7 @@ pub(super) fn run(
         for wrap in layer..end {
             let s = rc + wrap as f64 * h;
             let t = wit(wrap);
-            solver.push(wrap, s, t, t / h, wrap % group == 0);
+            solver.push(wrap, s, t, wrap % group == 0);
             loads.push(t / s);
         }
         if loads.iter().sum::<f64>() > 0.0 {
@@ -403,8 +409,15 @@ pub(super) fn run(
     radius.push(outer);
     let mut pressure = solver.pressure;
     pressure.push(0.0);
-    let mut tangential = solver.tangential;
-    tangential.push(last_tension / h);
+    // σθ of each ring is its hoop force over its radial extent; the outer surface node repeats
+    // the outermost wrap's value.
+    let mut tangential: Vec<f64> = solver
+        .hoop_force
+        .iter()
+        .zip(radius.iter().zip(&radius[1..]))
+        .map(|(force, (inner, next))| force / (next - inner))
+        .collect();
+    tangential.push(tangential.last().copied().unwrap_or(last_tension / h));
     let mut wound_in = solver.wound_in;
     wound_in.push(last_tension);
     let law = problem.radial_stiffness;

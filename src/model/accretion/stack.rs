@@ -1,11 +1,12 @@
-//! What the stack keeps between increments: adding an increment to pressure and hoop stress,
+//! What the stack keeps between increments: adding an increment to pressure and hoop force,
 //! the held deep part, the skipped decayed part and the compaction of the graded region.
 
 use super::{HOLD_INCREMENTS, HOLD_TOLERANCE, SKIP_THRESHOLD, Solver};
 
 impl Solver {
     /// Drop the nodes at or above `from` that are neither permanent nor wanted by `keep` (called
-    /// with the node's wrap number); the finite-difference rows around them are rebuilt.
+    /// with the node's wrap number); the finite-difference rows around them are rebuilt. A dropped
+    /// node's ring joins the ring below it: their hoop forces add, so statics still hold.
     pub(super) fn compact(&mut self, from: usize, keep: &dyn Fn(usize) -> bool) {
         let from = from.max(1);
         let Some(first_drop) =
@@ -24,17 +25,20 @@ impl Solver {
                 self.permanent[write] = self.permanent[read];
                 self.wrap[write] = self.wrap[read];
                 self.pressure[write] = self.pressure[read];
-                self.tangential[write] = self.tangential[read];
+                self.hoop_force[write] = self.hoop_force[read];
                 self.wound_in[write] = self.wound_in[read];
                 self.shot[write] = self.shot[read];
                 write += 1;
+            } else {
+                // `write − 1 ≥ first_drop − 1` is the kept node just below (from ≥ 1).
+                self.hoop_force[write - 1] += self.hoop_force[read];
             }
         }
         let n = write;
         for v in [
             &mut self.radius,
             &mut self.pressure,
-            &mut self.tangential,
+            &mut self.hoop_force,
             &mut self.wound_in,
             &mut self.shot,
             &mut self.lower,
@@ -49,7 +53,6 @@ impl Solver {
         }
         self.permanent.truncate(n);
         self.wrap.truncate(n);
-        self.derivative.truncate(n);
         for i in (first_drop - 1).max(1)..n.saturating_sub(1) {
             self.set_row(i);
         }
@@ -80,7 +83,7 @@ impl Solver {
         }
     }
 
-    /// Add the collected increments of the held nodes to their pressure and tangential stress.
+    /// Add the collected increments of the held nodes to their pressure and hoop force.
     pub(super) fn release_held(&mut self) {
         let held = self.held_top;
         self.held_top = 0;
@@ -102,68 +105,43 @@ impl Solver {
         {
             *value = raw * factor;
         }
-        self.add_increment(&values, low, held, held);
+        self.add_increment(&values, low, held);
         self.guess = values;
     }
 
-    /// Add δσr = `values` to the pressure of nodes `from..pressure_end` and δσθ = δσr + r·δσr'
-    /// to the tangential stress of nodes `from..hoop_end` (the stencil reads `values` one node
-    /// further out). At the bottom of the solved stack the core condition r·δσr' = c·δσr, or a
-    /// zero value below the first included node, stands in for the missing neighbour.
-    pub(super) fn add_increment(
-        &mut self,
-        values: &[f64],
-        from: usize,
-        pressure_end: usize,
-        hoop_end: usize,
-    ) {
-        let low = self.low;
-        for (p, d) in self.pressure[from..pressure_end]
-            .iter_mut()
-            .zip(&values[from..pressure_end])
-        {
-            *p -= d;
+    /// Add δσr = `values` on nodes `from..end` to their pressure and, in the conservative
+    /// thin-ring form, to the hoop force: node k's r·δσr leaves ring k (the ring above node k)
+    /// and enters ring k − 1 (below it). Above `end − 1` the increment is taken as zero here: at
+    /// the top of the stack that is the free outer surface, at the top of the held part the
+    /// solved part above has already added its share to ring `end − 1` (see [`Self::accumulate`]).
+    pub(super) fn add_increment(&mut self, values: &[f64], from: usize, end: usize) {
+        if from >= end {
+            return;
         }
-        let mut start = from;
-        if from == low && pressure_end > low + 1 {
-            if low == 0 {
-                self.tangential[0] += (1.0 + self.core_coefficient) * values[0];
-            } else {
-                let d = values[low];
-                let [_, c1, p1] = self.derivative[low];
-                self.tangential[low] += d + self.radius[low] * (c1 * d + p1 * values[low + 1]);
-            }
-            start = low + 1;
+        let mut above = 0.0;
+        for k in (from..end).rev() {
+            let d = values[k];
+            let flux = self.radius[k] * d;
+            self.pressure[k] -= d;
+            self.hoop_force[k] += above - flux;
+            above = flux;
         }
-        for i in start..hoop_end.max(start) {
-            let d = values[i];
-            let [m1, c1, p1] = self.derivative[i];
-            self.tangential[i] +=
-                d + self.radius[i] * (m1 * values[i - 1] + c1 * d + p1 * values[i + 1]);
+        if from > 0 {
+            // The ring below the solved part (a skipped or held node) takes the flux through its
+            // outer face.
+            self.hoop_force[from - 1] += above;
         }
     }
 
-    /// Add the increment in `self.shot` on `from..=top` to pressure and tangential stress
-    /// (δσθ = δσr + r·δσr'); `from` is the bottom of the stack or the top of the held part.
-    /// A loaded wrap of the increment takes the tangential increments of the wraps above it
-    /// only (while it is the top, its own load gives it none).
+    /// Add the increment in `self.shot` on `from..=top` to pressure and hoop force; `from` is
+    /// the bottom of the stack or the top of the held part. A batch of wraps needs no per-wrap
+    /// bookkeeping here: the increment at a node is already the sum over the wraps at or above
+    /// it, and each wrap's own share is zero above its node (nothing lay there when it was
+    /// laid), so the flux form of the summed increment is the sum of the wraps' flux forms.
     pub(super) fn accumulate(&mut self, from: usize, top: usize) {
-        let first_loaded = top + 1 - self.loads.len();
         let shot = std::mem::take(&mut self.shot);
-        self.add_increment(&shot, from, top + 1, first_loaded);
+        self.add_increment(&shot, from, top + 1);
         self.shot = shot;
-        let start = if from == self.low && top > from {
-            from + 1
-        } else {
-            from
-        };
-        for i in first_loaded.max(start)..top {
-            let factor = self.cumulative[i + 1 - first_loaded];
-            let d = self.raw[i];
-            let [m1, c1, p1] = self.derivative[i];
-            self.tangential[i] += factor
-                * (d + self.radius[i] * (m1 * self.raw[i - 1] + c1 * d + p1 * self.raw[i + 1]));
-        }
     }
 
     /// Move the first included node outward past nodes the increments no longer reach.
