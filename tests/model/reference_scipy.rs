@@ -170,7 +170,10 @@ fn thin_layer_hoop_sequence_matches_scipy() {
     }
     // Each halving moves the value closer to the reference's thin-layer limit.
     for pair in got.windows(2) {
-        assert!((pair[1] - limit).abs() < (pair[0] - limit).abs(), "{got:?} {limit}");
+        assert!(
+            (pair[1] - limit).abs() < (pair[0] - limit).abs(),
+            "{got:?} {limit}"
+        );
     }
 }
 

@@ -312,6 +312,15 @@ impl Solver {
     }
 }
 
+/// Relative change of wound-in tension from one wrap to the next above which grouped resolution
+/// keeps element boundaries on both sides (a schedule step or an upset edge; a smooth taper
+/// changes by far less per wrap).
+pub const JUMP_SHARE: f64 = 0.01;
+
+fn is_jump(previous: f64, tension: f64) -> bool {
+    (tension - previous).abs() > JUMP_SHARE * tension.abs().max(previous.abs())
+}
+
 /// Run the accretion with `group` layers per element (1 = per-layer) over `layers` wraps.
 pub(super) fn run(
     problem: &WindingProblem,
@@ -343,6 +352,7 @@ pub(super) fn run(
     let explicit = matches!(problem.options.modulus_update, ModulusUpdate::Explicit);
     let mut layer = 0;
     let mut loads = Vec::with_capacity(64);
+    let mut previous_tension = 0.0;
     while layer < layers {
         // Batches (grouped resolution only) start once a few wraps lie on the core.
         // The explicit update takes each wrap's modulus before that wrap, so it lays one wrap
@@ -357,8 +367,15 @@ pub(super) fn run(
         for wrap in layer..end {
             let s = rc + wrap as f64 * h;
             let t = wit(wrap);
-            solver.push(wrap, s, t, wrap % group == 0);
+            // Both sides of a jump in wound-in tension (a step, the edges of an upset band) are
+            // kept as element boundaries, so the kinks of the pressure there stay on the grid.
+            let jump = wrap > 0 && is_jump(previous_tension, t);
+            if jump && let Some(below) = solver.permanent.last_mut() {
+                *below = true;
+            }
+            solver.push(wrap, s, t, jump || wrap % group == 0);
             loads.push(t / s);
+            previous_tension = t;
         }
         if loads.iter().sum::<f64>() > 0.0 {
             solver.increment(&loads)?;

@@ -118,18 +118,24 @@ impl Solver {
         if from >= end {
             return;
         }
-        let mut above = 0.0;
-        for k in (from..end).rev() {
-            let d = values[k];
-            let flux = self.radius[k] * d;
-            self.pressure[k] -= d;
-            self.hoop_force[k] += above - flux;
-            above = flux;
+        // Rings from..end−1 lie between two nodes of the range (one pass over equal-length
+        // slices, which the compiler vectorises); the top ring of the range has no flux above.
+        let m = end - from - 1;
+        let (r0, r1) = (&self.radius[from..end - 1], &self.radius[from + 1..end]);
+        let (v0, v1) = (&values[from..end - 1], &values[from + 1..end]);
+        let force = &mut self.hoop_force[from..end - 1];
+        let pressure = &mut self.pressure[from..end - 1];
+        for i in 0..m {
+            force[i] += r1[i] * v1[i] - r0[i] * v0[i];
+            pressure[i] -= v0[i];
         }
+        let top = end - 1;
+        self.pressure[top] -= values[top];
+        self.hoop_force[top] -= self.radius[top] * values[top];
         if from > 0 {
-            // The ring below the solved part (a skipped or held node) takes the flux through its
+            // The ring below the range (a skipped or held node) takes the flux through its
             // outer face.
-            self.hoop_force[from - 1] += above;
+            self.hoop_force[from - 1] += self.radius[from] * values[from];
         }
     }
 
