@@ -32,10 +32,17 @@ impl Solver {
         match (self.law, self.update) {
             (RadialStiffness::Pfeiffer { k1, k2 }, ModulusUpdate::Explicit) => {
                 let scale = et / k2;
-                for i in 0..out.len() {
-                    let inverse = 1.0 / (pressure[i].max(0.0) + k1);
-                    out[i] = gamma[i] * scale * inverse - beta[i];
-                    sensitivity[i] = 0.5 * inverse;
+                // Only a held deep part reads the sensitivity of an explicit solve.
+                if self.may_hold {
+                    for i in 0..out.len() {
+                        let inverse = 1.0 / (pressure[i].max(0.0) + k1);
+                        out[i] = gamma[i] * scale * inverse - beta[i];
+                        sensitivity[i] = 0.5 * inverse;
+                    }
+                } else {
+                    for i in 0..out.len() {
+                        out[i] = gamma[i] * scale / (pressure[i].max(0.0) + k1) - beta[i];
+                    }
                 }
             }
             (RadialStiffness::Pfeiffer { k1, k2 }, ModulusUpdate::Iterated) => {
@@ -141,9 +148,9 @@ impl Solver {
             }
         };
         self.fill_diagonal(begin, top);
-        // The serial chain x[i+1] = −ā·x[i−1] − b̄·x[i], advanced two nodes at a time: both new
-        // values are combinations of the two previous ones with coefficients computed off the
-        // dependency path, so the path carries one multiply-add per two nodes.
+        // The serial chain x[i+1] = −ā·x[i−1] − b̄·x[i], advanced four nodes at a time: all four
+        // new values are combinations of the two previous ones with coefficients computed off
+        // the dependency path, so the path carries one multiply-add per four nodes.
         let mut previous = self.raw[begin - 1];
         let mut current = self.raw[begin];
         let mut block = begin;
@@ -152,19 +159,29 @@ impl Solver {
             let lower = &self.lower[block..block_end];
             let diagonal = &self.diagonal[block..block_end];
             let out = &mut self.raw[block + 1..block_end + 1];
-            let pairs = out.len() / 2;
-            for k in 0..pairs {
-                let (q0, p0) = (lower[2 * k], diagonal[2 * k]);
-                let (q1, p1) = (lower[2 * k + 1], diagonal[2 * k + 1]);
-                let first = q0 * previous + p0 * current;
-                let second = (q1 + p1 * p0) * current + (p1 * q0) * previous;
-                out[2 * k] = first;
-                out[2 * k + 1] = second;
-                previous = first;
-                current = second;
+            let quads = out.len() / 4;
+            for k in 0..quads {
+                let j = 4 * k;
+                let (q0, p0) = (lower[j], diagonal[j]);
+                let (q1, p1) = (lower[j + 1], diagonal[j + 1]);
+                let (q2, p2) = (lower[j + 2], diagonal[j + 2]);
+                let (q3, p3) = (lower[j + 3], diagonal[j + 3]);
+                // x[j+n] = a_n·previous + b_n·current, the coefficients by the same recurrence.
+                let (a2, b2) = (p1 * q0, q1 + p1 * p0);
+                let (a3, b3) = (q2 * q0 + p2 * a2, q2 * p0 + p2 * b2);
+                let (a4, b4) = (q3 * a2 + p3 * a3, q3 * b2 + p3 * b3);
+                let x1 = q0 * previous + p0 * current;
+                let x2 = a2 * previous + b2 * current;
+                let x3 = a3 * previous + b3 * current;
+                let x4 = a4 * previous + b4 * current;
+                out[j] = x1;
+                out[j + 1] = x2;
+                out[j + 2] = x3;
+                out[j + 3] = x4;
+                previous = x3;
+                current = x4;
             }
-            if out.len() % 2 == 1 {
-                let k = out.len() - 1;
+            for k in 4 * quads..out.len() {
                 let next = lower[k] * previous + diagonal[k] * current;
                 previous = current;
                 current = next;

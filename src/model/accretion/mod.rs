@@ -312,6 +312,12 @@ impl Solver {
     }
 }
 
+/// In grouped resolution the wraps next to the core are graded like the region under the
+/// surface over this many times the per-wrap window of [`window_layers`] (at most
+/// [`WINDOW_MAX`] wraps): the window is taken at zero pressure, and the pressure at the core
+/// lengthens the decay length there severalfold.
+pub const CORE_WINDOW_FACTOR: usize = 4;
+
 /// Relative change of wound-in tension from one wrap to the next above which grouped resolution
 /// keeps element boundaries on both sides (a schedule step or an upset edge; a smooth taper
 /// changes by far less per wrap).
@@ -349,6 +355,19 @@ pub(super) fn run(
     let mut compacted_to = 1usize;
     let mut next_compaction = 0usize;
     let levels = lattice_levels(group);
+    // The first wraps on the core are graded from one node per wrap up to the element size, the
+    // same nested lattices as under the surface: a soft core or a stiff web puts a boundary
+    // layer there (hoop compression of the first wraps) that one element would average away.
+    let core_window = if group > 1 {
+        (CORE_WINDOW_FACTOR * window_layers(problem)).min(WINDOW_MAX)
+    } else {
+        0
+    };
+    let core_finest = finest_spacing(problem, rc);
+    let on_core_lattice = |wrap: usize| {
+        wrap < core_window
+            && wrap.is_multiple_of(lattice_spacing(wrap, core_window, core_finest, &levels))
+    };
     let explicit = matches!(problem.options.modulus_update, ModulusUpdate::Explicit);
     let mut layer = 0;
     let mut loads = Vec::with_capacity(64);
@@ -373,7 +392,8 @@ pub(super) fn run(
             if jump && let Some(below) = solver.permanent.last_mut() {
                 *below = true;
             }
-            solver.push(wrap, s, t, jump || wrap % group == 0);
+            let permanent = jump || wrap.is_multiple_of(group) || on_core_lattice(wrap);
+            solver.push(wrap, s, t, permanent);
             loads.push(t / s);
             previous_tension = t;
         }
