@@ -237,13 +237,23 @@ pub struct WindingInput {
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 #[serde(deny_unknown_fields)]
 pub struct TaperInput {
-    /// none, linear, hyperbolic, steps.
+    /// none, linear, hyperbolic, steps, programme.
     pub kind: String,
     /// Taper amount in percent ("25 %"), for linear and hyperbolic.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub amount: Option<QuantityText>,
     #[serde(default, skip_serializing_if = "Vec::is_empty")]
     pub steps: Vec<StepInput>,
+    /// The tension programme (kind `programme`): tension at each diameter.
+    #[serde(default, skip_serializing_if = "Vec::is_empty")]
+    pub points: Vec<TensionPointInput>,
+}
+
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct TensionPointInput {
+    pub diameter: QuantityText,
+    pub tension: QuantityText,
 }
 
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]

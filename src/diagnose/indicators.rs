@@ -794,7 +794,7 @@ pub fn taper_percent(case: &ResolvedCase) -> f64 {
     match &schedule.taper {
         Taper::None => 0.0,
         Taper::Linear { fraction } | Taper::Hyperbolic { fraction } => fraction * 100.0,
-        Taper::Steps { steps } => match steps.last() {
+        Taper::Steps { steps } | Taper::Programme { points: steps } => match steps.last() {
             Some(last) if schedule.start_tension > 0.0 => {
                 (schedule.start_tension - last.tension) / schedule.start_tension * 100.0
             }

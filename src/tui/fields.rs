@@ -260,6 +260,7 @@ pub fn set(case: &mut Case, spec: &FieldSpec, text: Option<&str>) -> Result<(), 
                     kind: kind.clone(),
                     amount: None,
                     steps: Vec::new(),
+                    points: Vec::new(),
                 });
                 taper.kind = kind;
             }
@@ -271,6 +272,7 @@ pub fn set(case: &mut Case, spec: &FieldSpec, text: Option<&str>) -> Result<(), 
                     kind: "linear".into(),
                     amount: None,
                     steps: Vec::new(),
+                    points: Vec::new(),
                 });
                 taper.amount = Some(amount);
             }

@@ -328,6 +328,7 @@ pub const DOC_SECTIONS: &[&str] = &[
     "winding",
     "winding.taper",
     "winding.taper.steps[]",
+    "winding.taper.points[]",
     "winding.upsets[]",
     "winding.nip_programme[]",
     "winding.drums",

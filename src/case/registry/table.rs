@@ -390,7 +390,7 @@ pub const METHOD: Field = Field {
 pub const TENSION: Field = Field {
     form: Some("Web tension"),
     range: Some(above(0.0, 1e6, Q::ForcePerWidth)),
-    accepted_also: "below the web strength",
+    accepted_also: "below the web strength; refused beside a tension programme (taper kind `programme`)",
     default: FromWeb(|p| p.typical_tension),
     help: "Web tension at the start of the roll (force per width).",
     example: "3 pli",
@@ -417,7 +417,7 @@ pub const TAPER_AMOUNT: Field = Field {
     // At 100 % a linear taper winds the last wrap at no tension, where the air film is
     // infinite.
     range: Some(from(0.0, 1.0, Q::Percent).below_max()),
-    accepted_also: "required for linear and hyperbolic, refused for none and steps",
+    accepted_also: "required for linear and hyperbolic, refused for none, steps and programme",
     default: Rule("—"),
     help: "Share of the starting tension taken off by the outside (`\"25 %\"` or `0.25`).",
     example: "25 %",
@@ -448,6 +448,34 @@ pub const STEP_TENSION: Field = Field {
     ..plain(
         "winding.taper.steps[].tension",
         "Step tension",
+        Quantity(Q::ForcePerWidth),
+    )
+};
+pub const TAPER_POINTS: Field = Field {
+    accepted_also: "for `programme` only; diameters within the roll and increasing from the core outward",
+    help: "Tension programme, as winder recipes store it: the tension at each diameter, interpolated linearly and held beyond the first and last point; the tension at the core is the programme's.",
+    ..plain("winding.taper.points", "Tension programme", List)
+};
+pub const POINT_DIAMETER: Field = Field {
+    accepted_also: "within the roll (core outside diameter to roll diameter)",
+    default: Required,
+    help: "Roll diameter of this point of the programme.",
+    example: "300 mm",
+    ..plain(
+        "winding.taper.points[].diameter",
+        "Tension programme diameter",
+        Quantity(Q::Length),
+    )
+};
+pub const POINT_TENSION: Field = Field {
+    range: Some(above(0.0, 1e6, Q::ForcePerWidth)),
+    accepted_also: "below the web strength",
+    default: Required,
+    help: "Web tension at this diameter.",
+    example: "2.5 pli",
+    ..plain(
+        "winding.taper.points[].tension",
+        "Tension programme tension",
         Quantity(Q::ForcePerWidth),
     )
 };
@@ -728,6 +756,9 @@ pub const FIELDS: &[&Field] = &[
     &TAPER_STEPS,
     &STEP_FROM,
     &STEP_TENSION,
+    &TAPER_POINTS,
+    &POINT_DIAMETER,
+    &POINT_TENSION,
     &NIP,
     &NIP_PROGRAMME,
     &NIP_POINT_DIAMETER,
