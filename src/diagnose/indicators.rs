@@ -183,6 +183,12 @@ pub const INDICATORS: &[IndicatorSpec] = &[
         "the same ratio at the core/web interface, smallest over the events (below 1 = the roll turns on its core)",
     ),
     spec(
+        "shaft_slip_margin",
+        Dimension::Ratio,
+        ZoneUse::None,
+        "the chuck or shaft torque rating over the torque the core must pass, smallest over the events (below 1 = the core turns on its chuck); only when the case gives the rating",
+    ),
+    spec(
         "air_film_ratio",
         Dimension::Ratio,
         ZoneUse::None,
@@ -773,6 +779,9 @@ impl Indicators {
         let torque = crate::mechanics::torque::torque_check(profile, &inputs);
         self.set("slip_margin", None, torque.min_margin);
         self.set("core_slip_margin", None, torque.core_margin);
+        if let Some(margin) = torque.shaft_margin {
+            self.set("shaft_slip_margin", None, margin);
+        }
         self.set("speed_change_slip_margin", None, torque.speed_change_margin);
         let telescoping = crate::mechanics::telescoping::handling_margins(profile, &inputs);
         self.set("telescoping_margin", None, telescoping.min_margin);
@@ -818,11 +827,7 @@ fn acceleration_torque_per_width(case: &ResolvedCase, core_r: f64, outer_r: f64)
         return 0.0;
     };
     // Solid annulus: J per width = ρ·π·(R⁴ − rc⁴)/2; α = v / (R·t).
-    let inertia = crate::mechanics::torque::annulus_inertia(
-        crate::mechanics::density_of(case.web.material),
-        core_r,
-        outer_r,
-    );
+    let inertia = crate::mechanics::torque::annulus_inertia(case.web.density, core_r, outer_r);
     let angular_acceleration = case.winding.speed / (outer_r * time);
     inertia * angular_acceleration
 }

@@ -16,7 +16,10 @@
 //! outside r; a surface drive turns the outside and must drag the wraps inside r (the core's own
 //! inertia is left out). The tensile outermost wraps (the `surface` zone) carry the tension in
 //! their own hoop stress and are not checked. Node 0 is the core/web interface: its margin is the
-//! core-slip margin. The roll is taken at full diameter (pressure relief as wraps come off on
+//! core-slip margin. When the case gives the chuck or shaft torque rating, the core/shaft
+//! interface is checked too: the torque the core must pass (the demand at the core/web
+//! interface; the core's own inertia left out) against the rating per width. The roll is taken
+//! at full diameter (pressure relief as wraps come off on
 //! unwinding is not modelled).
 
 use serde::Serialize;
@@ -73,6 +76,12 @@ pub struct TorqueCheck {
     /// Smallest margin over the speed-change events only (start-up, normal stop, emergency
     /// stop): what the roll's inertia asks of the interfaces.
     pub speed_change_margin: f64,
+    /// Rating / demand at the core/shaft interface, smallest over the events, and that event;
+    /// `None` without a chuck or shaft torque rating.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub shaft_margin: Option<f64>,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub shaft_event: Option<Event>,
 }
 
 /// Polar moment of inertia per unit width of a web annulus from a to b (kg·m²/m).
@@ -152,7 +161,18 @@ pub fn torque_check(profile: &Profile, inputs: &MechanicsInputs) -> TorqueCheck 
         .filter(|e| e.event != Event::Unwind)
         .map(|e| e.margins.min_margin)
         .fold(super::MARGIN_CAP, f64::min);
+    let shaft = inputs.events.shaft_torque_rating.and_then(|rating| {
+        Event::ALL
+            .iter()
+            .map(|&event| {
+                let demand = demand(inputs, outer, inputs.core_radius, event);
+                (event, super::margin(rating, demand))
+            })
+            .min_by(|a, b| a.1.total_cmp(&b.1))
+    });
     TorqueCheck {
+        shaft_margin: shaft.map(|s| s.1),
+        shaft_event: shaft.map(|s| s.0),
         speed_change_margin,
         min_margin: worst.map_or(super::MARGIN_CAP, |w| w.margins.min_margin),
         worst_event: worst.map_or(Event::StartUp, |w| w.event),

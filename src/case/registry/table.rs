@@ -194,9 +194,23 @@ pub const DENSITY: Field = Field {
     form: Some("Density (kg/m³)"),
     range: Some(plain_from(10.0, 25_000.0)),
     default: FromWeb(|p| p.density),
-    help: "Density of the web in kg/m³ (basis weight over caliper): roll weight on winder drums, centrifugal unloading.",
+    accepted_also: "when left out: `basis_weight` over `thickness` if the basis weight is given, else the preset's",
+    help: "Density of the web in kg/m³ (basis weight over caliper): roll weight on winder drums, centrifugal unloading, the handling and inertia loads of the telescoping and slip checks.",
     example: "600",
     ..plain("web.density", "Web density (kg/m³)", Number)
+};
+pub const WEB_BASIS_WEIGHT: Field = Field {
+    form: Some("Basis weight"),
+    range: Some(above(0.0, 5.0, Q::BasisWeight)),
+    accepted_also: "gives a density (over the caliper) in the density's range",
+    default: Rule("not used (the density comes from `density` or the preset)"),
+    help: "Basis weight (grammage) of the web; over the caliper it gives the density when `density` is not given.",
+    example: "45 g/m2",
+    ..plain(
+        "web.basis_weight",
+        "Web basis weight",
+        Quantity(Q::BasisWeight),
+    )
 };
 pub const ROUGHNESS: Field = Field {
     form: Some("Roughness (RMS)"),
@@ -349,6 +363,18 @@ pub const CORE_STRENGTH: Field = Field {
         Quantity(Q::Stress),
     )
 };
+pub const SHAFT_TORQUE_RATING: Field = Field {
+    form: Some("Shaft torque"),
+    range: Some(above(0.0, 1e7, Q::Torque)),
+    default: Rule("not checked (the core/shaft interface is checked only against a given rating)"),
+    help: "Torque rating of the chuck or expanding shaft holding the core, whole width: the core-slip check compares the torque the core must pass in start-up, stops and unwind braking with it.",
+    example: "800 N·m",
+    ..plain(
+        "core.shaft_torque_rating",
+        "Chuck or shaft torque rating",
+        Quantity(Q::Torque),
+    )
+};
 pub const ROLL: Field = Field {
     help: "The finished roll.",
     ..plain("roll", "Roll", Section)
@@ -424,6 +450,7 @@ pub const TAPER_AMOUNT: Field = Field {
     ..plain("winding.taper.amount", "Taper amount", Quantity(Q::Percent))
 };
 pub const TAPER_STEPS: Field = Field {
+    form: Some("Tension steps"),
     accepted_also: "for `steps` only; diameters within the roll and increasing from the core outward",
     help: "Tension steps: from each diameter on, the web runs at the step's tension.",
     ..plain("winding.taper.steps", "Tension steps", List)
@@ -452,6 +479,7 @@ pub const STEP_TENSION: Field = Field {
     )
 };
 pub const TAPER_POINTS: Field = Field {
+    form: Some("Tension programme"),
     accepted_also: "for `programme` only; diameters within the roll and increasing from the core outward",
     help: "Tension programme, as winder recipes store it: the tension at each diameter, interpolated linearly and held beyond the first and last point; the tension at the core is the programme's.",
     ..plain("winding.taper.points", "Tension programme", List)
@@ -488,6 +516,7 @@ pub const NIP: Field = Field {
     ..plain("winding.nip_load", "Nip load", Quantity(Q::ForcePerWidth))
 };
 pub const NIP_PROGRAMME: Field = Field {
+    form: Some("Nip programme"),
     accepted_also: "diameters within the roll, increasing; replaces `nip_load`",
     help: "Nip (rider) load as a table against diameter, interpolated linearly and held beyond its ends.",
     ..plain("winding.nip_programme", "Nip programme", List)
@@ -544,6 +573,7 @@ pub const DRUMS: Field = Field {
     ..plain("winding.drums", "Winder drums", Section)
 };
 pub const DRUM_DIAMETER: Field = Field {
+    form: Some("Drum diameter"),
     range: Some(above(0.0, 5.0, Q::Length)),
     default: Fixed(crate::presets::DEFAULT_DRUM_DIAMETER),
     help: "Diameter of each winder drum.",
@@ -555,6 +585,7 @@ pub const DRUM_DIAMETER: Field = Field {
     )
 };
 pub const DRUM_DISTANCE: Field = Field {
+    form: Some("Drum distance"),
     range: Some(above(0.0, 10.0, Q::Length)),
     accepted_also: "more than one drum diameter, less than the core diameter plus one drum diameter",
     default: Rule("drum diameter + 20 mm (common practice: a narrow gap between the drums)"),
@@ -567,6 +598,7 @@ pub const DRUM_DISTANCE: Field = Field {
     )
 };
 pub const DRUM_DIFFERENTIAL: Field = Field {
+    form: Some("Drum torque diff."),
     range: Some(from(-1e6, 1e6, Q::Torque)),
     default: Rule("0 (both drums at the same torque)"),
     help: "Front drum torque minus the torque of the drum the web wraps, whole width; positive tightens the roll.",
@@ -669,6 +701,18 @@ pub const UNWIND_TENSION: Field = Field {
         Quantity(Q::ForcePerWidth),
     )
 };
+pub const SHOCK_FACTOR: Field = Field {
+    form: Some("Shock factor"),
+    range: Some(plain_from(1.0, 20.0)),
+    default: Fixed(crate::presets::DEFAULT_SHOCK_FACTOR),
+    help: "Dynamic factor on the roll's weight when it is lifted by its core or stood on end (telescoping check); 1 is a slow, static lift.",
+    example: "2",
+    ..plain(
+        "winding.handling_shock_factor",
+        "Handling shock factor",
+        Number,
+    )
+};
 pub const SYMPTOMS: Field = Field {
     help: "Observed defects.",
     ..plain("symptoms", "Symptoms", List)
@@ -729,6 +773,7 @@ pub const FIELDS: &[&Field] = &[
     &FRICTION,
     &KINETIC_FRICTION,
     &DENSITY,
+    &WEB_BASIS_WEIGHT,
     &ROUGHNESS,
     &STRENGTH,
     &CORE,
@@ -744,6 +789,7 @@ pub const FIELDS: &[&Field] = &[
     &CORE_SUPPORT,
     &FLAT_CRUSH,
     &CORE_STRENGTH,
+    &SHAFT_TORQUE_RATING,
     &ROLL,
     &ROLL_DIAMETER,
     &ROLL_LENGTH,
@@ -779,6 +825,7 @@ pub const FIELDS: &[&Field] = &[
     &STOP_TIME,
     &EMERGENCY_STOP_TIME,
     &UNWIND_TENSION,
+    &SHOCK_FACTOR,
     &SYMPTOMS,
     &SYMPTOM_ID,
     &SYMPTOM_WHERE,

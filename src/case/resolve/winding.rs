@@ -435,7 +435,11 @@ impl Resolver {
             }
             None => None,
         };
+        // Listed as assumed when not given; the mechanics take the same default.
+        let shock_given = winding.handling_shock_factor;
+        self.number_or(&reg::SHOCK_FACTOR, shock_given, None, None)?;
         Ok(ResolvedWinding {
+            handling_shock_factor: shock_given,
             stop_time,
             emergency_stop_time,
             unwind_tension,
