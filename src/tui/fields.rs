@@ -98,27 +98,14 @@ fn spec(field: &'static Field, label: &'static str) -> Option<FieldSpec> {
         },
         registry::FieldKind::Section | registry::FieldKind::Map => return None,
     };
-    let example = match kind {
-        // A table's example is built from its columns' examples.
-        FieldKind::Table { columns } => table_example(columns),
-        _ => field.example,
-    };
     Some(FieldSpec {
         path: field.path,
         group: group(field),
         label,
         kind,
-        example,
+        example: field.example,
         range: field.range,
     })
-}
-
-/// `"400 mm: 5 pli; 800 mm: 5 pli"` from the columns' examples (leaked once per table field,
-/// when the form's field list is built).
-fn table_example(columns: [&'static str; 2]) -> &'static str {
-    let [a, b] = columns.map(column);
-    let row = format!("{}: {}", a.example, b.example);
-    Box::leak(format!("{row}; {row}").into_boxed_str())
 }
 
 /// The registry field of a table column (its path came from the registry).

@@ -521,6 +521,10 @@ fn every_schema_key_is_in_the_field_registry_and_back() {
             "title: t\nwinding: {nip_programme: [{zz_unknown: 1}]}\n",
         ),
         (
+            "winding.taper.points[]",
+            "title: t\nwinding: {taper: {kind: programme, points: [{zz_unknown: 1}]}}\n",
+        ),
+        (
             "winding.drums",
             "title: t\nwinding: {drums: {zz_unknown: 1}}\n",
         ),

@@ -450,6 +450,7 @@ pub const TAPER_AMOUNT: Field = Field {
     ..plain("winding.taper.amount", "Taper amount", Quantity(Q::Percent))
 };
 pub const TAPER_STEPS: Field = Field {
+    example: "300 mm: 2.5 pli; 450 mm: 2 pli",
     form: Some("Tension steps"),
     accepted_also: "for `steps` only; diameters within the roll and increasing from the core outward",
     help: "Tension steps: from each diameter on, the web runs at the step's tension.",
@@ -479,6 +480,7 @@ pub const STEP_TENSION: Field = Field {
     )
 };
 pub const TAPER_POINTS: Field = Field {
+    example: "100 mm: 3 pli; 1000 mm: 2 pli",
     form: Some("Tension programme"),
     accepted_also: "for `programme` only; diameters within the roll and increasing from the core outward",
     help: "Tension programme, as winder recipes store it: the tension at each diameter, interpolated linearly and held beyond the first and last point; the tension at the core is the programme's.",
@@ -516,6 +518,7 @@ pub const NIP: Field = Field {
     ..plain("winding.nip_load", "Nip load", Quantity(Q::ForcePerWidth))
 };
 pub const NIP_PROGRAMME: Field = Field {
+    example: "400 mm: 5 pli; 800 mm: 3 pli",
     form: Some("Nip programme"),
     accepted_also: "diameters within the roll, increasing; replaces `nip_load`",
     help: "Nip (rider) load as a table against diameter, interpolated linearly and held beyond its ends.",
