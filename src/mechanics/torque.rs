@@ -182,3 +182,46 @@ pub fn torque_check(profile: &Profile, inputs: &MechanicsInputs) -> TorqueCheck 
         events,
     }
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::mechanics::Events;
+
+    /// The core/shaft check against a hand computation: with no speed (no inertia) the torque
+    /// the core passes in a start-up, a normal stop and unwind braking is the tension torque
+    /// T·R (statics: torque = force × radius), 200 N/m × 0.5 m = 100 N·m per metre of width;
+    /// a rating of 50 N·m/m gives 50 / 100 = 0.5, first reached in the start-up.
+    #[test]
+    fn shaft_margin_is_rating_over_the_torque_the_core_passes() {
+        let radius: Vec<f64> = (0..=10).map(|i| 0.05 + 0.045 * f64::from(i)).collect();
+        let profile = Profile {
+            pressure: vec![1e6; radius.len()],
+            radius,
+            ..Profile::default()
+        };
+        let inputs = MechanicsInputs {
+            core_radius: 0.05,
+            outer_radius: 0.5,
+            density: 700.0,
+            friction: 0.4,
+            method: WindingMethod::Centre,
+            speed: 0.0,
+            outer_tension: 200.0,
+            events: Events {
+                shaft_torque_rating: Some(50.0),
+                ..Events::default()
+            },
+        };
+        let check = torque_check(&profile, &inputs);
+        let margin = check.shaft_margin.expect("a rating was given");
+        assert!((margin - 0.5).abs() < 1e-12, "{margin}");
+        assert_eq!(check.shaft_event, Some(Event::StartUp));
+        // Without a rating the interface is not checked.
+        let unrated = MechanicsInputs {
+            events: Events::default(),
+            ..inputs
+        };
+        assert_eq!(torque_check(&profile, &unrated).shaft_margin, None);
+    }
+}
