@@ -279,6 +279,10 @@ pub struct ReportDocument {
     pub model_limits: Vec<String>,
     /// The profile thinned to at most [`PROFILE_POINTS`] points, core first.
     pub profile: Vec<ProfilePoint>,
+    /// Past complaints like this one from the plant's history store, with their confirmed
+    /// causes and what worked; absent when no store was given.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub similar_past: Option<Vec<crate::history::PastComplaint>>,
     /// What was measured on the roll against what was computed; absent without measurements.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub measured: Option<MeasuredSection>,
@@ -389,12 +393,24 @@ pub fn build_document(input: &ReportInput) -> Result<ReportDocument, ReportError
         cautions: input.diagnosis.cautions.clone(),
         indicators,
         remedy_comparison,
+        similar_past: input.similar_past.clone(),
         complaint: input
             .case
             .complaint
             .as_ref()
             .map(|c| {
-                c.lines()
+                // Confirmed causes by their titles, as the ranking names them (plain words
+                // for a cause the ranking does not list).
+                let title = |id: &str| {
+                    input
+                        .diagnosis
+                        .causes
+                        .iter()
+                        .find(|c| c.id == id)
+                        .map(|c| c.title.clone())
+                        .unwrap_or_else(|| id.replace('_', " "))
+                };
+                c.lines_titled(&title)
                     .into_iter()
                     .map(|(label, value)| (label.to_string(), value))
                     .collect()

@@ -139,6 +139,7 @@ fn write_report(
         }
         writeln!(out, "</table>")?;
     }
+    super::past_section::html(out, doc)?;
 
     let stress = &doc.stress;
     writeln!(out, "<h2 id=\"stress\">Stress inside the roll</h2>")?;

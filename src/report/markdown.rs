@@ -64,14 +64,6 @@ fn write_report(out: &mut String, doc: &ReportDocument) -> std::fmt::Result {
         writeln!(out, "Notes: {notes}")?;
         writeln!(out)?;
     }
-    if !doc.complaint.is_empty() {
-        writeln!(out, "## Complaint record")?;
-        writeln!(out)?;
-        for (label, value) in &doc.complaint {
-            writeln!(out, "- **{label}**: {value}")?;
-        }
-        writeln!(out)?;
-    }
     writeln!(out, "### Inputs")?;
     writeln!(out)?;
     writeln!(out, "| Input | Value | Given or assumed |")?;
@@ -89,6 +81,16 @@ fn write_report(out: &mut String, doc: &ReportDocument) -> std::fmt::Result {
     writeln!(out)?;
     writeln!(out, "{}", super::document::assumed_summary(&case.inputs))?;
     writeln!(out)?;
+    // After the case's inputs, so "### Inputs" stays under "## Case" (as in the HTML).
+    if !doc.complaint.is_empty() {
+        writeln!(out, "## Complaint record")?;
+        writeln!(out)?;
+        for (label, value) in &doc.complaint {
+            writeln!(out, "- **{label}**: {value}")?;
+        }
+        writeln!(out)?;
+    }
+    super::past_section::markdown(out, doc)?;
 
     let stress = &doc.stress;
     writeln!(out, "## Stress inside the roll")?;

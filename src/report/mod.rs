@@ -9,6 +9,7 @@ mod document;
 mod html;
 mod json;
 mod markdown;
+mod past_section;
 pub mod plots;
 mod prepare;
 
@@ -120,6 +121,8 @@ pub struct ReportInput {
     pub remedy: Option<RemedyComparison>,
     pub meta: ReportMeta,
     pub units: UnitSystem,
+    /// Similar past complaints from a history store (`report --history`); `None` without one.
+    pub similar_past: Option<Vec<crate::history::PastComplaint>>,
 }
 
 /// Errors making a report.

@@ -112,6 +112,7 @@ pub fn solved_report(
         remedy,
         meta,
         units,
+        similar_past: None,
     }
 }
 

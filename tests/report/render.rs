@@ -267,6 +267,7 @@ fn fixture(with_remedy: bool) -> ReportInput {
             source_file: Some("cases/test.yaml".into()),
         },
         units: UnitSystem::Si,
+        similar_past: None,
     }
 }
 
