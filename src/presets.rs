@@ -417,6 +417,15 @@ const CORE_PRESETS: [CorePreset; 7] = [
 ];
 
 /// Line speed used when a case gives none (m/s).
+/// Dynamic factor on the roll's weight when it is lifted by its core or set down on end (the
+/// telescoping check): a load applied suddenly, without drop height, to a linear elastic system
+/// gives twice the static deflection and stress (energy balance of a suddenly applied load,
+/// closed form in strength-of-materials texts, e.g. Gere & Timoshenko, Mechanics of Materials,
+/// impact loading — from memory). Rough handling with a drop gives more.
+pub const DEFAULT_SHOCK_FACTOR: Sourced = sourced(
+    2.0,
+    "suddenly applied load without drop height: twice the static stress (closed form of the energy balance, strength-of-materials texts such as Gere & Timoshenko, from memory)",
+);
 pub const DEFAULT_SPEED: Sourced =
     sourced(5.0, "common practice: a moderate 300 m/min rewinding speed");
 /// Web width used when a case gives none (m). Stresses are per unit width, so it only scales

@@ -118,6 +118,7 @@ word_list! {
         Linear = "linear",
         Hyperbolic = "hyperbolic",
         Steps = "steps",
+        Programme = "programme",
     }
 }
 

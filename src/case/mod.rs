@@ -30,7 +30,8 @@ pub use resolved::{
 };
 pub use schema::{
     Case, CoreInput, DrumsInput, NipPointInput, ObservedSymptom, QuantityText,
-    RadialStiffnessInput, RollInput, StepInput, TaperInput, UpsetInput, WebInput, WindingInput,
+    RadialStiffnessInput, RollInput, StepInput, TaperInput, TensionPointInput, UpsetInput,
+    WebInput, WindingInput,
 };
 pub use starter::starter_yaml;
 

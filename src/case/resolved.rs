@@ -66,6 +66,10 @@ pub struct ResolvedCore {
     pub support: crate::model::CoreSupport,
     /// What `crush_pressure` rests on.
     pub crush_basis: crate::model::core_crush::CrushBasis,
+    /// Torque rating of the chuck or shaft holding the core, N·m for the whole width; `None`
+    /// when the case gives none (the core/shaft interface is then not checked).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub shaft_torque_rating: Option<f64>,
 }
 
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
@@ -108,6 +112,10 @@ pub struct ResolvedWinding {
     /// Unwind tension at the customer, N/m (`None`: the tension the outside was wound at).
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub unwind_tension: Option<f64>,
+    /// Dynamic factor on the roll's weight in handling as given; `None` takes
+    /// [`crate::mechanics::DEFAULT_SHOCK_FACTOR`] (listed as assumed by the resolver).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub handling_shock_factor: Option<f64>,
 }
 
 /// One value that was not in the case file.

@@ -113,9 +113,13 @@ pub struct WebInput {
     /// Kinetic web-to-web friction (nip-induced tension); `friction` is the static one.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub kinetic_friction: Option<f64>,
-    /// Density of the web, kg/m³ (roll weight on drums, centrifugal unloading).
+    /// Density of the web, kg/m³ (roll weight on drums, centrifugal unloading, handling and
+    /// inertia in the failure mechanisms).
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub density: Option<f64>,
+    /// Basis weight (grammage); with the caliper it gives the density when `density` is not given.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub basis_weight: Option<QuantityText>,
     /// RMS roughness of one surface.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub roughness: Option<QuantityText>,
@@ -175,6 +179,9 @@ pub struct CoreInput {
     /// Hoop compressive strength of the wall, for the crush estimate.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub compressive_strength: Option<QuantityText>,
+    /// Torque rating of the chuck or expanding shaft that holds the core (whole width).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub shaft_torque_rating: Option<QuantityText>,
 }
 
 #[derive(Debug, Clone, PartialEq, Default, Serialize, Deserialize)]
@@ -236,18 +243,31 @@ pub struct WindingInput {
     /// Unwind tension at the customer (slip check when a full roll is braked).
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub unwind_tension: Option<QuantityText>,
+    /// Dynamic factor on the roll's weight in handling (telescoping check).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub handling_shock_factor: Option<f64>,
 }
 
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 #[serde(deny_unknown_fields)]
 pub struct TaperInput {
-    /// none, linear, hyperbolic, steps.
+    /// none, linear, hyperbolic, steps, programme.
     pub kind: String,
     /// Taper amount in percent ("25 %"), for linear and hyperbolic.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub amount: Option<QuantityText>,
     #[serde(default, skip_serializing_if = "Vec::is_empty")]
     pub steps: Vec<StepInput>,
+    /// The tension programme (kind `programme`): tension at each diameter.
+    #[serde(default, skip_serializing_if = "Vec::is_empty")]
+    pub points: Vec<TensionPointInput>,
+}
+
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct TensionPointInput {
+    pub diameter: QuantityText,
+    pub tension: QuantityText,
 }
 
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]

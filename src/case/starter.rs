@@ -118,6 +118,7 @@ pub fn starter_yaml(web: &WebPreset, core: &CorePreset) -> String {
     );
     out.push_str(&default_line("  ", &reg::NIP_PLATEAU, web, core));
     out.push_str(&default_line("  ", &reg::SPEED, web, core));
+    out.push_str(&default_line("  ", &reg::SHOCK_FACTOR, web, core));
     out.push_str("  # upsets:  # bands wound at a different tension, e.g. after a splice\n");
     out.push_str(
         "  #   - {from_diameter: \"600 mm\", to_diameter: \"620 mm\", tension: \"3 pli\"}\n",

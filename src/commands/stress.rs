@@ -377,7 +377,7 @@ fn mechanism_rows(
     use rolltriage::mechanics::{telescoping, torque};
     let telescoping = telescoping::handling_margins(profile, inputs);
     let torque = torque::torque_check(profile, inputs);
-    vec![
+    let mut rows = vec![
         (
             "Telescoping margin (lifted by its core)",
             format!(
@@ -404,7 +404,17 @@ fn mechanism_rows(
                 torque.core_event.title()
             ),
         ),
-    ]
+    ];
+    if let (Some(margin), Some(event)) = (torque.shaft_margin, torque.shaft_event) {
+        rows.push((
+            "Chuck or shaft margin",
+            format!(
+                "{margin:.2} in the {} (torque rating / torque the core passes; below 1 = the core turns on its chuck)",
+                event.title()
+            ),
+        ));
+    }
+    rows
 }
 
 /// The full profile as CSV, one row per node.

@@ -103,7 +103,9 @@ pub fn scaled_problem(problem: &WindingProblem, tension: f64, stiffness: f64) ->
     let mut p = problem.clone();
     let schedule = &mut p.winding.tension;
     schedule.start_tension *= tension;
-    if let crate::model::Taper::Steps { steps } = &mut schedule.taper {
+    if let crate::model::Taper::Steps { steps } | crate::model::Taper::Programme { points: steps } =
+        &mut schedule.taper
+    {
         for s in steps {
             s.tension *= tension;
         }

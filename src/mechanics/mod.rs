@@ -9,7 +9,8 @@
 //!
 //! Inputs are SI and come from [`MechanicsInputs`] (built from a resolved case by
 //! [`MechanicsInputs::from_case`]: `winding.acceleration_time`, `stop_time`,
-//! `emergency_stop_time`, `unwind_tension`); what the case does not give takes the defaults
+//! `emergency_stop_time`, `unwind_tension`, `handling_shock_factor`, and the core's
+//! `shaft_torque_rating`); what the case does not give takes the defaults
 //! listed in [`Events`], stated as assumed. Layer above `model`: nothing here solves, it reads profiles.
 
 pub mod telescoping;
@@ -19,7 +20,6 @@ use serde::Serialize;
 
 use crate::case::ResolvedCase;
 use crate::model::{Profile, WindingMethod};
-use crate::vocabulary::WebMaterial;
 
 /// Standard acceleration of gravity, m/s² (CGPM 1901; NIST SP 330).
 pub const GRAVITY: f64 = 9.806_65;
@@ -47,6 +47,10 @@ pub struct Events {
     /// Unwind tension at the customer, N/m: `winding.unwind_tension`; `None` = the web tension
     /// the outside was wound at (assumed).
     pub unwind_tension: Option<f64>,
+    /// Torque rating of the chuck or shaft per unit width of web (N·m/m):
+    /// `core.shaft_torque_rating` / `web.width`; `None` = the core/shaft interface is not checked.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub shaft_torque_rating: Option<f64>,
 }
 
 /// Default start-up and normal stop ramp (s): `(from memory)` typical of production winders,
@@ -57,8 +61,10 @@ pub const DEFAULT_RAMP_TIME: f64 = 20.0;
 /// assumed.
 pub const DEFAULT_EMERGENCY_STOP_TIME: f64 = 4.0;
 
-/// Default dynamic factor on roll weight in handling (see [`Events::shock_factor`]).
-pub const DEFAULT_SHOCK_FACTOR: f64 = 2.0;
+/// Default dynamic factor on roll weight in handling (see [`Events::shock_factor`]); the case
+/// field `winding.handling_shock_factor` overrides it, and the resolver lists this default as
+/// assumed with its source ([`crate::presets::DEFAULT_SHOCK_FACTOR`]).
+pub const DEFAULT_SHOCK_FACTOR: f64 = crate::presets::DEFAULT_SHOCK_FACTOR.value;
 
 impl Default for Events {
     fn default() -> Self {
@@ -68,6 +74,7 @@ impl Default for Events {
             normal_stop_time: DEFAULT_RAMP_TIME,
             emergency_stop_time: DEFAULT_EMERGENCY_STOP_TIME,
             unwind_tension: None,
+            shaft_torque_rating: None,
         }
     }
 }
@@ -78,7 +85,9 @@ pub struct MechanicsInputs {
     /// Core outside radius and finished roll radius (m).
     pub core_radius: f64,
     pub outer_radius: f64,
-    /// Density of the wound web (kg/m³).
+    /// Density of the wound web (kg/m³): the resolved `web.density` (given, basis weight over
+    /// caliper, or the preset's, each listed in the case's assumed values), the one density the
+    /// winder model also uses for roll weight and centrifugal unloading.
     pub density: f64,
     /// Static web-to-web friction coefficient.
     pub friction: f64,
@@ -108,10 +117,18 @@ impl MechanicsInputs {
             events.emergency_stop_time = t;
         }
         events.unwind_tension = w.unwind_tension;
+        if let Some(k) = w.handling_shock_factor {
+            events.shock_factor = k;
+        }
+        events.shaft_torque_rating = case
+            .core
+            .shaft_torque_rating
+            .filter(|_| case.web.width > 0.0)
+            .map(|rating| rating / case.web.width);
         MechanicsInputs {
             core_radius,
             outer_radius,
-            density: density_of(case.web.material),
+            density: case.web.density,
             friction: case.web.friction,
             method: case.winding.method,
             speed: case.winding.speed,
@@ -122,20 +139,6 @@ impl MechanicsInputs {
             ),
             events,
         }
-    }
-}
-
-/// Approximate density of the wound web by material kind, kg/m³ — typical values `(from
-/// memory)`: PET film 1390, aluminium foil 2700, paper 700, board 750, nonwovens 300, laminates
-/// 1100. The one place the crate knows densities.
-pub fn density_of(material: WebMaterial) -> f64 {
-    match material {
-        WebMaterial::Film => 1390.0,
-        WebMaterial::Foil => 2700.0,
-        WebMaterial::Nonwoven => 300.0,
-        WebMaterial::Board => 750.0,
-        WebMaterial::Laminate => 1100.0,
-        WebMaterial::Paper => 700.0,
     }
 }
 

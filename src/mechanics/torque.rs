@@ -16,7 +16,10 @@
 //! outside r; a surface drive turns the outside and must drag the wraps inside r (the core's own
 //! inertia is left out). The tensile outermost wraps (the `surface` zone) carry the tension in
 //! their own hoop stress and are not checked. Node 0 is the core/web interface: its margin is the
-//! core-slip margin. The roll is taken at full diameter (pressure relief as wraps come off on
+//! core-slip margin. When the case gives the chuck or shaft torque rating, the core/shaft
+//! interface is checked too: the torque the core must pass (the demand at the core/web
+//! interface; the core's own inertia left out) against the rating per width. The roll is taken
+//! at full diameter (pressure relief as wraps come off on
 //! unwinding is not modelled).
 
 use serde::Serialize;
@@ -73,6 +76,12 @@ pub struct TorqueCheck {
     /// Smallest margin over the speed-change events only (start-up, normal stop, emergency
     /// stop): what the roll's inertia asks of the interfaces.
     pub speed_change_margin: f64,
+    /// Rating / demand at the core/shaft interface, smallest over the events, and that event;
+    /// `None` without a chuck or shaft torque rating.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub shaft_margin: Option<f64>,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub shaft_event: Option<Event>,
 }
 
 /// Polar moment of inertia per unit width of a web annulus from a to b (kg·m²/m).
@@ -152,7 +161,18 @@ pub fn torque_check(profile: &Profile, inputs: &MechanicsInputs) -> TorqueCheck 
         .filter(|e| e.event != Event::Unwind)
         .map(|e| e.margins.min_margin)
         .fold(super::MARGIN_CAP, f64::min);
+    let shaft = inputs.events.shaft_torque_rating.and_then(|rating| {
+        Event::ALL
+            .iter()
+            .map(|&event| {
+                let demand = demand(inputs, outer, inputs.core_radius, event);
+                (event, super::margin(rating, demand))
+            })
+            .min_by(|a, b| a.1.total_cmp(&b.1))
+    });
     TorqueCheck {
+        shaft_margin: shaft.map(|s| s.1),
+        shaft_event: shaft.map(|s| s.0),
         speed_change_margin,
         min_margin: worst.map_or(super::MARGIN_CAP, |w| w.margins.min_margin),
         worst_event: worst.map_or(Event::StartUp, |w| w.event),
@@ -160,5 +180,48 @@ pub fn torque_check(profile: &Profile, inputs: &MechanicsInputs) -> TorqueCheck 
         core_margin: core.map_or(super::MARGIN_CAP, |c| c.1),
         core_event: core.map_or(Event::StartUp, |c| c.0),
         events,
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::mechanics::Events;
+
+    /// The core/shaft check against a hand computation: with no speed (no inertia) the torque
+    /// the core passes in a start-up, a normal stop and unwind braking is the tension torque
+    /// T·R (statics: torque = force × radius), 200 N/m × 0.5 m = 100 N·m per metre of width;
+    /// a rating of 50 N·m/m gives 50 / 100 = 0.5, first reached in the start-up.
+    #[test]
+    fn shaft_margin_is_rating_over_the_torque_the_core_passes() {
+        let radius: Vec<f64> = (0..=10).map(|i| 0.05 + 0.045 * f64::from(i)).collect();
+        let profile = Profile {
+            pressure: vec![1e6; radius.len()],
+            radius,
+            ..Profile::default()
+        };
+        let inputs = MechanicsInputs {
+            core_radius: 0.05,
+            outer_radius: 0.5,
+            density: 700.0,
+            friction: 0.4,
+            method: WindingMethod::Centre,
+            speed: 0.0,
+            outer_tension: 200.0,
+            events: Events {
+                shaft_torque_rating: Some(50.0),
+                ..Events::default()
+            },
+        };
+        let check = torque_check(&profile, &inputs);
+        let margin = check.shaft_margin.expect("a rating was given");
+        assert!((margin - 0.5).abs() < 1e-12, "{margin}");
+        assert_eq!(check.shaft_event, Some(Event::StartUp));
+        // Without a rating the interface is not checked.
+        let unrated = MechanicsInputs {
+            events: Events::default(),
+            ..inputs
+        };
+        assert_eq!(torque_check(&profile, &unrated).shaft_margin, None);
     }
 }

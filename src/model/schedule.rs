@@ -1,4 +1,5 @@
-//! Web tension versus radius: constant, linear taper, hyperbolic taper, steps, upset bands.
+//! Web tension versus radius: constant, linear taper, hyperbolic taper, steps, a tension
+//! programme (a table of diameter and tension, as winders' recipes store it), upset bands.
 
 /// How tension falls from the core to the outside.
 #[derive(Debug, Clone, PartialEq, Default, serde::Serialize, serde::Deserialize)]
@@ -14,6 +15,9 @@ pub enum Taper {
     Hyperbolic { fraction: f64 },
     /// Tension steps: from `radius` (m) outward the tension is `tension` (N/m).
     Steps { steps: Vec<TensionStep> },
+    /// Tension programme: tension (N/m) given at radii (m), strictly increasing, interpolated
+    /// linearly in radius between points and held flat inside the first and outside the last.
+    Programme { points: Vec<TensionStep> },
 }
 
 #[derive(Debug, Clone, Copy, PartialEq, serde::Serialize, serde::Deserialize)]
@@ -60,6 +64,8 @@ impl TensionSchedule {
     /// * hyperbolic: T = T0·(1 − f·(1 − rc/r)); f = 1 is constant torque (T·r constant);
     /// * steps: T0 until the first step radius, then each step's tension from its radius outward
     ///   (see [`TensionSchedule::scheduled_tension_at`] for long step lists);
+    /// * programme: linear interpolation in radius between the table's points, the first
+    ///   point's tension inside it and the last point's outside it (T0 only for an empty table);
     /// * an upset band overrides the schedule for from_radius ≤ r < to_radius (last band wins).
     pub fn tension_at(&self, radius: f64, core_radius: f64, outer_radius: f64) -> f64 {
         let mut tension = self.scheduled_tension_at(radius, core_radius, outer_radius);
@@ -109,6 +115,7 @@ impl TensionSchedule {
                     after => steps[after - 1].tension,
                 }
             }
+            Taper::Programme { points } => programme_tension(points, radius, t0),
         };
         tension.max(0.0)
     }
@@ -139,6 +146,7 @@ impl TensionSchedule {
                     });
                 }
             }
+            Taper::Programme { .. } => {}
             Taper::Steps { steps } => {
                 let mut previous = f64::NEG_INFINITY;
                 for step in steps {
@@ -162,6 +170,28 @@ impl TensionSchedule {
                 }
             }
         }
+        if let Taper::Programme { points } = &self.taper {
+            if points.is_empty() {
+                return Err(OutOfRange {
+                    field: "winding.taper.points",
+                    value: 0.0,
+                    accepted: "at least one point",
+                });
+            }
+            let mut previous = f64::NEG_INFINITY;
+            for point in points {
+                tension("winding.taper.points.tension", point.tension)?;
+                // Interpolation and the bisection rely on strictly increasing radii.
+                if !(point.radius.is_finite() && point.radius > 0.0 && point.radius > previous) {
+                    return Err(OutOfRange {
+                        field: "winding.taper.points.diameter",
+                        value: 2.0 * point.radius,
+                        accepted: "finite diameters > 0, increasing from the core outward",
+                    });
+                }
+                previous = point.radius;
+            }
+        }
         for band in &self.upsets {
             tension("winding.upsets.tension", band.tension)?;
             if !(band.from_radius.is_finite()
@@ -177,6 +207,26 @@ impl TensionSchedule {
         }
         Ok(())
     }
+}
+
+/// Tension of a programme at `radius`: the two points around it found by bisection (points in
+/// increasing radius), linear between them; the end values held beyond the ends; `fallback`
+/// for an empty table.
+fn programme_tension(points: &[TensionStep], radius: f64, fallback: f64) -> f64 {
+    let (Some(first), Some(last)) = (points.first(), points.last()) else {
+        return fallback;
+    };
+    if radius <= first.radius {
+        return first.tension;
+    }
+    if radius >= last.radius {
+        return last.tension;
+    }
+    // First point with a radius above `radius`: 1 ≤ after ≤ len − 1 here.
+    let after = points.partition_point(|p| p.radius <= radius);
+    let (a, b) = (&points[after - 1], &points[after]);
+    let t = (radius - a.radius) / (b.radius - a.radius);
+    a.tension + t * (b.tension - a.tension)
 }
 
 #[cfg(test)]
@@ -269,6 +319,37 @@ mod tests {
         for step in &steps {
             assert_eq!(s.tension_at(step.radius, rc, big_r), step.tension);
         }
+    }
+
+    #[test]
+    fn programme_interpolates_and_holds() {
+        // Hand check: points (0.1 m, 300 N/m) and (0.3 m, 100 N/m); at 0.15 m a quarter of the
+        // way: 300 − 0.25·200 = 250 N/m; held at 300 inside 0.1 m and at 100 outside 0.3 m.
+        let point = |radius, tension| TensionStep { radius, tension };
+        let s = TensionSchedule {
+            start_tension: 999.0,
+            taper: Taper::Programme {
+                points: vec![point(0.1, 300.0), point(0.3, 100.0)],
+            },
+            upsets: Vec::new(),
+        };
+        assert!((s.tension_at(0.15, 0.05, 0.4) - 250.0).abs() < 1e-9);
+        assert_eq!(s.tension_at(0.05, 0.05, 0.4), 300.0);
+        assert_eq!(s.tension_at(0.3, 0.05, 0.4), 100.0);
+        assert_eq!(s.tension_at(0.4, 0.05, 0.4), 100.0);
+        assert!(s.validate().is_ok());
+        let mut bad = s.clone();
+        bad.taper = Taper::Programme {
+            points: vec![point(0.3, 300.0), point(0.1, 100.0)],
+        };
+        assert!(
+            bad.validate()
+                .unwrap_err()
+                .to_string()
+                .contains("increasing")
+        );
+        bad.taper = Taper::Programme { points: Vec::new() };
+        assert!(bad.validate().is_err());
     }
 
     #[test]

@@ -698,6 +698,19 @@ fn taper_text(taper: &Taper, units: UnitSystem) -> String {
                 .collect();
             format!("steps: {}", parts.join("; "))
         }
+        Taper::Programme { points } => {
+            let parts: Vec<String> = points
+                .iter()
+                .map(|p| {
+                    format!(
+                        "{} at diameter {}",
+                        format_quantity(p.tension, QuantityKind::ForcePerWidth, units),
+                        format_quantity(2.0 * p.radius, QuantityKind::Length, units)
+                    )
+                })
+                .collect();
+            format!("tension programme: {}", parts.join("; "))
+        }
     }
 }
 

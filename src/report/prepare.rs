@@ -207,6 +207,7 @@ fn describe_changes(
         Taper::Linear { fraction } => format!("linear taper {:.0} %", fraction * 100.0),
         Taper::Hyperbolic { fraction } => format!("hyperbolic taper {:.0} %", fraction * 100.0),
         Taper::Steps { steps } => format!("{} tension steps", steps.len()),
+        Taper::Programme { points } => format!("tension programme of {} points", points.len()),
     };
     let mut parts = Vec::new();
     for change in changes {

@@ -30,6 +30,7 @@ fn case() -> ResolvedCase {
             crush_pressure: 1e6,
             support: crate::model::CoreSupport::Free,
             crush_basis: crate::model::core_crush::CrushBasis::Given,
+            shaft_torque_rating: None,
         },
         roll: ResolvedRoll {
             outer_diameter: 0.3,
@@ -54,6 +55,7 @@ fn case() -> ResolvedCase {
             stop_time: None,
             emergency_stop_time: None,
             unwind_tension: None,
+            handling_shock_factor: None,
         },
         symptoms: vec![],
         answers: Default::default(),

@@ -148,6 +148,13 @@ pub fn operator_table(
             }));
             rows
         }
+        (Taper::Programme { points }, _) => points
+            .iter()
+            .map(|p| ScheduleRow {
+                diameter: 2.0 * p.radius,
+                tension: p.tension,
+            })
+            .collect(),
         _ => (0..=10)
             .map(|k| {
                 let r = rc + (big_r - rc) * k as f64 / 10.0;

@@ -1,12 +1,16 @@
 //! The inputs form: which case fields it shows, how each is edited (a quantity with units, a
-//! plain number, a choice, a preset ID, text), and reading/writing them on a [`Case`]. The rows,
-//! labels, examples, choice lists and accepted ranges come from the case field registry
-//! ([`crate::case::registry`]): a field marked for the form there appears here.
+//! plain number, a choice, a preset ID, text, a two-column table such as the nip programme), and
+//! reading/writing them on a [`Case`]. Everything comes from the case field registry
+//! ([`crate::case::registry`]): a field marked for the form there appears here, and it is read
+//! and written by its dotted path through the case file's own serde form, so a new field needs
+//! no code in the terminal UI.
 
 use std::sync::LazyLock;
 
-use crate::case::registry::{self, Field, Range};
-use crate::case::{Case, QuantityText, TaperInput};
+use serde_json::{Map, Value};
+
+use crate::case::Case;
+use crate::case::registry::{self, DefaultValue, Field, Range};
 use crate::units::{QuantityKind, parse_quantity};
 
 pub use crate::case::registry::PresetFamily;
@@ -24,6 +28,12 @@ pub enum FieldKind {
     Preset(PresetFamily),
     /// Free text.
     Text,
+    /// A list of rows of two quantities (a diameter and a value), typed as
+    /// `400 mm: 5 pli; 800 mm: 3 pli`; the columns are the registry fields of the list's items.
+    Table {
+        /// The item fields' paths (`winding.nip_programme[].diameter`, ...).
+        columns: [&'static str; 2],
+    },
 }
 
 /// One row of the inputs form.
@@ -40,10 +50,6 @@ pub struct FieldSpec {
     pub range: Option<Range>,
 }
 
-/// The taper kinds the form offers: `steps` needs a list of steps, which the form does not
-/// edit (write them in the case file).
-const FORM_TAPER_KINDS: &[&str] = &["none", "linear", "hyperbolic"];
-
 /// The form group of a registry field: its top-level section.
 fn group(field: &Field) -> &'static str {
     match field.path.split('.').next() {
@@ -52,6 +58,25 @@ fn group(field: &Field) -> &'static str {
         Some("roll") => "Roll",
         Some("winding") => "Winding",
         _ => "Case",
+    }
+}
+
+/// The two quantity columns of a list field's items, when it has exactly those.
+fn table_columns(field: &'static Field) -> Option<[&'static str; 2]> {
+    let items = format!("{}[]", field.path);
+    let columns: Vec<&'static Field> = registry::FIELDS
+        .iter()
+        .copied()
+        .filter(|f| f.section() == items)
+        .collect();
+    match columns.as_slice() {
+        [a, b]
+            if matches!(a.kind, registry::FieldKind::Quantity(_))
+                && matches!(b.kind, registry::FieldKind::Quantity(_)) =>
+        {
+            Some([a.path, b.path])
+        }
+        _ => None,
     }
 }
 
@@ -65,15 +90,13 @@ fn spec(field: &'static Field, label: &'static str) -> Option<FieldSpec> {
                 max: range.max,
             }
         }
-        registry::FieldKind::Choice(_) if field.path == registry::TAPER_KIND.path => {
-            FieldKind::Choice(FORM_TAPER_KINDS)
-        }
         registry::FieldKind::Choice(words) => FieldKind::Choice(words),
         registry::FieldKind::Preset(family) => FieldKind::Preset(family),
         registry::FieldKind::Text => FieldKind::Text,
-        registry::FieldKind::Section | registry::FieldKind::List | registry::FieldKind::Map => {
-            return None;
-        }
+        registry::FieldKind::List => FieldKind::Table {
+            columns: table_columns(field)?,
+        },
+        registry::FieldKind::Section | registry::FieldKind::Map => return None,
     };
     Some(FieldSpec {
         path: field.path,
@@ -85,6 +108,11 @@ fn spec(field: &'static Field, label: &'static str) -> Option<FieldSpec> {
     })
 }
 
+/// The registry field of a table column (its path came from the registry).
+fn column(path: &'static str) -> &'static Field {
+    registry::field(path).unwrap_or(&registry::NOTES)
+}
+
 /// Every field of the form, in display order (the registry's fields marked for the form).
 pub static FIELDS: LazyLock<Vec<FieldSpec>> = LazyLock::new(|| {
     registry::FIELDS
@@ -93,60 +121,47 @@ pub static FIELDS: LazyLock<Vec<FieldSpec>> = LazyLock::new(|| {
         .collect()
 });
 
-use FieldKind::{Choice, Number, Preset, Quantity, Text};
+use FieldKind::{Choice, Number, Preset, Quantity, Table, Text};
 
 /// Find a field by its path.
 pub fn field(path: &str) -> Option<&'static FieldSpec> {
     FIELDS.iter().find(|f| f.path == path)
 }
 
-fn quantity_text(q: &Option<QuantityText>) -> Option<String> {
-    q.as_ref().map(|q| match q {
-        QuantityText::Number(n) => format!("{n}"),
-        QuantityText::Text(t) => t.clone(),
-    })
+/// A scalar of the case file as typed (numbers in Rust's shortest form); `None` when blank.
+fn scalar_text(value: &Value) -> Option<String> {
+    match value {
+        Value::String(text) if text.is_empty() => None,
+        Value::String(text) => Some(text.clone()),
+        Value::Number(n) => n.as_f64().map(|v| format!("{v}")),
+        _ => None,
+    }
+}
+
+/// The node at a dotted path.
+fn lookup<'a>(root: &'a Value, path: &str) -> Option<&'a Value> {
+    path.split('.').try_fold(root, |node, key| node.get(key))
 }
 
 /// The text as entered in the case (None when the field is blank).
 pub fn get(case: &Case, path: &str) -> Option<String> {
-    match path {
-        "title" => (!case.title.is_empty()).then(|| case.title.clone()),
-        "web.preset" => case.web.preset.clone(),
-        "web.material" => case.web.material.clone(),
-        "web.thickness" => quantity_text(&case.web.thickness),
-        "web.width" => quantity_text(&case.web.width),
-        "web.tangential_modulus" => quantity_text(&case.web.tangential_modulus),
-        "web.friction" => case.web.friction.map(|v| format!("{v}")),
-        "web.kinetic_friction" => case.web.kinetic_friction.map(|v| format!("{v}")),
-        "web.density" => case.web.density.map(|v| format!("{v}")),
-        "web.roughness" => quantity_text(&case.web.roughness),
-        "web.strength" => quantity_text(&case.web.strength),
-        "core.preset" => case.core.preset.clone(),
-        "core.material" => case.core.material.clone(),
-        "core.inside_diameter" => quantity_text(&case.core.inside_diameter),
-        "core.outside_diameter" => quantity_text(&case.core.outside_diameter),
-        "core.modulus" => quantity_text(&case.core.modulus),
-        "core.crush_pressure" => quantity_text(&case.core.crush_pressure),
-        "core.radial_modulus" => quantity_text(&case.core.radial_modulus),
-        "core.support" => case.core.support.clone(),
-        "core.flat_crush" => quantity_text(&case.core.flat_crush),
-        "roll.diameter" => quantity_text(&case.roll.diameter),
-        "roll.length" => quantity_text(&case.roll.length),
-        "winding.method" => case.winding.method.clone(),
-        "winding.tension" => quantity_text(&case.winding.tension),
-        "winding.taper.kind" => case.winding.taper.as_ref().map(|t| t.kind.clone()),
-        "winding.taper.amount" => case
-            .winding
-            .taper
-            .as_ref()
-            .and_then(|t| quantity_text(&t.amount)),
-        "winding.nip_load" => quantity_text(&case.winding.nip_load),
-        "winding.centre_torque" => quantity_text(&case.winding.centre_torque),
-        "winding.speed" => quantity_text(&case.winding.speed),
-        "winding.temperature" => quantity_text(&case.winding.temperature),
-        "winding.acceleration_time" => case.winding.acceleration_time.map(|v| format!("{v}")),
-        "winding.recipe_tension" => quantity_text(&case.winding.recipe_tension),
-        _ => None,
+    let root = serde_json::to_value(case).ok()?;
+    let node = lookup(&root, path)?;
+    match (field(path).map(|f| f.kind), node) {
+        (Some(Table { columns }), Value::Array(rows)) if !rows.is_empty() => Some(
+            rows.iter()
+                .map(|row| {
+                    let cell = |c: &'static str| row.get(column(c).key()).and_then(scalar_text);
+                    format!(
+                        "{}: {}",
+                        cell(columns[0]).unwrap_or_default(),
+                        cell(columns[1]).unwrap_or_default()
+                    )
+                })
+                .collect::<Vec<_>>()
+                .join("; "),
+        ),
+        _ => scalar_text(node),
     }
 }
 
@@ -175,6 +190,49 @@ pub enum FieldError {
         text: String,
         options: &'static [&'static str],
     },
+    #[error(
+        "{path}: \"{text}\" is not accepted; rows of `{first}: {second}` separated by `;`, e.g. {example}"
+    )]
+    Table {
+        path: &'static str,
+        text: String,
+        first: &'static str,
+        second: &'static str,
+        example: &'static str,
+    },
+    #[error("{path}: the case cannot hold this value ({reason})")]
+    Case { path: &'static str, reason: String },
+}
+
+/// Check one quantity against its kind and range.
+fn check_quantity(
+    path: &'static str,
+    text: &str,
+    kind: QuantityKind,
+    range: Option<Range>,
+) -> Result<(), FieldError> {
+    let value = parse_quantity(path, text, kind)?;
+    match range {
+        Some(range) if !range.contains(value) => Err(FieldError::OutOfRange {
+            path,
+            shown: range.show(value),
+            accepted: range.describe(),
+        }),
+        _ => Ok(()),
+    }
+}
+
+/// The rows of a typed table: `a: b; c: d` into pairs of trimmed, non-empty cells.
+fn table_rows(text: &str) -> Option<Vec<(&str, &str)>> {
+    text.split(';')
+        .map(str::trim)
+        .filter(|row| !row.is_empty())
+        .map(|row| {
+            let (a, b) = row.split_once(':')?;
+            let (a, b) = (a.trim(), b.trim());
+            (!a.is_empty() && !b.is_empty()).then_some((a, b))
+        })
+        .collect()
 }
 
 /// Check `text` for the field.
@@ -184,17 +242,7 @@ pub fn check(spec: &FieldSpec, text: &str) -> Result<(), FieldError> {
         return Ok(());
     }
     match spec.kind {
-        Quantity(kind) => {
-            let value = parse_quantity(spec.path, text, kind)?;
-            match spec.range {
-                Some(range) if !range.contains(value) => Err(FieldError::OutOfRange {
-                    path: spec.path,
-                    shown: range.show(value),
-                    accepted: range.describe(),
-                }),
-                _ => Ok(()),
-            }
-        }
+        Quantity(kind) => check_quantity(spec.path, text, kind, spec.range),
         Number { min, max } => match (text.parse::<f64>(), spec.range) {
             (Ok(v), Some(range)) if range.contains(v) => Ok(()),
             (Ok(v), None) if v.is_finite() && (min..=max).contains(&v) => Ok(()),
@@ -217,7 +265,133 @@ pub fn check(spec: &FieldSpec, text: &str) -> Result<(), FieldError> {
                 })
             }
         }
+        Table { columns } => {
+            let rows = table_rows(text).ok_or_else(|| FieldError::Table {
+                path: spec.path,
+                text: text.to_string(),
+                first: column(columns[0]).key(),
+                second: column(columns[1]).key(),
+                example: spec.example,
+            })?;
+            for (a, b) in rows {
+                for (path, cell) in columns.into_iter().zip([a, b]) {
+                    let f = column(path);
+                    if let registry::FieldKind::Quantity(kind) = f.kind {
+                        check_quantity(f.path, cell, kind, f.range)?;
+                    }
+                }
+            }
+            Ok(())
+        }
         Preset(_) | Text => Ok(()),
+    }
+}
+
+/// The case-file value of checked text.
+fn value_of(spec: &FieldSpec, text: &str) -> Value {
+    match spec.kind {
+        Number { .. } => text
+            .parse::<f64>()
+            .ok()
+            .and_then(serde_json::Number::from_f64)
+            .map_or(Value::Null, Value::Number),
+        Table { columns } => Value::Array(
+            table_rows(text)
+                .unwrap_or_default()
+                .into_iter()
+                .map(|(a, b)| {
+                    let mut row = Map::new();
+                    for (path, cell) in columns.into_iter().zip([a, b]) {
+                        row.insert(
+                            column(path).key().to_string(),
+                            Value::String(cell.to_string()),
+                        );
+                    }
+                    Value::Object(row)
+                })
+                .collect(),
+        ),
+        _ => Value::String(text.to_string()),
+    }
+}
+
+/// A section the form creates gets its required choice (e.g. the taper's kind) from the
+/// registry's example for it, so `amount` alone makes a whole taper.
+fn fill_required(section: &str, object: &mut Map<String, Value>) {
+    for f in registry::section(section) {
+        if matches!(f.default, DefaultValue::Required)
+            && matches!(f.kind, registry::FieldKind::Choice(_))
+            && !object.contains_key(f.key())
+        {
+            object.insert(f.key().to_string(), Value::String(f.example.to_string()));
+        }
+    }
+}
+
+/// Put `value` at `path` (creating sections), or take the key away (`None`). Clearing a
+/// required field of a section removes the section (a taper without kind is no taper);
+/// clearing required text at the top level leaves it empty; sections left empty go.
+fn write(root: &mut Value, path: &str, value: Option<Value>) {
+    let keys: Vec<&str> = path.split('.').collect();
+    let Some((last, parents)) = keys.split_last() else {
+        return;
+    };
+    let required =
+        registry::field(path).is_some_and(|f| matches!(f.default, DefaultValue::Required));
+    match value {
+        Some(value) => {
+            let mut node = root;
+            let mut section = String::new();
+            for key in parents {
+                section = if section.is_empty() {
+                    (*key).to_string()
+                } else {
+                    format!("{section}.{key}")
+                };
+                let Some(object) = node.as_object_mut() else {
+                    return;
+                };
+                let child = object
+                    .entry((*key).to_string())
+                    .or_insert_with(|| Value::Object(Map::new()));
+                if let Some(created) = child.as_object_mut()
+                    && created.is_empty()
+                {
+                    fill_required(&section, created);
+                }
+                node = child;
+            }
+            if let Some(object) = node.as_object_mut() {
+                object.insert((*last).to_string(), value);
+            }
+        }
+        None if required && parents.is_empty() => {
+            if let Some(object) = root.as_object_mut() {
+                object.insert((*last).to_string(), Value::String(String::new()));
+            }
+        }
+        None if required => remove(root, &keys[..keys.len() - 1]),
+        None => remove(root, &keys),
+    }
+}
+
+/// Remove the key at `keys`, then every section on the way that it left empty.
+fn remove(root: &mut Value, keys: &[&str]) {
+    let Some((last, parents)) = keys.split_last() else {
+        return;
+    };
+    let mut node = &mut *root;
+    for key in parents {
+        match node.get_mut(*key) {
+            Some(child) => node = child,
+            None => return,
+        }
+    }
+    if let Some(object) = node.as_object_mut() {
+        object.remove(*last);
+        if object.is_empty() && !parents.is_empty() {
+            remove(root, parents);
+        }
     }
 }
 
@@ -227,68 +401,16 @@ pub fn set(case: &mut Case, spec: &FieldSpec, text: Option<&str>) -> Result<(), 
     if let Some(t) = text {
         check(spec, t)?;
     }
-    let owned = text.map(str::to_string);
-    let quantity = || owned.clone().map(QuantityText::Text);
-    let number = || owned.as_deref().and_then(|t| t.parse::<f64>().ok());
-    match spec.path {
-        "title" => case.title = owned.clone().unwrap_or_default(),
-        "web.preset" => case.web.preset = owned.clone(),
-        "web.material" => case.web.material = owned.clone(),
-        "web.thickness" => case.web.thickness = quantity(),
-        "web.width" => case.web.width = quantity(),
-        "web.tangential_modulus" => case.web.tangential_modulus = quantity(),
-        "web.friction" => case.web.friction = number(),
-        "web.kinetic_friction" => case.web.kinetic_friction = number(),
-        "web.density" => case.web.density = number(),
-        "web.roughness" => case.web.roughness = quantity(),
-        "web.strength" => case.web.strength = quantity(),
-        "core.preset" => case.core.preset = owned.clone(),
-        "core.material" => case.core.material = owned.clone(),
-        "core.inside_diameter" => case.core.inside_diameter = quantity(),
-        "core.outside_diameter" => case.core.outside_diameter = quantity(),
-        "core.modulus" => case.core.modulus = quantity(),
-        "core.crush_pressure" => case.core.crush_pressure = quantity(),
-        "core.radial_modulus" => case.core.radial_modulus = quantity(),
-        "core.support" => case.core.support = owned.clone(),
-        "core.flat_crush" => case.core.flat_crush = quantity(),
-        "roll.diameter" => case.roll.diameter = quantity(),
-        "roll.length" => case.roll.length = quantity(),
-        "winding.method" => case.winding.method = owned.clone(),
-        "winding.tension" => case.winding.tension = quantity(),
-        "winding.taper.kind" => match owned.clone() {
-            Some(kind) => {
-                let taper = case.winding.taper.get_or_insert_with(|| TaperInput {
-                    kind: kind.clone(),
-                    amount: None,
-                    steps: Vec::new(),
-                });
-                taper.kind = kind;
-            }
-            None => case.winding.taper = None,
-        },
-        "winding.taper.amount" => match quantity() {
-            Some(amount) => {
-                let taper = case.winding.taper.get_or_insert_with(|| TaperInput {
-                    kind: "linear".into(),
-                    amount: None,
-                    steps: Vec::new(),
-                });
-                taper.amount = Some(amount);
-            }
-            None => {
-                if let Some(taper) = case.winding.taper.as_mut() {
-                    taper.amount = None;
-                }
-            }
-        },
-        "winding.nip_load" => case.winding.nip_load = quantity(),
-        "winding.centre_torque" => case.winding.centre_torque = quantity(),
-        "winding.speed" => case.winding.speed = quantity(),
-        "winding.temperature" => case.winding.temperature = quantity(),
-        "winding.acceleration_time" => case.winding.acceleration_time = number(),
-        "winding.recipe_tension" => case.winding.recipe_tension = quantity(),
-        other => return Err(FieldError::NotInForm(other.to_string())),
+    if field(spec.path).is_none() {
+        return Err(FieldError::NotInForm(spec.path.to_string()));
     }
+    let failed = |reason: String| FieldError::Case {
+        path: spec.path,
+        reason,
+    };
+    let mut root = serde_json::to_value(&*case).map_err(|e| failed(e.to_string()))?;
+    write(&mut root, spec.path, text.map(|t| value_of(spec, t)));
+    *case = serde_json::from_value(root).map_err(|e| failed(e.to_string()))?;
     Ok(())
 }
 
@@ -338,6 +460,60 @@ mod tests {
         let spec = field("winding.taper.kind").unwrap();
         set(&mut case, spec, Some("hyperbolic")).unwrap();
         assert_eq!(case.winding.taper.as_ref().unwrap().kind, "hyperbolic");
+        // Clearing the kind removes the taper; an amount alone makes one of the example kind.
+        set(&mut case, spec, None).unwrap();
+        assert_eq!(case.winding.taper, None);
+        set(
+            &mut case,
+            field("winding.taper.amount").unwrap(),
+            Some("20 %"),
+        )
+        .unwrap();
+        let taper = case.winding.taper.as_ref().unwrap();
+        assert_eq!(taper.kind, registry::TAPER_KIND.example);
+        assert!(taper.amount.is_some());
+    }
+
+    #[test]
+    fn tables_round_trip_and_are_checked_per_cell() {
+        let mut case = Case::default();
+        let spec = field("winding.nip_programme").unwrap();
+        set(&mut case, spec, Some("400 mm: 5 pli; 800 mm : 3 pli")).unwrap();
+        assert_eq!(case.winding.nip_programme.len(), 2);
+        assert_eq!(
+            get(&case, spec.path).as_deref(),
+            Some("400 mm: 5 pli; 800 mm: 3 pli")
+        );
+        // A load in a length unit, and a row without its second cell, are refused in place.
+        assert!(set(&mut case, spec, Some("400 mm: 5 mm")).is_err());
+        assert!(set(&mut case, spec, Some("400 mm")).is_err());
+        assert_eq!(case.winding.nip_programme.len(), 2);
+        set(&mut case, spec, None).unwrap();
+        assert!(case.winding.nip_programme.is_empty());
+        assert_eq!(get(&case, spec.path), None);
+    }
+
+    #[test]
+    fn drums_rows_write_the_drums_section_and_clearing_removes_it() {
+        let mut case = Case::default();
+        let spec = field("winding.drums.diameter").unwrap();
+        set(&mut case, spec, Some("500 mm")).unwrap();
+        assert!(case.winding.drums.is_some());
+        assert_eq!(get(&case, spec.path).as_deref(), Some("500 mm"));
+        set(&mut case, spec, None).unwrap();
+        // An empty drums section would still say "two drums"; the form takes it away.
+        assert_eq!(case.winding.drums, None);
+    }
+
+    #[test]
+    fn clearing_the_title_leaves_it_empty() {
+        let mut case = Case {
+            title: "Reel 4".into(),
+            ..Case::default()
+        };
+        set(&mut case, field("title").unwrap(), None).unwrap();
+        assert_eq!(case.title, "");
+        assert_eq!(get(&case, "title"), None);
     }
 
     #[test]

@@ -418,6 +418,35 @@ const CORPUS: &[(&str, Expect, &[&str])] = &[
         Expect::WrongKind,
         &["measurements.weight", "weight (mass)", "kg"],
     ),
+    // Tension programme, handling shock factor, shaft rating, basis weight (issues 15 and 16).
+    (
+        "programme_beside_tension.yaml",
+        Expect::Invalid,
+        &["winding.tension", "tension programme"],
+    ),
+    (
+        "programme_points_backwards.yaml",
+        Expect::OutOfRange,
+        &[
+            "winding.taper.points[1].diameter",
+            "larger than the previous point",
+        ],
+    ),
+    (
+        "shock_factor_below_one.yaml",
+        Expect::OutOfRange,
+        &["winding.handling_shock_factor = 0.5", "at least 1"],
+    ),
+    (
+        "shaft_torque_rating_zero.yaml",
+        Expect::OutOfRange,
+        &["core.shaft_torque_rating = 0 N·m", "more than 0 N·m"],
+    ),
+    (
+        "basis_weight_too_heavy_for_caliper.yaml",
+        Expect::OutOfRange,
+        &["web.basis_weight = 80 g/m²", "density"],
+    ),
 ];
 
 #[test]

@@ -521,6 +521,10 @@ fn every_schema_key_is_in_the_field_registry_and_back() {
             "title: t\nwinding: {nip_programme: [{zz_unknown: 1}]}\n",
         ),
         (
+            "winding.taper.points[]",
+            "title: t\nwinding: {taper: {kind: programme, points: [{zz_unknown: 1}]}}\n",
+        ),
+        (
             "winding.drums",
             "title: t\nwinding: {drums: {zz_unknown: 1}}\n",
         ),
@@ -696,6 +700,52 @@ fn event_inputs_reach_the_mechanics() {
         .unwrap_err()
         .to_string();
     assert!(error.contains("winding.emergency_stop_time"), "{error}");
+
+    // The handling shock factor and the chuck rating reach the mechanics; the rating per
+    // width is the whole-width rating over the 1.6 m web (1600 N·m / 1.6 m = 1000 N·m/m).
+    let with = text
+        .replace("handling_shock_factor: 2", "handling_shock_factor: 3")
+        .replace("core:\n", "core:\n  shaft_torque_rating: 1600 N·m\n");
+    let resolved = Case::from_yaml_str(&with, "shock.yaml")
+        .unwrap()
+        .resolve()
+        .unwrap();
+    let inputs = MechanicsInputs::from_case(&resolved);
+    assert_eq!(inputs.events.shock_factor, 3.0);
+    assert!((inputs.events.shaft_torque_rating.unwrap() - 1000.0).abs() < 1e-9);
+    // Left out, the shock factor is the stated default, listed as assumed with its source.
+    let without = text.replace("handling_shock_factor: 2", "");
+    let resolved = Case::from_yaml_str(&without, "default.yaml")
+        .unwrap()
+        .resolve()
+        .unwrap();
+    assert_eq!(
+        MechanicsInputs::from_case(&resolved).events.shock_factor,
+        2.0
+    );
+    assert!(
+        resolved
+            .assumed
+            .iter()
+            .any(|a| a.field == "winding.handling_shock_factor"
+                && a.is_default()
+                && a.source.contains("suddenly applied"))
+    );
+    // The density the mechanics read is the case's: basis weight over caliper when given,
+    // 45 g/m² / 76 µm = 592.105 kg/m³ (hand computation), listed as computed.
+    let grammage = text.replace("density: 590", "basis_weight: 45 g/m2");
+    let resolved = Case::from_yaml_str(&grammage, "grammage.yaml")
+        .unwrap()
+        .resolve()
+        .unwrap();
+    let density = MechanicsInputs::from_case(&resolved).density;
+    assert!((density - 592.105).abs() < 1e-3, "{density}");
+    assert!(
+        resolved
+            .assumed
+            .iter()
+            .any(|a| a.field == "web.density" && !a.is_default())
+    );
 }
 
 // ---- Hostile or careless input (issue 14) ------------------------------------------------

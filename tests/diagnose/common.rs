@@ -61,6 +61,7 @@ pub fn newsprint(title: &str) -> ResolvedCase {
             stop_time: None,
             emergency_stop_time: None,
             unwind_tension: None,
+            handling_shock_factor: None,
         },
         symptoms: vec![],
         answers: BTreeMap::new(),
@@ -115,6 +116,7 @@ pub fn pet_film(title: &str) -> ResolvedCase {
             stop_time: None,
             emergency_stop_time: None,
             unwind_tension: None,
+            handling_shock_factor: None,
         },
         symptoms: vec![],
         answers: BTreeMap::new(),
@@ -139,6 +141,7 @@ pub fn paper_core(inside: f64, outside: f64, modulus: f64, crush: f64) -> Resolv
         crush_pressure: crush,
         support: rolltriage::model::CoreSupport::Free,
         crush_basis: rolltriage::model::core_crush::CrushBasis::Given,
+        shaft_torque_rating: None,
     }
 }
 

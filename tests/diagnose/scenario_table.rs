@@ -84,6 +84,8 @@ struct Settings {
     core_crush: Option<f64>,
     /// The usual (recipe) tension the case states, N/m.
     recipe_tension: Option<f64>,
+    /// Chuck or shaft torque rating, N·m for the whole width.
+    shaft_torque_rating: Option<f64>,
 }
 
 fn table() -> Table {
@@ -165,6 +167,9 @@ fn build(s: &Scenario) -> ResolvedCase {
         });
         let crush = set.core_crush.unwrap_or(case.core.crush_pressure);
         case.core = paper_core(inside, outside, modulus, crush);
+    }
+    if let Some(rating) = set.shaft_torque_rating {
+        case.core.shaft_torque_rating = Some(rating);
     }
     if let Some([from, to, tension]) = s.upset {
         case = upset(case, from, to, tension);

@@ -267,6 +267,7 @@ fn mechanism_margins_match_the_scipy_reference() {
             normal_stop_time: f(roll, "normal_stop_time"),
             emergency_stop_time: f(roll, "emergency_stop_time"),
             unwind_tension: None,
+            shaft_torque_rating: None,
         },
     };
     let close = |a: f64, b: f64, what: &str| {

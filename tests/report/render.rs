@@ -114,6 +114,7 @@ fn fixture(with_remedy: bool) -> ReportInput {
             crush_pressure: 4e6,
             support: rolltriage::model::CoreSupport::Free,
             crush_basis: rolltriage::model::core_crush::CrushBasis::Given,
+            shaft_torque_rating: None,
         },
         roll: ResolvedRoll {
             outer_diameter: 2.0 * OUTER_RADIUS,
@@ -138,6 +139,7 @@ fn fixture(with_remedy: bool) -> ReportInput {
             stop_time: None,
             emergency_stop_time: None,
             unwind_tension: None,
+            handling_shock_factor: None,
         },
         symptoms: case.symptoms.clone(),
         answers,

@@ -46,6 +46,7 @@ fn film_roll(crush_pressure: f64, start_tension: f64) -> ResolvedCase {
             crush_pressure,
             support: rolltriage::model::CoreSupport::Free,
             crush_basis: rolltriage::model::core_crush::CrushBasis::Given,
+            shaft_torque_rating: None,
         },
         roll: ResolvedRoll {
             outer_diameter: 0.17,
@@ -70,6 +71,7 @@ fn film_roll(crush_pressure: f64, start_tension: f64) -> ResolvedCase {
             stop_time: None,
             emergency_stop_time: None,
             unwind_tension: None,
+            handling_shock_factor: None,
         },
         symptoms: vec![],
         answers: Default::default(),

@@ -5,3 +5,4 @@
 
 mod cli;
 mod design;
+mod programme;

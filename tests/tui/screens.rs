@@ -275,3 +275,35 @@ fn results_resting_on_assumed_inputs_say_so() {
         assert!(screen.contains("Nip pinch point"), "{screen}");
     }
 }
+
+/// The winder rows of the form (issue 16): the nip programme typed as a table, the drums of a
+/// two-drum winder and the centre torque, all from the field registry.
+#[test]
+fn inputs_screen_with_the_winder_rows() {
+    let mut app = app();
+    app.handle_key(Key::F(3));
+    let go_to = |app: &mut App, path: &str| {
+        let index = rolltriage::tui::fields::FIELDS
+            .iter()
+            .position(|f| f.path == path)
+            .unwrap();
+        app.handle_key(Key::Home);
+        for _ in 0..index {
+            app.handle_key(Key::Down);
+        }
+    };
+    go_to(&mut app, "winding.method");
+    type_text(&mut app, "two_drum");
+    app.handle_key(Key::Enter);
+    go_to(&mut app, "winding.nip_programme");
+    type_text(&mut app, "400 mm: 5 pli; 800 mm: 3 pli");
+    app.handle_key(Key::Enter);
+    go_to(&mut app, "winding.drums.diameter");
+    type_text(&mut app, "500 mm");
+    app.handle_key(Key::Enter);
+    assert_eq!(app.session.case.winding.nip_programme.len(), 2);
+    assert!(app.session.case.winding.drums.is_some());
+    // A fixed resolved case so the snapshot does not follow edits to the preset table.
+    app.session.resolved = Ok(resolved_with_assumed());
+    snapshot_all_sizes("inputs_winder", &app);
+}

@@ -189,10 +189,16 @@ fn presets_and_choices_cycle_with_arrows() {
     app.handle_key(Key::Right);
     assert_eq!(app.session.case.web.preset.as_deref(), Some("pet_film"));
     go_to_field(&mut app, "winding.taper.kind");
+    // ← from a blank choice takes the last kind; the form edits the programme's points too.
     app.handle_key(Key::Left);
     assert_eq!(
         app.session.case.winding.taper.as_ref().unwrap().kind,
-        "hyperbolic"
+        "programme"
+    );
+    app.handle_key(Key::Left);
+    assert_eq!(
+        app.session.case.winding.taper.as_ref().unwrap().kind,
+        "steps"
     );
 }
 

@@ -105,6 +105,7 @@ pub fn resolved(title: &str) -> ResolvedCase {
             crush_pressure: 1.5e6,
             support: rolltriage::model::CoreSupport::Free,
             crush_basis: rolltriage::model::core_crush::CrushBasis::Given,
+            shaft_torque_rating: None,
         },
         roll: ResolvedRoll {
             outer_diameter: 1.0,
@@ -129,6 +130,7 @@ pub fn resolved(title: &str) -> ResolvedCase {
             stop_time: None,
             emergency_stop_time: None,
             unwind_tension: None,
+            handling_shock_factor: None,
         },
         symptoms: vec![],
         answers: BTreeMap::new(),

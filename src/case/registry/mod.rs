@@ -10,9 +10,11 @@ use crate::units::{QuantityKind, UnitSystem, format_quantity};
 
 mod measured;
 mod table;
+mod winder;
 
 pub use measured::*;
 pub use table::*;
+pub use winder::*;
 
 /// Accepted range of a number: `min <= value <= max` (`min < value` when `min_exclusive`,
 /// `value < max` when `max_exclusive`), and always finite.
@@ -328,6 +330,7 @@ pub const DOC_SECTIONS: &[&str] = &[
     "winding",
     "winding.taper",
     "winding.taper.steps[]",
+    "winding.taper.points[]",
     "winding.upsets[]",
     "winding.nip_programme[]",
     "winding.drums",

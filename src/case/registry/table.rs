@@ -16,7 +16,7 @@ pub const CORE_SUPPORTS: &[&str] = &["free", "shaft"];
 
 /// A field with no range, no form row and nothing else required: the common case for
 /// sections, text and lists.
-const fn plain(path: &'static str, label: &'static str, kind: FieldKind) -> Field {
+pub(super) const fn plain(path: &'static str, label: &'static str, kind: FieldKind) -> Field {
     Field {
         path,
         label,
@@ -194,9 +194,23 @@ pub const DENSITY: Field = Field {
     form: Some("Density (kg/m³)"),
     range: Some(plain_from(10.0, 25_000.0)),
     default: FromWeb(|p| p.density),
-    help: "Density of the web in kg/m³ (basis weight over caliper): roll weight on winder drums, centrifugal unloading.",
+    accepted_also: "when left out: `basis_weight` over `thickness` if the basis weight is given, else the preset's",
+    help: "Density of the web in kg/m³ (basis weight over caliper): roll weight on winder drums, centrifugal unloading, the handling and inertia loads of the telescoping and slip checks.",
     example: "600",
     ..plain("web.density", "Web density (kg/m³)", Number)
+};
+pub const WEB_BASIS_WEIGHT: Field = Field {
+    form: Some("Basis weight"),
+    range: Some(above(0.0, 5.0, Q::BasisWeight)),
+    accepted_also: "gives a density (over the caliper) in the density's range",
+    default: Rule("not used (the density comes from `density` or the preset)"),
+    help: "Basis weight (grammage) of the web; over the caliper it gives the density when `density` is not given.",
+    example: "45 g/m2",
+    ..plain(
+        "web.basis_weight",
+        "Web basis weight",
+        Quantity(Q::BasisWeight),
+    )
 };
 pub const ROUGHNESS: Field = Field {
     form: Some("Roughness (RMS)"),
@@ -390,7 +404,7 @@ pub const METHOD: Field = Field {
 pub const TENSION: Field = Field {
     form: Some("Web tension"),
     range: Some(above(0.0, 1e6, Q::ForcePerWidth)),
-    accepted_also: "below the web strength",
+    accepted_also: "below the web strength; refused beside a tension programme (taper kind `programme`)",
     default: FromWeb(|p| p.typical_tension),
     help: "Web tension at the start of the roll (force per width).",
     example: "3 pli",
@@ -417,13 +431,15 @@ pub const TAPER_AMOUNT: Field = Field {
     // At 100 % a linear taper winds the last wrap at no tension, where the air film is
     // infinite.
     range: Some(from(0.0, 1.0, Q::Percent).below_max()),
-    accepted_also: "required for linear and hyperbolic, refused for none and steps",
+    accepted_also: "required for linear and hyperbolic, refused for none, steps and programme",
     default: Rule("—"),
     help: "Share of the starting tension taken off by the outside (`\"25 %\"` or `0.25`).",
     example: "25 %",
     ..plain("winding.taper.amount", "Taper amount", Quantity(Q::Percent))
 };
 pub const TAPER_STEPS: Field = Field {
+    example: "300 mm: 2.5 pli; 450 mm: 2 pli",
+    form: Some("Tension steps"),
     accepted_also: "for `steps` only; diameters within the roll and increasing from the core outward",
     help: "Tension steps: from each diameter on, the web runs at the step's tension.",
     ..plain("winding.taper.steps", "Tension steps", List)
@@ -458,96 +474,6 @@ pub const NIP: Field = Field {
     help: "Rider or lay-on roll load per width.",
     example: "10 pli",
     ..plain("winding.nip_load", "Nip load", Quantity(Q::ForcePerWidth))
-};
-pub const NIP_PROGRAMME: Field = Field {
-    accepted_also: "diameters within the roll, increasing; replaces `nip_load`",
-    help: "Nip (rider) load as a table against diameter, interpolated linearly and held beyond its ends.",
-    ..plain("winding.nip_programme", "Nip programme", List)
-};
-pub const NIP_POINT_DIAMETER: Field = Field {
-    accepted_also: "within the roll",
-    default: Required,
-    help: "Roll diameter of this point of the programme.",
-    example: "400 mm",
-    ..plain(
-        "winding.nip_programme[].diameter",
-        "Nip programme diameter",
-        Quantity(Q::Length),
-    )
-};
-pub const NIP_POINT_LOAD: Field = Field {
-    range: Some(from(0.0, 1e5, Q::ForcePerWidth)),
-    default: Required,
-    help: "Nip load at this diameter.",
-    example: "5 pli",
-    ..plain(
-        "winding.nip_programme[].nip_load",
-        "Nip programme load",
-        Quantity(Q::ForcePerWidth),
-    )
-};
-pub const NIP_PLATEAU: Field = Field {
-    range: Some(above(0.0, 1e5, Q::ForcePerWidth)),
-    default: Fixed(crate::presets::DEFAULT_NIP_PLATEAU),
-    help: "Nip load above which the nip-induced tension no longer grows (measurements level off).",
-    example: "2 kN/m",
-    ..plain(
-        "winding.nip_plateau",
-        "Nip load where nip-induced tension levels off",
-        Quantity(Q::ForcePerWidth),
-    )
-};
-pub const CENTRE_TORQUE: Field = Field {
-    form: Some("Centre torque"),
-    range: Some(from(-1e6, 1e6, Q::Torque)),
-    accepted_also: "centre_surface winders only",
-    default: Rule("none (no centre drive torque)"),
-    help: "Centre drive torque of a centre-surface winder for the whole width; adds torque/radius to the wound-in tension.",
-    example: "150 N·m",
-    ..plain(
-        "winding.centre_torque",
-        "Centre torque",
-        Quantity(Q::Torque),
-    )
-};
-pub const DRUMS: Field = Field {
-    accepted_also: "two_drum and centre_surface winders only",
-    help: "Drum geometry and torque differential of a two-drum winder.",
-    ..plain("winding.drums", "Winder drums", Section)
-};
-pub const DRUM_DIAMETER: Field = Field {
-    range: Some(above(0.0, 5.0, Q::Length)),
-    default: Fixed(crate::presets::DEFAULT_DRUM_DIAMETER),
-    help: "Diameter of each winder drum.",
-    example: "500 mm",
-    ..plain(
-        "winding.drums.diameter",
-        "Drum diameter",
-        Quantity(Q::Length),
-    )
-};
-pub const DRUM_DISTANCE: Field = Field {
-    range: Some(above(0.0, 10.0, Q::Length)),
-    accepted_also: "more than one drum diameter, less than the core diameter plus one drum diameter",
-    default: Rule("drum diameter + 20 mm (common practice: a narrow gap between the drums)"),
-    help: "Distance between the two drum centres.",
-    example: "520 mm",
-    ..plain(
-        "winding.drums.centre_distance",
-        "Drum centre distance",
-        Quantity(Q::Length),
-    )
-};
-pub const DRUM_DIFFERENTIAL: Field = Field {
-    range: Some(from(-1e6, 1e6, Q::Torque)),
-    default: Rule("0 (both drums at the same torque)"),
-    help: "Front drum torque minus the torque of the drum the web wraps, whole width; positive tightens the roll.",
-    example: "40 N·m",
-    ..plain(
-        "winding.drums.torque_differential",
-        "Drum torque differential",
-        Quantity(Q::Torque),
-    )
 };
 pub const SPEED: Field = Field {
     form: Some("Line speed"),
@@ -629,31 +555,6 @@ pub const RECIPE_TENSION: Field = Field {
         Quantity(Q::ForcePerWidth),
     )
 };
-pub const STOP_TIME: Field = Field {
-    range: Some(plain_above(0.0, 3600.0)),
-    default: Rule("the run-up time, else 20 s (assumed; docs/theory.md §5)"),
-    help: "Time of a normal stop from line speed in seconds (slip check of the layers).",
-    example: "20",
-    ..plain("winding.stop_time", "Normal stop time", Number)
-};
-pub const EMERGENCY_STOP_TIME: Field = Field {
-    range: Some(plain_above(0.0, 3600.0)),
-    default: Rule("4 s, web tension lost (assumed; docs/theory.md §5)"),
-    help: "Time of an emergency stop from line speed in seconds (slip check of the layers).",
-    example: "4",
-    ..plain("winding.emergency_stop_time", "Emergency stop time", Number)
-};
-pub const UNWIND_TENSION: Field = Field {
-    range: Some(from(0.0, 1e5, Q::ForcePerWidth)),
-    default: Rule("the tension the outside was wound at (assumed; docs/theory.md §5)"),
-    help: "Web tension at the customer's unwind, which the brake holds through the layers.",
-    example: "1 pli",
-    ..plain(
-        "winding.unwind_tension",
-        "Unwind tension",
-        Quantity(Q::ForcePerWidth),
-    )
-};
 pub const SYMPTOMS: Field = Field {
     help: "Observed defects.",
     ..plain("symptoms", "Symptoms", List)
@@ -714,6 +615,7 @@ pub const FIELDS: &[&Field] = &[
     &FRICTION,
     &KINETIC_FRICTION,
     &DENSITY,
+    &WEB_BASIS_WEIGHT,
     &ROUGHNESS,
     &STRENGTH,
     &CORE,
@@ -729,6 +631,7 @@ pub const FIELDS: &[&Field] = &[
     &CORE_SUPPORT,
     &FLAT_CRUSH,
     &CORE_STRENGTH,
+    &super::SHAFT_TORQUE_RATING,
     &ROLL,
     &ROLL_DIAMETER,
     &ROLL_LENGTH,
@@ -741,16 +644,19 @@ pub const FIELDS: &[&Field] = &[
     &TAPER_STEPS,
     &STEP_FROM,
     &STEP_TENSION,
+    &super::TAPER_POINTS,
+    &super::POINT_DIAMETER,
+    &super::POINT_TENSION,
     &NIP,
-    &NIP_PROGRAMME,
-    &NIP_POINT_DIAMETER,
-    &NIP_POINT_LOAD,
-    &NIP_PLATEAU,
-    &CENTRE_TORQUE,
-    &DRUMS,
-    &DRUM_DIAMETER,
-    &DRUM_DISTANCE,
-    &DRUM_DIFFERENTIAL,
+    &super::NIP_PROGRAMME,
+    &super::NIP_POINT_DIAMETER,
+    &super::NIP_POINT_LOAD,
+    &super::NIP_PLATEAU,
+    &super::CENTRE_TORQUE,
+    &super::DRUMS,
+    &super::DRUM_DIAMETER,
+    &super::DRUM_DISTANCE,
+    &super::DRUM_DIFFERENTIAL,
     &SPEED,
     &UPSETS,
     &UPSET_FROM,
@@ -759,9 +665,10 @@ pub const FIELDS: &[&Field] = &[
     &TEMPERATURE,
     &ACCELERATION,
     &RECIPE_TENSION,
-    &STOP_TIME,
-    &EMERGENCY_STOP_TIME,
-    &UNWIND_TENSION,
+    &super::STOP_TIME,
+    &super::EMERGENCY_STOP_TIME,
+    &super::UNWIND_TENSION,
+    &super::SHOCK_FACTOR,
     &SYMPTOMS,
     &SYMPTOM_ID,
     &SYMPTOM_WHERE,

@@ -3,6 +3,7 @@
 //! the enums of `vocabulary`. The web and the core are resolved here, the roll and the winding
 //! settings in `winding`.
 
+mod density;
 mod winder;
 mod winding;
 
@@ -119,7 +120,7 @@ impl Resolver {
 
     /// A plain number that must be in the field's range, or the field's default from the
     /// presets (recorded as assumed).
-    fn number_or(
+    pub(super) fn number_or(
         &mut self,
         field: &Field,
         value: Option<f64>,
@@ -387,7 +388,7 @@ impl Resolver {
             }
             given => self.number_or(&reg::KINETIC_FRICTION, given, p, None)?,
         };
-        let density = self.number_or(&reg::DENSITY, web.density, p, None)?;
+        let density = self.density(web, thickness, p)?;
         let roughness = self.quantity_or(&reg::ROUGHNESS, web.roughness.as_ref(), p, None)?;
         let strength = self.quantity_or(&reg::STRENGTH, web.strength.as_ref(), p, None)?;
         Ok(ResolvedWeb {
@@ -407,7 +408,7 @@ impl Resolver {
     }
 
     /// A required quantity in the field's range (its presence is checked by the caller).
-    fn required_quantity(
+    pub(super) fn required_quantity(
         &self,
         field: &Field,
         value: Option<&QuantityText>,
@@ -568,7 +569,12 @@ impl Resolver {
         let stiffness = self.core_stiffness(core, material, preset, inside, outside, support)?;
         let (crush_pressure, crush_basis) =
             self.core_crush(core, preset, &stiffness, inside, outside, support)?;
+        let shaft_torque_rating = match core.shaft_torque_rating.as_ref() {
+            Some(text) => Some(self.required_quantity(&reg::SHAFT_TORQUE_RATING, Some(text))?),
+            None => None,
+        };
         Ok(ResolvedCore {
+            shaft_torque_rating,
             preset: Some(preset.id.to_string()),
             material,
             inside_diameter: inside,

@@ -278,6 +278,10 @@ impl Resolver {
         let typical = presets::web_preset(&preset_id)
             .map(|p| p.typical_tension)
             .unwrap_or(presets::web_presets()[0].typical_tension);
+        // A tension programme gives the tension at every diameter, the core included.
+        if let Some(points) = self.programme_taper(winding, web, core, roll)? {
+            return self.winding_with(method, winding, web, core, roll, points);
+        }
         let start_tension = match self.quantity(
             reg::TENSION.path,
             winding.tension.as_ref(),
@@ -326,6 +330,63 @@ impl Resolver {
             }
             Some(taper) => self.taper(taper, web, core, roll)?,
         };
+        let schedule = TensionSchedule {
+            start_tension,
+            taper,
+            upsets: Vec::new(),
+        };
+        self.winding_with(method, winding, web, core, roll, schedule)
+    }
+
+    /// The tension programme of a `programme` taper as a schedule whose start tension is the
+    /// programme's tension at the core (listed as computed); `None` for any other taper. A
+    /// `winding.tension` given beside the programme is refused (the programme says it).
+    fn programme_taper(
+        &mut self,
+        winding: &WindingInput,
+        web: &ResolvedWeb,
+        core: &ResolvedCore,
+        roll: &ResolvedRoll,
+    ) -> Result<Option<TensionSchedule>, CaseError> {
+        let Some(taper) = winding
+            .taper
+            .as_ref()
+            .filter(|t| TaperKind::from_id(&t.kind) == Some(TaperKind::Programme))
+        else {
+            return Ok(None);
+        };
+        if winding.tension.is_some() {
+            return Err(self.invalid(
+                "winding.tension and a tension programme (winding.taper.kind `programme`) are both given; keep one (the programme gives the tension at each diameter, the core included)",
+            ));
+        }
+        let taper = self.taper(taper, web, core, roll)?;
+        let core_radius = core.outside_diameter / 2.0;
+        let mut schedule = TensionSchedule {
+            start_tension: 0.0,
+            taper,
+            upsets: Vec::new(),
+        };
+        schedule.start_tension =
+            schedule.scheduled_tension_at(core_radius, core_radius, roll.outer_diameter / 2.0);
+        self.computed(
+            reg::TENSION.path,
+            reg::TENSION.range().show(schedule.start_tension),
+            "the tension programme's value at the core",
+        );
+        Ok(Some(schedule))
+    }
+
+    /// The rest of the winding settings around a resolved tension schedule (upsets added).
+    fn winding_with(
+        &mut self,
+        method: WindingMethod,
+        winding: &WindingInput,
+        web: &ResolvedWeb,
+        core: &ResolvedCore,
+        roll: &ResolvedRoll,
+        schedule: TensionSchedule,
+    ) -> Result<ResolvedWinding, CaseError> {
         let upsets = self.upsets(winding, web, core, roll)?;
         let winder = self.winder(method, winding, web, core, roll)?;
         let nip_load = match self.quantity(
@@ -384,16 +445,16 @@ impl Resolver {
             }
             None => None,
         };
+        // Listed as assumed when not given; the mechanics take the same default.
+        let shock_given = winding.handling_shock_factor;
+        self.number_or(&reg::SHOCK_FACTOR, shock_given, None, None)?;
         Ok(ResolvedWinding {
+            handling_shock_factor: shock_given,
             stop_time,
             emergency_stop_time,
             unwind_tension,
             method,
-            tension: TensionSchedule {
-                start_tension,
-                taper,
-                upsets,
-            },
+            tension: TensionSchedule { upsets, ..schedule },
             nip_load,
             nip_programme: winder.nip_programme,
             nip_plateau: winder.nip_plateau,
@@ -469,6 +530,11 @@ impl Resolver {
                 "winding.taper.steps are given but winding.taper.kind is `{kind}`; use kind `steps`"
             )));
         }
+        if kind != TaperKind::Programme && !taper.points.is_empty() {
+            return Err(self.invalid(format!(
+                "winding.taper.points are given but winding.taper.kind is `{kind}`; use kind `programme`"
+            )));
+        }
         let fraction = |this: &mut Self| -> Result<f64, CaseError> {
             let field = reg::TAPER_AMOUNT.path;
             match this.quantity(field, taper.amount.as_ref(), QuantityKind::Percent)? {
@@ -506,7 +572,50 @@ impl Resolver {
                 fraction: fraction(self)?,
             }),
             TaperKind::Steps => self.steps(taper, web, core, roll),
+            TaperKind::Programme => self.programme(taper, web, core, roll),
         }
+    }
+
+    /// The points of a tension programme, diameters turned into radii.
+    fn programme(
+        &self,
+        taper: &TaperInput,
+        web: &ResolvedWeb,
+        core: &ResolvedCore,
+        roll: &ResolvedRoll,
+    ) -> Result<Taper, CaseError> {
+        if taper.amount.is_some() {
+            return Err(self.invalid(
+                "winding.taper.amount is not used by a tension programme; give the tension at each diameter",
+            ));
+        }
+        if taper.points.is_empty() {
+            return Err(self.invalid(
+                "winding.taper.points is empty; a tension programme needs at least one point",
+            ));
+        }
+        let mut points = Vec::with_capacity(taper.points.len());
+        let mut last_radius = f64::NEG_INFINITY;
+        for (index, point) in taper.points.iter().enumerate() {
+            let field = format!("winding.taper.points[{index}]");
+            let radius =
+                self.radius_in_roll(&format!("{field}.diameter"), &point.diameter, core, roll)?;
+            if radius <= last_radius {
+                return Err(self.out_of_range(
+                    &format!("{field}.diameter"),
+                    reg::CORE_OUTSIDE.range().show(2.0 * radius),
+                    format!(
+                        "larger than the previous point's diameter {} (list points from the core outward)",
+                        reg::CORE_OUTSIDE.range().show(2.0 * last_radius)
+                    ),
+                ));
+            }
+            last_radius = radius;
+            let tension =
+                self.band_tension(&field, &point.tension, web, &reg::POINT_TENSION.range())?;
+            points.push(TensionStep { radius, tension });
+        }
+        Ok(Taper::Programme { points })
     }
 
     /// The steps of a `steps` taper, diameters turned into radii.

@@ -120,6 +120,12 @@ pub const INDICATORS: &[IndicatorSpec] = &[
         "the same ratio at the core/web interface, smallest over the events (below 1 = the roll turns on its core)",
     ),
     spec(
+        "shaft_slip_margin",
+        Dimension::Ratio,
+        ZoneUse::None,
+        "the chuck or shaft torque rating over the torque the core must pass, smallest over the events (below 1 = the core turns on its chuck); only when the case gives the rating",
+    ),
+    spec(
         "air_film_ratio",
         Dimension::Ratio,
         ZoneUse::None,

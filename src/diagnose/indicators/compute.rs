@@ -245,6 +245,9 @@ impl Indicators {
         let torque = crate::mechanics::torque::torque_check(profile, &inputs);
         self.set("slip_margin", None, torque.min_margin);
         self.set("core_slip_margin", None, torque.core_margin);
+        if let Some(margin) = torque.shaft_margin {
+            self.set("shaft_slip_margin", None, margin);
+        }
         self.set("speed_change_slip_margin", None, torque.speed_change_margin);
         let telescoping = crate::mechanics::telescoping::handling_margins(profile, &inputs);
         self.set("telescoping_margin", None, telescoping.min_margin);
@@ -266,7 +269,7 @@ pub fn taper_percent(case: &ResolvedCase) -> f64 {
     match &schedule.taper {
         Taper::None => 0.0,
         Taper::Linear { fraction } | Taper::Hyperbolic { fraction } => fraction * 100.0,
-        Taper::Steps { steps } => match steps.last() {
+        Taper::Steps { steps } | Taper::Programme { points: steps } => match steps.last() {
             Some(last) if schedule.start_tension > 0.0 => {
                 (schedule.start_tension - last.tension) / schedule.start_tension * 100.0
             }
@@ -290,11 +293,7 @@ fn acceleration_torque_per_width(case: &ResolvedCase, core_r: f64, outer_r: f64)
         return 0.0;
     };
     // Solid annulus: J per width = ρ·π·(R⁴ − rc⁴)/2; α = v / (R·t).
-    let inertia = crate::mechanics::torque::annulus_inertia(
-        crate::mechanics::density_of(case.web.material),
-        core_r,
-        outer_r,
-    );
+    let inertia = crate::mechanics::torque::annulus_inertia(case.web.density, core_r, outer_r);
     let angular_acceleration = case.winding.speed / (outer_r * time);
     inertia * angular_acceleration
 }

@@ -11,7 +11,7 @@ use crate::units::{QuantityKind, UnitSystem, compact_stress, format_quantity, si
 /// Why a setting change cannot be tried or written into the case file.
 #[derive(Debug, Clone, PartialEq, thiserror::Error)]
 pub enum WhatIfError {
-    #[error("the taper is a list of steps; edit it in the case file")]
+    #[error("the taper is a list of steps or a tension programme; edit it in the case file")]
     SteppedTaper,
     #[error("the core is rigid: a stiffer core changes nothing")]
     RigidCore,
@@ -100,7 +100,9 @@ pub fn apply_step(
                 Taper::None => ("hyperbolic", 0.0),
                 Taper::Linear { fraction } => ("linear", *fraction),
                 Taper::Hyperbolic { fraction } => ("hyperbolic", *fraction),
-                Taper::Steps { .. } => return Err(WhatIfError::SteppedTaper),
+                Taper::Steps { .. } | Taper::Programme { .. } => {
+                    return Err(WhatIfError::SteppedTaper);
+                }
             };
             let after = (before + 0.05 * steps).clamp(0.0, 0.9);
             out.winding.tension.taper = match kind {
@@ -180,12 +182,13 @@ fn taper_input(taper: &Taper) -> Result<TaperInput, WhatIfError> {
         Taper::None => ("none", 0.0),
         Taper::Linear { fraction } => ("linear", fraction),
         Taper::Hyperbolic { fraction } => ("hyperbolic", fraction),
-        Taper::Steps { .. } => return Err(WhatIfError::SteppedTaper),
+        Taper::Steps { .. } | Taper::Programme { .. } => return Err(WhatIfError::SteppedTaper),
     };
     Ok(TaperInput {
         kind: kind.into(),
         amount: Some(QuantityText::Text(format!("{} %", sig3(fraction * 100.0)))),
         steps: Vec::new(),
+        points: Vec::new(),
     })
 }
 
@@ -202,7 +205,8 @@ pub fn write_into_case(
     if new.start_tension != old.start_tension {
         // A scaled tension also scales the absolute tensions of steps and upset bands, which a
         // single number in the case file cannot say.
-        let steps_scaled = matches!(new.taper, Taper::Steps { .. }) && new.taper != old.taper;
+        let steps_scaled = matches!(new.taper, Taper::Steps { .. } | Taper::Programme { .. })
+            && new.taper != old.taper;
         let bands_scaled = new.upsets != old.upsets && !new.upsets.is_empty();
         if steps_scaled || bands_scaled {
             return Err(WhatIfError::TensionBands);
@@ -287,7 +291,9 @@ pub fn apply_changes(case: &ResolvedCase, changes: &[SettingChange]) -> Resolved
         match *change {
             SettingChange::TensionScale(f) => {
                 schedule.start_tension *= f;
-                if let Taper::Steps { steps } = &mut schedule.taper {
+                if let Taper::Steps { steps } | Taper::Programme { points: steps } =
+                    &mut schedule.taper
+                {
                     for s in steps.iter_mut() {
                         s.tension *= f;
                     }
@@ -331,7 +337,7 @@ fn set_taper(schedule: &mut crate::model::TensionSchedule, to: Option<f64>, by: 
     let current = match &schedule.taper {
         Taper::None => 0.0,
         Taper::Linear { fraction } | Taper::Hyperbolic { fraction } => fraction * 100.0,
-        Taper::Steps { steps } => steps
+        Taper::Steps { steps } | Taper::Programme { points: steps } => steps
             .last()
             .filter(|_| t0 > 0.0)
             .map(|s| (t0 - s.tension) / t0 * 100.0)
@@ -358,6 +364,20 @@ fn set_taper(schedule: &mut crate::model::TensionSchedule, to: Option<f64>, by: 
                     s.tension = t0 - (t0 - s.tension) * scale;
                 }
                 Taper::Steps { steps }
+            } else {
+                Taper::Linear {
+                    fraction: target / 100.0,
+                }
+            }
+        }
+        // The programme's taper moves about the core tension as the steps' does.
+        Taper::Programme { mut points } => {
+            if current > 0.0 {
+                let scale = target / current;
+                for p in points.iter_mut() {
+                    p.tension = t0 - (t0 - p.tension) * scale;
+                }
+                Taper::Programme { points }
             } else {
                 Taper::Linear {
                     fraction: target / 100.0,

@@ -157,6 +157,7 @@ fn accepted_text(kind: FieldKind) -> String {
         FieldKind::Choice(options) => format!("←→: {}", options.join(" / ")),
         FieldKind::Preset(_) => "←→ through the presets, or type an ID".to_string(),
         FieldKind::Text => "any text".to_string(),
+        FieldKind::Table { .. } => "rows of diameter: value, separated by ;".to_string(),
     }
 }
 

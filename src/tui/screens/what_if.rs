@@ -335,6 +335,7 @@ impl WhatIfScreen {
                     sig3(design.taper_fraction * 100.0)
                 ))),
                 steps: Vec::new(),
+                points: Vec::new(),
             });
             ctx.edited();
             ctx.set_status("Kept the designed taper schedule");
