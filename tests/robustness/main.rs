@@ -8,6 +8,7 @@ mod tui_support;
 
 mod cli;
 mod csv;
+mod limits;
 mod mutation;
 mod output;
 mod save;
