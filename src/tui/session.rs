@@ -13,13 +13,13 @@ use crate::units::UnitSystem;
 use super::catalogue::Catalogue;
 use super::component::Action;
 use super::fields::PresetFamily;
-use super::job::{JobRequest, Purpose, SolveOutcome, Task};
+use super::job::{JobError, JobRequest, Purpose, SolveOutcome, Task};
 
 /// Latest finished baseline solve.
 #[derive(Debug, Clone, PartialEq)]
 pub struct Baseline {
     pub generation: u64,
-    pub result: Result<Box<SolveOutcome>, String>,
+    pub result: Result<Box<SolveOutcome>, JobError>,
 }
 
 #[derive(Debug, Clone, Copy, PartialEq)]
