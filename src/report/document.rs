@@ -559,6 +559,9 @@ pub fn input_lines(resolved: &ResolvedCase, units: UnitSystem) -> Vec<InputLine>
     if let Some(t) = winding.temperature {
         lines.push(("winding.temperature".into(), q(t, Temperature)));
     }
+    if let Some(t) = winding.recipe_tension {
+        lines.push(("winding.recipe_tension".into(), q(t, ForcePerWidth)));
+    }
     if let Some(t) = winding.acceleration_time {
         lines.push(("winding.acceleration_time".into(), format!("{t} s")));
     }
