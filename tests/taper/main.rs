@@ -6,3 +6,5 @@
 mod budget;
 mod cli;
 mod design;
+#[path = "../shared/fixtures.rs"]
+mod fixtures;
