@@ -1,29 +1,14 @@
 //! Issue 14, item 8: stack-test CSV read exactly: extra cells beyond the header are an error,
 //! CR-only line endings are read, and a size limit like the case files'.
 
-use std::path::{Path, PathBuf};
+use crate::support::{root, run};
+use std::path::Path;
 use std::process::Command;
 
 use rolltriage::calibrate::{
     FitOptions, MAX_STACK_FILE_BYTES, StackReadOptions, fit_pfeiffer, parse_stack_csv,
     read_stack_file,
 };
-
-fn root() -> PathBuf {
-    PathBuf::from(env!("CARGO_MANIFEST_DIR"))
-}
-
-fn run(args: &[&str]) -> (Option<i32>, String) {
-    let out = Command::new(env!("CARGO_BIN_EXE_rolltriage"))
-        .args(args)
-        .current_dir(root())
-        .output()
-        .unwrap();
-    (
-        out.status.code(),
-        String::from_utf8_lossy(&out.stderr).into_owned(),
-    )
-}
 
 #[test]
 fn decimal_comma_rows_are_refused_naming_the_line() {

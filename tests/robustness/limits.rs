@@ -2,27 +2,12 @@
 //! refuse pipes; `calibrate stack --write-library` range-checks what it writes and what it reads
 //! with the ranges of a case file's `web.radial_stiffness` and `web.thickness`.
 
+use crate::support::{root, run};
 use std::path::{Path, PathBuf};
 use std::process::Command;
 
 use rolltriage::calibrate::MaterialLibrary;
 use rolltriage::diagnose::rules::RuleBase;
-
-fn root() -> PathBuf {
-    PathBuf::from(env!("CARGO_MANIFEST_DIR"))
-}
-
-fn run(args: &[&str]) -> (Option<i32>, String) {
-    let out = Command::new(env!("CARGO_BIN_EXE_rolltriage"))
-        .args(args)
-        .current_dir(root())
-        .output()
-        .unwrap();
-    (
-        out.status.code(),
-        String::from_utf8_lossy(&out.stderr).into_owned(),
-    )
-}
 
 /// A copy of the shipped rule directory in `dir`.
 fn rules_copy(dir: &Path) -> PathBuf {

@@ -14,5 +14,6 @@ mod limits;
 mod mutation;
 mod output;
 mod save;
+mod support;
 mod tui;
 mod write_case;
