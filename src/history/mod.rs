@@ -18,7 +18,8 @@ use std::path::{Path, PathBuf};
 use std::time::Duration;
 
 pub use store::{
-    ComplaintSummary, Entry, Filter, ScanRow, StatusChange, Store, StoredComplaint, StoredVersion,
+    ComplaintFacts, ComplaintSummary, Entry, Filter, ScanRow, StatusChange, Store, StoredComplaint,
+    StoredVersion,
 };
 
 /// Newest schema version this build knows (the highest migration in `migrations/`).
