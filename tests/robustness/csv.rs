@@ -87,11 +87,10 @@ fn material_libraries_have_the_same_size_limit_and_refuse_pipes() {
     use rolltriage::calibrate::MaterialLibrary;
     let dir = tempfile::tempdir().unwrap();
     let path = dir.path().join("materials.yaml");
-    let mut text = String::from("format: rolltriage-materials 1\nmaterials: []\n");
-    while (text.len() as u64) <= rolltriage::case::MAX_CASE_FILE_BYTES {
-        text.push_str("# padding padding padding padding padding padding padding padding\n");
-    }
-    std::fs::write(&path, &text).unwrap();
+    crate::support::write_past_the_size_limit(
+        &path,
+        "format: rolltriage-materials 1\nmaterials: []\n",
+    );
     let message = MaterialLibrary::load_or_new(&path).unwrap_err().to_string();
     assert!(message.contains("materials.yaml"), "{message}");
     assert!(message.contains("1 MiB"), "{message}");

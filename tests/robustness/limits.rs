@@ -31,11 +31,8 @@ fn a_rule_file_over_1_mib_is_refused_naming_the_file() {
         "the copy loads as shipped"
     );
     let file = rules.join("starring.yaml");
-    let mut text = std::fs::read_to_string(&file).unwrap();
-    while (text.len() as u64) <= rolltriage::fsutil::MAX_INPUT_FILE_BYTES {
-        text.push_str("# padding padding padding padding padding padding padding padding\n");
-    }
-    std::fs::write(&file, &text).unwrap();
+    let text = std::fs::read_to_string(&file).unwrap();
+    crate::support::write_past_the_size_limit(&file, &text);
     let message = RuleBase::load_dir(&rules).unwrap_err().to_string();
     assert!(message.contains("starring.yaml"), "{message}");
     assert!(message.contains("rule file"), "{message}");
