@@ -12,3 +12,4 @@ mod job;
 mod screens;
 mod smoke;
 mod state;
+mod story_history;
