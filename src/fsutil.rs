@@ -35,6 +35,80 @@ pub fn is_shipped_demo_case(path: &Path) -> bool {
     })
 }
 
+/// Largest user YAML file read: case files, rule files and material libraries (1 MiB). A
+/// hand-written file is a few kilobytes; the cap keeps a stray large file from costing memory
+/// and parse time.
+pub const MAX_INPUT_FILE_BYTES: u64 = 1024 * 1024;
+
+/// Failure to read a user file with [`read_text_limited`].
+#[derive(Debug, thiserror::Error)]
+pub enum ReadError {
+    #[error("{path}: not a regular file (a pipe, device or folder); not read")]
+    NotRegular { path: PathBuf },
+    #[error(
+        "{path}: the file is {size} bytes; a {what} may be at most {limit} bytes (1 MiB); not read"
+    )]
+    TooLarge {
+        path: PathBuf,
+        what: &'static str,
+        size: u64,
+        limit: u64,
+    },
+    #[error("{path}: not UTF-8 text; save it as UTF-8")]
+    NotUtf8 { path: PathBuf },
+    #[error("cannot read {path}: {error}")]
+    Io {
+        path: PathBuf,
+        error: std::io::Error,
+    },
+}
+
+impl ReadError {
+    /// True when the file does not exist (some readers take that as an empty file).
+    pub fn is_not_found(&self) -> bool {
+        matches!(self, ReadError::Io { error, .. } if error.kind() == std::io::ErrorKind::NotFound)
+    }
+}
+
+/// Read a user text file of at most `limit` bytes; `what` names the kind of file in the
+/// message ("rule file"). A pipe or device is refused before it is opened (opening one could
+/// wait forever), a larger file unread, and at most one byte past the limit is read in case
+/// the file grows while it is read.
+pub fn read_text_limited(path: &Path, what: &'static str, limit: u64) -> Result<String, ReadError> {
+    use std::io::Read;
+    let io = |error| ReadError::Io {
+        path: path.to_path_buf(),
+        error,
+    };
+    let too_large = |size| ReadError::TooLarge {
+        path: path.to_path_buf(),
+        what,
+        size,
+        limit,
+    };
+    let meta = std::fs::metadata(path).map_err(io)?;
+    if !meta.is_file() {
+        return Err(ReadError::NotRegular {
+            path: path.to_path_buf(),
+        });
+    }
+    if meta.len() > limit {
+        return Err(too_large(meta.len()));
+    }
+    let mut bytes = Vec::new();
+    std::fs::File::open(path)
+        .map_err(io)?
+        .take(limit.saturating_add(1))
+        .read_to_end(&mut bytes)
+        .map_err(io)?;
+    if bytes.len() as u64 > limit {
+        return Err(too_large(bytes.len() as u64));
+    }
+    String::from_utf8(bytes).map_err(|_| ReadError::NotUtf8 {
+        path: path.to_path_buf(),
+    })
+}
+
 /// Distinguishes temporary files of concurrent saves within one process.
 static SAVE_COUNTER: AtomicU64 = AtomicU64::new(0);
 

@@ -103,6 +103,45 @@ impl MaterialEntry {
 
 use super::write_case::case_number as number;
 
+impl MaterialEntry {
+    /// The ranges a case file applies to the same values: the radial stiffness law as
+    /// `web.radial_stiffness`, the caliper as `web.thickness`; the fit record's numbers finite
+    /// (R² at most 1, standard errors not negative). `index` places the entry in the message.
+    pub fn check(&self, index: usize) -> Result<(), String> {
+        let at = format!("materials[{index}] ({})", self.id);
+        crate::case::check_radial_stiffness(&at, &self.radial_stiffness)
+            .map_err(|e| format!("{e} (the range of a case file's web.radial_stiffness)"))?;
+        if let Some(caliper) = &self.caliper {
+            let text = crate::case::QuantityText::Text(caliper.clone());
+            crate::case::check_caliper(&format!("{at} caliper"), &text)
+                .map_err(|e| format!("{e} (the range of a case file's web.thickness)"))?;
+        }
+        if let Some(fit) = &self.fit {
+            let bad = |field: &str, accepted: &str| {
+                format!("{at}: fit.{field} is out of range: accepted {accepted}")
+            };
+            if !(fit.r_squared.is_finite() && fit.r_squared <= 1.0) {
+                return Err(bad("r_squared", "a number at most 1"));
+            }
+            if !(fit.k2_standard_error.is_finite() && fit.k2_standard_error >= 0.0) {
+                return Err(bad("k2_standard_error", "a number of 0 or more"));
+            }
+            for (field, text) in [
+                ("k1_standard_error", &fit.k1_standard_error),
+                ("max_measured_pressure", &fit.max_measured_pressure),
+            ] {
+                let value =
+                    crate::units::parse_quantity(field, text, crate::units::QuantityKind::Stress)
+                        .map_err(|e| format!("{at}: fit.{field}: {e}"))?;
+                if !(value.is_finite() && value >= 0.0) {
+                    return Err(bad(field, "a pressure of 0 or more"));
+                }
+            }
+        }
+        Ok(())
+    }
+}
+
 /// Check a material ID: lowercase letters, digits and `_`, starting with a letter.
 pub fn check_id(id: &str) -> Result<(), String> {
     let ok = id.chars().next().is_some_and(|c| c.is_ascii_lowercase())
@@ -145,8 +184,12 @@ impl MaterialLibrary {
                 ),
             });
         }
-        for m in &library.materials {
+        for (i, m) in library.materials.iter().enumerate() {
             check_id(&m.id).map_err(|message| CalibrateError::Library {
+                path: origin.to_string(),
+                message,
+            })?;
+            m.check(i).map_err(|message| CalibrateError::Library {
                 path: origin.to_string(),
                 message,
             })?;
@@ -157,27 +200,11 @@ impl MaterialLibrary {
     /// Read a library file; a missing file is an empty library. Like case files, a library
     /// is at most 1 MiB, and a pipe or device is refused rather than waited on.
     pub fn load_or_new(path: &Path) -> Result<MaterialLibrary, CalibrateError> {
-        if let Ok(meta) = std::fs::metadata(path) {
-            let refused = |message: &str| CalibrateError::Library {
-                path: path.display().to_string(),
-                message: message.to_string(),
-            };
-            if !meta.is_file() {
-                return Err(refused("not a regular file (a folder, pipe or device)"));
-            }
-            if meta.len() > crate::case::MAX_CASE_FILE_BYTES {
-                return Err(refused(
-                    "larger than 1 MiB, the limit for material libraries; not read",
-                ));
-            }
-        }
-        match std::fs::read_to_string(path) {
+        use crate::fsutil::{MAX_INPUT_FILE_BYTES, read_text_limited};
+        match read_text_limited(path, "material library", MAX_INPUT_FILE_BYTES) {
             Ok(text) => MaterialLibrary::from_yaml_str(&text, &path.display().to_string()),
-            Err(e) if e.kind() == std::io::ErrorKind::NotFound => Ok(MaterialLibrary::default()),
-            Err(source) => Err(CalibrateError::Read {
-                path: path.to_path_buf(),
-                source,
-            }),
+            Err(e) if e.is_not_found() => Ok(MaterialLibrary::default()),
+            Err(e) => Err(CalibrateError::Unreadable(e)),
         }
     }
 
@@ -196,8 +223,15 @@ impl MaterialLibrary {
         self.materials.iter().find(|m| m.id == id)
     }
 
-    /// Save atomically.
+    /// Save atomically. Every entry is checked first, as reading checks it: an entry a case
+    /// could not use is refused with the reason and the file is left unchanged.
     pub fn save(&self, path: &Path) -> Result<(), CalibrateError> {
+        for (i, m) in self.materials.iter().enumerate() {
+            m.check(i).map_err(|message| CalibrateError::Library {
+                path: path.display().to_string(),
+                message: format!("{message}; not written, the library is left unchanged"),
+            })?;
+        }
         let text = yaml::to_string(self).map_err(|e| CalibrateError::Library {
             path: path.display().to_string(),
             message: e.to_string(),

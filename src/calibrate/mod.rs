@@ -65,6 +65,9 @@ pub enum CalibrateError {
     Save(#[from] crate::fsutil::SaveError),
     #[error(transparent)]
     NotFinite(#[from] crate::finite::NonFinite),
+    /// A material library that is too large, not a regular file or not text.
+    #[error(transparent)]
+    Unreadable(crate::fsutil::ReadError),
     #[error("cannot read {path}: {source}")]
     Read {
         path: std::path::PathBuf,

@@ -7,8 +7,8 @@ use serde::{Deserialize, Serialize};
 use super::{CaseError, QuantityText};
 use crate::evidence::{
     BendDirection, BendPlace, CalibrationPoint, EndLine, EvidenceError, HardnessProfile,
-    HardnessReading, LaneHardness, LaneReading, Measurements, ParentPosition, RollSet, RollSize,
-    SizeUncertainty, WoundAmount,
+    HardnessReading, LaneHardness, LaneReading, Measurements, RollSet, RollSize, SizeUncertainty,
+    WoundAmount,
 };
 use crate::units::{QuantityKind, parse_quantity};
 
@@ -118,22 +118,9 @@ pub struct EndLineInput {
     pub offset: Option<QuantityText>,
 }
 
-#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
-#[serde(deny_unknown_fields)]
-pub struct SetInput {
-    pub rolls: u32,
-    pub bad: u32,
-    #[serde(default, skip_serializing_if = "Vec::is_empty")]
-    pub bad_positions: Vec<u32>,
-    #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub parent_roll: Option<String>,
-    #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub position_in_parent: Option<ParentPosition>,
-    #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub parent_rolls: Option<u32>,
-    #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub bad_parent_rolls: Option<u32>,
-}
+/// The set of rolls as written: it holds counts and names only (no quantities to parse), so
+/// the case file writes the evidence type itself.
+pub type SetInput = RollSet;
 
 impl MeasurementsInput {
     /// True when the section holds nothing.
@@ -252,17 +239,7 @@ pub fn resolve(
         input.core_bore_reduction.as_ref(),
         QuantityKind::Length,
     )?;
-    if let Some(s) = &input.set {
-        out.set = Some(RollSet {
-            rolls: s.rolls,
-            bad: s.bad,
-            bad_positions: s.bad_positions.clone(),
-            parent_roll: s.parent_roll.clone(),
-            position_in_parent: s.position_in_parent,
-            parent_rolls: s.parent_rolls,
-            bad_parent_rolls: s.bad_parent_rolls,
-        });
-    }
+    out.set = input.set.clone();
     out.validate().map_err(|e| match e {
         EvidenceError::OutOfRange {
             field,

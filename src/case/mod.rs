@@ -37,7 +37,7 @@ pub use starter::starter_yaml;
 
 /// Largest case file accepted (bytes). Real cases are a few kilobytes; refusing anything larger
 /// before parsing keeps a stray log file or a generated monster from eating memory.
-pub const MAX_CASE_FILE_BYTES: u64 = 1024 * 1024;
+pub const MAX_CASE_FILE_BYTES: u64 = crate::fsutil::MAX_INPUT_FILE_BYTES;
 
 /// Errors reading, validating, resolving or saving a case file. Every message names the file
 /// (or origin), the field and what is accepted.
@@ -133,6 +133,21 @@ fn suggestion_text(suggestion: Option<&str>) -> String {
         Some(s) => format!(" (did you mean `{s}`?)"),
         None => String::new(),
     }
+}
+
+/// Check a radial stiffness law as a case file's `web.radial_stiffness` accepts it (ranges of
+/// the field registry and the model's own check). Material libraries hold the same law and are
+/// checked with this, so a library entry is always one a case can use.
+pub fn check_radial_stiffness(
+    origin: &str,
+    input: &RadialStiffnessInput,
+) -> Result<crate::model::RadialStiffness, CaseError> {
+    resolve::Resolver::check_radial_law(origin, input)
+}
+
+/// Check a caliper (web thickness) as a case file's `web.thickness` accepts it.
+pub fn check_caliper(origin: &str, value: &QuantityText) -> Result<f64, CaseError> {
+    resolve::Resolver::check_thickness(origin, value)
 }
 
 impl Case {

@@ -384,6 +384,7 @@ pub fn write_similar(
         writeln!(out, "  none stored yet")?;
     }
     for m in matches {
+        let (id, distance, m) = (m.id, m.distance, &m.facts);
         let when = m.received.clone().unwrap_or_else(|| "no date".into());
         let cause = if m.confirmed.is_empty() {
             format!("not confirmed ({})", m.status.replace('_', " "))
@@ -404,8 +405,8 @@ pub fn write_similar(
         writeln!(
             out,
             "  {:>5}  distance {:.2}  {when}  {}{}",
-            m.id,
-            m.distance,
+            id,
+            distance,
             m.title,
             if place.is_empty() {
                 String::new()

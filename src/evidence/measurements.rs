@@ -200,8 +200,10 @@ pub enum ParentPosition {
     NearCore,
 }
 
-/// The set of rolls slit side by side from one parent roll.
+/// The set of rolls slit side by side from one parent roll (also the case file's
+/// `measurements.set` as written, hence no unknown keys).
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
 pub struct RollSet {
     /// Rolls in the set (slit positions 1..=rolls across the width).
     pub rolls: u32,
@@ -243,6 +245,19 @@ fn finite(field: &str, value: f64) -> Result<(), EvidenceError> {
             field: field.to_string(),
             value: value.to_string(),
             accepted: "a finite number".into(),
+        })
+    }
+}
+
+/// A length or pressure of 0 or more; `accepted` says which ("a length ≥ 0").
+fn not_negative(field: &str, value: f64, accepted: &str) -> Result<(), EvidenceError> {
+    if value.is_finite() && value >= 0.0 {
+        Ok(())
+    } else {
+        Err(EvidenceError::OutOfRange {
+            field: field.to_string(),
+            value: value.to_string(),
+            accepted: accepted.into(),
         })
     }
 }
@@ -320,24 +335,12 @@ impl Measurements {
                     });
                 }
             }
-            if let Some(offset) = line.offset
-                && !(offset.is_finite() && offset >= 0.0)
-            {
-                return Err(EvidenceError::OutOfRange {
-                    field: "measurements.end_line.offset".into(),
-                    value: offset.to_string(),
-                    accepted: "a length ≥ 0".into(),
-                });
+            if let Some(offset) = line.offset {
+                not_negative("measurements.end_line.offset", offset, "a length ≥ 0")?;
             }
         }
-        if let Some(b) = self.core_bore_reduction
-            && !(b.is_finite() && b >= 0.0)
-        {
-            return Err(EvidenceError::OutOfRange {
-                field: "measurements.core_bore_reduction".into(),
-                value: b.to_string(),
-                accepted: "a length ≥ 0".into(),
-            });
+        if let Some(b) = self.core_bore_reduction {
+            not_negative("measurements.core_bore_reduction", b, "a length ≥ 0")?;
         }
         if let Some(set) = &self.set {
             validate_set(set)?;
@@ -360,13 +363,11 @@ fn validate_calibration(points: &[CalibrationPoint]) -> Result<(), EvidenceError
     }
     for p in points {
         finite("measurements.hardness.calibration.reading", p.reading)?;
-        if !(p.pressure.is_finite() && p.pressure >= 0.0) {
-            return Err(EvidenceError::OutOfRange {
-                field: "measurements.hardness.calibration.pressure".into(),
-                value: p.pressure.to_string(),
-                accepted: "a pressure ≥ 0".into(),
-            });
-        }
+        not_negative(
+            "measurements.hardness.calibration.pressure",
+            p.pressure,
+            "a pressure ≥ 0",
+        )?;
     }
     let rising = points.windows(2).all(|w| w[1].reading > w[0].reading);
     let up = points.windows(2).all(|w| w[1].pressure > w[0].pressure);

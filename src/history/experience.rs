@@ -84,14 +84,17 @@ pub fn apply(
         candidates.dedup();
         let with_symptom: Vec<&ScanRow> = confirmed
             .iter()
-            .filter(|r| r.symptoms.iter().any(|s| s == symptom) && !r.confirmed.is_empty())
+            .filter(|r| {
+                r.facts.symptoms.iter().any(|s| s == symptom) && !r.facts.confirmed.is_empty()
+            })
             .collect();
         let on_line: Vec<&ScanRow> = match line {
             Some(l) => with_symptom
                 .iter()
                 .copied()
                 .filter(|r| {
-                    r.line
+                    r.facts
+                        .line
                         .as_deref()
                         .is_some_and(|x| x.trim().eq_ignore_ascii_case(l.trim()))
                 })
@@ -118,7 +121,7 @@ pub fn apply(
             }
             let k = counted
                 .iter()
-                .filter(|r| r.confirmed.contains(&cause.id))
+                .filter(|r| r.facts.confirmed.contains(&cause.id))
                 .count();
             let cf = factor(k, n, candidates.len());
             let place = match &scope {
@@ -199,9 +202,14 @@ pub struct Performance {
 /// / in the first three by the ranking stored with the complaint?
 pub fn performance(rows: &[ScanRow]) -> Performance {
     let mut out = Performance::default();
-    for r in rows.iter().filter(|r| !r.confirmed.is_empty()) {
+    for r in rows.iter().filter(|r| !r.facts.confirmed.is_empty()) {
         out.confirmed += 1;
-        let hit = |n: usize| r.ranked.iter().take(n).any(|c| r.confirmed.contains(c));
+        let hit = |n: usize| {
+            r.ranked
+                .iter()
+                .take(n)
+                .any(|c| r.facts.confirmed.contains(c))
+        };
         out.first += usize::from(hit(1));
         out.top_three += usize::from(hit(3));
     }

@@ -20,7 +20,8 @@ use std::time::Duration;
 
 pub use past::{PastComplaint, similar_past};
 pub use store::{
-    ComplaintSummary, Entry, Filter, ScanRow, StatusChange, Store, StoredComplaint, StoredVersion,
+    ComplaintFacts, ComplaintSummary, Entry, Filter, ScanRow, StatusChange, Store, StoredComplaint,
+    StoredVersion,
 };
 
 /// Newest schema version this build knows (the highest migration in `migrations/`).

@@ -55,6 +55,7 @@ impl PastComplaint {
                 })
                 .collect(),
             _ => m
+                .facts
                 .confirmed
                 .iter()
                 .map(|c| experience::cause_title(rules, c))
@@ -96,13 +97,13 @@ impl PastComplaint {
         PastComplaint {
             id: m.id,
             distance: m.distance,
-            reference: m.reference.clone(),
-            title: m.title.clone(),
-            received: m.received.clone(),
-            line: m.line.clone(),
-            grade: m.grade.clone(),
-            status: words(&m.status),
-            symptoms: m.symptoms.iter().map(|s| words(s)).collect(),
+            reference: m.facts.reference.clone(),
+            title: m.facts.title.clone(),
+            received: m.facts.received.clone(),
+            line: m.facts.line.clone(),
+            grade: m.facts.grade.clone(),
+            status: words(&m.facts.status),
+            symptoms: m.facts.symptoms.iter().map(|s| words(s)).collect(),
             confirmed,
             actions,
             verification,
@@ -179,14 +180,16 @@ mod tests {
         let m = similar::Match {
             id: 4,
             distance: 0.125,
-            reference: Some("QP-1".into()),
-            title: "Reel 4 telescoped".into(),
-            received: Some("2026-03-01".into()),
-            line: Some("W3".into()),
-            grade: None,
-            status: "cause_confirmed".into(),
-            symptoms: vec!["telescoping".into()],
-            confirmed: vec!["tension_too_low".into()],
+            facts: crate::history::ComplaintFacts {
+                reference: Some("QP-1".into()),
+                title: "Reel 4 telescoped".into(),
+                received: Some("2026-03-01".into()),
+                line: Some("W3".into()),
+                grade: None,
+                status: "cause_confirmed".into(),
+                symptoms: vec!["telescoping".into()],
+                confirmed: vec!["tension_too_low".into()],
+            },
             ranked_first: None,
         };
         let record = Complaint {

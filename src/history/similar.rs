@@ -313,14 +313,8 @@ pub fn nearest(query: &Key, keys: &[(i64, Key)], top: usize) -> Vec<(i64, f64)> 
 pub struct Match {
     pub id: i64,
     pub distance: f64,
-    pub reference: Option<String>,
-    pub title: String,
-    pub received: Option<String>,
-    pub line: Option<String>,
-    pub grade: Option<String>,
-    pub status: String,
-    pub symptoms: Vec<String>,
-    pub confirmed: Vec<String>,
+    #[serde(flatten)]
+    pub facts: super::ComplaintFacts,
     pub ranked_first: Option<String>,
 }
 
@@ -376,14 +370,7 @@ pub fn search(
             Some(Match {
                 id,
                 distance,
-                reference: r.reference.clone(),
-                title: r.title.clone(),
-                received: r.received.clone(),
-                line: r.line.clone(),
-                grade: r.grade.clone(),
-                status: r.status.clone(),
-                symptoms: r.symptoms.clone(),
-                confirmed: r.confirmed.clone(),
+                facts: r.facts.clone(),
                 ranked_first: r.ranked.first().cloned(),
             })
         })

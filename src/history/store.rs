@@ -92,10 +92,10 @@ pub struct Filter {
     pub to: Option<String>,
 }
 
-/// What the similarity search, the site experience and the site performance read per complaint.
-#[derive(Debug, Clone, PartialEq)]
-pub struct ScanRow {
-    pub id: i64,
+/// What a list of past complaints shows of one: shared by [`ScanRow`] and the similar
+/// complaints' `similar::Match` (flattened there, so its JSON keeps these keys in this order).
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct ComplaintFacts {
     pub reference: Option<String>,
     pub title: String,
     pub received: Option<String>,
@@ -104,6 +104,14 @@ pub struct ScanRow {
     pub status: String,
     pub symptoms: Vec<String>,
     pub confirmed: Vec<String>,
+}
+
+/// What the similarity search, the site experience and the site performance read per complaint.
+#[derive(Debug, Clone, PartialEq)]
+pub struct ScanRow {
+    pub id: i64,
+    pub facts: ComplaintFacts,
+    /// Cause IDs as the diagnosis ranked them, first first.
     pub ranked: Vec<String>,
 }
 
@@ -239,7 +247,9 @@ fn to_value(value: &impl Serialize) -> Result<serde_json::Value, HistoryError> {
     serde_json::to_value(value).map_err(|e| HistoryError::Input(format!("cannot encode: {e}")))
 }
 
-const SUMMARY_COLUMNS: &str = "id, latest_version, reference, title, received, created_at, line, grade, status, symptoms, confirmed, ranked";
+// Both lists read the id, then the facts of `ComplaintFacts` in its order, then the ranking
+// (`facts_from`); the summary reads its version and date between the id and the facts.
+const SUMMARY_COLUMNS: &str = "id, latest_version, created_at, reference, title, received, line, grade, status, symptoms, confirmed, ranked";
 
 const SCAN_COLUMNS: &str =
     "id, reference, title, received, line, grade, status, symptoms, confirmed, ranked";
@@ -707,33 +717,40 @@ fn version_from_row(place: &str, id: i64, row: Row) -> Result<StoredVersion, His
     })
 }
 
+/// The [`ComplaintFacts`] columns, in their order.
+fn facts_from(next: &mut impl FnMut() -> Value) -> ComplaintFacts {
+    ComplaintFacts {
+        reference: next().into_text(),
+        title: next().into_text().unwrap_or_default(),
+        received: next().into_text(),
+        line: next().into_text(),
+        grade: next().into_text(),
+        status: next().into_text().unwrap_or_default(),
+        symptoms: split_words(next().text()),
+        confirmed: split_words(next().text()),
+    }
+}
+
 fn summary_from_row(row: Row) -> ComplaintSummary {
     let mut it = row.into_iter();
     let mut next = || it.next().unwrap_or(Value::Text(None));
     let id = next().int().unwrap_or(0);
     let version = next().int().unwrap_or(0);
-    let reference = next().into_text();
-    let title = next().into_text().unwrap_or_default();
-    let received = next().into_text();
     let recorded = next().into_text().unwrap_or_default();
-    let line = next().into_text();
-    let grade = next().into_text();
-    let status = next().into_text().unwrap_or_default();
-    let symptoms = split_words(next().text());
-    let confirmed = split_words(next().text());
+    let facts = facts_from(&mut next);
     let ranked_first = split_words(next().text()).into_iter().next();
     ComplaintSummary {
         id,
         version,
-        reference,
-        title,
-        received,
+        reference: facts.reference,
+        title: facts.title,
+        received: facts.received,
         recorded,
-        line,
-        grade,
-        status,
-        symptoms,
-        confirmed,
+        line: facts.line,
+        grade: facts.grade,
+        status: facts.status,
+        symptoms: facts.symptoms,
+        confirmed: facts.confirmed,
         ranked_first,
     }
 }
@@ -743,14 +760,7 @@ fn scan_from_row(row: Row) -> ScanRow {
     let mut next = || it.next().unwrap_or(Value::Text(None));
     ScanRow {
         id: next().int().unwrap_or(0),
-        reference: next().into_text(),
-        title: next().into_text().unwrap_or_default(),
-        received: next().into_text(),
-        line: next().into_text(),
-        grade: next().into_text(),
-        status: next().into_text().unwrap_or_default(),
-        symptoms: split_words(next().text()),
-        confirmed: split_words(next().text()),
+        facts: facts_from(&mut next),
         ranked: split_words(next().text()),
     }
 }

@@ -74,6 +74,8 @@ pub struct DesignOptions {
     pub grid: (usize, usize),
     /// Resolution of the before/after solves that the limits are finally checked on.
     pub verify_resolution: Resolution,
+    /// Most solver work the design may do, in wrap-steps ([`super::budget::solve_work`]).
+    pub work_budget: u64,
 }
 
 impl Default for DesignOptions {
@@ -86,6 +88,7 @@ impl Default for DesignOptions {
             search_elements: 120,
             grid: (11, 9),
             verify_resolution: Resolution::Auto,
+            work_budget: super::budget::DEFAULT_WORK_BUDGET,
         }
     }
 }
@@ -229,6 +232,9 @@ pub struct TaperDesign {
     pub explanation: Vec<String>,
     /// Solver runs used.
     pub solves: usize,
+    /// Solver work used, in wrap-steps (the budget's unit).
+    #[serde(skip)]
+    pub work: u64,
 }
 
 /// Errors of the taper design.
@@ -246,6 +252,28 @@ pub enum TaperError {
         /// The case field at fault.
         field: &'static str,
         reason: &'static str,
+    },
+    /// Even the least search on this roll needs more work than the budget: refused before any
+    /// solve.
+    #[error(
+        "the roll has {wraps} wraps: even the smallest taper search on it needs about {needed} million wrap-steps of solver work, more than the design's budget of {budget} million (it would run for minutes); a typical taper search fits rolls of up to about {largest_wraps} wraps at this caliper"
+    )]
+    OverBudget {
+        wraps: usize,
+        /// Millions of wrap-steps.
+        needed: u64,
+        budget: u64,
+        /// The largest roll a typical search fits in.
+        largest_wraps: usize,
+    },
+    /// The search used its budget before it settled on a schedule.
+    #[error(
+        "the taper search on this {wraps}-wrap roll used its budget of {budget} million wrap-steps of solver work ({solves} solves) before it settled on a schedule; no design is given"
+    )]
+    BudgetUsedUp {
+        wraps: usize,
+        solves: usize,
+        budget: u64,
     },
     /// Every searched schedule failed to solve and no solver error was kept.
     #[error("the case cannot be designed for: no schedule could be solved")]

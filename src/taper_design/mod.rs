@@ -16,7 +16,10 @@
 //! resolution; the chosen schedule is re-solved at the normal resolution and checked again.
 //! When no schedule meets every limit the pairs of limits that cannot hold together are found
 //! from the same evaluations and the most conflicting pair is named with what to relax.
+//! The search runs within a work budget ([`budget`]): a roll too large for it is refused at
+//! once, and a search that uses the budget up ends with a message instead of running on.
 
+pub mod budget;
 mod limits;
 pub mod nelder_mead;
 #[cfg(test)]
@@ -316,7 +319,31 @@ pub fn design_with(
     let cx = Context { case, limits };
     let verify = options.verify_resolution;
     let mut solves = 0usize;
+    let search = Resolution::Elements {
+        count: options.search_elements.max(10),
+    };
+    let (nu, nv) = (options.grid.0.max(3), options.grid.1.max(2));
+    let layers = crate::model::layer_count_between(rc, big_r, case.web.thickness);
+    let budget = std::cell::Cell::new(budget::Budget::new(
+        options.work_budget,
+        layers,
+        search,
+        verify,
+    ));
+    budget.get().check_start(nu * nv + nv, search, verify)?;
+    // Charge a solve before it runs; an error once the budget is used up.
+    let charge = |resolution: Resolution, solves: usize| -> Result<(), TaperError> {
+        let mut b = budget.get();
+        let work = budget::solve_work(b.layers, resolution);
+        if b.charge(work) {
+            budget.set(b);
+            Ok(())
+        } else {
+            Err(b.exhausted(solves))
+        }
+    };
 
+    charge(verify, solves)?;
     let before = evaluate(case, &case.winding.tension, limits, verify)?;
     solves += 1;
 
@@ -370,6 +397,7 @@ pub fn design_with(
             conflict: None,
             explanation,
             solves,
+            work: budget.get().used,
         });
     }
 
@@ -386,9 +414,6 @@ pub fn design_with(
     let target = current.min(allowed_tension * (1.0 - options.design_margin));
     let start_of = |u: f64| t_low * (t_high / t_low).powf(u);
     let to_u = |start: f64| ((start / t_low).ln() / (t_high / t_low).ln()).clamp(0.0, 1.0);
-    let search = Resolution::Elements {
-        count: options.search_elements.max(10),
-    };
     let schedule_of = |start: f64, fraction: f64| {
         build_schedule(options.shape, options.steps, start, fraction, rc, big_r)
     };
@@ -401,6 +426,10 @@ pub fn design_with(
             .find(|t| t.start == start && t.fraction == fraction)
         {
             return Some(*t);
+        }
+        // Over budget: no more solves; the search stops at its next check.
+        if charge(search, trials.len()).is_err() {
+            return None;
         }
         match evaluate(case, &schedule_of(start, fraction), limits, search) {
             Ok(e) => {
@@ -432,7 +461,6 @@ pub fn design_with(
             + 20.0 * shortfall
     };
 
-    let (nu, nv) = (options.grid.0.max(3), options.grid.1.max(2));
     for i in 0..nu {
         for j in 0..nv {
             let u = i as f64 / (nu - 1) as f64;
@@ -449,6 +477,7 @@ pub fn design_with(
     }
 
     // First corrections: the current schedule at both resolutions.
+    charge(search, solves + trials.len())?;
     let mut k = match evaluate(case, &case.winding.tension, limits, search) {
         Ok(e) => Corrections::between(&e.checks, &before.checks),
         Err(_) => Corrections::NONE,
@@ -593,6 +622,8 @@ pub fn design_with(
             .min_by(|a, b| score(a).total_cmp(&score(b)))
             .unwrap_or(&best);
         previous_best_fraction = Some(candidate.fraction);
+        charge(verify, solves + trials.len())?;
+        charge(search, solves + trials.len())?;
         let e = evaluate(
             case,
             &schedule_of(candidate.start, candidate.fraction),
@@ -636,6 +667,7 @@ pub fn design_with(
                 .iter()
                 .max_by(|a, b| a.worst(k, &cx).total_cmp(&b.worst(k, &cx)))
                 .unwrap_or(&trials[0]);
+            charge(verify, solves)?;
             let e = evaluate(case, &schedule_of(t.start, t.fraction), limits, verify)?;
             solves += 1;
             (t, e)
@@ -684,5 +716,6 @@ pub fn design_with(
         table,
         explanation,
         solves,
+        work: budget.get().used,
     })
 }

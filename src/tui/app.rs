@@ -53,7 +53,7 @@ pub enum AppError {
     #[error("the results are out of date: solve again first")]
     Stale,
     #[error("no diagnosis to report: {0}")]
-    NoDiagnosis(String),
+    NoDiagnosis(super::job::JobError),
     #[error(transparent)]
     Report(#[from] crate::report::ReportError),
     #[error(transparent)]

@@ -1,15 +1,76 @@
 //! The background solver: resolve the case, solve the wound-roll stresses, diagnose — on a
 //! worker thread, reporting progress and the result over a channel so the UI never waits.
-//! A newer request of the same purpose cancels the older one.
+//! A newer request of the same purpose cancels the older one. Results pass the same guard on
+//! numbers as the command line's ([`crate::finite`]): a NaN or infinity comes back as a
+//! [`JobError::NotFinite`] the screens show in words, never as "NaN" on a plot or a figure.
 
 use std::sync::Arc;
 use std::sync::atomic::{AtomicBool, Ordering};
 use std::sync::mpsc::{Receiver, Sender, channel};
 
-use crate::case::{Case, ResolvedCase};
+use crate::case::{Case, CaseError, ResolvedCase};
 use crate::diagnose::pipeline::CaseInputs;
 use crate::diagnose::{DiagnoseError, DiagnoseOptions, Diagnosis, rules::RuleBase};
+use crate::finite::{NonFinite, ensure_finite};
 use crate::model::Profile;
+use crate::taper_design::{TaperDesign, TaperError, TaperLimits};
+
+/// Why a job (or its diagnosis) gave no result. The library errors are shared (`Arc`) so a
+/// message can be cloned into the screens' state; the text is what the screens show.
+#[derive(Debug, Clone, thiserror::Error)]
+pub enum JobError {
+    /// The case could not be resolved.
+    #[error("inputs: {0}")]
+    Inputs(Arc<CaseError>),
+    /// The stress solve (or the rule base it needs) failed.
+    #[error("stress solve: {0}")]
+    Solve(Arc<DiagnoseError>),
+    /// The stresses are fine but the diagnosis failed (e.g. rule trouble).
+    #[error("diagnosis: {0}")]
+    Diagnosis(Arc<DiagnoseError>),
+    #[error("taper design: {0}")]
+    Design(Arc<TaperError>),
+    /// A result held a NaN or infinity: the inputs are outside what the model can compute.
+    /// Shown in words, without the raw value the command line names.
+    #[error(
+        "{}: {} could not be computed; the inputs are outside what the model can handle: {}",
+        .0.what,
+        .0.field,
+        .0.hint
+    )]
+    NotFinite(NonFinite),
+    /// The worker panicked (caught; the UI stays up).
+    #[error(
+        "the solver stopped unexpectedly (internal error){}",
+        with_space(detail)
+    )]
+    Stopped { detail: String },
+    #[error("cannot start the solver thread: {0}")]
+    NoThread(Arc<std::io::Error>),
+}
+
+fn with_space(detail: &str) -> String {
+    if detail.trim().is_empty() {
+        String::new()
+    } else {
+        format!(" {}", detail.trim_end())
+    }
+}
+
+/// Two errors are equal when they are of the same kind and read the same (the library errors
+/// inside do not all compare).
+impl PartialEq for JobError {
+    fn eq(&self, other: &JobError) -> bool {
+        std::mem::discriminant(self) == std::mem::discriminant(other)
+            && self.to_string() == other.to_string()
+    }
+}
+
+impl From<CaseError> for JobError {
+    fn from(error: CaseError) -> JobError {
+        JobError::Inputs(Arc::new(error))
+    }
+}
 
 /// Why a solve was asked for; results are filed under their purpose.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Hash)]
@@ -51,7 +112,7 @@ pub struct SolveOutcome {
     pub resolved: ResolvedCase,
     pub profile: Profile,
     /// The diagnosis can fail on its own (e.g. rule trouble) while the stresses are fine.
-    pub diagnosis: Result<Diagnosis, String>,
+    pub diagnosis: Result<Diagnosis, JobError>,
 }
 
 #[derive(Debug, Clone, PartialEq)]
@@ -64,23 +125,24 @@ pub enum JobMessage {
         id: u64,
         purpose: Purpose,
         generation: u64,
-        result: Result<Box<SolveOutcome>, String>,
+        result: Result<Box<SolveOutcome>, JobError>,
     },
     DesignFinished {
         id: u64,
         generation: u64,
-        result: Result<Box<crate::taper_design::TaperDesign>, String>,
+        result: Result<Box<TaperDesign>, JobError>,
     },
 }
 
 /// Resolve, solve and diagnose `case` on the calling thread, through the triage pipeline.
-/// `progress(fraction)` returning false cancels the solve.
+/// `progress(fraction)` returning false cancels the solve. A profile or diagnosis holding a NaN
+/// or infinity is refused like the command line refuses it.
 pub fn run_pipeline(
     case: &Case,
     resolved: Option<&ResolvedCase>,
     rules: &RuleBase,
     progress: crate::diagnose::pipeline::Progress<'_>,
-) -> Result<SolveOutcome, String> {
+) -> Result<SolveOutcome, JobError> {
     let inputs = match resolved {
         Some(resolved) => CaseInputs::Resolved(resolved),
         None => CaseInputs::File(case),
@@ -92,40 +154,47 @@ pub fn run_pipeline(
     };
     let triage = crate::diagnose::pipeline::triage(rules, inputs, &options, progress).map_err(
         |e| match e {
-            DiagnoseError::Case(e) => format!("inputs: {e}"),
-            e => format!("stress solve: {e}"),
+            DiagnoseError::Case(e) => JobError::Inputs(Arc::from(e)),
+            e => JobError::Solve(Arc::new(e)),
         },
     )?;
+    ensure_finite("the stress profile", &triage.profile).map_err(JobError::NotFinite)?;
+    let diagnosis = match triage.diagnosis {
+        Ok(diagnosis) => ensure_finite("the diagnosis", &diagnosis)
+            .map(|()| diagnosis)
+            .map_err(JobError::NotFinite),
+        Err(e) => Err(JobError::Diagnosis(Arc::new(e))),
+    };
     Ok(SolveOutcome {
         resolved: triage.resolved,
         profile: triage.profile,
-        diagnosis: triage.diagnosis.map_err(|e| format!("diagnosis: {e}")),
+        diagnosis,
     })
 }
 
 /// Design a taper for the request's case with the default limits.
-fn design_taper(request: &JobRequest) -> Result<crate::taper_design::TaperDesign, String> {
+fn design_taper(request: &JobRequest) -> Result<TaperDesign, JobError> {
     let resolved = match &request.resolved {
         Some(resolved) => resolved.as_ref().clone(),
-        None => request.case.resolve().map_err(|e| format!("inputs: {e}"))?,
+        None => request.case.resolve()?,
     };
-    crate::taper_design::design(&resolved, &crate::taper_design::TaperLimits::default())
-        .map_err(|e| format!("taper design: {e}"))
+    let design = crate::taper_design::design(&resolved, &TaperLimits::default())
+        .map_err(|e| JobError::Design(Arc::new(e)))?;
+    ensure_finite("the taper design", &design).map_err(JobError::NotFinite)?;
+    Ok(design)
 }
 
 /// Name of solver threads; the panic hook leaves the terminal alone for panics on them (they
 /// are caught and reported in the UI).
 pub const SOLVER_THREAD_NAME: &str = "rolltriage-solver";
 
-fn panic_text(payload: &(dyn std::any::Any + Send)) -> String {
+fn panic_error(payload: &(dyn std::any::Any + Send)) -> JobError {
     let detail = payload
         .downcast_ref::<&str>()
         .map(|s| s.to_string())
         .or_else(|| payload.downcast_ref::<String>().cloned())
         .unwrap_or_default();
-    format!("the solver stopped unexpectedly (internal error) {detail}")
-        .trim_end()
-        .to_string()
+    JobError::Stopped { detail }
 }
 
 /// Starts solves on worker threads and collects their messages.
@@ -170,7 +239,7 @@ impl JobRunner {
                 .name(SOLVER_THREAD_NAME.into())
                 .spawn(move || {
                     let result = std::panic::catch_unwind(|| design_taper(&request))
-                        .unwrap_or_else(|payload| Err(panic_text(payload.as_ref())));
+                        .unwrap_or_else(|payload| Err(panic_error(payload.as_ref())));
                     let _ = sender.send(JobMessage::DesignFinished {
                         id,
                         generation,
@@ -181,7 +250,7 @@ impl JobRunner {
                 let _ = failure_sender.send(JobMessage::DesignFinished {
                     id,
                     generation,
-                    result: Err(format!("cannot start the solver thread: {error}")),
+                    result: Err(JobError::NoThread(Arc::new(error))),
                 });
             }
             return;
@@ -207,7 +276,7 @@ impl JobRunner {
                         &mut progress,
                     )
                 }))
-                .unwrap_or_else(|payload| Err(panic_text(payload.as_ref())));
+                .unwrap_or_else(|payload| Err(panic_error(payload.as_ref())));
                 let _ = sender.send(JobMessage::Finished {
                     id,
                     purpose,
@@ -220,7 +289,7 @@ impl JobRunner {
                 id,
                 purpose,
                 generation,
-                result: Err(format!("cannot start the solver thread: {error}")),
+                result: Err(JobError::NoThread(Arc::new(error))),
             });
         }
     }

@@ -14,13 +14,13 @@ use super::catalogue::Catalogue;
 use super::component::Action;
 use super::fields::PresetFamily;
 use super::history_job::{HistoryRequest, HistoryTask};
-use super::job::{JobRequest, Purpose, SolveOutcome, Task};
+use super::job::{JobError, JobRequest, Purpose, SolveOutcome, Task};
 
 /// Latest finished baseline solve.
 #[derive(Debug, Clone, PartialEq)]
 pub struct Baseline {
     pub generation: u64,
-    pub result: Result<Box<SolveOutcome>, String>,
+    pub result: Result<Box<SolveOutcome>, JobError>,
 }
 
 #[derive(Debug, Clone, Copy, PartialEq)]

@@ -11,8 +11,8 @@ use rolltriage::case::{
     ObservedSymptom, ResolvedCase, ResolvedCore, ResolvedRoll, ResolvedWeb, ResolvedWinding,
 };
 use rolltriage::model::{
-    CoreStiffness, Profile, RadialStiffness, Resolution, SolverOptions, Taper, TensionSchedule,
-    UpsetBand, WindingMethod,
+    CoreStiffness, Profile, RadialStiffness, Resolution, SolverOptions, Taper, UpsetBand,
+    WindingMethod,
 };
 
 /// Newsprint-like paper, 45 g/m², 75 µm; values typical of the grade (from memory).
@@ -42,27 +42,13 @@ pub fn newsprint(title: &str) -> ResolvedCase {
             outer_diameter: 1.0,
             length: 0.0,
         },
-        winding: ResolvedWinding {
-            method: WindingMethod::Centre,
-            tension: TensionSchedule {
-                start_tension: 350.0,
-                taper: Taper::Linear { fraction: 0.2 },
-                upsets: vec![],
-            },
-            nip_load: Some(350.0),
-            nip_programme: None,
-            nip_plateau: rolltriage::model::winder::NIP_MODEL_LIMIT,
-            centre_torque: None,
-            drums: None,
-            speed: 15.0,
-            temperature: None,
-            acceleration_time: None,
-            recipe_tension: None,
-            stop_time: None,
-            emergency_stop_time: None,
-            unwind_tension: None,
-            handling_shock_factor: None,
-        },
+        winding: crate::fixtures::winding(
+            WindingMethod::Centre,
+            350.0,
+            Taper::Linear { fraction: 0.2 },
+            Some(350.0),
+            15.0,
+        ),
         symptoms: vec![],
         answers: BTreeMap::new(),
         assumed: vec![],
@@ -98,25 +84,14 @@ pub fn pet_film(title: &str) -> ResolvedCase {
             length: 0.0,
         },
         winding: ResolvedWinding {
-            method: WindingMethod::Centre,
-            tension: TensionSchedule {
-                start_tension: 120.0,
-                taper: Taper::Linear { fraction: 0.25 },
-                upsets: vec![],
-            },
-            nip_load: Some(350.0),
-            nip_programme: None,
-            nip_plateau: rolltriage::model::winder::NIP_MODEL_LIMIT,
-            centre_torque: None,
-            drums: None,
-            speed: 4.0,
             temperature: Some(25.0),
-            acceleration_time: None,
-            recipe_tension: None,
-            stop_time: None,
-            emergency_stop_time: None,
-            unwind_tension: None,
-            handling_shock_factor: None,
+            ..crate::fixtures::winding(
+                WindingMethod::Centre,
+                120.0,
+                Taper::Linear { fraction: 0.25 },
+                Some(350.0),
+                4.0,
+            )
         },
         symptoms: vec![],
         answers: BTreeMap::new(),

@@ -5,6 +5,8 @@
 //! linked once per area instead of once per file. See DEVELOPERS.md, "Tests".
 
 mod common;
+#[path = "../shared/fixtures.rs"]
+mod fixtures;
 
 mod cli;
 mod evidence_compare;

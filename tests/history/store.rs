@@ -245,7 +245,10 @@ fn eight_writer_processes_lose_nothing() {
     assert!(store.integrity_ok().unwrap());
     assert_eq!(store.count().unwrap(), (WRITERS * PER_WRITER) as i64);
     let rows = store.scan().unwrap();
-    let mut references: Vec<String> = rows.iter().filter_map(|r| r.reference.clone()).collect();
+    let mut references: Vec<String> = rows
+        .iter()
+        .filter_map(|r| r.facts.reference.clone())
+        .collect();
     references.sort();
     references.dedup();
     assert_eq!(references.len(), WRITERS * PER_WRITER);
@@ -363,7 +366,7 @@ fn a_writer_killed_mid_write_leaves_the_store_consistent() {
         let c = store.get(r.id).unwrap();
         assert_eq!(c.versions.len(), 1);
         assert_eq!(
-            c.versions[0].complaint.reference, r.reference,
+            c.versions[0].complaint.reference, r.facts.reference,
             "complaint {} does not match its version",
             r.id
         );

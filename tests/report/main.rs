@@ -4,4 +4,6 @@
 //! linked once per area instead of once per file. See DEVELOPERS.md, "Tests".
 
 mod demo;
+#[path = "../shared/fixtures.rs"]
+mod fixtures;
 mod render;

@@ -5,13 +5,11 @@ use std::collections::BTreeMap;
 
 use rolltriage::case::{
     AssumedValue, Case, ObservedSymptom, ResolvedCase, ResolvedCore, ResolvedRoll, ResolvedWeb,
-    ResolvedWinding,
 };
 use rolltriage::diagnose::sensitivity::{InputSensitivity, Sensitivity, Trial};
 use rolltriage::diagnose::{Caution, Diagnosis, MergedRemedy, RankedCause, Reason, WhatIf};
 use rolltriage::model::{
-    CoreStiffness, Profile, ProfileSummary, RadialStiffness, Taper, TensionSchedule, WindingMethod,
-    Zone, ZoneName,
+    CoreStiffness, Profile, ProfileSummary, RadialStiffness, Taper, WindingMethod, Zone, ZoneName,
 };
 use rolltriage::report::{
     Format, RemedyComparison, ReportInput, ReportMeta, build_document, plots, render,
@@ -120,27 +118,13 @@ fn fixture(with_remedy: bool) -> ReportInput {
             outer_diameter: 2.0 * OUTER_RADIUS,
             length: 9800.0,
         },
-        winding: ResolvedWinding {
-            method: WindingMethod::CentreSurface,
-            tension: TensionSchedule {
-                start_tension: 87.6,
-                taper: Taper::None,
-                upsets: vec![],
-            },
-            nip_load: Some(150.0),
-            nip_programme: None,
-            nip_plateau: rolltriage::model::winder::NIP_MODEL_LIMIT,
-            centre_torque: None,
-            drums: None,
-            speed: 15.0,
-            temperature: None,
-            acceleration_time: None,
-            recipe_tension: None,
-            stop_time: None,
-            emergency_stop_time: None,
-            unwind_tension: None,
-            handling_shock_factor: None,
-        },
+        winding: crate::fixtures::winding(
+            WindingMethod::CentreSurface,
+            87.6,
+            Taper::None,
+            Some(150.0),
+            15.0,
+        ),
         symptoms: case.symptoms.clone(),
         answers,
         assumed: vec![AssumedValue {

@@ -2,19 +2,7 @@
 //! value is a usage error like an unknown option; units the docs name are accepted, and the
 //! documented limits are the ones the code applies.
 
-use std::process::Command;
-
-fn run(args: &[&str]) -> (Option<i32>, String) {
-    let output = Command::new(env!("CARGO_BIN_EXE_rolltriage"))
-        .args(args)
-        .current_dir(env!("CARGO_MANIFEST_DIR"))
-        .output()
-        .unwrap();
-    (
-        output.status.code(),
-        String::from_utf8_lossy(&output.stderr).into_owned(),
-    )
-}
+use crate::support::run;
 
 const CASE: &str = "cases/harbour_newsprint_telescoping.yaml";
 

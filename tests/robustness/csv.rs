@@ -1,29 +1,14 @@
 //! Issue 14, item 8: stack-test CSV read exactly: extra cells beyond the header are an error,
 //! CR-only line endings are read, and a size limit like the case files'.
 
-use std::path::{Path, PathBuf};
+use crate::support::{root, run};
+use std::path::Path;
 use std::process::Command;
 
 use rolltriage::calibrate::{
     FitOptions, MAX_STACK_FILE_BYTES, StackReadOptions, fit_pfeiffer, parse_stack_csv,
     read_stack_file,
 };
-
-fn root() -> PathBuf {
-    PathBuf::from(env!("CARGO_MANIFEST_DIR"))
-}
-
-fn run(args: &[&str]) -> (Option<i32>, String) {
-    let out = Command::new(env!("CARGO_BIN_EXE_rolltriage"))
-        .args(args)
-        .current_dir(root())
-        .output()
-        .unwrap();
-    (
-        out.status.code(),
-        String::from_utf8_lossy(&out.stderr).into_owned(),
-    )
-}
 
 #[test]
 fn decimal_comma_rows_are_refused_naming_the_line() {
@@ -102,11 +87,10 @@ fn material_libraries_have_the_same_size_limit_and_refuse_pipes() {
     use rolltriage::calibrate::MaterialLibrary;
     let dir = tempfile::tempdir().unwrap();
     let path = dir.path().join("materials.yaml");
-    let mut text = String::from("format: rolltriage-materials 1\nmaterials: []\n");
-    while (text.len() as u64) <= rolltriage::case::MAX_CASE_FILE_BYTES {
-        text.push_str("# padding padding padding padding padding padding padding padding\n");
-    }
-    std::fs::write(&path, &text).unwrap();
+    crate::support::write_past_the_size_limit(
+        &path,
+        "format: rolltriage-materials 1\nmaterials: []\n",
+    );
     let message = MaterialLibrary::load_or_new(&path).unwrap_err().to_string();
     assert!(message.contains("materials.yaml"), "{message}");
     assert!(message.contains("1 MiB"), "{message}");

@@ -12,6 +12,7 @@
 //! `ROLLTRIAGE_MUTANTS=200000 ROLLTRIAGE_SEED=7 cargo test --release --test mutation_harness -- --ignored`
 //! A failing mutant is written to target/mutants/ with the seed and index that made it.
 
+use crate::support::root;
 use std::panic::AssertUnwindSafe;
 use std::path::{Path, PathBuf};
 use std::process::{Command, Stdio};
@@ -27,10 +28,6 @@ use rolltriage::diagnose::{DiagnoseOptions, rules::RuleBase, triage};
 /// Wall-clock budget of one in-process mutant (solve and diagnosis included). Generous: the
 /// machine running CI is shared; real hangs run forever.
 const BUDGET: Duration = Duration::from_secs(20);
-
-fn root() -> PathBuf {
-    PathBuf::from(env!("CARGO_MANIFEST_DIR"))
-}
 
 /// xorshift64*: small, seeded, the same on every platform.
 struct Rng(u64);

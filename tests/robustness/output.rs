@@ -2,15 +2,12 @@
 //! and no NaN or infinity leaves the program with exit 0. The reproducers live in
 //! tests/hardening/.
 
-use std::path::{Path, PathBuf};
+use crate::support::root;
+use std::path::Path;
 use std::process::{Command, Stdio};
 
 fn bin() -> Command {
     Command::new(env!("CARGO_BIN_EXE_rolltriage"))
-}
-
-fn root() -> PathBuf {
-    PathBuf::from(env!("CARGO_MANIFEST_DIR"))
 }
 
 const CASE: &str = "cases/harbour_newsprint_telescoping.yaml";

@@ -3,24 +3,8 @@
 //! byte-for-byte as it was; comments survive the edit (or the user must agree to lose them);
 //! no number is written with hundreds of digits.
 
+use crate::support::{root, run};
 use std::path::{Path, PathBuf};
-use std::process::Command;
-
-fn root() -> PathBuf {
-    PathBuf::from(env!("CARGO_MANIFEST_DIR"))
-}
-
-fn run(args: &[&str]) -> (Option<i32>, String) {
-    let out = Command::new(env!("CARGO_BIN_EXE_rolltriage"))
-        .args(args)
-        .current_dir(root())
-        .output()
-        .unwrap();
-    (
-        out.status.code(),
-        String::from_utf8_lossy(&out.stderr).into_owned(),
-    )
-}
 
 fn case_copy(dir: &Path, text_edit: impl Fn(String) -> String) -> PathBuf {
     let text =

@@ -2,7 +2,7 @@
 //! whose limits conflict is reported infeasible with the pair named; a weak core gets a steeper
 //! taper than a strong one (common practice).
 
-use rolltriage::case::{ResolvedCase, ResolvedCore, ResolvedRoll, ResolvedWeb, ResolvedWinding};
+use rolltriage::case::{ResolvedCase, ResolvedCore, ResolvedRoll, ResolvedWeb};
 use rolltriage::model::{
     CoreStiffness, RadialStiffness, Resolution, SolverOptions, Taper, TensionSchedule,
     WindingMethod, solve,
@@ -52,27 +52,13 @@ fn film_roll(crush_pressure: f64, start_tension: f64) -> ResolvedCase {
             outer_diameter: 0.17,
             length: 0.0,
         },
-        winding: ResolvedWinding {
-            method: WindingMethod::Centre,
-            tension: TensionSchedule {
-                start_tension,
-                taper: Taper::None,
-                upsets: vec![],
-            },
-            nip_load: None,
-            nip_programme: None,
-            nip_plateau: rolltriage::model::winder::NIP_MODEL_LIMIT,
-            centre_torque: None,
-            drums: None,
-            speed: 5.0,
-            temperature: None,
-            acceleration_time: None,
-            recipe_tension: None,
-            stop_time: None,
-            emergency_stop_time: None,
-            unwind_tension: None,
-            handling_shock_factor: None,
-        },
+        winding: crate::fixtures::winding(
+            WindingMethod::Centre,
+            start_tension,
+            Taper::None,
+            None,
+            5.0,
+        ),
         symptoms: vec![],
         answers: Default::default(),
         assumed: vec![],

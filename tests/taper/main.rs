@@ -3,6 +3,9 @@
 //! One test binary per area (each module a former stand-alone test file), so the crate is
 //! linked once per area instead of once per file. See DEVELOPERS.md, "Tests".
 
+mod budget;
 mod cli;
 mod design;
 mod programme;
+#[path = "../shared/fixtures.rs"]
+mod fixtures;

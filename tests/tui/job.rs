@@ -6,7 +6,7 @@ use std::time::{Duration, Instant};
 
 use rolltriage::case::Case;
 use rolltriage::diagnose::rules::RuleBase;
-use rolltriage::tui::job::{JobMessage, JobRequest, JobRunner, Purpose, Task};
+use rolltriage::tui::job::{JobError, JobMessage, JobRequest, JobRunner, Purpose, Task};
 
 /// A small roll (core 101.6 mm, roll 130 mm: about 190 wraps of newsprint) so the solve is quick
 /// in a debug build.
@@ -94,8 +94,8 @@ fn bad_inputs_come_back_as_an_error_message_not_a_panic() {
         JobMessage::Finished { result, .. } => {
             // Caught when the case is resolved (or, failing that, by the diagnosis).
             let error = match result {
-                Err(error) => error,
-                Ok(outcome) => outcome.diagnosis.expect_err("unknown symptom"),
+                Err(error) => error.to_string(),
+                Ok(outcome) => outcome.diagnosis.expect_err("unknown symptom").to_string(),
             };
             assert!(error.contains("did you mean `telescoping`"), "{error}");
         }
@@ -114,4 +114,22 @@ fn a_newer_request_replaces_the_older_one() {
         JobMessage::Finished { result, .. } => assert!(result.is_ok()),
         other => panic!("unexpected {other:?}"),
     }
+}
+
+#[test]
+fn a_result_that_could_not_be_computed_comes_back_as_an_error_not_as_nan() {
+    // Issue 14, item 3 in the terminal UI: a constant radial modulus of 1e-300 Pa gives NaN core
+    // pressures (the command line refuses the result; the UI must too). Passed as an already
+    // resolved case, as the what-if passes a changed one, so no input range stops it first.
+    let mut resolved = small_case().resolve().unwrap();
+    resolved.web.radial_stiffness =
+        rolltriage::model::RadialStiffness::Constant { modulus: 1e-300 };
+    let rules = RuleBase::embedded().unwrap();
+    let error =
+        rolltriage::tui::job::run_pipeline(&small_case(), Some(&resolved), &rules, &mut |_| true)
+            .expect_err("NaN pressures are refused");
+    assert!(matches!(error, JobError::NotFinite(_)), "{error:?}");
+    let text = error.to_string();
+    assert!(text.contains("the stress profile"), "{text}");
+    assert!(text.contains("could not be computed"), "{text}");
 }

@@ -4,6 +4,8 @@
 //! One test binary per area (each module a former stand-alone test file), so the crate is
 //! linked once per area instead of once per file. See DEVELOPERS.md, "Tests".
 
+#[path = "../shared/fixtures.rs"]
+mod fixtures;
 mod tui_support;
 
 mod job;

@@ -118,6 +118,29 @@ fn results_while_solving() {
 }
 
 #[test]
+fn a_result_with_nan_shows_a_plain_message_on_the_results_screen() {
+    // The job refuses a profile with a NaN (crate::finite, as the command line does); the
+    // results screen says so in words and never draws "NaN".
+    let mut app = app();
+    app.set_case(sample_case(), None);
+    let request = app.take_requests().pop().unwrap();
+    let error =
+        rolltriage::finite::ensure_finite("the stress profile", &[1.0, f64::NAN]).unwrap_err();
+    app.on_job(rolltriage::tui::job::JobMessage::Finished {
+        id: request.id,
+        purpose: request.purpose,
+        generation: request.generation,
+        result: Err(rolltriage::tui::job::JobError::NotFinite(error)),
+    });
+    for (w, h) in SIZES {
+        let screen = draw(&app, w, h);
+        assert!(screen.contains("No results"), "{screen}");
+        assert!(screen.contains("could not be"), "{screen}");
+        assert!(!screen.contains("NaN"), "{screen}");
+    }
+}
+
+#[test]
 fn what_if_screen_before_and_after() {
     let mut app = with_results();
     app.session.resolved = Ok(resolved("Sample"));

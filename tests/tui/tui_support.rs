@@ -8,14 +8,12 @@ use std::collections::BTreeMap;
 
 use rolltriage::case::{
     AssumedValue, Case, ObservedSymptom, ResolvedCase, ResolvedCore, ResolvedRoll, ResolvedWeb,
-    ResolvedWinding,
 };
 use rolltriage::diagnose::indicators::IndicatorValue;
 use rolltriage::diagnose::rules::SettingChange;
 use rolltriage::diagnose::{Caution, Diagnosis, MergedRemedy, RankedCause, Reason};
 use rolltriage::model::{
-    CoreStiffness, Profile, ProfileSummary, RadialStiffness, Taper, TensionSchedule, WindingMethod,
-    Zone, ZoneName,
+    CoreStiffness, Profile, ProfileSummary, RadialStiffness, Taper, WindingMethod, Zone, ZoneName,
 };
 use rolltriage::tui::app::App;
 use rolltriage::tui::catalogue::{Catalogue, QuestionInfo};
@@ -111,27 +109,7 @@ pub fn resolved(title: &str) -> ResolvedCase {
             outer_diameter: 1.0,
             length: 9000.0,
         },
-        winding: ResolvedWinding {
-            method: WindingMethod::Centre,
-            tension: TensionSchedule {
-                start_tension: 525.0,
-                taper: Taper::None,
-                upsets: vec![],
-            },
-            nip_load: None,
-            nip_programme: None,
-            nip_plateau: rolltriage::model::winder::NIP_MODEL_LIMIT,
-            centre_torque: None,
-            drums: None,
-            speed: 10.0,
-            temperature: None,
-            acceleration_time: None,
-            recipe_tension: None,
-            stop_time: None,
-            emergency_stop_time: None,
-            unwind_tension: None,
-            handling_shock_factor: None,
-        },
+        winding: crate::fixtures::winding(WindingMethod::Centre, 525.0, Taper::None, None, 10.0),
         symptoms: vec![],
         answers: BTreeMap::new(),
         assumed: vec![],

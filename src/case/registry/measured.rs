@@ -1,25 +1,11 @@
 //! Registry entries of the `measurements` section (docs/evidence.md): what was measured on the
 //! bad roll. Listed in [`super::FIELDS`] after `notes`.
 
-use super::{DefaultValue, Field, FieldKind, above, from, plain_above, plain_from};
+use super::{DefaultValue, Field, FieldKind, above, from, plain, plain_above, plain_from};
 use crate::units::QuantityKind as Q;
 
 use DefaultValue::{Fixed, Required, Rule};
 use FieldKind::{Choice, List, Number, Quantity, Section, Text};
-
-const fn plain(path: &'static str, label: &'static str, kind: FieldKind) -> Field {
-    Field {
-        path,
-        label,
-        form: None,
-        kind,
-        range: None,
-        accepted_also: "",
-        default: Rule("none"),
-        help: "",
-        example: "",
-    }
-}
 
 const YES_NO: &[&str] = &["true", "false"];
 

@@ -28,6 +28,22 @@ pub struct Range {
     pub kind: Option<QuantityKind>,
 }
 
+/// A field with no range, no form row and nothing else required: the common case for
+/// sections, text and lists (the entry tables start from it with `..plain(…)`).
+pub(crate) const fn plain(path: &'static str, label: &'static str, kind: FieldKind) -> Field {
+    Field {
+        path,
+        label,
+        form: None,
+        kind,
+        range: None,
+        accepted_also: "",
+        default: DefaultValue::Rule("none"),
+        help: "",
+        example: "",
+    }
+}
+
 /// `min < value <= max`, a quantity.
 pub const fn above(min: f64, max: f64, kind: QuantityKind) -> Range {
     Range {

@@ -1,7 +1,9 @@
 //! The entries of the field registry: one constant per case-file key and [`FIELDS`], the list
 //! in schema order.
 
-use super::{DefaultValue, Field, FieldKind, PresetFamily, above, from, plain_above, plain_from};
+use super::{
+    DefaultValue, Field, FieldKind, PresetFamily, above, from, plain, plain_above, plain_from,
+};
 use crate::units::QuantityKind;
 use crate::vocabulary::{
     CoreMaterial, Place, RadialLaw, TaperKind, WINDING_METHOD_IDS, WebMaterial,
@@ -13,22 +15,6 @@ use QuantityKind as Q;
 
 /// Core support states, as written in case files.
 pub const CORE_SUPPORTS: &[&str] = &["free", "shaft"];
-
-/// A field with no range, no form row and nothing else required: the common case for
-/// sections, text and lists.
-pub(super) const fn plain(path: &'static str, label: &'static str, kind: FieldKind) -> Field {
-    Field {
-        path,
-        label,
-        form: None,
-        kind,
-        range: None,
-        accepted_also: "",
-        default: Rule("none"),
-        help: "",
-        example: "",
-    }
-}
 
 pub const TITLE: Field = Field {
     form: Some("Title"),

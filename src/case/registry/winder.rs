@@ -3,8 +3,7 @@
 //! mechanisms (stops, unwind, handling shock, chuck or shaft rating). Listed in
 //! [`super::FIELDS`] with the rest, in schema order.
 
-use super::table::plain;
-use super::{DefaultValue, Field, FieldKind, above, from, plain_above, plain_from};
+use super::{DefaultValue, Field, FieldKind, above, from, plain, plain_above, plain_from};
 use crate::units::QuantityKind;
 
 use DefaultValue::{Fixed, Required, Rule};

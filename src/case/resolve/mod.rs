@@ -485,6 +485,45 @@ impl Resolver {
         })
     }
 
+    /// A radial stiffness law as a case file's `web.radial_stiffness` accepts it: the law's
+    /// fields, each within the registry's range, and the model's own check.
+    pub(crate) fn check_radial_law(
+        origin: &str,
+        input: &RadialStiffnessInput,
+    ) -> Result<RadialStiffness, CaseError> {
+        let mut resolver = Resolver {
+            origin: origin.to_string(),
+            assumed: Vec::new(),
+            named_web: None,
+            named_core: None,
+        };
+        let law = resolver.radial_law(input)?;
+        match law.validate() {
+            Ok(()) => Ok(law),
+            Err(crate::model::ModelError::OutOfRange {
+                field,
+                value,
+                accepted,
+            }) => Err(resolver.out_of_range(
+                &format!("web.{field}"),
+                format!("{value}"),
+                accepted.into(),
+            )),
+            Err(other) => Err(resolver.invalid(other.to_string())),
+        }
+    }
+
+    /// A web thickness (caliper) as a case file's `web.thickness` accepts it.
+    pub(crate) fn check_thickness(origin: &str, value: &QuantityText) -> Result<f64, CaseError> {
+        let resolver = Resolver {
+            origin: origin.to_string(),
+            assumed: Vec::new(),
+            named_web: None,
+            named_core: None,
+        };
+        resolver.required_quantity(&reg::WEB_THICKNESS, Some(value))
+    }
+
     fn core(&mut self, core: &CoreInput, web: &ResolvedWeb) -> Result<ResolvedCore, CaseError> {
         let material_given = match &core.material {
             Some(m) => Some(self.word(

@@ -28,6 +28,9 @@ pub enum RuleError {
     },
     #[error("cannot read rule directory {path}: {message}")]
     Read { path: String, message: String },
+    /// One rule file that is too large, not a regular file or not text.
+    #[error(transparent)]
+    File(#[from] crate::fsutil::ReadError),
     #[error("{count} problems in the rule base:\n{listing}")]
     Many { count: usize, listing: String },
 }
@@ -307,7 +310,12 @@ impl RuleBase {
         let names = crate::fsutil::yaml_files(path).map_err(read_error)?;
         let mut files = Vec::new();
         for name in names {
-            let text = std::fs::read_to_string(&name).map_err(read_error)?;
+            // Like case files: at most 1 MiB, and a pipe or device is refused, not waited on.
+            let text = crate::fsutil::read_text_limited(
+                &name,
+                "rule file",
+                crate::fsutil::MAX_INPUT_FILE_BYTES,
+            )?;
             files.push((name.display().to_string(), text));
         }
         RuleBase::from_files(&files)

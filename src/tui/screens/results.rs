@@ -192,15 +192,16 @@ pub fn summary_lines(
 ) -> Vec<Line<'static>> {
     let s = &outcome.profile.summary;
     let crush = outcome.resolved.core.crush_pressure;
-    let ratio = if crush > 0.0 {
-        s.core_pressure / crush
-    } else {
-        f64::NAN
-    };
-    let ratio_style = if ratio >= 1.0 {
+    // Without a crush rating there is no ratio: say so instead of printing "NaN×".
+    let ratio = (crush > 0.0).then(|| s.core_pressure / crush);
+    let ratio_style = if ratio.is_some_and(|r| r >= 1.0) {
         theme.error()
     } else {
         theme.plain()
+    };
+    let ratio_text = match ratio {
+        Some(r) if r.is_finite() => format!("({r:.2}× crush rating)"),
+        _ => "(no crush rating)".to_string(),
     };
     vec![
         Line::from(vec![
@@ -208,7 +209,7 @@ pub fn summary_lines(
                 "Core pressure {} ",
                 compact_stress(s.core_pressure, units)
             )),
-            Span::styled(format!("({:.2}× crush rating)", ratio), ratio_style),
+            Span::styled(ratio_text, ratio_style),
             Span::raw(format!(
                 " · peak {} at r {}",
                 compact_stress(s.peak_pressure, units),

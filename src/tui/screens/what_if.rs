@@ -15,7 +15,7 @@ use crate::diagnose::what_if::{
 use crate::taper_design::{TaperDesign, TaperShape};
 use crate::tui::component::{ANY, Binding, Component, Handled};
 use crate::tui::event::Key;
-use crate::tui::job::{Purpose, SolveOutcome, Task};
+use crate::tui::job::{JobError, Purpose, SolveOutcome, Task};
 use crate::tui::session::Session;
 use crate::tui::theme::Theme;
 use crate::units::UnitSystem;
@@ -207,7 +207,7 @@ impl WhatIfScreen {
     }
 
     /// A finished what-if solve.
-    pub fn on_solved(&mut self, generation: u64, result: Result<Box<SolveOutcome>, String>) {
+    pub fn on_solved(&mut self, generation: u64, result: Result<Box<SolveOutcome>, JobError>) {
         match result {
             Ok(outcome) => {
                 self.outcome = Some((generation, outcome));
@@ -215,7 +215,7 @@ impl WhatIfScreen {
             }
             Err(error) => {
                 self.outcome = None;
-                self.error = Some(error);
+                self.error = Some(error.to_string());
             }
         }
     }
@@ -224,7 +224,7 @@ impl WhatIfScreen {
     pub fn on_designed(
         &mut self,
         generation: u64,
-        result: Result<Box<TaperDesign>, String>,
+        result: Result<Box<TaperDesign>, JobError>,
         ctx: &Session,
     ) {
         match result {
@@ -233,7 +233,7 @@ impl WhatIfScreen {
                 self.design = Some((generation, design));
                 self.error = None;
             }
-            Err(error) => self.error = Some(error),
+            Err(error) => self.error = Some(error.to_string()),
         }
     }
 
