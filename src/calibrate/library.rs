@@ -176,7 +176,7 @@ impl MaterialLibrary {
             Err(e) if e.kind() == std::io::ErrorKind::NotFound => Ok(MaterialLibrary::default()),
             Err(source) => Err(CalibrateError::Read {
                 path: path.to_path_buf(),
-                source,
+                error: source,
             }),
         }
     }

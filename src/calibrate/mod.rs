@@ -65,10 +65,12 @@ pub enum CalibrateError {
     Save(#[from] crate::fsutil::SaveError),
     #[error(transparent)]
     NotFinite(#[from] crate::finite::NonFinite),
-    #[error("cannot read {path}: {source}")]
+    /// The field is not called `source`: the message already includes it, and a chain
+    /// printer would repeat it.
+    #[error("cannot read {path}: {error}")]
     Read {
         path: std::path::PathBuf,
-        source: std::io::Error,
+        error: std::io::Error,
     },
 }
 

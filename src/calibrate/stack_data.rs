@@ -174,7 +174,7 @@ pub fn read_stack_file(path: &Path) -> Result<String, CalibrateError> {
     let origin = path.display().to_string();
     let read_error = |source| CalibrateError::Read {
         path: path.to_path_buf(),
-        source,
+        error: source,
     };
     // Checked before opening: opening a pipe for reading waits for a writer.
     let meta = std::fs::metadata(path).map_err(read_error)?;

@@ -185,7 +185,7 @@ fn check(args: &CheckArgs) -> anyhow::Result<()> {
                 writeln!(out, "FAILED  {}", path.display())?;
                 // Flush first so the FAILED line comes before the message on a terminal.
                 out.flush()?;
-                eprintln!("error: {error:#}");
+                eprintln!("error: {}", super::output::error_text(&error));
             }
         }
     }

@@ -137,11 +137,9 @@ pub fn parse_resolution(text: &str) -> anyhow::Result<Resolution> {
 
 pub fn run(args: &StressArgs) -> anyhow::Result<()> {
     let resolution = parse_resolution(&args.resolution)?;
-    let case =
-        Case::load(&args.case).with_context(|| format!("reading {}", args.case.display()))?;
-    let resolved = case
-        .resolve()
-        .with_context(|| format!("resolving {}", args.case.display()))?;
+    // The errors name the file (and the field's line) themselves.
+    let (case, text) = Case::load_with_text(&args.case)?;
+    let resolved = case.resolve_in_file(&args.case.display().to_string(), &text)?;
     let options = SolverOptions {
         resolution,
         modulus_update: match args.modulus {

@@ -55,10 +55,9 @@ pub enum UnitsArg {
 }
 
 pub fn run(args: &TaperArgs) -> anyhow::Result<()> {
-    let case = rolltriage::case::Case::load(&args.case)?;
-    let resolved = case
-        .resolve()
-        .with_context(|| format!("cannot resolve {}", args.case.display()))?;
+    // The errors name the file (and the field's line) themselves.
+    let (case, text) = rolltriage::case::Case::load_with_text(&args.case)?;
+    let resolved = case.resolve_in_file(&args.case.display().to_string(), &text)?;
     let max_taper = args
         .max_taper
         .as_deref()

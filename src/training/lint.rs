@@ -33,7 +33,7 @@ fn origin_of(loaded: &LoadedWalkthrough) -> String {
 pub fn lint_dir(dir: &std::path::Path) -> Result<Vec<LintProblem>, super::TrainingError> {
     let paths = crate::fsutil::yaml_files(dir).map_err(|source| super::TrainingError::Read {
         path: dir.to_path_buf(),
-        source,
+        error: source,
     })?;
     let mut problems = Vec::new();
     let mut loaded = Vec::new();
