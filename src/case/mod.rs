@@ -252,12 +252,7 @@ impl CaseError {
         };
         match self {
             CaseError::Quantity { origin, error } => {
-                let field = match error.as_ref() {
-                    crate::units::UnitError::MissingUnit { field, .. }
-                    | crate::units::UnitError::UnknownUnit { field, .. }
-                    | crate::units::UnitError::WrongKind { field, .. }
-                    | crate::units::UnitError::NotANumber { field, .. } => field.clone(),
-                };
+                let field = error.field().to_string();
                 CaseError::Quantity {
                     origin: at_line(origin, &field),
                     error,

@@ -173,9 +173,17 @@ pub fn run(args: &StressArgs) -> anyhow::Result<()> {
         Format::Table => {
             let mechanics = rolltriage::mechanics::MechanicsInputs::from_case(&resolved);
             let mut t = summary_table(&resolved.title, &problem, &profile, &mechanics, system);
-            if !resolved.assumed.is_empty() {
+            let (converted, assumed): (Vec<_>, Vec<_>) =
+                resolved.assumed.iter().partition(|a| a.is_conversion());
+            if !converted.is_empty() {
+                t.push_str("\nConverted (as given in the case file):\n");
+                for a in &converted {
+                    t.push_str(&format!("  {} = {}  ({})\n", a.field, a.value, a.source));
+                }
+            }
+            if !assumed.is_empty() {
                 t.push_str("\nAssumed (not in the case file):\n");
-                for a in &resolved.assumed {
+                for a in &assumed {
                     t.push_str(&format!("  {} = {}  ({})\n", a.field, a.value, a.source));
                 }
             }

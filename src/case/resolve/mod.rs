@@ -3,6 +3,7 @@
 //! the enums of `vocabulary`. The web and the core are resolved here, the roll and the winding
 //! settings in `winding`.
 
+mod tension_forms;
 mod winder;
 mod winding;
 
