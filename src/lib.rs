@@ -23,4 +23,5 @@ pub mod taper_design;
 pub mod training;
 pub mod tui;
 pub mod units;
+pub mod usual_tension;
 pub mod vocabulary;

@@ -27,6 +27,11 @@ fail() {
 
 [ -x "$BIN" ] || fail "binary $BIN not found (build it first)"
 
+# A session that lives for the whole run keeps the private server up between the signal runs:
+# otherwise the server exits with the last session and the next new-session can race it
+# ("server exited unexpectedly" on a loaded machine).
+T -f /dev/null new-session -d -s keep "sleep 3600"
+
 for SIG in TERM INT HUP QUIT; do
     rm -f "$WORK/before" "$WORK/after" "$WORK/exit"
     # The shell records the terminal settings before and after the program; `ulimit -c 0`

@@ -96,6 +96,9 @@ pub struct ResolvedWinding {
     pub temperature: Option<f64>,
     /// s
     pub acceleration_time: Option<f64>,
+    /// N/m: the tension this grade usually runs at (recipe value), when the case states it.
+    #[serde(default)]
+    pub recipe_tension: Option<f64>,
     /// Normal stop time, s (`None`: the acceleration time, else the mechanics default).
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub stop_time: Option<f64>,

@@ -223,6 +223,10 @@ pub struct WindingInput {
     /// Time to reach line speed (acceleration torque check), e.g. "20 s" as a plain number of seconds.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub acceleration_time: Option<f64>,
+    /// The web tension this grade usually runs at on this winder (the recipe value), when known;
+    /// the diagnosis judges the tension against it.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub recipe_tension: Option<QuantityText>,
     /// Time of a normal stop from line speed, seconds (slip check).
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub stop_time: Option<f64>,

@@ -63,6 +63,28 @@ pub struct IndicatorSpec {
     pub meaning: &'static str,
 }
 
+/// The indicators read straight from the case's inputs (settings and web data), not from the
+/// solved stress state: a remedy that changes a setting moves them by construction, so the
+/// what-if judges a remedy's effect on the others first.
+pub const INPUT_INDICATORS: &[&str] = &[
+    "speed",
+    "web_tension",
+    "web_stress",
+    "winding_strain",
+    "tension_strength_share",
+    "tension_to_usual",
+    "tension_to_recipe",
+    "nip_load",
+    "nip_to_tension",
+    "nip_wit_share",
+    "taper",
+    "temperature",
+    "thickness",
+    "roll_diameter",
+    "friction",
+    "build_ratio",
+];
+
 /// The indicators that come from measurements (src/evidence), not from the solve.
 pub const EVIDENCE_IDS: &[&str] = &[
     "measured_density_ratio",
@@ -265,6 +287,18 @@ pub const INDICATORS: &[IndicatorSpec] = &[
         Dimension::Fraction,
         ZoneUse::None,
         "share of the wound-in tension that comes from the nip (friction × nip load), 0 without a nip",
+    ),
+    spec(
+        "tension_to_usual",
+        Dimension::Ratio,
+        ZoneUse::None,
+        "web tension divided by the usual tension for this web: the case's recipe value, else the grade's typical winding stress × caliper (1 = usual)",
+    ),
+    spec(
+        "tension_to_recipe",
+        Dimension::Ratio,
+        ZoneUse::None,
+        "web tension divided by the recipe tension the case states (absent when not stated)",
     ),
     spec(
         "tension_strength_share",
@@ -571,6 +605,14 @@ impl Indicators {
         }
         if case.web.strength > 0.0 {
             self.set("tension_strength_share", None, tension / case.web.strength);
+        }
+        if let Some((usual, _)) = crate::usual_tension::usual_tension(case)
+            && usual > 0.0
+        {
+            self.set("tension_to_usual", None, tension / usual);
+        }
+        if let Some(recipe) = case.winding.recipe_tension.filter(|t| *t > 0.0) {
+            self.set("tension_to_recipe", None, tension / recipe);
         }
         let nip = case.winding.nip_load.unwrap_or(0.0);
         self.set("nip_load", None, nip);

@@ -9,6 +9,7 @@ pub mod remedies;
 pub mod render;
 pub mod rules;
 pub mod search;
+pub mod sensitivity;
 pub mod what_if;
 
 pub use search::{SymptomMatch, resolve_symptom, search_symptoms};
@@ -140,6 +141,11 @@ pub struct WhatIf {
     pub after: String,
     /// True when the change makes the driving indicator worse.
     pub worse: bool,
+    /// True when the re-solve predicts the change does little here: the deciding indicator of
+    /// every cause it answers moves by less than [`remedies::SMALL_EFFECT`] of its value and
+    /// stays past the rule threshold.
+    #[serde(default)]
+    pub small_effect: bool,
     pub note: String,
 }
 

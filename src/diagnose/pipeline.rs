@@ -130,8 +130,10 @@ pub fn diagnose_solved(
                 resolution: profile.solver.grid.resolution(),
                 ..options.solver
             },
+            profile,
         };
-        what_if.fill(&mut remedies, progress)?;
+        let after = what_if.fill(&mut remedies, progress)?;
+        remedies::order_by_effect(&what_if.before, &mut remedies, &after);
     }
     let _ = progress(1.0);
     // A remedy the re-solve shows making the physics worse is kept (with its warning) but tried
@@ -165,19 +167,23 @@ pub fn diagnose_solved(
     })
 }
 
-/// The case as it stands, diagnosed, and the grid its changed versions are re-solved on.
+/// The case as it stands, diagnosed, its stress state, and the grid its changed versions are
+/// re-solved on.
 struct WhatIfContext<'a> {
     before: what_if::Before<'a>,
     solver: SolverOptions,
+    profile: &'a Profile,
 }
 
 impl WhatIfContext<'_> {
-    /// Fill each setting-changing remedy's before/after row.
+    /// Fill each setting-changing remedy's before/after row; return each remedy's indicators
+    /// after its change (`None` for remedies that change no setting or whose solve failed), for
+    /// ordering by effect. Each distinct changed case is solved and its indicators computed once.
     fn fill(
         &self,
         remedies: &mut [super::MergedRemedy],
         progress: Progress<'_>,
-    ) -> Result<(), DiagnoseError> {
+    ) -> Result<Vec<Option<indicators::Indicators>>, DiagnoseError> {
         // Distinct changed cases that need a solve; no-op changes and rating-only changes need
         // none.
         let changed: Vec<Option<ResolvedCase>> = remedies
@@ -195,28 +201,55 @@ impl WhatIfContext<'_> {
             }
         }
         let solved = solve_all(&distinct, self.solver, progress)?;
-        let unchanged = Profile::default();
+        let solved: Vec<Result<indicators::Indicators, ModelError>> = distinct
+            .iter()
+            .zip(solved)
+            .map(|(c, s)| {
+                s.map(|p| {
+                    indicators::Indicators::compute(c, &p).with_evidence_of(self.before.indicators)
+                })
+            })
+            .collect();
+        let unchanged = indicators::Indicators::default();
+        let mut after = Vec::with_capacity(remedies.len());
         for (remedy, changed_case) in remedies.iter_mut().zip(&changed) {
-            remedy.what_if = match changed_case {
-                None => what_if::what_if(&self.before, remedy, self.solver),
+            match changed_case {
+                None => {
+                    remedy.what_if = what_if::what_if(&self.before, remedy, self.solver);
+                    // A rating-only change keeps the stress state: its indicators are the
+                    // case's profile read against the new rating (no solve).
+                    after.push(
+                        self.before
+                            .rules
+                            .remedies
+                            .get(&remedy.id)
+                            .filter(|r| !r.changes.is_empty())
+                            .map(|r| {
+                                let c = what_if::apply_changes(self.before.case, &r.changes);
+                                indicators::Indicators::compute(&c, self.profile)
+                                    .with_evidence_of(self.before.indicators)
+                            }),
+                    );
+                }
                 Some(c) => {
-                    // A changed case equal to the case was not solved: what_if_solved answers
-                    // "nothing to change" without looking at the profile.
+                    // A changed case equal to the case was not solved: what_if_after answers
+                    // "nothing to change" without looking at the indicators.
                     let result = distinct
                         .iter()
                         .position(|d| *d == c)
                         .map_or(Ok(&unchanged), |i| solved[i].as_ref());
-                    what_if::what_if_solved(&self.before, remedy, c, result)
+                    remedy.what_if = what_if::what_if_after(&self.before, remedy, c, result);
+                    after.push(result.ok().filter(|_| c != self.before.case).cloned());
                 }
-            };
+            }
         }
-        Ok(())
+        Ok(after)
     }
 }
 
 /// Solve several what-if cases, in parallel where the machine has cores to spare. A failed
 /// solve is kept as its error (the what-if row says so); a cancelled one cancels them all.
-fn solve_all(
+pub(crate) fn solve_all(
     cases: &[&ResolvedCase],
     solver: SolverOptions,
     progress: Progress<'_>,

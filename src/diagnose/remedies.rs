@@ -1,9 +1,12 @@
-//! Merge, deduplicate, group and order the remedies of the likely causes. The what-if check
-//! (re-solve with a remedy's setting change) lives in [`super::what_if`].
+//! Merge, deduplicate, group and order the remedies of the likely causes, then (after the
+//! what-if re-solves) order the remedies of each cause by their computed effect. The what-if
+//! check (re-solve with a remedy's setting change) lives in [`super::what_if`].
 
 use std::collections::BTreeMap;
 
-use super::rules::RuleBase;
+use super::indicators::Indicators;
+use super::rules::{Comparison, RuleBase, Test};
+use super::what_if::{self, Before};
 use super::{MergedRemedy, RankedCause};
 
 /// A cause counts as likely (its remedies are listed) from this belief up.
@@ -67,6 +70,136 @@ pub fn merge(rules: &RuleBase, symptoms: &[String], causes: &[RankedCause]) -> V
             .then_with(|| a.0.id.cmp(&b.0.id))
     });
     out.into_iter().map(|(m, _, _)| m).collect()
+}
+
+/// A change that moves the deciding indicator by less than this share of its value (and leaves
+/// it past the rule threshold) is reported as predicted to do little: the inputs of a triage are
+/// approximate (a few percent at best), so a smaller move is within their uncertainty.
+pub const SMALL_EFFECT: f64 = 0.03;
+
+/// Order remedies by their computed effect within each cause, and flag the ones predicted to do
+/// little.
+///
+/// `after[i]` holds the indicators of `remedies[i]`'s changed case (re-solved, or the same
+/// stress state with a new core rating), `None` for remedies that change no setting. For every
+/// likely cause, the remedies answering it that have an effect on its deciding indicator (see
+/// [`what_if::deciding_test`]) trade places among themselves, largest move toward the good side
+/// first; every other remedy keeps its place. Causes are taken from the least to the most likely
+/// so the most likely cause has the last word where two causes share remedies. The sort is
+/// stable: equal effects keep the order by belief and cost.
+pub fn order_by_effect(
+    before: &what_if::Before,
+    remedies: &mut Vec<MergedRemedy>,
+    after: &[Option<Indicators>],
+) {
+    let Before {
+        rules,
+        symptoms,
+        case,
+        indicators,
+        causes,
+    } = *before;
+    let mut slots: Vec<(MergedRemedy, Option<&Indicators>)> = remedies
+        .drain(..)
+        .zip(
+            after
+                .iter()
+                .map(Option::as_ref)
+                .chain(std::iter::repeat(None)),
+        )
+        .collect();
+    // The likely causes with the indicator test that decides each.
+    let deciding: Vec<(&RankedCause, Option<&Test>)> = causes
+        .iter()
+        .filter(|c| c.belief >= LIKELY_BELIEF)
+        .map(|c| {
+            let test = what_if::deciding_test(rules, symptoms, &c.id, case, indicators);
+            (c, test)
+        })
+        .collect();
+    for (cause, test) in deciding.iter().rev() {
+        let Some(test) = test else { continue };
+        let members: Vec<(usize, f64)> = slots
+            .iter()
+            .enumerate()
+            .filter(|(_, (r, _))| r.answers.contains(&cause.id))
+            .filter_map(|(i, (_, a))| Some((i, what_if::gain(test, indicators, (*a)?)?)))
+            .collect();
+        let mut order = members.clone();
+        order.sort_by(|a, b| b.1.total_cmp(&a.1));
+        let moved: Vec<_> = order.iter().map(|&(i, _)| slots[i].clone()).collect();
+        for (&(slot, _), item) in members.iter().zip(moved) {
+            slots[slot] = item;
+        }
+    }
+    for (remedy, after) in &mut slots {
+        if let (Some(w), Some(after)) = (remedy.what_if.as_mut(), *after)
+            && let Some((gain, name)) = small_effect(&deciding, &remedy.answers, indicators, after)
+            && !w.worse
+        {
+            w.small_effect = true;
+            let note = format!(
+                "predicted to do little here: {name} improves by only {:.1} %",
+                100.0 * gain.max(0.0)
+            );
+            w.note = if w.note.is_empty() {
+                note
+            } else {
+                format!("{note}; {}", w.note)
+            };
+        }
+    }
+    remedies.extend(slots.into_iter().map(|(r, _)| r));
+}
+
+/// The largest gain of a remedy answering `answers` and the indicator it is on, when the remedy
+/// is predicted to do little: every likely cause it answers has a deciding indicator, none moves
+/// by [`SMALL_EFFECT`] or more, and each stays past its rule threshold. `None` otherwise (a
+/// cause that rests on answers alone cannot be judged by the re-solve).
+fn small_effect<'a>(
+    deciding: &[(&RankedCause, Option<&'a Test>)],
+    answers: &[String],
+    before: &Indicators,
+    after: &Indicators,
+) -> Option<(f64, &'a str)> {
+    let mut best: Option<(f64, &str)> = None;
+    for (_, test) in deciding.iter().filter(|(c, _)| answers.contains(&c.id)) {
+        let test = (*test)?;
+        let gain = what_if::gain(test, before, after)?;
+        if gain >= SMALL_EFFECT || !test_holds(test, after) {
+            return None;
+        }
+        if best.is_none_or(|(g, _)| gain > g) {
+            best = Some((gain, indicator_name(test)));
+        }
+    }
+    best
+}
+
+/// The indicator of a test, named as the what-if rows name it ("pressure_mean (middle)").
+fn indicator_name(test: &Test) -> &str {
+    match test {
+        Test::Indicator { id, .. } => id,
+        _ => "",
+    }
+}
+
+/// True when an indicator test holds on `indicators`.
+fn test_holds(test: &Test, indicators: &Indicators) -> bool {
+    let Test::Indicator {
+        id,
+        zone,
+        comparison,
+        threshold,
+        ..
+    } = test
+    else {
+        return false;
+    };
+    indicators.get(id, *zone).is_some_and(|v| match comparison {
+        Comparison::Above => v > *threshold,
+        Comparison::Below => v < *threshold,
+    })
 }
 
 /// Keep the list in the order to try but gather each group together, the groups in the order

@@ -9,7 +9,7 @@ pub use apply::{
     keep_changes, trial_case, write_into_case,
 };
 
-use super::indicators::{Indicators, format_value, indicator_spec};
+use super::indicators::{INPUT_INDICATORS, Indicators, format_value, indicator_spec};
 use super::rank::{evaluate, rank};
 use super::rules::{Comparison, RuleBase, SettingChange, Test};
 use super::{MergedRemedy, RankedCause, WhatIf};
@@ -18,7 +18,7 @@ use crate::model::SolverOptions;
 
 /// The indicator tests that raise belief in `cause` under the observed symptoms, each with
 /// whether it holds now and its weight.
-fn driving_tests<'a>(
+pub(crate) fn driving_tests<'a>(
     rules: &'a RuleBase,
     symptoms: &[String],
     cause: &str,
@@ -59,10 +59,17 @@ fn pick_driver<'a>(
             _ => 0.0,
         }
     };
-    let best = |only_holding: bool| {
+    // A remedy's own setting moves its input indicator by construction: show the stress state
+    // first (see `deciding_test`).
+    let from_profile = |t: &Test| match t {
+        Test::Indicator { id, .. } => !INPUT_INDICATORS.contains(&id.as_str()),
+        _ => false,
+    };
+    let best = |only_holding: bool, only_profile: bool| {
         candidates
             .iter()
             .filter(|(_, holds, _)| !only_holding || *holds)
+            .filter(|(t, _, _)| !only_profile || from_profile(t))
             .filter(|(t, _, _)| change(t) > 1e-3)
             .max_by(|a, b| {
                 change(a.0)
@@ -71,12 +78,66 @@ fn pick_driver<'a>(
             })
             .map(|(t, _, _)| *t)
     };
-    best(true).or_else(|| best(false)).or_else(|| {
-        // Nothing moves: show the strongest holding test (or the strongest at all).
-        candidates
-            .iter()
-            .max_by(|a, b| a.1.cmp(&b.1).then(a.2.total_cmp(&b.2)))
-            .map(|(t, _, _)| *t)
+    best(true, true)
+        .or_else(|| best(false, true))
+        .or_else(|| best(true, false))
+        .or_else(|| best(false, false))
+        .or_else(|| {
+            // Nothing moves: show the strongest holding test (or the strongest at all).
+            candidates
+                .iter()
+                .max_by(|a, b| a.1.cmp(&b.1).then(a.2.total_cmp(&b.2)))
+                .map(|(t, _, _)| *t)
+        })
+}
+
+/// The indicator test that decides `cause` in this case: of the indicator tests that raise it
+/// and hold now, the strongest on the solved stress state, else the strongest on the case's
+/// inputs (a setting a remedy changes moves its own input indicator by construction, so the
+/// stress state judges first); ties go to the first in the rule base. `None` when no indicator
+/// test holds: the cause then rests on answers or priors, which no setting change moves.
+pub(crate) fn deciding_test<'a>(
+    rules: &'a RuleBase,
+    symptoms: &[String],
+    cause: &str,
+    case: &ResolvedCase,
+    indicators: &Indicators,
+) -> Option<&'a Test> {
+    let from_profile = |t: &Test| match t {
+        Test::Indicator { id, .. } => !INPUT_INDICATORS.contains(&id.as_str()),
+        _ => false,
+    };
+    let mut best: Option<(&Test, (bool, f64))> = None;
+    for (test, holds, weight) in driving_tests(rules, symptoms, cause, case, indicators) {
+        let key = (from_profile(test), weight);
+        // Stress-state tests before input tests, then the larger weight.
+        if holds
+            && best.is_none_or(|(_, k)| (key.0, key.1).partial_cmp(&k).is_some_and(|o| o.is_gt()))
+        {
+            best = Some((test, key));
+        }
+    }
+    best.map(|(t, _)| t)
+}
+
+/// How far a change moves the indicator of `test` toward its good side, as a share of its value
+/// before (positive = better: lower for an "above" test, higher for a "below" test). `None` when
+/// the indicator is missing before or after.
+pub(crate) fn gain(test: &Test, before: &Indicators, after: &Indicators) -> Option<f64> {
+    let Test::Indicator {
+        id,
+        zone,
+        comparison,
+        ..
+    } = test
+    else {
+        return None;
+    };
+    let (b, a) = (before.get(id, *zone)?, after.get(id, *zone)?);
+    let scale = b.abs().max(1e-30);
+    Some(match comparison {
+        Comparison::Above => (b - a) / scale,
+        Comparison::Below => (a - b) / scale,
     })
 }
 
@@ -121,6 +182,18 @@ pub fn what_if_solved(
     changed: &ResolvedCase,
     solved: Result<&crate::model::Profile, &crate::model::ModelError>,
 ) -> Option<WhatIf> {
+    let after = solved.map(|p| Indicators::compute(changed, p).with_evidence_of(before.indicators));
+    what_if_after(before, remedy, changed, after.as_ref().map_err(|e| *e))
+}
+
+/// The what-if of a remedy whose changed case `changed` is solved and its indicators computed
+/// (`after`), or whose solve failed.
+pub fn what_if_after(
+    before: &Before,
+    remedy: &MergedRemedy,
+    changed: &ResolvedCase,
+    after: Result<&Indicators, &crate::model::ModelError>,
+) -> Option<WhatIf> {
     let Before {
         rules,
         symptoms,
@@ -134,6 +207,7 @@ pub fn what_if_solved(
         before: String::new(),
         after: String::new(),
         worse: false,
+        small_effect: false,
         note,
     };
     if changed == case {
@@ -141,16 +215,15 @@ pub fn what_if_solved(
             "the setting change does not apply to this case (nothing to change)".into(),
         ));
     }
-    let profile = match solved {
-        Ok(p) => p,
+    let after_indicators = match after {
+        Ok(a) => a,
         Err(e) => {
             return Some(note_only(format!(
                 "could not re-solve with the change: {e}"
             )));
         }
     };
-    let after_indicators = Indicators::compute(changed, profile).with_evidence_of(indicators);
-    let after_causes = rank(rules, symptoms, changed, &after_indicators);
+    let after_causes = rank(rules, symptoms, changed, after_indicators);
     let belief = |list: &[RankedCause], id: &str| {
         list.iter()
             .find(|c| c.id == id)
@@ -179,8 +252,8 @@ pub fn what_if_solved(
         }
     }
     let candidates = driving_tests(rules, symptoms, primary, case, indicators);
-    let driver = pick_driver(&candidates, indicators, &after_indicators).and_then(|test| {
-        compare_driver(test, indicators, &after_indicators, &mut notes, &mut worse)
+    let driver = pick_driver(&candidates, indicators, after_indicators).and_then(|test| {
+        compare_driver(test, indicators, after_indicators, &mut notes, &mut worse)
     });
     let (indicator, before_text, after_text) = driver.unwrap_or_else(|| {
         (
@@ -194,6 +267,7 @@ pub fn what_if_solved(
         before: before_text,
         after: after_text,
         worse,
+        small_effect: false,
         note: notes.join("; "),
     })
 }
@@ -282,6 +356,7 @@ fn rating_only(before: &Before, changed: &ResolvedCase, remedy: &MergedRemedy) -
             .map(|v| format_value(v, dimension))
             .unwrap_or_default(),
         worse: false,
+        small_effect: false,
         note: format!(
             "rated crush pressure {} → {} for remedy {}",
             format_value(

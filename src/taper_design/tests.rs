@@ -50,6 +50,7 @@ fn case() -> ResolvedCase {
             speed: 1.0,
             temperature: None,
             acceleration_time: None,
+            recipe_tension: None,
             stop_time: None,
             emergency_stop_time: None,
             unwind_tension: None,

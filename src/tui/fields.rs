@@ -145,6 +145,7 @@ pub fn get(case: &Case, path: &str) -> Option<String> {
         "winding.speed" => quantity_text(&case.winding.speed),
         "winding.temperature" => quantity_text(&case.winding.temperature),
         "winding.acceleration_time" => case.winding.acceleration_time.map(|v| format!("{v}")),
+        "winding.recipe_tension" => quantity_text(&case.winding.recipe_tension),
         _ => None,
     }
 }
@@ -285,6 +286,7 @@ pub fn set(case: &mut Case, spec: &FieldSpec, text: Option<&str>) -> Result<(), 
         "winding.speed" => case.winding.speed = quantity(),
         "winding.temperature" => case.winding.temperature = quantity(),
         "winding.acceleration_time" => case.winding.acceleration_time = number(),
+        "winding.recipe_tension" => case.winding.recipe_tension = quantity(),
         other => return Err(FieldError::NotInForm(other.to_string())),
     }
     Ok(())

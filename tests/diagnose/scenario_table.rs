@@ -47,6 +47,16 @@ struct Scenario {
     /// Causes that must not rank first.
     #[serde(default)]
     not_first: Vec<String>,
+    /// Remedy pairs [earlier, later] in the merged list (the row then runs the what-if
+    /// re-solves, which order remedies of one cause by their computed effect).
+    #[serde(default)]
+    remedy_order: Vec<[String; 2]>,
+    /// Remedies the re-solve must flag as predicted to do little.
+    #[serde(default)]
+    little: Vec<String>,
+    /// Remedies the re-solve must not flag as predicted to do little.
+    #[serde(default)]
+    not_little: Vec<String>,
 }
 
 /// Changes to the base roll, SI units.
@@ -72,6 +82,8 @@ struct Settings {
     acceleration_time: Option<f64>,
     core_modulus: Option<f64>,
     core_crush: Option<f64>,
+    /// The usual (recipe) tension the case states, N/m.
+    recipe_tension: Option<f64>,
 }
 
 fn table() -> Table {
@@ -129,7 +141,7 @@ fn build(s: &Scenario) -> ResolvedCase {
     }
     if let Some(m) = &set.material {
         case.web.material = rolltriage::vocabulary::WebMaterial::from_id(m)
-            .unwrap_or_else(|| panic!("unknown material `{m}` in a scenario row"));
+            .unwrap_or_else(|| panic!("{}: unknown material {m}", s.name));
     }
     if let Some(m) = &set.method {
         case.winding.method = match m.as_str() {
@@ -138,6 +150,9 @@ fn build(s: &Scenario) -> ResolvedCase {
             "centre_surface" => WindingMethod::CentreSurface,
             other => panic!("{}: unknown method {other}", s.name),
         };
+    }
+    if let Some(t) = set.recipe_tension {
+        case.winding.recipe_tension = Some(t);
     }
     if let Some(t) = set.acceleration_time {
         case.winding.acceleration_time = Some(t);
@@ -165,10 +180,11 @@ fn build(s: &Scenario) -> ResolvedCase {
     case
 }
 
-fn run(rules: &RuleBase, case: &ResolvedCase) -> Diagnosis {
+fn run(rules: &RuleBase, case: &ResolvedCase, what_if: bool) -> Diagnosis {
+    // As the CLI's defaults when remedies are checked (the top five causes give the remedies).
     let options = DiagnoseOptions {
-        top: 0,
-        what_if: false,
+        top: if what_if { 5 } else { 0 },
+        what_if,
         solver: common::SOLVER,
     };
     diagnose::triage(rules, case, &options).unwrap().1
@@ -204,16 +220,57 @@ fn check(s: &Scenario, d: &Diagnosis) -> Vec<String> {
             problems.push(format!("{cause} must not lead"));
         }
     }
+    let place = |id: &str| d.remedies.iter().position(|r| r.id == id);
+    for [earlier, later] in &s.remedy_order {
+        match (place(earlier), place(later)) {
+            (Some(e), Some(l)) if e < l => {}
+            _ => problems.push(format!("remedy {earlier} should come before {later}")),
+        }
+    }
+    let little = |id: &str| {
+        d.remedies
+            .iter()
+            .find(|r| r.id == id)
+            .and_then(|r| r.what_if.as_ref())
+            .map(|w| w.small_effect)
+    };
+    for id in &s.little {
+        if little(id) != Some(true) {
+            problems.push(format!("remedy {id} should be flagged as doing little"));
+        }
+    }
+    for id in &s.not_little {
+        if little(id) != Some(false) {
+            problems.push(format!("remedy {id} should be listed, with an effect"));
+        }
+    }
     problems
 }
 
 fn listing(d: &Diagnosis) -> String {
-    d.causes
+    let causes = d
+        .causes
         .iter()
         .take(6)
         .map(|c| format!("{} {:.2}", c.id, c.belief))
         .collect::<Vec<_>>()
-        .join(", ")
+        .join(", ");
+    if d.remedies.iter().all(|r| r.what_if.is_none()) {
+        return causes;
+    }
+    let remedies = d
+        .remedies
+        .iter()
+        .map(|r| match &r.what_if {
+            Some(w) if w.small_effect => format!("{} (little)", r.id),
+            Some(w) if !w.indicator.is_empty() => {
+                format!("{} ({} {} → {})", r.id, w.indicator, w.before, w.after)
+            }
+            _ => r.id.clone(),
+        })
+        .collect::<Vec<_>>()
+        .join(", ");
+    format!("{causes} — remedies: {remedies}")
 }
 
 #[test]
@@ -224,11 +281,16 @@ fn every_scenario_ranks_as_its_source_says() {
     for s in &table.scenarios {
         assert!(!s.source.trim().is_empty(), "{}: name the source", s.name);
         assert!(
-            s.first.is_some() || !s.top3.is_empty() || !s.below.is_empty(),
+            s.first.is_some()
+                || !s.top3.is_empty()
+                || !s.below.is_empty()
+                || !s.remedy_order.is_empty(),
             "{}: expects nothing",
             s.name
         );
-        let d = run(&rules, &build(s));
+        let what_if =
+            !(s.remedy_order.is_empty() && s.little.is_empty() && s.not_little.is_empty());
+        let d = run(&rules, &build(s), what_if);
         let problems = check(s, &d);
         if !problems.is_empty() {
             failures.push(format!(

@@ -66,6 +66,7 @@ fn film_roll(crush_pressure: f64, start_tension: f64) -> ResolvedCase {
             speed: 5.0,
             temperature: None,
             acceleration_time: None,
+            recipe_tension: None,
             stop_time: None,
             emergency_stop_time: None,
             unwind_tension: None,

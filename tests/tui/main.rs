@@ -10,3 +10,4 @@ mod job;
 mod screens;
 mod smoke;
 mod state;
+mod story_history;

@@ -125,6 +125,7 @@ pub fn resolved(title: &str) -> ResolvedCase {
             speed: 10.0,
             temperature: None,
             acceleration_time: None,
+            recipe_tension: None,
             stop_time: None,
             emergency_stop_time: None,
             unwind_tension: None,

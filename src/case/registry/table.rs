@@ -616,6 +616,19 @@ pub const ACCELERATION: Field = Field {
     example: "20",
     ..plain("winding.acceleration_time", "Time to line speed", Number)
 };
+pub const RECIPE_TENSION: Field = Field {
+    form: Some("Usual tension (recipe)"),
+    range: Some(above(0.0, 1e6, Q::ForcePerWidth)),
+    accepted_also: "below the web strength",
+    default: Rule("not used: the tension is judged against the grade's typical winding stress"),
+    help: "The web tension this grade usually runs at on this winder (the recipe value), if known.",
+    example: "2 pli",
+    ..plain(
+        "winding.recipe_tension",
+        "Usual tension (recipe)",
+        Quantity(Q::ForcePerWidth),
+    )
+};
 pub const STOP_TIME: Field = Field {
     range: Some(plain_above(0.0, 3600.0)),
     default: Rule("the run-up time, else 20 s (assumed; docs/theory.md §5)"),
@@ -745,6 +758,7 @@ pub const FIELDS: &[&Field] = &[
     &UPSET_TENSION,
     &TEMPERATURE,
     &ACCELERATION,
+    &RECIPE_TENSION,
     &STOP_TIME,
     &EMERGENCY_STOP_TIME,
     &UNWIND_TENSION,

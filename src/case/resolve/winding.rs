@@ -355,6 +355,16 @@ impl Resolver {
             Some(t) => Some(self.check(reg::ACCELERATION.path, t, &reg::ACCELERATION.range())?),
             None => None,
         };
+        let recipe_tension = match self.quantity(
+            reg::RECIPE_TENSION.path,
+            winding.recipe_tension.as_ref(),
+            QuantityKind::ForcePerWidth,
+        )? {
+            Some(t) => {
+                Some(self.check(reg::RECIPE_TENSION.path, t, &reg::RECIPE_TENSION.range())?)
+            }
+            None => None,
+        };
         let time = |field: &super::super::registry::Field, value: Option<f64>| match value {
             Some(t) => self.check(field.path, t, &field.range()).map(Some),
             None => Ok(None),
@@ -389,6 +399,7 @@ impl Resolver {
             speed,
             temperature,
             acceleration_time,
+            recipe_tension,
         })
     }
 

@@ -46,6 +46,8 @@ pub fn sections() -> Vec<(&'static str, Vec<Hint>)> {
             "Training walk-through",
             help_entries(super::walkthrough::KEYS),
         ),
+        ("Complaint & story (F7)", help_entries(super::story::KEYS)),
+        ("Complaint history (F8)", help_entries(super::history::KEYS)),
         ("Reading the plots", PLOT_LEGEND.to_vec()),
     ]
 }
@@ -54,9 +56,9 @@ impl Component for HelpPopup {
     fn on_key(&mut self, key: Key, ctx: &mut Session) -> Handled {
         match key {
             Key::Up => self.scroll = self.scroll.saturating_sub(1),
-            Key::Down => self.scroll = self.scroll.saturating_add(1).min(60),
+            Key::Down => self.scroll = self.scroll.saturating_add(1).min(200),
             Key::PageUp => self.scroll = self.scroll.saturating_sub(10),
-            Key::PageDown => self.scroll = self.scroll.saturating_add(10).min(60),
+            Key::PageDown => self.scroll = self.scroll.saturating_add(10).min(200),
             Key::Home => self.scroll = 0,
             Key::Esc | Key::F(1) | Key::Char('?') | Key::Char('q') | Key::Enter => {
                 ctx.push(Action::Close)

@@ -515,10 +515,15 @@ fn render_remedies(
         {
             lines.push(Line::from(Span::styled(
                 format!(
-                    "    {}: {} → {}",
+                    "    {}: {} → {}{}",
                     what_if.indicator.replace('_', " "),
                     what_if.before,
-                    what_if.after
+                    what_if.after,
+                    if what_if.small_effect {
+                        " (predicted to do little)"
+                    } else {
+                        ""
+                    }
                 ),
                 if what_if.worse {
                     theme.error()
