@@ -404,7 +404,7 @@ fn decimal_comma(field: &str, text: &str, trimmed: &str) -> Result<String, UnitE
             accepted: "a number with a decimal point or one decimal comma (\"0.5\" or \"0,5\"), no thousands separators, then its unit".to_string(),
         });
     }
-    if after.len() == 3 && digits.trim_start_matches('0') != "" {
+    if after.len() == 3 && !digits.trim_start_matches('0').is_empty() {
         let unit = &trimmed[end..];
         return Err(UnitError::AmbiguousComma {
             field: field.to_string(),

@@ -196,7 +196,7 @@ pub fn studentized_residuals(e: &[f64], jacobian: &DMatrix<f64>) -> Vec<Option<f
             let row = jacobian.row(i);
             let h = (row * &inverse * row.transpose())[(0, 0)];
             let free = 1.0 - h;
-            if !(free > 1e-12) {
+            if free.is_nan() || free <= 1e-12 {
                 return None;
             }
             let s2 = (ssr - e[i] * e[i] / free) / (n - p - 1) as f64;
