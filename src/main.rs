@@ -35,7 +35,7 @@ fn main() -> ExitCode {
         // The reader went away (`rolltriage case presets | head`): not a failure.
         Err(error) if is_broken_pipe(&error) => ExitCode::SUCCESS,
         Err(error) => {
-            eprintln!("error: {error:#}");
+            eprintln!("error: {}", commands::output::error_text(&error));
             ExitCode::from(1)
         }
     }

@@ -126,6 +126,29 @@ pub enum UnitError {
         given: String,
         accepted: String,
     },
+    /// A comma that may be a decimal comma or a thousands separator ("1,500").
+    #[error(
+        "{field}: \"{given}\" is ambiguous: the comma may be a decimal comma or a thousands separator; write {as_decimal} or {as_thousands}"
+    )]
+    AmbiguousComma {
+        field: String,
+        given: String,
+        as_decimal: String,
+        as_thousands: String,
+    },
+}
+
+impl UnitError {
+    /// The field the error is about, as the caller named it.
+    pub fn field(&self) -> &str {
+        match self {
+            UnitError::MissingUnit { field, .. }
+            | UnitError::UnknownUnit { field, .. }
+            | UnitError::WrongKind { field, .. }
+            | UnitError::NotANumber { field, .. }
+            | UnitError::AmbiguousComma { field, .. } => field,
+        }
+    }
 }
 
 // NIST SP 811 (2008), Appendix B.8/B.9 factors.
@@ -358,10 +381,52 @@ fn split_number(text: &str) -> Option<(&str, &str)> {
     Some((&text[..i], &text[i..]))
 }
 
+/// A number written with a decimal comma ("0,5 pli", as spreadsheets and many countries write
+/// it) with the comma turned into a point; the text unchanged when its number has no comma.
+/// Unambiguous only with one comma, no point and not exactly three digits after the comma:
+/// "1,500" may be 1.5 or 1500 and is refused, except after a leading zero ("0,500"), which no
+/// thousands separator follows. Several commas (thousands groups) are not a number.
+fn decimal_comma(field: &str, text: &str, trimmed: &str) -> Result<String, UnitError> {
+    let end = trimmed
+        .find(|c: char| !(c.is_ascii_digit() || matches!(c, ',' | '.' | '+' | '-')))
+        .unwrap_or(trimmed.len());
+    let number = &trimmed[..end];
+    if !number.contains(',') {
+        return Ok(trimmed.to_string());
+    }
+    let (before, after) = number.split_once(',').unwrap_or((number, ""));
+    let digits = before.trim_start_matches(['+', '-']);
+    let plain = |s: &str| !s.is_empty() && s.bytes().all(|b| b.is_ascii_digit());
+    if !plain(digits) || !plain(after) {
+        return Err(UnitError::NotANumber {
+            field: field.to_string(),
+            given: text.to_string(),
+            accepted: "a number with a decimal point or one decimal comma (\"0.5\" or \"0,5\"), no thousands separators, then its unit".to_string(),
+        });
+    }
+    if after.len() == 3 && !digits.trim_start_matches('0').is_empty() {
+        let unit = &trimmed[end..];
+        return Err(UnitError::AmbiguousComma {
+            field: field.to_string(),
+            given: text.to_string(),
+            as_decimal: format!("\"{before}.{after}{unit}\""),
+            as_thousands: format!("\"{before}{after}{unit}\""),
+        });
+    }
+    Ok(format!("{before}.{after}{}", &trimmed[end..]))
+}
+
 /// Parse `text` as a quantity of `kind` for the field `field`; returns the SI value (°C for
-/// temperature, a fraction for percent; see the module docs).
+/// temperature, a fraction for percent; see the module docs). A decimal comma is read where it
+/// is unambiguous ("0,5 pli"; see `decimal_comma`).
 pub fn parse_quantity(field: &str, text: &str, kind: QuantityKind) -> Result<f64, UnitError> {
-    let trimmed = text.trim();
+    let owned;
+    let trimmed = if text.contains(',') {
+        owned = decimal_comma(field, text, text.trim())?;
+        owned.as_str()
+    } else {
+        text.trim()
+    };
     let not_a_number = || UnitError::NotANumber {
         field: field.to_string(),
         given: text.to_string(),

@@ -68,10 +68,12 @@ pub enum CalibrateError {
     /// A material library that is too large, not a regular file or not text.
     #[error(transparent)]
     Unreadable(crate::fsutil::ReadError),
-    #[error("cannot read {path}: {source}")]
+    /// The field is not called `source`: the message already includes it, and a chain
+    /// printer would repeat it.
+    #[error("cannot read {path}: {error}")]
     Read {
         path: std::path::PathBuf,
-        source: std::io::Error,
+        error: std::io::Error,
     },
 }
 
@@ -129,6 +131,9 @@ pub struct FitPoint {
     pub fitted: f64,
     /// fitted − measured, Pa.
     pub residual: f64,
+    /// Externally studentized residual ([`studentized_residuals`]); `None` where it is not
+    /// defined (too few rows, a row the fit must pass through).
+    pub studentized: Option<f64>,
 }
 
 /// The fitted Pfeiffer law and its quality.
@@ -143,7 +148,10 @@ pub struct PfeifferFit {
     pub k2_standard_error: f64,
     /// Correlation coefficient between the K1 and K2 estimates.
     pub correlation: f64,
-    /// R² of the pressures: 1 − SSR/SST (unweighted).
+    /// R² of the sum the fit minimised: 1 − Σw²r² / Σw²(P − P̄w)², with the fit's weights w
+    /// and the weighted mean P̄w (plain R² for absolute weighting). With relative weights a
+    /// plain R² is ruled by the largest pressures: one absurd row gave R² = 1.00000 beside a
+    /// 52 MPa RMS residual.
     pub r_squared: f64,
     /// Root-mean-square pressure residual, Pa (unweighted).
     pub rms_residual: f64,
@@ -155,7 +163,49 @@ pub struct PfeifferFit {
     pub points: Vec<FitPoint>,
     /// Rows left out as unloading/reloading.
     pub dropped_unloading: usize,
+    /// Lines of the rows flagged as outliers ([`studentized_residuals`] beyond
+    /// [`OUTLIER_STUDENTIZED`] and off by [`OUTLIER_FACTOR_SHARE`]); still in the fit.
+    pub outliers: Vec<usize>,
     pub warnings: Vec<String>,
+}
+
+/// The outlier rule: a row whose externally studentized residual exceeds this in size
+/// (common practice for a gross error in a least-squares fit; a normal residual is beyond 4 in
+/// fewer than 1 in 10 000 rows).
+pub const OUTLIER_STUDENTIZED: f64 = 4.0;
+
+/// ... and whose measured pressure is more than a factor of 2 from the law's (the residual
+/// exceeds half the larger of the two): a gross error, not the scatter and slight misfit of
+/// an honest test, which the studentized residual alone flags in the demo tests' top rows.
+pub const OUTLIER_FACTOR_SHARE: f64 = 0.5;
+
+/// Externally studentized residuals of a least-squares fit with `p` parameters (Belsley, Kuh
+/// and Welsch, "Regression Diagnostics", Wiley 1980): t_i = e_i / (s_(i)·√(1 − h_ii)), with
+/// e the weighted residuals, h_ii the leverages from the weighted Jacobian J
+/// (diagonal of J(JᵀJ)⁻¹Jᵀ) and s_(i)² = (Σe² − e_i²/(1 − h_ii)) / (n − p − 1), the residual
+/// variance without row i, so the outlier does not hide itself. `None` for a row with
+/// leverage 1 (the fit passes through it whatever it says) or too few rows.
+pub fn studentized_residuals(e: &[f64], jacobian: &DMatrix<f64>) -> Vec<Option<f64>> {
+    let (n, p) = (e.len(), jacobian.ncols());
+    let Some(inverse) = (jacobian.transpose() * jacobian).try_inverse() else {
+        return vec![None; n];
+    };
+    if n < p + 2 || jacobian.nrows() != n {
+        return vec![None; n];
+    }
+    let ssr: f64 = e.iter().map(|v| v * v).sum();
+    (0..n)
+        .map(|i| {
+            let row = jacobian.row(i);
+            let h = (row * &inverse * row.transpose())[(0, 0)];
+            let free = 1.0 - h;
+            if free.is_nan() || free <= 1e-12 {
+                return None;
+            }
+            let s2 = (ssr - e[i] * e[i] / free) / (n - p - 1) as f64;
+            (s2 > 0.0).then(|| e[i] / (s2.sqrt() * free.sqrt()))
+        })
+        .collect()
 }
 
 impl PfeifferFit {
@@ -369,7 +419,7 @@ pub fn fit_points(
         }
     };
 
-    let fit_points: Vec<FitPoint> = points
+    let mut fit_points: Vec<FitPoint> = points
         .iter()
         .map(|p| {
             let fitted = pfeiffer_pressure(k1, k2, p.strain);
@@ -379,14 +429,65 @@ pub fn fit_points(
                 pressure: p.pressure,
                 fitted,
                 residual: fitted - p.pressure,
+                studentized: None,
             }
         })
         .collect();
-    let mean = pressure.iter().sum::<f64>() / n as f64;
-    let sst: f64 = pressure.iter().map(|p| (p - mean) * (p - mean)).sum();
+    // R² of the weighted sum the fit minimised (see `PfeifferFit::r_squared`).
+    let w2: Vec<f64> = weight.iter().map(|w| w * w).collect();
+    let mean = w2.iter().zip(&pressure).map(|(w, p)| w * p).sum::<f64>() / w2.iter().sum::<f64>();
+    let sst: f64 = w2
+        .iter()
+        .zip(&pressure)
+        .map(|(w, p)| w * (p - mean) * (p - mean))
+        .sum();
+    let weighted_ssr: f64 = w2
+        .iter()
+        .zip(&fit_points)
+        .map(|(w, p)| w * p.residual * p.residual)
+        .sum();
+    let r_squared = if sst > 0.0 {
+        1.0 - weighted_ssr / sst
+    } else {
+        f64::NAN
+    };
     let ssr: f64 = fit_points.iter().map(|p| p.residual * p.residual).sum();
-    let r_squared = if sst > 0.0 { 1.0 - ssr / sst } else { f64::NAN };
     let rms_residual = (ssr / n as f64).sqrt();
+    let weighted: Vec<f64> = weight
+        .iter()
+        .zip(&fit_points)
+        .map(|(w, p)| w * p.residual)
+        .collect();
+    let studentized = studentized_residuals(&weighted, &solution.jacobian);
+    for (point, t) in fit_points.iter_mut().zip(&studentized) {
+        point.studentized = t.filter(|t| t.is_finite());
+    }
+    let flagged: Vec<(usize, f64)> = studentized
+        .into_iter()
+        .enumerate()
+        .filter_map(|(i, t)| t.filter(|t| t.abs() > OUTLIER_STUDENTIZED).map(|t| (i, t)))
+        .filter(|&(i, _)| {
+            let p = &fit_points[i];
+            p.residual.abs() > OUTLIER_FACTOR_SHARE * p.fitted.abs().max(p.pressure.abs())
+        })
+        .collect();
+    for &(i, score) in &flagged {
+        let p = &fit_points[i];
+        let stress = |v| {
+            crate::units::format_quantity(
+                v,
+                crate::units::QuantityKind::Stress,
+                crate::units::UnitSystem::Si,
+            )
+        };
+        warnings.push(format!(
+            "line {}: the measured {} is an outlier (the law gives {}; studentized residual {score:.1}, beyond ±{OUTLIER_STUDENTIZED}, more than a factor of 2 off); check the row, or remove it and fit again",
+            p.line,
+            stress(p.pressure),
+            stress(p.fitted),
+        ));
+    }
+    let outlier_lines = flagged.iter().map(|&(i, _)| fit_points[i].line).collect();
 
     if n < options.few_points {
         warnings.push(format!(
@@ -429,6 +530,7 @@ pub fn fit_points(
         iterations: solution.iterations,
         points: fit_points,
         dropped_unloading,
+        outliers: outlier_lines,
         warnings,
     })
 }

@@ -9,6 +9,11 @@
 //! Read exactly: a data row with more cells than the header is an error (a decimal-comma file
 //! would otherwise be read as extra columns), line endings may be LF, CRLF or CR alone, and
 //! files over [`MAX_STACK_FILE_BYTES`] are refused unread, like case files.
+//!
+//! Spreadsheet exports where the comma is the decimal separator use semicolons between cells:
+//! a header row with a semicolon makes the file semicolon-separated, and its cells may then
+//! use a decimal comma ("0,05"; one comma, no point). In a comma-separated file a decimal
+//! comma stays an error, as above.
 
 use std::collections::BTreeMap;
 use std::io::Read;
@@ -115,9 +120,17 @@ fn parse_number(
     column: usize,
     header: &str,
     text: &str,
+    decimal_comma: bool,
 ) -> Result<f64, CalibrateError> {
     let t = text.trim();
-    match t.parse::<f64>() {
+    let with_point;
+    let number = if decimal_comma && t.matches(',').count() == 1 && !t.contains('.') {
+        with_point = t.replace(',', ".");
+        with_point.as_str()
+    } else {
+        t
+    };
+    match number.parse::<f64>() {
         Ok(v) if v.is_finite() => Ok(v),
         _ => Err(CalibrateError::Value {
             origin: origin.to_string(),
@@ -174,7 +187,7 @@ pub fn read_stack_file(path: &Path) -> Result<String, CalibrateError> {
     let origin = path.display().to_string();
     let read_error = |source| CalibrateError::Read {
         path: path.to_path_buf(),
-        source,
+        error: source,
     };
     // Checked before opening: opening a pipe for reading waits for a writer.
     let meta = std::fs::metadata(path).map_err(read_error)?;
@@ -223,7 +236,20 @@ pub fn parse_stack_csv(
     };
     let metadata = read_metadata(text);
     let mut notes = Vec::new();
+    // The header row decides the separator (see the module docs).
+    let semicolons = text
+        .lines()
+        .map(str::trim)
+        .find(|l| !l.is_empty() && !l.starts_with('#'))
+        .is_some_and(|header| header.contains(';'));
+    if semicolons {
+        notes.push(
+            "read as semicolon-separated (a spreadsheet export); decimal commas read as decimal points"
+                .to_string(),
+        );
+    }
     let mut reader = csv::ReaderBuilder::new()
+        .delimiter(if semicolons { b';' } else { b',' })
         .comment(Some(b'#'))
         .trim(csv::Trim::All)
         .flexible(true)
@@ -353,7 +379,7 @@ pub fn parse_stack_csv(
                 column: headers.len() + 1,
                 header: "beyond the header".to_string(),
                 message: format!(
-                    "the row has {} cells but the header names {} columns; if the numbers use a decimal comma (\"0,05\"), write them with a decimal point or quote them",
+                    "the row has {} cells but the header names {} columns; if the numbers use a decimal comma (\"0,05\"), write them with a decimal point, quote them, or separate the cells with semicolons",
                     record.len(),
                     headers.len()
                 ),
@@ -361,7 +387,7 @@ pub fn parse_stack_csv(
         }
         let field = |index: usize, header: &str| -> Result<f64, CalibrateError> {
             let text = record.get(index).unwrap_or("");
-            parse_number(origin, line, index + 1, header, text)
+            parse_number(origin, line, index + 1, header, text, semicolons)
         };
         let x = field(x_index, &x_header)?;
         let p = field(p_index, &p_header)? * p_factor;

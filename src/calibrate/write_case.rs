@@ -141,7 +141,7 @@ pub fn write_fit_into_case(
     };
     let read_error = |source| CalibrateError::Read {
         path: path.to_path_buf(),
-        source,
+        error: source,
     };
     // A pipe or device is refused before it is opened (reading one could wait forever).
     if !std::fs::metadata(path).map_err(read_error)?.is_file() {

@@ -178,6 +178,12 @@ impl Case {
 
     /// Read and parse a case file. Files over [`MAX_CASE_FILE_BYTES`] are refused unread.
     pub fn load(path: &std::path::Path) -> Result<Case, CaseError> {
+        Case::load_with_text(path).map(|(case, _)| case)
+    }
+
+    /// [`Case::load`], also returning the file's text so that a later resolve error can name
+    /// the line of its field ([`Case::resolve_in_file`]).
+    pub fn load_with_text(path: &std::path::Path) -> Result<(Case, String), CaseError> {
         use std::io::Read;
         let origin = path.display().to_string();
         let read_error = |error| CaseError::Read {
@@ -198,7 +204,10 @@ impl Case {
         file.take(MAX_CASE_FILE_BYTES + 1)
             .read_to_end(&mut bytes)
             .map_err(read_error)?;
-        Case::from_yaml_bytes(&bytes, &origin)
+        let case = Case::from_yaml_bytes(&bytes, &origin)?;
+        // UTF-8 was checked by `from_yaml_bytes`.
+        let text = String::from_utf8(bytes).unwrap_or_default();
+        Ok((case, text))
     }
 
     /// The case as YAML text (the schema of this module).
@@ -234,8 +243,64 @@ impl Case {
         .resolve(self)
     }
 
-    /// Load a file and resolve it, naming the file in every message.
+    /// Resolve a case read from a file whose text is `text`, naming `origin` and, where the
+    /// field is written in the file, its line in every message (as the parser does for unknown
+    /// keys).
+    pub fn resolve_in_file(&self, origin: &str, text: &str) -> Result<ResolvedCase, CaseError> {
+        self.resolve_as(origin).map_err(|error| error.located(text))
+    }
+
+    /// Load a file and resolve it, naming the file and the field's line in every message.
     pub fn load_resolved(path: &std::path::Path) -> Result<ResolvedCase, CaseError> {
-        Case::load(path)?.resolve_as(&path.display().to_string())
+        let (case, text) = Case::load_with_text(path)?;
+        case.resolve_in_file(&path.display().to_string(), &text)
+    }
+}
+
+impl CaseError {
+    /// Add the line of the field this error is about, found in the case file's `text`, after
+    /// the origin ("case.yaml: line 3: winding.speed: ..."). Errors about fields that are not
+    /// written in the file (a preset's value, a missing key) are returned unchanged.
+    pub fn located(self, text: &str) -> CaseError {
+        let at_line = |origin: String, field: &str| match yaml_guard::field_line(text, field) {
+            Some(line) => format!("{origin}: line {line}"),
+            None => origin,
+        };
+        match self {
+            CaseError::Quantity { origin, error } => {
+                let field = error.field().to_string();
+                CaseError::Quantity {
+                    origin: at_line(origin, &field),
+                    error,
+                }
+            }
+            CaseError::OutOfRange {
+                origin,
+                field,
+                given,
+                accepted,
+            } => CaseError::OutOfRange {
+                origin: at_line(origin, &field),
+                field,
+                given,
+                accepted,
+            },
+            CaseError::UnknownName {
+                origin,
+                field,
+                what,
+                given,
+                suggestion,
+                accepted,
+            } => CaseError::UnknownName {
+                origin: at_line(origin, &field),
+                field,
+                what,
+                given,
+                suggestion,
+                accepted,
+            },
+            other => other,
+        }
     }
 }

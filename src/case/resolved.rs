@@ -152,6 +152,12 @@ impl AssumedValue {
     pub fn is_default(&self) -> bool {
         self.origin == ValueOrigin::Default
     }
+
+    /// True for a value given in another form and converted (a tension written as a web
+    /// stress or a total force): given, but worth echoing back in the unit the model uses.
+    pub fn is_conversion(&self) -> bool {
+        self.origin == ValueOrigin::Computed && self.source.starts_with("converted from")
+    }
 }
 
 impl ResolvedCase {

@@ -212,3 +212,127 @@ fn duplicate_key_location(text: &str, message: &str) -> Option<(usize, usize)> {
     }
     None
 }
+
+/// One step of a field path: a key (`winding`) or a list index (`[2]`).
+enum PathStep<'a> {
+    Key(&'a str),
+    Index(usize),
+}
+
+fn path_steps(path: &str) -> Option<Vec<PathStep<'_>>> {
+    let mut steps = Vec::new();
+    for part in path.split('.') {
+        let (key, mut rest) = match part.find('[') {
+            Some(at) => (&part[..at], &part[at..]),
+            None => (part, ""),
+        };
+        if !key.is_empty() {
+            steps.push(PathStep::Key(key));
+        }
+        while let Some(inner) = rest.strip_prefix('[') {
+            let end = inner.find(']')?;
+            steps.push(PathStep::Index(inner[..end].trim().parse().ok()?));
+            rest = &inner[end + 1..];
+        }
+    }
+    Some(steps)
+}
+
+/// The key of a `key: value` line (quotes removed), if it is one.
+fn line_key(content: &str) -> Option<&str> {
+    let colon = content.find(':')?;
+    let key = content[..colon].trim();
+    let key = key
+        .strip_prefix('"')
+        .and_then(|k| k.strip_suffix('"'))
+        .or_else(|| key.strip_prefix('\'').and_then(|k| k.strip_suffix('\'')))
+        .unwrap_or(key);
+    Some(key)
+}
+
+/// The 1-based line where the field at `path` (`winding.speed`, `winding.taper.steps[1].at`,
+/// `symptoms[0].where`) is written in block-style YAML `text`; `None` when it is not written
+/// there (a preset's value, a missing key) or the file uses flow style. Found by indentation,
+/// which is how case files are written (`case new`, the UI's save, by hand).
+pub(crate) fn field_line(text: &str, path: &str) -> Option<usize> {
+    // (line number, indent, content) of every line that holds YAML.
+    let mut lines: Vec<(usize, usize, String)> = text
+        .lines()
+        .enumerate()
+        .filter_map(|(i, line)| {
+            let content = line.trim_start();
+            if content.is_empty() || content.starts_with('#') || content.starts_with("---") {
+                return None;
+            }
+            Some((i + 1, line.len() - content.len(), content.to_string()))
+        })
+        .collect();
+    let mut range = 0..lines.len();
+    let mut found = None;
+    for step in path_steps(path)? {
+        let indent = lines.get(range.start).filter(|_| !range.is_empty())?.1;
+        let at = match step {
+            PathStep::Key(key) => range
+                .clone()
+                .find(|&j| lines[j].1 == indent && line_key(&lines[j].2) == Some(key))?,
+            PathStep::Index(index) => {
+                let item = range
+                    .clone()
+                    .filter(|&j| lines[j].1 == indent && lines[j].2.starts_with('-'))
+                    .nth(index)?;
+                // Read the item's first line as if the dash were a space: its keys then line
+                // up with the keys on the lines below it.
+                let rest = lines[item].2[1..].to_string();
+                let content = rest.trim_start();
+                lines[item].1 += 1 + rest.len() - content.len();
+                lines[item].2 = content.to_string();
+                found = Some(lines[item].0);
+                let end = (item + 1..range.end)
+                    .find(|&j| lines[j].1 <= indent)
+                    .unwrap_or(range.end);
+                range = if lines[item].2.is_empty() {
+                    item + 1..end
+                } else {
+                    item..end
+                };
+                continue;
+            }
+        };
+        found = Some(lines[at].0);
+        // The children: deeper lines, and a list written at the key's own indent.
+        let end = (at + 1..range.end)
+            .find(|&j| {
+                lines[j].1 < indent || (lines[j].1 == indent && !lines[j].2.starts_with('-'))
+            })
+            .unwrap_or(range.end);
+        range = at + 1..end;
+    }
+    found
+}
+
+#[cfg(test)]
+mod field_line_tests {
+    use super::field_line;
+
+    const TEXT: &str = "title: t\n# a comment\nweb:\n  preset: newsprint\n  thickness: \"76 um\"\nwinding:\n  speed: \"900 furlongs\"\n  taper:\n    kind: steps\n    steps:\n      - at: \"300 mm\"\n        tension: \"1 pli\"\n      - at: \"600 mm\"\n        tension: \"9 psi\"\nsymptoms:\n- id: telescoping\n  where: core\n- id: starring\n  where: middle\n";
+
+    #[test]
+    fn finds_keys_and_list_items() {
+        assert_eq!(field_line(TEXT, "web.thickness"), Some(5));
+        assert_eq!(field_line(TEXT, "winding.speed"), Some(7));
+        assert_eq!(field_line(TEXT, "winding.taper.steps[0].at"), Some(11));
+        assert_eq!(field_line(TEXT, "winding.taper.steps[1].tension"), Some(14));
+        assert_eq!(field_line(TEXT, "winding.taper.steps[1]"), Some(13));
+        assert_eq!(field_line(TEXT, "symptoms[1].where"), Some(19));
+        assert_eq!(field_line(TEXT, "symptoms[0].id"), Some(16));
+    }
+
+    #[test]
+    fn fields_not_written_have_no_line() {
+        assert_eq!(field_line(TEXT, "web.width"), None);
+        assert_eq!(field_line(TEXT, "winding.taper.steps[2].at"), None);
+        assert_eq!(field_line(TEXT, "core.preset"), None);
+        assert_eq!(field_line(TEXT, "speed"), None);
+        assert_eq!(field_line("web: {thickness: 1}", "web.thickness"), None);
+    }
+}

@@ -58,9 +58,29 @@ pub fn date(text: &str) -> Result<String, String> {
     }
 }
 
-fn share(text: &str, ok: impl Fn(f64) -> bool, accepted: &str) -> Result<f64, String> {
+/// A ratio (a plain number) in the range `ok`.
+fn ratio(text: &str, ok: impl Fn(f64) -> bool, accepted: &str) -> Result<f64, String> {
     match text.trim().parse::<f64>() {
         Ok(v) if v.is_finite() && ok(v) => Ok(v),
+        _ => Err(format!("\"{text}\" is out of range; accepted: {accepted}")),
+    }
+}
+
+/// A share: a fraction (0.8) or a percentage ("80 %", "80%"), in the range `ok` as a fraction.
+/// A bare number that only makes sense as a percentage ("80") is refused with both ways to
+/// write what was probably meant, rather than read as 8000 %.
+fn share(text: &str, ok: impl Fn(f64) -> bool, accepted: &str) -> Result<f64, String> {
+    let accepted = format!("{accepted}, as a fraction (0.8 means 80 %) or a percentage (\"80 %\")");
+    match parse_quantity("share", text, QuantityKind::Percent) {
+        Ok(v) if v.is_finite() && ok(v) => Ok(v),
+        Ok(v) if !text.contains('%') && v > 1.0 && ok(v / 100.0) => {
+            let t = text.trim();
+            Err(format!(
+                "\"{t}\" is out of range: as a fraction it is {} %; for {t} % write \"{t} %\" or {}; accepted: {accepted}",
+                100.0 * v,
+                v / 100.0
+            ))
+        }
         _ => Err(format!("\"{text}\" is out of range; accepted: {accepted}")),
     }
 }
@@ -70,13 +90,13 @@ pub fn core_share(text: &str) -> Result<f64, String> {
     share(
         text,
         |v| v > 0.0 && v <= 1.5,
-        "a number above 0, at most 1.5",
+        "above 0 and at most 1.5 (150 %)",
     )
 }
 
 /// `taper --min-telescoping-margin`: 0 < margin ≤ 100 (the taper design's own range).
 pub fn telescoping_margin(text: &str) -> Result<f64, String> {
-    share(
+    ratio(
         text,
         |v| v > 0.0 && v <= 100.0,
         "a number above 0, at most 100",
@@ -85,12 +105,16 @@ pub fn telescoping_margin(text: &str) -> Result<f64, String> {
 
 /// `taper --starring-share`: 0 < share < 1.
 pub fn starring_share(text: &str) -> Result<f64, String> {
-    share(text, |v| v > 0.0 && v < 1.0, "a number above 0 and below 1")
+    share(text, |v| v > 0.0 && v < 1.0, "above 0 and below 1 (100 %)")
 }
 
 /// `taper --tension-share`: 0 < share ≤ 1.
 pub fn tension_share(text: &str) -> Result<f64, String> {
-    share(text, |v| v > 0.0 && v <= 1.0, "a number above 0, at most 1")
+    share(
+        text,
+        |v| v > 0.0 && v <= 1.0,
+        "above 0 and at most 1 (100 %)",
+    )
 }
 
 fn quantity(text: &str, kind: QuantityKind) -> Result<String, String> {

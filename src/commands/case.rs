@@ -165,8 +165,12 @@ fn check(args: &CheckArgs) -> anyhow::Result<()> {
                     resolved.assumed.iter().filter(|a| a.is_default()).count(),
                     origin_counts(&resolved.assumed)
                 )?;
+                // Values given in another form, echoed in the unit the model uses.
+                for a in resolved.assumed.iter().filter(|a| a.is_conversion()) {
+                    writeln!(out, "          {} = {}  [{}]", a.field, a.value, a.source)?;
+                }
                 if args.assumed {
-                    for a in &resolved.assumed {
+                    for a in resolved.assumed.iter().filter(|a| !a.is_conversion()) {
                         let how = match a.origin {
                             ValueOrigin::Default => "",
                             ValueOrigin::Preset => "preset value, unchanged: ",
@@ -185,7 +189,7 @@ fn check(args: &CheckArgs) -> anyhow::Result<()> {
                 writeln!(out, "FAILED  {}", path.display())?;
                 // Flush first so the FAILED line comes before the message on a terminal.
                 out.flush()?;
-                eprintln!("error: {error:#}");
+                eprintln!("error: {}", super::output::error_text(&error));
             }
         }
     }

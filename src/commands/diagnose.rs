@@ -62,12 +62,10 @@ pub fn load_rules(dir: Option<&PathBuf>) -> anyhow::Result<RuleBase> {
 
 pub fn run(args: &DiagnoseArgs) -> anyhow::Result<()> {
     let rules = load_rules(args.rules.as_ref())?;
-    let mut case =
-        Case::load(&args.case).with_context(|| format!("reading {}", args.case.display()))?;
+    // The errors name the file (and the field's line) themselves.
+    let (mut case, text) = Case::load_with_text(&args.case)?;
     super::measure::apply_measure_args(&mut case, &args.measure)?;
-    let mut resolved = case
-        .resolve()
-        .with_context(|| format!("resolving {}", args.case.display()))?;
+    let mut resolved = case.resolve_in_file(&args.case.display().to_string(), &text)?;
     for word in &args.symptoms {
         let id = diagnose::resolve_symptom(&rules, word)
             .map_err(|m| anyhow::anyhow!("--symptom: {m}"))?;

@@ -178,13 +178,10 @@ fn end_line(value: &str) -> anyhow::Result<EndLineInput> {
 }
 
 pub fn run(args: &CompareArgs) -> anyhow::Result<()> {
-    let mut case =
-        Case::load(&args.case).with_context(|| format!("reading {}", args.case.display()))?;
+    let (mut case, text) = Case::load_with_text(&args.case)?;
     apply_measure_args(&mut case, &args.measure)?;
     let origin = args.case.display().to_string();
-    let resolved = case
-        .resolve_as(&origin)
-        .with_context(|| format!("resolving {origin}"))?;
+    let resolved = case.resolve_in_file(&origin, &text)?;
     let Some(measurements) = resolved.measurements.clone() else {
         bail!(
             "{origin}: nothing measured; add a `measurements:` section to the case or use --measure KEY=VALUE"

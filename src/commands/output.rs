@@ -48,3 +48,22 @@ impl Write for Stdout {
         self.0.flush().map_err(with_context)
     }
 }
+
+/// An error and its causes as one line, each part once: `context: message: cause`. A cause whose
+/// text the line already holds is left out, so an error type that writes its source into its
+/// own message ("cannot read x.csv: No such file or directory") is not followed by the same
+/// source again, as `{:#}` would print it.
+pub fn error_text(error: &anyhow::Error) -> String {
+    let mut text = String::new();
+    for cause in error.chain() {
+        let part = cause.to_string();
+        if part.is_empty() || text.contains(&part) {
+            continue;
+        }
+        if !text.is_empty() {
+            text.push_str(": ");
+        }
+        text.push_str(&part);
+    }
+    text
+}

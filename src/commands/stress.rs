@@ -137,11 +137,9 @@ pub fn parse_resolution(text: &str) -> anyhow::Result<Resolution> {
 
 pub fn run(args: &StressArgs) -> anyhow::Result<()> {
     let resolution = parse_resolution(&args.resolution)?;
-    let case =
-        Case::load(&args.case).with_context(|| format!("reading {}", args.case.display()))?;
-    let resolved = case
-        .resolve()
-        .with_context(|| format!("resolving {}", args.case.display()))?;
+    // The errors name the file (and the field's line) themselves.
+    let (case, text) = Case::load_with_text(&args.case)?;
+    let resolved = case.resolve_in_file(&args.case.display().to_string(), &text)?;
     let options = SolverOptions {
         resolution,
         modulus_update: match args.modulus {
@@ -175,9 +173,17 @@ pub fn run(args: &StressArgs) -> anyhow::Result<()> {
         Format::Table => {
             let mechanics = rolltriage::mechanics::MechanicsInputs::from_case(&resolved);
             let mut t = summary_table(&resolved.title, &problem, &profile, &mechanics, system);
-            if !resolved.assumed.is_empty() {
+            let (converted, assumed): (Vec<_>, Vec<_>) =
+                resolved.assumed.iter().partition(|a| a.is_conversion());
+            if !converted.is_empty() {
+                t.push_str("\nConverted (as given in the case file):\n");
+                for a in &converted {
+                    t.push_str(&format!("  {} = {}  ({})\n", a.field, a.value, a.source));
+                }
+            }
+            if !assumed.is_empty() {
                 t.push_str("\nAssumed (not in the case file):\n");
-                for a in &resolved.assumed {
+                for a in &assumed {
                     t.push_str(&format!("  {} = {}  ({})\n", a.field, a.value, a.source));
                 }
             }

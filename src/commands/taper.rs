@@ -11,17 +11,20 @@ use rolltriage::units::{QuantityKind, UnitSystem, format_quantity, parse_quantit
 pub struct TaperArgs {
     /// The case file (web, core, roll, current winding settings).
     pub case: PathBuf,
-    /// Largest share of the core's rated crush pressure the core may carry.
+    /// Largest share of the core's rated crush pressure the core may carry: a fraction
+    /// (0.8 means 80 %) or a percentage ("80 %").
     #[arg(long, default_value_t = taper_design::DEFAULT_CORE_SHARE, value_name = "SHARE", value_parser = super::arg_check::core_share)]
     pub core_share: f64,
     /// Smallest telescoping margin allowed: friction × pressure over the axial shear of lifting
     /// the roll by its core, at every interface (see docs/taper-design.md).
     #[arg(long, default_value_t = taper_design::DEFAULT_MIN_TELESCOPING_MARGIN, value_name = "RATIO", value_parser = super::arg_check::telescoping_margin)]
     pub min_telescoping_margin: f64,
-    /// Share of the peak pressure below which a compressive band counts as starring risk.
+    /// Share of the peak pressure below which a compressive band counts as starring risk
+    /// (a fraction or a percentage).
     #[arg(long, default_value_t = taper_design::DEFAULT_STARRING_PRESSURE_SHARE, value_name = "SHARE", value_parser = super::arg_check::starring_share)]
     pub starring_share: f64,
-    /// Largest wound-in tension as a share of the web's tensile strength.
+    /// Largest wound-in tension as a share of the web's tensile strength (a fraction or a
+    /// percentage).
     #[arg(long, default_value_t = taper_design::DEFAULT_TENSION_SHARE, value_name = "SHARE", value_parser = super::arg_check::tension_share)]
     pub tension_share: f64,
     /// Taper shape.
@@ -55,10 +58,9 @@ pub enum UnitsArg {
 }
 
 pub fn run(args: &TaperArgs) -> anyhow::Result<()> {
-    let case = rolltriage::case::Case::load(&args.case)?;
-    let resolved = case
-        .resolve()
-        .with_context(|| format!("cannot resolve {}", args.case.display()))?;
+    // The errors name the file (and the field's line) themselves.
+    let (case, text) = rolltriage::case::Case::load_with_text(&args.case)?;
+    let resolved = case.resolve_in_file(&args.case.display().to_string(), &text)?;
     let max_taper = args
         .max_taper
         .as_deref()

@@ -16,7 +16,7 @@ use rolltriage::units::UnitSystem;
 #[command(after_help = "Examples:
   rolltriage train --list
   rolltriage train telescoping_newsprint              (interactive: type the number of your answer)
-  rolltriage train telescoping_newsprint --answers 2,1,1,2
+  rolltriage train telescoping_newsprint --seed 7 --answers 2,1,1,2
   rolltriage train --lint cases/training")]
 pub struct TrainArgs {
     /// Walk-through ID (see --list) or a walk-through file.
@@ -24,9 +24,14 @@ pub struct TrainArgs {
     /// List the walk-throughs.
     #[arg(long)]
     pub list: bool,
-    /// Answer every question from this comma-separated list of choice numbers (scripted mode).
-    #[arg(long, value_delimiter = ',')]
+    /// Answer every question from this comma-separated list of choice numbers (scripted mode;
+    /// needs --seed, since the choices are shuffled).
+    #[arg(long, value_delimiter = ',', requires = "seed")]
     pub answers: Option<Vec<usize>>,
+    /// Shuffle the choices with this seed (the same seed gives the same order); without it a
+    /// new order each session, and the seed is printed so the run can be repeated.
+    #[arg(long)]
+    pub seed: Option<u64>,
     /// Check every walk-through file in DIR and exit.
     #[arg(long, value_name = "DIR")]
     pub lint: Option<PathBuf>,
@@ -112,22 +117,35 @@ fn run_inner(args: &TrainArgs) -> anyhow::Result<()> {
             problems.len()
         );
     }
+    let count = loaded.walkthrough.questions.len();
+    // Checked before the story is printed (and before the roll is solved).
+    if let Some(answers) = &args.answers
+        && answers.len() != count
+    {
+        anyhow::bail!(
+            "--answers gives {} answer(s) but walk-through {} has {count} questions",
+            answers.len(),
+            loaded.walkthrough.id
+        );
+    }
     let case = load_case(&loaded)?;
     let rules = RuleBase::embedded().ok();
     let context = TrainingContext::compute(case, rules.as_ref(), unit_system);
     let mut session = Session::new(loaded.walkthrough.clone(), context);
+    let seed = args.seed.unwrap_or_else(|| {
+        std::time::SystemTime::now()
+            .duration_since(std::time::UNIX_EPOCH)
+            .map_or(1, |d| d.as_secs() % 1_000_000)
+    });
+    session.shuffle_choices(seed);
     let mut out = super::output::stdout();
     writeln!(out, "{}", session.briefing())?;
-    let count = session.walkthrough.questions.len();
+    writeln!(
+        out,
+        "(Choices shuffled with seed {seed}; `--seed {seed}` gives this order again.)\n"
+    )?;
     match &args.answers {
         Some(answers) => {
-            if answers.len() != count {
-                anyhow::bail!(
-                    "--answers gives {} answer(s) but walk-through {} has {count} questions",
-                    answers.len(),
-                    session.walkthrough.id
-                );
-            }
             for (index, answer) in answers.iter().enumerate() {
                 writeln!(out, "{}", session.question_text(index)?)?;
                 let choice = answer.checked_sub(1).ok_or_else(|| {

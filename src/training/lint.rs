@@ -33,7 +33,7 @@ fn origin_of(loaded: &LoadedWalkthrough) -> String {
 pub fn lint_dir(dir: &std::path::Path) -> Result<Vec<LintProblem>, super::TrainingError> {
     let paths = crate::fsutil::yaml_files(dir).map_err(|source| super::TrainingError::Read {
         path: dir.to_path_buf(),
-        source,
+        error: source,
     })?;
     let mut problems = Vec::new();
     let mut loaded = Vec::new();
@@ -104,6 +104,9 @@ pub fn lint_walkthroughs(walkthroughs: &[LoadedWalkthrough]) -> Vec<LintProblem>
         if let Some(summary) = &w.summary {
             texts.push(("summary", summary.clone()));
         }
+        if let Some(introduction) = &w.introduction {
+            texts.push(("introduction", introduction.clone()));
+        }
         for (index, q) in w.questions.iter().enumerate() {
             let at = format!("question {} ({})", index + 1, q.id);
             if !question_ids.insert(q.id.clone()) {
@@ -151,7 +154,11 @@ pub fn lint_walkthroughs(walkthroughs: &[LoadedWalkthrough]) -> Vec<LintProblem>
                 if let Some(feedback) = &choice.feedback {
                     texts.push(("choice feedback", feedback.clone()));
                 }
+                texts.push(("choice", choice.text.clone()));
             }
+            // Every text the trainee reads is filled, the prompt too; an unknown name would be
+            // shown as written ("{roll_diametre}").
+            texts.push(("prompt", q.prompt.clone()));
             texts.push(("explanation", q.explanation.clone()));
             if q.explanation.trim().is_empty() {
                 problem(format!("{at}: explanation is empty"));

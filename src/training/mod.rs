@@ -118,10 +118,12 @@ impl Question {
 /// Errors of the training module.
 #[derive(Debug, thiserror::Error)]
 pub enum TrainingError {
-    #[error("cannot read {path}: {source}")]
+    /// The field is not called `source`: the message already includes it, and a chain
+    /// printer would repeat it.
+    #[error("cannot read {path}: {error}")]
     Read {
         path: std::path::PathBuf,
-        source: std::io::Error,
+        error: std::io::Error,
     },
     #[error("{origin}: {message}")]
     Invalid { origin: String, message: String },
@@ -168,7 +170,7 @@ impl Walkthrough {
     pub fn load(path: &std::path::Path) -> Result<Walkthrough, TrainingError> {
         let text = std::fs::read_to_string(path).map_err(|source| TrainingError::Read {
             path: path.to_path_buf(),
-            source,
+            error: source,
         })?;
         Walkthrough::from_yaml_str(&text, &path.display().to_string())
     }
@@ -186,7 +188,7 @@ pub struct LoadedWalkthrough {
 pub fn load_dir(dir: &std::path::Path) -> Result<Vec<LoadedWalkthrough>, TrainingError> {
     let paths = crate::fsutil::yaml_files(dir).map_err(|source| TrainingError::Read {
         path: dir.to_path_buf(),
-        source,
+        error: source,
     })?;
     paths
         .into_iter()

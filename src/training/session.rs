@@ -215,6 +215,49 @@ impl Session {
         }
     }
 
+    /// Shuffle every question's choices with `seed` (the same seed gives the same order), so
+    /// the correct answer is not where the file's author happened to write it. Everything
+    /// after this (question text, answers, feedback, score) uses the shuffled order.
+    pub fn shuffle_choices(&mut self, seed: u64) {
+        // SplitMix64 (Steele, Lea and Flood, OOPSLA 2014) and Fisher–Yates: small, portable,
+        // the same sequence on every machine.
+        let mut state = seed;
+        let mut next = move || {
+            state = state.wrapping_add(0x9E37_79B9_7F4A_7C15);
+            let mut z = state;
+            z = (z ^ (z >> 30)).wrapping_mul(0xBF58_476D_1CE4_E5B9);
+            z = (z ^ (z >> 27)).wrapping_mul(0x94D0_49BB_1331_11EB);
+            z ^ (z >> 31)
+        };
+        for question in &mut self.walkthrough.questions {
+            for i in (1..question.choices.len()).rev() {
+                let j = (next() % (i as u64 + 1)) as usize;
+                question.choices.swap(i, j);
+            }
+        }
+    }
+
+    /// The prompt of question `index` (0-based) with this roll's numbers filled in.
+    pub fn prompt(&self, index: usize) -> Result<String, TrainingError> {
+        let q = question_at(&self.walkthrough, index)?;
+        Ok(self.fill(q.prompt.trim()))
+    }
+
+    /// The text of choice `choice` of question `index` (0-based), numbers filled in.
+    pub fn choice_text(&self, index: usize, choice: usize) -> Option<String> {
+        let q = self.walkthrough.questions.get(index)?;
+        q.choices.get(choice).map(|c| self.fill(c.text.trim()))
+    }
+
+    fn fill(&self, text: &str) -> String {
+        fill_placeholders(text, self.context.computed.as_ref(), self.context.units)
+    }
+
+    /// True when every question has an answer.
+    pub fn finished(&self) -> bool {
+        self.answers.iter().all(Option::is_some)
+    }
+
     /// The roll's story and symptoms, as the trainee first sees them.
     pub fn briefing(&self) -> String {
         let case = &self.context.case;
@@ -224,7 +267,7 @@ impl Session {
             "=".repeat(self.walkthrough.title.chars().count())
         );
         if let Some(intro) = &self.walkthrough.introduction {
-            out.push_str(intro.trim());
+            out.push_str(&self.fill(intro.trim()));
             out.push_str("\n\n");
         }
         out.push_str(&format!("Case: {}\n", case.title));
@@ -258,15 +301,16 @@ impl Session {
     /// Question `index` (0-based) with its numbered choices.
     pub fn question_text(&self, index: usize) -> Result<String, TrainingError> {
         let q = question_at(&self.walkthrough, index)?;
+        // The question itself first; its topic is the file's bookkeeping, not the trainee's.
         let mut out = format!(
-            "Question {} of {} ({}): {}\n",
+            "Question {} of {}: {}\n",
             index + 1,
             self.walkthrough.questions.len(),
-            q.topic.as_str(),
-            q.prompt.trim()
+            self.prompt(index)?
         );
-        for (number, choice) in q.choices.iter().enumerate() {
-            out.push_str(&format!("  {}. {}\n", number + 1, choice.text.trim()));
+        for number in 0..q.choices.len() {
+            let text = self.choice_text(index, number).unwrap_or_default();
+            out.push_str(&format!("  {}. {text}\n", number + 1));
         }
         Ok(out)
     }
@@ -309,7 +353,7 @@ impl Session {
             chosen: choice,
             correct_choice,
             correct,
-            correct_text: q.choices[correct_choice].text.clone(),
+            correct_text: fill(&q.choices[correct_choice].text),
             choice_feedback: q.choices[choice].feedback.as_deref().map(fill),
             explanation,
             plot,

@@ -17,7 +17,7 @@ fn matches_scipy_curve_fit_on_the_demo_data() {
     let reference: serde_json::Value =
         serde_json::from_str(&repo_file("tests/reference/curve_fit_pfeiffer.json")).unwrap();
     let cases = reference["cases"].as_array().unwrap();
-    assert_eq!(cases.len(), 6);
+    assert_eq!(cases.len(), 7);
     for case in cases {
         let file = case["file"].as_str().unwrap();
         let weighting = match case["weighting"].as_str().unwrap() {
@@ -66,10 +66,44 @@ fn matches_scipy_curve_fit_on_the_demo_data() {
             "{label} K2 SE {}",
             fit.k2_standard_error
         );
+        // R² of the weighted sum the fit minimises (issue 19), as the script computes it.
         assert!(
             (fit.r_squared - case["r_squared"].as_f64().unwrap()).abs() < 1e-6,
-            "{label} R²"
+            "{label} R² {}",
+            fit.r_squared
         );
+        // The externally studentized residuals, largest in size, to 1 %.
+        let largest = &case["largest_studentized_residual"];
+        let row = largest["row"].as_u64().unwrap() as usize;
+        let t = fit.points[row].studentized.unwrap();
+        assert!(
+            rel(t, largest["value"].as_f64().unwrap()) < 1e-2,
+            "{label} studentized residual {t}"
+        );
+        let biggest = fit
+            .points
+            .iter()
+            .filter_map(|p| p.studentized)
+            .fold(0.0_f64, |m, t| m.max(t.abs()));
+        assert!(
+            (biggest - t.abs()).abs() < 1e-12,
+            "{label}: row {row} is not the largest"
+        );
+        // Only the absurd row is an outlier, and only in its file.
+        if file.contains("absurd") {
+            assert_eq!(fit.outliers, vec![fit.points[row].line], "{label}");
+            assert_eq!(fit.points[row].line, 9, "{label}");
+            assert!(fit.r_squared < 0.99, "{label}: R² {}", fit.r_squared);
+            assert!(
+                fit.warnings
+                    .iter()
+                    .any(|w| w.contains("line 9") && w.contains("outlier")),
+                "{label}: {:?}",
+                fit.warnings
+            );
+        } else {
+            assert!(fit.outliers.is_empty(), "{label}: {:?}", fit.outliers);
+        }
     }
 }
 

@@ -8,3 +8,4 @@ mod bad_data;
 mod cli;
 mod fit;
 mod library;
+mod spreadsheet_csv;

@@ -85,9 +85,16 @@ const CORPUS: &[(&str, Expect, &[&str])] = &[
         &["web.thickness", "76 pli", "a length is needed", "mil"],
     ),
     (
-        "tension_in_psi.yaml",
+        "tension_as_torque.yaml",
         Expect::WrongKind,
-        &["winding.tension", "stress or pressure", "pli"],
+        &[
+            "line 3",
+            "winding.tension",
+            "torque",
+            "pli",
+            "a stress in the web",
+            "total force",
+        ],
     ),
     (
         "thickness_without_unit.yaml",

@@ -10,4 +10,5 @@ mod cli;
 mod cli_output;
 mod demo_cases;
 mod readme;
+mod typed_input;
 mod units;

@@ -5,7 +5,12 @@ Reads the demo stack tests in cases/calibration/, keeps the loading branch (rows
 row where strain falls), converts units independently of the Rust code and fits with
 scipy.optimize.curve_fit (MINPACK Levenberg-Marquardt), once with plain residuals and once with
 relative weights (sigma = max(P, 1 % of max P)). Standard errors are sqrt(diag(pcov)) with
-absolute_sigma=False, i.e. covariance = s^2 (J^T J)^-1.
+absolute_sigma=False, i.e. covariance = s^2 (J^T J)^-1. R^2 is that of the weighted sum the fit
+minimises: 1 - sum(w^2 r^2) / sum(w^2 (P - Pw)^2), w = 1/sigma, Pw the weighted mean (the plain
+R^2 for absolute weighting). Externally studentized residuals (Belsley, Kuh and Welsch 1980):
+t_i = e_i / (s_(i) sqrt(1 - h_ii)), e the weighted residuals, h the leverages of the weighted
+Jacobian, s_(i)^2 = (sum e^2 - e_i^2/(1 - h_ii)) / (n - 3). The extra file
+tests/fixtures/stack_one_absurd_row.csv (one row 10 000 times too large) checks them.
 
 Writes curve_fit_pfeiffer.json; `--check` recomputes and exits non-zero on drift.
 """
@@ -24,6 +29,8 @@ PSI = 4.4482216152605 / 0.0254**2  # Pa (NIST SP 811 exact definitions)
 PRESSURE_UNITS = {"Pa": 1.0, "kPa": 1e3, "MPa": 1e6, "psi": PSI}
 LENGTH_UNITS = {"m": 1.0, "mm": 1e-3, "um": 1e-6, "in": 0.0254}
 FILES = ["harbour_news_45.csv", "harbour_lwc_60_height.csv", "harbour_bopp_25.csv"]
+# (path from the repository root, weightings): test files outside the demo set.
+EXTRA = [("tests/fixtures/stack_one_absurd_row.csv", ("relative",))]
 
 
 def unit_of(header):
@@ -80,14 +87,26 @@ def fit(strain, pressure, weighting):
         method="lm", maxfev=20000, xtol=1e-15, ftol=1e-15, gtol=1e-15,
     )
     residual = pfeiffer(strain, *popt) - pressure
-    sst = float(np.sum((pressure - pressure.mean()) ** 2))
+    w = np.ones_like(pressure) if sigma is None else 1.0 / sigma
+    w2 = w**2
+    mean = float(np.sum(w2 * pressure) / np.sum(w2))
+    sst = float(np.sum(w2 * (pressure - mean) ** 2))
+    e = w * residual
+    k1, k2 = popt
+    jac = np.column_stack([w * np.expm1(k2 * strain), w * k1 * strain * np.exp(k2 * strain)])
+    leverage = np.einsum("ij,jk,ik->i", jac, np.linalg.inv(jac.T @ jac), jac)
+    n = len(strain)
+    s2 = (np.sum(e**2) - e**2 / (1.0 - leverage)) / (n - 3)
+    t = e / (np.sqrt(s2) * np.sqrt(1.0 - leverage))
+    worst = int(np.argmax(np.abs(t)))
     return {
         "k1": float(popt[0]),
         "k2": float(popt[1]),
         "k1_standard_error": float(math.sqrt(pcov[0, 0])),
         "k2_standard_error": float(math.sqrt(pcov[1, 1])),
-        "r_squared": 1.0 - float(np.sum(residual**2)) / sst,
+        "r_squared": 1.0 - float(np.sum(w2 * residual**2)) / sst,
         "points": int(len(strain)),
+        "largest_studentized_residual": {"row": worst, "value": float(t[worst])},
     }
 
 
@@ -97,6 +116,10 @@ def compute():
         strain, pressure = read(DATA / name)
         for weighting in ("absolute", "relative"):
             cases.append({"file": f"cases/calibration/{name}", "weighting": weighting, **fit(strain, pressure, weighting)})
+    for path, weightings in EXTRA:
+        strain, pressure = read(HERE.parent.parent / path)
+        for weighting in weightings:
+            cases.append({"file": path, "weighting": weighting, **fit(strain, pressure, weighting)})
     return {
         "source": "scipy.optimize.curve_fit (method='lm'), scipy " + __import__("scipy").__version__,
         "model": "P = K1*(exp(K2*eps) - 1), K1 in Pa",
@@ -113,6 +136,9 @@ def main():
             for key in ("k1", "k2", "k1_standard_error", "k2_standard_error", "r_squared"):
                 if not math.isclose(new[key], old[key], rel_tol=1e-6):
                     bad.append(f"{old['file']} {old['weighting']} {key}: {old[key]} -> {new[key]}")
+            key = "largest_studentized_residual"
+            if new[key]["row"] != old[key]["row"] or not math.isclose(new[key]["value"], old[key]["value"], rel_tol=1e-6):
+                bad.append(f"{old['file']} {old['weighting']} {key}: {old[key]} -> {new[key]}")
         if len(result["cases"]) != len(committed["cases"]):
             bad.append("number of cases changed")
         if bad:

@@ -124,3 +124,49 @@ fn json_carries_before_and_after_profiles_for_plots() {
         assert_eq!(r.len(), v[key]["pressure_pa"].as_array().unwrap().len());
     }
 }
+
+/// Issue 19: `--core-share 80` is refused with a message that says 0.8 means 80 % and how to
+/// write it; "80 %" and 0.8 are the same setting. Exit 2 like any bad option value.
+#[test]
+fn core_share_takes_a_fraction_or_a_percentage() {
+    let out = bin()
+        .args([
+            "taper",
+            "cases/harbour_newsprint_out_of_round.yaml",
+            "--core-share",
+            "80",
+        ])
+        .output()
+        .unwrap();
+    assert_eq!(out.status.code(), Some(2));
+    let err = String::from_utf8_lossy(&out.stderr);
+    assert!(
+        err.contains("as a fraction it is 8000 %")
+            && err.contains("\"80 %\"")
+            && err.contains("0.8")
+            && err.contains("0.8 means 80 %"),
+        "{err}"
+    );
+    let json = |share: &str| -> serde_json::Value {
+        let out = bin()
+            .args([
+                "taper",
+                "cases/harbour_newsprint_out_of_round.yaml",
+                "--json",
+                "--core-share",
+                share,
+            ])
+            .output()
+            .unwrap();
+        assert!(
+            out.status.success(),
+            "{share}: {}",
+            String::from_utf8_lossy(&out.stderr)
+        );
+        serde_json::from_slice(&out.stdout).unwrap()
+    };
+    let (percent, fraction) = (json("80 %"), json("0.8"));
+    assert_eq!(fraction["limits"]["core_share"], 0.8, "{fraction}");
+    assert_eq!(percent, fraction);
+    assert_eq!(json("80%"), fraction);
+}

@@ -219,7 +219,14 @@ fn rolltriage() -> Command {
 #[test]
 fn scripted_run_prints_feedback_and_score() {
     let output = rolltriage()
-        .args(["train", "telescoping_newsprint", "--answers", "2,1,1,1"])
+        .args([
+            "train",
+            "telescoping_newsprint",
+            "--seed",
+            "7",
+            "--answers",
+            &three_of_four_right("telescoping_newsprint", 7),
+        ])
         .output()
         .unwrap();
     let stdout = String::from_utf8_lossy(&output.stdout);
@@ -230,6 +237,7 @@ fn scripted_run_prints_feedback_and_score() {
     );
     assert!(stdout.contains("Question 4 of 4"));
     assert!(stdout.contains("Score: 3 of 4 correct (75 %)"), "{stdout}");
+    assert!(stdout.contains("seed 7"), "{stdout}");
     // The feedback quotes computed numbers and draws the text plot.
     assert!(stdout.contains("zone  c"), "{stdout}");
     assert!(!stdout.contains("(not computed)"), "{stdout}");
@@ -238,13 +246,40 @@ fn scripted_run_prints_feedback_and_score() {
 #[test]
 fn scripted_run_rejects_wrong_answer_counts_and_ranges() {
     let few = rolltriage()
-        .args(["train", "telescoping_newsprint", "--answers", "2,1"])
+        .args([
+            "train",
+            "telescoping_newsprint",
+            "--seed",
+            "1",
+            "--answers",
+            "2,1",
+        ])
         .output()
         .unwrap();
     assert_eq!(few.status.code(), Some(1));
     assert!(String::from_utf8_lossy(&few.stderr).contains("has 4 questions"));
+    // Refused before the story is printed.
+    assert!(
+        few.stdout.is_empty(),
+        "{}",
+        String::from_utf8_lossy(&few.stdout)
+    );
+    // Scripted answers name the seed of the shuffled order.
+    let unseeded = rolltriage()
+        .args(["train", "telescoping_newsprint", "--answers", "2,1,1,1"])
+        .output()
+        .unwrap();
+    assert_eq!(unseeded.status.code(), Some(2));
+    assert!(String::from_utf8_lossy(&unseeded.stderr).contains("--seed"));
     let out_of_range = rolltriage()
-        .args(["train", "telescoping_newsprint", "--answers", "2,1,9,1"])
+        .args([
+            "train",
+            "telescoping_newsprint",
+            "--seed",
+            "1",
+            "--answers",
+            "2,1,9,1",
+        ])
         .output()
         .unwrap();
     assert_eq!(out_of_range.status.code(), Some(1));
@@ -262,18 +297,22 @@ fn scripted_run_rejects_wrong_answer_counts_and_ranges() {
 #[test]
 fn interactive_run_reads_lines_without_a_terminal() {
     let mut child = rolltriage()
-        .args(["train", "crushed_core_coated"])
+        .args(["train", "crushed_core_coated", "--seed", "5"])
         .stdin(Stdio::piped())
         .stdout(Stdio::piped())
         .stderr(Stdio::piped())
         .spawn()
         .unwrap();
-    // A bad line is asked again; then four answers: all correct per the file.
+    // A bad line is asked again; then four answers: all correct in the order of seed 5.
+    let lines = format!(
+        "seven\n{}\n",
+        answers_for("crushed_core_coated", 5, 4).replace(',', "\n")
+    );
     child
         .stdin
         .take()
         .unwrap()
-        .write_all(b"seven\n1\n2\n1\n2\n")
+        .write_all(lines.as_bytes())
         .unwrap();
     let output = child.wait_with_output().unwrap();
     let stdout = String::from_utf8_lossy(&output.stdout);
@@ -289,12 +328,19 @@ fn interactive_run_reads_lines_without_a_terminal() {
 #[test]
 fn interactive_run_stops_cleanly_at_end_of_input() {
     let mut child = rolltriage()
-        .args(["train", "crushed_core_coated"])
+        .args(["train", "crushed_core_coated", "--seed", "5"])
         .stdin(Stdio::piped())
         .stdout(Stdio::piped())
         .spawn()
         .unwrap();
-    child.stdin.take().unwrap().write_all(b"1\n").unwrap();
+    let first = answers_for("crushed_core_coated", 5, 4);
+    let first = first.split(',').next().unwrap().to_string();
+    child
+        .stdin
+        .take()
+        .unwrap()
+        .write_all(format!("{first}\n").as_bytes())
+        .unwrap();
     let output = child.wait_with_output().unwrap();
     let stdout = String::from_utf8_lossy(&output.stdout);
     assert!(output.status.success());
@@ -302,4 +348,148 @@ fn interactive_run_stops_cleanly_at_end_of_input() {
         stdout.contains("1 of 4 correct (25 %), 3 not answered"),
         "{stdout}"
     );
+}
+
+/// Answers (1-based, comma-separated) to `id` shuffled with `seed`: the first three right, the
+/// last wrong.
+fn three_of_four_right(id: &str, seed: u64) -> String {
+    answers_for(id, seed, 3)
+}
+
+/// Answers to `id` shuffled with `seed`: the first `right` correct, the others wrong.
+fn answers_for(id: &str, seed: u64, right: usize) -> String {
+    let all = library::embedded().unwrap();
+    let loaded = all.iter().find(|l| l.walkthrough.id == id).unwrap();
+    let case = rolltriage::training::load_case(loaded).unwrap();
+    let mut session = Session::new(
+        loaded.walkthrough.clone(),
+        TrainingContext::uncomputed(case, UnitSystem::Si),
+    );
+    session.shuffle_choices(seed);
+    let questions = &session.walkthrough.questions;
+    questions
+        .iter()
+        .enumerate()
+        .map(|(i, q)| {
+            let correct = q.correct_choice().unwrap();
+            let pick = if i < right {
+                correct
+            } else {
+                (correct + 1) % q.choices.len()
+            };
+            (pick + 1).to_string()
+        })
+        .collect::<Vec<_>>()
+        .join(",")
+}
+
+/// Issue 19: the shipped walk-throughs put 26 of 36 correct answers first. Shuffled with a
+/// seed, the order is reproducible, differs between seeds, and the correct answer is no longer
+/// mostly first (at most half of the questions, over a few seeds).
+#[test]
+fn choices_are_shuffled_reproducibly_by_seed() {
+    let all = library::embedded().unwrap();
+    let order = |seed: u64| -> Vec<Vec<String>> {
+        let mut orders = Vec::new();
+        for loaded in &all {
+            let case = rolltriage::training::load_case(loaded).unwrap();
+            let mut session = Session::new(
+                loaded.walkthrough.clone(),
+                TrainingContext::uncomputed(case, UnitSystem::Si),
+            );
+            session.shuffle_choices(seed);
+            for q in &session.walkthrough.questions {
+                orders.push(q.choices.iter().map(|c| c.text.clone()).collect());
+            }
+        }
+        orders
+    };
+    assert_eq!(order(11), order(11));
+    assert_ne!(order(11), order(12));
+    let first_correct = |seed: u64| -> usize {
+        let mut count = 0;
+        for loaded in &all {
+            let case = rolltriage::training::load_case(loaded).unwrap();
+            let mut session = Session::new(
+                loaded.walkthrough.clone(),
+                TrainingContext::uncomputed(case, UnitSystem::Si),
+            );
+            session.shuffle_choices(seed);
+            count += session
+                .walkthrough
+                .questions
+                .iter()
+                .filter(|q| q.correct_choice() == Some(0))
+                .count();
+        }
+        count
+    };
+    let questions: usize = all.iter().map(|l| l.walkthrough.questions.len()).sum();
+    let unshuffled: usize = all
+        .iter()
+        .flat_map(|l| &l.walkthrough.questions)
+        .filter(|q| q.correct_choice() == Some(0))
+        .count();
+    assert!(
+        unshuffled * 2 > questions,
+        "the shipped files: {unshuffled} of {questions} first"
+    );
+    let shuffled: usize = (1..=4).map(first_correct).sum();
+    assert!(
+        shuffled * 2 <= 4 * questions,
+        "{shuffled} of {}",
+        4 * questions
+    );
+}
+
+/// Issue 19: prompts start with the question (no topic label), their placeholders are filled,
+/// and the lint catches an unknown placeholder in a prompt or a choice.
+#[test]
+fn prompts_are_questions_with_numbers_filled_and_linted() {
+    for loaded in library::embedded().unwrap() {
+        let case = rolltriage::training::load_case(&loaded).unwrap();
+        let session = Session::new(
+            loaded.walkthrough.clone(),
+            TrainingContext::compute(case, None, UnitSystem::Si),
+        );
+        for (index, q) in loaded.walkthrough.questions.iter().enumerate() {
+            let text = session.question_text(index).unwrap();
+            let first = text.lines().next().unwrap();
+            assert!(
+                first.starts_with(&format!("Question {} of ", index + 1)),
+                "{first}"
+            );
+            assert!(
+                !first.contains(&format!("({})", q.topic.as_str())) && !first.contains(" — "),
+                "{first}"
+            );
+            assert!(!text.contains('{'), "{}: {text}", loaded.walkthrough.id);
+        }
+    }
+    let dir = tempfile::tempdir().unwrap();
+    let shipped = std::fs::read_to_string(format!(
+        "{}/cases/training/bulk_loss_jumbo.yaml",
+        env!("CARGO_MANIFEST_DIR")
+    ))
+    .unwrap();
+    assert!(shipped.contains("prompt: Jumbo rolls of {roll_diameter}"));
+    for (name, broken) in [
+        (
+            "prompt",
+            shipped.replace("rolls of {roll_diameter}", "rolls of {roll_diametre}"),
+        ),
+        (
+            "choice",
+            shipped.replace("Use a thicker core", "Use a {core_diametre} core"),
+        ),
+    ] {
+        std::fs::write(dir.path().join("w.yaml"), &broken).unwrap();
+        let problems = lint_dir(dir.path()).unwrap();
+        assert!(
+            problems.iter().any(|p| p
+                .to_string()
+                .contains(&format!("{name}: unknown placeholder"))),
+            "{name}: {problems:#?}"
+        );
+    }
 }

@@ -644,7 +644,7 @@ fn training_walkthrough_is_answered_inside_the_ui_and_scored() {
     assert_eq!(app.popup(), None);
     assert_eq!(
         app.session.status.as_deref(),
-        Some("Walk-through left: 3 of 4 correct (75 %)")
+        Some("Walk-through finished: 3 of 4 correct (75 %)")
     );
 }
 
@@ -658,7 +658,7 @@ fn escape_leaves_a_walkthrough_half_way() {
     assert_eq!(app.popup(), None);
     assert_eq!(
         app.session.status.as_deref(),
-        Some("Walk-through left: 0 of 4 correct (0 %), 3 not answered")
+        Some("Walk-through stopped: 0 of 4 correct (0 %), 3 not answered")
     );
     // The case stays open and the UI answers keys again.
     assert!(!app.session.case.symptoms.is_empty());

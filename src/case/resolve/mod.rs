@@ -4,6 +4,7 @@
 //! settings in `winding`.
 
 mod density;
+mod tension_forms;
 mod winder;
 mod winding;
 

@@ -236,7 +236,7 @@ impl Resolver {
     /// The `tension` of a listed band (a taper step or an upset) at `{field}.tension`: a
     /// required force per width, in `range` and below the web strength.
     fn band_tension(
-        &self,
+        &mut self,
         field: &str,
         text: &QuantityText,
         web: &ResolvedWeb,
@@ -244,7 +244,7 @@ impl Resolver {
     ) -> Result<f64, CaseError> {
         let field = format!("{field}.tension");
         let tension = self
-            .quantity(&field, Some(text), QuantityKind::ForcePerWidth)?
+            .tension_quantity(&field, Some(text), web)?
             .unwrap_or(f64::NAN);
         self.tension_below_strength(&field, tension, web, range)
     }
@@ -282,36 +282,33 @@ impl Resolver {
         if let Some(points) = self.programme_taper(winding, web, core, roll)? {
             return self.winding_with(method, winding, web, core, roll, points);
         }
-        let start_tension = match self.quantity(
-            reg::TENSION.path,
-            winding.tension.as_ref(),
-            QuantityKind::ForcePerWidth,
-        )? {
-            Some(t) => {
-                if let Some(named) = self.named_web
-                    && (t - named.typical_tension.value).abs()
-                        <= super::PRESET_COPY_TOLERANCE * named.typical_tension.value
-                {
-                    self.push_assumed(
-                        reg::TENSION.path,
-                        reg::TENSION.range().show(t),
-                        &format!("preset {}", named.id),
-                        named.typical_tension.source,
-                        crate::case::ValueOrigin::Preset,
-                    );
+        let start_tension =
+            match self.tension_quantity(reg::TENSION.path, winding.tension.as_ref(), web)? {
+                Some(t) => {
+                    if let Some(named) = self.named_web
+                        && (t - named.typical_tension.value).abs()
+                            <= super::PRESET_COPY_TOLERANCE * named.typical_tension.value
+                    {
+                        self.push_assumed(
+                            reg::TENSION.path,
+                            reg::TENSION.range().show(t),
+                            &format!("preset {}", named.id),
+                            named.typical_tension.source,
+                            crate::case::ValueOrigin::Preset,
+                        );
+                    }
+                    t
                 }
-                t
-            }
-            None => {
-                self.assume(
-                    reg::TENSION.path,
-                    reg::TENSION.range().show(typical.value),
-                    &format!("preset {preset_id}"),
-                    typical.source,
-                );
-                typical.value
-            }
-        };
+                None => {
+                    self.assume(
+                        reg::TENSION.path,
+                        reg::TENSION.range().show(typical.value),
+                        &format!("preset {preset_id}"),
+                        typical.source,
+                    );
+                    typical.value
+                }
+            };
         let start_tension = self.tension_below_strength(
             reg::TENSION.path,
             start_tension,
@@ -435,10 +432,10 @@ impl Resolver {
         };
         let stop_time = time(&reg::STOP_TIME, winding.stop_time)?;
         let emergency_stop_time = time(&reg::EMERGENCY_STOP_TIME, winding.emergency_stop_time)?;
-        let unwind_tension = match self.quantity(
+        let unwind_tension = match self.tension_quantity(
             reg::UNWIND_TENSION.path,
             winding.unwind_tension.as_ref(),
-            QuantityKind::ForcePerWidth,
+            web,
         )? {
             Some(t) => {
                 Some(self.check(reg::UNWIND_TENSION.path, t, &reg::UNWIND_TENSION.range())?)
@@ -469,7 +466,7 @@ impl Resolver {
 
     /// The tension upset bands, diameters turned into radii.
     fn upsets(
-        &self,
+        &mut self,
         winding: &WindingInput,
         web: &ResolvedWeb,
         core: &ResolvedCore,
@@ -578,7 +575,7 @@ impl Resolver {
 
     /// The points of a tension programme, diameters turned into radii.
     fn programme(
-        &self,
+        &mut self,
         taper: &TaperInput,
         web: &ResolvedWeb,
         core: &ResolvedCore,
@@ -620,7 +617,7 @@ impl Resolver {
 
     /// The steps of a `steps` taper, diameters turned into radii.
     fn steps(
-        &self,
+        &mut self,
         taper: &TaperInput,
         web: &ResolvedWeb,
         core: &ResolvedCore,

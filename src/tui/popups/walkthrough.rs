@@ -174,7 +174,12 @@ impl Component for WalkthroughRun {
     fn on_key(&mut self, key: Key, ctx: &mut Session) -> Handled {
         if !self.key(key) {
             let score = self.session.score();
-            ctx.set_status(format!("Walk-through left: {score}"));
+            let how = if self.session.finished() {
+                "finished"
+            } else {
+                "stopped"
+            };
+            ctx.set_status(format!("Walk-through {how}: {score}"));
             ctx.push(Action::Close);
         }
         Handled::Yes
@@ -217,19 +222,24 @@ fn render(run: &WalkthroughRun, theme: Theme, area: Rect, buf: &mut Buffer) {
         WalkStage::Question { index, highlighted } => {
             let mut lines = Vec::new();
             if let Some(q) = session.walkthrough.questions.get(*index) {
+                // The question first; the topic is the file's bookkeeping.
                 lines.push(Line::from(Span::styled(
-                    format!("{} — {}", q.topic.as_str(), q.prompt.trim()),
+                    session.prompt(*index).unwrap_or_default(),
                     theme.title(),
                 )));
                 lines.push(Line::from(""));
-                for (i, choice) in q.choices.iter().enumerate() {
+                for i in 0..q.choices.len() {
                     let (marker, style) = if i == *highlighted {
                         ("▶", theme.selected())
                     } else {
                         (" ", theme.plain())
                     };
                     lines.push(Line::from(Span::styled(
-                        format!("{marker} {}. {}", i + 1, choice.text.trim()),
+                        format!(
+                            "{marker} {}. {}",
+                            i + 1,
+                            session.choice_text(*index, i).unwrap_or_default()
+                        ),
                         style,
                     )));
                 }
