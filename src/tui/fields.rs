@@ -95,6 +95,27 @@ pub static FIELDS: LazyLock<Vec<FieldSpec>> = LazyLock::new(|| {
 
 use FieldKind::{Choice, Number, Preset, Quantity, Text};
 
+/// A choice or preset value as a person reads it: "centre-surface winding", a preset's title;
+/// other words with spaces for underscores. The case file keeps the ID.
+pub fn value_words(spec: &FieldSpec, value: &str) -> String {
+    match spec.kind {
+        FieldKind::Preset(PresetFamily::Web) => crate::presets::web_preset(value)
+            .map_or_else(|| value.to_string(), |p| p.name.to_string()),
+        FieldKind::Preset(PresetFamily::Core) => crate::presets::core_preset(value)
+            .map_or_else(|| value.to_string(), |p| p.name.to_string()),
+        FieldKind::Choice(_) if spec.path == "winding.method" => match value {
+            "centre" => "centre winding".into(),
+            "gap" => "gap winding".into(),
+            "surface" => "surface winding".into(),
+            "two_drum" => "two-drum winding".into(),
+            "centre_surface" => "centre-surface winding".into(),
+            other => other.replace('_', " "),
+        },
+        FieldKind::Choice(_) => value.replace('_', " "),
+        _ => value.to_string(),
+    }
+}
+
 /// Find a field by its path.
 pub fn field(path: &str) -> Option<&'static FieldSpec> {
     FIELDS.iter().find(|f| f.path == path)

@@ -33,6 +33,7 @@ pub fn catalogue() -> Catalogue {
                     id: "telescoping_after_handling".into(),
                     text: "Did it appear only after the roll was moved?".into(),
                     choices: vec![],
+                    choice_texts: vec![],
                 }];
             }
             "starring" => {
@@ -42,6 +43,7 @@ pub fn catalogue() -> Catalogue {
                     id: "starring_radius".into(),
                     text: "Where do the stars start?".into(),
                     choices: vec!["near_core".into(), "mid_roll".into()],
+                    choice_texts: vec!["near the core".into(), "in the middle of the roll".into()],
                 }];
             }
             "blocking" => {

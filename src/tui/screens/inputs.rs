@@ -188,10 +188,14 @@ fn render(state: &InputsScreen, app: &Session, theme: Theme, area: Rect, buf: &m
         last_group = spec.group;
         let (value, tag, tag_style) = match (&state.editing, selected, &entered) {
             (Some(text), true, _) => (format!("{text}▏"), "typing", theme.key()),
-            (_, _, Some(text)) => (text.clone(), "entered", theme.good()),
+            (_, _, Some(text)) => (fields::value_words(spec, text), "entered", theme.good()),
             _ => match app.assumed(spec.path) {
                 Some(assumed) => (
-                    format!("{} ({})", assumed.value, assumed.source),
+                    format!(
+                        "{} ({})",
+                        fields::value_words(spec, &assumed.value),
+                        assumed.source
+                    ),
                     "assumed",
                     theme.assumed(),
                 ),

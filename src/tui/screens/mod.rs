@@ -33,7 +33,7 @@ impl Widget for &App {
     }
 }
 
-const SPINNER: [char; 8] = ['⠁', '⠂', '⠄', '⡀', '⢀', '⠠', '⠐', '⠈'];
+pub(crate) const SPINNER: [char; 8] = ['⠁', '⠂', '⠄', '⡀', '⢀', '⠠', '⠐', '⠈'];
 
 impl Widget for AppView<'_> {
     fn render(self, area: Rect, buf: &mut Buffer) {

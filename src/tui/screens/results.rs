@@ -516,7 +516,7 @@ fn render_remedies(
             lines.push(Line::from(Span::styled(
                 format!(
                     "    {}: {} → {}{}",
-                    what_if.indicator.replace('_', " "),
+                    what_if.indicator_text(),
                     what_if.before,
                     what_if.after,
                     if what_if.small_effect {
