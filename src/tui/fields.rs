@@ -116,6 +116,32 @@ pub fn value_words(spec: &FieldSpec, value: &str) -> String {
     }
 }
 
+/// Rewrite every entered quantity of the form in `units` ("525 N/m" → "3.001 pli"); returns
+/// how many changed. Texts that do not parse are left as typed.
+pub fn convert_units(case: &mut Case, units: crate::units::UnitSystem) -> usize {
+    let mut converted = 0;
+    for spec in FIELDS.iter() {
+        let FieldKind::Quantity(kind) = spec.kind else {
+            continue;
+        };
+        // A percentage reads the same in both systems.
+        if kind == QuantityKind::Percent {
+            continue;
+        }
+        let Some(text) = get(case, spec.path) else {
+            continue;
+        };
+        let Ok(value) = parse_quantity(spec.path, &text, kind) else {
+            continue;
+        };
+        let new = crate::units::format_quantity(value, kind, units);
+        if new != text && set(case, spec, Some(&new)).is_ok() {
+            converted += 1;
+        }
+    }
+    converted
+}
+
 /// Find a field by its path.
 pub fn field(path: &str) -> Option<&'static FieldSpec> {
     FIELDS.iter().find(|f| f.path == path)
@@ -137,6 +163,23 @@ pub fn get(case: &Case, path: &str) -> Option<String> {
         "web.thickness" => quantity_text(&case.web.thickness),
         "web.width" => quantity_text(&case.web.width),
         "web.tangential_modulus" => quantity_text(&case.web.tangential_modulus),
+        "web.radial_stiffness.law" => case.web.radial_stiffness.as_ref().map(|r| r.law.clone()),
+        "web.radial_stiffness.k1" => case
+            .web
+            .radial_stiffness
+            .as_ref()
+            .and_then(|r| quantity_text(&r.k1)),
+        "web.radial_stiffness.k2" => case
+            .web
+            .radial_stiffness
+            .as_ref()
+            .and_then(|r| r.k2.map(|v| format!("{v}"))),
+        "web.radial_stiffness.modulus" => case
+            .web
+            .radial_stiffness
+            .as_ref()
+            .and_then(|r| quantity_text(&r.modulus)),
+        "web.poisson_ratio" => case.web.poisson_ratio.map(|v| format!("{v}")),
         "web.friction" => case.web.friction.map(|v| format!("{v}")),
         "web.kinetic_friction" => case.web.kinetic_friction.map(|v| format!("{v}")),
         "web.density" => case.web.density.map(|v| format!("{v}")),
@@ -168,6 +211,42 @@ pub fn get(case: &Case, path: &str) -> Option<String> {
         "winding.acceleration_time" => case.winding.acceleration_time.map(|v| format!("{v}")),
         "winding.recipe_tension" => quantity_text(&case.winding.recipe_tension),
         _ => None,
+    }
+}
+
+/// One part of `web.radial_stiffness` (law, K1, K2 or modulus). A constant given without a
+/// law means Pfeiffer for K1/K2 and `constant` for a modulus; with nothing left the section
+/// goes, so the preset's law applies again.
+fn set_radial(case: &mut Case, path: &str, text: Option<String>) {
+    use crate::case::schema::RadialStiffnessInput;
+    let radial = case
+        .web
+        .radial_stiffness
+        .get_or_insert_with(|| RadialStiffnessInput {
+            law: if path.ends_with("modulus") {
+                "constant".into()
+            } else {
+                "pfeiffer".into()
+            },
+            k1: None,
+            k2: None,
+            modulus: None,
+            coefficient: None,
+            exponent: None,
+        });
+    match path {
+        "web.radial_stiffness.law" => radial.law = text.unwrap_or_default(),
+        "web.radial_stiffness.k1" => radial.k1 = text.map(QuantityText::Text),
+        "web.radial_stiffness.k2" => radial.k2 = text.and_then(|t| t.parse().ok()),
+        _ => radial.modulus = text.map(QuantityText::Text),
+    }
+    let empty = radial.k1.is_none()
+        && radial.k2.is_none()
+        && radial.modulus.is_none()
+        && radial.coefficient.is_none()
+        && radial.exponent.is_none();
+    if radial.law.is_empty() || (empty && path != "web.radial_stiffness.law") {
+        case.web.radial_stiffness = None;
     }
 }
 
@@ -258,6 +337,11 @@ pub fn set(case: &mut Case, spec: &FieldSpec, text: Option<&str>) -> Result<(), 
         "web.thickness" => case.web.thickness = quantity(),
         "web.width" => case.web.width = quantity(),
         "web.tangential_modulus" => case.web.tangential_modulus = quantity(),
+        "web.radial_stiffness.law"
+        | "web.radial_stiffness.k1"
+        | "web.radial_stiffness.k2"
+        | "web.radial_stiffness.modulus" => set_radial(case, spec.path, owned.clone()),
+        "web.poisson_ratio" => case.web.poisson_ratio = number(),
         "web.friction" => case.web.friction = number(),
         "web.kinetic_friction" => case.web.kinetic_friction = number(),
         "web.density" => case.web.density = number(),

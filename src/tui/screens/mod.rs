@@ -35,11 +35,30 @@ impl Widget for &App {
 
 pub(crate) const SPINNER: [char; 8] = ['⠁', '⠂', '⠄', '⡀', '⢀', '⠠', '⠐', '⠈'];
 
+/// The smallest window the screens are laid out for; below it only a message is drawn.
+pub const MIN_WIDTH: u16 = 60;
+pub const MIN_HEIGHT: u16 = 16;
+
 impl Widget for AppView<'_> {
     fn render(self, area: Rect, buf: &mut Buffer) {
         let app = self.app;
         let session = &app.session;
         let theme = self.theme;
+        if area.width < MIN_WIDTH || area.height < MIN_HEIGHT {
+            // Cut-off screens mislead more than no screen: say what is needed instead.
+            let lines = vec![
+                Line::from(Span::styled("Window too small", theme.warn())),
+                Line::from(format!(
+                    "{}×{} here; rolltriage needs at least {MIN_WIDTH}×{MIN_HEIGHT}.",
+                    area.width, area.height
+                )),
+                Line::from("Enlarge the window, or press Ctrl-Q to quit."),
+            ];
+            Paragraph::new(lines)
+                .wrap(ratatui::widgets::Wrap { trim: true })
+                .render(area, buf);
+            return;
+        }
         let [header, body, status, help_line] = Layout::vertical([
             Constraint::Length(1),
             Constraint::Min(0),

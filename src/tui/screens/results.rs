@@ -210,15 +210,15 @@ pub fn summary_lines(
             )),
             Span::styled(format!("({:.2}× crush rating)", ratio), ratio_style),
             Span::raw(format!(
-                " · peak {} at r {}",
+                " · peak {} at ⌀ {}",
                 compact_stress(s.peak_pressure, units),
-                compact_length(s.peak_pressure_radius, units)
+                compact_length(2.0 * s.peak_pressure_radius, units)
             )),
         ]),
         Line::from(format!(
-            "Most compressive σθ {} at r {} · {} layers in {} elements",
+            "Most compressive hoop stress {} at ⌀ {} · {} layers in {} elements",
             compact_stress(s.min_tangential_stress, units),
-            compact_length(s.min_tangential_radius, units),
+            compact_length(2.0 * s.min_tangential_radius, units),
             s.physical_layers,
             outcome.profile.solver.elements
         )),
@@ -285,8 +285,8 @@ pub fn render_plots(
         .iter()
         .map(|z| Band {
             label: z.name.as_str().to_string(),
-            from: z.inner_radius,
-            to: z.outer_radius,
+            from: 2.0 * z.inner_radius,
+            to: 2.0 * z.outer_radius,
         })
         .collect();
     let format_y = |v: f64| compact_stress(v, units);
@@ -297,8 +297,9 @@ pub fn render_plots(
         glyph: '─',
         style: theme.dim(),
     };
+    // Positions are diameters (what an operator measures): x = 2 r.
     let pairs = |xs: &[f64], ys: &[f64]| -> Vec<(f64, f64)> {
-        xs.iter().copied().zip(ys.iter().copied()).collect()
+        xs.iter().map(|r| 2.0 * r).zip(ys.iter().copied()).collect()
     };
     let curves = |pick: fn(&Profile) -> &Vec<f64>| {
         let mut series = Vec::new();

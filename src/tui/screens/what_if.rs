@@ -397,7 +397,11 @@ impl WhatIfScreen {
                 TaperShape::Linear => "linear",
                 TaperShape::Hyperbolic => "hyperbolic",
             };
-            ctx.case.winding.tension = Some(QuantityText::Number(design.start_tension));
+            ctx.case.winding.tension = Some(QuantityText::Text(crate::units::format_quantity(
+                design.start_tension,
+                crate::units::QuantityKind::ForcePerWidth,
+                ctx.units,
+            )));
             ctx.case.winding.taper = Some(TaperInput {
                 kind: kind.into(),
                 amount: Some(QuantityText::Text(format!(
@@ -415,8 +419,9 @@ impl WhatIfScreen {
         }
         if let (Some((changes, description)), Ok(resolved)) = (&self.target, &ctx.resolved) {
             match keep_changes(&ctx.case, resolved, changes) {
-                Ok(case) => {
+                Ok(mut case) => {
                     let description = description.clone();
+                    written_in_units(&ctx.case, &mut case, ctx.units);
                     ctx.case = case;
                     ctx.edited();
                     ctx.set_status(format!("Kept: {description}"));
@@ -442,7 +447,8 @@ impl WhatIfScreen {
             }
         };
         match kept {
-            Ok((case, description)) => {
+            Ok((mut case, description)) => {
+                written_in_units(&ctx.case, &mut case, ctx.units);
                 ctx.case = case;
                 ctx.edited();
                 ctx.set_status(format!("Kept: {description}"));
@@ -528,6 +534,48 @@ impl Component for WhatIfScreen {
         render_choices(state, app, theme, choices, buf);
         render_comparison(state, app, theme, compare, plots, buf);
     }
+}
+
+/// A kept change reaches the case file as a bare SI number: write each changed setting as a
+/// text in the user's units instead ("1.755 pli", not 307.2628794874298).
+pub fn written_in_units(
+    before: &crate::case::Case,
+    after: &mut crate::case::Case,
+    units: UnitSystem,
+) {
+    use crate::units::{QuantityKind, format_quantity};
+    let text = |old: &Option<QuantityText>, new: &mut Option<QuantityText>, kind| {
+        if let Some(QuantityText::Number(value)) = *new
+            && old != new
+        {
+            *new = Some(QuantityText::Text(format_quantity(value, kind, units)));
+        }
+    };
+    text(
+        &before.winding.tension,
+        &mut after.winding.tension,
+        QuantityKind::ForcePerWidth,
+    );
+    text(
+        &before.winding.nip_load,
+        &mut after.winding.nip_load,
+        QuantityKind::ForcePerWidth,
+    );
+    text(
+        &before.winding.speed,
+        &mut after.winding.speed,
+        QuantityKind::Speed,
+    );
+    text(
+        &before.core.stiffness,
+        &mut after.core.stiffness,
+        QuantityKind::Stress,
+    );
+    text(
+        &before.core.crush_pressure,
+        &mut after.core.crush_pressure,
+        QuantityKind::Stress,
+    );
 }
 
 /// The setting changes that bring `setting` to the typed value `text` (in any accepted unit).
