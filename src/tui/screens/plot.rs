@@ -186,7 +186,11 @@ impl ZonePlot<'_> {
             }
             let width = last - first + 1;
             // One free cell so neighbouring labels never run together ("outersurface").
-            let text = fitted_label(&self.bands[b].label, width.saturating_sub(1));
+            let text = match fitted_label(&self.bands[b].label, width.saturating_sub(1)) {
+                // A one-cell band keeps its initial.
+                text if text.is_empty() => fitted_label(&self.bands[b].label, width),
+                text => text,
+            };
             let offset = (width.saturating_sub(text.chars().count())) / 2;
             buf.set_string(
                 f.plot.x + (first + offset) as u16,

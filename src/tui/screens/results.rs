@@ -241,13 +241,25 @@ pub fn assumed_line(outcome: &SolveOutcome, theme: Theme, width: u16) -> Line<'s
         share.total,
         share.factor() * 100.0
     );
-    // Name as many of the assumed inputs as fit on the line.
+    // Name as many as fit on the line: those that move the ranking most when known, else the
+    // assumed inputs in the order of the form.
+    let (labels, lead) = if outcome.movers.is_empty() {
+        (
+            share.labels.iter().map(String::as_str).collect::<Vec<_>>(),
+            ": ",
+        )
+    } else {
+        (
+            outcome.movers.iter().map(String::as_str).collect(),
+            "; moves the ranking most: ",
+        )
+    };
     let room = usize::from(width);
     let mut names = String::new();
-    for (i, label) in share.labels.iter().enumerate() {
-        let more = share.labels.len() - i - 1;
+    for (i, label) in labels.iter().enumerate() {
+        let more = labels.len() - i - 1;
         let candidate = if names.is_empty() {
-            format!(": {label}")
+            format!("{lead}{label}")
         } else {
             format!("{names}, {label}")
         };
@@ -351,7 +363,7 @@ pub fn render_plots(
     }
     .render(left, buf);
     ZonePlot {
-        block: Block::bordered().title(title("Tangential stress σθ")),
+        block: Block::bordered().title(title("Hoop stress σθ")),
         series: curves(|p| &p.tangential_stress),
         bands,
         lines: vec![zero],
@@ -443,9 +455,29 @@ fn render_causes(
             }
         }
     }
+    // Wrapped lines hang under their item: the cause title under the title, a reason under
+    // its text.
+    let width = usize::from(area.width.saturating_sub(2));
+    let mut hung: Vec<Line> = Vec::new();
+    let mut hung_target = 0;
+    for (i, line) in lines.into_iter().enumerate() {
+        if i == target {
+            hung_target = hung.len();
+        }
+        let indent = if line
+            .spans
+            .first()
+            .is_some_and(|s| s.content.starts_with("   "))
+        {
+            8
+        } else {
+            16
+        };
+        hung.extend(super::hang(line, width, indent));
+    }
     super::render_scrolled(
-        lines,
-        Some(target),
+        hung,
+        Some(hung_target),
         Block::bordered().title(" Ranked causes "),
         area,
         buf,

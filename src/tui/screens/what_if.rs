@@ -191,10 +191,10 @@ const DESIGNING: &str = "Designing a taper schedule (many solves)…";
 #[rustfmt::skip]
 pub const KEYS: &[Binding] = &[
     Binding::both(ANY, "↑↓", "pick", "↑ ↓", "pick a setting or a remedy"),
-    Binding::both(ANY, "←→", "change", "← →", "change the setting one step down / up"),
-    Binding::both(ANY, "t", "type value", "t", "type the value to try for the highlighted setting (Enter tries it, Esc cancels)"),
+    Binding::both(ANY, "←→", "step", "← →", "change the setting one step down / up"),
+    Binding::both(ANY, "t", "set", "t", "type the value to try for the highlighted setting (Enter tries it, Esc cancels)"),
     Binding::help("Enter", "try the highlighted remedy"),
-    Binding::both(ANY, "PgUp/PgDn", "scroll", "PgUp / PgDn", "scroll the before → after table"),
+    Binding::help("PgUp / PgDn", "scroll the before → after table"),
     Binding::both(ANY, "d", "taper", "d", "design a taper that keeps the roll inside every limit"),
     Binding::both(ANY, "a", "keep", "a / r", "keep the change (or the designed taper) in the case / reset"),
 ];
@@ -788,10 +788,10 @@ fn render_comparison(
                 text.push(Line::from(Span::styled(name, theme.dim())));
                 continue;
             }
-            let name: String = if name.chars().count() > name_width {
-                let mut short: String = name.chars().take(name_width - 1).collect();
-                short.push('…');
-                short
+            // A name too long for its column gets a line of its own: words, never cut.
+            let name = if name.chars().count() > name_width {
+                text.push(Line::from(name));
+                String::new()
             } else {
                 name
             };
@@ -805,7 +805,7 @@ fn render_comparison(
     let most = u16::try_from(text.len().saturating_sub(visible)).unwrap_or(u16::MAX);
     let scroll = state.scroll.min(most);
     let title = if most > 0 {
-        " Before → after  (PgUp/PgDn scroll, a keeps, r resets) "
+        " Before → after  (PgUp/PgDn: more) "
     } else {
         " Before → after  (a keeps the change, r resets) "
     };
