@@ -8,7 +8,15 @@
 //! pseudo-random factor, several symptoms, lines and grades; their stored versions carry the
 //! indicators without their explanations to keep the file near 300 MB (the scan reads the
 //! `complaints` table only, so the size of the versions does not change what is timed).
+//!
+//! The machine these run on is shared; on a busy one the wall-clock figures mostly measure the
+//! wait for a core. `history_add_cpu/…` therefore also measure adding one complaint in the
+//! process's processor time (every thread, Linux `CLOCK_PROCESS_CPUTIME_ID`), which counts
+//! the work itself.
 
+use std::time::Duration;
+
+use criterion::measurement::{Measurement, ValueFormatter, WallTime};
 use criterion::{Criterion, criterion_group, criterion_main};
 use rolltriage::diagnose::{DiagnoseOptions, rules::RuleBase};
 use rolltriage::history::{self, Entry, Location, StoredComplaint, StoredVersion, similar};
@@ -144,9 +152,76 @@ fn history_speed(c: &mut Criterion) {
     });
 }
 
+/// Processor time used by the whole process (all threads) — what a task costs, not how long
+/// it waited for a core on a loaded machine. Printed with the wall-clock formatter (ns).
+struct ProcessCpuTime(WallTime);
+
+fn process_cpu_time() -> Duration {
+    let mut now = libc::timespec {
+        tv_sec: 0,
+        tv_nsec: 0,
+    };
+    // SAFETY: `now` is a valid, writable timespec; the clock ID is a constant the C library
+    // defines, and clock_gettime writes nothing else.
+    let status = unsafe { libc::clock_gettime(libc::CLOCK_PROCESS_CPUTIME_ID, &mut now) };
+    assert_eq!(status, 0, "clock_gettime(CLOCK_PROCESS_CPUTIME_ID)");
+    Duration::new(now.tv_sec as u64, now.tv_nsec as u32)
+}
+
+impl Measurement for ProcessCpuTime {
+    type Intermediate = Duration;
+    type Value = Duration;
+    fn start(&self) -> Duration {
+        process_cpu_time()
+    }
+    fn end(&self, start: Duration) -> Duration {
+        process_cpu_time().saturating_sub(start)
+    }
+    fn add(&self, a: &Duration, b: &Duration) -> Duration {
+        *a + *b
+    }
+    fn zero(&self) -> Duration {
+        Duration::ZERO
+    }
+    fn to_f64(&self, value: &Duration) -> f64 {
+        value.as_nanos() as f64
+    }
+    fn formatter(&self) -> &dyn ValueFormatter {
+        self.0.formatter()
+    }
+}
+
+/// Adding one complaint (full triage with what-if, then the insert) in processor time.
+fn history_add_cpu(c: &mut Criterion<ProcessCpuTime>) {
+    let rules = RuleBase::embedded().expect("shipped rules");
+    let dir = tempfile::tempdir().expect("temporary folder");
+    let location = Location::File(dir.path().join("add_cpu.sqlite"));
+    let mut store = history::open(&location, history::DEFAULT_WAIT).expect("store");
+    let mut group = c.benchmark_group("history_add_cpu");
+    group.bench_function("with_solve", |b| {
+        b.iter(|| {
+            let e = entry(&rules, true);
+            store.add(&e).expect("add")
+        })
+    });
+    group.bench_function("triage_only", |b| b.iter(|| entry(&rules, true)));
+    let ready = entry(&rules, true);
+    group.bench_function("insert_only", |b| {
+        b.iter(|| store.add(&ready).expect("add"))
+    });
+    group.finish();
+}
+
 criterion_group! {
     name = benches;
     config = Criterion::default().sample_size(10);
     targets = history_speed
 }
-criterion_main!(benches);
+criterion_group! {
+    name = cpu_benches;
+    config = Criterion::default()
+        .with_measurement(ProcessCpuTime(WallTime))
+        .sample_size(10);
+    targets = history_add_cpu
+}
+criterion_main!(benches, cpu_benches);

@@ -230,6 +230,12 @@ impl Complaint {
     /// The record in plain words, one (label, value) line per field given, in the order a
     /// reader wants them (reports and `history show`).
     pub fn lines(&self) -> Vec<(&'static str, String)> {
+        self.lines_titled(&|id| id.to_string())
+    }
+
+    /// As [`Complaint::lines`], with each confirmed cause named by `title` (plain words for
+    /// people; [`Complaint::lines`] keeps the IDs).
+    pub fn lines_titled(&self, title: &dyn Fn(&str) -> String) -> Vec<(&'static str, String)> {
         let mut out: Vec<(&'static str, String)> = Vec::new();
         let mut add = |label: &'static str, value: Option<String>| {
             if let Some(v) = value.filter(|v| !v.trim().is_empty()) {
@@ -281,7 +287,7 @@ impl Complaint {
                 "Confirmed cause",
                 Some(format!(
                     "{} — {}{}",
-                    c.cause,
+                    title(&c.cause),
                     c.evidence.as_deref().unwrap_or("no evidence written"),
                     if who.is_empty() {
                         String::new()

@@ -38,6 +38,10 @@ pub struct ReportArgs {
     /// Rule directory to use instead of the shipped rule base.
     #[arg(long)]
     pub rules: Option<PathBuf>,
+    /// Add the similar past complaints from this history store (a SQLite file, a
+    /// `postgres://` URL, or `default` for $ROLLTRIAGE_HISTORY or the per-user store).
+    #[arg(long = "history", value_name = "PATH|URL")]
+    pub history: Option<String>,
 }
 
 fn parse_units(text: &str) -> anyhow::Result<UnitSystem> {
@@ -46,6 +50,29 @@ fn parse_units(text: &str) -> anyhow::Result<UnitSystem> {
         "us" | "imperial" => Ok(UnitSystem::Us),
         other => anyhow::bail!("--units: \"{other}\" is not known; accepted: si, us"),
     }
+}
+
+/// The past complaints of the store at `place` most like the report's case (the store must
+/// exist: a report never creates one).
+fn similar_past(
+    place: &str,
+    rules: &RuleBase,
+    input: &rolltriage::report::ReportInput,
+) -> anyhow::Result<Vec<rolltriage::history::PastComplaint>> {
+    use rolltriage::history;
+    let store = super::history::StoreArgs {
+        history: Some(place.to_string()),
+        wait: history::DEFAULT_WAIT.as_secs_f64(),
+    };
+    let mut store = store.open_existing()?;
+    let entry = history::Entry {
+        case_text: String::new(),
+        case: input.case.clone(),
+        resolved: input.resolved.clone(),
+        diagnosis: input.diagnosis.clone(),
+        rules_version: history::rules_version(rules),
+    };
+    Ok(history::similar_past(&mut store, rules, &entry, 3, None)?)
 }
 
 pub fn run(args: &ReportArgs) -> anyhow::Result<()> {
@@ -73,11 +100,18 @@ pub fn run(args: &ReportArgs) -> anyhow::Result<()> {
         what_if: !args.no_what_if,
         ..PrepareOptions::default()
     };
-    let input = prepare_from_path(&args.case, &rules, &options)
+    let mut input = prepare_from_path(&args.case, &rules, &options)
         .with_context(|| format!("preparing the report for {}", args.case.display()))?;
+    if let Some(place) = &args.history {
+        input.similar_past = Some(similar_past(place, &rules, &input)?);
+    }
     let case = args.case.display();
     rolltriage::finite::ensure_finite(&format!("the stress profile of {case}"), &input.profile)?;
     rolltriage::finite::ensure_finite(&format!("the diagnosis of {case}"), &input.diagnosis)?;
+    if let Some(sensitivity) = &input.sensitivity {
+        let what = format!("the sensitivity to the assumed inputs of {case}");
+        rolltriage::finite::ensure_finite(&what, sensitivity)?;
+    }
     if let Some(remedy) = &input.remedy {
         let what = format!("the re-solved roll of {case} with {}", remedy.remedy_id);
         rolltriage::finite::ensure_finite(&what, &remedy.after)?;

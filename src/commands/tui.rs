@@ -25,6 +25,11 @@ pub struct TuiArgs {
     /// Capture the mouse: wheel scrolls, a click on a tab switches screen.
     #[arg(long)]
     pub mouse: bool,
+    /// The complaint history store the history screen (F8) reads: a SQLite file, a
+    /// `postgres://user@host/db` URL, or `default`. Default: $ROLLTRIAGE_HISTORY or the
+    /// per-user store, as for `rolltriage history`.
+    #[arg(long = "history", value_name = "PATH|URL")]
+    pub history: Option<String>,
 }
 
 pub fn run(args: &TuiArgs) -> anyhow::Result<()> {
@@ -36,6 +41,7 @@ pub fn run(args: &TuiArgs) -> anyhow::Result<()> {
             Units::Us => rolltriage::units::UnitSystem::Us,
         },
         mouse: args.mouse,
+        history: args.history.clone(),
     };
     let what = match &args.case {
         Some(path) => format!("opening the terminal UI on {}", path.display()),

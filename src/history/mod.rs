@@ -9,6 +9,7 @@
 
 pub mod experience;
 mod migrate;
+pub mod past;
 pub mod similar;
 mod sql;
 mod store;
@@ -17,6 +18,7 @@ pub mod transfer;
 use std::path::{Path, PathBuf};
 use std::time::Duration;
 
+pub use past::{PastComplaint, similar_past};
 pub use store::{
     ComplaintSummary, Entry, Filter, ScanRow, StatusChange, Store, StoredComplaint, StoredVersion,
 };

@@ -11,8 +11,8 @@ use crate::units::UnitSystem;
 
 pub use super::component::{OpenPurpose, PendingAction, Screen};
 pub use super::popups::{
-    CalibratePopup, ConfirmPopup, FilePopup, FilePurpose, HelpPopup, OpenPopup, PathPrompt, Popup,
-    StackFit, TrainingPopup, WalkStage, WalkthroughRun,
+    CalibratePopup, ConfirmPopup, FilePopup, FilePurpose, HelpPopup, HistoryPopup, HistoryView,
+    OpenPopup, PathPrompt, Popup, StackFit, StoryPopup, TrainingPopup, WalkStage, WalkthroughRun,
 };
 pub use super::screens::inputs::InputsScreen;
 pub use super::screens::results::{ResultsFocus, ResultsScreen};
@@ -40,6 +40,8 @@ pub const GLOBAL_KEYS: &[Binding] = &[
     Binding::help("Ctrl-U", "SI / US units; on Roll & winding also converts the entered values"),
     Binding::help("Ctrl-E", "export a report (.md, .html or .json by the file name)"),
     Binding::help("Ctrl-T / F6", "training walk-throughs: answer a guided case"),
+    Binding::help("F7", "the complaint's story and the complaint record"),
+    Binding::help("F8", "the plant's complaint history, similar complaints"),
     Binding::both(ANY, "^Q", "quit", "Ctrl-Q (q off text)", "quit — asks when there are unsaved changes"),
 ];
 
@@ -243,6 +245,31 @@ impl App {
         }
     }
 
+    /// The history work waiting to be started (taken by the runtime).
+    pub fn take_history_requests(&mut self) -> Vec<super::history_job::HistoryRequest> {
+        self.session.take_history_requests()
+    }
+
+    /// An answer from the history store: to the open history popup that asked for it, or (the
+    /// popup was closed) a line on the status line.
+    pub fn on_history(&mut self, reply: super::history_job::HistoryReply) {
+        for popup in self.popups.iter_mut().rev() {
+            if let Popup::History(history) = popup
+                && history.on_reply(reply.clone(), &mut self.session)
+            {
+                self.run_actions();
+                return;
+            }
+        }
+        match reply.result {
+            Ok(super::history_job::HistoryAnswer::Added { id, place }) => self
+                .session
+                .set_status(format!("Stored as complaint {id} in {place}")),
+            Err(e) => self.session.set_status(format!("History: {e}")),
+            Ok(_) => {}
+        }
+    }
+
     pub fn handle_event(&mut self, event: Event) {
         match event {
             Event::Key(Key::Alt(c)) => {
@@ -317,6 +344,11 @@ impl App {
             }
             Key::Ctrl('e') => self.export(),
             Key::Ctrl('t') | Key::F(6) => self.open_training(),
+            Key::F(7) => self.popups.push(Popup::Story(StoryPopup::default())),
+            Key::F(8) => {
+                let popup = HistoryPopup::open(&mut self.session);
+                self.popups.push(Popup::History(Box::new(popup)));
+            }
             Key::Ctrl('u') => {
                 self.session.units = match self.session.units {
                     UnitSystem::Si => UnitSystem::Us,
@@ -563,7 +595,7 @@ impl App {
             _ => None,
         };
         let source = session.case_path.as_ref().map(|p| p.display().to_string());
-        let input = crate::report::solved_report(
+        let mut input = crate::report::solved_report(
             &session.case,
             crate::report::Solved {
                 resolved: outcome.resolved.clone(),
@@ -574,6 +606,13 @@ impl App {
             crate::report::ReportMeta::now(source),
             session.units,
         );
+        // Similar past complaints the history screen found for this very case (no store
+        // access here: exporting stays on the UI thread).
+        input.similar_past = session
+            .similar_past
+            .as_ref()
+            .filter(|(generation, _)| *generation == session.generation)
+            .map(|(_, past)| past.clone());
         crate::finite::ensure_finite("the stress profile", &input.profile)?;
         crate::finite::ensure_finite("the diagnosis", &input.diagnosis)?;
         let text = crate::report::render(&input, format)?;

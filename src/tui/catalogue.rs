@@ -153,6 +153,33 @@ impl Catalogue {
         }
     }
 
+    /// The causes a complaint can confirm, as (ID, title) sorted by title: the rule base's, or
+    /// the vocabulary's IDs in plain words when the catalogue has no rule base.
+    pub fn causes(&self) -> Vec<(String, String)> {
+        let mut out: Vec<(String, String)> = match &self.rules {
+            Some(rules) => rules
+                .causes
+                .iter()
+                .map(|(id, c)| (id.clone(), c.title.clone()))
+                .collect(),
+            None => crate::vocabulary::CAUSE_IDS
+                .iter()
+                .map(|id| (id.to_string(), plain_name(id)))
+                .collect(),
+        };
+        out.sort_by(|a, b| a.1.cmp(&b.1));
+        out
+    }
+
+    /// A cause's title ("Web tension too low"), or its ID in plain words when it is unknown.
+    pub fn cause_title(&self, id: &str) -> String {
+        self.causes()
+            .into_iter()
+            .find(|(c, _)| c == id)
+            .map(|(_, t)| t)
+            .unwrap_or_else(|| plain_name(id))
+    }
+
     pub fn get(&self, id: &str) -> Option<&SymptomInfo> {
         self.symptoms.iter().find(|s| s.id == id)
     }

@@ -9,6 +9,7 @@ pub mod catalogue;
 pub mod component;
 pub mod event;
 pub mod fields;
+pub mod history_job;
 pub mod job;
 pub mod popups;
 pub mod screens;
@@ -45,6 +46,20 @@ pub struct Options {
     pub units: crate::units::UnitSystem,
     /// Capture the mouse (wheel scrolls, click on a tab switches screen).
     pub mouse: bool,
+    /// The complaint history store as `--history` gives it (a SQLite path, a `postgres://`
+    /// URL or `default`); `None` is `$ROLLTRIAGE_HISTORY` or the per-user store, as for
+    /// `rolltriage history`.
+    pub history: Option<String>,
+}
+
+/// Where the history screen finds the store: as `rolltriage history` resolves `--history`.
+pub fn history_location(given: Option<&str>) -> Result<crate::history::Location, String> {
+    match given {
+        None | Some("default") => {
+            crate::history::Location::default_for_user().map_err(|e| e.to_string())
+        }
+        Some(text) => Ok(crate::history::Location::parse(text)),
+    }
 }
 
 /// Web and core preset IDs offered on the preset rows.
@@ -79,6 +94,7 @@ pub fn build_app(options: &Options, rules: Arc<RuleBase>) -> Result<app::App, Tu
         .iter()
         .map(|(id, remedy)| (id.clone(), remedy.changes.clone()))
         .collect();
+    app.session.history = history_location(options.history.as_deref());
     if let Some(path) = &options.case {
         let case = crate::case::Case::load(path)?;
         app.set_case(case, Some(path.clone()));
@@ -97,9 +113,10 @@ pub fn run(options: &Options) -> Result<(), TuiError> {
     let rules = Arc::new(rules);
     let mut app = build_app(options, Arc::clone(&rules))?;
     let theme = theme::Theme::from_env();
-    let mut jobs = job::JobRunner::new(rules);
+    let mut jobs = job::JobRunner::new(Arc::clone(&rules));
+    let history = history_job::HistoryRunner::new(rules);
     let mut terminal = terminal::setup(options.mouse)?;
-    let result = event_loop(&mut terminal, &mut app, &mut jobs, theme);
+    let result = event_loop(&mut terminal, &mut app, (&mut jobs, &history), theme);
     jobs.cancel_all();
     terminal::teardown(options.mouse);
     result
@@ -108,7 +125,7 @@ pub fn run(options: &Options) -> Result<(), TuiError> {
 fn event_loop(
     terminal: &mut terminal::UiTerminal,
     app: &mut app::App,
-    jobs: &mut job::JobRunner,
+    (jobs, history): (&mut job::JobRunner, &history_job::HistoryRunner),
     theme: theme::Theme,
 ) -> Result<(), TuiError> {
     // Short poll so progress and the spinner keep moving while a solve runs.
@@ -117,6 +134,9 @@ fn event_loop(
     while !app.should_quit {
         for request in app.take_requests() {
             jobs.start(request);
+        }
+        for request in app.take_history_requests() {
+            history.start(request);
         }
         terminal.draw(|frame| {
             frame.render_widget(screens::AppView { app, theme }, frame.area());
@@ -134,6 +154,9 @@ fn event_loop(
         }
         while let Some(message) = jobs.try_recv() {
             app.on_job(message);
+        }
+        while let Some(reply) = history.try_recv() {
+            app.on_history(reply);
         }
         if last_tick.elapsed() >= tick {
             app.on_tick();

@@ -13,6 +13,7 @@ use crate::units::UnitSystem;
 use super::catalogue::Catalogue;
 use super::component::Action;
 use super::fields::PresetFamily;
+use super::history_job::{HistoryRequest, HistoryTask};
 use super::job::{JobRequest, Purpose, SolveOutcome, Task};
 
 /// Latest finished baseline solve.
@@ -54,10 +55,19 @@ pub struct Session {
     pub remedy_changes: BTreeMap<String, Vec<SettingChange>>,
     /// Training walk-throughs offered by ^T.
     pub walkthroughs: Vec<crate::training::LoadedWalkthrough>,
+    /// The complaint history store (as `rolltriage history` finds it), or why there is none.
+    pub history: Result<crate::history::Location, String>,
+    /// The past complaints the history screen found similar to the case, with the case
+    /// generation they were found for (exports include them while the case is unchanged).
+    pub similar_past: Option<(u64, Vec<crate::history::PastComplaint>)>,
     requests: Vec<JobRequest>,
+    history_requests: Vec<HistoryRequest>,
     next_job_id: u64,
     actions: Vec<Action>,
 }
+
+/// Why the history screen has nothing to show when no store is configured.
+pub const NO_HISTORY: &str = "No complaint history store is configured. Start the UI with `rolltriage tui --history PATH` (or set ROLLTRIAGE_HISTORY) to browse the plant's past complaints.";
 
 /// The title of a blank case.
 pub const NEW_CASE: &str = "New case";
@@ -86,7 +96,10 @@ impl Session {
             tick: 0,
             remedy_changes: BTreeMap::new(),
             walkthroughs: Vec::new(),
+            history: Err(NO_HISTORY.into()),
+            similar_past: None,
             requests: Vec::new(),
+            history_requests: Vec::new(),
             next_job_id: 1,
             actions: Vec::new(),
         }
@@ -104,6 +117,28 @@ impl Session {
 
     pub fn set_status(&mut self, message: impl Into<String>) {
         self.status = Some(message.into());
+    }
+
+    /// The case's story (title, description, notes, complaint record) was edited: unsaved, but
+    /// nothing the solve reads changed, so the results stay current.
+    pub fn story_edited(&mut self) {
+        self.dirty = true;
+    }
+
+    /// Ask for history work (carried out off the UI thread); its request number, or the
+    /// reason when no store is configured.
+    pub fn queue_history(&mut self, task: HistoryTask) -> Result<u64, String> {
+        let location = self.history.clone()?;
+        let id = self.next_job_id;
+        self.next_job_id += 1;
+        self.history_requests
+            .push(HistoryRequest { id, location, task });
+        Ok(id)
+    }
+
+    /// The history requests waiting to be started (taken by the runtime).
+    pub fn take_history_requests(&mut self) -> Vec<HistoryRequest> {
+        std::mem::take(&mut self.history_requests)
     }
 
     /// The case was edited in place: unsaved, a new generation, resolved again.

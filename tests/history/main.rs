@@ -6,4 +6,5 @@
 
 mod cli;
 mod pg;
+mod report;
 mod store;

@@ -11,3 +11,4 @@ mod operator;
 mod screens;
 mod smoke;
 mod state;
+mod story_history;

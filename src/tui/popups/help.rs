@@ -46,6 +46,8 @@ pub fn sections() -> Vec<(&'static str, Vec<Hint>)> {
             "Training walk-through",
             help_entries(super::walkthrough::KEYS),
         ),
+        ("Complaint & story (F7)", help_entries(super::story::KEYS)),
+        ("Complaint history (F8)", help_entries(super::history::KEYS)),
         ("Reading the plots", PLOT_LEGEND.to_vec()),
     ]
 }

@@ -4,8 +4,10 @@
 pub mod calibrate;
 pub mod confirm;
 pub mod help;
+pub mod history;
 pub mod open;
 pub mod prompt;
+pub mod story;
 pub mod training;
 pub mod walkthrough;
 
@@ -15,8 +17,10 @@ use ratatui::layout::Rect;
 pub use calibrate::{CalibratePopup, StackFit};
 pub use confirm::ConfirmPopup;
 pub use help::HelpPopup;
+pub use history::{HistoryPopup, HistoryView};
 pub use open::OpenPopup;
 pub use prompt::{FilePopup, FilePurpose, PathPrompt};
+pub use story::StoryPopup;
 pub use training::TrainingPopup;
 pub use walkthrough::{WalkStage, WalkthroughRun};
 
@@ -38,6 +42,10 @@ pub enum Popup {
     Walkthrough(Box<WalkthroughRun>),
     /// Fit the web's radial stiffness (Pfeiffer K1, K2) to a stack-compression test CSV.
     Calibrate(Box<CalibratePopup>),
+    /// The complaint's story: title, description, notes, symptom notes, complaint record.
+    Story(StoryPopup),
+    /// The plant's complaint history.
+    History(Box<HistoryPopup>),
 }
 
 /// Run `$body` with `$p` bound to the popup's own component.
@@ -51,6 +59,8 @@ macro_rules! each_popup {
             Popup::Training($p) => $body,
             Popup::Walkthrough($p) => $body,
             Popup::Calibrate($p) => $body,
+            Popup::Story($p) => $body,
+            Popup::History($p) => $body,
         }
     };
 }
