@@ -104,8 +104,7 @@ fn a_typed_target_is_tried_and_kept_in_the_users_units() {
     let request = app
         .take_requests()
         .into_iter()
-        .filter(|r| r.purpose == Purpose::WhatIf)
-        .next_back()
+        .rfind(|r| r.purpose == Purpose::WhatIf)
         .expect("a what-if solve");
     // 3 pli = 525.38 N/m (1 lbf/in = 175.127 N/m, NIST SP 811 factors).
     let tension = request.resolved.unwrap().winding.tension.start_tension;
