@@ -11,6 +11,7 @@ pub mod rules;
 pub mod search;
 pub mod sensitivity;
 pub mod what_if;
+pub mod words;
 
 pub use search::{SymptomMatch, resolve_symptom, search_symptoms};
 
@@ -147,6 +148,38 @@ pub struct WhatIf {
     #[serde(default)]
     pub small_effect: bool,
     pub note: String,
+    /// `indicator` and `note` in plain words for people (screens, text, reports); JSON keeps
+    /// the IDs above. Empty on a what-if read back from JSON.
+    #[serde(skip)]
+    pub words: WhatIfWords,
+}
+
+/// A what-if's indicator and note in words ("wound-in tension step", "belief in 'Tension
+/// upset'").
+#[derive(Debug, Clone, Default, PartialEq)]
+pub struct WhatIfWords {
+    pub indicator: String,
+    pub note: String,
+}
+
+impl WhatIf {
+    /// The indicator in words (its ID with spaces when the words are not known).
+    pub fn indicator_text(&self) -> String {
+        if self.words.indicator.is_empty() {
+            self.indicator.replace('_', " ")
+        } else {
+            self.words.indicator.clone()
+        }
+    }
+
+    /// The note in words (the note as stored when the words are not known).
+    pub fn note_text(&self) -> &str {
+        if self.words.note.is_empty() {
+            &self.note
+        } else {
+            &self.words.note
+        }
+    }
 }
 
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]

@@ -72,8 +72,14 @@ pub fn render_text(title: &str, diagnosis: &Diagnosis, verbose: bool) -> String 
             for c in diagnosis.cautions_of(r) {
                 let _ = writeln!(out, "      ! caution, {}: {}", c.title, c.text);
             }
-            if let Some(w) = r.what_if.as_ref().filter(|w| w.indicator.is_empty()) {
-                let _ = writeln!(out, "      what-if: {}", w.note);
+            // IDs with --verbose, words otherwise.
+            let (indicator, note) = match &r.what_if {
+                Some(w) if verbose => (w.indicator.replace('_', " "), w.note.clone()),
+                Some(w) => (w.indicator_text(), w.note_text().to_string()),
+                None => (String::new(), String::new()),
+            };
+            if r.what_if.as_ref().is_some_and(|w| w.indicator.is_empty()) {
+                let _ = writeln!(out, "      what-if: {note}");
             } else if let Some(w) = &r.what_if {
                 let flag = if w.worse {
                     "  WARNING: makes it worse"
@@ -82,11 +88,8 @@ pub fn render_text(title: &str, diagnosis: &Diagnosis, verbose: bool) -> String 
                 };
                 let _ = writeln!(
                     out,
-                    "      what-if: {} {} → {}{flag} ({})",
-                    w.indicator.replace('_', " "),
-                    w.before,
-                    w.after,
-                    w.note
+                    "      what-if: {indicator} {} → {}{flag} ({note})",
+                    w.before, w.after,
                 );
             }
         }
@@ -181,7 +184,7 @@ pub fn render_markdown(title: &str, diagnosis: &Diagnosis) -> String {
                 let _ = writeln!(out, "   - ⚠ caution, {}: {}", c.title, c.text);
             }
             if let Some(w) = r.what_if.as_ref().filter(|w| w.indicator.is_empty()) {
-                let _ = writeln!(out, "   - what-if: {}", w.note);
+                let _ = writeln!(out, "   - what-if: {}", w.note_text());
             } else if let Some(w) = &r.what_if {
                 let flag = if w.worse {
                     " — **warning: makes it worse**"
@@ -191,10 +194,10 @@ pub fn render_markdown(title: &str, diagnosis: &Diagnosis) -> String {
                 let _ = writeln!(
                     out,
                     "   - what-if: {} {} → {}{flag} ({})",
-                    w.indicator.replace('_', " "),
+                    w.indicator_text(),
                     w.before,
                     w.after,
-                    w.note
+                    w.note_text()
                 );
             }
         }

@@ -13,7 +13,8 @@ use super::indicators::levers::LEVER_IDS;
 use super::indicators::{EVIDENCE_IDS, INPUT_INDICATORS, Indicators, format_value, indicator_spec};
 use super::rank::{evaluate, rank};
 use super::rules::{Comparison, RuleBase, SettingChange, Test};
-use super::{MergedRemedy, RankedCause, WhatIf};
+use super::words::{belief_label, indicator_label};
+use super::{MergedRemedy, RankedCause, WhatIf, WhatIfWords};
 use crate::case::ResolvedCase;
 use crate::model::SolverOptions;
 
@@ -236,6 +237,10 @@ pub fn what_if_after(
         after: String::new(),
         worse: false,
         small_effect: false,
+        words: WhatIfWords {
+            indicator: String::new(),
+            note: note.clone(),
+        },
         note,
     };
     if changed == case {
@@ -265,27 +270,43 @@ pub fn what_if_after(
         .map(|c| c.belief)
         .unwrap_or(0.0);
     let after_belief = belief(&after_causes, primary);
-    let mut notes = vec![format!(
-        "belief in {primary} {before_belief:.2} → {after_belief:.2}"
-    )];
+    let title = |id: &str| {
+        rules
+            .causes
+            .get(id)
+            .map_or_else(|| id.replace('_', " "), |c| c.title.clone())
+    };
+    let mut notes = Notes::default();
+    notes.push(
+        format!("belief in {primary} {before_belief:.2} → {after_belief:.2}"),
+        format!(
+            "{} {before_belief:.2} → {after_belief:.2}",
+            belief_label(&title(primary))
+        ),
+    );
     let mut worse = after_belief > before_belief + 0.02;
     // Side effects: other listed causes that the change makes more likely.
     for other in causes.iter().filter(|c| c.id != *primary) {
         let after = belief(&after_causes, &other.id);
         if after > other.belief + 0.05 {
-            notes.push(format!(
-                "raises {} {:.2} → {after:.2}",
-                other.id, other.belief
-            ));
+            notes.push(
+                format!("raises {} {:.2} → {after:.2}", other.id, other.belief),
+                format!(
+                    "raises {} {:.2} → {after:.2}",
+                    belief_label(&title(&other.id)),
+                    other.belief
+                ),
+            );
         }
     }
     let candidates = driving_tests(rules, symptoms, primary, case, indicators);
     let driver = pick_driver(&candidates, indicators, after_indicators).and_then(|test| {
         compare_driver(test, indicators, after_indicators, &mut notes, &mut worse)
     });
-    let (indicator, before_text, after_text) = driver.unwrap_or_else(|| {
+    let (indicator, indicator_words, before_text, after_text) = driver.unwrap_or_else(|| {
         (
             format!("belief in {primary}"),
+            belief_label(&title(primary)),
             format!("{before_belief:.2}"),
             format!("{after_belief:.2}"),
         )
@@ -296,8 +317,31 @@ pub fn what_if_after(
         after: after_text,
         worse,
         small_effect: false,
-        note: notes.join("; "),
+        note: notes.ids.join("; "),
+        words: WhatIfWords {
+            indicator: indicator_words,
+            note: notes.words.join("; "),
+        },
     })
+}
+
+/// The notes of a what-if twice over: with IDs (JSON, `--verbose`) and in words.
+#[derive(Default)]
+struct Notes {
+    ids: Vec<String>,
+    words: Vec<String>,
+}
+
+impl Notes {
+    fn push(&mut self, ids: String, words: String) {
+        self.ids.push(ids);
+        self.words.push(words);
+    }
+
+    fn push_same(&mut self, text: String) {
+        self.words.push(text.clone());
+        self.ids.push(text);
+    }
 }
 
 /// The before/after texts of the driving indicator `test`; adds notes on its direction and
@@ -306,9 +350,9 @@ fn compare_driver(
     test: &Test,
     indicators: &Indicators,
     after_indicators: &Indicators,
-    notes: &mut Vec<String>,
+    notes: &mut Notes,
     worse: &mut bool,
-) -> Option<(String, String, String)> {
+) -> Option<(String, String, String, String)> {
     let Test::Indicator {
         id,
         zone,
@@ -329,20 +373,26 @@ fn compare_driver(
         };
         if moved_wrong {
             *worse = true;
-            notes.push(format!("{id} moves the wrong way"));
+            notes.push(
+                format!("{id} moves the wrong way"),
+                format!(
+                    "{} moves the wrong way",
+                    indicator_label(id, zone.map(|z| z.as_str()))
+                ),
+            );
         }
         let still = match comparison {
             Comparison::Above => a > *threshold,
             Comparison::Below => a < *threshold,
         };
         if still && !moved_wrong {
-            notes.push("a first step: still past the rule threshold".into());
+            notes.push_same("a first step: still past the rule threshold".into());
         }
         let sign = match comparison {
             Comparison::Above => "above",
             Comparison::Below => "below",
         };
-        notes.push(format!(
+        notes.push_same(format!(
             "rule threshold: {sign} {}",
             format_value(*threshold, *dimension)
         ));
@@ -353,6 +403,7 @@ fn compare_driver(
     };
     Some((
         name,
+        indicator_label(id, zone.map(|z| z.as_str())),
         before
             .map(|v| format_value(v, *dimension))
             .unwrap_or_default(),
@@ -375,7 +426,17 @@ fn rating_only(before: &Before, changed: &ResolvedCase, remedy: &MergedRemedy) -
         (Some(p), true) => Some(p / changed.core.crush_pressure),
         _ => None,
     };
+    let rating = |v: f64| format_value(v, super::indicators::Dimension::Pressure);
+    let note_words = format!(
+        "rated crush pressure {} → {}",
+        rating(case.core.crush_pressure),
+        rating(changed.core.crush_pressure)
+    );
     WhatIf {
+        words: WhatIfWords {
+            indicator: indicator_label("core_pressure_ratio", None),
+            note: note_words,
+        },
         indicator: "core_pressure_ratio".into(),
         before: before
             .map(|v| format_value(v, dimension))

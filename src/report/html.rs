@@ -339,7 +339,7 @@ fn write_report(
             write!(
                 out,
                 "<br>Predicted effect: {} {} → {}",
-                escape(&what_if.indicator.replace('_', " ")),
+                escape(&what_if.indicator_text()),
                 escape(&what_if.before),
                 escape(&what_if.after)
             )?;
@@ -349,7 +349,7 @@ fn write_report(
                     " <span class=\"worse\">WORSE, do not apply without checking</span>"
                 )?;
             }
-            write!(out, ". {}", escape(what_if.note.trim()))?;
+            write!(out, ". {}", escape(what_if.note_text().trim()))?;
         }
         for caution in doc
             .cautions

@@ -252,7 +252,7 @@ fn write_report(out: &mut String, doc: &ReportDocument) -> std::fmt::Result {
             writeln!(
                 out,
                 "   Predicted effect: {} {} → {}{}. {}",
-                what_if.indicator.replace('_', " "),
+                what_if.indicator_text(),
                 what_if.before,
                 what_if.after,
                 if what_if.worse {
@@ -260,7 +260,7 @@ fn write_report(out: &mut String, doc: &ReportDocument) -> std::fmt::Result {
                 } else {
                     ""
                 },
-                what_if.note.trim()
+                what_if.note_text().trim()
             )?;
         }
         for caution in doc

@@ -37,7 +37,7 @@ pub const GLOBAL_KEYS: &[Binding] = &[
     Binding::help("Ctrl-N", "start a blank case"),
     Binding::help("Ctrl-L", "take the inputs from a saved case, keep the symptoms"),
     Binding::help("Ctrl-R", "solve again"),
-    Binding::help("Ctrl-U", "SI / US units"),
+    Binding::help("Ctrl-U", "SI / US units; on Roll & winding also converts the entered values"),
     Binding::help("Ctrl-E", "export a report (.md, .html or .json by the file name)"),
     Binding::help("Ctrl-T / F6", "training walk-throughs: answer a guided case"),
     Binding::help("F7", "the complaint's story and the complaint record"),
@@ -85,6 +85,8 @@ pub struct App {
     /// Open popups, the top one last; it gets every key.
     pub popups: Vec<Popup>,
     pub should_quit: bool,
+    /// The file whose comments the user was told a save drops (the next save goes ahead).
+    pub comments_warned: Option<PathBuf>,
 }
 
 impl App {
@@ -99,6 +101,7 @@ impl App {
             what_if: WhatIfScreen::default(),
             popups: Vec::new(),
             should_quit: false,
+            comments_warned: None,
         }
     }
 
@@ -315,6 +318,11 @@ impl App {
         let editing = self.inputs.editing.is_some();
         match key {
             Key::Tab | Key::BackTab if editing => return false,
+            // While a value is typed, Ctrl-U / Ctrl-W clear the text (as in a shell); units
+            // switch with Ctrl-U when nothing is being typed.
+            Key::Ctrl('u') | Key::Ctrl('w') if editing && self.screen == Screen::Inputs => {
+                return false;
+            }
             Key::Tab => self.go_to(self.screen.next()),
             Key::BackTab => self.go_to(self.screen.previous()),
             Key::F(1) => self.popups.push(Popup::Help(HelpPopup::default())),
@@ -346,6 +354,24 @@ impl App {
                     UnitSystem::Si => UnitSystem::Us,
                     UnitSystem::Us => UnitSystem::Si,
                 };
+                // On the form, the entered values follow: the case is written in the units
+                // the user works in.
+                if self.screen == Screen::Inputs {
+                    let converted = crate::tui::fields::convert_units(
+                        &mut self.session.case,
+                        self.session.units,
+                    );
+                    if converted > 0 {
+                        self.session.edited();
+                        self.session.set_status(format!(
+                            "{converted} entered values converted to {} units",
+                            match self.session.units {
+                                UnitSystem::Si => "SI",
+                                UnitSystem::Us => "US",
+                            }
+                        ));
+                    }
+                }
             }
             Key::Char('?') if !self.is_typing() => {
                 self.popups.push(Popup::Help(HelpPopup::default()))
@@ -472,6 +498,10 @@ impl App {
     }
 
     fn save_to(&mut self, path: &Path) {
+        if let Some(message) = self.save_refused(path) {
+            self.session.set_status(message);
+            return;
+        }
         match self.session.case.save(path) {
             Ok(()) => {
                 self.session.dirty = false;
@@ -480,6 +510,43 @@ impl App {
             }
             Err(error) => self.session.set_status(format!("Not saved: {error}")),
         }
+    }
+
+    /// Why a save to `path` does not go ahead now, in plain words: a typed value that was not
+    /// accepted (saving would silently drop it), a folder that does not exist, or comments in
+    /// the file that the UI cannot keep (said once; the next save writes without them).
+    fn save_refused(&mut self, path: &Path) -> Option<String> {
+        if self.inputs.error.is_some()
+            && let Some(text) = &self.inputs.editing
+        {
+            let label = crate::tui::fields::FIELDS
+                .get(self.inputs.selected)
+                .map_or("a field", |f| f.label);
+            return Some(format!(
+                "Not saved: \"{text}\" for {label} was not accepted; correct it (F3) or press Esc, then save"
+            ));
+        }
+        let folder = path.parent().filter(|p| !p.as_os_str().is_empty());
+        if let Some(folder) = folder
+            && !folder.is_dir()
+        {
+            return Some(format!(
+                "Not saved: the folder {} does not exist",
+                folder.display()
+            ));
+        }
+        let has_comments = std::fs::read_to_string(path).is_ok_and(|text| {
+            text.lines()
+                .any(|l| l.trim_start().starts_with('#') || l.contains("  #"))
+        });
+        if has_comments && self.comments_warned.as_deref() != Some(path) {
+            self.comments_warned = Some(path.to_path_buf());
+            return Some(format!(
+                "Not saved yet: {} has comments the UI does not keep; ^S again saves without them (or save under another name)",
+                path.display()
+            ));
+        }
+        None
     }
 
     fn export(&mut self) {

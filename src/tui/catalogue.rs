@@ -19,6 +19,8 @@ pub struct QuestionInfo {
     pub text: String,
     /// Choice IDs; empty means the answer is yes / no / unknown.
     pub choices: Vec<String>,
+    /// The choices in words, beside `choices` (empty: the IDs are shown with spaces).
+    pub choice_texts: Vec<String>,
 }
 
 impl QuestionInfo {
@@ -31,6 +33,16 @@ impl QuestionInfo {
             options.push("unknown".to_string());
             options
         }
+    }
+
+    /// An answer as a person reads it: the choice's text ("in storage"), never its ID.
+    pub fn answer_text(&self, answer: &str) -> String {
+        self.choices
+            .iter()
+            .position(|c| c == answer)
+            .and_then(|i| self.choice_texts.get(i))
+            .cloned()
+            .unwrap_or_else(|| answer.replace('_', " "))
     }
 }
 
@@ -125,6 +137,11 @@ impl Catalogue {
                             Vec::new()
                         } else {
                             q.choices.iter().map(|c| c.id.clone()).collect()
+                        },
+                        choice_texts: if q.yes_no {
+                            Vec::new()
+                        } else {
+                            q.choices.iter().map(|c| c.text.clone()).collect()
                         },
                     })
                     .collect(),

@@ -123,6 +123,53 @@ pub static FIELDS: LazyLock<Vec<FieldSpec>> = LazyLock::new(|| {
 
 use FieldKind::{Choice, Number, Preset, Quantity, Table, Text};
 
+/// A choice or preset value as a person reads it: "centre-surface winding", a preset's title;
+/// other words with spaces for underscores. The case file keeps the ID.
+pub fn value_words(spec: &FieldSpec, value: &str) -> String {
+    match spec.kind {
+        FieldKind::Preset(PresetFamily::Web) => crate::presets::web_preset(value)
+            .map_or_else(|| value.to_string(), |p| p.name.to_string()),
+        FieldKind::Preset(PresetFamily::Core) => crate::presets::core_preset(value)
+            .map_or_else(|| value.to_string(), |p| p.name.to_string()),
+        FieldKind::Choice(_) if spec.path == "winding.method" => match value {
+            "centre" => "centre winding".into(),
+            "gap" => "gap winding".into(),
+            "surface" => "surface winding".into(),
+            "two_drum" => "two-drum winding".into(),
+            "centre_surface" => "centre-surface winding".into(),
+            other => other.replace('_', " "),
+        },
+        FieldKind::Choice(_) => value.replace('_', " "),
+        _ => value.to_string(),
+    }
+}
+
+/// Rewrite every entered quantity of the form in `units` ("525 N/m" → "3.001 pli"); returns
+/// how many changed. Texts that do not parse are left as typed.
+pub fn convert_units(case: &mut Case, units: crate::units::UnitSystem) -> usize {
+    let mut converted = 0;
+    for spec in FIELDS.iter() {
+        let FieldKind::Quantity(kind) = spec.kind else {
+            continue;
+        };
+        // A percentage reads the same in both systems.
+        if kind == QuantityKind::Percent {
+            continue;
+        }
+        let Some(text) = get(case, spec.path) else {
+            continue;
+        };
+        let Ok(value) = parse_quantity(spec.path, &text, kind) else {
+            continue;
+        };
+        let new = crate::units::format_quantity(value, kind, units);
+        if new != text && set(case, spec, Some(&new)).is_ok() {
+            converted += 1;
+        }
+    }
+    converted
+}
+
 /// Find a field by its path.
 pub fn field(path: &str) -> Option<&'static FieldSpec> {
     FIELDS.iter().find(|f| f.path == path)

@@ -113,6 +113,10 @@ pub struct SolveOutcome {
     pub profile: Profile,
     /// The diagnosis can fail on its own (e.g. rule trouble) while the stresses are fine.
     pub diagnosis: Result<Diagnosis, JobError>,
+    /// The assumed inputs that move the ranking most, in words, most influential first (the
+    /// results screen names them). Filled where a sensitivity run of the library is available;
+    /// empty means "not computed", and the screen then names the assumed inputs instead.
+    pub movers: Vec<String>,
 }
 
 #[derive(Debug, Clone, PartialEq)]
@@ -169,6 +173,7 @@ pub fn run_pipeline(
         resolved: triage.resolved,
         profile: triage.profile,
         diagnosis,
+        movers: Vec::new(),
     })
 }
 

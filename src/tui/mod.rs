@@ -67,6 +67,8 @@ pub fn preset_ids() -> (Vec<String>, Vec<String>) {
     (
         crate::presets::web_presets()
             .iter()
+            // The reference web exists for the engine's own checks, not for real rolls.
+            .filter(|p| !p.id.ends_with("_reference"))
             .map(|p| p.id.to_string())
             .collect(),
         crate::presets::core_presets()

@@ -9,6 +9,7 @@ mod fixtures;
 mod tui_support;
 
 mod job;
+mod operator;
 mod screens;
 mod smoke;
 mod state;

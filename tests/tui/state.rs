@@ -273,10 +273,11 @@ fn causes_expand_and_remedies_lead_to_what_if() {
     assert!((trial.winding.tension.start_tension - 525.0 * 1.15).abs() < 1e-9);
     // Keeping it writes the new tension into the case.
     app.handle_key(Key::Char('a'));
-    match app.session.case.winding.tension {
-        Some(rolltriage::case::QuantityText::Number(v)) => assert!((v - 603.75).abs() < 1e-9),
-        ref other => panic!("unexpected tension {other:?}"),
-    }
+    // Written in the user's units, rounded to four figures (603.75 N/m).
+    assert_eq!(
+        app.session.case.winding.tension,
+        Some(rolltriage::case::QuantityText::Text("603.8 N/m".into()))
+    );
     // "store_rolls_on_end" changes no winder setting.
     assert!(!app.session.remedy_is_tryable("store_rolls_on_end"));
 }
@@ -699,12 +700,17 @@ fn taper_design_runs_as_a_background_job_and_can_be_kept() {
     );
     app.handle_key(Key::Char('a'));
     assert!(app.session.dirty);
-    match &app.session.case.winding.tension {
-        Some(rolltriage::case::QuantityText::Number(v)) => {
-            assert!((v - design.start_tension).abs() < 1e-9)
-        }
-        other => panic!("unexpected tension {other:?}"),
-    }
+    // The designed tension is written in the user's units, not as a bare SI number.
+    assert_eq!(
+        app.session.case.winding.tension,
+        Some(rolltriage::case::QuantityText::Text(
+            rolltriage::units::format_quantity(
+                design.start_tension,
+                rolltriage::units::QuantityKind::ForcePerWidth,
+                app.session.units
+            )
+        ))
+    );
     assert!(app.session.case.winding.taper.is_some());
 }
 

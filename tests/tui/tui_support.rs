@@ -31,6 +31,7 @@ pub fn catalogue() -> Catalogue {
                     id: "telescoping_after_handling".into(),
                     text: "Did it appear only after the roll was moved?".into(),
                     choices: vec![],
+                    choice_texts: vec![],
                 }];
             }
             "starring" => {
@@ -40,6 +41,7 @@ pub fn catalogue() -> Catalogue {
                     id: "starring_radius".into(),
                     text: "Where do the stars start?".into(),
                     choices: vec!["near_core".into(), "mid_roll".into()],
+                    choice_texts: vec!["near the core".into(), "in the middle of the roll".into()],
                 }];
             }
             "blocking" => {
@@ -314,6 +316,7 @@ pub fn outcome(scale: f64) -> SolveOutcome {
         resolved: resolved("Sample"),
         profile: profile(scale),
         diagnosis: Ok(diagnosis(scale)),
+        movers: Vec::new(),
     }
 }
 

@@ -83,6 +83,7 @@ pub const RADIAL_STIFFNESS: Field = Field {
     ..plain("web.radial_stiffness", "Radial stiffness law", Section)
 };
 pub const RADIAL_LAW: Field = Field {
+    form: Some("Radial law"),
     default: Required,
     help: "pfeiffer: P = K1·(e^(K2·ε) − 1), so Er = K2·(P + K1) (Pfeiffer 1966); constant: Er = modulus; power_law: Er = C·Pⁿ with P in Pa.",
     example: "pfeiffer",
@@ -93,6 +94,7 @@ pub const RADIAL_LAW: Field = Field {
     )
 };
 pub const K1: Field = Field {
+    form: Some("Pfeiffer K1"),
     range: Some(above(0.0, 100e6, Q::Stress)),
     default: FromWeb(|p| p.k1),
     help: "Pfeiffer K1 (law `pfeiffer`).",
@@ -104,6 +106,7 @@ pub const K1: Field = Field {
     )
 };
 pub const K2: Field = Field {
+    form: Some("Pfeiffer K2"),
     // Er = K2·(P + K1): a vanishing K2 leaves the stack without radial stiffness and the
     // solution without a finite value; published fits are in the tens to hundreds.
     range: Some(plain_from(1.0, 1e5)),
@@ -113,6 +116,7 @@ pub const K2: Field = Field {
     ..plain("web.radial_stiffness.k2", "Pfeiffer K2", Number)
 };
 pub const RADIAL_MODULUS: Field = Field {
+    form: Some("Radial modulus"),
     // A vanishing modulus gives no finite solution (1e-300 Pa made every pressure NaN).
     range: Some(from(1e3, 400e9, Q::Stress)),
     default: Required,
@@ -149,6 +153,7 @@ pub const POWER_EXPONENT: Field = Field {
     )
 };
 pub const WEB_POISSON: Field = Field {
+    form: Some("Poisson ratio"),
     // The accretion model needs ν below 0.5 (incompressible stack).
     range: Some(plain_from(0.0, 0.5).below_max()),
     default: FromWeb(|p| p.poisson_ratio),

@@ -73,17 +73,23 @@ impl Component for HelpPopup {
     }
 
     fn render(&self, _ctx: &Session, theme: Theme, area: Rect, buf: &mut Buffer) {
+        let rect = centred(area, 80, area.height.saturating_sub(2));
+        // Long entries wrap under their text instead of running off the box.
+        let width = usize::from(rect.width.saturating_sub(2));
         let mut lines = Vec::new();
         for (section, keys) in sections() {
             lines.push(Line::from(Span::styled(section, theme.title())));
             for (key, what) in keys {
-                lines.push(Line::from(vec![
-                    Span::styled(format!("  {key:<24}"), theme.key()),
-                    Span::raw(what),
-                ]));
+                lines.extend(crate::tui::screens::hang(
+                    Line::from(vec![
+                        Span::styled(format!("  {key:<24}"), theme.key()),
+                        Span::raw(what),
+                    ]),
+                    width,
+                    26,
+                ));
             }
         }
-        let rect = centred(area, 80, area.height.saturating_sub(2));
         let room = usize::from(rect.height.saturating_sub(2));
         let last_start = lines.len().saturating_sub(room) as u16;
         let scroll = self.scroll.min(last_start);

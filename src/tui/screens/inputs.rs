@@ -26,6 +26,7 @@ pub const KEYS: &[Binding] = &[
     Binding::line(EDIT, "Enter", "ok"),
     Binding::line(EDIT, "Esc", "cancel"),
     Binding::help("Enter / Esc", "accept (checked at once) / cancel"),
+    Binding::help("Ctrl-U / Ctrl-W", "while typing: clear the text / the last word (else Ctrl-U switches units and converts the form)"),
     Binding::both(BROWSE, "←→", "set", "← →", "choose on choice and preset rows"),
     Binding::help("Delete", "clear a field: the preset or default value is used"),
     Binding::both(BROWSE, "^K", "calibrate", "Ctrl-K", "fit Pfeiffer K1, K2 to a stack-test CSV"),
@@ -62,6 +63,13 @@ impl InputsScreen {
             },
             Key::Backspace => {
                 text.pop();
+                self.editing = Some(text);
+            }
+            // Shell habits: Ctrl-U clears the text, Ctrl-W the last word.
+            Key::Ctrl('u') => self.editing = Some(String::new()),
+            Key::Ctrl('w') => {
+                let kept = text.trim_end().rfind(' ').map_or(0, |i| i + 1);
+                text.truncate(kept);
                 self.editing = Some(text);
             }
             Key::Char(c) => {
@@ -189,10 +197,14 @@ fn render(state: &InputsScreen, app: &Session, theme: Theme, area: Rect, buf: &m
         last_group = spec.group;
         let (value, tag, tag_style) = match (&state.editing, selected, &entered) {
             (Some(text), true, _) => (format!("{text}▏"), "typing", theme.key()),
-            (_, _, Some(text)) => (text.clone(), "entered", theme.good()),
+            (_, _, Some(text)) => (fields::value_words(spec, text), "entered", theme.good()),
             _ => match app.assumed(spec.path) {
                 Some(assumed) => (
-                    format!("{} ({})", assumed.value, assumed.source),
+                    format!(
+                        "{} ({})",
+                        fields::value_words(spec, &assumed.value),
+                        assumed.source
+                    ),
                     "assumed",
                     theme.assumed(),
                 ),

@@ -33,13 +33,32 @@ impl Widget for &App {
     }
 }
 
-const SPINNER: [char; 8] = ['⠁', '⠂', '⠄', '⡀', '⢀', '⠠', '⠐', '⠈'];
+pub(crate) const SPINNER: [char; 8] = ['⠁', '⠂', '⠄', '⡀', '⢀', '⠠', '⠐', '⠈'];
+
+/// The smallest window the screens are laid out for; below it only a message is drawn.
+pub const MIN_WIDTH: u16 = 60;
+pub const MIN_HEIGHT: u16 = 16;
 
 impl Widget for AppView<'_> {
     fn render(self, area: Rect, buf: &mut Buffer) {
         let app = self.app;
         let session = &app.session;
         let theme = self.theme;
+        if area.width < MIN_WIDTH || area.height < MIN_HEIGHT {
+            // Cut-off screens mislead more than no screen: say what is needed instead.
+            let lines = vec![
+                Line::from(Span::styled("Window too small", theme.warn())),
+                Line::from(format!(
+                    "{}×{} here; rolltriage needs at least {MIN_WIDTH}×{MIN_HEIGHT}.",
+                    area.width, area.height
+                )),
+                Line::from("Enlarge the window, or press Ctrl-Q to quit."),
+            ];
+            Paragraph::new(lines)
+                .wrap(ratatui::widgets::Wrap { trim: true })
+                .render(area, buf);
+            return;
+        }
         let [header, body, status, help_line] = Layout::vertical([
             Constraint::Length(1),
             Constraint::Min(0),
@@ -164,6 +183,48 @@ pub fn render_scrolled_block<'a>(
         .scroll((scroll, 0))
         .block(block)
         .render(area, buf);
+}
+
+/// Word-wrap `line` to `width` cells with its continuation rows indented by `indent` spaces
+/// (styles kept), so a wrapped cause or reason reads as one item. Breaks only at plain spaces:
+/// a number joined to its unit by a no-break space stays with it.
+pub fn hang(line: Line<'static>, width: usize, indent: usize) -> Vec<Line<'static>> {
+    if width <= indent + 8 || line.width() <= width {
+        return vec![line];
+    }
+    // Words with the spaces before them, each with its span's style.
+    let mut tokens: Vec<(String, ratatui::style::Style)> = Vec::new();
+    for span in &line.spans {
+        let mut word = String::new();
+        for c in span.content.chars() {
+            if c == ' ' && !word.is_empty() && !word.ends_with(' ') {
+                tokens.push((std::mem::take(&mut word), span.style));
+            }
+            word.push(c);
+        }
+        if !word.is_empty() {
+            tokens.push((word, span.style));
+        }
+    }
+    let mut out = Vec::new();
+    let mut current: Vec<Span<'static>> = Vec::new();
+    let mut used = 0;
+    for (token, style) in tokens {
+        let mut token = token;
+        let length = token.chars().count();
+        if used + length > width && used > indent {
+            out.push(Line::from(std::mem::take(&mut current)));
+            current.push(Span::raw(" ".repeat(indent)));
+            token = token.trim_start().to_string();
+            used = indent;
+        }
+        used += token.chars().count();
+        current.push(Span::styled(token, style));
+    }
+    if !current.is_empty() {
+        out.push(Line::from(current));
+    }
+    out
 }
 
 pub fn render_scrolled<'a>(

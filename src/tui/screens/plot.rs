@@ -1,4 +1,4 @@
-//! A small line plot of a quantity against radius, drawn cell by cell: zones of the roll as
+//! A small line plot of a quantity against the roll's diameter, drawn cell by cell: zones of the roll as
 //! labelled bands (alternate bands dotted, so they read without colour), horizontal reference
 //! lines (zero, core crush rating), one curve in braille dots and an optional comparison curve
 //! in bullets.
@@ -185,7 +185,12 @@ impl ZonePlot<'_> {
                 }
             }
             let width = last - first + 1;
-            let text = fitted_label(&self.bands[b].label, width);
+            // One free cell so neighbouring labels never run together ("outersurface").
+            let text = match fitted_label(&self.bands[b].label, width.saturating_sub(1)) {
+                // A one-cell band keeps its initial.
+                text if text.is_empty() => fitted_label(&self.bands[b].label, width),
+                text => text,
+            };
             let offset = (width.saturating_sub(text.chars().count())) / 2;
             buf.set_string(
                 f.plot.x + (first + offset) as u16,
@@ -280,7 +285,7 @@ impl ZonePlot<'_> {
         let bottom = inner.bottom() - 1;
         let left = (self.format_x)(f.x0);
         let right = (self.format_x)(f.x1);
-        let middle = format!("radius {}", (self.format_x)((f.x0 + f.x1) / 2.0));
+        let middle = format!("⌀ {}", (self.format_x)((f.x0 + f.x1) / 2.0));
         buf.set_string(f.plot.x, bottom, &left, self.axis_style);
         let rx = f.plot.right().saturating_sub(right.chars().count() as u16);
         buf.set_string(rx, bottom, &right, self.axis_style);

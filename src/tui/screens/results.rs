@@ -211,15 +211,15 @@ pub fn summary_lines(
             )),
             Span::styled(ratio_text, ratio_style),
             Span::raw(format!(
-                " · peak {} at r {}",
+                " · peak {} at ⌀ {}",
                 compact_stress(s.peak_pressure, units),
-                compact_length(s.peak_pressure_radius, units)
+                compact_length(2.0 * s.peak_pressure_radius, units)
             )),
         ]),
         Line::from(format!(
-            "Most compressive σθ {} at r {} · {} layers in {} elements",
+            "Most compressive hoop stress {} at ⌀ {} · {} layers in {} elements",
             compact_stress(s.min_tangential_stress, units),
-            compact_length(s.min_tangential_radius, units),
+            compact_length(2.0 * s.min_tangential_radius, units),
             s.physical_layers,
             outcome.profile.solver.elements
         )),
@@ -242,13 +242,25 @@ pub fn assumed_line(outcome: &SolveOutcome, theme: Theme, width: u16) -> Line<'s
         share.total,
         share.factor() * 100.0
     );
-    // Name as many of the assumed inputs as fit on the line.
+    // Name as many as fit on the line: those that move the ranking most when known, else the
+    // assumed inputs in the order of the form.
+    let (labels, lead) = if outcome.movers.is_empty() {
+        (
+            share.labels.iter().map(String::as_str).collect::<Vec<_>>(),
+            ": ",
+        )
+    } else {
+        (
+            outcome.movers.iter().map(String::as_str).collect(),
+            "; moves the ranking most: ",
+        )
+    };
     let room = usize::from(width);
     let mut names = String::new();
-    for (i, label) in share.labels.iter().enumerate() {
-        let more = share.labels.len() - i - 1;
+    for (i, label) in labels.iter().enumerate() {
+        let more = labels.len() - i - 1;
         let candidate = if names.is_empty() {
-            format!(": {label}")
+            format!("{lead}{label}")
         } else {
             format!("{names}, {label}")
         };
@@ -286,8 +298,8 @@ pub fn render_plots(
         .iter()
         .map(|z| Band {
             label: z.name.as_str().to_string(),
-            from: z.inner_radius,
-            to: z.outer_radius,
+            from: 2.0 * z.inner_radius,
+            to: 2.0 * z.outer_radius,
         })
         .collect();
     let format_y = |v: f64| compact_stress(v, units);
@@ -298,8 +310,9 @@ pub fn render_plots(
         glyph: '─',
         style: theme.dim(),
     };
+    // Positions are diameters (what an operator measures): x = 2 r.
     let pairs = |xs: &[f64], ys: &[f64]| -> Vec<(f64, f64)> {
-        xs.iter().copied().zip(ys.iter().copied()).collect()
+        xs.iter().map(|r| 2.0 * r).zip(ys.iter().copied()).collect()
     };
     let curves = |pick: fn(&Profile) -> &Vec<f64>| {
         let mut series = Vec::new();
@@ -351,7 +364,7 @@ pub fn render_plots(
     }
     .render(left, buf);
     ZonePlot {
-        block: Block::bordered().title(title("Tangential stress σθ")),
+        block: Block::bordered().title(title("Hoop stress σθ")),
         series: curves(|p| &p.tangential_stress),
         bands,
         lines: vec![zero],
@@ -443,9 +456,29 @@ fn render_causes(
             }
         }
     }
+    // Wrapped lines hang under their item: the cause title under the title, a reason under
+    // its text.
+    let width = usize::from(area.width.saturating_sub(2));
+    let mut hung: Vec<Line> = Vec::new();
+    let mut hung_target = 0;
+    for (i, line) in lines.into_iter().enumerate() {
+        if i == target {
+            hung_target = hung.len();
+        }
+        let indent = if line
+            .spans
+            .first()
+            .is_some_and(|s| s.content.starts_with("   "))
+        {
+            8
+        } else {
+            16
+        };
+        hung.extend(super::hang(line, width, indent));
+    }
     super::render_scrolled(
-        lines,
-        Some(target),
+        hung,
+        Some(hung_target),
         Block::bordered().title(" Ranked causes "),
         area,
         buf,
@@ -517,7 +550,7 @@ fn render_remedies(
             lines.push(Line::from(Span::styled(
                 format!(
                     "    {}: {} → {}{}",
-                    what_if.indicator.replace('_', " "),
+                    what_if.indicator_text(),
                     what_if.before,
                     what_if.after,
                     if what_if.small_effect {

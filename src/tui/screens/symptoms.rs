@@ -385,7 +385,7 @@ fn render_details(
             .case
             .answers
             .get(&question.id)
-            .cloned()
+            .map(|a| question.answer_text(a))
             .unwrap_or_else(|| "not answered".into());
         lines.push(Line::from(vec![
             Span::styled(format!("{} ", question.text), row_style(i + 1)),

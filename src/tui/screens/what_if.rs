@@ -9,6 +9,7 @@ use ratatui::widgets::{Block, Paragraph, Widget, Wrap};
 use super::results::render_plots;
 use super::{compact_stress, sig3};
 use crate::case::{QuantityText, TaperInput};
+use crate::diagnose::rules::SettingChange;
 use crate::diagnose::what_if::{
     Setting, SettingStep, apply_changes, describe_change, keep_changes, trial_case,
 };
@@ -20,13 +21,42 @@ use crate::tui::session::Session;
 use crate::tui::theme::Theme;
 use crate::units::UnitSystem;
 
-fn format_value(value: f64, unit: &str, units: UnitSystem) -> String {
-    if unit == "Pa" {
-        compact_stress(value, units)
-    } else if unit.is_empty() || unit == "1" {
-        sig3(value)
+/// An indicator's value in the user's units where it has one ("1.2 pli", "116 %").
+fn format_value(id: &str, value: f64, unit: &str, units: UnitSystem) -> String {
+    use crate::diagnose::indicators::{Dimension, format_value as by_dimension, indicator_spec};
+    use crate::units::{QuantityKind, format_quantity};
+    match indicator_spec(id).map(|s| s.dimension) {
+        _ if unit == "Pa" => compact_stress(value, units),
+        Some(Dimension::ForcePerWidth) => {
+            format_quantity(value, QuantityKind::ForcePerWidth, units)
+        }
+        Some(Dimension::Speed) => format_quantity(value, QuantityKind::Speed, units),
+        Some(Dimension::Length) => format_quantity(value, QuantityKind::Length, units),
+        Some(dimension) => by_dimension(value, dimension),
+        None if unit.is_empty() || unit == "1" => sig3(value),
+        None => format!("{} {unit}", sig3(value)),
+    }
+}
+
+/// How much a value moved, in words a person reads at a glance: "same", "×140" for a big
+/// factor, "+12 %" otherwise, "new" from zero. Never "+13950 %" or "−0 %".
+pub fn change_text(before: f64, after: f64) -> String {
+    let scale = before.abs().max(after.abs());
+    if scale <= f64::EPSILON || (after - before).abs() <= 0.005 * scale {
+        return "same".into();
+    }
+    if before.abs() <= f64::EPSILON {
+        return "new".into();
+    }
+    let ratio = after / before;
+    if ratio >= 10.0 || (ratio > 0.0 && ratio <= 0.1) {
+        return format!("×{}", sig3(ratio));
+    }
+    let percent = (after - before) / before.abs() * 100.0;
+    if percent.abs() < 0.5 {
+        "same".into()
     } else {
-        format!("{} {unit}", sig3(value))
+        format!("{percent:+.0} %")
     }
 }
 
@@ -37,15 +67,7 @@ pub fn comparison(
     after: &SolveOutcome,
     units: UnitSystem,
 ) -> Vec<[String; 4]> {
-    let change = |b: f64, a: f64| {
-        if b.abs() > f64::EPSILON {
-            format!("{:+.0}%", (a - b) / b.abs() * 100.0)
-        } else if a.abs() > f64::EPSILON {
-            "new".to_string()
-        } else {
-            "0%".to_string()
-        }
-    };
+    let change = change_text;
     let (sb, sa) = (&before.profile.summary, &after.profile.summary);
     let mut rows = vec![
         [
@@ -61,7 +83,7 @@ pub fn comparison(
             change(sb.peak_pressure, sa.peak_pressure),
         ],
         [
-            "lowest σθ".into(),
+            "most compressive hoop stress".into(),
             compact_stress(sb.min_tangential_stress, units),
             compact_stress(sa.min_tangential_stress, units),
             change(sb.min_tangential_stress, sa.min_tangential_stress),
@@ -80,16 +102,13 @@ pub fn comparison(
                 } else {
                     a.value.abs()
                 };
-                let name = match &b.zone {
-                    Some(zone) => format!("{} [{zone}]", b.id),
-                    None => b.id.clone(),
-                };
+                let name = crate::diagnose::words::indicator_label(&b.id, b.zone.as_deref());
                 indicator_rows.push((
                     relative,
                     [
                         name,
-                        format_value(b.value, &b.unit, units),
-                        format_value(a.value, &a.unit, units),
+                        format_value(&b.id, b.value, &b.unit, units),
+                        format_value(&a.id, a.value, &a.unit, units),
                         change(b.value, a.value),
                     ],
                 ));
@@ -107,10 +126,10 @@ pub fn comparison(
                 .map_or(0.0, |c| c.belief);
             if ((after_belief - cause.belief) * 100.0).abs() >= 0.5 {
                 belief_rows.push([
-                    format!("belief {}", cause.id),
-                    format!("{:.0}%", cause.belief * 100.0),
-                    format!("{:.0}%", after_belief * 100.0),
-                    format!("{:+.0} pts", (after_belief - cause.belief) * 100.0),
+                    crate::diagnose::words::belief_label(&cause.title),
+                    format!("{:.0} %", cause.belief * 100.0),
+                    format!("{:.0} %", after_belief * 100.0),
+                    format!("{:+.0} points", (after_belief - cause.belief) * 100.0),
                 ]);
             }
         }
@@ -165,12 +184,17 @@ pub fn design_rows(
     rows
 }
 
+/// The description shown while a taper design runs.
+const DESIGNING: &str = "Designing a taper schedule (many solves)…";
+
 /// The what-if screen's keys.
 #[rustfmt::skip]
 pub const KEYS: &[Binding] = &[
     Binding::both(ANY, "↑↓", "pick", "↑ ↓", "pick a setting or a remedy"),
-    Binding::both(ANY, "←→", "change", "← →", "change the setting one step down / up"),
+    Binding::both(ANY, "←→", "step", "← →", "change the setting one step down / up"),
+    Binding::both(ANY, "t", "set", "t", "type the value to try for the highlighted setting (Enter tries it, Esc cancels)"),
     Binding::help("Enter", "try the highlighted remedy"),
+    Binding::help("PgUp / PgDn", "scroll the before → after table"),
     Binding::both(ANY, "d", "taper", "d", "design a taper that keeps the roll inside every limit"),
     Binding::both(ANY, "a", "keep", "a / r", "keep the change (or the designed taper) in the case / reset"),
 ];
@@ -188,6 +212,12 @@ pub struct WhatIfScreen {
     /// A designed taper schedule (what-if `d`), with the generation it was made for.
     pub design: Option<(u64, Box<TaperDesign>)>,
     pub error: Option<String>,
+    /// A value being typed for the highlighted setting (`t`).
+    pub typing: Option<String>,
+    /// A typed value being tried: its setting changes and their words.
+    pub target: Option<(Vec<SettingChange>, String)>,
+    /// First row of the before → after table shown.
+    pub scroll: u16,
 }
 
 /// Why a what-if cannot start: the inputs do not resolve.
@@ -204,6 +234,11 @@ impl WhatIfScreen {
         self.outcome = None;
         self.change = None;
         self.description = None;
+        self.target = None;
+        self.scroll = 0;
+        // A design made for the old case (or just kept into it) no longer compares with the
+        // case as it stands.
+        self.design = None;
     }
 
     /// A finished what-if solve.
@@ -247,7 +282,7 @@ impl WhatIfScreen {
             }
         };
         self.clear(ctx);
-        self.description = Some("Designing a taper schedule (many solves)…".into());
+        self.description = Some(DESIGNING.into());
         let case = ctx.case.clone();
         ctx.queue(Purpose::WhatIf, case, Some(resolved), Task::DesignTaper);
     }
@@ -264,6 +299,7 @@ impl WhatIfScreen {
     pub fn set_change(&mut self, change: SettingStep, ctx: &mut Session) {
         self.change = Some(change);
         self.remedy = None;
+        self.target = None;
         if let Some(row) = Setting::ALL.iter().position(|s| *s == change.setting)
             && self.row < Setting::ALL.len()
         {
@@ -275,15 +311,49 @@ impl WhatIfScreen {
     /// Try a remedy's own setting changes (from the rule base) on the case.
     pub fn try_remedy(&mut self, remedy: &str, ctx: &mut Session) {
         self.change = None;
+        self.target = None;
         self.remedy = Some(remedy.to_string());
         self.run(ctx);
     }
 
+    /// Try the value typed for `setting` ("3 pli", "20 %", "900 fpm").
+    pub fn try_value(&mut self, setting: Setting, text: &str, ctx: &mut Session) {
+        let resolved = match &ctx.resolved {
+            Ok(resolved) => resolved,
+            Err(error) => {
+                self.error = Some(format!("fix the inputs first: {error}"));
+                return;
+            }
+        };
+        match target_changes(setting, text, resolved) {
+            Ok(changes) => {
+                let words: Vec<String> = changes.iter().map(describe_change).collect();
+                let description = format!("{}: {}", setting.label(), words.join(", "));
+                self.change = None;
+                self.remedy = None;
+                self.target = Some((changes, description));
+                self.run(ctx);
+            }
+            Err(error) => self.error = Some(error),
+        }
+    }
+
     /// Queue the solve of the change being tried (again, after ^R).
     pub fn run(&mut self, ctx: &mut Session) {
+        self.scroll = 0;
         let trial = match (&self.remedy, self.change, &ctx.resolved) {
-            (_, _, Err(_)) if self.remedy.is_some() || self.change.is_some() => {
+            (_, _, Err(_))
+                if self.remedy.is_some() || self.change.is_some() || self.target.is_some() =>
+            {
                 Err(fix_inputs_first(ctx).unwrap_or_default())
+            }
+            (_, _, Ok(resolved)) if self.target.is_some() => {
+                let (changes, description) = self.target.clone().unwrap_or_default();
+                Ok((
+                    ctx.case.clone(),
+                    Some(apply_changes(resolved, &changes)),
+                    description,
+                ))
             }
             (Some(remedy), _, Ok(resolved)) => {
                 let changes = ctx.remedy_changes.get(remedy).cloned().unwrap_or_default();
@@ -327,7 +397,11 @@ impl WhatIfScreen {
                 TaperShape::Linear => "linear",
                 TaperShape::Hyperbolic => "hyperbolic",
             };
-            ctx.case.winding.tension = Some(QuantityText::Number(design.start_tension));
+            ctx.case.winding.tension = Some(QuantityText::Text(crate::units::format_quantity(
+                design.start_tension,
+                crate::units::QuantityKind::ForcePerWidth,
+                ctx.units,
+            )));
             ctx.case.winding.taper = Some(TaperInput {
                 kind: kind.into(),
                 amount: Some(QuantityText::Text(format!(
@@ -338,7 +412,23 @@ impl WhatIfScreen {
                 points: Vec::new(),
             });
             ctx.edited();
+            // The design is in the case now: its table compared with the old case.
+            self.design = None;
+            self.description = None;
             ctx.set_status("Kept the designed taper schedule");
+            return;
+        }
+        if let (Some((changes, description)), Ok(resolved)) = (&self.target, &ctx.resolved) {
+            match keep_changes(&ctx.case, resolved, changes) {
+                Ok(mut case) => {
+                    let description = description.clone();
+                    written_in_units(&ctx.case, &mut case, ctx.units);
+                    ctx.case = case;
+                    ctx.edited();
+                    ctx.set_status(format!("Kept: {description}"));
+                }
+                Err(error) => ctx.set_status(error.to_string()),
+            }
             return;
         }
         let kept = match (&self.remedy, self.change, &ctx.resolved) {
@@ -358,7 +448,8 @@ impl WhatIfScreen {
             }
         };
         match kept {
-            Ok((case, description)) => {
+            Ok((mut case, description)) => {
+                written_in_units(&ctx.case, &mut case, ctx.units);
                 ctx.case = case;
                 ctx.edited();
                 ctx.set_status(format!("Kept: {description}"));
@@ -373,9 +464,36 @@ impl Component for WhatIfScreen {
         KEYS
     }
 
+    fn is_typing(&self) -> bool {
+        self.typing.is_some()
+    }
+
     fn on_key(&mut self, key: Key, ctx: &mut Session) -> Handled {
+        if let Some(text) = self.typing.as_mut() {
+            match key {
+                Key::Char(c) => text.push(c),
+                Key::Backspace => {
+                    text.pop();
+                }
+                Key::Esc => self.typing = None,
+                Key::Enter => {
+                    let text = self.typing.take().unwrap_or_default();
+                    if let Some(setting) = Setting::ALL.get(self.row).copied() {
+                        self.try_value(setting, &text, ctx);
+                    }
+                }
+                _ => return Handled::No,
+            }
+            return Handled::Yes;
+        }
         let rows = Setting::ALL.len() + ctx.what_if_remedies().len();
         match key {
+            Key::Char('t') if self.row < Setting::ALL.len() => {
+                self.typing = Some(String::new());
+                self.error = None;
+            }
+            Key::PageDown => self.scroll = self.scroll.saturating_add(5),
+            Key::PageUp => self.scroll = self.scroll.saturating_sub(5),
             Key::Up => self.row = self.row.saturating_sub(1),
             Key::Down => self.row = (self.row + 1).min(rows - 1),
             Key::Left | Key::Right => {
@@ -417,6 +535,107 @@ impl Component for WhatIfScreen {
         render_choices(state, app, theme, choices, buf);
         render_comparison(state, app, theme, compare, plots, buf);
     }
+}
+
+/// A kept change reaches the case file as a bare SI number: write each changed setting as a
+/// text in the user's units instead ("1.755 pli", not 307.2628794874298).
+pub fn written_in_units(
+    before: &crate::case::Case,
+    after: &mut crate::case::Case,
+    units: UnitSystem,
+) {
+    use crate::units::{QuantityKind, format_quantity};
+    let text = |old: &Option<QuantityText>, new: &mut Option<QuantityText>, kind| {
+        if let Some(QuantityText::Number(value)) = *new
+            && old != new
+        {
+            *new = Some(QuantityText::Text(format_quantity(value, kind, units)));
+        }
+    };
+    text(
+        &before.winding.tension,
+        &mut after.winding.tension,
+        QuantityKind::ForcePerWidth,
+    );
+    text(
+        &before.winding.nip_load,
+        &mut after.winding.nip_load,
+        QuantityKind::ForcePerWidth,
+    );
+    text(
+        &before.winding.speed,
+        &mut after.winding.speed,
+        QuantityKind::Speed,
+    );
+    text(
+        &before.core.stiffness,
+        &mut after.core.stiffness,
+        QuantityKind::Stress,
+    );
+    text(
+        &before.core.crush_pressure,
+        &mut after.core.crush_pressure,
+        QuantityKind::Stress,
+    );
+}
+
+/// The setting changes that bring `setting` to the typed value `text` (in any accepted unit).
+pub fn target_changes(
+    setting: Setting,
+    text: &str,
+    resolved: &crate::case::ResolvedCase,
+) -> Result<Vec<SettingChange>, String> {
+    use crate::units::{QuantityKind, parse_quantity};
+    let parse = |kind| parse_quantity(setting.label(), text, kind).map_err(|e| e.to_string());
+    let positive = |value: f64| {
+        if value.is_finite() && value > 0.0 {
+            Ok(value)
+        } else {
+            Err(format!("{}: give a value above zero", setting.label()))
+        }
+    };
+    let change = match setting {
+        Setting::Tension => {
+            let value = positive(parse(QuantityKind::ForcePerWidth)?)?;
+            SettingChange::TensionScale(value / resolved.winding.tension.start_tension)
+        }
+        Setting::Taper => {
+            let mut value = parse(QuantityKind::Percent)?;
+            // "20" means 20 %, as the screen shows taper in percent.
+            if !text.contains('%') && value > 1.0 {
+                value /= 100.0;
+            }
+            if !(0.0..=0.9).contains(&value) {
+                return Err("Taper: give 0 to 90 %".into());
+            }
+            SettingChange::TaperTo(value * 100.0)
+        }
+        Setting::NipLoad => {
+            let value = positive(parse(QuantityKind::ForcePerWidth)?)?;
+            match resolved.winding.nip_load {
+                Some(before) if before > 0.0 => SettingChange::NipScale(value / before),
+                _ => {
+                    return Err(
+                        "Nip load: this case has no nip; set one on the Roll & winding screen                          or use → from none"
+                            .into(),
+                    );
+                }
+            }
+        }
+        Setting::Core => {
+            let value = positive(parse(QuantityKind::Stress)?)?;
+            let before = resolved.core.stiffness.effective_stiffness();
+            if !before.is_finite() || before <= 0.0 {
+                return Err("Core: the core is rigid; a typed stiffness changes nothing".into());
+            }
+            SettingChange::CoreStiffnessScale(value / before)
+        }
+        Setting::Speed => {
+            let value = positive(parse(QuantityKind::Speed)?)?;
+            SettingChange::SpeedScale(value / resolved.winding.speed)
+        }
+    };
+    Ok(vec![change])
 }
 
 /// One line about a taper design: the schedule, and whether it meets every limit.
@@ -485,11 +704,22 @@ fn render_choices(state: &WhatIfScreen, app: &Session, theme: Theme, area: Rect,
         };
         lines.push(Line::from(Span::styled(format!("{mark} {text}"), style)));
     }
-    let step_help = Setting::ALL
-        .get(state.row)
-        .map(|s| s.step_text())
-        .unwrap_or("Enter applies the remedy's setting change");
-    lines.push(Line::from(Span::styled(step_help, theme.dim())));
+    if let (Some(text), Some(setting)) = (&state.typing, Setting::ALL.get(state.row)) {
+        lines.push(Line::from(vec![
+            Span::styled(format!("{}: ", setting.label()), theme.title()),
+            Span::styled(format!("{text}▏"), theme.key()),
+        ]));
+        lines.push(Line::from(Span::styled(
+            "type a value with its unit, Enter tries it, Esc cancels",
+            theme.dim(),
+        )));
+    } else {
+        let step_help = Setting::ALL
+            .get(state.row)
+            .map(|s| s.step_text())
+            .unwrap_or("Enter applies the remedy's setting change");
+        lines.push(Line::from(Span::styled(step_help, theme.dim())));
+    }
     Paragraph::new(lines)
         .wrap(Wrap { trim: true })
         .block(Block::bordered().title(" Change one setting "))
@@ -518,10 +748,18 @@ fn render_comparison(
         text.push(Line::from(Span::styled(error.clone(), theme.error())));
     }
     if let Some(running) = app.running_what_if {
-        text.push(Line::from(format!(
-            "re-solving… {:.0}%",
-            running.fraction * 100.0
-        )));
+        let frame = super::SPINNER[(app.tick as usize) % super::SPINNER.len()];
+        if state.design.is_none() && state.description.as_deref() == Some(DESIGNING) {
+            // The design reports no fraction: the spinner shows it is working.
+            text.push(Line::from(format!(
+                "{frame} designing… many solves; keys still work"
+            )));
+        } else {
+            text.push(Line::from(format!(
+                "{frame} re-solving… {:.0} %",
+                running.fraction * 100.0
+            )));
+        }
     } else if before.is_none() && state.change.is_some() {
         text.push(Line::from("waiting for the case's own solve…"));
     }
@@ -538,10 +776,10 @@ fn render_comparison(
             "change"
         };
         let width = usize::from(compare.width.saturating_sub(2));
-        let name_width = width.saturating_sub(28).clamp(10, 48);
+        let name_width = width.saturating_sub(33).clamp(10, 48);
         text.push(Line::from(Span::styled(
             format!(
-                "{:<name_width$} {:>9} {:>9} {:>7}",
+                "{:<name_width$} {:>10} {:>10} {:>10}",
                 "", "before", "after", last_header
             ),
             theme.dim(),
@@ -551,21 +789,31 @@ fn render_comparison(
                 text.push(Line::from(Span::styled(name, theme.dim())));
                 continue;
             }
-            let name: String = if name.chars().count() > name_width {
-                let mut short: String = name.chars().take(name_width - 1).collect();
-                short.push('…');
-                short
+            // A name too long for its column gets a line of its own: words, never cut.
+            let name = if name.chars().count() > name_width {
+                text.push(Line::from(name));
+                String::new()
             } else {
                 name
             };
             text.push(Line::from(format!(
-                "{name:<name_width$} {b:>9} {a:>9} {c:>7}"
+                "{name:<name_width$} {b:>10} {a:>10} {c:>10}"
             )));
         }
     }
+    // Keep the last rows reachable but never scroll past them.
+    let visible = usize::from(compare.height.saturating_sub(2));
+    let most = u16::try_from(text.len().saturating_sub(visible)).unwrap_or(u16::MAX);
+    let scroll = state.scroll.min(most);
+    let title = if most > 0 {
+        " Before → after  (PgUp/PgDn: more) "
+    } else {
+        " Before → after  (a keeps the change, r resets) "
+    };
     Paragraph::new(text)
         .wrap(Wrap { trim: false })
-        .block(Block::bordered().title(" Before → after  (a keeps the change, r resets) "))
+        .scroll((scroll, 0))
+        .block(Block::bordered().title(title))
         .render(compare, buf);
 
     if let (None, Some(design)) = (after, design) {

@@ -1,0 +1,114 @@
+//! Plain-words names of indicators for people (screens, text output, reports). JSON and
+//! `--verbose` keep the IDs; everything a person reads goes through [`indicator_title`] or
+//! [`indicator_label`].
+
+/// Short names of the indicators, in the words of the trade where one exists.
+const TITLES: &[(&str, &str)] = &[
+    ("core_pressure", "pressure on the core"),
+    ("core_pressure_ratio", "core pressure / crush rating"),
+    ("peak_pressure", "highest pressure"),
+    ("peak_pressure_position", "where the pressure peaks"),
+    ("pressure_min", "lowest pressure"),
+    ("pressure_mean", "mean pressure"),
+    ("pressure_max", "highest pressure"),
+    ("low_pressure_extent", "share loosely held"),
+    ("telescoping_margin", "telescoping margin"),
+    ("min_tangential_stress", "most compressive hoop stress"),
+    (
+        "min_tangential_position",
+        "where the hoop stress is most compressive",
+    ),
+    ("compressive_band_extent", "share in hoop compression"),
+    ("compressive_stress_ratio", "hoop compression / web stress"),
+    ("slip_margin", "slip margin"),
+    ("speed_change_slip_margin", "slip margin at speed changes"),
+    ("core_slip_margin", "slip margin at the core"),
+    ("air_film_ratio", "air film / roughness"),
+    ("wit_strength_share", "wound-in tension / web strength"),
+    ("wit_drop", "wound-in tension drop"),
+    ("wit_step", "wound-in tension step"),
+    ("build_ratio", "roll diameter / core diameter"),
+    ("radial_strain_max", "largest radial strain"),
+    ("build_compression", "mean radial compression"),
+    ("core_stiffness_ratio", "core stiffness / first wraps"),
+    (
+        "acceleration_torque_share",
+        "acceleration torque / tension torque",
+    ),
+    ("speed", "line speed"),
+    ("web_tension", "web tension"),
+    ("web_stress", "web stress"),
+    ("winding_strain", "web strain at winding"),
+    ("nip_wit_share", "share of wound-in tension from the nip"),
+    ("tension_to_usual", "tension / usual tension"),
+    ("tension_to_recipe", "tension / recipe tension"),
+    ("tension_strength_share", "tension / web strength"),
+    ("nip_load", "nip load"),
+    ("nip_to_tension", "nip load / tension"),
+    ("taper", "taper"),
+    ("temperature", "web temperature"),
+    ("thickness", "web thickness"),
+    ("roll_diameter", "roll diameter"),
+    ("friction", "web-to-web friction"),
+    ("measured_density_ratio", "measured / computed density"),
+    ("density_deviation", "density deviation"),
+    ("hardness_shape_agreement", "hardness profile agreement"),
+    ("hardness_soft_band", "soft band in hardness"),
+    ("lane_hardness_spread", "hardness spread across lanes"),
+    ("end_line_offset", "end-line offset"),
+    ("end_line_bend_position", "where the end line bends"),
+    ("slip_location_match", "slip location match"),
+    ("core_bore_ratio", "core bore ratio"),
+    ("bad_roll_share", "share of bad rolls"),
+    ("bad_edge_share", "share of bad edge rolls"),
+    ("bad_parent_share", "share of bad parent rolls"),
+];
+
+/// "wit_step" → "wound-in tension step"; an indicator not in the table reads as its ID with
+/// spaces.
+pub fn indicator_title(id: &str) -> String {
+    TITLES
+        .iter()
+        .find(|(i, _)| *i == id)
+        .map(|(_, t)| (*t).to_string())
+        .unwrap_or_else(|| id.replace('_', " "))
+}
+
+/// The indicator with its zone: "mean pressure (middle zone)".
+pub fn indicator_label(id: &str, zone: Option<&str>) -> String {
+    match zone {
+        Some(z) => format!("{} ({z} zone)", indicator_title(id)),
+        None => indicator_title(id),
+    }
+}
+
+/// "belief in 'Web tension too low'".
+pub fn belief_label(cause_title: &str) -> String {
+    format!("belief in '{cause_title}'")
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn every_indicator_has_a_title() {
+        for spec in super::super::indicators::INDICATORS {
+            assert!(
+                TITLES.iter().any(|(id, _)| *id == spec.id),
+                "indicator {} has no plain-words title",
+                spec.id
+            );
+        }
+    }
+
+    #[test]
+    fn labels_read_as_words() {
+        assert_eq!(indicator_title("wit_step"), "wound-in tension step");
+        assert_eq!(
+            indicator_label("pressure_mean", Some("middle")),
+            "mean pressure (middle zone)"
+        );
+        assert_eq!(indicator_title("not_known"), "not known");
+    }
+}
