@@ -163,6 +163,18 @@ pub const INDICATORS: &[IndicatorSpec] = &[
         "smallest ratio, over every interface, of the friction the pressure gives to the axial shear of lifting the roll by its core (with the shock factor); below 1 = layers slide",
     ),
     spec(
+        "starring_margin",
+        Dimension::Ratio,
+        ZoneUse::None,
+        "smallest ratio, over every interface, of the stress that buckles a wrap on the elastic foundation of the stack around it to the wrap's hoop compression (docs/theory.md §5.3); below 1 = the wrap buckles (starring); 1000 = no hoop compression",
+    ),
+    spec(
+        "starring_margin_position",
+        Dimension::Fraction,
+        ZoneUse::None,
+        "where the starring margin is smallest, as a share of the build from the core (0 = at the core)",
+    ),
+    spec(
         "min_tangential_stress",
         Dimension::Pressure,
         ZoneUse::Optional,
@@ -818,6 +830,16 @@ impl Indicators {
         self.set("speed_change_slip_margin", None, torque.speed_change_margin);
         let telescoping = crate::mechanics::telescoping::handling_margins(profile, &inputs);
         self.set("telescoping_margin", None, telescoping.min_margin);
+        let starring = crate::mechanics::starring::buckling_margins(profile, &inputs);
+        self.set("starring_margin", None, starring.min_margin);
+        // Where only when some wrap is in hoop compression (with none, the minimum is the cap).
+        if outer_r > core_r && starring.min_margin < crate::mechanics::MARGIN_CAP {
+            self.set(
+                "starring_margin_position",
+                None,
+                ((starring.min_radius - core_r) / (outer_r - core_r)).clamp(0.0, 1.0),
+            );
+        }
 
         // Air film: the solver's estimate when present, otherwise the foil-bearing estimate.
         let ratio = match &profile.air_film {
