@@ -56,6 +56,84 @@ pub fn buckling_margins(profile: &Profile, inputs: &MechanicsInputs) -> Interfac
 #[cfg(test)]
 mod tests {
     use super::*;
+    use crate::model::{RadialStiffness, WindingMethod};
+
+    fn inputs(radial: RadialStiffness) -> MechanicsInputs {
+        MechanicsInputs {
+            core_radius: 0.05,
+            outer_radius: 0.3,
+            density: 700.0,
+            friction: 0.4,
+            method: WindingMethod::Centre,
+            speed: 10.0,
+            outer_tension: 300.0,
+            events: Default::default(),
+            tangential_modulus: 4e9,
+            radial_stiffness: radial,
+        }
+    }
+
+    /// A roll of 101 nodes with the given pressure and hoop stress at build share s.
+    fn roll(p: impl Fn(f64) -> f64, hoop: impl Fn(f64) -> f64) -> Profile {
+        let s: Vec<f64> = (0..101).map(|i| i as f64 / 100.0).collect();
+        Profile {
+            radius: s.iter().map(|s| 0.05 + 0.25 * s).collect(),
+            pressure: s.iter().map(|s| p(*s)).collect(),
+            tangential_stress: s.iter().map(|s| hoop(*s)).collect(),
+            ..Default::default()
+        }
+    }
+
+    const PAPER: RadialStiffness = RadialStiffness::Pfeiffer { k1: 5e3, k2: 50.0 };
+
+    #[test]
+    fn no_hoop_compression_is_no_demand() {
+        let m = buckling_margins(&roll(|_| 1e5, |_| 1e6), &inputs(PAPER));
+        assert_eq!(m.min_margin, crate::mechanics::MARGIN_CAP);
+    }
+
+    #[test]
+    fn starring_appears_near_the_core_of_an_ordinary_roll() {
+        // Common practice: starring appears near the core. An ordinary roll has its deepest hoop
+        // compression just outside the core and its pressure highest there; the margin is still
+        // smallest at the core because the compression falls faster than the foundation softens.
+        let m = buckling_margins(
+            &roll(|s| 3e5 * (1.0 - s), |s| -2e5 * (1.0 - 3.0 * s)),
+            &inputs(PAPER),
+        );
+        assert!(m.min_radius < 0.05 + 0.1 * 0.25, "{}", m.min_radius);
+    }
+
+    #[test]
+    fn a_softer_stack_has_a_smaller_margin() {
+        // Common practice: starring shows on soft rolls. Same hoop compression, softer stack.
+        let profile = roll(|_| 5e4, |_| -1e5);
+        let firm = buckling_margins(&profile, &inputs(PAPER));
+        let soft = buckling_margins(
+            &profile,
+            &inputs(RadialStiffness::Pfeiffer { k1: 1e3, k2: 10.0 }),
+        );
+        assert!(soft.min_margin < firm.min_margin);
+        // σcr ∝ √Er: Er falls from 50·55 kPa to 10·51 kPa.
+        let ratio = firm.min_margin / soft.min_margin;
+        assert!((ratio - (50.0 * 55e3 / (10.0 * 51e3_f64)).sqrt()).abs() < 1e-9);
+    }
+
+    #[test]
+    fn a_slack_band_inside_the_roll_is_where_the_margin_is_smallest() {
+        // Common practice: starring appears after a tension upset band. A band wound slack sits
+        // at low pressure in hoop compression between firm wraps: the smallest margin is there.
+        let band = |s: f64| (0.5..0.55).contains(&s);
+        let m = buckling_margins(
+            &roll(
+                |s| if band(s) { 2e3 } else { 2e5 },
+                |s| if band(s) { -1e5 } else { -5e4 },
+            ),
+            &inputs(PAPER),
+        );
+        let at = (m.min_radius - 0.05) / 0.25;
+        assert!((0.495..0.545).contains(&at), "smallest at build share {at}");
+    }
 
     #[test]
     fn foundation_factor_is_root_two_thirds() {
@@ -65,7 +143,7 @@ mod tests {
     #[test]
     fn critical_stress_is_hetenyi_on_two_sided_foundation() {
         // N = 2·√(k·D), k = 2·Er/h, D = Eθ·h³/12 (Hetényi), divided by h, for any caliper.
-        let (et, er) = (5e9, 2.5e5);
+        let (et, er) = (5e9_f64, 2.5e5_f64);
         for h in [10e-6, 100e-6, 1e-3] {
             let k = 2.0 * er / h;
             let d = et * h * h * h / 12.0;
