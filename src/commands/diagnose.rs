@@ -110,6 +110,22 @@ pub fn run(args: &DiagnoseArgs) -> anyhow::Result<()> {
     let what = format!("the stress profile of {}", args.case.display());
     rolltriage::finite::ensure_finite(&what, &triage.profile)?;
     let mut diagnosis = triage.diagnosis.with_context(context)?;
+    // Which assumed inputs the answer rests on, judged on the rule base's own ranking (before
+    // site history reorders it).
+    let sensitivity = diagnose::sensitivity::sensitivity(
+        &rules,
+        &triage.resolved,
+        &triage.profile,
+        &diagnosis,
+        options.solver,
+        &mut |_| true,
+    )
+    .with_context(context)?;
+    let what = format!(
+        "the sensitivity to the assumed inputs of {}",
+        args.case.display()
+    );
+    rolltriage::finite::ensure_finite(&what, &sensitivity)?;
     let mut past = String::new();
     if let Some(place) = &args.history {
         let site = super::history::SiteView::new(place, !args.no_site_history, args.top);
@@ -119,10 +135,30 @@ pub fn run(args: &DiagnoseArgs) -> anyhow::Result<()> {
     rolltriage::finite::ensure_finite(&what, &diagnosis)?;
     let text = match args.format {
         Format::Text => {
-            diagnose::render::render_text(&resolved.title, &diagnosis, args.verbose) + &past
+            diagnose::render::render_text(&resolved.title, &diagnosis, args.verbose)
+                + &diagnose::render::sensitivity_text(&sensitivity)
+                + &past
         }
-        Format::Markdown => diagnose::render::render_markdown(&resolved.title, &diagnosis) + &past,
-        Format::Json => serde_json::to_string_pretty(&diagnosis)? + "\n",
+        Format::Markdown => {
+            diagnose::render::render_markdown(&resolved.title, &diagnosis)
+                + &diagnose::render::sensitivity_markdown(&sensitivity)
+                + &past
+        }
+        Format::Json => {
+            // The diagnosis as before, with the sensitivity appended when anything was assumed.
+            #[derive(serde::Serialize)]
+            struct Output<'a> {
+                #[serde(flatten)]
+                diagnosis: &'a diagnose::Diagnosis,
+                #[serde(skip_serializing_if = "Option::is_none")]
+                sensitivity: Option<&'a diagnose::sensitivity::Sensitivity>,
+            }
+            let output = Output {
+                diagnosis: &diagnosis,
+                sensitivity: (!sensitivity.is_empty()).then_some(&sensitivity),
+            };
+            serde_json::to_string_pretty(&output)? + "\n"
+        }
     };
     super::output::write_stdout(&text)
 }

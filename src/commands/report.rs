@@ -108,6 +108,10 @@ pub fn run(args: &ReportArgs) -> anyhow::Result<()> {
     let case = args.case.display();
     rolltriage::finite::ensure_finite(&format!("the stress profile of {case}"), &input.profile)?;
     rolltriage::finite::ensure_finite(&format!("the diagnosis of {case}"), &input.diagnosis)?;
+    if let Some(sensitivity) = &input.sensitivity {
+        let what = format!("the sensitivity to the assumed inputs of {case}");
+        rolltriage::finite::ensure_finite(&what, sensitivity)?;
+    }
     if let Some(remedy) = &input.remedy {
         let what = format!("the re-solved roll of {case} with {}", remedy.remedy_id);
         rolltriage::finite::ensure_finite(&what, &remedy.after)?;

@@ -9,6 +9,7 @@ pub mod remedies;
 pub mod render;
 pub mod rules;
 pub mod search;
+pub mod sensitivity;
 pub mod what_if;
 
 pub use search::{SymptomMatch, resolve_symptom, search_symptoms};

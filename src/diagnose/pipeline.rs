@@ -249,7 +249,7 @@ impl WhatIfContext<'_> {
 
 /// Solve several what-if cases, in parallel where the machine has cores to spare. A failed
 /// solve is kept as its error (the what-if row says so); a cancelled one cancels them all.
-fn solve_all(
+pub(crate) fn solve_all(
     cases: &[&ResolvedCase],
     solver: SolverOptions,
     progress: Progress<'_>,

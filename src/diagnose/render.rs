@@ -105,6 +105,36 @@ pub fn render_text(title: &str, diagnosis: &Diagnosis, verbose: bool) -> String 
     out
 }
 
+/// How many assumed inputs the text outputs name.
+pub const SENSITIVITY_SHOWN: usize = 3;
+
+/// "What the answer rests on" for the terminal; empty when nothing was assumed.
+pub fn sensitivity_text(sensitivity: &super::sensitivity::Sensitivity) -> String {
+    let lines = sensitivity.lines(SENSITIVITY_SHOWN);
+    if lines.is_empty() {
+        return String::new();
+    }
+    let mut out = String::from("\nWhat the answer rests on\n");
+    for line in lines {
+        let _ = writeln!(out, "  {line}");
+    }
+    out
+}
+
+/// "What the answer rests on" in Markdown; empty when nothing was assumed.
+pub fn sensitivity_markdown(sensitivity: &super::sensitivity::Sensitivity) -> String {
+    let lines = sensitivity.lines(SENSITIVITY_SHOWN);
+    if lines.is_empty() {
+        return String::new();
+    }
+    let mut out = String::from("## What the answer rests on\n\n");
+    for line in lines {
+        let _ = writeln!(out, "{line}");
+    }
+    out.push('\n');
+    out
+}
+
 /// Markdown for reports and tickets.
 pub fn render_markdown(title: &str, diagnosis: &Diagnosis) -> String {
     let mut out = String::new();

@@ -177,8 +177,9 @@ pub struct CaseSummary {
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct ZoneSummary {
     pub zone: String,
-    pub inner_radius: Quantity,
-    pub outer_radius: Quantity,
+    /// Where the zone starts and ends, as roll diameters (what an operator measures).
+    pub inner_diameter: Quantity,
+    pub outer_diameter: Quantity,
     pub pressure_min: Quantity,
     pub pressure_mean: Quantity,
     pub pressure_max: Quantity,
@@ -192,9 +193,10 @@ pub struct StressSummary {
     /// Core pressure divided by the core's rated crush pressure.
     pub core_pressure_ratio: f64,
     pub peak_pressure: Quantity,
-    pub peak_pressure_radius: Quantity,
+    /// Roll diameter at the peak pressure.
+    pub peak_pressure_diameter: Quantity,
     pub min_tangential_stress: Quantity,
-    pub min_tangential_radius: Quantity,
+    pub min_tangential_diameter: Quantity,
     pub wound_in_tension_start: Quantity,
     pub wound_in_tension_end: Quantity,
     pub physical_layers: usize,
@@ -255,7 +257,8 @@ pub struct ComparisonFigure {
 
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct ProfilePoint {
-    pub radius_m: f64,
+    /// Roll diameter at the point (m).
+    pub diameter_m: f64,
     pub pressure_pa: f64,
     pub tangential_stress_pa: f64,
 }
@@ -286,6 +289,10 @@ pub struct ReportDocument {
     /// What was measured on the roll against what was computed; absent without measurements.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub measured: Option<MeasuredSection>,
+    /// Which assumed inputs the answer rests on; absent when nothing was assumed or it was not
+    /// worked out.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub sensitivity: Option<crate::diagnose::sensitivity::Sensitivity>,
 }
 
 /// The measurements against the model (docs/evidence.md).
@@ -384,7 +391,7 @@ pub fn build_document(input: &ReportInput) -> Result<ReportDocument, ReportError
         }
     });
     Ok(ReportDocument {
-        schema: "rolltriage-report/1".to_string(),
+        schema: "rolltriage-report/2".to_string(),
         meta: input.meta.clone(),
         case,
         stress,
@@ -428,6 +435,7 @@ pub fn build_document(input: &ReportInput) -> Result<ReportDocument, ReportError
                 lines: e.lines(),
                 evidence: e.clone(),
             }),
+        sensitivity: input.sensitivity.clone().filter(|s| !s.is_empty()),
     })
 }
 
@@ -462,7 +470,7 @@ pub(crate) fn thin_profile(profile: &Profile, max_points: usize) -> Vec<ProfileP
     indices
         .into_iter()
         .map(|i| ProfilePoint {
-            radius_m: round_sig(profile.radius[i], 6),
+            diameter_m: round_sig(2.0 * profile.radius[i], 6),
             pressure_pa: round_sig(profile.pressure[i], 5),
             tangential_stress_pa: round_sig(profile.tangential_stress[i], 5),
         })
@@ -717,8 +725,8 @@ pub fn stress_summary(
             let tangential_min = tangential.iter().copied().fold(f64::INFINITY, f64::min);
             Some(ZoneSummary {
                 zone: zone.name.as_str().to_string(),
-                inner_radius: Quantity::new(zone.inner_radius, Length, units),
-                outer_radius: Quantity::new(zone.outer_radius, Length, units),
+                inner_diameter: Quantity::new(2.0 * zone.inner_radius, Length, units),
+                outer_diameter: Quantity::new(2.0 * zone.outer_radius, Length, units),
                 pressure_min: Quantity::new(min, Stress, units),
                 pressure_mean: Quantity::new(mean, Stress, units),
                 pressure_max: Quantity::new(max, Stress, units),
@@ -739,9 +747,9 @@ pub fn stress_summary(
         core_crush_pressure: Quantity::new(crush, Stress, units),
         core_pressure_ratio: ratio,
         peak_pressure: Quantity::new(s.peak_pressure, Stress, units),
-        peak_pressure_radius: Quantity::new(s.peak_pressure_radius, Length, units),
+        peak_pressure_diameter: Quantity::new(2.0 * s.peak_pressure_radius, Length, units),
         min_tangential_stress: Quantity::new(s.min_tangential_stress, Stress, units),
-        min_tangential_radius: Quantity::new(s.min_tangential_radius, Length, units),
+        min_tangential_diameter: Quantity::new(2.0 * s.min_tangential_radius, Length, units),
         wound_in_tension_start: Quantity::new(wit_start, ForcePerWidth, units),
         wound_in_tension_end: Quantity::new(wit_end, ForcePerWidth, units),
         physical_layers: s.physical_layers,

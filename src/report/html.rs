@@ -125,6 +125,31 @@ fn write_report(
         "<p>{}</p>",
         escape(&super::document::assumed_summary(&case.inputs))
     )?;
+    if let Some(sensitivity) = &doc.sensitivity {
+        writeln!(out, "<h3 id=\"rests-on\">What the answer rests on</h3>")?;
+        let mut in_list = false;
+        for line in sensitivity.lines(super::SENSITIVITY_SHOWN) {
+            match line.strip_prefix("- ") {
+                Some(item) => {
+                    if !in_list {
+                        writeln!(out, "<ul id=\"sensitivity\">")?;
+                    }
+                    writeln!(out, "<li>{}</li>", escape(item))?;
+                    in_list = true;
+                }
+                None => {
+                    if in_list {
+                        writeln!(out, "</ul>")?;
+                    }
+                    writeln!(out, "<p>{}</p>", escape(&line))?;
+                    in_list = false;
+                }
+            }
+        }
+        if in_list {
+            writeln!(out, "</ul>")?;
+        }
+    }
 
     if !doc.complaint.is_empty() {
         writeln!(out, "<h2 id=\"complaint\">Complaint record</h2>")?;
@@ -154,15 +179,15 @@ fn write_report(
     )?;
     writeln!(
         out,
-        "<tr><td>Peak interlayer pressure</td><td>{} at radius {}</td></tr>",
+        "<tr><td>Peak interlayer pressure</td><td>{} at diameter {}</td></tr>",
         escape(&stress.peak_pressure.text),
-        escape(&stress.peak_pressure_radius.text)
+        escape(&stress.peak_pressure_diameter.text)
     )?;
     writeln!(
         out,
-        "<tr><td>Most compressive tangential stress</td><td>{} at radius {}</td></tr>",
+        "<tr><td>Most compressive tangential stress</td><td>{} at diameter {}</td></tr>",
         escape(&stress.min_tangential_stress.text),
-        escape(&stress.min_tangential_radius.text)
+        escape(&stress.min_tangential_diameter.text)
     )?;
     writeln!(
         out,
@@ -181,7 +206,7 @@ fn write_report(
         writeln!(out, "<table id=\"zones\">")?;
         writeln!(
             out,
-            "<tr><th>Zone</th><th>Radius from</th><th>to</th><th>Pressure min</th><th>mean</th>\
+            "<tr><th>Zone</th><th>Diameter from</th><th>to</th><th>Pressure min</th><th>mean</th>\
              <th>max</th><th>Lowest tangential stress</th></tr>"
         )?;
         for zone in &stress.zones {
@@ -189,8 +214,8 @@ fn write_report(
                 out,
                 "<tr><td>{}</td><td>{}</td><td>{}</td><td>{}</td><td>{}</td><td>{}</td><td>{}</td></tr>",
                 escape(&zone.zone),
-                escape(&zone.inner_radius.text),
-                escape(&zone.outer_radius.text),
+                escape(&zone.inner_diameter.text),
+                escape(&zone.outer_diameter.text),
                 escape(&zone.pressure_min.text),
                 escape(&zone.pressure_mean.text),
                 escape(&zone.pressure_max.text),
@@ -211,15 +236,16 @@ fn write_report(
     writeln!(out, "{pressure_svg}")?;
     writeln!(
         out,
-        "<figcaption>Interlayer pressure against radius, zones shaded.{after_note}</figcaption>"
+        "<figcaption>Interlayer pressure against roll diameter, zones shaded.{after_note}</figcaption>"
     )?;
     writeln!(out, "</figure>")?;
     writeln!(out, "<figure id=\"tangential-plot\">")?;
     writeln!(out, "{tangential_svg}")?;
     writeln!(
         out,
-        "<figcaption>Tangential (hoop) stress against radius, zones shaded; below zero the layers \
-         are in compression.{after_note}</figcaption>"
+        "<figcaption>Tangential (hoop) stress against roll diameter, zones shaded: tension above, \
+         compression (layers pushed together along the web) in its own panel below, on its own \
+         scale.{after_note}</figcaption>"
     )?;
     writeln!(out, "</figure>")?;
 
@@ -255,10 +281,9 @@ fn write_report(
     for cause in &doc.causes {
         writeln!(
             out,
-            "<h3>{}. {} (<code>{}</code>, belief {:.2})</h3>",
+            "<h3>{}. {} (belief {:.2})</h3>",
             cause.rank,
             escape(&cause.title),
-            escape(&cause.id),
             cause.belief
         )?;
         if !cause.mechanism.is_empty() {

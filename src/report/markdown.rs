@@ -81,6 +81,25 @@ fn write_report(out: &mut String, doc: &ReportDocument) -> std::fmt::Result {
     writeln!(out)?;
     writeln!(out, "{}", super::document::assumed_summary(&case.inputs))?;
     writeln!(out)?;
+    if let Some(sensitivity) = &doc.sensitivity {
+        writeln!(out, "### What the answer rests on")?;
+        writeln!(out)?;
+        let mut in_list = false;
+        for line in sensitivity.lines(super::SENSITIVITY_SHOWN) {
+            let item = line.starts_with("- ");
+            if in_list && !item {
+                writeln!(out)?;
+            }
+            writeln!(out, "{line}")?;
+            if !item {
+                writeln!(out)?;
+            }
+            in_list = item;
+        }
+        if in_list {
+            writeln!(out)?;
+        }
+    }
     // After the case's inputs, so "### Inputs" stays under "## Case" (as in the HTML).
     if !doc.complaint.is_empty() {
         writeln!(out, "## Complaint record")?;
@@ -106,13 +125,13 @@ fn write_report(out: &mut String, doc: &ReportDocument) -> std::fmt::Result {
     )?;
     writeln!(
         out,
-        "| Peak interlayer pressure | {} at radius {} |",
-        stress.peak_pressure.text, stress.peak_pressure_radius.text
+        "| Peak interlayer pressure | {} at diameter {} |",
+        stress.peak_pressure.text, stress.peak_pressure_diameter.text
     )?;
     writeln!(
         out,
-        "| Most compressive tangential stress | {} at radius {} |",
-        stress.min_tangential_stress.text, stress.min_tangential_radius.text
+        "| Most compressive tangential stress | {} at diameter {} |",
+        stress.min_tangential_stress.text, stress.min_tangential_diameter.text
     )?;
     writeln!(
         out,
@@ -134,7 +153,7 @@ fn write_report(out: &mut String, doc: &ReportDocument) -> std::fmt::Result {
     if !stress.zones.is_empty() {
         writeln!(
             out,
-            "| Zone | Radius from | to | Pressure min | mean | max | Lowest tangential stress |"
+            "| Zone | Diameter from | to | Pressure min | mean | max | Lowest tangential stress |"
         )?;
         writeln!(out, "|---|---|---|---|---|---|---|")?;
         for zone in &stress.zones {
@@ -142,8 +161,8 @@ fn write_report(out: &mut String, doc: &ReportDocument) -> std::fmt::Result {
                 out,
                 "| {} | {} | {} | {} | {} | {} | {} |",
                 zone.zone,
-                zone.inner_radius.text,
-                zone.outer_radius.text,
+                zone.inner_diameter.text,
+                zone.outer_diameter.text,
                 zone.pressure_min.text,
                 zone.pressure_mean.text,
                 zone.pressure_max.text,
@@ -187,8 +206,8 @@ fn write_report(out: &mut String, doc: &ReportDocument) -> std::fmt::Result {
     for cause in &doc.causes {
         writeln!(
             out,
-            "### {}. {} (`{}`, belief {:.2})",
-            cause.rank, cause.title, cause.id, cause.belief
+            "### {}. {} (belief {:.2})",
+            cause.rank, cause.title, cause.belief
         )?;
         writeln!(out)?;
         if !cause.mechanism.is_empty() {

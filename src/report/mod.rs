@@ -25,6 +25,9 @@ use crate::diagnose::Diagnosis;
 use crate::model::Profile;
 use crate::units::UnitSystem;
 
+/// How many assumed inputs a report names under "What the answer rests on".
+pub const SENSITIVITY_SHOWN: usize = 3;
+
 /// Output formats of a report.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Default, serde::Serialize, serde::Deserialize)]
 #[serde(rename_all = "snake_case")]
@@ -121,8 +124,21 @@ pub struct ReportInput {
     pub remedy: Option<RemedyComparison>,
     pub meta: ReportMeta,
     pub units: UnitSystem,
+    /// Which assumed inputs the answer rests on ([`crate::diagnose::sensitivity`]); `None` when
+    /// not worked out (a report exported from the terminal UI without it).
+    pub sensitivity: Option<crate::diagnose::sensitivity::Sensitivity>,
     /// Similar past complaints from a history store (`report --history`); `None` without one.
     pub similar_past: Option<Vec<crate::history::PastComplaint>>,
+}
+
+impl ReportInput {
+    /// The same input with the sensitivity to the assumed inputs attached.
+    pub fn with_sensitivity(self, sensitivity: crate::diagnose::sensitivity::Sensitivity) -> Self {
+        ReportInput {
+            sensitivity: Some(sensitivity),
+            ..self
+        }
+    }
 }
 
 /// Errors making a report.

@@ -70,6 +70,15 @@ pub fn prepare(
             Some(comparison(&diagnosis, id, change, after_case, after))
         }
     };
+    let sensitivity = crate::diagnose::sensitivity::sensitivity(
+        rules,
+        &resolved,
+        &profile,
+        &diagnosis,
+        options.solver,
+        &mut |_| true,
+    )
+    .map_err(report_error)?;
     let meta = match &options.date {
         Some(date) => ReportMeta::dated(date, options.source_file.clone()),
         None => ReportMeta::now(options.source_file.clone()),
@@ -84,7 +93,8 @@ pub fn prepare(
         remedy,
         meta,
         options.units,
-    ))
+    )
+    .with_sensitivity(sensitivity))
 }
 
 /// A case already resolved, solved and diagnosed (e.g. by the terminal UI's background job).
@@ -112,6 +122,7 @@ pub fn solved_report(
         remedy,
         meta,
         units,
+        sensitivity: None,
         similar_past: None,
     }
 }

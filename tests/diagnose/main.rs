@@ -14,3 +14,4 @@ mod rules_consistency;
 mod rules_lint;
 mod scenario_table;
 mod scenarios;
+mod sensitivity;

@@ -141,7 +141,7 @@ fn report_command_picks_the_format_from_the_extension_and_saves_the_file() {
     );
     let json: serde_json::Value =
         serde_json::from_str(&std::fs::read_to_string(&out).unwrap()).unwrap();
-    assert_eq!(json["schema"], "rolltriage-report/1");
+    assert_eq!(json["schema"], "rolltriage-report/2");
     assert_eq!(json["meta"]["date"], "2026-12-02");
     assert_eq!(json["causes"][0]["id"], "nip_load_too_high");
 }

@@ -7,6 +7,7 @@ use rolltriage::case::{
     AssumedValue, Case, ObservedSymptom, ResolvedCase, ResolvedCore, ResolvedRoll, ResolvedWeb,
     ResolvedWinding,
 };
+use rolltriage::diagnose::sensitivity::{InputSensitivity, Sensitivity, Trial};
 use rolltriage::diagnose::{Caution, Diagnosis, MergedRemedy, RankedCause, Reason, WhatIf};
 use rolltriage::model::{
     CoreStiffness, Profile, ProfileSummary, RadialStiffness, Taper, TensionSchedule, WindingMethod,
@@ -265,7 +266,58 @@ fn fixture(with_remedy: bool) -> ReportInput {
             source_file: Some("cases/test.yaml".into()),
         },
         units: UnitSystem::Si,
+        sensitivity: Some(fixture_sensitivity()),
         similar_past: None,
+    }
+}
+
+/// A hand-made sensitivity result: the assumed roughness moves the ranking (invented numbers,
+/// they only exercise the rendering).
+fn fixture_sensitivity() -> Sensitivity {
+    let trial = |value: f64, text: &str, first: &str, title: &str, belief: f64, base: f64| Trial {
+        value,
+        value_text: text.into(),
+        first_cause: Some(first.into()),
+        first_title: Some(title.into()),
+        first_belief: belief,
+        base_cause_belief: base,
+    };
+    Sensitivity {
+        first_cause: Some("tension_too_low".into()),
+        first_title: Some("Web tension too low".into()),
+        first_belief: 0.8125,
+        assumed: 1,
+        inputs: vec![InputSensitivity {
+            field: "web.roughness".into(),
+            label: "Surface roughness (RMS, one side)".into(),
+            used: "3 µm".into(),
+            low: 1e-6,
+            high: 5e-6,
+            range_text: "1 µm to 5 µm".into(),
+            range_source: "the spread of the shipped paper presets, at least ±25 %".into(),
+            trials: vec![
+                trial(
+                    1e-6,
+                    "1 µm",
+                    "air_entrainment",
+                    "Air carried into the roll",
+                    0.84,
+                    0.8,
+                ),
+                trial(
+                    5e-6,
+                    "5 µm",
+                    "tension_too_low",
+                    "Web tension too low",
+                    0.81,
+                    0.81,
+                ),
+            ],
+            changes_first_cause: true,
+            belief_shift: 0.0125,
+        }],
+        not_varied: vec![],
+        failed: vec![],
     }
 }
 
@@ -279,7 +331,9 @@ fn markdown_snapshot() {
 fn json_snapshot_and_round_trip() {
     let text = render(&fixture(true), Format::Json).unwrap();
     let value: serde_json::Value = serde_json::from_str(&text).unwrap();
-    assert_eq!(value["schema"], "rolltriage-report/1");
+    assert_eq!(value["schema"], "rolltriage-report/2");
+    // IDs stay in JSON: the sensitivity names its field by path.
+    assert_eq!(value["sensitivity"]["inputs"][0]["field"], "web.roughness");
     assert_eq!(value["causes"][0]["id"], "tension_too_low");
     assert_eq!(value["meta"]["date"], "2026-12-02");
     // Core pressure survives in SI: 60 kPa as written into the synthetic profile.
@@ -354,7 +408,29 @@ fn html_is_valid_and_self_contained() {
         .select(&select("h3"))
         .map(|h| h.text().collect::<String>())
         .collect();
-    assert!(causes.iter().any(|c| c.contains("tension_too_low")));
+    // People read the titles; the IDs stay in the JSON format.
+    assert!(causes.iter().any(|c| c.contains("Web tension too low")));
+    assert!(!text.contains("tension_too_low"));
+    // What the answer rests on, in words.
+    assert_eq!(document.select(&select("#rests-on")).count(), 1);
+    let rests_on: String = document
+        .select(&select("#sensitivity li"))
+        .map(|li| li.text().collect::<String>())
+        .collect();
+    assert!(rests_on.contains("Surface roughness"));
+    assert!(!rests_on.contains("web.roughness"));
+}
+
+#[test]
+fn html_snapshot() {
+    insta::assert_snapshot!("report_html", render(&fixture(true), Format::Html).unwrap());
+}
+
+#[test]
+fn svg_snapshots() {
+    let input = fixture(true);
+    insta::assert_snapshot!("pressure_svg", plots::pressure_svg(&input).unwrap());
+    insta::assert_snapshot!("tangential_svg", plots::tangential_svg(&input).unwrap());
 }
 
 /// The text content of every `<text>` element, trimmed.
@@ -387,31 +463,128 @@ fn svg_plots_hold_before_after_series_zones_and_labels() {
     let tangential = plots::tangential_svg(&input).unwrap();
     for svg in [&pressure, &tangential] {
         assert!(svg.starts_with("<svg"));
-        // Before (blue) and after (orange) curves; the legend draws a short line of each as well.
+        // Before (blue, solid) and after (orange, dashed: many short pieces).
         assert!(polylines_with_stroke(svg, "#1F58A0") >= 1, "before series");
-        assert!(polylines_with_stroke(svg, "#D66E00") >= 1, "after series");
+        assert!(
+            polylines_with_stroke(svg, "#D66E00") >= 5,
+            "after series, dashed"
+        );
         for zone in ["core", "inner", "middle", "outer", "surface"] {
             assert!(
                 svg_texts(svg).iter().any(|t| t == zone),
                 "zone label {zone}"
             );
         }
-        assert!(svg_texts(svg).iter().any(|t| t == "Radius (mm)"));
+        // Position as diameter (operators measure diameter), never radius.
+        assert!(svg_texts(svg).iter().any(|t| t == "Roll diameter (mm)"));
+        assert!(!svg.contains("Radius"));
+        // No tick label with a needless ".0".
+        assert!(svg_texts(svg).iter().all(|t| !t.ends_with(".0")), "{svg}");
+        // The key sits under the plot with no frame around it.
+        assert!(!svg.contains("<rect") || !svg.contains("stroke=\"#000000\""));
     }
-    assert!(pressure.contains(plots::LABEL_PRESSURE));
+    assert!(svg_texts(&pressure).iter().any(|t| t == "before"));
     assert!(pressure.contains(plots::LABEL_AFTER_SUFFIX));
     assert!(
         svg_texts(&pressure)
             .iter()
             .any(|t| t == "Interlayer pressure (kPa)")
     );
+    // Tension and compression each in a panel of their own.
+    assert!(svg_texts(&tangential).iter().any(|t| t == "Tension (MPa)"));
     assert!(
         svg_texts(&tangential)
             .iter()
-            .any(|t| t == "Tangential stress (MPa)")
+            .any(|t| t == "Compression (MPa)")
     );
-    // The crush rating (4 MPa) is far above the 180 kPa peak: not drawn (it would flatten the curve).
-    assert!(!pressure.contains(plots::LABEL_CRUSH));
+    // The crush rating (4 MPa) is far above the 180 kPa peak: flagged, not drawn across.
+    assert!(pressure.contains(plots::LABEL_CRUSH));
+    assert!(pressure.contains(plots::LABEL_CRUSH_OFF_SCALE));
+}
+
+/// Each text element's content, left x, estimated right x and y. The width takes the font size
+/// the SVG states at 0.6 em per character, a typical sans-serif average (from memory).
+fn text_spans(svg: &str) -> Vec<(String, f64, f64, f64)> {
+    svg.split("<text")
+        .skip(1)
+        .filter_map(|s| {
+            let (attrs, rest) = s.split_once('>')?;
+            let text = rest.split("</text>").next()?.trim().to_string();
+            let number = |key: &str| -> Option<f64> {
+                attrs
+                    .split(&format!("{key}=\""))
+                    .nth(1)?
+                    .split('"')
+                    .next()?
+                    .parse()
+                    .ok()
+            };
+            let x = number("x")?;
+            let y = number("y")?;
+            let width = text.chars().count() as f64 * number("font-size")? * 0.6;
+            Some((text, x, x + width, y))
+        })
+        .collect()
+}
+
+#[test]
+fn zone_names_do_not_collide_and_crush_shows_at_the_core_when_on_scale() {
+    let mut input = fixture(false);
+    // Narrow core and surface zones side by side with their neighbours.
+    input.resolved.core.crush_pressure = 70e3;
+    let svg = plots::pressure_svg(&input).unwrap();
+    let zones: Vec<_> = text_spans(&svg)
+        .into_iter()
+        .filter(|(t, ..)| ["core", "inner", "middle", "outer", "surface"].contains(&t.as_str()))
+        .collect();
+    assert_eq!(zones.len(), 5);
+    for (i, a) in zones.iter().enumerate() {
+        for b in &zones[i + 1..] {
+            let same_row = (a.3 - b.3).abs() < 1.0;
+            let overlap = a.1 < b.2 && b.1 < a.2;
+            assert!(!(same_row && overlap), "{a:?} runs into {b:?}");
+        }
+    }
+    // 70 kPa against a 60 kPa core pressure: on scale, a short bar at the core, in the key.
+    assert!(svg.contains(plots::LABEL_CRUSH));
+    assert!(!svg.contains(plots::LABEL_CRUSH_OFF_SCALE));
+    let red: Vec<&str> = svg
+        .split("<polyline")
+        .skip(1)
+        .filter(|s| s.split("/>").next().unwrap_or("").contains("#AA0000"))
+        .collect();
+    assert!(!red.is_empty());
+    // A single curve needs no key.
+    assert!(!svg_texts(&svg).iter().any(|t| t == "before"));
+}
+
+#[test]
+fn small_compression_gets_its_own_scale() {
+    let mut input = fixture(false);
+    // 20 MPa of tension outside, 50 kPa of compression at the core: on one scale the
+    // compression would be a flat line on zero.
+    let n = input.profile.tangential_stress.len();
+    for (i, v) in input.profile.tangential_stress.iter_mut().enumerate() {
+        let x = i as f64 / (n - 1) as f64;
+        *v = if x < 0.2 { -50e3 } else { 20e6 * x };
+    }
+    let svg = plots::tangential_svg(&input).unwrap();
+    let texts = svg_texts(&svg);
+    assert!(texts.iter().any(|t| t == "Tension (MPa)"), "{texts:?}");
+    assert!(texts.iter().any(|t| t == "Compression (kPa)"), "{texts:?}");
+    // Its ticks reach down to the compression (−50 kPa lies on the scale).
+    assert!(texts.iter().any(|t| t == "-50" || t == "-40"), "{texts:?}");
+}
+
+#[test]
+fn no_compression_is_said_not_drawn() {
+    let mut input = fixture(false);
+    for v in &mut input.profile.tangential_stress {
+        *v = v.abs() + 1e3;
+    }
+    let svg = plots::tangential_svg(&input).unwrap();
+    assert!(svg.contains(plots::LABEL_NO_COMPRESSION));
+    assert!(!svg.contains("Compression ("));
 }
 
 #[test]
@@ -480,9 +653,9 @@ proptest::proptest! {
         let json: serde_json::Value = serde_json::from_str(&render(&input, Format::Json).unwrap()).unwrap();
         let points = json["profile"].as_array().unwrap();
         proptest::prop_assert!(points.len() <= 60 && points.len() >= 2);
-        let first = points[0]["radius_m"].as_f64().unwrap();
-        let last = points[points.len() - 1]["radius_m"].as_f64().unwrap();
-        proptest::prop_assert!((first - CORE_RADIUS).abs() < 1e-9);
-        proptest::prop_assert!((last - OUTER_RADIUS).abs() < 1e-9);
+        let first = points[0]["diameter_m"].as_f64().unwrap();
+        let last = points[points.len() - 1]["diameter_m"].as_f64().unwrap();
+        proptest::prop_assert!((first - 2.0 * CORE_RADIUS).abs() < 1e-9);
+        proptest::prop_assert!((last - 2.0 * OUTER_RADIUS).abs() < 1e-9);
     }
 }
