@@ -380,10 +380,23 @@ fn mechanism_rows(
     inputs: &rolltriage::mechanics::MechanicsInputs,
     system: UnitSystem,
 ) -> Vec<(&'static str, String)> {
-    use rolltriage::mechanics::{telescoping, torque};
+    use rolltriage::mechanics::{starring, telescoping, torque};
     let telescoping = telescoping::handling_margins(profile, inputs);
     let torque = torque::torque_check(profile, inputs);
+    let starring = starring::buckling_margins(profile, inputs);
     let mut rows = vec![
+        (
+            "Starring margin (wrap buckling)",
+            if starring.min_margin >= rolltriage::mechanics::MARGIN_CAP {
+                "no wrap in hoop compression".to_string()
+            } else {
+                format!(
+                    "{:.2} at {} (buckling stress on the stack / hoop compression; below 1 = wraps buckle)",
+                    starring.min_margin,
+                    diameter_at(starring.min_radius, system),
+                )
+            },
+        ),
         (
             "Telescoping margin (lifted by its core)",
             format!(

@@ -6,6 +6,9 @@
 //!   against static friction × interlayer pressure.
 //! * [`torque`]: cinching and core slip — the torque each interface must pass in named events
 //!   (start-up, normal stop, emergency stop, unwind braking) against friction × pressure × 2πr².
+//! * [`starring`]: hoop compression of each wrap against the buckling stress of a layer on the
+//!   elastic foundation of the stack (Hetényi's beam on an elastic foundation, Er at the local
+//!   pressure).
 //!
 //! Inputs are SI and come from [`MechanicsInputs`] (built from a resolved case by
 //! [`MechanicsInputs::from_case`]: `winding.acceleration_time`, `stop_time`,
@@ -13,13 +16,14 @@
 //! `shaft_torque_rating`); what the case does not give takes the defaults
 //! listed in [`Events`], stated as assumed. Layer above `model`: nothing here solves, it reads profiles.
 
+pub mod starring;
 pub mod telescoping;
 pub mod torque;
 
 use serde::Serialize;
 
 use crate::case::ResolvedCase;
-use crate::model::{Profile, WindingMethod};
+use crate::model::{Profile, RadialStiffness, WindingMethod};
 
 /// Standard acceleration of gravity, m/s² (CGPM 1901; NIST SP 330).
 pub const GRAVITY: f64 = 9.806_65;
@@ -97,6 +101,10 @@ pub struct MechanicsInputs {
     /// Web tension the outside of the roll was wound at (N/m).
     pub outer_tension: f64,
     pub events: Events,
+    /// Machine-direction (hoop) modulus of the web, Pa (starring).
+    pub tangential_modulus: f64,
+    /// Radial stiffness law of the stack (starring: the foundation of a wrap).
+    pub radial_stiffness: RadialStiffness,
 }
 
 impl MechanicsInputs {
@@ -138,6 +146,8 @@ impl MechanicsInputs {
                 outer_radius,
             ),
             events,
+            tangential_modulus: case.web.tangential_modulus,
+            radial_stiffness: case.web.radial_stiffness,
         }
     }
 }

@@ -15,6 +15,10 @@ pub const DEFAULT_MIN_TELESCOPING_MARGIN: f64 = 1.0;
 /// Default share of the peak pressure below which a compressive band counts as starring risk:
 /// the model's own low-pressure share (see `model::profile`).
 pub const DEFAULT_STARRING_PRESSURE_SHARE: f64 = crate::model::profile::LOW_PRESSURE_SHARE;
+/// Smallest starring margin (`mechanics::starring`: buckling stress of a wrap on the stack over
+/// its hoop compression) the starring limit accepts, besides having no low-pressure compressive
+/// band: below 1 the model's own wraps buckle.
+pub const MIN_STARRING_MARGIN: f64 = 1.0;
 /// Default largest wound-in tension as a share of the web's tensile strength. Common practice
 /// (from memory): winding tension is usually set at 10–25 % of the web's tensile strength.
 pub const DEFAULT_TENSION_SHARE: f64 = 0.25;

@@ -123,12 +123,19 @@ pub fn check_limits(
             longest = longest.max((outer - profile.radius[s]) / span);
         }
     }
+    // And the mechanics layer's starring margin, the one the diagnosis reads: no wrap may carry
+    // more hoop compression than buckles it on the foundation of the stack.
+    let buckling = crate::mechanics::starring::buckling_margins(
+        profile,
+        &crate::mechanics::MechanicsInputs::from_case(case),
+    );
+    let buckling_margin = buckling.min_margin / MIN_STARRING_MARGIN - 1.0;
     let starring = LimitCheck {
         limit: Limit::Starring,
         value: longest,
         allowed: 0.0,
-        margin: if depth > 0.0 { -depth } else { 1.0 },
-        met: depth <= 0.0,
+        margin: (if depth > 0.0 { -depth } else { 1.0 }).min(buckling_margin),
+        met: depth <= 0.0 && buckling.min_margin >= MIN_STARRING_MARGIN,
     };
 
     // Telescoping: the mechanics layer's margin, the one the diagnosis reads.

@@ -269,6 +269,8 @@ fn mechanism_margins_match_the_scipy_reference() {
             unwind_tension: None,
             shaft_torque_rating: None,
         },
+        tangential_modulus: 5e9,
+        radial_stiffness: rolltriage::model::RadialStiffness::Constant { modulus: 1e6 },
     };
     let close = |a: f64, b: f64, what: &str| {
         assert!(
@@ -316,5 +318,62 @@ fn mechanism_margins_match_the_scipy_reference() {
                 close(demand, f(s, id.as_str().unwrap()), drive);
             }
         }
+    }
+}
+
+/// The starring margin (hoop compression against the buckling stress of a wrap on the elastic
+/// foundation of the stack) against tests/reference/starring_buckling.py, which minimises the
+/// beam-on-foundation buckling force over the wavenumber numerically (Hetényi) on a simple roll
+/// with a prescribed pressure and hoop stress.
+#[test]
+fn starring_margin_matches_the_numpy_reference() {
+    use rolltriage::mechanics::{MechanicsInputs, starring};
+    use rolltriage::model::RadialStiffness;
+    let text = std::fs::read_to_string(concat!(
+        env!("CARGO_MANIFEST_DIR"),
+        "/tests/reference/starring_buckling.json"
+    ))
+    .unwrap();
+    let v: Value = serde_json::from_str(&text).unwrap();
+    let roll = &v["roll"];
+    let (rc, big_r) = (f(roll, "core_radius"), f(roll, "outer_radius"));
+    let n = roll["nodes"].as_u64().unwrap() as usize;
+    let s: Vec<f64> = (0..n).map(|i| i as f64 / (n - 1) as f64).collect();
+    let (s0, s1) = (f(roll, "core_hoop_stress"), f(roll, "outer_hoop_stress"));
+    let profile = rolltriage::model::Profile {
+        radius: s.iter().map(|s| rc + (big_r - rc) * s).collect(),
+        pressure: s
+            .iter()
+            .map(|s| f(roll, "core_pressure") * (1.0 - s))
+            .collect(),
+        tangential_stress: s.iter().map(|s| s0 + (s1 - s0) * s).collect(),
+        ..Default::default()
+    };
+    let inputs = MechanicsInputs {
+        core_radius: rc,
+        outer_radius: big_r,
+        density: 700.0,
+        friction: 0.4,
+        method: WindingMethod::Centre,
+        speed: 10.0,
+        outer_tension: 300.0,
+        events: Default::default(),
+        tangential_modulus: f(roll, "tangential_modulus"),
+        radial_stiffness: RadialStiffness::Pfeiffer {
+            k1: f(roll, "k1"),
+            k2: f(roll, "k2"),
+        },
+    };
+    let m = starring::buckling_margins(&profile, &inputs);
+    // The numerical minimum over the wavenumber is converged to ~1e-10 relative.
+    let close = |a: f64, b: f64, what: &str| {
+        assert!((a - b).abs() <= 1e-8 * b.abs(), "{what}: {a} vs {b}");
+    };
+    close(m.min_margin, f(&v, "min_margin"), "starring margin");
+    close(m.min_radius, f(&v, "min_radius"), "starring radius");
+    for sample in v["samples"].as_array().unwrap() {
+        let i = ((f(sample, "radius") - rc) / (big_r - rc) * (n - 1) as f64).round() as usize;
+        close(m.demand[i], f(sample, "demand"), "demand");
+        close(m.capacity[i], f(sample, "capacity"), "capacity");
     }
 }

@@ -78,6 +78,18 @@ pub const INDICATORS: &[IndicatorSpec] = &[
         "smallest ratio, over every interface, of the friction the pressure gives to the axial shear of lifting the roll by its core (with the shock factor); below 1 = layers slide",
     ),
     spec(
+        "starring_margin",
+        Dimension::Ratio,
+        ZoneUse::None,
+        "smallest ratio, over every interface, of the stress that buckles a wrap on the elastic foundation of the stack around it to the wrap's hoop compression (docs/theory.md §5.3); below 1 = the wrap buckles (starring); 1000 = no hoop compression",
+    ),
+    spec(
+        "starring_margin_position",
+        Dimension::Fraction,
+        ZoneUse::None,
+        "where the starring margin is smallest, as a share of the build from the core (0 = at the core)",
+    ),
+    spec(
         "min_tangential_stress",
         Dimension::Pressure,
         ZoneUse::Optional,

@@ -251,6 +251,16 @@ impl Indicators {
         self.set("speed_change_slip_margin", None, torque.speed_change_margin);
         let telescoping = crate::mechanics::telescoping::handling_margins(profile, &inputs);
         self.set("telescoping_margin", None, telescoping.min_margin);
+        let starring = crate::mechanics::starring::buckling_margins(profile, &inputs);
+        self.set("starring_margin", None, starring.min_margin);
+        // Where only when some wrap is in hoop compression (with none, the minimum is the cap).
+        if outer_r > core_r && starring.min_margin < crate::mechanics::MARGIN_CAP {
+            self.set(
+                "starring_margin_position",
+                None,
+                ((starring.min_radius - core_r) / (outer_r - core_r)).clamp(0.0, 1.0),
+            );
+        }
 
         // Air film: the solver's estimate when present, otherwise the foil-bearing estimate.
         let ratio = match &profile.air_film {
