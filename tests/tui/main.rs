@@ -7,6 +7,7 @@
 mod tui_support;
 
 mod job;
+mod measure;
 mod screens;
 mod smoke;
 mod state;
