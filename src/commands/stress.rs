@@ -268,17 +268,6 @@ pub fn summary_table(
             ),
         ),
         (
-            "Same, thin-layer limit (equilibrium)",
-            match s.thin_layer_min_tangential_stress {
-                Some((value, radius)) => format!(
-                    "{} at {}",
-                    stress(value, system),
-                    diameter_at(radius, system)
-                ),
-                None => "—".into(),
-            },
-        ),
-        (
             "Radial strain at the core",
             format!("{:.2} %", 100.0 * s.core_radial_strain),
         ),

@@ -94,11 +94,6 @@ pub struct ProfileSummary {
     /// [`LOW_PRESSURE_SHARE`] of the peak.
     #[serde(default)]
     pub outer_low_pressure_share: f64,
-    /// Most compressive tangential stress from radial equilibrium, σθ = −d(r·P)/dr, over the
-    /// interior nodes (Pa), and where (m): the thin-layer (continuum) estimate, which does not
-    /// depend on the caliper the way the accumulated per-wrap value does (docs/theory.md §3.5).
-    #[serde(default)]
-    pub thin_layer_min_tangential_stress: Option<(f64, f64)>,
 }
 
 /// A contiguous band of nodes.
@@ -131,7 +126,10 @@ pub struct Profile {
     pub radius: Vec<f64>,
     /// Interlayer pressure, Pa, positive in compression.
     pub pressure: Vec<f64>,
-    /// σθ, Pa, positive in tension.
+    /// σθ, Pa, positive in tension: the hoop stress of the ring from this node to the next (one
+    /// wrap, or one element in grouped resolution), which satisfies the ring's radial statics
+    /// σθ·(r_{i+1} − r_i) = r_i·P_i − r_{i+1}·P_{i+1} exactly; the outer surface node repeats the
+    /// outermost wrap (docs/theory.md §3.5). The one hoop stress every reader uses.
     pub tangential_stress: Vec<f64>,
     /// Radial strain (compressive positive), dimensionless.
     pub radial_strain: Vec<f64>,
@@ -206,7 +204,6 @@ pub(crate) fn build(raw: Raw, problem: &WindingProblem) -> Profile {
     summary.core_radial_strain = profile.core_radial_strain();
     let low = LOW_PRESSURE_SHARE * summary.peak_pressure;
     summary.compressive_low_pressure_band = profile.compressive_band(Some(low));
-    summary.thin_layer_min_tangential_stress = profile.most_compressive_equilibrium_tangential();
     summary.outer_low_pressure_share =
         profile.low_pressure_share(&[ZoneName::Outer, ZoneName::Surface], low);
     profile.summary = summary;
@@ -330,44 +327,6 @@ impl Profile {
     /// Most compressive (lowest) tangential stress: (Pa, radius m).
     pub fn most_compressive_tangential(&self) -> Option<(f64, f64)> {
         self.most_compressive_tangential_in(None)
-    }
-
-    /// Tangential stress from radial equilibrium of the finished roll,
-    /// dσr/dr + (σr − σθ)/r = 0 with σr = −P, i.e. σθ = −d(r·P)/dr (plane axisymmetric stress,
-    /// Timoshenko & Goodier, Theory of Elasticity, polar coordinates), at the interior nodes (second-order
-    /// differences on the non-uniform grid); `None` at the two end nodes.
-    pub fn equilibrium_tangential_stress(&self) -> Vec<Option<f64>> {
-        let n = self.radius.len().min(self.pressure.len());
-        (0..n)
-            .map(|i| {
-                if i == 0 || i + 1 >= n {
-                    return None;
-                }
-                let (r0, r1, r2) = (self.radius[i - 1], self.radius[i], self.radius[i + 1]);
-                let (hm, hp) = (r1 - r0, r2 - r1);
-                if hm <= 0.0 || hp <= 0.0 {
-                    return None;
-                }
-                let f = |k: usize| self.radius[k] * self.pressure[k];
-                let derivative = -hp / (hm * (hm + hp)) * f(i - 1)
-                    + (hp - hm) / (hm * hp) * f(i)
-                    + hm / (hp * (hm + hp)) * f(i + 1);
-                Some(-derivative)
-            })
-            .collect()
-    }
-
-    /// Most compressive tangential stress from radial equilibrium (see
-    /// [`Profile::equilibrium_tangential_stress`]): (Pa, radius m).
-    pub fn most_compressive_equilibrium_tangential(&self) -> Option<(f64, f64)> {
-        self.equilibrium_tangential_stress()
-            .into_iter()
-            .enumerate()
-            .filter_map(|(i, s)| s.filter(|v| v.is_finite()).map(|v| (v, self.radius[i])))
-            .fold(None, |best, (s, r)| match best {
-                Some((b, _)) if b <= s => best,
-                _ => Some((s, r)),
-            })
     }
 
     /// Most compressive tangential stress within a zone (or the whole roll): (Pa, radius m).

@@ -9,6 +9,7 @@ mod model_support;
 mod cli;
 mod closed_form;
 mod evidence_fit;
+mod hoop;
 mod numerics;
 mod physics;
 mod properties;

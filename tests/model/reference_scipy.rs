@@ -1,7 +1,8 @@
 //! The Rust solver against an independent SciPy implementation of Hakiel's nonlinear accretion
 //! model (tests/reference/nonlinear_accretion.py, banded LAPACK solve per layer; committed
 //! output nonlinear_accretion.json): paper roll on a hollow core, film roll on a rigid core, a
-//! tapered roll with an upset band. Every node within 1 %.
+//! tapered roll with an upset band. Every node within 1 %; hoop stress in the conservative
+//! per-wrap form on both sides; the thin-layer sequence of a soft roll.
 
 use rolltriage::model::{
     CoreStiffness, ModulusUpdate, RadialStiffness, Resolution, SolverOptions, TensionSchedule,
@@ -130,6 +131,48 @@ fn per_layer_secant_matches_scipy_everywhere() {
             tangential < 0.01,
             "{}: σθ off by {tangential}",
             case["name"]
+        );
+    }
+}
+
+/// The thin-layer sequence of the reference script: a soft roll wound from 1, 2, 4 and 8 times
+/// thinner wraps at the same wound-in stress; the script's most compressive (conservative,
+/// per-wrap) hoop stress at each caliper and the Richardson limit of the two thinnest.
+#[test]
+fn thin_layer_hoop_sequence_matches_scipy() {
+    let text = std::fs::read_to_string(concat!(
+        env!("CARGO_MANIFEST_DIR"),
+        "/tests/reference/nonlinear_accretion.json"
+    ))
+    .unwrap();
+    let v: Value = serde_json::from_str(&text).unwrap();
+    let thin = &v["thin_layer"];
+    let expected = column(thin, "min_tangential_stress");
+    let limit = f(thin, "limit");
+    let mut got = Vec::new();
+    for (split, reference) in thin["splits"].as_array().unwrap().iter().zip(&expected) {
+        let split = split.as_f64().unwrap();
+        let mut case = thin["case"].clone();
+        case["thickness"] = (f(&case, "thickness") / split).into();
+        case["layers"] = (case["layers"].as_u64().unwrap() * split as u64).into();
+        case["tension"] = (f(&case, "tension") / split).into();
+        let profile = solve(&problem_from(
+            &case,
+            ModulusUpdate::Secant,
+            Resolution::PerLayer,
+        ))
+        .unwrap();
+        let value = profile.summary.min_tangential_stress;
+        let error = (value - reference).abs() / reference.abs();
+        eprintln!("split {split}: {value:.1} Pa against {reference:.1} Pa ({error:.1e})");
+        assert!(error < 1e-6, "split {split}: {error}");
+        got.push(value);
+    }
+    // Each halving moves the value closer to the reference's thin-layer limit.
+    for pair in got.windows(2) {
+        assert!(
+            (pair[1] - limit).abs() < (pair[0] - limit).abs(),
+            "{got:?} {limit}"
         );
     }
 }

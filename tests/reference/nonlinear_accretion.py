@@ -9,8 +9,16 @@ plus the explicit (tangent at the start) variant for the core pressure.
 Discretisation (the same scheme the Rust solver documents in docs/theory.md): node j is wrap j
 at r = rc + j*h; wrap j is added as a Dirichlet load d(r_j) = -WIT_j / r_j on nodes 0..j; rows
 r^2 d'' + 3 r d' + (1 - Et/Er) d = 0 with central differences; the core condition
-r d' = (Et/Ec - 1 + nu) d through a ghost node. Tangential stress starts at WIT/h and gains
-d + r d' from later wraps. The finished profile ends with the outer surface (pressure 0).
+r d' = (Et/Ec - 1 + nu) d through a ghost node. The finished profile ends with the outer surface
+(pressure 0).
+
+Hoop stress in the conservative thin-ring form: wrap j is the ring from r_j to r_{j+1} (the last
+wrap ends at the outer surface) and carries a hoop force F_j = sigma_t * h. Radial statics of the
+ring, d(r sigma_r)/dr = sigma_t integrated over it, say every increment d moves it by
+r_{j+1} d_{j+1} - r_j d_j (zero above the loaded wrap: free surface), the wrap's own load included,
+which gives it T_j. The accumulated F_j / h must equal (r_j P_j - r_{j+1} P_{j+1}) / h of the
+finished roll; the script checks that and also winds one soft roll from ever thinner wraps at the
+same wound-in stress (thin-layer limit by Richardson extrapolation of the two thinnest).
 
 Writes nonlinear_accretion.json; `--check` recomputes and compares with the committed file.
 """
@@ -76,10 +84,11 @@ def tension_at(case, r, rc, outer):
 
 
 def secant_modulus(k1, k2, p, dp):
+    """Secant of Pfeiffer's law P = K1 (exp(K2 eps) - 1) from p to p + dp (arrays)."""
     x = dp / (k1 + p)
-    if abs(x) < 1e-9:
-        return k2 * (k1 + p + 0.5 * dp)
-    return k2 * dp / math.log1p(x)
+    small = np.abs(x) < 1e-9
+    safe = np.where(small, 1.0, x)
+    return np.where(small, k2 * (k1 + p + 0.5 * dp), k2 * dp / np.log1p(safe))
 
 
 def solve_case(case, update="secant"):
@@ -91,7 +100,8 @@ def solve_case(case, update="secant"):
     r = rc + h * np.arange(n)
     wit = np.array([tension_at(case, ri, rc, outer) for ri in r])
     pressure = np.zeros(n)
-    sigma_t = wit / h
+    # Hoop force per unit width of each wrap's ring, accumulated from every increment.
+    force = np.zeros(n)
     for top in range(n):
         load = wit[top] / r[top]
         m = top + 1
@@ -127,20 +137,47 @@ def solve_case(case, update="secant"):
                     break
                 delta_prev = delta
                 dp = -delta
-                er = np.array([secant_modulus(k1, k2, pressure[i], dp[i]) for i in range(m)])
+                er = secant_modulus(k1, k2, pressure[:m], dp)
             else:
                 raise RuntimeError("secant iteration did not converge")
         pressure[:m] -= delta
-        if m >= 2:
-            inner = np.arange(1, m - 1)
-            deriv = np.zeros(m)
-            deriv[0] = c_core * delta[0]
-            deriv[inner] = r[inner] * (delta[inner + 1] - delta[inner - 1]) / (2.0 * h)
-            sigma_t[: m - 1] += delta[: m - 1] + deriv[: m - 1]
+        flux = r[:m] * delta
+        force[:m] -= flux
+        force[: m - 1] += flux[1:]
     radius = np.append(r, outer)
     pressure = np.append(pressure, 0.0)
-    sigma_t = np.append(sigma_t, wit[-1] / h)
+    sigma_t = force / np.diff(radius)
+    statics = (radius[:-1] * pressure[:-1] - radius[1:] * pressure[1:]) / np.diff(radius)
+    error = np.max(np.abs(sigma_t - statics)) / np.max(np.abs(sigma_t))
+    if error > 1e-10:
+        raise RuntimeError(f"hoop stress off wrap statics by {error}")
+    sigma_t = np.append(sigma_t, sigma_t[-1])
     return radius, pressure, sigma_t
+
+
+# The soft roll wound from ever thinner wraps at the same wound-in stress T/h.
+THIN_LAYER = {
+    "name": "soft_paper_thin_layer",
+    "core_radius": 0.05, "thickness": 76e-6, "layers": 300,
+    "tangential_modulus": 5.0e9, "k1": 5.0e3, "k2": 50.0, "poisson_ratio": 0.01,
+    "core": {"kind": "rigid"},
+    "tension": 350.0, "taper": None, "upsets": [],
+}
+THIN_LAYER_SPLITS = [1, 2, 4, 8]
+
+
+def thin_layer():
+    minima = []
+    for split in THIN_LAYER_SPLITS:
+        case = dict(THIN_LAYER)
+        case["thickness"] = THIN_LAYER["thickness"] / split
+        case["layers"] = THIN_LAYER["layers"] * split
+        case["tension"] = THIN_LAYER["tension"] / split
+        _, _, sigma_t = solve_case(case, "secant")
+        minima.append(float(np.min(sigma_t)))
+    limit = 2.0 * minima[-1] - minima[-2]
+    return {"case": THIN_LAYER, "splits": THIN_LAYER_SPLITS, "min_tangential_stress": minima,
+            "limit": limit}
 
 
 def compute():
@@ -155,7 +192,8 @@ def compute():
             "tangential_stress": sigma_t.tolist(),
             "core_pressure_explicit": float(p_explicit[0]),
         })
-    return {"source": "independent SciPy implementation (scipy.linalg.solve_banded)", "results": out}
+    return {"source": "independent SciPy implementation (scipy.linalg.solve_banded)", "results": out,
+            "thin_layer": thin_layer()}
 
 
 def main():
@@ -169,12 +207,18 @@ def main():
                 if a.shape != b.shape or np.max(np.abs(a - b)) > 1e-9 * scale:
                     print(f"drift in {new['case']['name']} {key}")
                     sys.exit(1)
+        new, old = data["thin_layer"], committed.get("thin_layer")
+        if old is None or np.max(np.abs(np.array(new["min_tangential_stress"])
+                                        - np.array(old["min_tangential_stress"]))) > 1e-9 * abs(old["limit"]):
+            print("drift in the thin-layer sequence")
+            sys.exit(1)
         print("nonlinear_accretion.json up to date")
         return
     OUT.write_text(json.dumps(data) + "\n")
     for res in data["results"]:
         print(res["case"]["name"], "core pressure", res["pressure"][0],
               "explicit", res["core_pressure_explicit"], "min sigma_t", min(res["tangential_stress"]))
+    print("thin layer", data["thin_layer"]["min_tangential_stress"], "limit", data["thin_layer"]["limit"])
 
 
 if __name__ == "__main__":

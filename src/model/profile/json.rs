@@ -38,8 +38,6 @@ struct SummaryRecord {
     #[serde(default)]
     group_halving_change: Option<f64>,
     #[serde(default)]
-    thin_layer_min_tangential_stress: Option<(f64, f64)>,
-    #[serde(default)]
     increments: usize,
     #[serde(default)]
     solves: usize,
@@ -69,7 +67,6 @@ impl From<Profile> for ProfileRecord {
                 compressive_low_pressure_band: s.compressive_low_pressure_band,
                 outer_low_pressure_share: s.outer_low_pressure_share,
                 group_halving_change: stats.group_halving_change,
-                thin_layer_min_tangential_stress: s.thin_layer_min_tangential_stress,
                 increments: stats.increments,
                 solves: stats.solves,
             },
@@ -100,7 +97,6 @@ impl From<ProfileRecord> for Profile {
                 core_radial_strain: s.core_radial_strain,
                 compressive_low_pressure_band: s.compressive_low_pressure_band,
                 outer_low_pressure_share: s.outer_low_pressure_share,
-                thin_layer_min_tangential_stress: s.thin_layer_min_tangential_stress,
             },
             solver: SolverStats {
                 grid: Grid {

@@ -1,0 +1,344 @@
+//! One increment of the accretion: the moduli over the increment, the shooting solve of the
+//! tridiagonal system and the modulus iteration.
+
+use super::{
+    HOLD_INCREMENTS, MAX_MODULUS_ITERATIONS, ModelError, ModulusUpdate, RadialStiffness, Solver,
+};
+
+impl Solver {
+    /// Eθ/Er at node `i` for a trial increment `trial` (δσr, negative in compression).
+    #[inline(always)]
+    pub(super) fn stiffness_ratio(&self, i: usize, trial: f64) -> f64 {
+        let p = self.pressure[i];
+        let er = match self.update {
+            ModulusUpdate::Explicit => self.law.modulus_at(p),
+            ModulusUpdate::Iterated => self.law.modulus_at(p - 0.5 * trial),
+            ModulusUpdate::Secant => self.law.secant_modulus(p, p - trial),
+        };
+        self.tangential_modulus / er
+    }
+
+    /// Negated normalised diagonal of rows `from..to`, specialised per stiffness law and
+    /// modulus update so the loops stay tight (they are the bulk of the work besides the chain).
+    /// The iterated and secant updates also store each row's modulus sensitivity.
+    pub(super) fn fill_diagonal(&mut self, from: usize, to: usize) {
+        let et = self.tangential_modulus;
+        let pressure = &self.pressure[from..to];
+        let guess = &self.guess[from..to];
+        let beta = &self.beta[from..to];
+        let gamma = &self.gamma[from..to];
+        let sensitivity = &mut self.sensitivity[from..to];
+        let out = &mut self.diagonal[from..to];
+        match (self.law, self.update) {
+            (RadialStiffness::Pfeiffer { k1, k2 }, ModulusUpdate::Explicit) => {
+                let scale = et / k2;
+                // Only a held deep part reads the sensitivity of an explicit solve.
+                if self.may_hold {
+                    for i in 0..out.len() {
+                        let inverse = 1.0 / (pressure[i].max(0.0) + k1);
+                        out[i] = gamma[i] * scale * inverse - beta[i];
+                        sensitivity[i] = 0.5 * inverse;
+                    }
+                } else {
+                    for i in 0..out.len() {
+                        out[i] = gamma[i] * scale / (pressure[i].max(0.0) + k1) - beta[i];
+                    }
+                }
+            }
+            (RadialStiffness::Pfeiffer { k1, k2 }, ModulusUpdate::Iterated) => {
+                let scale = et / k2;
+                for i in 0..out.len() {
+                    let mid = (pressure[i] - 0.5 * guess[i]).max(0.0);
+                    out[i] = gamma[i] * scale / (mid + k1) - beta[i];
+                    sensitivity[i] = 0.5 / (pressure[i].max(0.0) + k1);
+                }
+            }
+            (RadialStiffness::Pfeiffer { k1, k2 }, ModulusUpdate::Secant) => {
+                // Er_sec = K2·ΔP/ln(1 + x), x = ΔP/(K1 + P) ⇒ g = (Eθ/K2)/(K1+P) · ln(1+x)/x.
+                let scale = et / k2;
+                let mut large = false;
+                for i in 0..out.len() {
+                    let inverse = 1.0 / (pressure[i].max(0.0) + k1);
+                    // The secant runs from P to P + ΔP, never below zero pressure.
+                    let x = (-guess[i] * inverse).max(k1 * inverse - 1.0);
+                    large |= !(-0.2..=0.25).contains(&x);
+                    // ln(1+x)/x = 2/(2+x) · atanh(u)/u with u = x/(2+x), and
+                    // atanh(u)/u = Σ u²ⁿ/(2n+1); |u| ≤ 1/9 on −0.2 ≤ x ≤ 0.25, so four terms
+                    // leave a relative error below 3e-9.
+                    let d = 1.0 / (2.0 + x);
+                    let w = (x * d) * (x * d);
+                    let series = 1.0 + w * (1.0 / 3.0 + w * (1.0 / 5.0 + w * (1.0 / 7.0)));
+                    out[i] = gamma[i] * scale * (2.0 * d * series) * inverse - beta[i];
+                    sensitivity[i] = 0.5 * inverse;
+                }
+                if large {
+                    // The few rows near the top with a large relative step: exact logarithm.
+                    for i in 0..out.len() {
+                        let base = pressure[i].max(0.0) + k1;
+                        let step = (-guess[i]).max(-pressure[i].max(0.0));
+                        if step > 0.25 * base || step < -0.2 * base {
+                            let x = step / base;
+                            out[i] = gamma[i] * scale * (x.ln_1p() / x) / base - beta[i];
+                        }
+                    }
+                }
+            }
+            (RadialStiffness::Constant { modulus }, _) => {
+                let g = et / modulus;
+                for i in 0..out.len() {
+                    out[i] = gamma[i] * g - beta[i];
+                    sensitivity[i] = 0.0;
+                }
+            }
+            _ => {
+                for i in from..to {
+                    let g = self.stiffness_ratio(i, self.guess[i]);
+                    self.diagonal[i] = self.gamma[i] * g - self.beta[i];
+                    self.sensitivity[i] = 0.5 * self.law.log_slope(self.pressure[i]);
+                }
+            }
+        }
+    }
+
+    /// Shoot from `low` to `top` with the moduli from `self.guess`; leaves δσr in `self.shot`
+    /// scaled so that the top node carries `-load`.
+    ///
+    /// With `restart = Some(v)` only the rows from `v` up are rebuilt: the trial increment
+    /// changed only there, so the homogeneous solution below `v` still holds and the chain
+    /// resumes from its two stored values at `v − 1` and `v`.
+    pub(super) fn shoot(
+        &mut self,
+        top: usize,
+        load: f64,
+        restart: Option<usize>,
+        scale_from: usize,
+    ) {
+        let low = self.low;
+        if top == low {
+            self.shot[top] = -load;
+            self.raw[top] = 1.0;
+            self.scale = -load;
+            self.cumulative.clear();
+            self.cumulative.push(-load);
+            self.zero_below = low;
+            return;
+        }
+        let begin = match restart {
+            Some(v) if v > low + 1 && v > self.zero_below && v < top => v,
+            _ => {
+                self.zero_below = low;
+                if low == 0 {
+                    let r0 = self.radius[0];
+                    let h = self.radius[1] - r0;
+                    let c = self.core_coefficient;
+                    let g0 = self.stiffness_ratio(0, self.guess[0]);
+                    self.sensitivity[0] = 0.5 * self.law.log_slope(self.pressure[0]);
+                    self.raw[0] = 1.0;
+                    self.raw[1] = (2.0 * r0 * r0 + 2.0 * r0 * c * h - (3.0 * c + 1.0 - g0) * h * h)
+                        / (2.0 * r0 * r0);
+                } else {
+                    // A zero value just below the first included node: the increment there is
+                    // below the skip threshold.
+                    let g = self.stiffness_ratio(low, self.guess[low]);
+                    self.sensitivity[low] = 0.5 * self.law.log_slope(self.pressure[low]);
+                    self.raw[low] = 1.0;
+                    self.raw[low + 1] = self.gamma[low] * g - self.beta[low];
+                }
+                low + 1
+            }
+        };
+        self.fill_diagonal(begin, top);
+        // The serial chain x[i+1] = −ā·x[i−1] − b̄·x[i], advanced four nodes at a time: all four
+        // new values are combinations of the two previous ones with coefficients computed off
+        // the dependency path, so the path carries one multiply-add per four nodes.
+        let mut previous = self.raw[begin - 1];
+        let mut current = self.raw[begin];
+        let mut block = begin;
+        while block < top {
+            let block_end = (block + 64).min(top);
+            let lower = &self.lower[block..block_end];
+            let diagonal = &self.diagonal[block..block_end];
+            let out = &mut self.raw[block + 1..block_end + 1];
+            let quads = out.len() / 4;
+            for k in 0..quads {
+                let j = 4 * k;
+                let (q0, p0) = (lower[j], diagonal[j]);
+                let (q1, p1) = (lower[j + 1], diagonal[j + 1]);
+                let (q2, p2) = (lower[j + 2], diagonal[j + 2]);
+                let (q3, p3) = (lower[j + 3], diagonal[j + 3]);
+                // x[j+n] = a_n·previous + b_n·current, the coefficients by the same recurrence.
+                let (a2, b2) = (p1 * q0, q1 + p1 * p0);
+                let (a3, b3) = (q2 * q0 + p2 * a2, q2 * p0 + p2 * b2);
+                let (a4, b4) = (q3 * a2 + p3 * a3, q3 * b2 + p3 * b3);
+                let x1 = q0 * previous + p0 * current;
+                let x2 = a2 * previous + b2 * current;
+                let x3 = a3 * previous + b3 * current;
+                let x4 = a4 * previous + b4 * current;
+                out[j] = x1;
+                out[j + 1] = x2;
+                out[j + 2] = x3;
+                out[j + 3] = x4;
+                previous = x3;
+                current = x4;
+            }
+            for k in 4 * quads..out.len() {
+                let next = lower[k] * previous + diagonal[k] * current;
+                previous = current;
+                current = next;
+                out[k] = next;
+            }
+            block = block_end;
+            if current.abs() > 1e150 {
+                // Rescale; everything below is negligible against the top.
+                previous *= 1e-150;
+                current *= 1e-150;
+                self.raw[block - 1] = previous;
+                self.raw[block] = current;
+                self.zero_below = block - 1;
+            }
+        }
+        // Each loaded wrap k carries −load_k at its node, so its share of the solution is
+        // (−load_k / raw[t_k])·raw below t_k; a node takes the sum over the wraps at or above it.
+        let first = top + 1 - self.loads.len();
+        let mut sum = 0.0;
+        for k in (0..self.loads.len()).rev() {
+            sum -= self.loads[k] / self.raw[first + k];
+            self.cumulative[k] = sum;
+        }
+        let scale = sum;
+        self.scale = scale;
+        let zero_below = self.zero_below.max(scale_from);
+        if scale_from < zero_below {
+            self.shot[scale_from..zero_below].fill(0.0);
+        }
+        let below = first.max(zero_below);
+        for (value, raw) in self.shot[zero_below..below]
+            .iter_mut()
+            .zip(&self.raw[zero_below..below])
+        {
+            *value = raw * scale;
+        }
+        for k in 0..self.loads.len() {
+            self.shot[first + k] = self.raw[first + k] * self.cumulative[k];
+        }
+    }
+
+    /// Initial trial increment: the previous increment moved outward with the top (by radius,
+    /// so it follows the surface through the per-wrap window and barely moves on the coarse
+    /// elements deep in the roll), scaled by the ratio of the loads.
+    pub(super) fn predict(&mut self, low: usize, top: usize, load: f64) {
+        let ratio = if self.previous_load > 0.0 {
+            load / self.previous_load
+        } else {
+            0.0
+        };
+        let shift = (self.radius[top] - self.previous_top_radius).max(0.0);
+        let mut j = top;
+        for i in (low..top).rev() {
+            let target = self.radius[i] - shift;
+            while j > low && self.radius[j] > target {
+                j -= 1;
+            }
+            let value = if self.radius[j] >= target || j == top {
+                self.shot[j]
+            } else {
+                let (r0, r1) = (self.radius[j], self.radius[j + 1]);
+                let w = (target - r0) / (r1 - r0);
+                self.shot[j] + w * (self.shot[j + 1] - self.shot[j])
+            };
+            self.guess[i] = value * ratio;
+        }
+        self.guess[top] = -self.loads.last().copied().unwrap_or(load);
+    }
+
+    /// One increment: the wraps just pushed on top (one per node, `loads` in Pa = T/s, bottom
+    /// first) are laid together, with the moduli held over the increment.
+    pub(super) fn increment(&mut self, loads: &[f64]) -> Result<(), ModelError> {
+        self.increments += 1;
+        let top = self.len() - 1;
+        self.loads.clear();
+        self.loads.extend_from_slice(loads);
+        self.cumulative.clear();
+        self.cumulative.resize(loads.len(), 0.0);
+        let load: f64 = loads.iter().sum();
+        let first_loaded = top + 1 - loads.len();
+        let held = self.held_top;
+        let hold = held > 0
+            && held + 2 <= first_loaded
+            && self.held_weight + 1.0 <= HOLD_INCREMENTS
+            && self.zero_below < held;
+        if !hold && held > 0 {
+            self.release_held();
+        }
+        let low = self.low.min(top);
+        self.low = low;
+        // First node solved this increment: the bottom of the stack, or the top of the held part.
+        let from = if hold { held } else { low };
+        let explicit = matches!(self.update, ModulusUpdate::Explicit)
+            || matches!(self.law, RadialStiffness::Constant { .. });
+        if !explicit {
+            self.predict(from, top, load);
+        }
+        self.previous_top_radius = self.radius[top];
+        self.previous_load = load;
+        let scale_from = if hold { held - 1 } else { low };
+        let mut iteration = 0;
+        let mut restart = if hold { Some(held) } else { None };
+        loop {
+            iteration += 1;
+            self.shoot(top, load, restart, scale_from);
+            self.iterations += 1;
+            if hold && self.zero_below >= held {
+                // The chain was rescaled above the held part, whose stored shape no longer fits:
+                // solve this increment in full instead.
+                self.release_held();
+                return self.increment_again();
+            }
+            if explicit {
+                break;
+            }
+            // The lowest node whose modulus does not yet match its increment. A node is settled
+            // when the change of its increment moves its modulus by less than the tolerance, or
+            // is itself that small a share of the increment (the secant modulus never moves by
+            // a larger share than the increment does).
+            let unsettled = (from..top).find(|&i| {
+                let change = (self.shot[i] - self.guess[i]).abs();
+                let size = self.shot[i].abs().max(self.guess[i].abs());
+                change * self.sensitivity[i] * size > self.tolerance * load
+                    && change > self.tolerance * size
+            });
+            let Some(lowest) = unsettled else {
+                break;
+            };
+            if iteration >= MAX_MODULUS_ITERATIONS {
+                return Err(ModelError::NotConverged(format!(
+                    "the modulus update did not settle within {MAX_MODULUS_ITERATIONS} \
+                     iterations at wrap {}; try the explicit modulus update",
+                    self.increments
+                )));
+            }
+            // Nodes below `first` keep their trial values, so only the rows above are rebuilt.
+            self.guess[lowest..=top].copy_from_slice(&self.shot[lowest..=top]);
+            restart = Some(lowest.max(from));
+        }
+        if hold {
+            self.accumulate(held, top);
+            self.held_scale += self.scale;
+            self.held_weight += (self.scale / self.held_reference).abs();
+        } else {
+            self.accumulate(low, top);
+            self.advance_skip(top, load);
+            if self.may_hold {
+                self.hold_deep_part(top);
+            }
+        }
+        Ok(())
+    }
+
+    /// Solve the current increment again in full (after a held part had to be released).
+    pub(super) fn increment_again(&mut self) -> Result<(), ModelError> {
+        self.increments -= 1;
+        let loads = self.loads.clone();
+        self.increment(&loads)
+    }
+}
