@@ -43,7 +43,7 @@ pub const GLOBAL_KEYS: &[Binding] = &[
     Binding::help("Ctrl-T / F6", "training walk-throughs: answer a guided case"),
     Binding::help("F7", "the complaint's story and the complaint record"),
     Binding::help("F8", "the plant's complaint history, similar complaints"),
-    Binding::help("F9", "measurements on the bad roll, measured against computed"),
+    Binding::help("F9", "measurements on the roll, against the computed"),
     Binding::both(ANY, "^Q", "quit", "Ctrl-Q (q off text)", "quit — asks when there are unsaved changes"),
 ];
 

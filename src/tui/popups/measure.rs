@@ -278,7 +278,7 @@ fn set_mut(m: &mut MeasurementsInput) -> &mut SetInput {
 }
 
 fn end_mut(m: &mut MeasurementsInput) -> &mut EndLineInput {
-    m.end_line.get_or_insert_with(|| EndLineInput {
+    m.end_line.get_or_insert(EndLineInput {
         bend: BendInput::Straight,
         from_diameter: None,
         to_diameter: None,
