@@ -12,7 +12,8 @@ use crate::units::UnitSystem;
 pub use super::component::{OpenPurpose, PendingAction, Screen};
 pub use super::popups::{
     CalibratePopup, ConfirmPopup, FilePopup, FilePurpose, HelpPopup, HistoryPopup, HistoryView,
-    OpenPopup, PathPrompt, Popup, StackFit, StoryPopup, TrainingPopup, WalkStage, WalkthroughRun,
+    MeasurePopup, OpenPopup, PathPrompt, Popup, StackFit, StoryPopup, TrainingPopup, WalkStage,
+    WalkthroughRun,
 };
 pub use super::screens::inputs::InputsScreen;
 pub use super::screens::results::{ResultsFocus, ResultsScreen};
@@ -42,6 +43,7 @@ pub const GLOBAL_KEYS: &[Binding] = &[
     Binding::help("Ctrl-T / F6", "training walk-throughs: answer a guided case"),
     Binding::help("F7", "the complaint's story and the complaint record"),
     Binding::help("F8", "the plant's complaint history, similar complaints"),
+    Binding::help("F9", "measurements on the roll, against the computed"),
     Binding::both(ANY, "^Q", "quit", "Ctrl-Q (q off text)", "quit — asks when there are unsaved changes"),
 ];
 
@@ -348,6 +350,10 @@ impl App {
             Key::F(8) => {
                 let popup = HistoryPopup::open(&mut self.session);
                 self.popups.push(Popup::History(Box::new(popup)));
+            }
+            Key::F(9) => {
+                let popup = MeasurePopup::open(&self.session);
+                self.popups.push(Popup::Measure(Box::new(popup)));
             }
             Key::Ctrl('u') => {
                 self.session.units = match self.session.units {

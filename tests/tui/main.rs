@@ -10,6 +10,7 @@ mod tui_support;
 
 mod job;
 mod operator;
+mod measure;
 mod screens;
 mod smoke;
 mod state;

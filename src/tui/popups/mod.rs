@@ -5,6 +5,8 @@ pub mod calibrate;
 pub mod confirm;
 pub mod help;
 pub mod history;
+pub mod measure;
+pub mod measure_view;
 pub mod open;
 pub mod prompt;
 pub mod story;
@@ -18,6 +20,7 @@ pub use calibrate::{CalibratePopup, StackFit};
 pub use confirm::ConfirmPopup;
 pub use help::HelpPopup;
 pub use history::{HistoryPopup, HistoryView};
+pub use measure::MeasurePopup;
 pub use open::OpenPopup;
 pub use prompt::{FilePopup, FilePurpose, PathPrompt};
 pub use story::StoryPopup;
@@ -46,6 +49,8 @@ pub enum Popup {
     Story(StoryPopup),
     /// The plant's complaint history.
     History(Box<HistoryPopup>),
+    /// Measurements on the bad roll, and measured against computed.
+    Measure(Box<MeasurePopup>),
 }
 
 /// Run `$body` with `$p` bound to the popup's own component.
@@ -61,6 +66,7 @@ macro_rules! each_popup {
             Popup::Calibrate($p) => $body,
             Popup::Story($p) => $body,
             Popup::History($p) => $body,
+            Popup::Measure($p) => $body,
         }
     };
 }
