@@ -23,6 +23,24 @@ const TITLES: &[(&str, &str)] = &[
     ("slip_margin", "slip margin"),
     ("speed_change_slip_margin", "slip margin at speed changes"),
     ("core_slip_margin", "slip margin at the core"),
+    ("shaft_slip_margin", "grip margin of the chuck or shaft"),
+    ("starring_margin", "starring margin (wrap buckling)"),
+    (
+        "starring_margin_position",
+        "where the starring margin is smallest",
+    ),
+    (
+        "first_wraps_pressure_ratio",
+        "pressure in the first wraps / inner zone",
+    ),
+    (
+        "core_pressure_size_share",
+        "share of core pressure from the outer half of the build",
+    ),
+    (
+        "core_pressure_taper_share",
+        "core pressure removed by more taper",
+    ),
     ("air_film_ratio", "air film / roughness"),
     ("wit_strength_share", "wound-in tension / web strength"),
     ("wit_drop", "wound-in tension drop"),

@@ -212,6 +212,9 @@ mod tests {
                 shaft_torque_rating: Some(50.0),
                 ..Events::default()
             },
+            // Not read by the torque check (starring only).
+            tangential_modulus: 4e9,
+            radial_stiffness: crate::model::RadialStiffness::Constant { modulus: 1e7 },
         };
         let check = torque_check(&profile, &inputs);
         let margin = check.shaft_margin.expect("a rating was given");

@@ -457,6 +457,16 @@ pub fn set(case: &mut Case, spec: &FieldSpec, text: Option<&str>) -> Result<(), 
     };
     let mut root = serde_json::to_value(&*case).map_err(|e| failed(e.to_string()))?;
     write(&mut root, spec.path, text.map(|t| value_of(spec, t)));
+    // A radial-stiffness law with none of its constants left says nothing: the section goes,
+    // so the preset's law applies again.
+    if text.is_none()
+        && spec.path.starts_with("web.radial_stiffness.")
+        && let Some(Value::Object(web)) = root.get_mut("web")
+        && let Some(Value::Object(radial)) = web.get("radial_stiffness")
+        && radial.iter().all(|(k, v)| k == "law" || v.is_null())
+    {
+        web.remove("radial_stiffness");
+    }
     *case = serde_json::from_value(root).map_err(|e| failed(e.to_string()))?;
     Ok(())
 }

@@ -6,6 +6,6 @@
 mod budget;
 mod cli;
 mod design;
-mod programme;
 #[path = "../shared/fixtures.rs"]
 mod fixtures;
+mod programme;

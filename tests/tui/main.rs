@@ -9,8 +9,8 @@ mod fixtures;
 mod tui_support;
 
 mod job;
-mod operator;
 mod measure;
+mod operator;
 mod screens;
 mod smoke;
 mod state;
