@@ -652,6 +652,14 @@ pub fn compact_length(value: f64, units: UnitSystem) -> String {
     }
 }
 
+/// A run length of web in whole units: "10700 m" or "35105 ft" (winders count footage in feet).
+pub fn web_length(value: f64, units: UnitSystem) -> String {
+    match units {
+        UnitSystem::Si => format!("{value:.0} m"),
+        UnitSystem::Us => format!("{:.0} ft", value / METRES_PER_FOOT),
+    }
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
@@ -694,5 +702,12 @@ mod tests {
         assert_eq!(compact_stress(6_894.757, UnitSystem::Us), "1 psi");
         // 1 in = 25.4 mm exactly (NIST SP 811, appendix B).
         assert_eq!(compact_length(0.0508, UnitSystem::Us), "2 in");
+    }
+
+    #[test]
+    fn web_length_in_metres_or_feet() {
+        assert_eq!(web_length(10_700.0, UnitSystem::Si), "10700 m");
+        // 1 ft = 0.3048 m exactly (NIST SP 811, appendix B): 3048 m is 10000 ft.
+        assert_eq!(web_length(3_048.0, UnitSystem::Us), "10000 ft");
     }
 }

@@ -12,6 +12,7 @@ use rolltriage::case::measurements::{
     BendInput, EndLineInput, HardnessInput, LanesInput, MeasurementsInput, ReadingInput, SetInput,
 };
 use rolltriage::evidence::{self, FitOptions};
+use rolltriage::units::UnitSystem;
 
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Default, clap::ValueEnum)]
 pub enum Format {
@@ -41,6 +42,9 @@ pub struct CompareArgs {
     pub tension_only: bool,
     #[arg(long, value_enum, default_value_t = Format::Text)]
     pub format: Format,
+    /// Units of the text output: si (mm, kPa, N/m) or us (in, ft, psi, pli). JSON stays SI.
+    #[arg(long, value_enum, default_value_t = super::case::UnitsArg::Si)]
+    pub units: super::case::UnitsArg,
 }
 
 /// Add `--measure` pairs to the case's measurements (they override the file's values).
@@ -217,13 +221,17 @@ pub fn run(args: &CompareArgs) -> anyhow::Result<()> {
             }))? + "\n"
         }
         Format::Text => {
+            let units = match args.units {
+                super::case::UnitsArg::Si => UnitSystem::Si,
+                super::case::UnitsArg::Us => UnitSystem::Us,
+            };
             let mut out = format!("{}\n\nMeasured against computed\n", resolved.title);
-            for line in evidence.lines() {
+            for line in evidence.lines_in(units) {
                 out.push_str(&format!("  {line}\n"));
             }
             if let Some(e) = &estimate {
                 out.push_str("\nWhat the roll says about its winding\n");
-                for line in e.lines() {
+                for line in e.lines_in(units) {
                     out.push_str(&format!("  {line}\n"));
                 }
             }

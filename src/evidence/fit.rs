@@ -25,6 +25,7 @@ use super::measurements::Measurements;
 use super::{EvidenceError, geometry, hardness};
 use crate::calibrate::levenberg_marquardt::{LeastSquaresModel, LmOptions, minimise};
 use crate::model::{ModelError, Profile, RadialStiffness, Resolution, WindingProblem};
+use crate::units::{QuantityKind, UnitSystem, compact_length, compact_stress, format_quantity};
 
 /// Relative standard uncertainty given to a hardness reading turned into a pressure through a
 /// calibration, plus a floor of [`CALIBRATED_FLOOR`] of the largest such pressure (so readings
@@ -76,6 +77,9 @@ pub struct FitResidual {
     pub fitted: f64,
     /// Standard uncertainty used to weight it (same unit).
     pub sigma: f64,
+    /// m, for a pressure datum: lets the text name the place in the chosen units (not in JSON).
+    #[serde(skip)]
+    pub diameter: Option<f64>,
 }
 
 /// The result of the inverse estimate.
@@ -443,6 +447,10 @@ fn fit_once(
                 measured,
                 fitted: f,
                 sigma,
+                diameter: match d {
+                    Datum::Compression { .. } => None,
+                    Datum::Pressure { radius, .. } => Some(2.0 * radius),
+                },
             }
         })
         .collect();
@@ -458,14 +466,30 @@ fn fit_once(
 }
 
 impl InverseEstimate {
-    /// Plain-words lines: "the settings say X, the roll says Y", the fit's quality, refusals.
+    /// Plain-words lines: "the settings say X, the roll says Y", the fit's quality, refusals (SI).
     pub fn lines(&self) -> Vec<String> {
+        self.lines_in(UnitSystem::Si)
+    }
+
+    /// [`InverseEstimate::lines`] with tensions, pressures and diameters in `units`.
+    pub fn lines_in(&self, units: UnitSystem) -> Vec<String> {
         let mut out = Vec::new();
+        let tension = |v: f64| match units {
+            UnitSystem::Si => format!("{v:.0} N/m"),
+            UnitSystem::Us => format_quantity(v, QuantityKind::ForcePerWidth, units),
+        };
+        let pressure = |v: f64| match units {
+            UnitSystem::Si => format!("{:.0} kPa", v / 1e3),
+            UnitSystem::Us => compact_stress(v, units),
+        };
         if let (Some(s), Some(effective)) = (self.tension_scale, self.effective_tension) {
             out.push(format!(
-                "Wound-in tension: the settings say {:.0} N/m at the core, the roll says {:.0} N/m \
+                "Wound-in tension: the settings say {} at the core, the roll says {} \
                  (scale {:.2} ± {:.2}).",
-                self.settings_tension, effective, s.value, s.standard_error
+                tension(self.settings_tension),
+                tension(effective),
+                s.value,
+                s.standard_error
             ));
         }
         if let Some(k) = self.stiffness_scale {
@@ -497,11 +521,7 @@ impl InverseEstimate {
             ));
             for r in &self.residuals {
                 let (m, f, s) = if r.what.starts_with("pressure") {
-                    (
-                        format!("{:.0} kPa", r.measured / 1e3),
-                        format!("{:.0} kPa", r.fitted / 1e3),
-                        format!("{:.0} kPa", r.sigma / 1e3),
-                    )
+                    (pressure(r.measured), pressure(r.fitted), pressure(r.sigma))
                 } else {
                     (
                         format!("{:.2} %", r.measured * 100.0),
@@ -509,7 +529,13 @@ impl InverseEstimate {
                         format!("{:.2} %", r.sigma * 100.0),
                     )
                 };
-                out.push(format!("  {}: measured {m} ± {s}, fitted {f}", r.what));
+                let what = match (units, r.diameter) {
+                    (UnitSystem::Us, Some(d)) => {
+                        format!("pressure at Ø {}", compact_length(d, units))
+                    }
+                    _ => r.what.clone(),
+                };
+                out.push(format!("  {what}: measured {m} ± {s}, fitted {f}"));
             }
         }
         out.extend(self.refused.iter().map(|r| format!("Not estimated — {r}.")));

@@ -27,6 +27,7 @@ pub use measurements::{
 pub use slip::SlipComparison;
 
 use crate::model::{Profile, WindingProblem};
+use crate::units::{UnitSystem, compact_length, compact_stress, web_length};
 
 /// Errors of the evidence layer; messages name the field and what is accepted.
 #[derive(Debug, thiserror::Error, PartialEq)]
@@ -145,12 +146,7 @@ pub fn compare(
         if let Some(d) = &out.density
             && (d.measured_diameter / d.solved_diameter - 1.0).abs() > 0.02
         {
-            out.notes.push(format!(
-                "the measured diameter ({}) differs from the diameter the case was solved at ({}) \
-                 by more than 2 %: the computed compression is that of the case's roll",
-                mm(d.measured_diameter),
-                mm(d.solved_diameter)
-            ));
+            out.notes.push(diameter_note(d, UnitSystem::Si));
         }
         if out.density.is_none() {
             out.notes
@@ -281,7 +277,11 @@ fn set_pattern(set: &RollSet) -> SetPattern {
 /// Lane spread below which the text calls the width even (the rules use 5 % the same way).
 const EVEN_LANES: f64 = 0.05;
 
-fn mm(metres: f64) -> String {
+/// A diameter (or a small length such as a bore closing): mm in SI, inches in US units.
+fn mm(metres: f64, units: UnitSystem) -> String {
+    if units == UnitSystem::Us {
+        return compact_length(metres, units);
+    }
     let v = metres * 1e3;
     if v.abs() >= 100.0 {
         format!("{v:.0} mm")
@@ -292,12 +292,26 @@ fn mm(metres: f64) -> String {
     }
 }
 
-fn kpa(pascal: f64) -> String {
+/// A pressure: kPa or MPa in SI, psi in US units.
+fn kpa(pascal: f64, units: UnitSystem) -> String {
+    if units == UnitSystem::Us {
+        return compact_stress(pascal, units);
+    }
     if pascal.abs() >= 1e6 {
         format!("{:.2} MPa", pascal / 1e6)
     } else {
         format!("{:.0} kPa", pascal / 1e3)
     }
+}
+
+/// The note on a measured diameter away from the solved one; rebuilt per unit system.
+fn diameter_note(d: &DensityComparison, units: UnitSystem) -> String {
+    format!(
+        "the measured diameter ({}) differs from the diameter the case was solved at ({}) \
+         by more than 2 %: the computed compression is that of the case's roll",
+        mm(d.measured_diameter, units),
+        mm(d.solved_diameter, units)
+    )
 }
 
 fn pct(share: f64) -> String {
@@ -328,16 +342,16 @@ impl Evidence {
             let detail = match (d.measured_density, d.computed_density) {
                 (Some(m), Some(c)) => format!(
                     "measured {m:.0} kg/m³ (Ø {} for {:.0} m), computed {c:.0} kg/m³ (Ø {})",
-                    mm(d.measured_diameter),
+                    mm(d.measured_diameter, UnitSystem::Si),
                     d.length,
-                    mm(d.computed_diameter)
+                    mm(d.computed_diameter, UnitSystem::Si)
                 ),
                 _ => format!(
                     "measured Ø {} for {:.0} m (compression {}), computed Ø {} (compression {})",
-                    mm(d.measured_diameter),
+                    mm(d.measured_diameter, UnitSystem::Si),
                     d.length,
                     pct(d.measured_compression),
-                    mm(d.computed_diameter),
+                    mm(d.computed_diameter, UnitSystem::Si),
                     pct(d.computed_compression)
                 ),
             };
@@ -362,10 +376,10 @@ impl Evidence {
                     rho,
                     format!(
                         "softest reading at Ø {}, computed lowest pressure at Ø {}; hardest at Ø {}, computed at Ø {}",
-                        mm(h.softest_diameter),
-                        mm(h.computed_softest_diameter),
-                        mm(h.hardest_diameter),
-                        mm(h.computed_hardest_diameter)
+                        mm(h.softest_diameter, UnitSystem::Si),
+                        mm(h.computed_softest_diameter, UnitSystem::Si),
+                        mm(h.hardest_diameter, UnitSystem::Si),
+                        mm(h.computed_hardest_diameter, UnitSystem::Si)
                     ),
                 );
             }
@@ -373,7 +387,7 @@ impl Evidence {
                 let detail = match &h.soft_band {
                     Some(b) => format!(
                         "soft band at Ø {}: readings dip {} of their range, computed pressure {}",
-                        mm(b.diameter),
+                        mm(b.diameter, UnitSystem::Si),
                         pct(b.depth),
                         pct(b.computed_depth)
                     ),
@@ -402,7 +416,10 @@ impl Evidence {
             push(
                 "end_line_offset",
                 s.offset.unwrap_or(0.0),
-                format!("line on the roll end: {}", bend_words(&s.observed)),
+                format!(
+                    "line on the roll end: {}",
+                    bend_words(&s.observed, UnitSystem::Si)
+                ),
             );
             if let (Some(agrees), Some((a, b))) = (s.agrees, s.observed_fractions) {
                 push(
@@ -412,14 +429,17 @@ impl Evidence {
                         "bends at {:.0}–{:.0} % of the build; computed weakest interface at Ø {} ({:.0} % of the build)",
                         a * 100.0,
                         b * 100.0,
-                        mm(s.weakest_diameter),
+                        mm(s.weakest_diameter, UnitSystem::Si),
                         s.weakest_fraction * 100.0
                     ),
                 );
                 push(
                     "end_line_bend_position",
                     0.5 * (a + b),
-                    format!("line on the roll end: {}", bend_words(&s.observed)),
+                    format!(
+                        "line on the roll end: {}",
+                        bend_words(&s.observed, UnitSystem::Si)
+                    ),
                 );
             }
         }
@@ -431,9 +451,9 @@ impl Evidence {
                 ratio,
                 format!(
                     "bore closed {} measured, {} computed under {} on the core",
-                    mm(c.measured),
-                    mm(c.computed.unwrap_or(0.0)),
-                    kpa(c.core_pressure)
+                    mm(c.measured, UnitSystem::Si),
+                    mm(c.computed.unwrap_or(0.0), UnitSystem::Si),
+                    kpa(c.core_pressure, UnitSystem::Si)
                 ),
             );
         }
@@ -461,21 +481,27 @@ impl Evidence {
         out
     }
 
-    /// Plain-words lines, measured beside computed, for the text output and reports.
+    /// Plain-words lines, measured beside computed, for the text output and reports (SI).
     pub fn lines(&self) -> Vec<String> {
+        self.lines_in(UnitSystem::Si)
+    }
+
+    /// [`Evidence::lines`] with diameters, lengths and pressures in `units`.
+    pub fn lines_in(&self, units: UnitSystem) -> Vec<String> {
         let mut out = Vec::new();
         if let Some(d) = &self.density {
             let mut line = format!(
-                "Roll size: {:.0} m wound to Ø {} measured; the model predicts Ø {}. Mean radial \
+                "Roll size: {} wound to Ø {} measured; the model predicts Ø {}. Mean radial \
                  compression {} measured (± {}), {} computed; wound density measured/computed {:.3}.",
-                d.length,
-                mm(d.measured_diameter),
-                mm(d.computed_diameter),
+                web_length(d.length, units),
+                mm(d.measured_diameter, units),
+                mm(d.computed_diameter, units),
                 pct(d.measured_compression),
                 pct(d.compression_uncertainty),
                 pct(d.computed_compression),
                 d.density_ratio
             );
+            // Densities stay in kg/m³ in both systems: no US trade unit for wound density is usual.
             if let (Some(m), Some(c)) = (d.measured_density, d.computed_density) {
                 line.push_str(&format!(" ({m:.0} against {c:.0} kg/m³.)"));
             }
@@ -505,27 +531,27 @@ impl Evidence {
             };
             line.push_str(&format!(
                 " Softest at Ø {} (model: Ø {}), hardest at Ø {} (model: Ø {}).",
-                mm(h.softest_diameter),
-                mm(h.computed_softest_diameter),
-                mm(h.hardest_diameter),
-                mm(h.computed_hardest_diameter)
+                mm(h.softest_diameter, units),
+                mm(h.computed_softest_diameter, units),
+                mm(h.hardest_diameter, units),
+                mm(h.computed_hardest_diameter, units)
             ));
             if let Some(b) = &h.soft_band {
                 line.push_str(&format!(
                     " Soft band at Ø {} the model does not have.",
-                    mm(b.diameter)
+                    mm(b.diameter, units)
                 ));
             }
             out.push(line);
             for p in &h.points {
                 out.push(format!(
                     "  Ø {:>8}  reading {:>7}  {}computed {}",
-                    mm(p.diameter),
+                    mm(p.diameter, units),
                     p.reading,
                     p.measured_pressure
-                        .map(|m| format!("≈ {} measured, ", kpa(m)))
+                        .map(|m| format!("≈ {} measured, ", kpa(m, units)))
                         .unwrap_or_default(),
-                    kpa(p.computed_pressure)
+                    kpa(p.computed_pressure, units)
                 ));
             }
         }
@@ -556,13 +582,13 @@ impl Evidence {
             let mut line = format!(
                 "Line on the roll end: {}{}. The model's weakest interface (lowest friction torque) \
                  is at Ø {}, weak from Ø {} to Ø {}",
-                bend_words(&s.observed),
+                bend_words(&s.observed, units),
                 s.offset
-                    .map(|o| format!(", offset {}", mm(o)))
+                    .map(|o| format!(", offset {}", mm(o, units)))
                     .unwrap_or_default(),
-                mm(s.weakest_diameter),
-                mm(s.weak_band.0),
-                mm(s.weak_band.1)
+                mm(s.weakest_diameter, units),
+                mm(s.weak_band.0, units),
+                mm(s.weak_band.1, units)
             );
             line.push_str(match s.agrees {
                 Some(true) => ": the bend is where the model expects slip.",
@@ -575,13 +601,13 @@ impl Evidence {
             out.push(match c.computed {
                 Some(comp) => format!(
                     "Core bore: closed {} measured, {} computed (elastic, under {} on the core).",
-                    mm(c.measured),
-                    mm(comp),
-                    kpa(c.core_pressure)
+                    mm(c.measured, units),
+                    mm(comp, units),
+                    kpa(c.core_pressure, units)
                 ),
                 None => format!(
                     "Core bore: closed {} measured; not computed for a core given by stiffness only.",
-                    mm(c.measured)
+                    mm(c.measured, units)
                 ),
             });
         }
@@ -604,7 +630,15 @@ impl Evidence {
                     .unwrap_or_default()
             ));
         }
-        out.extend(self.notes.iter().map(|n| format!("Note: {n}.")));
+        // Notes are stored as SI text (JSON); the one that carries diameters is rebuilt in `units`.
+        let si_note = self
+            .density
+            .as_ref()
+            .map(|d| diameter_note(d, UnitSystem::Si));
+        out.extend(self.notes.iter().map(|n| match (&self.density, &si_note) {
+            (Some(d), Some(si)) if n == si => format!("Note: {}.", diameter_note(d, units)),
+            _ => format!("Note: {n}."),
+        }));
         out
     }
 }
@@ -618,8 +652,13 @@ pub struct ComparisonRow {
 }
 
 impl Evidence {
-    /// The measured-against-computed table (reports): one row per compared figure.
+    /// The measured-against-computed table (reports): one row per compared figure (SI).
     pub fn rows(&self) -> Vec<ComparisonRow> {
+        self.rows_in(UnitSystem::Si)
+    }
+
+    /// [`Evidence::rows`] with diameters, lengths and pressures in `units`.
+    pub fn rows_in(&self, units: UnitSystem) -> Vec<ComparisonRow> {
         let mut out = Vec::new();
         let mut row = |what: String, measured: String, computed: String| {
             out.push(ComparisonRow {
@@ -630,9 +669,9 @@ impl Evidence {
         };
         if let Some(d) = &self.density {
             row(
-                format!("Diameter for {:.0} m wound", d.length),
-                mm(d.measured_diameter),
-                mm(d.computed_diameter),
+                format!("Diameter for {} wound", web_length(d.length, units)),
+                mm(d.measured_diameter, units),
+                mm(d.computed_diameter, units),
             );
             row(
                 "Mean radial compression".into(),
@@ -643,6 +682,7 @@ impl Evidence {
                 ),
                 pct(d.computed_compression),
             );
+            // kg/m³ in both systems (no usual US trade unit for wound density).
             if let (Some(m), Some(c)) = (d.measured_density, d.computed_density) {
                 row(
                     "Wound density".into(),
@@ -654,12 +694,12 @@ impl Evidence {
         if let Some(h) = &self.hardness {
             for p in &h.points {
                 row(
-                    format!("Hardness at Ø {}", mm(p.diameter)),
+                    format!("Hardness at Ø {}", mm(p.diameter, units)),
                     match p.measured_pressure {
-                        Some(m) => format!("{} (≈ {})", p.reading, kpa(m)),
+                        Some(m) => format!("{} (≈ {})", p.reading, kpa(m, units)),
                         None => format!("{} (tester scale)", p.reading),
                     },
-                    format!("pressure {}", kpa(p.computed_pressure)),
+                    format!("pressure {}", kpa(p.computed_pressure, units)),
                 );
             }
             if let Some(rho) = h.rank_correlation {
@@ -667,13 +707,13 @@ impl Evidence {
                     "Softest / hardest".into(),
                     format!(
                         "Ø {} / Ø {} (rank correlation {rho:.2})",
-                        mm(h.softest_diameter),
-                        mm(h.hardest_diameter)
+                        mm(h.softest_diameter, units),
+                        mm(h.hardest_diameter, units)
                     ),
                     format!(
                         "Ø {} / Ø {}",
-                        mm(h.computed_softest_diameter),
-                        mm(h.computed_hardest_diameter)
+                        mm(h.computed_softest_diameter, units),
+                        mm(h.computed_hardest_diameter, units)
                     ),
                 );
             }
@@ -688,15 +728,16 @@ impl Evidence {
         if let Some(s) = &self.end_line {
             row(
                 "Line on the roll end".into(),
-                bend_words(&s.observed),
-                format!("weakest interface at Ø {}", mm(s.weakest_diameter)),
+                bend_words(&s.observed, units),
+                format!("weakest interface at Ø {}", mm(s.weakest_diameter, units)),
             );
         }
         if let Some(c) = &self.core_bore {
             row(
                 "Core bore closing".into(),
-                mm(c.measured),
-                c.computed.map_or_else(|| "not computed".into(), mm),
+                mm(c.measured, units),
+                c.computed
+                    .map_or_else(|| "not computed".into(), |v| mm(v, units)),
             );
         }
         if let Some(s) = &self.set {
@@ -710,7 +751,7 @@ impl Evidence {
     }
 }
 
-fn bend_words(place: &BendPlace) -> String {
+fn bend_words(place: &BendPlace, units: UnitSystem) -> String {
     match place {
         BendPlace::Straight => "stayed straight".into(),
         BendPlace::NearCore => "bends near the core".into(),
@@ -719,8 +760,8 @@ fn bend_words(place: &BendPlace) -> String {
             to_diameter,
         } => format!(
             "bends in a band from Ø {} to Ø {}",
-            mm(*from_diameter),
-            mm(*to_diameter)
+            mm(*from_diameter, units),
+            mm(*to_diameter, units)
         ),
         BendPlace::Throughout => "curves throughout".into(),
     }
