@@ -10,6 +10,7 @@ mod fixtures;
 
 mod cli;
 mod evidence_compare;
+mod evidence_units;
 mod markdown;
 mod properties;
 mod rules_consistency;
