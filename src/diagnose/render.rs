@@ -4,6 +4,7 @@
 use std::fmt::Write;
 
 use super::Diagnosis;
+use crate::units::UnitSystem;
 
 use super::remedies::heading;
 
@@ -28,6 +29,16 @@ fn reason_line(r: &super::Reason) -> String {
 /// Plain text for the terminal.
 /// Plain text for the terminal; `verbose` adds the IDs of causes, remedies and cautions.
 pub fn render_text(title: &str, diagnosis: &Diagnosis, verbose: bool) -> String {
+    render_text_in(title, diagnosis, verbose, UnitSystem::Si)
+}
+
+/// [`render_text`] with the measured-evidence lines in `units` (the ranking text has no units).
+pub fn render_text_in(
+    title: &str,
+    diagnosis: &Diagnosis,
+    verbose: bool,
+    units: UnitSystem,
+) -> String {
     let mut out = String::new();
     let _ = writeln!(out, "Diagnosis: {title}\n");
     if diagnosis.causes.is_empty() {
@@ -51,7 +62,7 @@ pub fn render_text(title: &str, diagnosis: &Diagnosis, verbose: bool) -> String 
     }
     if let Some(evidence) = diagnosis.evidence.as_ref().filter(|e| !e.is_empty()) {
         let _ = writeln!(out, "Measured on the roll, against the model");
-        for line in evidence.lines() {
+        for line in evidence.lines_in(units) {
             let _ = writeln!(out, "  {line}");
         }
         out.push('\n');

@@ -431,8 +431,8 @@ pub fn build_document(input: &ReportInput) -> Result<ReportDocument, ReportError
             .as_ref()
             .filter(|e| !e.is_empty())
             .map(|e| MeasuredSection {
-                rows: e.rows(),
-                lines: e.lines(),
+                rows: e.rows_in(units),
+                lines: e.lines_in(units),
                 evidence: e.clone(),
             }),
         sensitivity: input.sensitivity.clone().filter(|s| !s.is_empty()),
