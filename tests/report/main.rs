@@ -4,7 +4,7 @@
 //! linked once per area instead of once per file. See DEVELOPERS.md, "Tests".
 
 mod demo;
-mod measured_plot;
 #[path = "../shared/fixtures.rs"]
 mod fixtures;
+mod measured_plot;
 mod render;

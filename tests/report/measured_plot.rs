@@ -47,7 +47,10 @@ fn hardness_plot_of_the_soft_measured_case() {
     let plot = measured_plot::hardness_svg(&input).unwrap().unwrap();
     insta::assert_snapshot!("hardness_svg", plot.svg);
     // The case has no tester calibration: the shape scale, said in the caption and on the axis.
-    assert!(plot.caption.contains("softest reading is 0 and the hardest 1"));
+    assert!(
+        plot.caption
+            .contains("softest reading is 0 and the hardest 1")
+    );
     assert!(plot.svg.contains("Softest 0 … hardest 1"));
     assert!(plot.svg.contains("Roll diameter (mm)"));
     assert!(plot.svg.contains(LABEL_READINGS) && plot.svg.contains(LABEL_COMPUTED));
