@@ -9,13 +9,21 @@ use rolltriage::model::{Resolution, SolverOptions};
 use rolltriage::report::measured_plot::{self, LABEL_COMPUTED, LABEL_READINGS};
 use rolltriage::report::{Format, PrepareOptions, ReportInput, prepare, render};
 
-fn input(name: &str) -> ReportInput {
-    let case = Case::load(
-        &Path::new(env!("CARGO_MANIFEST_DIR"))
+fn case_text(name: &str) -> String {
+    std::fs::read_to_string(
+        Path::new(env!("CARGO_MANIFEST_DIR"))
             .join("cases")
             .join(name),
     )
-    .unwrap();
+    .unwrap()
+}
+
+fn input(name: &str) -> ReportInput {
+    input_from(name, &case_text(name))
+}
+
+fn input_from(name: &str, text: &str) -> ReportInput {
+    let case = Case::from_yaml_str(text, name).unwrap();
     let rules = RuleBase::embedded().unwrap();
     let options = PrepareOptions {
         date: Some("2026-12-02".into()),
@@ -85,4 +93,36 @@ fn a_case_without_measurements_has_no_hardness_plot() {
     let html = render(&input, Format::Html).unwrap();
     assert!(!html.contains("hardness-plot"));
     assert!(!html.contains(LABEL_READINGS));
+}
+
+#[test]
+fn calibrated_readings_share_the_pressure_axis() {
+    // The soft case with a two-point tester calibration (made up for this test, linear: reading
+    // 30 is 10 kPa, reading 70 is 210 kPa) covering every reading.
+    let name = "harbour_newsprint_soft_measured.yaml";
+    let last = "      - {diameter: 950 mm, value: 40}\n";
+    let text = case_text(name);
+    assert!(text.contains(last));
+    let text = text.replace(
+        last,
+        &format!(
+            "{last}    calibration:\n      - {{reading: 30, pressure: 10 kPa}}\n      \
+             - {{reading: 70, pressure: 210 kPa}}\n"
+        ),
+    );
+    let plot = measured_plot::hardness_svg(&input_from(name, &text))
+        .unwrap()
+        .unwrap();
+    assert!(plot.caption.contains("through the tester calibration"));
+    assert!(plot.svg.contains("Interlayer pressure (kPa)"));
+    assert!(!plot.svg.contains("Softest 0"));
+    // A linear calibration keeps the readings' proportions: heights as in the shape scale.
+    let marks = circles(&plot.svg);
+    assert_eq!(marks.len(), 5);
+    let expected = normalise(&[62.0, 58.0, 55.0, 51.0, 40.0]);
+    let (top, bottom) = (marks[0].1, marks[4].1);
+    for (mark, e) in marks.iter().zip(&expected) {
+        let drawn = (bottom - mark.1) / (bottom - top);
+        assert!((drawn - e).abs() < 0.02, "{drawn} vs {e}");
+    }
 }
