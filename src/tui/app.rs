@@ -616,6 +616,10 @@ impl App {
             crate::report::ReportMeta::now(source),
             session.units,
         );
+        // What the answer rests on, when the background job measured it for this case.
+        if let Some(sensitivity) = &outcome.sensitivity {
+            input = input.with_sensitivity(sensitivity.clone());
+        }
         // Similar past complaints the history screen found for this very case (no store
         // access here: exporting stays on the UI thread).
         input.similar_past = session

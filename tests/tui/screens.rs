@@ -341,3 +341,62 @@ fn inputs_screen_with_the_winder_rows() {
     app.session.resolved = Ok(resolved_with_assumed());
     snapshot_all_sizes("inputs_winder", &app);
 }
+
+/// A case with assumed inputs (presets, a default): the background job's sensitivity run names
+/// what the answer rests on, in the command line's words (`diagnose`'s "What the answer rests
+/// on"), and an exported report carries the same section.
+#[test]
+fn results_say_what_the_answer_rests_on() {
+    let case = rolltriage::case::Case::from_yaml_str(
+        r#"
+title: Small roll, presets only
+web: {preset: newsprint}
+core: {preset: paper_3in}
+roll: {diameter: "130 mm"}
+winding: {tension: "1 pli"}
+symptoms:
+  - {id: telescoping, where: outside}
+"#,
+        "small roll",
+    )
+    .unwrap();
+    let rules = rolltriage::diagnose::rules::RuleBase::embedded().unwrap();
+    let solved = rolltriage::tui::job::run_pipeline(&case, None, &rules, &mut |_| true).unwrap();
+    assert!(!solved.resolved.assumed.is_empty());
+    let sensitivity = solved.sensitivity.clone().expect("a sensitivity run");
+    // The same run as `diagnose` makes, so the same lines.
+    let cli = rolltriage::diagnose::sensitivity::sensitivity(
+        &rules,
+        &solved.resolved,
+        &solved.profile,
+        solved.diagnosis.as_ref().unwrap(),
+        rolltriage::diagnose::DiagnoseOptions::default().solver,
+        &mut |_| true,
+    )
+    .unwrap();
+    assert_eq!(sensitivity.lines(3), cli.lines(3));
+    let named: Vec<String> = cli.top(3).map(|i| i.label.clone()).collect();
+    assert_eq!(solved.movers, named);
+    let mut app = app();
+    app.set_case(case, Some("cases/small.yaml".into()));
+    finish_requests(&mut app, &solved, &solved);
+    assert_eq!(app.screen, rolltriage::tui::component::Screen::Results);
+    let screen = draw(&app, 80, 24);
+    insta::assert_snapshot!("results_rests_on_80x24", screen);
+    assert!(
+        screen.contains(&format!("moves it most: {}", named[0])),
+        "{screen}"
+    );
+    // A tall window shows the section itself (its first lines; the pane scrolls).
+    let tall = draw(&app, 120, 60);
+    for line in cli.lines(3).into_iter().take(3) {
+        let start: String = line.chars().take(30).collect();
+        assert!(tall.contains(&start), "missing {start}:\n{tall}");
+    }
+    let folder = tempfile::tempdir().unwrap();
+    let path = folder.path().join("r.md");
+    app.export_to(&path).unwrap();
+    let report = std::fs::read_to_string(&path).unwrap();
+    assert!(report.contains("What the answer rests on"), "{report}");
+    assert!(report.contains(&cli.lines(3)[0]), "{report}");
+}
