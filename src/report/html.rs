@@ -3,6 +3,7 @@
 use std::fmt::Write;
 
 use super::document::{RemedyEntry, ReportDocument};
+use super::measured_plot::HardnessPlot;
 
 /// Escape text for HTML element content and attribute values.
 pub(crate) fn escape(text: &str) -> String {
@@ -27,9 +28,14 @@ th{background:#eee}.assumed{color:#8a4b00}.worse{color:#a00000;font-weight:bold}
 figure{margin:1em 0}figcaption{font-size:0.9em;color:#555}.meta{color:#555}\
 .caution{border-left:4px solid #c80;padding-left:0.6em}";
 
-pub(super) fn render(doc: &ReportDocument, pressure_svg: &str, tangential_svg: &str) -> String {
+pub(super) fn render(
+    doc: &ReportDocument,
+    pressure_svg: &str,
+    tangential_svg: &str,
+    hardness_plot: Option<&HardnessPlot>,
+) -> String {
     let mut out = String::new();
-    let _ = write_report(&mut out, doc, pressure_svg, tangential_svg);
+    let _ = write_report(&mut out, doc, pressure_svg, tangential_svg, hardness_plot);
     out
 }
 
@@ -38,6 +44,7 @@ fn write_report(
     doc: &ReportDocument,
     pressure_svg: &str,
     tangential_svg: &str,
+    hardness_plot: Option<&HardnessPlot>,
 ) -> std::fmt::Result {
     let case = &doc.case;
     writeln!(out, "<!DOCTYPE html>")?;
@@ -273,6 +280,12 @@ fn write_report(
             writeln!(out, "<li>{}</li>", escape(line))?;
         }
         writeln!(out, "</ul>")?;
+        if let Some(plot) = hardness_plot {
+            writeln!(out, "<figure id=\"hardness-plot\">")?;
+            writeln!(out, "{}", plot.svg)?;
+            writeln!(out, "<figcaption>{}</figcaption>", escape(&plot.caption))?;
+            writeln!(out, "</figure>")?;
+        }
     }
     writeln!(out, "<h2 id=\"causes\">Likely causes</h2>")?;
     if doc.causes.is_empty() {

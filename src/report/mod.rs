@@ -9,6 +9,7 @@ mod document;
 mod html;
 mod json;
 mod markdown;
+pub mod measured_plot;
 mod past_section;
 pub mod plots;
 mod prepare;
@@ -171,7 +172,13 @@ pub fn render(input: &ReportInput, format: Format) -> Result<String, ReportError
         Format::Html => {
             let pressure = plots::pressure_svg(input)?;
             let tangential = plots::tangential_svg(input)?;
-            Ok(html::render(&document, &pressure, &tangential))
+            let hardness = measured_plot::hardness_svg(input)?;
+            Ok(html::render(
+                &document,
+                &pressure,
+                &tangential,
+                hardness.as_ref(),
+            ))
         }
     }
 }

@@ -32,24 +32,24 @@ pub const LABEL_CRUSH_OFF_SCALE: &str = "off scale";
 /// The note written when no layer is in tangential compression.
 pub const LABEL_NO_COMPRESSION: &str = "no layer is in tangential compression";
 
-const BEFORE_COLOUR: RGBColor = RGBColor(31, 88, 160);
+pub(super) const BEFORE_COLOUR: RGBColor = RGBColor(31, 88, 160);
 const AFTER_COLOUR: RGBColor = RGBColor(214, 110, 0);
 const CRUSH_COLOUR: RGBColor = RGBColor(170, 0, 0);
-const AXIS_COLOUR: RGBColor = RGBColor(90, 90, 90);
+pub(super) const AXIS_COLOUR: RGBColor = RGBColor(90, 90, 90);
 const ZONE_SHADES: [RGBColor; 2] = [RGBColor(228, 228, 228), RGBColor(246, 246, 246)];
 
-const FONT: &str = "sans-serif";
-const TICK_FONT: u32 = 14;
-const DESC_FONT: u32 = 15;
+pub(super) const FONT: &str = "sans-serif";
+pub(super) const TICK_FONT: u32 = 14;
+pub(super) const DESC_FONT: u32 = 15;
 const ZONE_FONT: u32 = 13;
 /// Rows of zone names above the plot, and the height of one.
 const ZONE_ROWS: i32 = 3;
 const ZONE_ROW_HEIGHT: i32 = 15;
 /// Room for the key under the plot (two rows at most).
-const KEY_HEIGHT: u32 = 40;
+pub(super) const KEY_HEIGHT: u32 = 40;
 const KEY_ROW_HEIGHT: i32 = 18;
 /// Room right of the plot so the last tick label is not cut off.
-const RIGHT_MARGIN: u32 = 30;
+pub(super) const RIGHT_MARGIN: u32 = 30;
 
 /// Which quantity a plot shows.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
@@ -60,12 +60,12 @@ pub enum PlotKind {
 
 /// A unit to draw an axis in: name and how many SI units one of it is.
 #[derive(Debug, Clone, Copy)]
-struct AxisUnit {
-    name: &'static str,
-    size: f64,
+pub(super) struct AxisUnit {
+    pub(super) name: &'static str,
+    pub(super) size: f64,
 }
 
-fn length_unit(system: UnitSystem) -> AxisUnit {
+pub(super) fn length_unit(system: UnitSystem) -> AxisUnit {
     match system {
         UnitSystem::Si => AxisUnit {
             name: "mm",
@@ -79,7 +79,7 @@ fn length_unit(system: UnitSystem) -> AxisUnit {
 }
 
 /// A readable stress unit for values up to `largest` (Pa).
-fn stress_unit(largest: f64, system: UnitSystem) -> AxisUnit {
+pub(super) fn stress_unit(largest: f64, system: UnitSystem) -> AxisUnit {
     match system {
         UnitSystem::Si if largest >= 2e6 => AxisUnit {
             name: "MPa",
@@ -210,11 +210,11 @@ struct Frame<'a> {
 }
 
 /// One entry of the key under the plot.
-struct KeyEntry {
-    text: String,
-    colour: RGBColor,
-    dashed: bool,
-    marker: bool,
+pub(super) struct KeyEntry {
+    pub(super) text: String,
+    pub(super) colour: RGBColor,
+    pub(super) dashed: bool,
+    pub(super) marker: bool,
 }
 
 /// Draw one plot as an SVG document string.
@@ -576,7 +576,7 @@ fn label_zones(
 
 /// The key under the plot: a short sample of each line and its text, no frame; an entry that
 /// would run past the right edge starts a second row.
-fn draw_key(
+pub(super) fn draw_key(
     area: &DrawingArea<SVGBackend<'_>, Shift>,
     key: &[KeyEntry],
 ) -> Result<(), DrawingAreaErrorKind<std::io::Error>> {

@@ -6,4 +6,5 @@
 mod demo;
 #[path = "../shared/fixtures.rs"]
 mod fixtures;
+mod measured_plot;
 mod render;
