@@ -89,6 +89,9 @@ pub struct App {
     pub should_quit: bool,
     /// The file whose comments the user was told a save drops (the next save goes ahead).
     pub comments_warned: Option<PathBuf>,
+    /// The seed walk-throughs shuffle their choices with; `None` takes one from the clock (a
+    /// new order each time, shown in the popup so a trainer can repeat it). Tests fix it.
+    pub training_seed: Option<u64>,
 }
 
 impl App {
@@ -104,6 +107,7 @@ impl App {
             popups: Vec::new(),
             should_quit: false,
             comments_warned: None,
+            training_seed: None,
         }
     }
 
@@ -612,6 +616,10 @@ impl App {
             crate::report::ReportMeta::now(source),
             session.units,
         );
+        // What the answer rests on, when the background job measured it for this case.
+        if let Some(sensitivity) = &outcome.sensitivity {
+            input = input.with_sensitivity(sensitivity.clone());
+        }
         // Similar past complaints the history screen found for this very case (no store
         // access here: exporting stays on the UI thread).
         input.similar_past = session
@@ -656,9 +664,15 @@ impl App {
                     rules.as_ref(),
                     self.session.units,
                 );
+                let mut session = crate::training::Session::new(loaded.walkthrough, context);
+                // As `rolltriage train` does: the correct answer is not where the file's author
+                // wrote it, and the seed is shown so the same order can be given again.
+                let seed = self.training_seed.unwrap_or_else(clock_seed);
+                session.shuffle_choices(seed);
                 self.popups
                     .push(Popup::Walkthrough(Box::new(WalkthroughRun {
-                        session: crate::training::Session::new(loaded.walkthrough, context),
+                        session,
+                        seed,
                         stage: WalkStage::Briefing,
                         scroll: 0,
                     })));
@@ -702,4 +716,12 @@ pub fn suggested_file_name(title: &str) -> String {
         .collect();
     let slug = slug.trim_matches('_').to_string();
     format!("{}.yaml", if slug.is_empty() { "case" } else { &slug })
+}
+
+/// A shuffle seed from the clock, small enough to read off the screen and type again
+/// (the same rule as `rolltriage train` without `--seed`).
+fn clock_seed() -> u64 {
+    std::time::SystemTime::now()
+        .duration_since(std::time::UNIX_EPOCH)
+        .map_or(1, |d| d.as_secs() % 1_000_000)
 }

@@ -117,6 +117,10 @@ pub struct SolveOutcome {
     /// results screen names them). Filled where a sensitivity run of the library is available;
     /// empty means "not computed", and the screen then names the assumed inputs instead.
     pub movers: Vec<String>,
+    /// The sensitivity run behind `movers` (each assumed input moved across its plausible
+    /// range, the triage re-run): `None` when the case has no assumed inputs, or the run
+    /// failed. The results screen and exported reports show its lines.
+    pub sensitivity: Option<crate::diagnose::sensitivity::Sensitivity>,
 }
 
 #[derive(Debug, Clone, PartialEq)]
@@ -151,17 +155,24 @@ pub fn run_pipeline(
         Some(resolved) => CaseInputs::Resolved(resolved),
         None => CaseInputs::File(case),
     };
+    // A case with assumed inputs also gets a sensitivity run: two solves per assumed input.
+    // The triage then takes its share of the progress bar, the moves the rest.
+    let assumed = match resolved {
+        Some(resolved) => resolved.assumed.len(),
+        None => case.resolve().map_or(0, |r| r.assumed.len()),
+    };
+    let share = 1.0 / (1.0 + 2.0 * assumed as f64);
     let options = DiagnoseOptions {
         top: 0,
         what_if: false,
         ..DiagnoseOptions::default()
     };
-    let triage = crate::diagnose::pipeline::triage(rules, inputs, &options, progress).map_err(
-        |e| match e {
-            DiagnoseError::Case(e) => JobError::Inputs(Arc::from(e)),
-            e => JobError::Solve(Arc::new(e)),
-        },
-    )?;
+    let triage =
+        crate::diagnose::pipeline::triage(rules, inputs, &options, &mut |f| progress(f * share))
+            .map_err(|e| match e {
+                DiagnoseError::Case(e) => JobError::Inputs(Arc::from(e)),
+                e => JobError::Solve(Arc::new(e)),
+            })?;
     ensure_finite("the stress profile", &triage.profile).map_err(JobError::NotFinite)?;
     let diagnosis = match triage.diagnosis {
         Ok(diagnosis) => ensure_finite("the diagnosis", &diagnosis)
@@ -169,11 +180,41 @@ pub fn run_pipeline(
             .map_err(JobError::NotFinite),
         Err(e) => Err(JobError::Diagnosis(Arc::new(e))),
     };
+    let sensitivity = match &diagnosis {
+        Ok(diagnosis) if !triage.resolved.assumed.is_empty() => {
+            let mut moves = |f: f64| progress(share + f * (1.0 - share));
+            match crate::diagnose::sensitivity::sensitivity(
+                rules,
+                &triage.resolved,
+                &triage.profile,
+                diagnosis,
+                options.solver,
+                &mut moves,
+            ) {
+                // A newer request took over: end like a cancelled triage.
+                Err(e @ DiagnoseError::Model(crate::model::ModelError::Cancelled)) => {
+                    return Err(JobError::Solve(Arc::new(e)));
+                }
+                // The ranking stands without it; the screen then names the assumed inputs.
+                other => other.ok(),
+            }
+            // Like the command line: a move that is not finite is not shown as a number.
+            .filter(|s| ensure_finite("the sensitivity", s).is_ok())
+            .filter(|s| !s.is_empty())
+        }
+        _ => None,
+    };
+    let movers = sensitivity.as_ref().map_or_else(Vec::new, |s| {
+        s.top(crate::diagnose::render::SENSITIVITY_SHOWN)
+            .map(|i| i.label.clone())
+            .collect()
+    });
     Ok(SolveOutcome {
         resolved: triage.resolved,
         profile: triage.profile,
         diagnosis,
-        movers: Vec::new(),
+        movers,
+        sensitivity,
     })
 }
 

@@ -212,6 +212,8 @@ fn training_picker() {
 fn training_walkthrough_question_and_feedback() {
     let mut app = app();
     app.session.walkthroughs = rolltriage::training::library::embedded().unwrap();
+    // A fixed shuffle, so the snapshot holds still.
+    app.training_seed = Some(7);
     let index = app
         .session
         .walkthroughs
@@ -226,12 +228,21 @@ fn training_walkthrough_question_and_feedback() {
     app.handle_key(Key::Enter);
     app.handle_key(Key::Down);
     insta::assert_snapshot!("training_question_80x24", draw(&app, 80, 24));
-    app.handle_key(Key::Char('1'));
+    // The choices are shuffled (seed 7 here): answer wrong wherever the right one landed.
+    let best = match app.popup() {
+        Some(rolltriage::tui::popups::Popup::Walkthrough(run)) => run.session.walkthrough.questions
+            [0]
+        .choices
+        .iter()
+        .position(|c| c.correct)
+        .unwrap(),
+        other => panic!("expected a walk-through, got {other:?}"),
+    };
+    let wrong = usize::from(best == 0);
+    app.handle_key(Key::Char(char::from(b'1' + wrong as u8)));
     let feedback = draw(&app, 80, 24);
-    assert!(
-        feedback.contains("Not quite. The best answer is 2"),
-        "{feedback}"
-    );
+    let expected = format!("Not quite. The best answer is {}", best + 1);
+    assert!(feedback.contains(&expected), "{feedback}");
 }
 
 #[test]
@@ -329,4 +340,63 @@ fn inputs_screen_with_the_winder_rows() {
     // A fixed resolved case so the snapshot does not follow edits to the preset table.
     app.session.resolved = Ok(resolved_with_assumed());
     snapshot_all_sizes("inputs_winder", &app);
+}
+
+/// A case with assumed inputs (presets, a default): the background job's sensitivity run names
+/// what the answer rests on, in the command line's words (`diagnose`'s "What the answer rests
+/// on"), and an exported report carries the same section.
+#[test]
+fn results_say_what_the_answer_rests_on() {
+    let case = rolltriage::case::Case::from_yaml_str(
+        r#"
+title: Small roll, presets only
+web: {preset: newsprint}
+core: {preset: paper_3in}
+roll: {diameter: "130 mm"}
+winding: {tension: "1 pli"}
+symptoms:
+  - {id: telescoping, where: outside}
+"#,
+        "small roll",
+    )
+    .unwrap();
+    let rules = rolltriage::diagnose::rules::RuleBase::embedded().unwrap();
+    let solved = rolltriage::tui::job::run_pipeline(&case, None, &rules, &mut |_| true).unwrap();
+    assert!(!solved.resolved.assumed.is_empty());
+    let sensitivity = solved.sensitivity.clone().expect("a sensitivity run");
+    // The same run as `diagnose` makes, so the same lines.
+    let cli = rolltriage::diagnose::sensitivity::sensitivity(
+        &rules,
+        &solved.resolved,
+        &solved.profile,
+        solved.diagnosis.as_ref().unwrap(),
+        rolltriage::diagnose::DiagnoseOptions::default().solver,
+        &mut |_| true,
+    )
+    .unwrap();
+    assert_eq!(sensitivity.lines(3), cli.lines(3));
+    let named: Vec<String> = cli.top(3).map(|i| i.label.clone()).collect();
+    assert_eq!(solved.movers, named);
+    let mut app = app();
+    app.set_case(case, Some("cases/small.yaml".into()));
+    finish_requests(&mut app, &solved, &solved);
+    assert_eq!(app.screen, rolltriage::tui::component::Screen::Results);
+    let screen = draw(&app, 80, 24);
+    insta::assert_snapshot!("results_rests_on_80x24", screen);
+    assert!(
+        screen.contains(&format!("moves it most: {}", named[0])),
+        "{screen}"
+    );
+    // A tall window shows the section itself (its first lines; the pane scrolls).
+    let tall = draw(&app, 120, 60);
+    for line in cli.lines(3).into_iter().take(3) {
+        let start: String = line.chars().take(30).collect();
+        assert!(tall.contains(&start), "missing {start}:\n{tall}");
+    }
+    let folder = tempfile::tempdir().unwrap();
+    let path = folder.path().join("r.md");
+    app.export_to(&path).unwrap();
+    let report = std::fs::read_to_string(&path).unwrap();
+    assert!(report.contains("What the answer rests on"), "{report}");
+    assert!(report.contains(&cli.lines(3)[0]), "{report}");
 }

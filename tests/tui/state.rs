@@ -542,6 +542,8 @@ fn export_refuses_out_of_date_results() {
 }
 
 fn start_walkthrough(app: &mut rolltriage::tui::app::App, id: &str) {
+    // A known shuffle, so a failure can be replayed.
+    app.training_seed = Some(7);
     app.session.walkthroughs = rolltriage::training::library::embedded().unwrap();
     let index = app
         .session
@@ -558,6 +560,19 @@ fn start_walkthrough(app: &mut rolltriage::tui::app::App, id: &str) {
         app.handle_key(Key::Down);
     }
     app.handle_key(Key::Enter);
+}
+
+/// The (0-based) choice of question `q` the walk-through file marks correct, in the order the
+/// open walk-through shows them (after its shuffle).
+fn correct_choice(app: &rolltriage::tui::app::App, q: usize) -> usize {
+    match app.popup() {
+        Some(Popup::Walkthrough(run)) => run.session.walkthrough.questions[q]
+            .choices
+            .iter()
+            .position(|c| c.correct)
+            .expect("every question has a correct choice"),
+        other => panic!("expected a walk-through, got {other:?}"),
+    }
 }
 
 fn walk_stage(app: &rolltriage::tui::app::App) -> WalkStage {
@@ -586,14 +601,18 @@ fn training_walkthrough_is_answered_inside_the_ui_and_scored() {
             highlighted: 0
         }
     );
-    // The answer key is in cases/training/telescoping_newsprint.yaml: 2, 1, 1, 2.
+    // The choices are shuffled (a fixed seed here), so the test finds the right answers by
+    // the file's `correct` marks, not by where cases/training/telescoping_newsprint.yaml
+    // writes them.
+    let right = |app: &rolltriage::tui::app::App, q: usize| correct_choice(app, q);
     // Question 1 by its number: right.
-    app.handle_key(Key::Char('2'));
+    let answer = right(&app, 0);
+    app.handle_key(Key::Char(char::from(b'1' + answer as u8)));
     match walk_stage(&app) {
         WalkStage::Feedback { index, feedback } => {
             assert_eq!(index, 0);
             assert!(feedback.correct);
-            assert_eq!(feedback.chosen, 1);
+            assert_eq!(feedback.chosen, answer);
         }
         other => panic!("expected feedback, got {other:?}"),
     }
@@ -604,29 +623,36 @@ fn training_walkthrough_is_answered_inside_the_ui_and_scored() {
         walk_stage(&app),
         WalkStage::Question { index: 1, .. }
     ));
-    // Question 2 by Enter on the first choice: right.
+    // Question 2 by the arrows and Enter: right.
+    for _ in 0..right(&app, 1) {
+        app.handle_key(Key::Down);
+    }
     app.handle_key(Key::Enter);
     app.handle_key(Key::Enter);
-    // Question 3: ↓↓ Enter picks choice 3, which is wrong; the feedback names the best answer.
-    app.handle_key(Key::Down);
-    app.handle_key(Key::Down);
+    // Question 3: the arrows to a wrong choice, Enter; the feedback names the best answer.
+    let best = right(&app, 2);
+    let wrong = usize::from(best == 0);
+    for _ in 0..wrong {
+        app.handle_key(Key::Down);
+    }
     app.handle_key(Key::Enter);
     match walk_stage(&app) {
         WalkStage::Feedback { index, feedback } => {
             assert_eq!(index, 2);
             assert!(!feedback.correct);
-            assert_eq!(feedback.correct_choice, 0);
+            assert_eq!(feedback.correct_choice, best);
+            let text = feedback.to_text();
             assert!(
-                feedback
-                    .to_text()
-                    .starts_with("Not quite. The best answer is 1")
+                text.starts_with(&format!("Not quite. The best answer is {}", best + 1)),
+                "{text}"
             );
         }
         other => panic!("expected feedback, got {other:?}"),
     }
     app.handle_key(Key::Enter);
     // Question 4 (the safety one): right.
-    app.handle_key(Key::Char('2'));
+    let answer = right(&app, 3);
+    app.handle_key(Key::Char(char::from(b'1' + answer as u8)));
     app.handle_key(Key::Enter);
     assert_eq!(walk_stage(&app), WalkStage::Done);
     match app.popup() {
@@ -654,7 +680,9 @@ fn escape_leaves_a_walkthrough_half_way() {
     let mut app = app();
     start_walkthrough(&mut app, "telescoping_newsprint");
     app.handle_key(Key::Enter);
-    app.handle_key(Key::Char('1'));
+    // A wrong answer to question 1 (the one the file does not mark correct, wherever it sits).
+    let wrong = usize::from(correct_choice(&app, 0) == 0);
+    app.handle_key(Key::Char(char::from(b'1' + wrong as u8)));
     app.handle_key(Key::Esc);
     assert_eq!(app.popup(), None);
     assert_eq!(

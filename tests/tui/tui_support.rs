@@ -317,6 +317,7 @@ pub fn outcome(scale: f64) -> SolveOutcome {
         profile: profile(scale),
         diagnosis: Ok(diagnosis(scale)),
         movers: Vec::new(),
+        sensitivity: None,
     }
 }
 

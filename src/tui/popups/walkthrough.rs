@@ -48,6 +48,9 @@ pub enum WalkStage {
 #[derive(Debug, Clone, PartialEq)]
 pub struct WalkthroughRun {
     pub session: crate::training::Session,
+    /// The seed the choices were shuffled with (shown, so the same order can be given again
+    /// with `rolltriage train --seed`).
+    pub seed: u64,
     pub stage: WalkStage,
     /// First line shown (long feedback scrolls).
     pub scroll: u16,
@@ -266,7 +269,10 @@ fn render(run: &WalkthroughRun, theme: Theme, area: Rect, buf: &mut Buffer) {
     lines.insert(
         0,
         Line::from(Span::styled(
-            format!("{} correct so far of {}", score.correct, score.total),
+            format!(
+                "{} correct so far of {} · choices shuffled with seed {}",
+                score.correct, score.total, run.seed
+            ),
             theme.dim(),
         )),
     );

@@ -226,6 +226,10 @@ pub fn summary_lines(
     ]
 }
 
+/// How many assumed inputs the results screen names as moving the ranking most (the command
+/// line's "What the answer rests on" shows as many).
+pub const MOVERS_SHOWN: usize = crate::diagnose::render::SENSITIVITY_SHOWN;
+
 /// "⚠ 13 of 20 inputs assumed (…): causes shown at 68 % of their belief" — how much of the
 /// answer rests on defaults, and how the shown beliefs were lowered for it.
 pub fn assumed_line(outcome: &SolveOutcome, theme: Theme, width: u16) -> Line<'static> {
@@ -244,7 +248,7 @@ pub fn assumed_line(outcome: &SolveOutcome, theme: Theme, width: u16) -> Line<'s
     );
     // Name as many as fit on the line: those that move the ranking most when known, else the
     // assumed inputs in the order of the form.
-    let (labels, lead) = if outcome.movers.is_empty() {
+    let (labels, mut lead) = if outcome.movers.is_empty() {
         (
             share.labels.iter().map(String::as_str).collect::<Vec<_>>(),
             ": ",
@@ -256,6 +260,19 @@ pub fn assumed_line(outcome: &SolveOutcome, theme: Theme, width: u16) -> Line<'s
         )
     };
     let room = usize::from(width);
+    // A narrow window keeps the first mover in view: the heading shortens, since F3 is on
+    // the tab line anyway and the movers are what to enter first.
+    if let Some(first) = outcome.movers.first()
+        && text.chars().count() + lead.chars().count() + first.chars().count() > room
+    {
+        text = format!(
+            "⚠ {}/{} assumed, at {:.0} %",
+            share.assumed,
+            share.total,
+            share.factor() * 100.0
+        );
+        lead = "; moves it most: ";
+    }
     let mut names = String::new();
     for (i, label) in labels.iter().enumerate() {
         let more = labels.len() - i - 1;
@@ -475,6 +492,24 @@ fn render_causes(
             16
         };
         hung.extend(super::hang(line, width, indent));
+    }
+    // What the answer rests on (the job's sensitivity run, made when the case has assumed
+    // inputs): below the causes, in the command line's words.
+    let rests_on = app
+        .latest_outcome()
+        .and_then(|o| o.sensitivity.as_ref())
+        .map(|s| s.lines(MOVERS_SHOWN))
+        .unwrap_or_default();
+    if !rests_on.is_empty() {
+        hung.push(Line::from(""));
+        hung.push(Line::from(Span::styled(
+            "What the answer rests on",
+            theme.title(),
+        )));
+        for line in rests_on {
+            let line = Line::from(Span::styled(line, theme.dim()));
+            hung.extend(super::hang(line, width, 2));
+        }
     }
     super::render_scrolled(
         hung,
