@@ -387,8 +387,15 @@ fn mechanism_rows(
     let mut rows = vec![
         (
             "Starring margin (wrap buckling)",
-            if starring.min_margin >= rolltriage::mechanics::MARGIN_CAP {
+            // The margin is capped: a capped value with some compression is "far above 1",
+            // not "no compression" (newsprint: −24 kPa against a buckling stress of ~75 MPa).
+            if starring.demand.iter().all(|d| *d <= 0.0) {
                 "no wrap in hoop compression".to_string()
+            } else if starring.min_margin >= rolltriage::mechanics::MARGIN_CAP {
+                format!(
+                    "over {:.0} (hoop compression far below the buckling stress on the stack)",
+                    rolltriage::mechanics::MARGIN_CAP
+                )
             } else {
                 format!(
                     "{:.2} at {} (buckling stress on the stack / hoop compression; below 1 = wraps buckle)",

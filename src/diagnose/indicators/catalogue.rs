@@ -81,7 +81,7 @@ pub const INDICATORS: &[IndicatorSpec] = &[
         "starring_margin",
         Dimension::Ratio,
         ZoneUse::None,
-        "smallest ratio, over every interface, of the stress that buckles a wrap on the elastic foundation of the stack around it to the wrap's hoop compression (docs/theory.md §5.3); below 1 = the wrap buckles (starring); 1000 = no hoop compression",
+        "smallest ratio, over every interface, of the stress that buckles a wrap on the elastic foundation of the stack around it to the wrap's hoop compression (docs/theory.md §5.3); below 1 = the wrap buckles (starring); 1000 (the cap) = no hoop compression or compression far below the buckling stress",
     ),
     spec(
         "starring_margin_position",
