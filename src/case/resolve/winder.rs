@@ -85,22 +85,18 @@ impl Resolver {
             ));
         }
         let mut points = Vec::with_capacity(winding.nip_programme.len());
-        let mut last = f64::NEG_INFINITY;
+        let mut last = None;
         for (index, point) in winding.nip_programme.iter().enumerate() {
             let field = format!("winding.nip_programme[{index}]");
-            let radius =
-                self.radius_in_roll(&format!("{field}.diameter"), &point.diameter, core, roll)?;
-            if radius <= last {
-                return Err(self.out_of_range(
-                    &format!("{field}.diameter"),
-                    reg::CORE_OUTSIDE.range().show(2.0 * radius),
-                    format!(
-                        "larger than the previous point's diameter {} (list points from the core outward)",
-                        reg::CORE_OUTSIDE.range().show(2.0 * last)
-                    ),
-                ));
-            }
-            last = radius;
+            let radius = self.radius_after(
+                &format!("{field}.diameter"),
+                &point.diameter,
+                last,
+                "point",
+                core,
+                roll,
+            )?;
+            last = Some(radius);
             let load_field = format!("{field}.nip_load");
             let load = self
                 .quantity(

@@ -212,6 +212,32 @@ impl Resolver {
         Ok(self.check(field, d, &range)? / 2.0)
     }
 
+    /// The diameter of a list entry (a programme point, a taper step) inside the wound part of
+    /// the roll and larger than the entry before it (`previous`, a radius; `None` for the first
+    /// entry), returned as a radius. `what` names the entries in the message ("point", "step").
+    pub(super) fn radius_after(
+        &self,
+        field: &str,
+        value: &QuantityText,
+        previous: Option<f64>,
+        what: &str,
+        core: &ResolvedCore,
+        roll: &ResolvedRoll,
+    ) -> Result<f64, CaseError> {
+        let radius = self.radius_in_roll(field, value, core, roll)?;
+        match previous {
+            Some(last) if radius <= last => Err(self.out_of_range(
+                field,
+                reg::CORE_OUTSIDE.range().show(2.0 * radius),
+                format!(
+                    "larger than the previous {what}'s diameter {} (list {what}s from the core outward)",
+                    reg::CORE_OUTSIDE.range().show(2.0 * last)
+                ),
+            )),
+            _ => Ok(radius),
+        }
+    }
+
     fn tension_below_strength(
         &self,
         field: &str,
@@ -592,22 +618,18 @@ impl Resolver {
             ));
         }
         let mut points = Vec::with_capacity(taper.points.len());
-        let mut last_radius = f64::NEG_INFINITY;
+        let mut last_radius = None;
         for (index, point) in taper.points.iter().enumerate() {
             let field = format!("winding.taper.points[{index}]");
-            let radius =
-                self.radius_in_roll(&format!("{field}.diameter"), &point.diameter, core, roll)?;
-            if radius <= last_radius {
-                return Err(self.out_of_range(
-                    &format!("{field}.diameter"),
-                    reg::CORE_OUTSIDE.range().show(2.0 * radius),
-                    format!(
-                        "larger than the previous point's diameter {} (list points from the core outward)",
-                        reg::CORE_OUTSIDE.range().show(2.0 * last_radius)
-                    ),
-                ));
-            }
-            last_radius = radius;
+            let radius = self.radius_after(
+                &format!("{field}.diameter"),
+                &point.diameter,
+                last_radius,
+                "point",
+                core,
+                roll,
+            )?;
+            last_radius = Some(radius);
             let tension =
                 self.band_tension(&field, &point.tension, web, &reg::POINT_TENSION.range())?;
             points.push(TensionStep { radius, tension });
@@ -633,26 +655,18 @@ impl Resolver {
                 .invalid("winding.taper.steps is empty; a `steps` taper needs at least one step"));
         }
         let mut steps = Vec::with_capacity(taper.steps.len());
-        let mut last_radius = 0.0;
+        let mut last_radius = None;
         for (index, step) in taper.steps.iter().enumerate() {
             let field = format!("winding.taper.steps[{index}]");
-            let radius = self.radius_in_roll(
+            let radius = self.radius_after(
                 &format!("{field}.from_diameter"),
                 &step.from_diameter,
+                last_radius,
+                "step",
                 core,
                 roll,
             )?;
-            if index > 0 && radius <= last_radius {
-                return Err(self.out_of_range(
-                    &format!("{field}.from_diameter"),
-                    reg::CORE_OUTSIDE.range().show(2.0 * radius),
-                    format!(
-                        "larger than the previous step's diameter {} (list steps from the core outward)",
-                        reg::CORE_OUTSIDE.range().show(2.0 * last_radius)
-                    ),
-                ));
-            }
-            last_radius = radius;
+            last_radius = Some(radius);
             let tension = self.band_tension(&field, &step.tension, web, &reg::TENSION.range())?;
             steps.push(TensionStep { radius, tension });
         }
