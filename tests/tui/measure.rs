@@ -9,38 +9,19 @@ use crate::tui_support;
 
 use std::path::{Path, PathBuf};
 
-use ratatui::Terminal;
-use ratatui::backend::TestBackend;
+use crate::tui_support::draw;
 use rolltriage::case::Case;
 use rolltriage::diagnose::rules::RuleBase;
 use rolltriage::tui::app::{App, OpenPurpose, Popup};
 use rolltriage::tui::event::Key;
 use rolltriage::tui::job::{JobMessage, run_pipeline};
 use rolltriage::tui::popups::measure::{Field, MeasurePopup, Page, ROWS};
-use rolltriage::tui::screens::AppView;
-use rolltriage::tui::theme::Theme;
 
 const CASE: &str = "cases/harbour_newsprint_soft_measured.yaml";
 const SIZES: [(u16, u16); 2] = [(80, 24), (120, 40)];
 
 fn case_path() -> PathBuf {
     Path::new(env!("CARGO_MANIFEST_DIR")).join(CASE)
-}
-
-fn draw(app: &App, width: u16, height: u16) -> String {
-    let mut terminal = Terminal::new(TestBackend::new(width, height)).unwrap();
-    terminal
-        .draw(|frame| {
-            frame.render_widget(
-                AppView {
-                    app,
-                    theme: Theme::monochrome(),
-                },
-                frame.area(),
-            )
-        })
-        .unwrap();
-    terminal.backend().to_string()
 }
 
 fn opened(path: &Path) -> App {

@@ -4,33 +4,14 @@
 
 use crate::tui_support;
 
-use ratatui::Terminal;
-use ratatui::backend::TestBackend;
+use crate::tui_support::draw;
 use rolltriage::case::QuantityText;
 use rolltriage::tui::app::{App, Screen};
 use rolltriage::tui::event::Key;
 use rolltriage::tui::job::Purpose;
-use rolltriage::tui::screens::AppView;
 use rolltriage::tui::screens::what_if::{change_text, comparison};
-use rolltriage::tui::theme::Theme;
 use rolltriage::units::UnitSystem;
 use tui_support::*;
-
-fn draw(app: &App, width: u16, height: u16) -> String {
-    let mut terminal = Terminal::new(TestBackend::new(width, height)).unwrap();
-    terminal
-        .draw(|frame| {
-            frame.render_widget(
-                AppView {
-                    app,
-                    theme: Theme::monochrome(),
-                },
-                frame.area(),
-            )
-        })
-        .unwrap();
-    terminal.backend().to_string()
-}
 
 fn type_text(app: &mut App, text: &str) {
     for c in text.chars() {

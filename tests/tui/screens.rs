@@ -14,22 +14,6 @@ use tui_support::*;
 
 const SIZES: [(u16, u16); 2] = [(80, 24), (120, 40)];
 
-fn draw(app: &App, width: u16, height: u16) -> String {
-    let mut terminal = Terminal::new(TestBackend::new(width, height)).unwrap();
-    terminal
-        .draw(|frame| {
-            frame.render_widget(
-                AppView {
-                    app,
-                    theme: Theme::monochrome(),
-                },
-                frame.area(),
-            )
-        })
-        .unwrap();
-    terminal.backend().to_string()
-}
-
 fn snapshot_all_sizes(name: &str, app: &App) {
     for (w, h) in SIZES {
         insta::assert_snapshot!(format!("{name}_{w}x{h}"), draw(app, w, h));

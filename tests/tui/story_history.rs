@@ -8,8 +8,7 @@ use crate::tui_support;
 
 use std::path::{Path, PathBuf};
 
-use ratatui::Terminal;
-use ratatui::backend::TestBackend;
+use crate::tui_support::draw;
 use rolltriage::case::Case;
 use rolltriage::diagnose::rules::RuleBase;
 use rolltriage::history::Location;
@@ -17,30 +16,12 @@ use rolltriage::tui::app::{App, HistoryView, Popup};
 use rolltriage::tui::event::Key;
 use rolltriage::tui::history_job::run_request;
 use rolltriage::tui::popups::story::{ActionPart, CausePart, Field};
-use rolltriage::tui::screens::AppView;
-use rolltriage::tui::theme::Theme;
 
 const FIXTURE: &str = "tests/history_fixtures/line4_film_telescoping.yaml";
 const SIZES: [(u16, u16); 2] = [(80, 24), (120, 40)];
 
 fn fixture() -> PathBuf {
     Path::new(env!("CARGO_MANIFEST_DIR")).join(FIXTURE)
-}
-
-fn draw(app: &App, width: u16, height: u16) -> String {
-    let mut terminal = Terminal::new(TestBackend::new(width, height)).unwrap();
-    terminal
-        .draw(|frame| {
-            frame.render_widget(
-                AppView {
-                    app,
-                    theme: Theme::monochrome(),
-                },
-                frame.area(),
-            )
-        })
-        .unwrap();
-    terminal.backend().to_string()
 }
 
 /// The app on the fixture's case, opened from its file.

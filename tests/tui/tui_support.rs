@@ -356,3 +356,21 @@ pub fn finish_requests(app: &mut App, baseline: &SolveOutcome, what_if: &SolveOu
         });
     }
 }
+
+/// The whole app drawn on ratatui's TestBackend, as text (for snapshots).
+pub fn draw(app: &App, width: u16, height: u16) -> String {
+    let mut terminal =
+        ratatui::Terminal::new(ratatui::backend::TestBackend::new(width, height)).unwrap();
+    terminal
+        .draw(|frame| {
+            frame.render_widget(
+                rolltriage::tui::screens::AppView {
+                    app,
+                    theme: rolltriage::tui::theme::Theme::monochrome(),
+                },
+                frame.area(),
+            )
+        })
+        .unwrap();
+    terminal.backend().to_string()
+}
