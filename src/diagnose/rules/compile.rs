@@ -124,10 +124,21 @@ pub(super) fn did_you_mean<'a, I: IntoIterator<Item = &'a str>>(
 /// Where a name refers to a catalogue entry: the file, its text, the line to search from and
 /// what the message starts with (`remedy `x`: `, or nothing).
 pub(super) struct Site<'a> {
-    pub(super) file: &'a str,
-    pub(super) text: &'a str,
-    pub(super) after: usize,
-    pub(super) owner: &'a str,
+    file: &'a str,
+    text: &'a str,
+    after: usize,
+    owner: &'a str,
+}
+
+impl<'a> Site<'a> {
+    pub(super) fn new(file: &'a str, text: &'a str, after: usize, owner: &'a str) -> Self {
+        Site {
+            file,
+            text,
+            after,
+            owner,
+        }
+    }
 }
 
 /// Reports `name` (a `kind`, e.g. `remedy`) unless `catalogue` (read from `catalogue_file`)
@@ -163,12 +174,7 @@ pub(super) fn check_remedy(
     base: &RuleBase,
     problems: &mut Problems,
 ) {
-    let site = Site {
-        file,
-        text,
-        after: 0,
-        owner: "",
-    };
+    let site = Site::new(file, text, 0, "");
     check_listed(
         id,
         "remedy",
@@ -217,12 +223,7 @@ pub(super) fn compile_remedy(
         }
     };
     let owner = format!("remedy `{id}`: ");
-    let site = Site {
-        file,
-        text,
-        after: line,
-        owner: &owner,
-    };
+    let site = Site::new(file, text, line, &owner);
     for caution in &raw.cautions {
         ok &= check_listed(
             caution,
@@ -441,12 +442,7 @@ pub(super) fn compile_symptom(
             );
         }
         let owner = format!("cause `{}`: ", rule.cause);
-        let site = Site {
-            file,
-            text,
-            after: line,
-            owner: &owner,
-        };
+        let site = Site::new(file, text, line, &owner);
         for remedy in &rule.remedies {
             check_listed(
                 remedy,
