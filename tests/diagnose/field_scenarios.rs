@@ -53,7 +53,11 @@ fn every_scenario_file_is_indexed_with_a_source() {
             assert!(rules.causes.contains_key(cause), "{name}: cause {cause}");
         }
         assert!((1..=2).contains(&e.top), "{name}: top must be 1 or 2");
-        assert_eq!(e.top == 2, !e.also.is_empty(), "{name}: top 2 names the other cause");
+        assert_eq!(
+            e.top == 2,
+            !e.also.is_empty(),
+            "{name}: top 2 names the other cause"
+        );
         assert!(!e.source.trim().is_empty(), "{name}: name the source");
     }
 }
@@ -137,7 +141,10 @@ fn a_second_symptom_never_lowers_what_the_first_says_through_scoped_evidence() {
     assert_eq!(stars_only.symptoms.len(), 1);
     let alone = belief(&stars_only);
     assert!(alone > 0.0);
-    assert!(both >= alone - 1e-12, "stars alone {alone}, with the crushed core {both}");
+    assert!(
+        both >= alone - 1e-12,
+        "stars alone {alone}, with the crushed core {both}"
+    );
     // The lever rule does hold on this roll: the crushed core's own reason carries it.
     let d = diagnose(&rules, &resolved, &profile, &options).unwrap();
     let taper = d.causes.iter().find(|c| c.id == "taper_missing").unwrap();
