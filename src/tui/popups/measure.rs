@@ -10,7 +10,6 @@
 use ratatui::buffer::Buffer;
 use ratatui::layout::Rect;
 use ratatui::text::{Line, Span};
-use ratatui::widgets::{Block, Clear, Paragraph, Widget, Wrap};
 
 use crate::case::QuantityText;
 use crate::case::measurements::{
@@ -23,7 +22,7 @@ use crate::tui::session::Session;
 use crate::tui::theme::Theme;
 use crate::units::{QuantityKind, parse_quantity};
 
-use super::story::clip;
+use super::edit_field::{self, Typed};
 
 /// One editable row.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
@@ -561,21 +560,16 @@ impl MeasurePopup {
         let Some(typed) = &mut self.editing else {
             return;
         };
-        match key {
-            Key::Char(c) => typed.push(c),
-            Key::Backspace => {
-                typed.pop();
-            }
-            Key::Ctrl('u') => typed.clear(),
-            Key::Enter => {
+        match edit_field::edit(typed, key) {
+            Typed::Enter => {
                 let typed = typed.clone();
                 self.commit(ctx, field, typed);
             }
-            Key::Esc => {
+            Typed::Cancel => {
                 self.editing = None;
                 self.error = None;
             }
-            _ => {}
+            Typed::Editing => {}
         }
     }
 }
@@ -647,41 +641,22 @@ impl Component for MeasurePopup {
     }
 
     fn render(&self, ctx: &Session, theme: Theme, area: Rect, buf: &mut Buffer) {
-        let rect = Rect {
-            height: area.height.saturating_sub(2),
-            ..area
-        };
-        Clear.render(rect, buf);
         let title = match self.page {
             Page::Edit => " Measured on the roll (v: measured against computed, Esc closes) ",
             Page::Compare => " Measured against computed (v: the measurements, Esc closes) ",
         };
-        let block = Block::bordered().title(title);
-        let inner = block.inner(rect);
-        block.render(rect, buf);
-        if inner.height < 3 || inner.width < 20 {
+        let Some(frame) = edit_field::frame(title, (18, 22), area, buf) else {
             return;
-        }
+        };
         match self.page {
-            Page::Edit => self.render_rows(theme, inner, buf),
-            Page::Compare => super::measure_view::render(ctx, self.scroll, theme, inner, buf),
+            Page::Edit => self.render_rows(theme, &frame, buf),
+            Page::Compare => super::measure_view::render(ctx, self.scroll, theme, frame.inner, buf),
         }
     }
 }
 
 impl MeasurePopup {
-    fn render_rows(&self, theme: Theme, inner: Rect, buf: &mut Buffer) {
-        let detail_height = 4u16.min(inner.height / 3);
-        let list = Rect {
-            height: inner.height - detail_height,
-            ..inner
-        };
-        let detail = Rect {
-            y: inner.y + list.height,
-            height: detail_height,
-            ..inner
-        };
-        let label_width: usize = if inner.width >= 100 { 22 } else { 18 };
+    fn render_rows(&self, theme: Theme, frame: &edit_field::Frame, buf: &mut Buffer) {
         let mut lines = Vec::new();
         let mut selected_line = 0;
         for (i, (heading, label, field)) in ROWS.iter().enumerate() {
@@ -703,23 +678,10 @@ impl MeasurePopup {
                     "—".into()
                 };
             }
-            let room = usize::from(inner.width).saturating_sub(label_width + 2);
-            let style = if is_selected {
-                theme.selected()
-            } else {
-                theme.plain()
-            };
-            lines.push(Line::from(vec![
-                Span::styled(format!(" {label:<label_width$} "), theme.key()),
-                Span::styled(clip(&shown, room), style),
-            ]));
+            lines.push(frame.row(label, &shown, is_selected, theme));
         }
-        let first = (selected_line + 2).saturating_sub(usize::from(list.height));
-        Paragraph::new(lines)
-            .scroll((first as u16, 0))
-            .render(list, buf);
-        let rule = "─".repeat(usize::from(detail.width));
-        let mut about = vec![Line::from(Span::styled(rule, theme.dim()))];
+        frame.render_list(lines, selected_line, buf);
+        let mut about = vec![frame.rule(theme)];
         if let Some(error) = &self.error {
             about.push(Line::from(Span::styled(
                 format!("Not accepted: {error}"),
@@ -736,8 +698,6 @@ impl MeasurePopup {
                 theme.dim(),
             )));
         }
-        Paragraph::new(about)
-            .wrap(Wrap { trim: false })
-            .render(detail, buf);
+        frame.render_detail(about, buf);
     }
 }

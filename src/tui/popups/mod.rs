@@ -3,6 +3,7 @@
 
 pub mod calibrate;
 pub mod confirm;
+pub mod edit_field;
 pub mod help;
 pub mod history;
 pub mod measure;
