@@ -326,6 +326,20 @@ fn extremes(h: &HardnessComparison, units: UnitSystem) -> [String; 4] {
     .map(|d| format!("Ø {}", mm(d, units)))
 }
 
+/// "hard lanes [1, 5], soft lanes [3], both edges hard".
+fn lane_words(l: &LaneComparison) -> String {
+    format!(
+        "hard lanes {:?}, soft lanes {:?}{}",
+        l.hard_lanes,
+        l.soft_lanes,
+        if l.hard_edges {
+            ", both edges hard"
+        } else {
+            ""
+        }
+    )
+}
+
 fn pct(share: f64) -> String {
     format!("{:.1} %", share * 100.0)
 }
@@ -415,14 +429,8 @@ impl Evidence {
                 "lane_hardness_spread",
                 l.spread,
                 format!(
-                    "hard lanes {:?}, soft lanes {:?}{}; the model computes one value across the width",
-                    l.hard_lanes,
-                    l.soft_lanes,
-                    if l.hard_edges {
-                        ", both edges hard"
-                    } else {
-                        ""
-                    }
+                    "{}; the model computes one value across the width",
+                    lane_words(l)
                 ),
             );
         }
@@ -588,17 +596,11 @@ impl Evidence {
                 )
             } else {
                 format!(
-                    "Hardness across the width: spread {} of the mean; hard lanes {:?}, soft lanes \
-                     {:?}{}. The model cannot compute lanes: hard and soft lanes point to caliper \
-                     variation across the width (gauge bands) or an uneven nip.",
+                    "Hardness across the width: spread {} of the mean; {}. The model cannot \
+                     compute lanes: hard and soft lanes point to caliper variation across the \
+                     width (gauge bands) or an uneven nip.",
                     pct(l.spread),
-                    l.hard_lanes,
-                    l.soft_lanes,
-                    if l.hard_edges {
-                        ", both edges hard"
-                    } else {
-                        ""
-                    }
+                    lane_words(l)
                 )
             });
         }

@@ -41,6 +41,21 @@ pub fn edit(typed: &mut String, key: Key) -> Typed {
     Typed::Editing
 }
 
+/// Move the selection among rows `0..=last` with ↑↓, PgUp/PgDn (ten rows), Home and End;
+/// false for any other key.
+pub fn move_selection(selected: &mut usize, last: usize, key: Key) -> bool {
+    *selected = match key {
+        Key::Up => selected.saturating_sub(1),
+        Key::Down => (*selected + 1).min(last),
+        Key::PageUp => selected.saturating_sub(10),
+        Key::PageDown => (*selected + 10).min(last),
+        Key::Home => 0,
+        Key::End => last,
+        _ => return false,
+    };
+    true
+}
+
 /// `text` cut to `width` characters, ending in "…" when cut (the full text shows below).
 pub fn clip(text: &str, width: usize) -> String {
     if text.chars().count() <= width {

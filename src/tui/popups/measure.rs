@@ -599,12 +599,7 @@ impl Component for MeasurePopup {
             (Page::Compare, Key::PageUp) => self.scroll = self.scroll.saturating_sub(10),
             (Page::Compare, Key::PageDown) => self.scroll = self.scroll.saturating_add(10),
             (Page::Compare, _) => {}
-            (Page::Edit, Key::Up) => self.selected = self.selected.saturating_sub(1),
-            (Page::Edit, Key::Down) => self.selected = (self.selected + 1).min(last),
-            (Page::Edit, Key::PageUp) => self.selected = self.selected.saturating_sub(10),
-            (Page::Edit, Key::PageDown) => self.selected = (self.selected + 10).min(last),
-            (Page::Edit, Key::Home) => self.selected = 0,
-            (Page::Edit, Key::End) => self.selected = last,
+            (Page::Edit, _) if edit_field::move_selection(&mut self.selected, last, key) => {}
             (Page::Edit, Key::Left | Key::Right) if field.choices().is_some() => {
                 self.error = None;
                 self.step(ctx, field, key == Key::Right);

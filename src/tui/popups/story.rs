@@ -537,13 +537,10 @@ impl Component for StoryPopup {
         }
         let last = StoryPopup::fields(ctx).len().saturating_sub(1);
         self.selected = self.selected.min(last);
+        if edit_field::move_selection(&mut self.selected, last, key) {
+            return Handled::Yes;
+        }
         match key {
-            Key::Up => self.selected = self.selected.saturating_sub(1),
-            Key::Down => self.selected = (self.selected + 1).min(last),
-            Key::PageUp => self.selected = self.selected.saturating_sub(10),
-            Key::PageDown => self.selected = (self.selected + 10).min(last),
-            Key::Home => self.selected = 0,
-            Key::End => self.selected = last,
             Key::Left | Key::Right if is_choice(field) => {
                 self.error = None;
                 self.step(ctx, field, key == Key::Right);
