@@ -7,6 +7,7 @@ pub mod edit_field;
 pub mod help;
 pub mod history;
 pub mod measure;
+pub mod measure_rows;
 pub mod measure_view;
 pub mod open;
 pub mod prompt;
