@@ -248,11 +248,52 @@ fn measured_against_computed_draws_the_readings_on_the_profile() {
         "Roll size:",
         "wound density measured/computed",
         "The set: 5 of 5 rolls bad (all of them: points to the settings)",
+        "What the roll says about its winding",
+        "Wound-in tension: the settings say 482 N/m at the core, the roll says",
     ] {
         assert!(screen.contains(said), "{said} missing:\n{screen}");
     }
     for (w, h) in SIZES {
         insta::assert_snapshot!(format!("measure_compare_{w}x{h}"), draw(&app, w, h));
+    }
+}
+
+/// The popup's inverse estimate is the one `rolltriage compare` prints: the same function
+/// (`evidence::estimate`, default fit options) on the same problem gives the same lines.
+#[test]
+fn the_inverse_estimate_is_the_one_compare_prints() {
+    let mut app = opened(&case_path());
+    app.session.solve_again();
+    solve(&mut app);
+    let outcome = app.session.current_outcome().unwrap();
+    let shown = outcome.estimate.clone().unwrap().unwrap();
+    let resolved = Case::load(&case_path()).unwrap().resolve().unwrap();
+    let measurements = resolved.measurements.clone().unwrap();
+    let problem = resolved.problem(Default::default());
+    let cli = rolltriage::evidence::estimate(
+        &measurements,
+        &problem,
+        &rolltriage::model::solve,
+        &rolltriage::evidence::FitOptions::default(),
+    )
+    .unwrap();
+    assert_eq!(shown, cli);
+    let scale = shown.tension_scale.unwrap();
+    // The demo roll is larger than the model predicts for its length: less wound-in tension
+    // than the settings say (docs/evidence.md), a scale below 1.
+    assert!(scale.value < 1.0 && scale.standard_error > 0.0, "{scale:?}");
+
+    // In US units the page says it in pli, inches and feet (Ctrl-U switches the session).
+    app.session.units = rolltriage::units::UnitSystem::Us;
+    app.handle_key(Key::F(9));
+    app.handle_key(Key::Char('v'));
+    let screen = draw(&app, 120, 40);
+    for said in ["pli at the core", "35105 ft wound to Ø 39.4 in"] {
+        assert!(screen.contains(said), "{said} missing:\n{screen}");
+    }
+    assert!(!screen.contains(" mm"), "SI left in US units:\n{screen}");
+    for (w, h) in SIZES {
+        insta::assert_snapshot!(format!("measure_compare_us_{w}x{h}"), draw(&app, w, h));
     }
 }
 
