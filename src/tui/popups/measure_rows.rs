@@ -326,36 +326,55 @@ fn items(text: &str) -> impl Iterator<Item = &str> {
         .filter(|s| !s.is_empty())
 }
 
-fn readings(text: &str) -> Result<Vec<ReadingInput>, String> {
+/// `LEFT:RIGHT` pairs separated by commas; `what` names them in a refusal ("hardness",
+/// "DIAMETER:READING", "300 mm:41"), `read` turns one pair's two sides into its entry.
+fn pairs<T>(
+    text: &str,
+    what: [&str; 3],
+    read: impl Fn(&str, &str) -> Result<T, String>,
+) -> Result<Vec<T>, String> {
+    let [name, form, example] = what;
     items(text)
         .map(|item| {
-            let (d, r) = item.rsplit_once(':').ok_or_else(|| {
-                format!("hardness: \"{item}\" is not DIAMETER:READING, e.g. 300 mm:41")
-            })?;
-            let diameter = quantity("hardness diameter", d, QuantityKind::Length, false)?
-                .ok_or_else(|| format!("hardness: \"{item}\" has no diameter"))?;
-            Ok(ReadingInput {
-                diameter,
-                value: number("hardness reading", r)?,
-            })
+            let (left, right) = item
+                .rsplit_once(':')
+                .ok_or_else(|| format!("{name}: \"{item}\" is not {form}, e.g. {example}"))?;
+            read(left, right)
         })
         .collect()
 }
 
+/// A quantity a pair cannot do without.
+fn required(quantity: Option<QuantityText>, missing: &str) -> Result<QuantityText, String> {
+    quantity.ok_or_else(|| missing.to_string())
+}
+
+fn readings(text: &str) -> Result<Vec<ReadingInput>, String> {
+    pairs(
+        text,
+        ["hardness", "DIAMETER:READING", "300 mm:41"],
+        |d, r| {
+            let diameter = quantity("hardness diameter", d, QuantityKind::Length, false)?;
+            Ok(ReadingInput {
+                diameter: required(diameter, "hardness: a reading has no diameter")?,
+                value: number("hardness reading", r)?,
+            })
+        },
+    )
+}
+
 fn calibration(text: &str) -> Result<Vec<CalibrationInput>, String> {
-    items(text)
-        .map(|item| {
-            let (r, p) = item.split_once(':').ok_or_else(|| {
-                format!("calibration: \"{item}\" is not READING:PRESSURE, e.g. 40:50 kPa")
-            })?;
-            let pressure = quantity("calibration pressure", p, QuantityKind::Stress, true)?
-                .ok_or_else(|| format!("calibration: \"{item}\" has no pressure"))?;
+    pairs(
+        text,
+        ["calibration", "READING:PRESSURE", "40:50 kPa"],
+        |r, p| {
+            let pressure = quantity("calibration pressure", p, QuantityKind::Stress, true)?;
             Ok(CalibrationInput {
                 reading: number("calibration reading", r)?,
-                pressure,
+                pressure: required(pressure, "calibration: a point has no pressure")?,
             })
-        })
-        .collect()
+        },
+    )
 }
 
 /// A count that may be left blank.
