@@ -340,6 +340,57 @@ fn find_unit(symbol: &str, expected: QuantityKind) -> Option<&'static Unit> {
         .or_else(|| UNITS.iter().find(matches))
 }
 
+/// First symbols of the US customary units in [`UNITS`].
+const US_UNITS: &[&str] = &[
+    "in",
+    "mil",
+    "ft",
+    "pli",
+    "psi",
+    "ksi",
+    "fpm",
+    "ft/s",
+    "lbf",
+    "lbfft",
+    "lbfin",
+    "°f",
+    "lb",
+    "lb/3000ft2",
+    "lb/3300ft2",
+];
+
+/// The unit system most of `texts` are typed in ("39.8 in" and "35000 ft" are US, "1012 mm"
+/// SI); `None` when none of them is a number with a unit. A tie reads as SI. Percentages and
+/// bare numbers count for neither.
+pub fn typed_system<'a>(texts: impl IntoIterator<Item = &'a str>) -> Option<UnitSystem> {
+    let (mut si, mut us) = (0usize, 0usize);
+    for text in texts {
+        let Some((_, symbol)) = split_number(text.trim()) else {
+            continue;
+        };
+        let symbol = normalise_unit(symbol);
+        let Some(unit) = UNITS
+            .iter()
+            .find(|u| u.symbols.iter().any(|s| normalise_unit(s) == symbol))
+        else {
+            continue;
+        };
+        if unit.kind == QuantityKind::Percent {
+            continue;
+        }
+        if US_UNITS.contains(&unit.symbols[0]) {
+            us += 1;
+        } else {
+            si += 1;
+        }
+    }
+    match (si, us) {
+        (0, 0) => None,
+        (si, us) if us > si => Some(UnitSystem::Us),
+        _ => Some(UnitSystem::Si),
+    }
+}
+
 /// Split "12.5e-3 mm" into its number text and unit text. `None` when it does not start with a
 /// plain decimal number (no "inf", "NaN", hex or thousands separators).
 fn split_number(text: &str) -> Option<(&str, &str)> {
@@ -702,6 +753,21 @@ mod tests {
         assert_eq!(compact_stress(6_894.757, UnitSystem::Us), "1 psi");
         // 1 in = 25.4 mm exactly (NIST SP 811, appendix B).
         assert_eq!(compact_length(0.0508, UnitSystem::Us), "2 in");
+    }
+
+    #[test]
+    fn typed_system_follows_the_units_typed() {
+        let us = ["39.8 in", "35000 ft", "1150 lb", "0.5 %"];
+        assert_eq!(typed_system(us), Some(UnitSystem::Us));
+        let si = ["1012 mm", "10700 m", "520 kg", "2 %"];
+        assert_eq!(typed_system(si), Some(UnitSystem::Si));
+        // Mixed: the majority; a tie is SI. Percentages and bare numbers count for neither.
+        assert_eq!(
+            typed_system(["40 in", "12 ft", "300 mm"]),
+            Some(UnitSystem::Us)
+        );
+        assert_eq!(typed_system(["40 in", "300 mm"]), Some(UnitSystem::Si));
+        assert_eq!(typed_system(["2 %", "52", "PM3 reel"]), None);
     }
 
     #[test]

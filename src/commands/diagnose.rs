@@ -48,9 +48,10 @@ pub struct DiagnoseArgs {
     pub no_site_history: bool,
     #[arg(long = "measure", value_name = "KEY=VALUE", help = super::measure::MEASURE_HELP)]
     pub measure: Vec<String>,
-    /// Units of the measured-evidence lines in the text output: si or us (in, ft, psi).
-    #[arg(long, value_enum, default_value_t = super::case::UnitsArg::Si)]
-    pub units: super::case::UnitsArg,
+    /// Units of the measured-evidence lines and reasons in the text output: si or us (in, ft,
+    /// psi). Default: the units the measurements are typed in (SI when they say nothing).
+    #[arg(long, value_enum)]
+    pub units: Option<super::case::UnitsArg>,
 }
 
 /// The rule base: `--rules DIR` or the shipped one.
@@ -136,10 +137,7 @@ pub fn run(args: &DiagnoseArgs) -> anyhow::Result<()> {
     rolltriage::finite::ensure_finite(&what, &diagnosis)?;
     let text = match args.format {
         Format::Text => {
-            let units = match args.units {
-                super::case::UnitsArg::Si => rolltriage::units::UnitSystem::Si,
-                super::case::UnitsArg::Us => rolltriage::units::UnitSystem::Us,
-            };
+            let units = super::measure::chosen_units(args.units, &case);
             diagnose::render::render_text_in(&resolved.title, &diagnosis, args.verbose, units)
                 + &diagnose::render::sensitivity_text(&sensitivity)
                 + &past

@@ -43,8 +43,35 @@ pub struct CompareArgs {
     #[arg(long, value_enum, default_value_t = Format::Text)]
     pub format: Format,
     /// Units of the text output: si (mm, kPa, N/m) or us (in, ft, psi, pli). JSON stays SI.
-    #[arg(long, value_enum, default_value_t = super::case::UnitsArg::Si)]
-    pub units: super::case::UnitsArg,
+    /// Default: the units the measurements are typed in (SI when they say nothing).
+    #[arg(long, value_enum)]
+    pub units: Option<super::case::UnitsArg>,
+}
+
+/// The units of the evidence text: `--units` when given, else the units most of the case's
+/// measurements are typed in ("39.8 in", "35000 ft", "1150 lb" read as US), else SI.
+pub fn chosen_units(given: Option<super::case::UnitsArg>, case: &Case) -> UnitSystem {
+    match given {
+        Some(super::case::UnitsArg::Si) => UnitSystem::Si,
+        Some(super::case::UnitsArg::Us) => UnitSystem::Us,
+        None => typed_units(case).unwrap_or(UnitSystem::Si),
+    }
+}
+
+/// The units the case's `measurements:` section is typed in; `None` without units there.
+pub fn typed_units(case: &Case) -> Option<UnitSystem> {
+    fn texts(value: &serde_json::Value, out: &mut Vec<String>) {
+        match value {
+            serde_json::Value::String(s) => out.push(s.clone()),
+            serde_json::Value::Array(items) => items.iter().for_each(|v| texts(v, out)),
+            serde_json::Value::Object(map) => map.values().for_each(|v| texts(v, out)),
+            _ => {}
+        }
+    }
+    let value = serde_json::to_value(case.measurements.as_ref()?).ok()?;
+    let mut out = Vec::new();
+    texts(&value, &mut out);
+    rolltriage::units::typed_system(out.iter().map(String::as_str))
 }
 
 /// Add `--measure` pairs to the case's measurements (they override the file's values).
@@ -221,10 +248,7 @@ pub fn run(args: &CompareArgs) -> anyhow::Result<()> {
             }))? + "\n"
         }
         Format::Text => {
-            let units = match args.units {
-                super::case::UnitsArg::Si => UnitSystem::Si,
-                super::case::UnitsArg::Us => UnitSystem::Us,
-            };
+            let units = chosen_units(args.units, &case);
             let mut out = format!("{}\n\nMeasured against computed\n", resolved.title);
             for line in evidence.lines_in(units) {
                 out.push_str(&format!("  {line}\n"));

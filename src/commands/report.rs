@@ -29,9 +29,10 @@ pub struct ReportArgs {
     /// Date printed in the report (YYYY-MM-DD); today (UTC) by default.
     #[arg(long, value_parser = super::arg_check::date)]
     pub date: Option<String>,
-    /// Print quantities in SI (default) or US trade units: si or us.
-    #[arg(long, default_value = "si", value_parser = super::arg_check::unit_system)]
-    pub units: String,
+    /// Print quantities in SI or US trade units: si or us. Default: the units the case's
+    /// measurements are typed in (SI when there are none).
+    #[arg(long, value_parser = super::arg_check::unit_system)]
+    pub units: Option<String>,
     /// Skip the predicted effect (what-if re-solve) of each remedy in the list.
     #[arg(long)]
     pub no_what_if: bool,
@@ -96,7 +97,14 @@ pub fn run(args: &ReportArgs) -> anyhow::Result<()> {
         remedy: args.remedy.clone(),
         date: args.date.clone(),
         source_file: Some(args.case.display().to_string()),
-        units: parse_units(&args.units)?,
+        units: match &args.units {
+            Some(text) => parse_units(text)?,
+            // A case that does not load is reported by `prepare_from_path` below.
+            None => rolltriage::case::Case::load(&args.case)
+                .ok()
+                .and_then(|case| super::measure::typed_units(&case))
+                .unwrap_or(UnitSystem::Si),
+        },
         what_if: !args.no_what_if,
         ..PrepareOptions::default()
     };

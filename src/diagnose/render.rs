@@ -56,6 +56,12 @@ pub fn render_text_in(
         let _ = writeln!(out, "{}. {}{id} — belief {:.2}", i + 1, c.title, c.belief);
         let _ = writeln!(out, "   {}", c.mechanism);
         for r in &c.reasons {
+            // A measured-evidence reason quotes its measurement in the chosen units.
+            let value = match (&diagnosis.evidence, &r.value) {
+                (Some(e), Some(v)) => Some(e.localise(v, units)),
+                _ => r.value.clone(),
+            };
+            let r = &super::Reason { value, ..r.clone() };
             let _ = writeln!(out, "     {}", reason_line(r));
         }
         out.push('\n');

@@ -314,6 +314,32 @@ fn diameter_note(d: &DensityComparison, units: UnitSystem) -> String {
     )
 }
 
+/// "Ø …" of the softest reading, the computed lowest pressure, the hardest reading and the
+/// computed highest pressure.
+fn extremes(h: &HardnessComparison, units: UnitSystem) -> [String; 4] {
+    [
+        h.softest_diameter,
+        h.computed_softest_diameter,
+        h.hardest_diameter,
+        h.computed_hardest_diameter,
+    ]
+    .map(|d| format!("Ø {}", mm(d, units)))
+}
+
+/// "hard lanes [1, 5], soft lanes [3], both edges hard".
+fn lane_words(l: &LaneComparison) -> String {
+    format!(
+        "hard lanes {:?}, soft lanes {:?}{}",
+        l.hard_lanes,
+        l.soft_lanes,
+        if l.hard_edges {
+            ", both edges hard"
+        } else {
+            ""
+        }
+    )
+}
+
 fn pct(share: f64) -> String {
     format!("{:.1} %", share * 100.0)
 }
@@ -332,6 +358,12 @@ impl Evidence {
     /// The values the rule base may test (IDs listed in docs/rules.md); a measurement not
     /// taken gives no value, so rules testing it stay neutral.
     pub fn indicators(&self) -> Vec<EvidenceIndicator> {
+        self.indicators_in(UnitSystem::Si)
+    }
+
+    /// [`Evidence::indicators`] with the details' diameters, lengths and pressures in `units`
+    /// (the values are the same; densities stay kg/m³, as in [`Evidence::lines_in`]).
+    pub fn indicators_in(&self, units: UnitSystem) -> Vec<EvidenceIndicator> {
         let mut out = Vec::new();
         let mut push = |id: &'static str, value: f64, detail: String| {
             if value.is_finite() {
@@ -341,17 +373,17 @@ impl Evidence {
         if let Some(d) = &self.density {
             let detail = match (d.measured_density, d.computed_density) {
                 (Some(m), Some(c)) => format!(
-                    "measured {m:.0} kg/m³ (Ø {} for {:.0} m), computed {c:.0} kg/m³ (Ø {})",
-                    mm(d.measured_diameter, UnitSystem::Si),
-                    d.length,
-                    mm(d.computed_diameter, UnitSystem::Si)
+                    "measured {m:.0} kg/m³ (Ø {} for {}), computed {c:.0} kg/m³ (Ø {})",
+                    mm(d.measured_diameter, units),
+                    web_length(d.length, units),
+                    mm(d.computed_diameter, units)
                 ),
                 _ => format!(
-                    "measured Ø {} for {:.0} m (compression {}), computed Ø {} (compression {})",
-                    mm(d.measured_diameter, UnitSystem::Si),
-                    d.length,
+                    "measured Ø {} for {} (compression {}), computed Ø {} (compression {})",
+                    mm(d.measured_diameter, units),
+                    web_length(d.length, units),
                     pct(d.measured_compression),
-                    mm(d.computed_diameter, UnitSystem::Si),
+                    mm(d.computed_diameter, units),
                     pct(d.computed_compression)
                 ),
             };
@@ -371,23 +403,19 @@ impl Evidence {
         }
         if let Some(h) = &self.hardness {
             if let Some(rho) = h.rank_correlation {
-                push(
-                    "hardness_shape_agreement",
-                    rho,
+                push("hardness_shape_agreement", rho, {
+                    let [soft, model_soft, hard, model_hard] = extremes(h, units);
                     format!(
-                        "softest reading at Ø {}, computed lowest pressure at Ø {}; hardest at Ø {}, computed at Ø {}",
-                        mm(h.softest_diameter, UnitSystem::Si),
-                        mm(h.computed_softest_diameter, UnitSystem::Si),
-                        mm(h.hardest_diameter, UnitSystem::Si),
-                        mm(h.computed_hardest_diameter, UnitSystem::Si)
-                    ),
-                );
+                        "softest reading at {soft}, computed lowest pressure at {model_soft}; \
+                             hardest at {hard}, computed at {model_hard}"
+                    )
+                });
             }
             if let Some(dip) = h.unexplained_dip {
                 let detail = match &h.soft_band {
                     Some(b) => format!(
                         "soft band at Ø {}: readings dip {} of their range, computed pressure {}",
-                        mm(b.diameter, UnitSystem::Si),
+                        mm(b.diameter, units),
                         pct(b.depth),
                         pct(b.computed_depth)
                     ),
@@ -401,14 +429,8 @@ impl Evidence {
                 "lane_hardness_spread",
                 l.spread,
                 format!(
-                    "hard lanes {:?}, soft lanes {:?}{}; the model computes one value across the width",
-                    l.hard_lanes,
-                    l.soft_lanes,
-                    if l.hard_edges {
-                        ", both edges hard"
-                    } else {
-                        ""
-                    }
+                    "{}; the model computes one value across the width",
+                    lane_words(l)
                 ),
             );
         }
@@ -416,10 +438,7 @@ impl Evidence {
             push(
                 "end_line_offset",
                 s.offset.unwrap_or(0.0),
-                format!(
-                    "line on the roll end: {}",
-                    bend_words(&s.observed, UnitSystem::Si)
-                ),
+                format!("line on the roll end: {}", bend_words(&s.observed, units)),
             );
             if let (Some(agrees), Some((a, b))) = (s.agrees, s.observed_fractions) {
                 push(
@@ -429,17 +448,14 @@ impl Evidence {
                         "bends at {:.0}–{:.0} % of the build; computed weakest interface at Ø {} ({:.0} % of the build)",
                         a * 100.0,
                         b * 100.0,
-                        mm(s.weakest_diameter, UnitSystem::Si),
+                        mm(s.weakest_diameter, units),
                         s.weakest_fraction * 100.0
                     ),
                 );
                 push(
                     "end_line_bend_position",
                     0.5 * (a + b),
-                    format!(
-                        "line on the roll end: {}",
-                        bend_words(&s.observed, UnitSystem::Si)
-                    ),
+                    format!("line on the roll end: {}", bend_words(&s.observed, units)),
                 );
             }
         }
@@ -451,9 +467,9 @@ impl Evidence {
                 ratio,
                 format!(
                     "bore closed {} measured, {} computed under {} on the core",
-                    mm(c.measured, UnitSystem::Si),
-                    mm(c.computed.unwrap_or(0.0), UnitSystem::Si),
-                    kpa(c.core_pressure, UnitSystem::Si)
+                    mm(c.measured, units),
+                    mm(c.computed.unwrap_or(0.0), units),
+                    kpa(c.core_pressure, units)
                 ),
             );
         }
@@ -479,6 +495,25 @@ impl Evidence {
             }
         }
         out
+    }
+
+    /// `text` (a reason quoting an indicator's detail, stored in SI as the JSON has it) with
+    /// every evidence detail in it rewritten in `units`; other text is left as it is.
+    pub fn localise(&self, text: &str, units: UnitSystem) -> String {
+        if units == UnitSystem::Si || text.is_empty() {
+            return text.to_string();
+        }
+        let mut pairs: Vec<(String, String)> = self
+            .indicators_in(UnitSystem::Si)
+            .into_iter()
+            .zip(self.indicators_in(units))
+            .map(|(si, local)| (si.detail, local.detail))
+            .collect();
+        // The longest first: one detail can begin with another (density and its deviation).
+        pairs.sort_by_key(|(si, _)| std::cmp::Reverse(si.len()));
+        pairs
+            .iter()
+            .fold(text.to_string(), |out, (si, local)| out.replace(si, local))
     }
 
     /// Plain-words lines, measured beside computed, for the text output and reports (SI).
@@ -529,12 +564,9 @@ impl Evidence {
                     "Hardness along the radius: too few readings for a shape comparison.".into()
                 }
             };
+            let [soft, model_soft, hard, model_hard] = extremes(h, units);
             line.push_str(&format!(
-                " Softest at Ø {} (model: Ø {}), hardest at Ø {} (model: Ø {}).",
-                mm(h.softest_diameter, units),
-                mm(h.computed_softest_diameter, units),
-                mm(h.hardest_diameter, units),
-                mm(h.computed_hardest_diameter, units)
+                " Softest at {soft} (model: {model_soft}), hardest at {hard} (model: {model_hard})."
             ));
             if let Some(b) = &h.soft_band {
                 line.push_str(&format!(
@@ -564,17 +596,11 @@ impl Evidence {
                 )
             } else {
                 format!(
-                    "Hardness across the width: spread {} of the mean; hard lanes {:?}, soft lanes \
-                     {:?}{}. The model cannot compute lanes: hard and soft lanes point to caliper \
-                     variation across the width (gauge bands) or an uneven nip.",
+                    "Hardness across the width: spread {} of the mean; {}. The model cannot \
+                     compute lanes: hard and soft lanes point to caliper variation across the \
+                     width (gauge bands) or an uneven nip.",
                     pct(l.spread),
-                    l.hard_lanes,
-                    l.soft_lanes,
-                    if l.hard_edges {
-                        ", both edges hard"
-                    } else {
-                        ""
-                    }
+                    lane_words(l)
                 )
             });
         }
@@ -703,18 +729,11 @@ impl Evidence {
                 );
             }
             if let Some(rho) = h.rank_correlation {
+                let [soft, model_soft, hard, model_hard] = extremes(h, units);
                 row(
                     "Softest / hardest".into(),
-                    format!(
-                        "Ø {} / Ø {} (rank correlation {rho:.2})",
-                        mm(h.softest_diameter, units),
-                        mm(h.hardest_diameter, units)
-                    ),
-                    format!(
-                        "Ø {} / Ø {}",
-                        mm(h.computed_softest_diameter, units),
-                        mm(h.computed_hardest_diameter, units)
-                    ),
+                    format!("{soft} / {hard} (rank correlation {rho:.2})"),
+                    format!("{model_soft} / {model_hard}"),
                 );
             }
         }

@@ -332,6 +332,11 @@ pub fn build_document(input: &ReportInput) -> Result<ReportDocument, ReportError
                 .iter()
                 .map(|r| ReasonEntry {
                     weight: round_sig(r.weight, 4),
+                    // A measured-evidence reason quotes its measurement in the report's units.
+                    value: match (&input.diagnosis.evidence, &r.value) {
+                        (Some(e), Some(v)) => Some(e.localise(v, units)),
+                        _ => r.value.clone(),
+                    },
                     ..r.clone()
                 })
                 .collect(),

@@ -121,6 +121,10 @@ pub struct SolveOutcome {
     /// range, the triage re-run): `None` when the case has no assumed inputs, or the run
     /// failed. The results screen and exported reports show its lines.
     pub sensitivity: Option<crate::diagnose::sensitivity::Sensitivity>,
+    /// The inverse estimate of the wound-in tension (and stack stiffness) from the case's
+    /// measurements, as `rolltriage compare` computes it; `None` when nothing was measured or
+    /// the solve was of a changed case (what-if). An error is kept as its message.
+    pub estimate: Option<Result<crate::evidence::InverseEstimate, String>>,
 }
 
 #[derive(Debug, Clone, PartialEq)]
@@ -209,13 +213,56 @@ pub fn run_pipeline(
             .map(|i| i.label.clone())
             .collect()
     });
+    // The inverse estimate of the case as written (not of a what-if change), after the rest
+    // so the ranking shows first.
+    let estimate = match (&triage.resolved.measurements, resolved) {
+        (Some(measurements), None) => {
+            inverse_estimate(measurements, &triage.resolved, &options, progress)?
+        }
+        _ => None,
+    };
     Ok(SolveOutcome {
         resolved: triage.resolved,
         profile: triage.profile,
         diagnosis,
         movers,
         sensitivity,
+        estimate,
     })
+}
+
+/// `evidence::estimate` with the default fit options (tension and, where the data allow, the
+/// stack stiffness), as `rolltriage compare` runs it; each of its re-solves can be cancelled.
+fn inverse_estimate(
+    measurements: &crate::evidence::Measurements,
+    resolved: &ResolvedCase,
+    options: &DiagnoseOptions,
+    progress: crate::diagnose::pipeline::Progress<'_>,
+) -> Result<Option<Result<crate::evidence::InverseEstimate, String>>, JobError> {
+    use crate::model::{ModelError, WindingProblem};
+    let progress = std::cell::RefCell::new(progress);
+    let solve = |problem: &WindingProblem| {
+        crate::model::solve_with_progress(problem, &mut |_| (progress.borrow_mut())(1.0))
+    };
+    let problem = resolved.problem(options.solver);
+    let result = crate::evidence::estimate(
+        measurements,
+        &problem,
+        &solve,
+        &crate::evidence::FitOptions::default(),
+    );
+    Ok(Some(match result {
+        Err(crate::evidence::EvidenceError::Model(ModelError::Cancelled)) => {
+            return Err(JobError::Solve(Arc::new(DiagnoseError::Model(
+                ModelError::Cancelled,
+            ))));
+        }
+        Err(e) => Err(e.to_string()),
+        Ok(estimate) => match ensure_finite("the inverse estimate", &estimate) {
+            Ok(()) => Ok(estimate),
+            Err(e) => Err(JobError::NotFinite(e).to_string()),
+        },
+    }))
 }
 
 /// Design a taper for the request's case with the default limits.

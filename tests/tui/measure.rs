@@ -248,10 +248,138 @@ fn measured_against_computed_draws_the_readings_on_the_profile() {
         "Roll size:",
         "wound density measured/computed",
         "The set: 5 of 5 rolls bad (all of them: points to the settings)",
+        "What the roll says about its winding",
+        "Wound-in tension: the settings say 482 N/m at the core, the roll says",
     ] {
         assert!(screen.contains(said), "{said} missing:\n{screen}");
     }
     for (w, h) in SIZES {
         insta::assert_snapshot!(format!("measure_compare_{w}x{h}"), draw(&app, w, h));
+    }
+}
+
+/// The popup's inverse estimate is the one `rolltriage compare` prints: the same function
+/// (`evidence::estimate`, default fit options) on the same problem gives the same lines.
+#[test]
+fn the_inverse_estimate_is_the_one_compare_prints() {
+    let mut app = opened(&case_path());
+    app.session.solve_again();
+    solve(&mut app);
+    let outcome = app.session.current_outcome().unwrap();
+    let shown = outcome.estimate.clone().unwrap().unwrap();
+    let resolved = Case::load(&case_path()).unwrap().resolve().unwrap();
+    let measurements = resolved.measurements.clone().unwrap();
+    let problem = resolved.problem(Default::default());
+    let cli = rolltriage::evidence::estimate(
+        &measurements,
+        &problem,
+        &rolltriage::model::solve,
+        &rolltriage::evidence::FitOptions::default(),
+    )
+    .unwrap();
+    assert_eq!(shown, cli);
+    let scale = shown.tension_scale.unwrap();
+    // The demo roll is larger than the model predicts for its length: less wound-in tension
+    // than the settings say (docs/evidence.md), a scale below 1.
+    assert!(scale.value < 1.0 && scale.standard_error > 0.0, "{scale:?}");
+
+    // In US units the page says it in pli, inches and feet (Ctrl-U switches the session).
+    app.session.units = rolltriage::units::UnitSystem::Us;
+    app.handle_key(Key::F(9));
+    app.handle_key(Key::Char('v'));
+    let screen = draw(&app, 120, 40);
+    for said in ["pli at the core", "35105 ft wound to Ø 39.4 in"] {
+        assert!(screen.contains(said), "{said} missing:\n{screen}");
+    }
+    assert!(!screen.contains(" mm"), "SI left in US units:\n{screen}");
+    for (w, h) in SIZES {
+        insta::assert_snapshot!(format!("measure_compare_us_{w}x{h}"), draw(&app, w, h));
+    }
+}
+
+#[test]
+fn every_measurement_field_of_the_registry_has_a_row() {
+    use rolltriage::case::registry::FIELDS;
+    let offered: Vec<&str> = ROWS.iter().flat_map(|r| r.2.paths()).copied().collect();
+    for spec in FIELDS
+        .iter()
+        .filter(|f| f.path.starts_with("measurements."))
+    {
+        assert!(
+            offered.contains(&spec.path),
+            "{} ({}) has no row in the F9 popup",
+            spec.path,
+            spec.label
+        );
+    }
+    // And no row claims a field the case file does not have.
+    for path in offered {
+        assert!(
+            FIELDS.iter().any(|f| f.path == path),
+            "{path} is not a registry field"
+        );
+    }
+}
+
+#[test]
+fn uncertainty_calibration_and_parent_rolls_are_edited_and_resolve() {
+    let mut app = opened(&case_path());
+    app.handle_key(Key::F(9));
+    let draw_before = draw(&app, 120, 40);
+    assert!(draw_before.contains("0.5 %"), "{draw_before}");
+    enter(&mut app, Field::AmountUncertainty, "1 %");
+    enter(&mut app, Field::DiameterUncertainty, "2 mm");
+    enter(&mut app, Field::CaliperUncertainty, "3 %");
+    enter(&mut app, Field::Calibration, "40:50 kPa, 60:400 kPa");
+    enter(&mut app, Field::ParentRolls, "8");
+    enter(&mut app, Field::BadParentRolls, "3");
+    let p = popup(&app);
+    assert_eq!(p.error, None);
+    assert_eq!(p.pending, None);
+    let m = app.session.case.measurements.clone().unwrap();
+    let u = m.uncertainty.unwrap();
+    let text = |t: &str| Some(rolltriage::case::QuantityText::Text(t.into()));
+    assert_eq!(
+        (u.amount, u.diameter, u.caliper),
+        (text("1 %"), text("2 mm"), text("3 %"))
+    );
+    let h = m.hardness.unwrap();
+    assert_eq!(h.calibration.len(), 2);
+    assert_eq!(h.calibration[1].reading, 60.0);
+    let set = m.set.unwrap();
+    assert_eq!((set.parent_rolls, set.bad_parent_rolls), (Some(8), Some(3)));
+    // The resolved section carries them in SI (the same resolution as the case file).
+    let resolved = app.session.case.resolve().unwrap().measurements.unwrap();
+    let size = resolved.size.unwrap();
+    assert!((size.uncertainty.diameter - 2e-3).abs() < 1e-12);
+    assert!((size.uncertainty.caliper - 0.03).abs() < 1e-12);
+    let cal = &resolved.hardness.unwrap().calibration;
+    assert!((cal[1].pressure - 400e3).abs() < 1e-6);
+
+    // Refused with the reason: a pressure without its unit, a count that is not one.
+    enter(&mut app, Field::Calibration, "40:50");
+    assert!(
+        popup(&app)
+            .error
+            .as_deref()
+            .is_some_and(|e| e.contains("calibration"))
+    );
+    app.handle_key(Key::Esc);
+    enter(&mut app, Field::ParentRolls, "many");
+    assert!(popup(&app).error.is_some());
+    app.handle_key(Key::Esc);
+    // Cleared rows leave no empty groups in the case file.
+    for field in [
+        Field::AmountUncertainty,
+        Field::DiameterUncertainty,
+        Field::CaliperUncertainty,
+    ] {
+        select(&mut app, field);
+        app.handle_key(Key::Delete);
+    }
+    let m = app.session.case.measurements.clone().unwrap();
+    assert!(m.uncertainty.is_none());
+    for (w, h) in SIZES {
+        insta::assert_snapshot!(format!("measure_new_rows_{w}x{h}"), draw(&app, w, h));
     }
 }

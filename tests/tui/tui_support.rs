@@ -318,6 +318,7 @@ pub fn outcome(scale: f64) -> SolveOutcome {
         diagnosis: Ok(diagnosis(scale)),
         movers: Vec::new(),
         sensitivity: None,
+        estimate: None,
     }
 }
 

@@ -244,7 +244,7 @@ impl HistoryPopup {
                         c.title,
                     );
                     lines.push(Line::from(Span::styled(
-                        super::story::clip(&row, width),
+                        super::edit_field::clip(&row, width),
                         style,
                     )));
                     lines.push(Line::from(Span::styled(

@@ -1,442 +1,25 @@
 //! Measurements on the bad roll (F9): the case's `measurements` section shown and edited row by
-//! row (size, hardness along the radius and across the width, the line on the roll end, the
-//! core bore, the set), and — on its second page (`v`) — the measured values against the
-//! computed ones ([`super::measure_view`]). Each typed value is checked on Enter (a refused one
-//! stays in the editor with the reason). The rows edit a draft of the section; the draft goes
-//! into the case as soon as the whole section resolves as the case file would (a diameter
-//! waits for its length, a band for its second diameter), and the case is then solved again on
-//! the worker thread, through the same triage pipeline as `diagnose --measure`.
+//! row (the rows, one per field the case file accepts, are in [`super::measure_rows`]), and —
+//! on its second page (`v`) — the measured values against the computed ones and the inverse
+//! estimate of the wound-in tension ([`super::measure_view`]). Each typed value is checked on
+//! Enter (a refused one stays in the editor with the reason). The rows edit a draft of the
+//! section; the draft goes into the case as soon as the whole section resolves as the case file
+//! would (a diameter waits for its length, a band for its second diameter), and the case is
+//! then solved again on the worker thread, through the same triage pipeline as
+//! `diagnose --measure`.
 
 use ratatui::buffer::Buffer;
 use ratatui::layout::Rect;
 use ratatui::text::{Line, Span};
-use ratatui::widgets::{Block, Clear, Paragraph, Widget, Wrap};
 
-use crate::case::QuantityText;
-use crate::case::measurements::{
-    BendInput, EndLineInput, HardnessInput, LanesInput, MeasurementsInput, ReadingInput, SetInput,
-};
-use crate::evidence::{BendDirection, ParentPosition};
+use crate::case::measurements::MeasurementsInput;
 use crate::tui::component::{Action, Binding, Component, Handled};
 use crate::tui::event::Key;
 use crate::tui::session::Session;
 use crate::tui::theme::Theme;
-use crate::units::{QuantityKind, parse_quantity};
 
-use super::story::clip;
-
-/// One editable row.
-#[derive(Debug, Clone, Copy, PartialEq, Eq)]
-pub enum Field {
-    Diameter,
-    Length,
-    Weight,
-    BasisWeight,
-    Width,
-    Hardness,
-    HardnessScale,
-    Lanes,
-    LanesScale,
-    Bend,
-    BandFrom,
-    BandTo,
-    Direction,
-    Offset,
-    CoreBore,
-    Rolls,
-    Bad,
-    Positions,
-    ParentRoll,
-    InParent,
-}
-
-/// The rows in reading order: (section heading or none, label, field).
-pub const ROWS: &[(Option<&str>, &str, Field)] = &[
-    (Some("Size of the roll"), "Diameter", Field::Diameter),
-    (None, "Wound length", Field::Length),
-    (None, "or net weight", Field::Weight),
-    (None, "Basis weight", Field::BasisWeight),
-    (None, "Roll width", Field::Width),
-    (
-        Some("Hardness along the radius"),
-        "Readings",
-        Field::Hardness,
-    ),
-    (None, "Tester", Field::HardnessScale),
-    (Some("Hardness across the width"), "Lanes", Field::Lanes),
-    (None, "Tester", Field::LanesScale),
-    (Some("Line on the roll end"), "Bends", Field::Bend),
-    (None, "Band from Ø", Field::BandFrom),
-    (None, "Band to Ø", Field::BandTo),
-    (None, "Inner part turned", Field::Direction),
-    (None, "Largest offset", Field::Offset),
-    (Some("Core"), "Bore closed by", Field::CoreBore),
-    (Some("The set"), "Rolls in the set", Field::Rolls),
-    (None, "Bad rolls", Field::Bad),
-    (None, "Bad positions", Field::Positions),
-    (None, "Parent roll", Field::ParentRoll),
-    (None, "Place in parent", Field::InParent),
-];
-
-const SCALES: [&str; 3] = ["", "higher is harder", "lower is harder"];
-const BENDS: [&str; 5] = ["", "straight", "near the core", "in a band", "throughout"];
-const DIRECTIONS: [&str; 3] = ["", "with the winding", "against the winding"];
-const PLACES: [&str; 4] = ["", "outside", "middle", "near the core"];
-
-impl Field {
-    /// The fixed word list of a choice row (changed with ←/→ or Enter).
-    pub fn choices(self) -> Option<&'static [&'static str]> {
-        match self {
-            Field::HardnessScale | Field::LanesScale => Some(&SCALES),
-            Field::Bend => Some(&BENDS),
-            Field::Direction => Some(&DIRECTIONS),
-            Field::InParent => Some(&PLACES),
-            _ => None,
-        }
-    }
-
-    /// What the row accepts, shown under the list.
-    pub fn hint(self) -> &'static str {
-        match self {
-            Field::Diameter => "outside diameter with its unit, e.g. 1012 mm or 39.8 in",
-            Field::Length => "length counter, e.g. 10700 m or 35000 ft (or give the weight)",
-            Field::Weight => "net web weight, core off, e.g. 520 kg or 1150 lb",
-            Field::BasisWeight => "with the weight: e.g. 45 g/m2",
-            Field::Width => "with the weight, when the case gives no web width: e.g. 1.6 m",
-            Field::Hardness => {
-                "DIAMETER:READING pairs in your tester's scale, e.g. 300 mm:41, 600 mm:48, 900 mm:52"
-            }
-            Field::Lanes => "one reading per lane, lane 1 (reference edge) first, e.g. 52, 49, 51",
-            Field::HardnessScale | Field::LanesScale => {
-                "which way your tester reads (blank: higher is harder)"
-            }
-            Field::Bend => "where the straight line drawn on the roll end bends",
-            Field::BandFrom | Field::BandTo => "for a band: its diameters, e.g. 500 mm",
-            Field::Direction => "which way the inner part moved against the outer part",
-            Field::Offset => "largest sideways offset of the line, e.g. 12 mm",
-            Field::CoreBore => "how much the core's inside diameter closed, e.g. 0.8 mm",
-            Field::Rolls | Field::Bad => "a whole number",
-            Field::Positions => {
-                "slit positions of the bad rolls (1 and the last are edges), e.g. 1, 5"
-            }
-            Field::ParentRoll => "its name or number",
-            Field::InParent => "where in the parent roll the set was slit from",
-        }
-    }
-}
-
-fn quantity_text(q: &Option<QuantityText>) -> String {
-    match q {
-        None => String::new(),
-        Some(QuantityText::Text(t)) => t.clone(),
-        Some(QuantityText::Number(n)) => n.to_string(),
-    }
-}
-
-fn scale_word(higher_is_harder: Option<bool>) -> &'static str {
-    match higher_is_harder {
-        None => "",
-        Some(true) => SCALES[1],
-        Some(false) => SCALES[2],
-    }
-}
-
-fn join<T: ToString>(items: impl Iterator<Item = T>) -> String {
-    items.map(|x| x.to_string()).collect::<Vec<_>>().join(", ")
-}
-
-/// The row's value as it shows (and as the editor starts).
-pub fn value(m: &MeasurementsInput, field: Field) -> String {
-    let end = m.end_line.as_ref();
-    let set = m.set.as_ref();
-    match field {
-        Field::Diameter => quantity_text(&m.diameter),
-        Field::Length => quantity_text(&m.length),
-        Field::Weight => quantity_text(&m.weight),
-        Field::BasisWeight => quantity_text(&m.basis_weight),
-        Field::Width => quantity_text(&m.width),
-        Field::Hardness => m.hardness.as_ref().map_or_else(String::new, |h| {
-            join(
-                h.readings
-                    .iter()
-                    .map(|r| format!("{}:{}", quantity_text(&Some(r.diameter.clone())), r.value)),
-            )
-        }),
-        Field::HardnessScale => {
-            scale_word(m.hardness.as_ref().and_then(|h| h.higher_is_harder)).to_string()
-        }
-        Field::Lanes => m
-            .lanes
-            .as_ref()
-            .map_or_else(String::new, |l| join(l.readings.iter())),
-        Field::LanesScale => {
-            scale_word(m.lanes.as_ref().and_then(|l| l.higher_is_harder)).to_string()
-        }
-        Field::Bend => match end.map(|e| e.bend) {
-            None => "",
-            Some(BendInput::Straight) => BENDS[1],
-            Some(BendInput::NearCore) => BENDS[2],
-            Some(BendInput::Band) => BENDS[3],
-            Some(BendInput::Throughout) => BENDS[4],
-        }
-        .to_string(),
-        Field::BandFrom => end.map_or_else(String::new, |e| quantity_text(&e.from_diameter)),
-        Field::BandTo => end.map_or_else(String::new, |e| quantity_text(&e.to_diameter)),
-        Field::Direction => match end.and_then(|e| e.direction) {
-            None => "",
-            Some(BendDirection::WithWinding) => DIRECTIONS[1],
-            Some(BendDirection::AgainstWinding) => DIRECTIONS[2],
-        }
-        .to_string(),
-        Field::Offset => end.map_or_else(String::new, |e| quantity_text(&e.offset)),
-        Field::CoreBore => quantity_text(&m.core_bore_reduction),
-        Field::Rolls => set.map_or_else(String::new, |s| s.rolls.to_string()),
-        Field::Bad => set.map_or_else(String::new, |s| s.bad.to_string()),
-        Field::Positions => set.map_or_else(String::new, |s| join(s.bad_positions.iter())),
-        Field::ParentRoll => set.and_then(|s| s.parent_roll.clone()).unwrap_or_default(),
-        Field::InParent => match set.and_then(|s| s.position_in_parent) {
-            None => "",
-            Some(ParentPosition::Outside) => PLACES[1],
-            Some(ParentPosition::Middle) => PLACES[2],
-            Some(ParentPosition::NearCore) => PLACES[3],
-        }
-        .to_string(),
-    }
-}
-
-/// A quantity typed into `field`: checked for its kind of unit and sign, kept as typed.
-fn quantity(
-    label: &str,
-    text: &str,
-    kind: QuantityKind,
-    zero_ok: bool,
-) -> Result<Option<QuantityText>, String> {
-    let text = text.trim();
-    if text.is_empty() {
-        return Ok(None);
-    }
-    let v = parse_quantity(label, text, kind).map_err(|e| e.to_string())?;
-    if !(v > 0.0 || (zero_ok && v == 0.0)) {
-        return Err(format!(
-            "{label} = {text}: accepted {}",
-            if zero_ok {
-                "zero or more"
-            } else {
-                "more than zero"
-            }
-        ));
-    }
-    Ok(Some(QuantityText::Text(text.to_string())))
-}
-
-fn number(label: &str, text: &str) -> Result<f64, String> {
-    let t = text.trim();
-    t.parse::<f64>()
-        .ok()
-        .filter(|v| v.is_finite())
-        .ok_or_else(|| format!("{label}: \"{t}\" is not a number"))
-}
-
-fn count(label: &str, text: &str) -> Result<u32, String> {
-    let t = text.trim();
-    t.parse::<u32>()
-        .map_err(|_| format!("{label}: \"{t}\" is not a whole number (0 or more)"))
-}
-
-fn items(text: &str) -> impl Iterator<Item = &str> {
-    text.split([',', ';'])
-        .map(str::trim)
-        .filter(|s| !s.is_empty())
-}
-
-fn readings(text: &str) -> Result<Vec<ReadingInput>, String> {
-    items(text)
-        .map(|item| {
-            let (d, r) = item.rsplit_once(':').ok_or_else(|| {
-                format!("hardness: \"{item}\" is not DIAMETER:READING, e.g. 300 mm:41")
-            })?;
-            let diameter = quantity("hardness diameter", d, QuantityKind::Length, false)?
-                .ok_or_else(|| format!("hardness: \"{item}\" has no diameter"))?;
-            Ok(ReadingInput {
-                diameter,
-                value: number("hardness reading", r)?,
-            })
-        })
-        .collect()
-}
-
-fn set_mut(m: &mut MeasurementsInput) -> &mut SetInput {
-    m.set.get_or_insert_with(|| SetInput {
-        rolls: 0,
-        bad: 0,
-        bad_positions: Vec::new(),
-        parent_roll: None,
-        position_in_parent: None,
-        parent_rolls: None,
-        bad_parent_rolls: None,
-    })
-}
-
-fn end_mut(m: &mut MeasurementsInput) -> &mut EndLineInput {
-    m.end_line.get_or_insert(EndLineInput {
-        bend: BendInput::Straight,
-        from_diameter: None,
-        to_diameter: None,
-        direction: None,
-        offset: None,
-    })
-}
-
-fn pick<T: Copy>(text: &str, words: &[&str], values: &[T]) -> Result<Option<T>, String> {
-    let t = text.trim();
-    if t.is_empty() {
-        return Ok(None);
-    }
-    words
-        .iter()
-        .skip(1)
-        .position(|w| *w == t)
-        .map(|i| Some(values[i]))
-        .ok_or_else(|| format!("\"{t}\": accepted {}", words[1..].join(", ")))
-}
-
-/// Put `text` into `field` of the draft, or say why it is refused. Emptied groups disappear
-/// from the section, so clearing every row leaves no `measurements:` in the case file.
-pub fn set(m: &mut MeasurementsInput, field: Field, text: &str) -> Result<(), String> {
-    use QuantityKind as K;
-    let blank = text.trim().is_empty();
-    match field {
-        Field::Diameter => m.diameter = quantity("diameter", text, K::Length, false)?,
-        Field::Length => m.length = quantity("wound length", text, K::Length, false)?,
-        Field::Weight => m.weight = quantity("weight", text, K::Mass, false)?,
-        Field::BasisWeight => {
-            m.basis_weight = quantity("basis weight", text, K::BasisWeight, false)?
-        }
-        Field::Width => m.width = quantity("roll width", text, K::Length, false)?,
-        Field::Hardness => {
-            let r = readings(text)?;
-            m.hardness
-                .get_or_insert_with(HardnessInput::default)
-                .readings = r;
-        }
-        Field::HardnessScale => {
-            let v = pick(text, &SCALES, &[true, false])?;
-            m.hardness
-                .get_or_insert_with(HardnessInput::default)
-                .higher_is_harder = v;
-        }
-        Field::Lanes => {
-            let r = items(text)
-                .map(|x| number("lane reading", x))
-                .collect::<Result<Vec<_>, _>>()?;
-            m.lanes.get_or_insert_with(LanesInput::default).readings = r;
-        }
-        Field::LanesScale => {
-            let v = pick(text, &SCALES, &[true, false])?;
-            m.lanes
-                .get_or_insert_with(LanesInput::default)
-                .higher_is_harder = v;
-        }
-        Field::Bend => {
-            use BendInput as B;
-            match pick(
-                text,
-                &BENDS,
-                &[B::Straight, B::NearCore, B::Band, B::Throughout],
-            )? {
-                Some(b) => end_mut(m).bend = b,
-                None => m.end_line = None,
-            }
-        }
-        Field::BandFrom | Field::BandTo | Field::Offset | Field::Direction if blank => {
-            if let Some(e) = m.end_line.as_mut() {
-                match field {
-                    Field::BandFrom => e.from_diameter = None,
-                    Field::BandTo => e.to_diameter = None,
-                    Field::Offset => e.offset = None,
-                    _ => e.direction = None,
-                }
-            }
-        }
-        Field::BandFrom | Field::BandTo | Field::Offset | Field::Direction
-            if m.end_line.is_none() =>
-        {
-            return Err("say first where the line bends (the row above)".into());
-        }
-        Field::BandFrom => {
-            end_mut(m).from_diameter = quantity("band from", text, K::Length, false)?
-        }
-        Field::BandTo => end_mut(m).to_diameter = quantity("band to", text, K::Length, false)?,
-        Field::Offset => end_mut(m).offset = quantity("offset", text, K::Length, true)?,
-        Field::Direction => {
-            let v = pick(
-                text,
-                &DIRECTIONS,
-                &[BendDirection::WithWinding, BendDirection::AgainstWinding],
-            )?;
-            end_mut(m).direction = v;
-        }
-        Field::CoreBore => {
-            m.core_bore_reduction = quantity("core bore closing", text, K::Length, true)?
-        }
-        Field::Rolls if blank => m.set = None,
-        Field::Rolls => {
-            let n = count("rolls in the set", text)?;
-            if n == 0 {
-                return Err("rolls in the set: accepted 1 or more".into());
-            }
-            set_mut(m).rolls = n;
-        }
-        Field::Bad | Field::Positions | Field::ParentRoll | Field::InParent
-            if m.set.is_none() && !blank =>
-        {
-            return Err("give the number of rolls in the set first".into());
-        }
-        Field::Bad => {
-            if let Some(s) = m.set.as_mut() {
-                s.bad = if blank { 0 } else { count("bad rolls", text)? };
-            }
-        }
-        Field::Positions => {
-            let p = items(text)
-                .map(|x| count("bad position", x))
-                .collect::<Result<Vec<_>, _>>()?;
-            if let Some(s) = m.set.as_mut() {
-                s.bad_positions = p;
-            }
-        }
-        Field::ParentRoll => {
-            if let Some(s) = m.set.as_mut() {
-                s.parent_roll = (!blank).then(|| text.trim().to_string());
-            }
-        }
-        Field::InParent => {
-            use ParentPosition as P;
-            let v = pick(text, &PLACES, &[P::Outside, P::Middle, P::NearCore])?;
-            if let Some(s) = m.set.as_mut() {
-                s.position_in_parent = v;
-            }
-        }
-    }
-    tidy(m);
-    Ok(())
-}
-
-/// Drop groups left empty by clearing.
-fn tidy(m: &mut MeasurementsInput) {
-    if m.hardness
-        .as_ref()
-        .is_some_and(|h| h.readings.is_empty() && h.higher_is_harder.is_none())
-    {
-        m.hardness = None;
-    }
-    if m.lanes
-        .as_ref()
-        .is_some_and(|l| l.readings.is_empty() && l.higher_is_harder.is_none())
-    {
-        m.lanes = None;
-    }
-}
+use super::edit_field::{self, Typed};
+pub use super::measure_rows::{Field, ROWS, set, value};
 
 /// Which page the popup shows.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
@@ -561,21 +144,16 @@ impl MeasurePopup {
         let Some(typed) = &mut self.editing else {
             return;
         };
-        match key {
-            Key::Char(c) => typed.push(c),
-            Key::Backspace => {
-                typed.pop();
-            }
-            Key::Ctrl('u') => typed.clear(),
-            Key::Enter => {
+        match edit_field::edit(typed, key) {
+            Typed::Enter => {
                 let typed = typed.clone();
                 self.commit(ctx, field, typed);
             }
-            Key::Esc => {
+            Typed::Cancel => {
                 self.editing = None;
                 self.error = None;
             }
-            _ => {}
+            Typed::Editing => {}
         }
     }
 }
@@ -605,12 +183,7 @@ impl Component for MeasurePopup {
             (Page::Compare, Key::PageUp) => self.scroll = self.scroll.saturating_sub(10),
             (Page::Compare, Key::PageDown) => self.scroll = self.scroll.saturating_add(10),
             (Page::Compare, _) => {}
-            (Page::Edit, Key::Up) => self.selected = self.selected.saturating_sub(1),
-            (Page::Edit, Key::Down) => self.selected = (self.selected + 1).min(last),
-            (Page::Edit, Key::PageUp) => self.selected = self.selected.saturating_sub(10),
-            (Page::Edit, Key::PageDown) => self.selected = (self.selected + 10).min(last),
-            (Page::Edit, Key::Home) => self.selected = 0,
-            (Page::Edit, Key::End) => self.selected = last,
+            (Page::Edit, _) if edit_field::move_selection(&mut self.selected, last, key) => {}
             (Page::Edit, Key::Left | Key::Right) if field.choices().is_some() => {
                 self.error = None;
                 self.step(ctx, field, key == Key::Right);
@@ -647,41 +220,22 @@ impl Component for MeasurePopup {
     }
 
     fn render(&self, ctx: &Session, theme: Theme, area: Rect, buf: &mut Buffer) {
-        let rect = Rect {
-            height: area.height.saturating_sub(2),
-            ..area
-        };
-        Clear.render(rect, buf);
         let title = match self.page {
             Page::Edit => " Measured on the roll (v: measured against computed, Esc closes) ",
             Page::Compare => " Measured against computed (v: the measurements, Esc closes) ",
         };
-        let block = Block::bordered().title(title);
-        let inner = block.inner(rect);
-        block.render(rect, buf);
-        if inner.height < 3 || inner.width < 20 {
+        let Some(frame) = edit_field::frame(title, (18, 22), area, buf) else {
             return;
-        }
+        };
         match self.page {
-            Page::Edit => self.render_rows(theme, inner, buf),
-            Page::Compare => super::measure_view::render(ctx, self.scroll, theme, inner, buf),
+            Page::Edit => self.render_rows(theme, &frame, buf),
+            Page::Compare => super::measure_view::render(ctx, self.scroll, theme, frame.inner, buf),
         }
     }
 }
 
 impl MeasurePopup {
-    fn render_rows(&self, theme: Theme, inner: Rect, buf: &mut Buffer) {
-        let detail_height = 4u16.min(inner.height / 3);
-        let list = Rect {
-            height: inner.height - detail_height,
-            ..inner
-        };
-        let detail = Rect {
-            y: inner.y + list.height,
-            height: detail_height,
-            ..inner
-        };
-        let label_width: usize = if inner.width >= 100 { 22 } else { 18 };
+    fn render_rows(&self, theme: Theme, frame: &edit_field::Frame, buf: &mut Buffer) {
         let mut lines = Vec::new();
         let mut selected_line = 0;
         for (i, (heading, label, field)) in ROWS.iter().enumerate() {
@@ -703,23 +257,10 @@ impl MeasurePopup {
                     "—".into()
                 };
             }
-            let room = usize::from(inner.width).saturating_sub(label_width + 2);
-            let style = if is_selected {
-                theme.selected()
-            } else {
-                theme.plain()
-            };
-            lines.push(Line::from(vec![
-                Span::styled(format!(" {label:<label_width$} "), theme.key()),
-                Span::styled(clip(&shown, room), style),
-            ]));
+            lines.push(frame.row(label, &shown, is_selected, theme));
         }
-        let first = (selected_line + 2).saturating_sub(usize::from(list.height));
-        Paragraph::new(lines)
-            .scroll((first as u16, 0))
-            .render(list, buf);
-        let rule = "─".repeat(usize::from(detail.width));
-        let mut about = vec![Line::from(Span::styled(rule, theme.dim()))];
+        frame.render_list(lines, selected_line, buf);
+        let mut about = vec![frame.rule(theme)];
         if let Some(error) = &self.error {
             about.push(Line::from(Span::styled(
                 format!("Not accepted: {error}"),
@@ -736,8 +277,6 @@ impl MeasurePopup {
                 theme.dim(),
             )));
         }
-        Paragraph::new(about)
-            .wrap(Wrap { trim: false })
-            .render(detail, buf);
+        frame.render_detail(about, buf);
     }
 }

@@ -2,8 +2,12 @@
 //! along the radius, scaled as the evidence module scales them (softest reading 0, hardest 1;
 //! the computed pressure by the same rule over the readings' diameters), drawn over the computed
 //! pressure profile against the diameter; under it every comparison with its verdict in plain
-//! words, the lines `rolltriage compare` prints ([`crate::evidence::Evidence::lines`]). It reads
-//! the latest solve; nothing is computed on the UI thread.
+//! words, the lines `rolltriage compare` prints ([`crate::evidence::Evidence::lines_in`]), and
+//! what the roll says about its winding: the inverse estimate of the wound-in tension ("the
+//! settings say X, the roll says Y") with the fit's quality and uncertainty, or why it cannot be
+//! estimated ([`crate::evidence::InverseEstimate::lines_in`], computed by the worker with the
+//! solve). Diameters, lengths and pressures follow the session's units (Ctrl-U). It reads the
+//! latest solve; nothing is computed on the UI thread.
 
 use ratatui::buffer::Buffer;
 use ratatui::layout::Rect;
@@ -14,6 +18,7 @@ use crate::evidence::HardnessComparison;
 use crate::model::Profile;
 use crate::tui::session::Session;
 use crate::tui::theme::Theme;
+use crate::units::{UnitSystem, compact_length};
 
 /// Marks on the plot (readable without colour).
 pub const COMPUTED_MARK: char = '·';
@@ -86,8 +91,11 @@ pub fn plot_rows(
     Some(grid.into_iter().map(|r| r.into_iter().collect()).collect())
 }
 
-fn mm(metres: f64) -> String {
-    format!("Ø {:.0} mm", metres * 1e3)
+fn diameter(metres: f64, units: UnitSystem) -> String {
+    match units {
+        UnitSystem::Si => format!("Ø {:.0} mm", metres * 1e3),
+        UnitSystem::Us => format!("Ø {}", compact_length(metres, units)),
+    }
 }
 
 /// Draw the page into `area` (inside the popup's border), scrolled by `scroll` lines.
@@ -167,8 +175,8 @@ pub fn render(ctx: &Session, scroll: u16, theme: Theme, area: Rect, buf: &mut Bu
                 outcome.profile.radius.first().copied().unwrap_or(0.0),
                 outcome.profile.radius.last().copied().unwrap_or(0.0),
             );
-            let left = format!("{:label$}{}", "", mm(2.0 * rc));
-            let right = mm(2.0 * ro);
+            let left = format!("{:label$}{}", "", diameter(2.0 * rc, ctx.units));
+            let right = diameter(2.0 * ro, ctx.units);
             let middle = "diameter →";
             let gap = width.saturating_sub(left.chars().count() + right.chars().count());
             let pad = gap.saturating_sub(middle.chars().count()) / 2;
@@ -194,8 +202,26 @@ pub fn render(ctx: &Session, scroll: u16, theme: Theme, area: Rect, buf: &mut Bu
         "Measured against computed",
         theme.title(),
     )));
-    for text in evidence.lines() {
+    for text in evidence.lines_in(ctx.units) {
         lines.push(Line::from(text));
+    }
+    lines.push(Line::from(""));
+    lines.push(Line::from(Span::styled(
+        "What the roll says about its winding",
+        theme.title(),
+    )));
+    match &outcome.estimate {
+        Some(Ok(estimate)) => {
+            lines.extend(estimate.lines_in(ctx.units).into_iter().map(Line::from));
+        }
+        Some(Err(reason)) => lines.push(Line::from(Span::styled(
+            format!("Not estimated: {reason}"),
+            theme.warn(),
+        ))),
+        None => lines.push(Line::from(Span::styled(
+            "Not estimated for this solve: ^R solves the case as written again.",
+            theme.dim(),
+        ))),
     }
     Paragraph::new(lines)
         .wrap(Wrap { trim: false })

@@ -3,9 +3,11 @@
 
 pub mod calibrate;
 pub mod confirm;
+pub mod edit_field;
 pub mod help;
 pub mod history;
 pub mod measure;
+pub mod measure_rows;
 pub mod measure_view;
 pub mod open;
 pub mod prompt;

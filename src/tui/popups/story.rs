@@ -7,7 +7,6 @@
 use ratatui::buffer::Buffer;
 use ratatui::layout::Rect;
 use ratatui::text::{Line, Span};
-use ratatui::widgets::{Block, Clear, Paragraph, Widget, Wrap};
 
 use crate::case::Case;
 use crate::complaint::{
@@ -17,6 +16,8 @@ use crate::tui::component::{Action, Binding, Component, Handled};
 use crate::tui::event::Key;
 use crate::tui::session::Session;
 use crate::tui::theme::Theme;
+
+use super::edit_field::{self, Typed};
 
 /// A part of a confirmed cause.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
@@ -508,17 +509,6 @@ impl StoryPopup {
     }
 }
 
-/// `text` cut to `width` characters, ending in "…" when cut (the full text shows below).
-pub fn clip(text: &str, width: usize) -> String {
-    if text.chars().count() <= width {
-        text.to_string()
-    } else {
-        let mut cut: String = text.chars().take(width.saturating_sub(1)).collect();
-        cut.push('…');
-        cut
-    }
-}
-
 fn is_choice(field: Field) -> bool {
     field.choices().is_some() || matches!(field, Field::Cause(_, CausePart::Cause))
 }
@@ -532,37 +522,25 @@ impl Component for StoryPopup {
             return Handled::Yes;
         };
         if let Some(typed) = &mut self.editing {
-            match key {
-                Key::Char(c) => typed.push(c),
-                Key::Backspace => {
-                    typed.pop();
-                }
-                Key::Ctrl('u') => typed.clear(),
-                Key::Ctrl('w') => {
-                    let kept = typed.trim_end().rfind(' ').map_or(0, |i| i + 1);
-                    typed.truncate(kept);
-                }
-                Key::Enter => {
+            match edit_field::edit(typed, key) {
+                Typed::Enter => {
                     let typed = typed.clone();
                     self.commit(ctx, field, typed);
                 }
-                Key::Esc => {
+                Typed::Cancel => {
                     self.editing = None;
                     self.error = None;
                 }
-                _ => {}
+                Typed::Editing => {}
             }
             return Handled::Yes;
         }
         let last = StoryPopup::fields(ctx).len().saturating_sub(1);
         self.selected = self.selected.min(last);
+        if edit_field::move_selection(&mut self.selected, last, key) {
+            return Handled::Yes;
+        }
         match key {
-            Key::Up => self.selected = self.selected.saturating_sub(1),
-            Key::Down => self.selected = (self.selected + 1).min(last),
-            Key::PageUp => self.selected = self.selected.saturating_sub(10),
-            Key::PageDown => self.selected = (self.selected + 10).min(last),
-            Key::Home => self.selected = 0,
-            Key::End => self.selected = last,
             Key::Left | Key::Right if is_choice(field) => {
                 self.error = None;
                 self.step(ctx, field, key == Key::Right);
@@ -609,31 +587,15 @@ impl Component for StoryPopup {
     }
 
     fn render(&self, ctx: &Session, theme: Theme, area: Rect, buf: &mut Buffer) {
-        // Over everything but the status and key lines.
-        let rect = Rect {
-            height: area.height.saturating_sub(2),
-            ..area
-        };
-        Clear.render(rect, buf);
-        let block =
-            Block::bordered().title(" Complaint — the case's story (Esc closes, ^S saves) ");
-        let inner = block.inner(rect);
-        block.render(rect, buf);
-        if inner.height < 3 || inner.width < 20 {
-            return;
-        }
         // The list, then the selected field in full (wrapped) and any refusal.
-        let detail_height = 4u16.min(inner.height / 3);
-        let list = Rect {
-            height: inner.height - detail_height,
-            ..inner
+        let Some(frame) = edit_field::frame(
+            " Complaint — the case's story (Esc closes, ^S saves) ",
+            (20, 26),
+            area,
+            buf,
+        ) else {
+            return;
         };
-        let detail = Rect {
-            y: inner.y + list.height,
-            height: detail_height,
-            ..inner
-        };
-        let label_width: usize = if inner.width >= 100 { 26 } else { 20 };
         let selected_field = self.field(ctx);
         let mut lines = Vec::new();
         let mut selected_line = 0;
@@ -657,26 +619,11 @@ impl Component for StoryPopup {
                             _ => "—".into(),
                         };
                     }
-                    let room = usize::from(inner.width).saturating_sub(label_width + 2);
-                    value = clip(&value, room);
-                    let label = format!(" {:<w$} ", r.label, w = label_width);
-                    let style = if is_selected {
-                        theme.selected()
-                    } else {
-                        theme.plain()
-                    };
-                    lines.push(Line::from(vec![
-                        Span::styled(label, theme.key()),
-                        Span::styled(value, style),
-                    ]));
+                    lines.push(frame.row(&r.label, &value, is_selected, theme));
                 }
             }
         }
-        let room = usize::from(list.height);
-        let first = (selected_line + 2).saturating_sub(room);
-        Paragraph::new(lines)
-            .scroll((first as u16, 0))
-            .render(list, buf);
+        frame.render_list(lines, selected_line, buf);
         let mut about = Vec::new();
         if let Some(error) = &self.error {
             about.push(Line::from(Span::styled(
@@ -700,15 +647,12 @@ impl Component for StoryPopup {
                 }
                 _ => "",
             };
-            let rule = "─".repeat(usize::from(detail.width));
-            about.push(Line::from(Span::styled(rule, theme.dim())));
+            about.push(frame.rule(theme));
             if !hint.is_empty() {
                 about.push(Line::from(Span::styled(hint.to_string(), theme.dim())));
             }
             about.push(Line::from(full));
         }
-        Paragraph::new(about)
-            .wrap(Wrap { trim: false })
-            .render(detail, buf);
+        frame.render_detail(about, buf);
     }
 }

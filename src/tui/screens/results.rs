@@ -460,6 +460,11 @@ fn render_causes(
                 }
                 let mut detail = String::new();
                 if let Some(value) = &reason.value {
+                    // Measured evidence quotes the measurement in the session's units.
+                    let value = match &diagnosis.evidence {
+                        Some(e) => e.localise(value, app.units),
+                        None => value.clone(),
+                    };
                     detail.push_str(&format!(" = {value}"));
                 }
                 if let Some(threshold) = &reason.threshold {
