@@ -179,8 +179,6 @@ struct Solver {
     /// outside): Σ σθ·h over its wraps (see the module docs).
     hoop_force: Vec<f64>,
     wound_in: Vec<f64>,
-    /// Negated normalised diagonal of the current solve.
-    diagonal: Vec<f64>,
     /// The increment δσr of the current solve.
     shot: Vec<f64>,
     /// The unscaled homogeneous solution of the current solve (valid from `zero_below` up).
@@ -243,7 +241,6 @@ impl Solver {
             pressure: v(),
             hoop_force: v(),
             wound_in: v(),
-            diagonal: v(),
             shot: v(),
             raw: v(),
             sensitivity: v(),
@@ -284,7 +281,6 @@ impl Solver {
         self.pressure.push(0.0);
         self.hoop_force.push(0.0);
         self.wound_in.push(wound_in);
-        self.diagonal.push(0.0);
         self.shot.push(0.0);
         self.raw.push(0.0);
         self.sensitivity.push(0.0);

@@ -44,7 +44,6 @@ impl Solver {
             &mut self.lower,
             &mut self.beta,
             &mut self.gamma,
-            &mut self.diagonal,
             &mut self.guess,
             &mut self.raw,
             &mut self.sensitivity,
