@@ -22,6 +22,7 @@ impl Solver {
     /// stays in the first-level cache until the chain reads it), specialised per stiffness law
     /// and modulus update so the loops stay tight. The iterated and secant updates also store
     /// each row's modulus sensitivity.
+    #[inline(always)]
     pub(super) fn fill_diagonal(&mut self, from: usize, to: usize, out: &mut [f64]) {
         let et = self.tangential_modulus;
         let pressure = &self.pressure[from..to];
@@ -148,6 +149,19 @@ impl Solver {
                 low + 1
             }
         };
+        #[cfg(target_arch = "x86_64")]
+        if self.wide {
+            // SAFETY: `wide` is set only when the processor reports AVX2 (`Solver::new`).
+            unsafe { self.shoot_rows_avx2(begin, top, scale_from) };
+            return;
+        }
+        self.shoot_rows(begin, top, scale_from);
+    }
+
+    /// The rows `begin..top` of [`Self::shoot`] (the chain below `begin` is in place): build,
+    /// shoot, rescale, then scale the solution to the loads.
+    #[inline(always)]
+    fn shoot_rows(&mut self, begin: usize, top: usize, scale_from: usize) {
         // The rows are built and shot in blocks of CHAIN_BLOCK nodes: a block's diagonal is
         // computed into a small buffer and read back by the chain at once, so the divisions of
         // the stiffness law overlap the serial chain and the diagonal never goes to memory.
@@ -199,6 +213,13 @@ impl Solver {
         for k in 0..self.loads.len() {
             self.shot[first + k] = self.raw[first + k] * self.cumulative[k];
         }
+    }
+
+    /// [`Self::shoot_rows`] compiled for AVX2 (see [`super::wide_vectors`]).
+    #[cfg(target_arch = "x86_64")]
+    #[target_feature(enable = "avx2")]
+    fn shoot_rows_avx2(&mut self, begin: usize, top: usize, scale_from: usize) {
+        self.shoot_rows(begin, top, scale_from);
     }
 
     /// Initial trial increment: the previous increment moved outward with the top (by radius,
