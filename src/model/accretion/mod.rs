@@ -151,6 +151,8 @@ pub(super) fn validate(problem: &WindingProblem) -> Result<(), ModelError> {
 mod increment;
 mod lattice;
 mod stack;
+#[cfg(test)]
+mod tests;
 
 use lattice::{
     batch_at, finest_spacing, lattice_levels, lattice_spacing, window_at, window_layers,
@@ -350,12 +352,25 @@ pub(super) fn run(
     group: usize,
     progress: &mut dyn FnMut(f64) -> bool,
 ) -> Result<Profile, ModelError> {
+    run_on(problem, layers, group, wide_vectors(), progress)
+}
+
+/// [`run`] with the vector loops' build chosen by the caller (`wide`: AVX2, only where the
+/// processor has it); the tests compare the two builds.
+fn run_on(
+    problem: &WindingProblem,
+    layers: usize,
+    group: usize,
+    wide: bool,
+    progress: &mut dyn FnMut(f64) -> bool,
+) -> Result<Profile, ModelError> {
     let h = problem.thickness;
     let rc = problem.core_radius;
     let outer = rc + layers as f64 * h;
     let mut window = if group > 1 { window_layers(problem) } else { 0 };
     let capacity = layers.div_ceil(group) + 2 * window + 2;
     let mut solver = Solver::new(problem, capacity);
+    solver.wide = wide && wide_vectors();
     solver.may_hold = group > 1;
     solver.tolerance = if group > 1 {
         MODULUS_TOLERANCE
