@@ -6,7 +6,14 @@ scipy.linalg.solve_banded) on the same 8,000-layer film roll, measured in one ru
 Usage (from the repository root, after `cargo build --release --example solve_roll`):
     python3 benches/scipy_speed.py [layers]
 Not part of the test suite (lives in benches/, not tests/reference/).
+
+Prints two ratios: wall clock (what an idle machine shows) and processor time (user + system,
+this process for SciPy, the child process for Rust), which stays meaningful on a shared machine
+where wall clock mostly measures the wait for a core. SOLVE_ROLL=PATH runs another build of the
+example binary (e.g. a copy built from an older commit) for a before/after comparison.
 """
+import os
+import resource
 import subprocess
 import sys
 import time
@@ -44,21 +51,27 @@ def scipy_explicit(layers, rc=0.0762, h=23e-6, et=4.5e9, k1=1e4, k2=300.0, wit=1
 
 def main():
     layers = int(sys.argv[1]) if len(sys.argv) > 1 else 8000
-    start = time.perf_counter()
+    start, cpu_start = time.perf_counter(), time.process_time()
     p_scipy = scipy_explicit(layers)
     t_scipy = time.perf_counter() - start
-    binary = ROOT / "target" / "release" / "examples" / "solve_roll"
-    runs = []
+    c_scipy = time.process_time() - cpu_start
+    binary = os.environ.get("SOLVE_ROLL") or ROOT / "target" / "release" / "examples" / "solve_roll"
+    runs, cpu_runs = [], []
     for _ in range(3):
+        before = resource.getrusage(resource.RUSAGE_CHILDREN)
         start = time.perf_counter()
         out = subprocess.run([str(binary), "film", "per_layer", "explicit"], check=True,
                              capture_output=True, text=True).stdout
         runs.append(time.perf_counter() - start)
-    t_rust = min(runs)
+        after = resource.getrusage(resource.RUSAGE_CHILDREN)
+        cpu_runs.append(after.ru_utime - before.ru_utime + after.ru_stime - before.ru_stime)
+    t_rust, c_rust = min(runs), min(cpu_runs)
     p_rust = float(out.split("core pressure ")[1].split(" ")[0])
     print(f"layers {layers}: SciPy {t_scipy:.3f} s (core pressure {p_scipy:.6e} Pa), "
           f"Rust {t_rust:.3f} s incl. process start (core pressure {p_rust:.6e} Pa), "
           f"ratio {t_scipy / t_rust:.1f}x, relative difference {abs(p_rust - p_scipy) / p_scipy:.2e}")
+    print(f"processor time: SciPy {c_scipy:.3f} s, Rust {c_rust:.3f} s incl. process start, "
+          f"ratio {c_scipy / c_rust:.1f}x")
 
 
 if __name__ == "__main__":

@@ -2,7 +2,11 @@
 //! time and peak memory (`/usr/bin/time -v`) outside the test suite.
 //!
 //! Usage: cargo run --release --example solve_roll -- film|paper|big [per_layer|grouped:K|auto]
-//!        [explicit|iterated|secant]
+//!        [explicit|iterated|secant] [REPEAT]
+//!
+//! With REPEAT the solve runs that many more times and the processor time of each run is
+//! printed (minimum and median, from /proc/thread-self/schedstat on Linux): on the shared build
+//! machine wall clock mostly measures the wait for a core.
 
 use std::time::Instant;
 
@@ -80,4 +84,32 @@ fn main() {
         profile.solver.increments,
         profile.solver.solves
     );
+    let repeat: usize = args.get(4).and_then(|s| s.parse().ok()).unwrap_or(0);
+    let mut times = Vec::with_capacity(repeat);
+    for _ in 0..repeat {
+        let (Some(before), Ok(_), Some(after)) =
+            (thread_cpu_ns(), solve(&problem), thread_cpu_ns())
+        else {
+            eprintln!(
+                "error: no processor time (Linux /proc/thread-self/schedstat) or solve failed"
+            );
+            std::process::exit(1);
+        };
+        times.push((after - before) as f64 * 1e-6);
+    }
+    if !times.is_empty() {
+        times.sort_by(f64::total_cmp);
+        println!(
+            "processor time per solve over {} runs: min {:.2} ms, median {:.2} ms",
+            times.len(),
+            times[0],
+            times[times.len() / 2]
+        );
+    }
+}
+
+/// Processor time of this thread so far (ns): the first field of the scheduler statistics.
+fn thread_cpu_ns() -> Option<u64> {
+    let text = std::fs::read_to_string("/proc/thread-self/schedstat").ok()?;
+    text.split_whitespace().next()?.parse().ok()
 }

@@ -18,17 +18,19 @@ impl Solver {
         self.tangential_modulus / er
     }
 
-    /// Negated normalised diagonal of rows `from..to`, specialised per stiffness law and
-    /// modulus update so the loops stay tight (they are the bulk of the work besides the chain).
-    /// The iterated and secant updates also store each row's modulus sensitivity.
-    pub(super) fn fill_diagonal(&mut self, from: usize, to: usize) {
+    /// Negated normalised diagonal of rows `from..to` into `out` (one block of the chain, so it
+    /// stays in the first-level cache until the chain reads it), specialised per stiffness law
+    /// and modulus update so the loops stay tight. The iterated and secant updates also store
+    /// each row's modulus sensitivity.
+    #[inline(always)]
+    pub(super) fn fill_diagonal(&mut self, from: usize, to: usize, out: &mut [f64]) {
         let et = self.tangential_modulus;
         let pressure = &self.pressure[from..to];
         let guess = &self.guess[from..to];
         let beta = &self.beta[from..to];
         let gamma = &self.gamma[from..to];
         let sensitivity = &mut self.sensitivity[from..to];
-        let out = &mut self.diagonal[from..to];
+        let out = &mut out[..to - from];
         match (self.law, self.update) {
             (RadialStiffness::Pfeiffer { k1, k2 }, ModulusUpdate::Explicit) => {
                 let scale = et / k2;
@@ -93,7 +95,7 @@ impl Solver {
             _ => {
                 for i in from..to {
                     let g = self.stiffness_ratio(i, self.guess[i]);
-                    self.diagonal[i] = self.gamma[i] * g - self.beta[i];
+                    out[i - from] = self.gamma[i] * g - self.beta[i];
                     self.sensitivity[i] = 0.5 * self.law.log_slope(self.pressure[i]);
                 }
             }
@@ -147,46 +149,36 @@ impl Solver {
                 low + 1
             }
         };
-        self.fill_diagonal(begin, top);
-        // The serial chain x[i+1] = −ā·x[i−1] − b̄·x[i], advanced four nodes at a time: all four
-        // new values are combinations of the two previous ones with coefficients computed off
-        // the dependency path, so the path carries one multiply-add per four nodes.
+        #[cfg(target_arch = "x86_64")]
+        if self.wide {
+            // SAFETY: `wide` is set only when the processor reports AVX2 (`Solver::new`).
+            unsafe { self.shoot_rows_avx2(begin, top, scale_from) };
+            return;
+        }
+        self.shoot_rows(begin, top, scale_from);
+    }
+
+    /// The rows `begin..top` of [`Self::shoot`] (the chain below `begin` is in place): build,
+    /// shoot, rescale, then scale the solution to the loads.
+    #[inline(always)]
+    fn shoot_rows(&mut self, begin: usize, top: usize, scale_from: usize) {
+        // The rows are built and shot in blocks of CHAIN_BLOCK nodes: a block's diagonal is
+        // computed into a small buffer and read back by the chain at once, so the divisions of
+        // the stiffness law overlap the serial chain and the diagonal never goes to memory.
+        let mut diagonal = [0.0; CHAIN_BLOCK];
         let mut previous = self.raw[begin - 1];
         let mut current = self.raw[begin];
         let mut block = begin;
         while block < top {
-            let block_end = (block + 64).min(top);
-            let lower = &self.lower[block..block_end];
-            let diagonal = &self.diagonal[block..block_end];
-            let out = &mut self.raw[block + 1..block_end + 1];
-            let quads = out.len() / 4;
-            for k in 0..quads {
-                let j = 4 * k;
-                let (q0, p0) = (lower[j], diagonal[j]);
-                let (q1, p1) = (lower[j + 1], diagonal[j + 1]);
-                let (q2, p2) = (lower[j + 2], diagonal[j + 2]);
-                let (q3, p3) = (lower[j + 3], diagonal[j + 3]);
-                // x[j+n] = a_n·previous + b_n·current, the coefficients by the same recurrence.
-                let (a2, b2) = (p1 * q0, q1 + p1 * p0);
-                let (a3, b3) = (q2 * q0 + p2 * a2, q2 * p0 + p2 * b2);
-                let (a4, b4) = (q3 * a2 + p3 * a3, q3 * b2 + p3 * b3);
-                let x1 = q0 * previous + p0 * current;
-                let x2 = a2 * previous + b2 * current;
-                let x3 = a3 * previous + b3 * current;
-                let x4 = a4 * previous + b4 * current;
-                out[j] = x1;
-                out[j + 1] = x2;
-                out[j + 2] = x3;
-                out[j + 3] = x4;
-                previous = x3;
-                current = x4;
-            }
-            for k in 4 * quads..out.len() {
-                let next = lower[k] * previous + diagonal[k] * current;
-                previous = current;
-                current = next;
-                out[k] = next;
-            }
+            let block_end = (block + CHAIN_BLOCK).min(top);
+            let diagonal = &mut diagonal[..block_end - block];
+            self.fill_diagonal(block, block_end, diagonal);
+            (previous, current) = advance_chain(
+                &self.lower[block..block_end],
+                diagonal,
+                (previous, current),
+                &mut self.raw[block + 1..block_end + 1],
+            );
             block = block_end;
             if current.abs() > 1e150 {
                 // Rescale; everything below is negligible against the top.
@@ -221,6 +213,13 @@ impl Solver {
         for k in 0..self.loads.len() {
             self.shot[first + k] = self.raw[first + k] * self.cumulative[k];
         }
+    }
+
+    /// [`Self::shoot_rows`] compiled for AVX2 (see [`super::wide_vectors`]).
+    #[cfg(target_arch = "x86_64")]
+    #[target_feature(enable = "avx2")]
+    fn shoot_rows_avx2(&mut self, begin: usize, top: usize, scale_from: usize) {
+        self.shoot_rows(begin, top, scale_from);
     }
 
     /// Initial trial increment: the previous increment moved outward with the top (by radius,
@@ -341,4 +340,51 @@ impl Solver {
         let loads = self.loads.clone();
         self.increment(&loads)
     }
+}
+
+/// Nodes per block of the shooting chain: the rescaling test runs once per block, and a block's
+/// rows (a few kilobytes) stay in the first-level cache between building and shooting them.
+const CHAIN_BLOCK: usize = 64;
+
+/// Advance the serial chain x[i+1] = −ā·x[i−1] − b̄·x[i] over one block (`lower` = −ā,
+/// `diagonal` = −b̄, `out` = x of the next nodes) from the two values below it; returns the last
+/// two values. Four nodes per step: all four new values are combinations of the two previous
+/// ones with coefficients computed off the dependency path, so the path carries one
+/// multiply-add per four nodes. Exact slices of four keep bounds checks out of the loop.
+#[inline(always)]
+fn advance_chain(
+    lower: &[f64],
+    diagonal: &[f64],
+    (mut previous, mut current): (f64, f64),
+    out: &mut [f64],
+) -> (f64, f64) {
+    let whole = out.len() / 4 * 4;
+    let steps = lower[..whole]
+        .chunks_exact(4)
+        .zip(diagonal[..whole].chunks_exact(4))
+        .zip(out[..whole].chunks_exact_mut(4));
+    for ((q, p), x) in steps {
+        let (q0, p0) = (q[0], p[0]);
+        let (q1, p1) = (q[1], p[1]);
+        let (q2, p2) = (q[2], p[2]);
+        let (q3, p3) = (q[3], p[3]);
+        // x[j+n] = a_n·previous + b_n·current, the coefficients by the same recurrence.
+        let (a2, b2) = (p1 * q0, q1 + p1 * p0);
+        let (a3, b3) = (q2 * q0 + p2 * a2, q2 * p0 + p2 * b2);
+        let (a4, b4) = (q3 * a2 + p3 * a3, q3 * b2 + p3 * b3);
+        let x3 = a3 * previous + b3 * current;
+        let x4 = a4 * previous + b4 * current;
+        x[0] = q0 * previous + p0 * current;
+        x[1] = a2 * previous + b2 * current;
+        x[2] = x3;
+        x[3] = x4;
+        (previous, current) = (x3, x4);
+    }
+    for k in whole..out.len() {
+        let next = lower[k] * previous + diagonal[k] * current;
+        previous = current;
+        current = next;
+        out[k] = next;
+    }
+    (previous, current)
 }

@@ -44,7 +44,6 @@ impl Solver {
             &mut self.lower,
             &mut self.beta,
             &mut self.gamma,
-            &mut self.diagonal,
             &mut self.guess,
             &mut self.raw,
             &mut self.sensitivity,
@@ -118,6 +117,25 @@ impl Solver {
         if from >= end {
             return;
         }
+        #[cfg(target_arch = "x86_64")]
+        if self.wide {
+            // SAFETY: `wide` is set only when the processor reports AVX2 (`Solver::new`).
+            unsafe { self.add_rings_avx2(values, from, end) };
+            return;
+        }
+        self.add_rings(values, from, end);
+    }
+
+    /// [`Self::add_rings`] compiled for AVX2 (see [`super::wide_vectors`]).
+    #[cfg(target_arch = "x86_64")]
+    #[target_feature(enable = "avx2")]
+    fn add_rings_avx2(&mut self, values: &[f64], from: usize, end: usize) {
+        self.add_rings(values, from, end);
+    }
+
+    /// The body of [`Self::add_increment`] (`from < end`).
+    #[inline(always)]
+    fn add_rings(&mut self, values: &[f64], from: usize, end: usize) {
         // Rings from..end−1 lie between two nodes of the range (one pass over equal-length
         // slices, which the compiler vectorises); the top ring of the range has no flux above.
         let m = end - from - 1;
