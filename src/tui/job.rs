@@ -10,6 +10,7 @@ use std::sync::mpsc::{Receiver, Sender, channel};
 
 use crate::case::{Case, CaseError, ResolvedCase};
 use crate::diagnose::pipeline::CaseInputs;
+use crate::diagnose::sensitivity::Sensitivity;
 use crate::diagnose::{DiagnoseError, DiagnoseOptions, Diagnosis, rules::RuleBase};
 use crate::finite::{NonFinite, ensure_finite};
 use crate::model::Profile;
@@ -113,14 +114,21 @@ pub struct SolveOutcome {
     pub profile: Profile,
     /// The diagnosis can fail on its own (e.g. rule trouble) while the stresses are fine.
     pub diagnosis: Result<Diagnosis, JobError>,
+    /// The sensitivity run (each assumed input moved across its plausible range, the triage
+    /// re-run): `None` when the case has no assumed inputs, or the run failed. The results
+    /// screen and exported reports show its lines; [`SolveOutcome::movers`] comes from it.
+    pub sensitivity: Option<Sensitivity>,
+}
+
+impl SolveOutcome {
     /// The assumed inputs that move the ranking most, in words, most influential first (the
-    /// results screen names them). Filled where a sensitivity run of the library is available;
-    /// empty means "not computed", and the screen then names the assumed inputs instead.
-    pub movers: Vec<String>,
-    /// The sensitivity run behind `movers` (each assumed input moved across its plausible
-    /// range, the triage re-run): `None` when the case has no assumed inputs, or the run
-    /// failed. The results screen and exported reports show its lines.
-    pub sensitivity: Option<crate::diagnose::sensitivity::Sensitivity>,
+    /// results screen names them; [`Sensitivity::movers`]). Empty when no sensitivity run is
+    /// available, and the screen then names the assumed inputs instead.
+    pub fn movers(&self) -> Vec<&str> {
+        self.sensitivity
+            .as_ref()
+            .map_or_else(Vec::new, Sensitivity::movers)
+    }
 }
 
 #[derive(Debug, Clone, PartialEq)]
@@ -204,16 +212,10 @@ pub fn run_pipeline(
         }
         _ => None,
     };
-    let movers = sensitivity.as_ref().map_or_else(Vec::new, |s| {
-        s.top(crate::diagnose::render::SENSITIVITY_SHOWN)
-            .map(|i| i.label.clone())
-            .collect()
-    });
     Ok(SolveOutcome {
         resolved: triage.resolved,
         profile: triage.profile,
         diagnosis,
-        movers,
         sensitivity,
     })
 }
