@@ -245,6 +245,27 @@ fn panic_error(payload: &(dyn std::any::Any + Send)) -> JobError {
     JobError::Stopped { detail }
 }
 
+/// Run `work` on a new solver thread and send its result as `finished(result)`. A panic in the
+/// numerics must not take the UI down with it: it is caught and sent as [`JobError::Stopped`];
+/// when no thread can be started, the message carries [`JobError::NoThread`].
+fn spawn_job<T: 'static>(
+    sender: &Sender<JobMessage>,
+    work: impl FnOnce() -> Result<T, JobError> + Send + 'static,
+    finished: impl Fn(Result<T, JobError>) -> JobMessage + Send + Copy + 'static,
+) {
+    let thread_sender = sender.clone();
+    let spawned = std::thread::Builder::new()
+        .name(SOLVER_THREAD_NAME.into())
+        .spawn(move || {
+            let result = std::panic::catch_unwind(std::panic::AssertUnwindSafe(work))
+                .unwrap_or_else(|payload| Err(panic_error(payload.as_ref())));
+            let _ = thread_sender.send(finished(result));
+        });
+    if let Err(error) = spawned {
+        let _ = sender.send(finished(Err(JobError::NoThread(Arc::new(error)))));
+    }
+}
+
 /// Starts solves on worker threads and collects their messages.
 pub struct JobRunner {
     rules: Arc<RuleBase>,
@@ -281,65 +302,40 @@ impl JobRunner {
         let id = request.id;
         let purpose = request.purpose;
         let generation = request.generation;
-        let failure_sender = self.sender.clone();
         if request.task == Task::DesignTaper {
-            let spawned = std::thread::Builder::new()
-                .name(SOLVER_THREAD_NAME.into())
-                .spawn(move || {
-                    let result = std::panic::catch_unwind(|| design_taper(&request))
-                        .unwrap_or_else(|payload| Err(panic_error(payload.as_ref())));
-                    let _ = sender.send(JobMessage::DesignFinished {
-                        id,
-                        generation,
-                        result: result.map(Box::new),
-                    });
-                });
-            if let Err(error) = spawned {
-                let _ = failure_sender.send(JobMessage::DesignFinished {
+            let finished =
+                move |result: Result<TaperDesign, JobError>| JobMessage::DesignFinished {
                     id,
-                    generation,
-                    result: Err(JobError::NoThread(Arc::new(error))),
-                });
-            }
-            return;
-        }
-        let spawned = std::thread::Builder::new()
-            .name(SOLVER_THREAD_NAME.into())
-            .spawn(move || {
-                let mut last_sent = -1.0;
-                let mut progress = |fraction: f64| {
-                    // Throttle: a message per percent is plenty for a spinner.
-                    if fraction - last_sent >= 0.01 {
-                        last_sent = fraction;
-                        let _ = sender.send(JobMessage::Progress { id, fraction });
-                    }
-                    !cancel.load(Ordering::Relaxed)
-                };
-                // A panic in the numerics must not take the UI down with it.
-                let result = std::panic::catch_unwind(std::panic::AssertUnwindSafe(|| {
-                    run_pipeline(
-                        &request.case,
-                        request.resolved.as_deref(),
-                        &rules,
-                        &mut progress,
-                    )
-                }))
-                .unwrap_or_else(|payload| Err(panic_error(payload.as_ref())));
-                let _ = sender.send(JobMessage::Finished {
-                    id,
-                    purpose,
                     generation,
                     result: result.map(Box::new),
-                });
-            });
-        if let Err(error) = spawned {
-            let _ = failure_sender.send(JobMessage::Finished {
-                id,
-                purpose,
-                generation,
-                result: Err(JobError::NoThread(Arc::new(error))),
-            });
+                };
+            spawn_job(&self.sender, move || design_taper(&request), finished);
+            return;
         }
+        let finished = move |result: Result<SolveOutcome, JobError>| JobMessage::Finished {
+            id,
+            purpose,
+            generation,
+            result: result.map(Box::new),
+        };
+        let solve = move || {
+            let mut last_sent = -1.0;
+            let mut progress = |fraction: f64| {
+                // Throttle: a message per percent is plenty for a spinner.
+                if fraction - last_sent >= 0.01 {
+                    last_sent = fraction;
+                    let _ = sender.send(JobMessage::Progress { id, fraction });
+                }
+                !cancel.load(Ordering::Relaxed)
+            };
+            run_pipeline(
+                &request.case,
+                request.resolved.as_deref(),
+                &rules,
+                &mut progress,
+            )
+        };
+        spawn_job(&self.sender, solve, finished);
     }
 
     /// The next message, if one is waiting.
