@@ -6,7 +6,7 @@ use std::collections::BTreeMap;
 
 use super::indicators::Indicators;
 use super::rules::{Comparison, RuleBase, Test};
-use super::what_if::{self, Before};
+use super::what_if;
 use super::{MergedRemedy, RankedCause};
 
 /// A cause counts as likely (its remedies are listed) from this belief up.
@@ -83,7 +83,7 @@ pub const SMALL_EFFECT: f64 = 0.03;
 /// `after[i]` holds the indicators of `remedies[i]`'s changed case (re-solved, or the same
 /// stress state with a new core rating), `None` for remedies that change no setting. For every
 /// likely cause, the remedies answering it that have an effect on its deciding indicator (see
-/// [`what_if::deciding_test`]) trade places among themselves, largest move toward the good side
+/// [`what_if::Before::deciding_test`]) trade places among themselves, largest move toward the good side
 /// first; every other remedy keeps its place. Causes are taken from the least to the most likely
 /// so the most likely cause has the last word where two causes share remedies. The sort is
 /// stable: equal effects keep the order by belief and cost.
@@ -92,13 +92,7 @@ pub fn order_by_effect(
     remedies: &mut Vec<MergedRemedy>,
     after: &[Option<Indicators>],
 ) {
-    let Before {
-        rules,
-        symptoms,
-        case,
-        indicators,
-        causes,
-    } = *before;
+    let indicators = before.indicators;
     let mut slots: Vec<(MergedRemedy, Option<&Indicators>)> = remedies
         .drain(..)
         .zip(
@@ -109,13 +103,11 @@ pub fn order_by_effect(
         )
         .collect();
     // The likely causes with the indicator test that decides each.
-    let deciding: Vec<(&RankedCause, Option<&Test>)> = causes
+    let deciding: Vec<(&RankedCause, Option<&Test>)> = before
+        .causes
         .iter()
         .filter(|c| c.belief >= LIKELY_BELIEF)
-        .map(|c| {
-            let test = what_if::deciding_test(rules, symptoms, &c.id, case, indicators);
-            (c, test)
-        })
+        .map(|c| (c, before.deciding_test(&c.id)))
         .collect();
     for (cause, test) in deciding.iter().rev() {
         let Some(test) = test else { continue };

@@ -126,7 +126,7 @@ pub fn render_text_in(
 }
 
 /// How many assumed inputs the text outputs name.
-pub const SENSITIVITY_SHOWN: usize = 3;
+pub const SENSITIVITY_SHOWN: usize = super::sensitivity::SHOWN;
 
 /// "What the answer rests on" for the terminal; empty when nothing was assumed.
 pub fn sensitivity_text(sensitivity: &super::sensitivity::Sensitivity) -> String {

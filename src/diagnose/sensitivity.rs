@@ -31,13 +31,16 @@ pub const MIN_PRESET_SPREAD: f64 = 0.25;
 /// A belief change smaller than this is reported as no change (beliefs are shown to 2 decimals).
 pub const NO_CHANGE: f64 = 0.005;
 
+/// How many of the inputs that move the answer the outputs name: the text and Markdown of
+/// `diagnose`, reports, and the results screen's movers.
+pub const SHOWN: usize = 3;
+
 /// How the plausible range of an assumed value is found.
 #[derive(Debug, Clone, Copy)]
 enum Spread {
-    /// The value over the shipped presets of the same web material.
-    WebPresets,
-    /// The value over the shipped presets of the same core material.
-    CorePresets,
+    /// The value over the shipped presets of the same web or core material (the field's
+    /// default says which presets hold it).
+    Presets,
     /// The value used times `low` and times `high`, for the stated reason.
     Factor {
         low: f64,
@@ -46,189 +49,149 @@ enum Spread {
     },
 }
 
-/// One assumed input that can be moved: its registry path, how to read and write it on a
-/// resolved case, and its plausible range.
+/// How a tried value goes into the case.
+#[derive(Debug, Clone, Copy)]
+enum Apply {
+    /// Written over the number.
+    Write,
+    /// Through the what-if's change applier, as the ratio of the tried to the used value, so
+    /// what goes with the number (tension steps and upsets, ...) moves with it. Nothing moves
+    /// when the used value is not positive.
+    Scale(fn(f64) -> SettingChange),
+    /// Written over the number only above this multiple of the core's outside diameter: a
+    /// finished roll at or inside its core would no longer be a roll.
+    AboveCore(f64),
+}
+
+/// The number of a resolved case a knob moves, for reading and for writing (one accessor for
+/// both, so a row cannot read one number and write another); `None` when the case has no such
+/// number (e.g. a core modulus on a rigid core).
+type Place = fn(&mut ResolvedCase) -> Option<&mut f64>;
+
+/// One assumed input that can be moved: its registry path, where its number sits on a resolved
+/// case, how a tried value is put there, and its plausible range.
 struct Knob {
     path: &'static str,
-    get: fn(&ResolvedCase) -> Option<f64>,
-    set: fn(&mut ResolvedCase, f64),
+    place: Place,
+    apply: Apply,
     spread: Spread,
 }
 
-const TENSION_SPREAD: &str = "half to one and a half times the rule-of-thumb tension \
-     (rolltriage's stated spread: a rule of thumb is a starting point, not the setting)";
-const SPEED_SPREAD: &str =
-    "half to twice the assumed speed (rolltriage's stated spread for an unknown line speed)";
-const DIAMETER_SPREAD: &str = "0.6 to 1.5 times the assumed diameter \
-     (rolltriage's stated spread for an unknown finished roll)";
-const PLATEAU_SPREAD: &str = "half to twice the assumed knee (rolltriage's stated spread)";
+impl Knob {
+    /// The value the case uses, `None` when it has none or it is not finite.
+    fn used(&self, case: &ResolvedCase) -> Option<f64> {
+        // The accessor writes as well as reads, so it reads on a copy (cheap beside a solve).
+        (self.place)(&mut case.clone())
+            .map(|v| *v)
+            .filter(|v| v.is_finite())
+    }
 
-fn pfeiffer(case: &ResolvedCase) -> Option<(f64, f64)> {
-    match case.web.radial_stiffness {
+    /// `case` with this knob's number moved to `value`.
+    fn moved(&self, case: &ResolvedCase, value: f64) -> ResolvedCase {
+        let mut changed = case.clone();
+        let floor = case.core.outside_diameter;
+        let Some(number) = (self.place)(&mut changed) else {
+            return changed;
+        };
+        match self.apply {
+            Apply::Write => *number = value,
+            Apply::AboveCore(factor) if value > floor * factor => *number = value,
+            Apply::AboveCore(_) => {}
+            Apply::Scale(change) => {
+                let now = *number;
+                if now > 0.0 {
+                    return super::what_if::apply_changes(case, &[change(value / now)]);
+                }
+            }
+        }
+        changed
+    }
+}
+
+const TENSION: Spread = Spread::Factor {
+    low: 0.5,
+    high: 1.5,
+    source: "half to one and a half times the rule-of-thumb tension \
+             (rolltriage's stated spread: a rule of thumb is a starting point, not the setting)",
+};
+const SPEED: Spread = Spread::Factor {
+    low: 0.5,
+    high: 2.0,
+    source: "half to twice the assumed speed (rolltriage's stated spread for an unknown line speed)",
+};
+const DIAMETER: Spread = Spread::Factor {
+    low: 0.6,
+    high: 1.5,
+    source: "0.6 to 1.5 times the assumed diameter \
+             (rolltriage's stated spread for an unknown finished roll)",
+};
+const PLATEAU: Spread = Spread::Factor {
+    low: 0.5,
+    high: 2.0,
+    source: "half to twice the assumed knee (rolltriage's stated spread)",
+};
+
+/// Pfeiffer's K1 and K2 of the web, when its radial stiffness is given that way.
+fn pfeiffer(c: &mut ResolvedCase) -> Option<(&mut f64, &mut f64)> {
+    match &mut c.web.radial_stiffness {
         RadialStiffness::Pfeiffer { k1, k2 } => Some((k1, k2)),
         _ => None,
     }
 }
 
-fn set_pfeiffer(case: &mut ResolvedCase, k1: Option<f64>, k2: Option<f64>) {
-    if let RadialStiffness::Pfeiffer { k1: a, k2: b } = &mut case.web.radial_stiffness {
-        *a = k1.unwrap_or(*a);
-        *b = k2.unwrap_or(*b);
+/// The core's (hoop) modulus — a hollow core's one modulus, a tube's hoop modulus — and a
+/// tube's radial modulus.
+fn core_moduli(c: &mut ResolvedCase) -> Option<(&mut f64, Option<&mut f64>)> {
+    match &mut c.core.stiffness {
+        CoreStiffness::Hollow { modulus, .. } => Some((modulus, None)),
+        CoreStiffness::Tube {
+            hoop_modulus,
+            radial_modulus,
+            ..
+        } => Some((hoop_modulus, Some(radial_modulus))),
+        _ => None,
     }
 }
 
-fn scaled(case: &mut ResolvedCase, change: SettingChange) {
-    *case = super::what_if::apply_changes(case, &[change]);
+/// The nip's knee, only where the case has a nip.
+fn nip_plateau(c: &mut ResolvedCase) -> Option<&mut f64> {
+    let w = &mut c.winding;
+    (w.nip_load.is_some() || w.nip_programme.is_some()).then_some(&mut w.nip_plateau)
 }
 
-/// The inputs that are moved, in the order they are tried.
-const KNOBS: &[Knob] = &[
-    Knob {
-        path: "web.friction",
-        get: |c| Some(c.web.friction),
-        set: |c, v| c.web.friction = v,
-        spread: Spread::WebPresets,
-    },
-    Knob {
-        path: "web.kinetic_friction",
-        get: |c| Some(c.web.kinetic_friction),
-        set: |c, v| c.web.kinetic_friction = v,
-        spread: Spread::WebPresets,
-    },
-    Knob {
-        path: "winding.tension",
-        get: |c| Some(c.winding.tension.start_tension),
-        set: |c, v| {
-            let now = c.winding.tension.start_tension;
-            if now > 0.0 {
-                scaled(c, SettingChange::TensionScale(v / now));
-            }
-        },
-        spread: Spread::Factor {
-            low: 0.5,
-            high: 1.5,
-            source: TENSION_SPREAD,
-        },
-    },
-    Knob {
-        path: "web.radial_stiffness.k1",
-        get: |c| pfeiffer(c).map(|(k1, _)| k1),
-        set: |c, v| set_pfeiffer(c, Some(v), None),
-        spread: Spread::WebPresets,
-    },
-    Knob {
-        path: "web.radial_stiffness.k2",
-        get: |c| pfeiffer(c).map(|(_, k2)| k2),
-        set: |c, v| set_pfeiffer(c, None, Some(v)),
-        spread: Spread::WebPresets,
-    },
-    Knob {
-        path: "web.tangential_modulus",
-        get: |c| Some(c.web.tangential_modulus),
-        set: |c, v| c.web.tangential_modulus = v,
-        spread: Spread::WebPresets,
-    },
-    Knob {
-        path: "web.thickness",
-        get: |c| Some(c.web.thickness),
-        set: |c, v| c.web.thickness = v,
-        spread: Spread::WebPresets,
-    },
-    Knob {
-        path: "web.roughness",
-        get: |c| Some(c.web.roughness),
-        set: |c, v| c.web.roughness = v,
-        spread: Spread::WebPresets,
-    },
-    Knob {
-        path: "web.strength",
-        get: |c| Some(c.web.strength),
-        set: |c, v| c.web.strength = v,
-        spread: Spread::WebPresets,
-    },
-    Knob {
-        path: "web.density",
-        get: |c| Some(c.web.density),
-        set: |c, v| c.web.density = v,
-        spread: Spread::WebPresets,
-    },
-    Knob {
-        path: "winding.speed",
-        get: |c| Some(c.winding.speed),
-        set: |c, v| {
-            let now = c.winding.speed;
-            if now > 0.0 {
-                scaled(c, SettingChange::SpeedScale(v / now));
-            }
-        },
-        spread: Spread::Factor {
-            low: 0.5,
-            high: 2.0,
-            source: SPEED_SPREAD,
-        },
-    },
-    Knob {
-        path: "roll.diameter",
-        get: |c| Some(c.roll.outer_diameter),
-        set: |c, v| {
-            // Never at or inside the core: the case would no longer be a roll.
-            if v > c.core.outside_diameter * 1.05 {
-                c.roll.outer_diameter = v;
-            }
-        },
-        spread: Spread::Factor {
-            low: 0.6,
-            high: 1.5,
-            source: DIAMETER_SPREAD,
-        },
-    },
-    Knob {
-        path: "core.crush_pressure",
-        get: |c| Some(c.core.crush_pressure),
-        set: |c, v| c.core.crush_pressure = v,
-        spread: Spread::CorePresets,
-    },
-    Knob {
-        path: "core.modulus",
-        get: |c| match c.core.stiffness {
-            CoreStiffness::Hollow { modulus, .. } => Some(modulus),
-            CoreStiffness::Tube { hoop_modulus, .. } => Some(hoop_modulus),
-            _ => None,
-        },
-        set: |c, v| match &mut c.core.stiffness {
-            CoreStiffness::Hollow { modulus, .. } => *modulus = v,
-            CoreStiffness::Tube { hoop_modulus, .. } => *hoop_modulus = v,
-            _ => {}
-        },
-        spread: Spread::CorePresets,
-    },
-    Knob {
-        path: "core.radial_modulus",
-        get: |c| match c.core.stiffness {
-            CoreStiffness::Tube { radial_modulus, .. } => Some(radial_modulus),
-            _ => None,
-        },
-        set: |c, v| {
-            if let CoreStiffness::Tube { radial_modulus, .. } = &mut c.core.stiffness {
-                *radial_modulus = v;
-            }
-        },
-        spread: Spread::CorePresets,
-    },
-    Knob {
-        path: "winding.nip_plateau",
-        get: |c| {
-            (c.winding.nip_load.is_some() || c.winding.nip_programme.is_some())
-                .then_some(c.winding.nip_plateau)
-        },
-        set: |c, v| c.winding.nip_plateau = v,
-        spread: Spread::Factor {
-            low: 0.5,
-            high: 2.0,
-            source: PLATEAU_SPREAD,
-        },
-    },
-];
+/// The inputs that are moved, in the order they are tried: one row per knob.
+#[rustfmt::skip]
+const KNOBS: &[Knob] = {
+    use Apply::{AboveCore, Scale, Write};
+    use SettingChange::{SpeedScale, TensionScale};
+    use Spread::Presets;
+    const fn knob(path: &'static str, place: Place, apply: Apply, spread: Spread) -> Knob {
+        Knob { path, place, apply, spread }
+    }
+    // knob(path in the case file, its number on a resolved case, how a value goes in, range)
+    &[
+        knob("web.friction",            |c| Some(&mut c.web.friction),            Write, Presets),
+        knob("web.kinetic_friction",    |c| Some(&mut c.web.kinetic_friction),    Write, Presets),
+        knob("winding.tension",         |c| Some(&mut c.winding.tension.start_tension),
+                                        Scale(TensionScale), TENSION),
+        knob("web.radial_stiffness.k1", |c| pfeiffer(c).map(|(k1, _)| k1),        Write, Presets),
+        knob("web.radial_stiffness.k2", |c| pfeiffer(c).map(|(_, k2)| k2),        Write, Presets),
+        knob("web.tangential_modulus",  |c| Some(&mut c.web.tangential_modulus),  Write, Presets),
+        knob("web.thickness",           |c| Some(&mut c.web.thickness),           Write, Presets),
+        knob("web.roughness",           |c| Some(&mut c.web.roughness),           Write, Presets),
+        knob("web.strength",            |c| Some(&mut c.web.strength),            Write, Presets),
+        knob("web.density",             |c| Some(&mut c.web.density),             Write, Presets),
+        knob("winding.speed",           |c| Some(&mut c.winding.speed),
+                                        Scale(SpeedScale), SPEED),
+        knob("roll.diameter",           |c| Some(&mut c.roll.outer_diameter),
+                                        AboveCore(1.05), DIAMETER),
+        knob("core.crush_pressure",     |c| Some(&mut c.core.crush_pressure),     Write, Presets),
+        knob("core.modulus",            |c| core_moduli(c).map(|(hoop, _)| hoop), Write, Presets),
+        knob("core.radial_modulus",     |c| core_moduli(c).and_then(|(_, radial)| radial),
+                                        Write, Presets),
+        knob("winding.nip_plateau",     nip_plateau,                              Write, PLATEAU),
+    ]
+};
 
 /// What the triage answered with one assumed input moved to one value.
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
@@ -339,6 +302,12 @@ impl Sensitivity {
         self.inputs.iter().filter(|i| i.matters()).take(n)
     }
 
+    /// The labels of the inputs that move the ranking most, at most [`SHOWN`], most influential
+    /// first: what the results screen names as the inputs to enter first.
+    pub fn movers(&self) -> Vec<&str> {
+        self.top(SHOWN).map(|i| i.label.as_str()).collect()
+    }
+
     /// The labels of the assumed inputs not moved, in words.
     pub fn not_varied_labels(&self) -> Vec<&'static str> {
         self.not_varied
@@ -395,29 +364,9 @@ fn range_of(knob: &Knob, case: &ResolvedCase, used: f64) -> Option<(f64, f64, St
     let field = registry::field(knob.path)?;
     let (mut low, mut high, source) = match knob.spread {
         Spread::Factor { low, high, source } => (used * low, used * high, source.to_string()),
-        Spread::WebPresets => {
-            let DefaultValue::WebPreset(get) = field.default else {
-                return None;
-            };
-            let kind = case.web.material;
-            let values: Vec<f64> = crate::presets::web_presets()
-                .iter()
-                .filter(|p: &&WebPreset| p.material == kind && !p.id.ends_with("_reference"))
-                .map(|p| get(p).value)
-                .collect();
-            preset_spread(&values, used, &format!("{kind} presets"))
-        }
-        Spread::CorePresets => {
-            let DefaultValue::CorePreset(get) = field.default else {
-                return None;
-            };
-            let kind = case.core.material;
-            let values: Vec<f64> = crate::presets::core_presets()
-                .iter()
-                .filter(|p: &&CorePreset| p.material == kind)
-                .map(|p| get(p).value)
-                .collect();
-            preset_spread(&values, used, &format!("{kind} core presets"))
+        Spread::Presets => {
+            let (values, kind) = preset_values(field.default, case)?;
+            preset_spread(&values, used, &kind)
         }
     };
     // Two significant digits: a plausible range is not known better than that, and the tried
@@ -431,6 +380,30 @@ fn range_of(knob: &Knob, case: &ResolvedCase, used: f64) -> Option<(f64, f64, St
         high = used;
     }
     (high > low).then_some((low, high, source))
+}
+
+/// The values of a field with a preset default over the shipped presets of the case's web or
+/// core material, and what they are ("film presets"); `None` for a field without one.
+fn preset_values(default: DefaultValue, case: &ResolvedCase) -> Option<(Vec<f64>, String)> {
+    match default {
+        DefaultValue::WebPreset(get) => {
+            let kind = case.web.material;
+            let values = crate::presets::web_presets()
+                .iter()
+                .filter(|p: &&WebPreset| p.material == kind && !p.id.ends_with("_reference"))
+                .map(|p| get(p).value);
+            Some((values.collect(), format!("{kind} presets")))
+        }
+        DefaultValue::CorePreset(get) => {
+            let kind = case.core.material;
+            let values = crate::presets::core_presets()
+                .iter()
+                .filter(|p: &&CorePreset| p.material == kind)
+                .map(|p| get(p).value);
+            Some((values.collect(), format!("{kind} core presets")))
+        }
+        _ => None,
+    }
 }
 
 fn round2(value: f64) -> f64 {
@@ -481,6 +454,87 @@ struct Move {
     case: ResolvedCase,
 }
 
+/// The range tried for one knob: the value used and the low and high ends (SI), and where the
+/// range comes from.
+struct Tried {
+    used: f64,
+    low: f64,
+    high: f64,
+    source: String,
+}
+
+/// The moves to run for the `assumed` inputs of `case` (low and high end of each), with each
+/// moved knob's range (by knob index). Assumed inputs with nothing to move go to `not_varied`.
+fn plan_moves(
+    case: &ResolvedCase,
+    assumed: &[&str],
+    not_varied: &mut Vec<String>,
+) -> (Vec<Move>, Vec<Option<Tried>>) {
+    let mut moves: Vec<Move> = Vec::new();
+    let mut ranges: Vec<Option<Tried>> = KNOBS.iter().map(|_| None).collect();
+    for path in assumed {
+        let planned = KNOBS
+            .iter()
+            .position(|k| k.path == *path)
+            .and_then(|index| {
+                let used = KNOBS[index].used(case)?;
+                let (low, high, source) = range_of(&KNOBS[index], case, used)?;
+                Some((index, used, low, high, source))
+            });
+        let Some((index, used, low, high, source)) = planned else {
+            not_varied.push((*path).to_string());
+            continue;
+        };
+        for value in [low, high] {
+            moves.push(Move {
+                knob: index,
+                value,
+                case: KNOBS[index].moved(case, value),
+            });
+        }
+        ranges[index] = Some(Tried {
+            used,
+            low,
+            high,
+            source,
+        });
+    }
+    (moves, ranges)
+}
+
+impl Sensitivity {
+    /// File `trial` of `knob` (tried over `range`) under its input, which is added on its first
+    /// trial.
+    fn record(&mut self, knob: &Knob, label: &str, range: &Tried, trial: Trial) {
+        let index = match self.inputs.iter().position(|i| i.field == knob.path) {
+            Some(index) => index,
+            None => {
+                let field = registry::field(knob.path);
+                let show = |v: f64| field.map_or_else(|| format!("{v}"), |f| f.range().show(v));
+                self.inputs.push(InputSensitivity {
+                    field: knob.path.to_string(),
+                    label: label.to_string(),
+                    used: show(range.used),
+                    low: range.low,
+                    high: range.high,
+                    range_text: format!("{} to {}", show(range.low), show(range.high)),
+                    range_source: range.source.clone(),
+                    trials: Vec::new(),
+                    changes_first_cause: false,
+                    belief_shift: 0.0,
+                });
+                self.inputs.len() - 1
+            }
+        };
+        let entry = &mut self.inputs[index];
+        entry.changes_first_cause |= trial.first_cause != self.first_cause;
+        entry.belief_shift = entry
+            .belief_shift
+            .max((trial.base_cause_belief - self.first_belief).abs());
+        entry.trials.push(trial);
+    }
+}
+
 /// Move each assumed input of `case` across its plausible range and re-run the triage.
 /// `profile` and `diagnosis` are the case's own (from [`pipeline::triage`]); the moves are solved
 /// on the grid `profile` used. Progress runs over the solves; `false` cancels.
@@ -501,33 +555,7 @@ pub fn sensitivity(
         assumed: assumed.len(),
         ..Sensitivity::default()
     };
-    let mut moves: Vec<Move> = Vec::new();
-    let mut ranges: Vec<Option<(f64, f64, f64, String)>> = vec![None; KNOBS.len()];
-    for path in &assumed {
-        let Some(index) = KNOBS.iter().position(|k| k.path == *path) else {
-            result.not_varied.push((*path).to_string());
-            continue;
-        };
-        let knob = &KNOBS[index];
-        let Some(used) = (knob.get)(case).filter(|v| v.is_finite()) else {
-            result.not_varied.push((*path).to_string());
-            continue;
-        };
-        let Some((low, high, source)) = range_of(knob, case, used) else {
-            result.not_varied.push((*path).to_string());
-            continue;
-        };
-        ranges[index] = Some((used, low, high, source));
-        for value in [low, high] {
-            let mut changed = case.clone();
-            (knob.set)(&mut changed, value);
-            moves.push(Move {
-                knob: index,
-                value,
-                case: changed,
-            });
-        }
-    }
+    let (moves, ranges) = plan_moves(case, &assumed, &mut result.not_varied);
 
     let solver = SolverOptions {
         resolution: profile.solver.grid.resolution(),
@@ -545,7 +573,6 @@ pub fn sensitivity(
         what_if: false,
         solver,
     };
-    let base_first = result.first_cause.clone();
     for m in &moves {
         let knob = &KNOBS[m.knob];
         let label = registry::field(knob.path).map_or(knob.path, |f| f.label);
@@ -584,40 +611,15 @@ pub fn sensitivity(
             first_cause: top.map(|c| c.id.clone()),
             first_title: top.map(|c| c.title.clone()),
             first_belief: top.map_or(0.0, |c| c.belief),
-            base_cause_belief: base_first
+            base_cause_belief: result
+                .first_cause
                 .as_deref()
                 .and_then(|id| trial_diagnosis.causes.iter().find(|c| c.id == id))
                 .map_or(0.0, |c| c.belief),
         };
-        let Some((used, low, high, source)) = &ranges[m.knob] else {
-            continue;
-        };
-        let entry = match result.inputs.iter_mut().find(|i| i.field == knob.path) {
-            Some(entry) => entry,
-            None => {
-                let field = registry::field(knob.path);
-                let show = |v: f64| field.map_or_else(|| format!("{v}"), |f| f.range().show(v));
-                result.inputs.push(InputSensitivity {
-                    field: knob.path.to_string(),
-                    label: label.to_string(),
-                    used: show(*used),
-                    low: *low,
-                    high: *high,
-                    range_text: format!("{} to {}", show(*low), show(*high)),
-                    range_source: source.clone(),
-                    trials: Vec::new(),
-                    changes_first_cause: false,
-                    belief_shift: 0.0,
-                });
-                let last = result.inputs.len() - 1;
-                &mut result.inputs[last]
-            }
-        };
-        entry.changes_first_cause |= trial.first_cause != base_first;
-        entry.belief_shift = entry
-            .belief_shift
-            .max((trial.base_cause_belief - result.first_belief).abs());
-        entry.trials.push(trial);
+        if let Some(range) = &ranges[m.knob] {
+            result.record(knob, label, range, trial);
+        }
     }
     // Stable: among equals the knob order (friction, tension, ... first) stands.
     result.inputs.sort_by(|a, b| {

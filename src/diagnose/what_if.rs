@@ -18,33 +18,6 @@ use super::{MergedRemedy, RankedCause, WhatIf, WhatIfWords};
 use crate::case::ResolvedCase;
 use crate::model::SolverOptions;
 
-/// The indicator tests that raise belief in `cause` under the observed symptoms, each with
-/// whether it holds now and its weight.
-pub(crate) fn driving_tests<'a>(
-    rules: &'a RuleBase,
-    symptoms: &[String],
-    cause: &str,
-    case: &ResolvedCase,
-    indicators: &Indicators,
-) -> Vec<(&'a Test, bool, f64)> {
-    let mut out = Vec::new();
-    for symptom in symptoms.iter().filter_map(|s| rules.symptom(s)) {
-        for rule in symptom.rules.iter().filter(|r| r.cause == cause) {
-            for ev in &rule.evidence {
-                if ev.weight <= 0.0 || !movable(&ev.test) {
-                    continue;
-                }
-                // An indicator without a value (a measurement not taken) has nothing to show.
-                let Some((holds, _, _)) = evaluate(&ev.test, &symptom.id, case, indicators) else {
-                    continue;
-                };
-                out.push((&ev.test, holds, ev.weight));
-            }
-        }
-    }
-    out
-}
-
 /// True for an indicator test that a re-solve can move: what was measured on the roll and the
 /// core-pressure levers of the case as wound stay as they are in every what-if, so they can
 /// neither show a remedy's effect nor mark it as doing little.
@@ -120,35 +93,6 @@ fn pick_driver<'a>(
         })
 }
 
-/// The indicator test that decides `cause` in this case: of the indicator tests that raise it
-/// and hold now, the strongest on the solved stress state, else the strongest on the case's
-/// inputs (a setting a remedy changes moves its own input indicator by construction, so the
-/// stress state judges first); ties go to the first in the rule base. `None` when no indicator
-/// test holds: the cause then rests on answers or priors, which no setting change moves.
-pub(crate) fn deciding_test<'a>(
-    rules: &'a RuleBase,
-    symptoms: &[String],
-    cause: &str,
-    case: &ResolvedCase,
-    indicators: &Indicators,
-) -> Option<&'a Test> {
-    let from_profile = |t: &Test| match t {
-        Test::Indicator { id, .. } => !INPUT_INDICATORS.contains(&id.as_str()),
-        _ => false,
-    };
-    let mut best: Option<(&Test, (bool, f64))> = None;
-    for (test, holds, weight) in driving_tests(rules, symptoms, cause, case, indicators) {
-        let key = (from_profile(test), weight);
-        // Stress-state tests before input tests, then the larger weight.
-        if holds
-            && best.is_none_or(|(_, k)| (key.0, key.1).partial_cmp(&k).is_some_and(|o| o.is_gt()))
-        {
-            best = Some((test, key));
-        }
-    }
-    best.map(|(t, _)| t)
-}
-
 /// How far a change moves the indicator of `test` toward its good side, as a share of its value
 /// before (positive = better: lower for an "above" test, higher for a "below" test). `None` when
 /// the indicator is missing before or after.
@@ -179,6 +123,56 @@ pub struct Before<'a> {
     pub case: &'a ResolvedCase,
     pub indicators: &'a Indicators,
     pub causes: &'a [RankedCause],
+}
+
+impl<'a> Before<'a> {
+    /// The indicator tests that raise belief in `cause` under the observed symptoms, each with
+    /// whether it holds now and its weight.
+    pub(crate) fn driving_tests(&self, cause: &str) -> Vec<(&'a Test, bool, f64)> {
+        let mut out = Vec::new();
+        for symptom in self.symptoms.iter().filter_map(|s| self.rules.symptom(s)) {
+            for rule in symptom.rules.iter().filter(|r| r.cause == cause) {
+                for ev in &rule.evidence {
+                    if ev.weight <= 0.0 || !movable(&ev.test) {
+                        continue;
+                    }
+                    // An indicator without a value (a measurement not taken) has nothing to show.
+                    let Some((holds, _, _)) =
+                        evaluate(&ev.test, &symptom.id, self.case, self.indicators)
+                    else {
+                        continue;
+                    };
+                    out.push((&ev.test, holds, ev.weight));
+                }
+            }
+        }
+        out
+    }
+
+    /// The indicator test that decides `cause` in this case: of the indicator tests that raise
+    /// it and hold now, the strongest on the solved stress state, else the strongest on the
+    /// case's inputs (a setting a remedy changes moves its own input indicator by construction,
+    /// so the stress state judges first); ties go to the first in the rule base. `None` when no
+    /// indicator test holds: the cause then rests on answers or priors, which no setting change
+    /// moves.
+    pub(crate) fn deciding_test(&self, cause: &str) -> Option<&'a Test> {
+        let from_profile = |t: &Test| match t {
+            Test::Indicator { id, .. } => !INPUT_INDICATORS.contains(&id.as_str()),
+            _ => false,
+        };
+        let mut best: Option<(&Test, (bool, f64))> = None;
+        for (test, holds, weight) in self.driving_tests(cause) {
+            let key = (from_profile(test), weight);
+            // Stress-state tests before input tests, then the larger weight.
+            if holds
+                && best
+                    .is_none_or(|(_, k)| (key.0, key.1).partial_cmp(&k).is_some_and(|o| o.is_gt()))
+            {
+                best = Some((test, key));
+            }
+        }
+        best.map(|(t, _)| t)
+    }
 }
 
 /// Re-solve the case with the remedy's setting changes and report the driving indicator
@@ -223,13 +217,7 @@ pub fn what_if_after(
     changed: &ResolvedCase,
     after: Result<&Indicators, &crate::model::ModelError>,
 ) -> Option<WhatIf> {
-    let Before {
-        rules,
-        symptoms,
-        case,
-        indicators,
-        causes,
-    } = *before;
+    let (rules, case, indicators) = (before.rules, before.case, before.indicators);
     // A what-if with no indicator to compare, only a note why.
     let note_only = |note: String| WhatIf {
         indicator: String::new(),
@@ -256,7 +244,7 @@ pub fn what_if_after(
             )));
         }
     };
-    let after_causes = rank(rules, symptoms, changed, after_indicators);
+    let after_causes = rank(rules, before.symptoms, changed, after_indicators);
     let belief = |list: &[RankedCause], id: &str| {
         list.iter()
             .find(|c| c.id == id)
@@ -264,7 +252,8 @@ pub fn what_if_after(
             .unwrap_or(0.0)
     };
     let primary = remedy.answers.first()?;
-    let before_belief = causes
+    let before_belief = before
+        .causes
         .iter()
         .find(|c| c.id == *primary)
         .map(|c| c.belief)
@@ -286,7 +275,7 @@ pub fn what_if_after(
     );
     let mut worse = after_belief > before_belief + 0.02;
     // Side effects: other listed causes that the change makes more likely.
-    for other in causes.iter().filter(|c| c.id != *primary) {
+    for other in before.causes.iter().filter(|c| c.id != *primary) {
         let after = belief(&after_causes, &other.id);
         if after > other.belief + 0.05 {
             notes.push(
@@ -299,7 +288,7 @@ pub fn what_if_after(
             );
         }
     }
-    let candidates = driving_tests(rules, symptoms, primary, case, indicators);
+    let candidates = before.driving_tests(primary);
     let driver = pick_driver(&candidates, indicators, after_indicators).and_then(|test| {
         compare_driver(test, indicators, after_indicators, &mut notes, &mut worse)
     });

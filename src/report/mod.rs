@@ -27,7 +27,7 @@ use crate::model::Profile;
 use crate::units::UnitSystem;
 
 /// How many assumed inputs a report names under "What the answer rests on".
-pub const SENSITIVITY_SHOWN: usize = 3;
+pub const SENSITIVITY_SHOWN: usize = crate::diagnose::sensitivity::SHOWN;
 
 /// Output formats of a report.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Default, serde::Serialize, serde::Deserialize)]

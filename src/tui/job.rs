@@ -10,6 +10,7 @@ use std::sync::mpsc::{Receiver, Sender, channel};
 
 use crate::case::{Case, CaseError, ResolvedCase};
 use crate::diagnose::pipeline::CaseInputs;
+use crate::diagnose::sensitivity::Sensitivity;
 use crate::diagnose::{DiagnoseError, DiagnoseOptions, Diagnosis, rules::RuleBase};
 use crate::finite::{NonFinite, ensure_finite};
 use crate::model::Profile;
@@ -113,18 +114,25 @@ pub struct SolveOutcome {
     pub profile: Profile,
     /// The diagnosis can fail on its own (e.g. rule trouble) while the stresses are fine.
     pub diagnosis: Result<Diagnosis, JobError>,
-    /// The assumed inputs that move the ranking most, in words, most influential first (the
-    /// results screen names them). Filled where a sensitivity run of the library is available;
-    /// empty means "not computed", and the screen then names the assumed inputs instead.
-    pub movers: Vec<String>,
-    /// The sensitivity run behind `movers` (each assumed input moved across its plausible
-    /// range, the triage re-run): `None` when the case has no assumed inputs, or the run
-    /// failed. The results screen and exported reports show its lines.
-    pub sensitivity: Option<crate::diagnose::sensitivity::Sensitivity>,
+    /// The sensitivity run (each assumed input moved across its plausible range, the triage
+    /// re-run): `None` when the case has no assumed inputs, or the run failed. The results
+    /// screen and exported reports show its lines; [`SolveOutcome::movers`] comes from it.
+    pub sensitivity: Option<Sensitivity>,
     /// The inverse estimate of the wound-in tension (and stack stiffness) from the case's
     /// measurements, as `rolltriage compare` computes it; `None` when nothing was measured or
     /// the solve was of a changed case (what-if). An error is kept as its message.
     pub estimate: Option<Result<crate::evidence::InverseEstimate, String>>,
+}
+
+impl SolveOutcome {
+    /// The assumed inputs that move the ranking most, in words, most influential first (the
+    /// results screen names them; [`Sensitivity::movers`]). Empty when no sensitivity run is
+    /// available, and the screen then names the assumed inputs instead.
+    pub fn movers(&self) -> Vec<&str> {
+        self.sensitivity
+            .as_ref()
+            .map_or_else(Vec::new, Sensitivity::movers)
+    }
 }
 
 #[derive(Debug, Clone, PartialEq)]
@@ -208,11 +216,6 @@ pub fn run_pipeline(
         }
         _ => None,
     };
-    let movers = sensitivity.as_ref().map_or_else(Vec::new, |s| {
-        s.top(crate::diagnose::render::SENSITIVITY_SHOWN)
-            .map(|i| i.label.clone())
-            .collect()
-    });
     // The inverse estimate of the case as written (not of a what-if change), after the rest
     // so the ranking shows first.
     let estimate = match (&triage.resolved.measurements, resolved) {
@@ -225,7 +228,6 @@ pub fn run_pipeline(
         resolved: triage.resolved,
         profile: triage.profile,
         diagnosis,
-        movers,
         sensitivity,
         estimate,
     })
@@ -290,6 +292,27 @@ fn panic_error(payload: &(dyn std::any::Any + Send)) -> JobError {
     JobError::Stopped { detail }
 }
 
+/// Run `work` on a new solver thread and send its result as `finished(result)`. A panic in the
+/// numerics must not take the UI down with it: it is caught and sent as [`JobError::Stopped`];
+/// when no thread can be started, the message carries [`JobError::NoThread`].
+fn spawn_job<T: 'static>(
+    sender: &Sender<JobMessage>,
+    work: impl FnOnce() -> Result<T, JobError> + Send + 'static,
+    finished: impl Fn(Result<T, JobError>) -> JobMessage + Send + Copy + 'static,
+) {
+    let thread_sender = sender.clone();
+    let spawned = std::thread::Builder::new()
+        .name(SOLVER_THREAD_NAME.into())
+        .spawn(move || {
+            let result = std::panic::catch_unwind(std::panic::AssertUnwindSafe(work))
+                .unwrap_or_else(|payload| Err(panic_error(payload.as_ref())));
+            let _ = thread_sender.send(finished(result));
+        });
+    if let Err(error) = spawned {
+        let _ = sender.send(finished(Err(JobError::NoThread(Arc::new(error)))));
+    }
+}
+
 /// Starts solves on worker threads and collects their messages.
 pub struct JobRunner {
     rules: Arc<RuleBase>,
@@ -326,65 +349,40 @@ impl JobRunner {
         let id = request.id;
         let purpose = request.purpose;
         let generation = request.generation;
-        let failure_sender = self.sender.clone();
         if request.task == Task::DesignTaper {
-            let spawned = std::thread::Builder::new()
-                .name(SOLVER_THREAD_NAME.into())
-                .spawn(move || {
-                    let result = std::panic::catch_unwind(|| design_taper(&request))
-                        .unwrap_or_else(|payload| Err(panic_error(payload.as_ref())));
-                    let _ = sender.send(JobMessage::DesignFinished {
-                        id,
-                        generation,
-                        result: result.map(Box::new),
-                    });
-                });
-            if let Err(error) = spawned {
-                let _ = failure_sender.send(JobMessage::DesignFinished {
+            let finished =
+                move |result: Result<TaperDesign, JobError>| JobMessage::DesignFinished {
                     id,
-                    generation,
-                    result: Err(JobError::NoThread(Arc::new(error))),
-                });
-            }
-            return;
-        }
-        let spawned = std::thread::Builder::new()
-            .name(SOLVER_THREAD_NAME.into())
-            .spawn(move || {
-                let mut last_sent = -1.0;
-                let mut progress = |fraction: f64| {
-                    // Throttle: a message per percent is plenty for a spinner.
-                    if fraction - last_sent >= 0.01 {
-                        last_sent = fraction;
-                        let _ = sender.send(JobMessage::Progress { id, fraction });
-                    }
-                    !cancel.load(Ordering::Relaxed)
-                };
-                // A panic in the numerics must not take the UI down with it.
-                let result = std::panic::catch_unwind(std::panic::AssertUnwindSafe(|| {
-                    run_pipeline(
-                        &request.case,
-                        request.resolved.as_deref(),
-                        &rules,
-                        &mut progress,
-                    )
-                }))
-                .unwrap_or_else(|payload| Err(panic_error(payload.as_ref())));
-                let _ = sender.send(JobMessage::Finished {
-                    id,
-                    purpose,
                     generation,
                     result: result.map(Box::new),
-                });
-            });
-        if let Err(error) = spawned {
-            let _ = failure_sender.send(JobMessage::Finished {
-                id,
-                purpose,
-                generation,
-                result: Err(JobError::NoThread(Arc::new(error))),
-            });
+                };
+            spawn_job(&self.sender, move || design_taper(&request), finished);
+            return;
         }
+        let finished = move |result: Result<SolveOutcome, JobError>| JobMessage::Finished {
+            id,
+            purpose,
+            generation,
+            result: result.map(Box::new),
+        };
+        let solve = move || {
+            let mut last_sent = -1.0;
+            let mut progress = |fraction: f64| {
+                // Throttle: a message per percent is plenty for a spinner.
+                if fraction - last_sent >= 0.01 {
+                    last_sent = fraction;
+                    let _ = sender.send(JobMessage::Progress { id, fraction });
+                }
+                !cancel.load(Ordering::Relaxed)
+            };
+            run_pipeline(
+                &request.case,
+                request.resolved.as_deref(),
+                &rules,
+                &mut progress,
+            )
+        };
+        spawn_job(&self.sender, solve, finished);
     }
 
     /// The next message, if one is waiting.

@@ -9,6 +9,7 @@ mod common;
 mod fixtures;
 
 mod cli;
+mod core_levers;
 mod evidence_compare;
 mod evidence_units;
 mod field_scenarios;

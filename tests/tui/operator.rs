@@ -6,6 +6,7 @@ use crate::tui_support;
 
 use crate::tui_support::draw;
 use rolltriage::case::QuantityText;
+use rolltriage::diagnose::sensitivity::{InputSensitivity, Sensitivity};
 use rolltriage::tui::app::{App, Screen};
 use rolltriage::tui::event::Key;
 use rolltriage::tui::job::Purpose;
@@ -281,13 +282,44 @@ fn a_small_window_says_so() {
     assert_eq!(app.screen, Screen::Results);
 }
 
+/// A sensitivity run (hand-made, invented numbers: they only exercise the screen) in which the
+/// assumed friction puts another cause first and the assumed roughness changes nothing.
+fn friction_moves_the_ranking() -> Sensitivity {
+    let input = |field: &str, label: &str, changes_first_cause: bool| InputSensitivity {
+        field: field.into(),
+        label: label.into(),
+        used: "0.3".into(),
+        low: 0.2,
+        high: 0.4,
+        range_text: "0.2 to 0.4".into(),
+        range_source: "the spread of the shipped film presets, at least ±25 %".into(),
+        trials: Vec::new(),
+        changes_first_cause,
+        belief_shift: 0.0,
+    };
+    Sensitivity {
+        first_cause: Some("tension_too_low".into()),
+        first_title: Some("Web tension too low".into()),
+        first_belief: 0.8,
+        assumed: 2,
+        inputs: vec![
+            input("web.friction", "Web-to-web friction", true),
+            input("web.roughness", "Surface roughness (RMS, one side)", false),
+        ],
+        not_varied: Vec::new(),
+        failed: Vec::new(),
+    }
+}
+
 #[test]
 fn the_inputs_that_move_the_ranking_are_named_when_known() {
     let mut app = app();
     app.set_case(sample_case(), None);
     let mut known = outcome(1.0);
     known.resolved = resolved_with_assumed();
-    known.movers = vec!["Web-to-web friction".into()];
+    known.sensitivity = Some(friction_moves_the_ranking());
+    // Only an input that changes what a reader sees is a mover.
+    assert_eq!(known.movers(), ["Web-to-web friction"]);
     finish_requests(&mut app, &known, &known);
     let text = draw(&app, 120, 40);
     assert!(

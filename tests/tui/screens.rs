@@ -359,8 +359,8 @@ symptoms:
     )
     .unwrap();
     assert_eq!(sensitivity.lines(3), cli.lines(3));
-    let named: Vec<String> = cli.top(3).map(|i| i.label.clone()).collect();
-    assert_eq!(solved.movers, named);
+    let named: Vec<&str> = cli.top(3).map(|i| i.label.as_str()).collect();
+    assert_eq!(solved.movers(), named);
     let mut app = app();
     app.set_case(case, Some("cases/small.yaml".into()));
     finish_requests(&mut app, &solved, &solved);

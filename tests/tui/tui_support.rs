@@ -316,7 +316,6 @@ pub fn outcome(scale: f64) -> SolveOutcome {
         resolved: resolved("Sample"),
         profile: profile(scale),
         diagnosis: Ok(diagnosis(scale)),
-        movers: Vec::new(),
         sensitivity: None,
         estimate: None,
     }

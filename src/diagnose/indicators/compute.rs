@@ -115,7 +115,26 @@ impl Indicators {
             0.0
         };
 
-        // Whole-roll and per-zone band measures.
+        self.add_zone_bands(profile, n, web_stress);
+        self.add_build_and_tension(case, profile, n);
+        self.add_core_and_margins(case, profile, core_p, core_r, outer_r);
+
+        // Air film: the solver's estimate when present, otherwise the foil-bearing estimate.
+        let ratio = match &profile.air_film {
+            // The film as wound (after the nip where there is one): the same figure the
+            // reports print.
+            Some((start, outside)) => start.ratio_to_roughness.max(outside.ratio_to_roughness),
+            None => foil_bearing_ratio(case, outer_r),
+        };
+        self.set("air_film_ratio", None, ratio);
+    }
+
+    /// Whole-roll and per-zone band measures of the first `n` nodes (pressure, hoop
+    /// compression, radial strain); `web_stress` is the start tension over the web thickness.
+    fn add_zone_bands(&mut self, profile: &Profile, n: usize, web_stress: f64) {
+        let r = &profile.radius[..n];
+        let p = &profile.pressure[..n];
+        let s = &profile.tangential_stress[..n];
         let mut ranges: Vec<(Option<ZoneName>, usize, usize)> = vec![(None, 0, n)];
         for zone in &profile.zones {
             let start = zone.start.min(n);
@@ -182,7 +201,11 @@ impl Indicators {
                 );
             }
         }
+    }
 
+    /// Mean radial strain over the build and the wound-in tension measures.
+    fn add_build_and_tension(&mut self, case: &ResolvedCase, profile: &Profile, n: usize) {
+        let r = &profile.radius[..n];
         // Mean radial strain over the build (bulk pressed out of the roll).
         if profile.radial_strain.len() >= n {
             let weights = radial_weights(r, 0, n);
@@ -215,7 +238,18 @@ impl Indicators {
                 self.set("wit_step", None, step / mean_wit);
             }
         }
+    }
 
+    /// The core's stiffness against the first wraps, torques, and the slip, telescoping and
+    /// starring margins of the mechanics layer.
+    fn add_core_and_margins(
+        &mut self,
+        case: &ResolvedCase,
+        profile: &Profile,
+        core_p: f64,
+        core_r: f64,
+        outer_r: f64,
+    ) {
         // Core stiffness against the radial modulus of the first wraps.
         let ec = case.core.stiffness.effective_stiffness();
         let er = case.web.radial_stiffness.modulus_at(core_p);
@@ -261,15 +295,6 @@ impl Indicators {
                 ((starring.min_radius - core_r) / (outer_r - core_r)).clamp(0.0, 1.0),
             );
         }
-
-        // Air film: the solver's estimate when present, otherwise the foil-bearing estimate.
-        let ratio = match &profile.air_film {
-            // The film as wound (after the nip where there is one): the same figure the
-            // reports print.
-            Some((start, outside)) => start.ratio_to_roughness.max(outside.ratio_to_roughness),
-            None => foil_bearing_ratio(case, outer_r),
-        };
-        self.set("air_film_ratio", None, ratio);
     }
 }
 

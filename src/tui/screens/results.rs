@@ -248,21 +248,19 @@ pub fn assumed_line(outcome: &SolveOutcome, theme: Theme, width: u16) -> Line<'s
     );
     // Name as many as fit on the line: those that move the ranking most when known, else the
     // assumed inputs in the order of the form.
-    let (labels, mut lead) = if outcome.movers.is_empty() {
+    let movers = outcome.movers();
+    let (labels, mut lead) = if movers.is_empty() {
         (
             share.labels.iter().map(String::as_str).collect::<Vec<_>>(),
             ": ",
         )
     } else {
-        (
-            outcome.movers.iter().map(String::as_str).collect(),
-            "; moves the ranking most: ",
-        )
+        (movers.clone(), "; moves the ranking most: ")
     };
     let room = usize::from(width);
     // A narrow window keeps the first mover in view: the heading shortens, since F3 is on
     // the tab line anyway and the movers are what to enter first.
-    if let Some(first) = outcome.movers.first()
+    if let Some(first) = movers.first()
         && text.chars().count() + lead.chars().count() + first.chars().count() > room
     {
         text = format!(
