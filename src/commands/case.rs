@@ -7,7 +7,9 @@ use anyhow::{Context, bail};
 use rolltriage::case::{Case, ResolvedCase, ValueOrigin, starter_yaml};
 use rolltriage::diagnose::{self, rules::RuleBase};
 use rolltriage::presets::{self, Sourced};
-use rolltriage::units::{QuantityKind, UnitSystem, format_quantity};
+use rolltriage::units::{QuantityKind, format_quantity};
+
+use super::units_arg::UnitsArg;
 
 const EXAMPLES: &str = "\
 Examples:
@@ -72,12 +74,6 @@ pub struct PresetsArgs {
     /// Print the presets as JSON (values in SI) instead of text.
     #[arg(long)]
     pub json: bool,
-}
-
-#[derive(Debug, Clone, Copy, PartialEq, Eq, clap::ValueEnum)]
-pub enum UnitsArg {
-    Si,
-    Us,
 }
 
 pub fn run(args: &CaseArgs) -> anyhow::Result<()> {
@@ -213,10 +209,7 @@ fn list_presets(args: &PresetsArgs) -> anyhow::Result<()> {
         writeln!(out, "{}", serde_json::to_string_pretty(&all)?)?;
         return Ok(());
     }
-    let system = match args.units {
-        UnitsArg::Si => UnitSystem::Si,
-        UnitsArg::Us => UnitSystem::Us,
-    };
+    let system = args.units.system();
     let show = |out: &mut super::output::Stdout,
                 label: &str,
                 value: Sourced,

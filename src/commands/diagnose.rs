@@ -49,8 +49,8 @@ pub struct DiagnoseArgs {
     #[arg(long = "measure", value_name = "KEY=VALUE", help = super::measure::MEASURE_HELP)]
     pub measure: Vec<String>,
     /// Units of the measured-evidence lines in the text output: si or us (in, ft, psi).
-    #[arg(long, value_enum, default_value_t = super::case::UnitsArg::Si)]
-    pub units: super::case::UnitsArg,
+    #[arg(long, value_enum, default_value_t = super::units_arg::UnitsArg::Si)]
+    pub units: super::units_arg::UnitsArg,
 }
 
 /// The rule base: `--rules DIR` or the shipped one.
@@ -136,10 +136,7 @@ pub fn run(args: &DiagnoseArgs) -> anyhow::Result<()> {
     rolltriage::finite::ensure_finite(&what, &diagnosis)?;
     let text = match args.format {
         Format::Text => {
-            let units = match args.units {
-                super::case::UnitsArg::Si => rolltriage::units::UnitSystem::Si,
-                super::case::UnitsArg::Us => rolltriage::units::UnitSystem::Us,
-            };
+            let units = args.units.system();
             diagnose::render::render_text_in(&resolved.title, &diagnosis, args.verbose, units)
                 + &diagnose::render::sensitivity_text(&sensitivity)
                 + &past

@@ -12,7 +12,6 @@ use rolltriage::case::measurements::{
     BendInput, EndLineInput, HardnessInput, LanesInput, MeasurementsInput, ReadingInput, SetInput,
 };
 use rolltriage::evidence::{self, FitOptions};
-use rolltriage::units::UnitSystem;
 
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Default, clap::ValueEnum)]
 pub enum Format {
@@ -43,8 +42,8 @@ pub struct CompareArgs {
     #[arg(long, value_enum, default_value_t = Format::Text)]
     pub format: Format,
     /// Units of the text output: si (mm, kPa, N/m) or us (in, ft, psi, pli). JSON stays SI.
-    #[arg(long, value_enum, default_value_t = super::case::UnitsArg::Si)]
-    pub units: super::case::UnitsArg,
+    #[arg(long, value_enum, default_value_t = super::units_arg::UnitsArg::Si)]
+    pub units: super::units_arg::UnitsArg,
 }
 
 /// Add `--measure` pairs to the case's measurements (they override the file's values).
@@ -221,10 +220,7 @@ pub fn run(args: &CompareArgs) -> anyhow::Result<()> {
             }))? + "\n"
         }
         Format::Text => {
-            let units = match args.units {
-                super::case::UnitsArg::Si => UnitSystem::Si,
-                super::case::UnitsArg::Us => UnitSystem::Us,
-            };
+            let units = args.units.system();
             let mut out = format!("{}\n\nMeasured against computed\n", resolved.title);
             for line in evidence.lines_in(units) {
                 out.push_str(&format!("  {line}\n"));
