@@ -234,13 +234,7 @@ impl Case {
 
     /// Resolve, naming `origin` (usually the file name) in every message.
     pub fn resolve_as(&self, origin: &str) -> Result<ResolvedCase, CaseError> {
-        resolve::Resolver {
-            origin: origin.to_string(),
-            assumed: Vec::new(),
-            named_web: None,
-            named_core: None,
-        }
-        .resolve(self)
+        resolve::Resolver::new(origin).resolve(self)
     }
 
     /// Resolve a case read from a file whose text is `text`, naming `origin` and, where the

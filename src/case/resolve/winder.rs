@@ -7,6 +7,7 @@ use crate::units::QuantityKind;
 use super::super::registry as reg;
 use super::super::{CaseError, ResolvedCore, ResolvedRoll, ResolvedWeb, WindingInput};
 use super::Resolver;
+use super::winding::OutwardList;
 
 /// What the winder adds to the winding settings.
 pub(super) struct WinderSettings {
@@ -85,18 +86,9 @@ impl Resolver {
             ));
         }
         let mut points = Vec::with_capacity(winding.nip_programme.len());
-        let mut last = None;
-        for (index, point) in winding.nip_programme.iter().enumerate() {
-            let field = format!("winding.nip_programme[{index}]");
-            let radius = self.radius_after(
-                &format!("{field}.diameter"),
-                &point.diameter,
-                last,
-                "point",
-                core,
-                roll,
-            )?;
-            last = Some(radius);
+        let mut list = OutwardList::new("winding.nip_programme", "point", core, roll);
+        for point in &winding.nip_programme {
+            let (field, radius) = self.next_outward(&mut list, "diameter", &point.diameter)?;
             let load_field = format!("{field}.nip_load");
             let load = self
                 .quantity(

@@ -212,30 +212,34 @@ impl Resolver {
         Ok(self.check(field, d, &range)? / 2.0)
     }
 
-    /// The diameter of a list entry (a programme point, a taper step) inside the wound part of
-    /// the roll and larger than the entry before it (`previous`, a radius; `None` for the first
-    /// entry), returned as a radius. `what` names the entries in the message ("point", "step").
-    pub(super) fn radius_after(
+    /// The next entry of a list that goes from the core outward: its field path
+    /// (`winding.taper.steps[2]`) and the radius of its diameter (written under `key`), which
+    /// must lie inside the wound part of the roll and above the entry before it.
+    pub(super) fn next_outward(
         &self,
-        field: &str,
+        list: &mut OutwardList,
+        key: &str,
         value: &QuantityText,
-        previous: Option<f64>,
-        what: &str,
-        core: &ResolvedCore,
-        roll: &ResolvedRoll,
-    ) -> Result<f64, CaseError> {
-        let radius = self.radius_in_roll(field, value, core, roll)?;
-        match previous {
-            Some(last) if radius <= last => Err(self.out_of_range(
-                field,
+    ) -> Result<(String, f64), CaseError> {
+        let field = format!("{}[{}]", list.path, list.count);
+        let diameter_field = format!("{field}.{key}");
+        let radius = self.radius_in_roll(&diameter_field, value, list.core, list.roll)?;
+        if let Some(last) = list.last
+            && radius <= last
+        {
+            let what = list.what;
+            return Err(self.out_of_range(
+                &diameter_field,
                 reg::CORE_OUTSIDE.range().show(2.0 * radius),
                 format!(
                     "larger than the previous {what}'s diameter {} (list {what}s from the core outward)",
                     reg::CORE_OUTSIDE.range().show(2.0 * last)
                 ),
-            )),
-            _ => Ok(radius),
+            ));
         }
+        list.last = Some(radius);
+        list.count += 1;
+        Ok((field, radius))
     }
 
     fn tension_below_strength(
@@ -618,18 +622,9 @@ impl Resolver {
             ));
         }
         let mut points = Vec::with_capacity(taper.points.len());
-        let mut last_radius = None;
-        for (index, point) in taper.points.iter().enumerate() {
-            let field = format!("winding.taper.points[{index}]");
-            let radius = self.radius_after(
-                &format!("{field}.diameter"),
-                &point.diameter,
-                last_radius,
-                "point",
-                core,
-                roll,
-            )?;
-            last_radius = Some(radius);
+        let mut list = OutwardList::new("winding.taper.points", "point", core, roll);
+        for point in &taper.points {
+            let (field, radius) = self.next_outward(&mut list, "diameter", &point.diameter)?;
             let tension =
                 self.band_tension(&field, &point.tension, web, &reg::POINT_TENSION.range())?;
             points.push(TensionStep { radius, tension });
@@ -655,21 +650,45 @@ impl Resolver {
                 .invalid("winding.taper.steps is empty; a `steps` taper needs at least one step"));
         }
         let mut steps = Vec::with_capacity(taper.steps.len());
-        let mut last_radius = None;
-        for (index, step) in taper.steps.iter().enumerate() {
-            let field = format!("winding.taper.steps[{index}]");
-            let radius = self.radius_after(
-                &format!("{field}.from_diameter"),
-                &step.from_diameter,
-                last_radius,
-                "step",
-                core,
-                roll,
-            )?;
-            last_radius = Some(radius);
+        let mut list = OutwardList::new("winding.taper.steps", "step", core, roll);
+        for step in &taper.steps {
+            let (field, radius) =
+                self.next_outward(&mut list, "from_diameter", &step.from_diameter)?;
             let tension = self.band_tension(&field, &step.tension, web, &reg::TENSION.range())?;
             steps.push(TensionStep { radius, tension });
         }
         Ok(Taper::Steps { steps })
+    }
+}
+
+/// A list of entries that each start at a diameter, read from the core outward (taper steps,
+/// the tension programme, the nip programme); see [`Resolver::next_outward`].
+pub(super) struct OutwardList<'a> {
+    /// The list's field path, e.g. `winding.taper.steps`.
+    path: &'static str,
+    /// What one entry is called in messages ("step", "point").
+    what: &'static str,
+    core: &'a ResolvedCore,
+    roll: &'a ResolvedRoll,
+    /// Entries read so far, and the radius of the last one.
+    count: usize,
+    last: Option<f64>,
+}
+
+impl<'a> OutwardList<'a> {
+    pub(super) fn new(
+        path: &'static str,
+        what: &'static str,
+        core: &'a ResolvedCore,
+        roll: &'a ResolvedRoll,
+    ) -> Self {
+        OutwardList {
+            path,
+            what,
+            core,
+            roll,
+            count: 0,
+            last: None,
+        }
     }
 }
