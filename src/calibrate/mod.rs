@@ -397,27 +397,7 @@ pub fn fit_points(
         ));
     }
 
-    // Covariance = s²·(JᵀJ)⁻¹ with s² from the weighted residuals (as SciPy's curve_fit does
-    // with absolute_sigma=False).
-    let dof = (n - 2) as f64;
-    let s2 = solution.residuals.norm_squared() / dof;
-    let normal = solution.jacobian.transpose() * &solution.jacobian;
-    let (k1_se, k2_se, correlation) = match normal.try_inverse() {
-        Some(inv) => {
-            let v1 = (s2 * inv[(0, 0)]).max(0.0);
-            let v2 = (s2 * inv[(1, 1)]).max(0.0);
-            let c = if v1 > 0.0 && v2 > 0.0 {
-                s2 * inv[(0, 1)] / (v1.sqrt() * v2.sqrt())
-            } else {
-                0.0
-            };
-            (v1.sqrt(), v2.sqrt(), c)
-        }
-        None => {
-            warnings.push("the parameters cannot be separated by these data (singular JᵀJ); no uncertainty available".into());
-            (f64::NAN, f64::NAN, f64::NAN)
-        }
-    };
+    let (k1_se, k2_se, correlation) = parameter_uncertainty(&solution, &mut warnings);
 
     let mut fit_points: Vec<FitPoint> = points
         .iter()
@@ -433,32 +413,105 @@ pub fn fit_points(
             }
         })
         .collect();
-    // R² of the weighted sum the fit minimised (see `PfeifferFit::r_squared`).
+    let r_squared = weighted_r_squared(&weight, &fit_points);
+    let ssr: f64 = fit_points.iter().map(|p| p.residual * p.residual).sum();
+    let rms_residual = (ssr / n as f64).sqrt();
+    let outlier_lines = flag_outliers(&mut fit_points, &weight, &solution.jacobian, &mut warnings);
+
+    quality_warnings(
+        options,
+        &fit_points,
+        r_squared,
+        [(k1, k1_se), (k2, k2_se)],
+        &mut warnings,
+    );
+
+    Ok(PfeifferFit {
+        k1,
+        k2,
+        k1_standard_error: k1_se,
+        k2_standard_error: k2_se,
+        correlation,
+        r_squared,
+        rms_residual,
+        weighting: options.weighting,
+        start,
+        iterations: solution.iterations,
+        points: fit_points,
+        dropped_unloading,
+        outliers: outlier_lines,
+        warnings,
+    })
+}
+
+/// Standard errors of K1 and K2 and their correlation: covariance = s²·(JᵀJ)⁻¹ with s² from
+/// the weighted residuals (as SciPy's curve_fit does with absolute_sigma=False). NaN, with a
+/// warning, when the data cannot separate the parameters.
+fn parameter_uncertainty(
+    solution: &levenberg_marquardt::LmSolution,
+    warnings: &mut Vec<String>,
+) -> (f64, f64, f64) {
+    let dof = (solution.residuals.len() - 2) as f64;
+    let s2 = solution.residuals.norm_squared() / dof;
+    let normal = solution.jacobian.transpose() * &solution.jacobian;
+    match normal.try_inverse() {
+        Some(inv) => {
+            let v1 = (s2 * inv[(0, 0)]).max(0.0);
+            let v2 = (s2 * inv[(1, 1)]).max(0.0);
+            let c = if v1 > 0.0 && v2 > 0.0 {
+                s2 * inv[(0, 1)] / (v1.sqrt() * v2.sqrt())
+            } else {
+                0.0
+            };
+            (v1.sqrt(), v2.sqrt(), c)
+        }
+        None => {
+            warnings.push("the parameters cannot be separated by these data (singular JᵀJ); no uncertainty available".into());
+            (f64::NAN, f64::NAN, f64::NAN)
+        }
+    }
+}
+
+/// R² of the weighted sum the fit minimised (see `PfeifferFit::r_squared`).
+fn weighted_r_squared(weight: &[f64], points: &[FitPoint]) -> f64 {
     let w2: Vec<f64> = weight.iter().map(|w| w * w).collect();
-    let mean = w2.iter().zip(&pressure).map(|(w, p)| w * p).sum::<f64>() / w2.iter().sum::<f64>();
+    let mean = w2
+        .iter()
+        .zip(points)
+        .map(|(w, p)| w * p.pressure)
+        .sum::<f64>()
+        / w2.iter().sum::<f64>();
     let sst: f64 = w2
         .iter()
-        .zip(&pressure)
-        .map(|(w, p)| w * (p - mean) * (p - mean))
+        .zip(points)
+        .map(|(w, p)| w * (p.pressure - mean) * (p.pressure - mean))
         .sum();
     let weighted_ssr: f64 = w2
         .iter()
-        .zip(&fit_points)
+        .zip(points)
         .map(|(w, p)| w * p.residual * p.residual)
         .sum();
-    let r_squared = if sst > 0.0 {
+    if sst > 0.0 {
         1.0 - weighted_ssr / sst
     } else {
         f64::NAN
-    };
-    let ssr: f64 = fit_points.iter().map(|p| p.residual * p.residual).sum();
-    let rms_residual = (ssr / n as f64).sqrt();
+    }
+}
+
+/// Set each point's studentized residual and warn of the outliers (beyond
+/// `OUTLIER_STUDENTIZED` and more than a factor of 2 off); their line numbers.
+fn flag_outliers(
+    fit_points: &mut [FitPoint],
+    weight: &[f64],
+    jacobian: &DMatrix<f64>,
+    warnings: &mut Vec<String>,
+) -> Vec<usize> {
     let weighted: Vec<f64> = weight
         .iter()
-        .zip(&fit_points)
+        .zip(fit_points.iter())
         .map(|(w, p)| w * p.residual)
         .collect();
-    let studentized = studentized_residuals(&weighted, &solution.jacobian);
+    let studentized = studentized_residuals(&weighted, jacobian);
     for (point, t) in fit_points.iter_mut().zip(&studentized) {
         point.studentized = t.filter(|t| t.is_finite());
     }
@@ -487,8 +540,19 @@ pub fn fit_points(
             stress(p.fitted),
         ));
     }
-    let outlier_lines = flagged.iter().map(|&(i, _)| fit_points[i].line).collect();
+    flagged.iter().map(|&(i, _)| fit_points[i].line).collect()
+}
 
+/// Warnings on the fit's quality: few points, a poor R², a parameter whose standard error is
+/// large against its value (`[(K1, se), (K2, se)]`), residuals in long same-sign runs.
+fn quality_warnings(
+    options: &FitOptions,
+    fit_points: &[FitPoint],
+    r_squared: f64,
+    [(k1, k1_se), (k2, k2_se)]: [(f64, f64); 2],
+    warnings: &mut Vec<String>,
+) {
+    let n = fit_points.len();
     if n < options.few_points {
         warnings.push(format!(
             "only {n} loading points; the uncertainties are rough — {} or more spread over the pressure range are better",
@@ -509,30 +573,13 @@ pub fn fit_points(
             ));
         }
     }
-    if let Some(z) = runs_test_z(&fit_points)
+    if let Some(z) = runs_test_z(fit_points)
         && z < -2.58
     {
         warnings.push(format!(
             "the residuals run in long same-sign stretches (runs test z = {z:.1}): the law misses the curve's shape systematically; check the residuals table"
         ));
     }
-
-    Ok(PfeifferFit {
-        k1,
-        k2,
-        k1_standard_error: k1_se,
-        k2_standard_error: k2_se,
-        correlation,
-        r_squared,
-        rms_residual,
-        weighting: options.weighting,
-        start,
-        iterations: solution.iterations,
-        points: fit_points,
-        dropped_unloading,
-        outliers: outlier_lines,
-        warnings,
-    })
 }
 
 /// Wald–Wolfowitz runs test on the residual signs (Wald & Wolfowitz, Ann. Math. Stat. 11, 1940):

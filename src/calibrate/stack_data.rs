@@ -217,6 +217,16 @@ pub fn read_stack_file(path: &Path) -> Result<String, CalibrateError> {
     })
 }
 
+/// Which columns hold the abscissa (strain or height) and the pressure, with their headers.
+struct Columns {
+    x_index: usize,
+    x_kind: Abscissa,
+    x_header: String,
+    p_index: usize,
+    p_factor: f64,
+    p_header: String,
+}
+
 /// Parse a stack-compression CSV. `origin` names the file in messages.
 pub fn parse_stack_csv(
     text: &str,
@@ -268,7 +278,64 @@ pub fn parse_stack_csv(
             message: "the file has no header row; expected e.g. \"strain,pressure [kPa]\"".into(),
         });
     }
+    let columns = read_columns(origin, &headers, &mut notes)?;
+    let (initial_height, layers) = stack_size(origin, options, &metadata)?;
 
+    // Raw rows.
+    let mut rows: Vec<(usize, f64, f64)> = Vec::new();
+    for record in reader.records() {
+        let record = record.map_err(|e| CalibrateError::Csv {
+            origin: origin.to_string(),
+            message: e.to_string(),
+        })?;
+        let line = record.position().map(|p| p.line() as usize).unwrap_or(0);
+        if record.iter().all(|f| f.trim().is_empty()) {
+            continue;
+        }
+        if record.len() > headers.len() {
+            return Err(CalibrateError::Value {
+                origin: origin.to_string(),
+                line,
+                column: headers.len() + 1,
+                header: "beyond the header".to_string(),
+                message: format!(
+                    "the row has {} cells but the header names {} columns; if the numbers use a decimal comma (\"0,05\"), write them with a decimal point, quote them, or separate the cells with semicolons",
+                    record.len(),
+                    headers.len()
+                ),
+            });
+        }
+        let field = |index: usize, header: &str| -> Result<f64, CalibrateError> {
+            let text = record.get(index).unwrap_or("");
+            parse_number(origin, line, index + 1, header, text, semicolons)
+        };
+        let x = field(columns.x_index, &columns.x_header)?;
+        let p = field(columns.p_index, &columns.p_header)? * columns.p_factor;
+        rows.push((line, x, p));
+    }
+
+    let initial_height = initial_height_of(origin, &columns, initial_height, &rows, &mut notes)?;
+    let points = rows
+        .into_iter()
+        .map(|(line, x, p)| stack_point(origin, &columns, initial_height, line, x, p))
+        .collect::<Result<Vec<_>, _>>()?;
+    Ok(StackTest {
+        origin: origin.to_string(),
+        points,
+        initial_height,
+        layers,
+        metadata,
+        notes,
+    })
+}
+
+/// The abscissa and pressure columns named by the header row, with their unit factors; a
+/// column that is neither is noted as not used.
+fn read_columns(
+    origin: &str,
+    headers: &csv::StringRecord,
+    notes: &mut Vec<String>,
+) -> Result<Columns, CalibrateError> {
     let mut abscissa: Option<(usize, Abscissa)> = None;
     let mut pressure: Option<(usize, f64)> = None;
     for (index, header) in headers.iter().enumerate() {
@@ -325,10 +392,22 @@ pub fn parse_stack_csv(
             message: "no pressure column; expected a header such as \"pressure [kPa]\" or \"pressure [psi]\"".into(),
         });
     };
-    let x_header = headers.get(x_index).unwrap_or("").to_string();
-    let p_header = headers.get(p_index).unwrap_or("").to_string();
+    Ok(Columns {
+        x_index,
+        x_kind,
+        x_header: headers.get(x_index).unwrap_or("").to_string(),
+        p_index,
+        p_factor,
+        p_header: headers.get(p_index).unwrap_or("").to_string(),
+    })
+}
 
-    // Initial height: option, then metadata; layers likewise.
+/// The stack's initial height and layer count: the option, else the file's metadata comment.
+fn stack_size(
+    origin: &str,
+    options: &StackReadOptions,
+    metadata: &BTreeMap<String, String>,
+) -> Result<(Option<f64>, Option<usize>), CalibrateError> {
     let mut initial_height = options.initial_height;
     if initial_height.is_none()
         && let Some(text) = metadata.get("initial_height")
@@ -360,43 +439,21 @@ pub fn parse_stack_csv(
             message: "the layer count must be at least 1".into(),
         });
     }
+    Ok((initial_height, layers))
+}
 
-    // Raw rows.
-    let mut rows: Vec<(usize, f64, f64)> = Vec::new();
-    for record in reader.records() {
-        let record = record.map_err(|e| CalibrateError::Csv {
-            origin: origin.to_string(),
-            message: e.to_string(),
-        })?;
-        let line = record.position().map(|p| p.line() as usize).unwrap_or(0);
-        if record.iter().all(|f| f.trim().is_empty()) {
-            continue;
-        }
-        if record.len() > headers.len() {
-            return Err(CalibrateError::Value {
-                origin: origin.to_string(),
-                line,
-                column: headers.len() + 1,
-                header: "beyond the header".to_string(),
-                message: format!(
-                    "the row has {} cells but the header names {} columns; if the numbers use a decimal comma (\"0,05\"), write them with a decimal point, quote them, or separate the cells with semicolons",
-                    record.len(),
-                    headers.len()
-                ),
-            });
-        }
-        let field = |index: usize, header: &str| -> Result<f64, CalibrateError> {
-            let text = record.get(index).unwrap_or("");
-            parse_number(origin, line, index + 1, header, text, semicolons)
-        };
-        let x = field(x_index, &x_header)?;
-        let p = field(p_index, &p_header)? * p_factor;
-        rows.push((line, x, p));
-    }
-
-    let initial_height = match x_kind {
-        Abscissa::Strain(_) => initial_height,
-        Abscissa::Height(f) => match initial_height {
+/// The initial height the strains are measured from: as given for height data, else the first
+/// row when it is at zero pressure; a strain column needs none.
+fn initial_height_of(
+    origin: &str,
+    columns: &Columns,
+    given: Option<f64>,
+    rows: &[(usize, f64, f64)],
+    notes: &mut Vec<String>,
+) -> Result<Option<f64>, CalibrateError> {
+    let initial_height = match columns.x_kind {
+        Abscissa::Strain(_) => given,
+        Abscissa::Height(f) => match given {
             Some(h) => Some(h),
             None => match rows.first() {
                 Some(&(line, h, 0.0)) => {
@@ -424,76 +481,73 @@ pub fn parse_stack_csv(
             message: format!("initial height {h0} m must be a positive length"),
         });
     }
+    Ok(initial_height)
+}
 
-    let mut points = Vec::with_capacity(rows.len());
-    for (line, x, p) in rows {
-        let strain = match x_kind {
-            Abscissa::Strain(f) => x * f,
-            Abscissa::Height(f) => {
-                let h = x * f;
-                let h0 = initial_height.unwrap_or(h);
-                if h <= 0.0 {
-                    return Err(CalibrateError::Value {
-                        origin: origin.to_string(),
-                        line,
-                        column: x_index + 1,
-                        header: x_header.clone(),
-                        message: format!("height {x} must be positive"),
-                    });
-                }
-                (h0 - h) / h0
+/// One row as a point: its strain (from the height where the file gives heights) and pressure,
+/// each within its accepted range.
+fn stack_point(
+    origin: &str,
+    columns: &Columns,
+    initial_height: Option<f64>,
+    line: usize,
+    x: f64,
+    p: f64,
+) -> Result<StackPoint, CalibrateError> {
+    let value_error = |column: usize, header: &str, message: String| CalibrateError::Value {
+        origin: origin.to_string(),
+        line,
+        column: column + 1,
+        header: header.to_string(),
+        message,
+    };
+    let (x_index, x_header) = (columns.x_index, columns.x_header.as_str());
+    let strain = match columns.x_kind {
+        Abscissa::Strain(f) => x * f,
+        Abscissa::Height(f) => {
+            let h = x * f;
+            let h0 = initial_height.unwrap_or(h);
+            if h <= 0.0 {
+                return Err(value_error(
+                    x_index,
+                    x_header,
+                    format!("height {x} must be positive"),
+                ));
+            }
+            (h0 - h) / h0
+        }
+    };
+    if strain < 0.0 {
+        let message = match columns.x_kind {
+            Abscissa::Height(_) => format!(
+                "height {x} is above the initial height, which gives a negative strain ({strain:.4}); accepted: heights at or below the initial height"
+            ),
+            Abscissa::Strain(_) => {
+                format!("negative strain {x}; accepted: 0 ≤ strain < 1 (compression positive)")
             }
         };
-        if strain < 0.0 {
-            return Err(CalibrateError::Value {
-                origin: origin.to_string(),
-                line,
-                column: x_index + 1,
-                header: x_header.clone(),
-                message: match x_kind {
-                    Abscissa::Height(_) => format!(
-                        "height {x} is above the initial height, which gives a negative strain ({strain:.4}); accepted: heights at or below the initial height"
-                    ),
-                    Abscissa::Strain(_) => format!(
-                        "negative strain {x}; accepted: 0 ≤ strain < 1 (compression positive)"
-                    ),
-                },
-            });
-        }
-        if strain >= 1.0 {
-            return Err(CalibrateError::Value {
-                origin: origin.to_string(),
-                line,
-                column: x_index + 1,
-                header: x_header.clone(),
-                message: format!(
-                    "strain {strain} is not below 1; if the column is in percent write \"strain [%]\""
-                ),
-            });
-        }
-        if p < 0.0 {
-            return Err(CalibrateError::Value {
-                origin: origin.to_string(),
-                line,
-                column: p_index + 1,
-                header: p_header.clone(),
-                message: "negative pressure; accepted: pressure ≥ 0 (compression positive)".into(),
-            });
-        }
-        points.push(StackPoint {
-            line,
-            strain,
-            pressure: p,
-        });
+        return Err(value_error(x_index, x_header, message));
     }
-
-    Ok(StackTest {
-        origin: origin.to_string(),
-        points,
-        initial_height,
-        layers,
-        metadata,
-        notes,
+    if strain >= 1.0 {
+        return Err(value_error(
+            x_index,
+            x_header,
+            format!(
+                "strain {strain} is not below 1; if the column is in percent write \"strain [%]\""
+            ),
+        ));
+    }
+    if p < 0.0 {
+        return Err(value_error(
+            columns.p_index,
+            &columns.p_header,
+            "negative pressure; accepted: pressure ≥ 0 (compression positive)".into(),
+        ));
+    }
+    Ok(StackPoint {
+        line,
+        strain,
+        pressure: p,
     })
 }
 

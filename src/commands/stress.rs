@@ -227,10 +227,37 @@ pub fn summary_table(
     mechanics: &rolltriage::mechanics::MechanicsInputs,
     system: UnitSystem,
 ) -> String {
-    let s = &profile.summary;
-    let solver = &profile.solver;
     let mut t = String::new();
     t.push_str(&format!("Wound-roll stresses: {title}\n\n"));
+    let mut rows = profile_rows(problem, profile, system);
+    rows.extend(mechanism_rows(profile, mechanics, system));
+    rows.extend(solver_and_air_rows(profile, system));
+    let width = rows
+        .iter()
+        .map(|(k, _)| k.chars().count())
+        .max()
+        .unwrap_or(0);
+    for (k, v) in rows {
+        t.push_str(&format!("  {k:<width$}  {v}\n"));
+    }
+    t.push_str(&zone_table(profile, system));
+    if !profile.warnings.is_empty() {
+        t.push_str("\nWarnings:\n");
+        for w in &profile.warnings {
+            t.push_str(&format!("  - {w}\n"));
+        }
+    }
+    t
+}
+
+/// The rows of the stress profile itself: wraps, build, pressures, stresses, strain, bands.
+fn profile_rows(
+    problem: &model::WindingProblem,
+    profile: &Profile,
+    system: UnitSystem,
+) -> Vec<(&'static str, String)> {
+    let s = &profile.summary;
+    let solver = &profile.solver;
     let resolution = if solver.grid.is_per_layer() {
         "per layer".to_string()
     } else {
@@ -239,7 +266,7 @@ pub fn summary_table(
             solver.grid.layers_per_element
         )
     };
-    let rows: Vec<(&str, String)> = vec![
+    vec![
         (
             "Wraps",
             format!(
@@ -294,10 +321,13 @@ pub fn summary_table(
             "Outer zones below 25 % of peak pressure",
             format!("{:.0} %", 100.0 * s.outer_low_pressure_share),
         ),
-    ];
-    let mut rows = rows;
-    rows.extend(mechanism_rows(profile, mechanics, system));
-    if let Some(change) = solver.group_halving_change {
+    ]
+}
+
+/// The grid check (core pressure with the elements halved) and the entrained air film.
+fn solver_and_air_rows(profile: &Profile, system: UnitSystem) -> Vec<(&'static str, String)> {
+    let mut rows = Vec::new();
+    if let Some(change) = profile.solver.group_halving_change {
         rows.push((
             "Core pressure change, elements halved",
             format!("{:.2} % (check: below 1 %)", 100.0 * change),
@@ -322,14 +352,12 @@ pub fn summary_table(
             ),
         ));
     }
-    let width = rows
-        .iter()
-        .map(|(k, _)| k.chars().count())
-        .max()
-        .unwrap_or(0);
-    for (k, v) in rows {
-        t.push_str(&format!("  {k:<width$}  {v}\n"));
-    }
+    rows
+}
+
+/// The table of zones: diameters, pressures and the most compressive tangential stress.
+fn zone_table(profile: &Profile, system: UnitSystem) -> String {
+    let mut t = String::new();
     t.push_str(&format!(
         "\nZones (build fractions: core < {:.0} %, inner < {:.0} %, middle < {:.0} %, outer, \
          surface = outermost tensile wraps)\n",
@@ -363,12 +391,6 @@ pub fn summary_table(
             stress(p.max, system),
             min_t
         ));
-    }
-    if !profile.warnings.is_empty() {
-        t.push_str("\nWarnings:\n");
-        for w in &profile.warnings {
-            t.push_str(&format!("  - {w}\n"));
-        }
     }
     t
 }

@@ -57,41 +57,12 @@ impl Resolver {
         };
         let (diameter, length) = match (diameter, length) {
             (Some(d), given_length) => {
-                let d = self.check(reg::ROLL_DIAMETER.path, d, &diameter_range)?;
-                self.note_preset_copy(&reg::ROLL_DIAMETER, d);
-                if d <= core.outside_diameter {
-                    return Err(self.out_of_range(
-                        reg::ROLL_DIAMETER.path,
-                        diameter_range.show(d),
-                        format!(
-                            "larger than the core outside diameter {} (the core is bigger than the roll)",
-                            reg::CORE_OUTSIDE.range().show(core.outside_diameter)
-                        ),
-                    ));
-                }
-                if d < core.outside_diameter + 2.0 * h {
-                    return Err(self.out_of_range(
-                        reg::ROLL_DIAMETER.path,
-                        diameter_range.show(d),
-                        format!(
-                            "at least one layer over the core: {} or more",
-                            diameter_range.show(core.outside_diameter + 2.0 * h)
-                        ),
-                    ));
-                }
+                let d = self.given_roll_diameter(d, core, h)?;
                 // The length derived from a given diameter is informational (the model works
                 // on radii); it is listed as computed so no report calls it given.
                 let length = match given_length {
                     Some(l) => l,
-                    None => {
-                        let l = length_of(d);
-                        self.computed(
-                            reg::ROLL_LENGTH.path,
-                            length_range.show(l),
-                            "computed from the diameters and the caliper: L = π(R² − rc²)/h",
-                        );
-                        l
-                    }
+                    None => self.computed_length(length_of(d)),
                 };
                 (d, length)
             }
@@ -124,13 +95,7 @@ impl Resolver {
                     ));
                 }
                 let d = self.assumed(reg::ROLL_DIAMETER.path, &diameter_range, fallback, "");
-                let l = length_of(d);
-                self.computed(
-                    reg::ROLL_LENGTH.path,
-                    length_range.show(l),
-                    "computed from the diameters and the caliper: L = π(R² − rc²)/h",
-                );
-                (d, l)
+                (d, self.computed_length(length_of(d)))
             }
         };
         self.at_most_max_layers(
@@ -144,6 +109,49 @@ impl Resolver {
             outer_diameter: diameter,
             length,
         })
+    }
+
+    /// A given roll diameter: in range and at least one layer of caliper `h` over the core.
+    fn given_roll_diameter(
+        &mut self,
+        d: f64,
+        core: &ResolvedCore,
+        h: f64,
+    ) -> Result<f64, CaseError> {
+        let diameter_range = reg::ROLL_DIAMETER.range();
+        let d = self.check(reg::ROLL_DIAMETER.path, d, &diameter_range)?;
+        self.note_preset_copy(&reg::ROLL_DIAMETER, d);
+        if d <= core.outside_diameter {
+            return Err(self.out_of_range(
+                reg::ROLL_DIAMETER.path,
+                diameter_range.show(d),
+                format!(
+                    "larger than the core outside diameter {} (the core is bigger than the roll)",
+                    reg::CORE_OUTSIDE.range().show(core.outside_diameter)
+                ),
+            ));
+        }
+        if d < core.outside_diameter + 2.0 * h {
+            return Err(self.out_of_range(
+                reg::ROLL_DIAMETER.path,
+                diameter_range.show(d),
+                format!(
+                    "at least one layer over the core: {} or more",
+                    diameter_range.show(core.outside_diameter + 2.0 * h)
+                ),
+            ));
+        }
+        Ok(d)
+    }
+
+    /// A wound length computed from the diameters, recorded as computed.
+    fn computed_length(&mut self, length: f64) -> f64 {
+        self.computed(
+            reg::ROLL_LENGTH.path,
+            reg::ROLL_LENGTH.range().show(length),
+            "computed from the diameters and the caliper: L = π(R² − rc²)/h",
+        );
+        length
     }
 
     /// A given wound length: in range and at least one wrap around the core.
