@@ -258,19 +258,18 @@ impl Store {
 
     /// Every complaint's key values, oldest first.
     pub fn scan(&mut self) -> Result<Vec<ScanRow>, HistoryError> {
-        let sql = format!("SELECT {SCAN_COLUMNS} FROM complaints ORDER BY id");
-        let mut out = Vec::new();
-        self.conn.query_each(&sql, &[], |row| {
-            out.push(scan_from_row(row));
-            Ok(())
-        })?;
-        Ok(out)
+        self.scan_where("")
     }
 
     /// Only complaints with a confirmed cause (the site experience and performance need no more).
     pub fn scan_confirmed(&mut self) -> Result<Vec<ScanRow>, HistoryError> {
-        let sql =
-            format!("SELECT {SCAN_COLUMNS} FROM complaints WHERE confirmed <> ' ' ORDER BY id");
+        self.scan_where("WHERE confirmed <> ' '")
+    }
+
+    /// The key values of the complaints a fixed `WHERE` clause selects (empty: all), oldest
+    /// first, read row by row.
+    fn scan_where(&mut self, condition: &str) -> Result<Vec<ScanRow>, HistoryError> {
+        let sql = format!("SELECT {SCAN_COLUMNS} FROM complaints {condition} ORDER BY id");
         let mut out = Vec::new();
         self.conn.query_each(&sql, &[], |row| {
             out.push(scan_from_row(row));

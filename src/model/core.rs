@@ -189,38 +189,21 @@ impl CoreStiffness {
 
     /// The same core with its moduli (or measured stiffness) multiplied by `factor`.
     pub fn scaled(&self, factor: f64) -> CoreStiffness {
-        match *self {
-            CoreStiffness::Rigid => CoreStiffness::Rigid,
-            CoreStiffness::Hollow {
-                inner_radius,
-                outer_radius,
-                modulus,
-                poisson_ratio,
-            } => CoreStiffness::Hollow {
-                inner_radius,
-                outer_radius,
-                modulus: modulus * factor,
-                poisson_ratio,
-            },
+        let mut scaled = *self;
+        match &mut scaled {
+            CoreStiffness::Rigid => {}
+            CoreStiffness::Hollow { modulus, .. } => *modulus *= factor,
             CoreStiffness::Tube {
-                inner_radius,
-                outer_radius,
                 hoop_modulus,
                 radial_modulus,
-                poisson_ratio,
-                support,
-            } => CoreStiffness::Tube {
-                inner_radius,
-                outer_radius,
-                hoop_modulus: hoop_modulus * factor,
-                radial_modulus: radial_modulus * factor,
-                poisson_ratio,
-                support,
-            },
-            CoreStiffness::Measured { stiffness } => CoreStiffness::Measured {
-                stiffness: stiffness * factor,
-            },
+                ..
+            } => {
+                *hoop_modulus *= factor;
+                *radial_modulus *= factor;
+            }
+            CoreStiffness::Measured { stiffness } => *stiffness *= factor,
         }
+        scaled
     }
 
     /// Coefficient c of the core boundary condition r·δσr'(rc) = c·δσr(rc) for a web with

@@ -220,10 +220,29 @@ impl Resolver {
         Ok(self.check(field, d, &range)? / 2.0)
     }
 
+    /// Read a list whose entries each start at a diameter, from the core outward: `diameter`
+    /// gives an entry's diameter key and text, `value` reads the rest of the entry given its
+    /// field path. The entries as (radius, value), in order; the first bad entry's error.
+    pub(super) fn read_outward<T, V>(
+        &mut self,
+        mut list: OutwardList,
+        entries: &[T],
+        diameter: impl Fn(&T) -> (&'static str, &QuantityText),
+        mut value: impl FnMut(&mut Self, &str, &T) -> Result<V, CaseError>,
+    ) -> Result<Vec<(f64, V)>, CaseError> {
+        let mut out = Vec::with_capacity(entries.len());
+        for entry in entries {
+            let (key, text) = diameter(entry);
+            let (field, radius) = self.next_outward(&mut list, key, text)?;
+            out.push((radius, value(self, &field, entry)?));
+        }
+        Ok(out)
+    }
+
     /// The next entry of a list that goes from the core outward: its field path
     /// (`winding.taper.steps[2]`) and the radius of its diameter (written under `key`), which
     /// must lie inside the wound part of the roll and above the entry before it.
-    pub(super) fn next_outward(
+    fn next_outward(
         &self,
         list: &mut OutwardList,
         key: &str,
@@ -629,15 +648,18 @@ impl Resolver {
                 "winding.taper.points is empty; a tension programme needs at least one point",
             ));
         }
-        let mut points = Vec::with_capacity(taper.points.len());
-        let mut list = OutwardList::new("winding.taper.points", "point", core, roll);
-        for point in &taper.points {
-            let (field, radius) = self.next_outward(&mut list, "diameter", &point.diameter)?;
-            let tension =
-                self.band_tension(&field, &point.tension, web, &reg::POINT_TENSION.range())?;
-            points.push(TensionStep { radius, tension });
-        }
-        Ok(Taper::Programme { points })
+        let list = OutwardList::new("winding.taper.points", "point", core, roll);
+        let points = self.read_outward(
+            list,
+            &taper.points,
+            |point| ("diameter", &point.diameter),
+            |this, field, point| {
+                this.band_tension(field, &point.tension, web, &reg::POINT_TENSION.range())
+            },
+        )?;
+        Ok(Taper::Programme {
+            points: tension_steps(points),
+        })
     }
 
     /// The steps of a `steps` taper, diameters turned into radii.
@@ -657,20 +679,21 @@ impl Resolver {
             return Err(self
                 .invalid("winding.taper.steps is empty; a `steps` taper needs at least one step"));
         }
-        let mut steps = Vec::with_capacity(taper.steps.len());
-        let mut list = OutwardList::new("winding.taper.steps", "step", core, roll);
-        for step in &taper.steps {
-            let (field, radius) =
-                self.next_outward(&mut list, "from_diameter", &step.from_diameter)?;
-            let tension = self.band_tension(&field, &step.tension, web, &reg::TENSION.range())?;
-            steps.push(TensionStep { radius, tension });
-        }
-        Ok(Taper::Steps { steps })
+        let list = OutwardList::new("winding.taper.steps", "step", core, roll);
+        let steps = self.read_outward(
+            list,
+            &taper.steps,
+            |step| ("from_diameter", &step.from_diameter),
+            |this, field, step| this.band_tension(field, &step.tension, web, &reg::TENSION.range()),
+        )?;
+        Ok(Taper::Steps {
+            steps: tension_steps(steps),
+        })
     }
 }
 
 /// A list of entries that each start at a diameter, read from the core outward (taper steps,
-/// the tension programme, the nip programme); see [`Resolver::next_outward`].
+/// the tension programme, the nip programme); see [`Resolver::read_outward`].
 pub(super) struct OutwardList<'a> {
     /// The list's field path, e.g. `winding.taper.steps`.
     path: &'static str,
@@ -699,4 +722,12 @@ impl<'a> OutwardList<'a> {
             last: None,
         }
     }
+}
+
+/// (radius, tension) pairs as the model's tension steps.
+fn tension_steps(entries: Vec<(f64, f64)>) -> Vec<TensionStep> {
+    entries
+        .into_iter()
+        .map(|(radius, tension)| TensionStep { radius, tension })
+        .collect()
 }
