@@ -300,6 +300,13 @@ mod tests {
             std::fs::metadata(path).unwrap().permissions().mode() & 0o7777
         }
 
+        fn is_symlink(path: &Path) -> bool {
+            std::fs::symlink_metadata(path)
+                .unwrap()
+                .file_type()
+                .is_symlink()
+        }
+
         #[test]
         fn saving_over_a_file_keeps_its_permission_bits() {
             let dir = tempfile::tempdir().unwrap();
@@ -339,12 +346,7 @@ mod tests {
             let link = dir.path().join("link.yaml");
             std::os::unix::fs::symlink(&real, &link).unwrap();
             save_atomic(&link, b"new").unwrap();
-            assert!(
-                std::fs::symlink_metadata(&link)
-                    .unwrap()
-                    .file_type()
-                    .is_symlink()
-            );
+            assert!(is_symlink(&link));
             assert_eq!(std::fs::read(&real).unwrap(), b"new");
             assert_eq!(mode(&real), 0o600);
             assert_eq!(std::fs::read_dir(&real_dir).unwrap().count(), 1);
@@ -357,12 +359,7 @@ mod tests {
             std::os::unix::fs::symlink(dir.path().join("gone.yaml"), &link).unwrap();
             let error = save_atomic(&link, b"new").unwrap_err();
             assert!(matches!(error, SaveError::BrokenLink { .. }), "{error:?}");
-            assert!(
-                std::fs::symlink_metadata(&link)
-                    .unwrap()
-                    .file_type()
-                    .is_symlink()
-            );
+            assert!(is_symlink(&link));
         }
 
         #[test]
