@@ -337,121 +337,92 @@ pub fn fit_pfeiffer(test: &StackTest, options: &FitOptions) -> Result<PfeifferFi
     )
 }
 
-/// Fit Pfeiffer's law to points already known to be a loading branch.
-pub fn fit_points(
-    origin: &str,
-    points: &[StackPoint],
-    options: &FitOptions,
-    dropped_unloading: usize,
-    mut warnings: Vec<String>,
-) -> Result<PfeifferFit, CalibrateError> {
-    let n = points.len();
-    if n < 3 {
-        return Err(CalibrateError::TooFewPoints {
-            origin: origin.to_string(),
-            message: format!(
-                "{n} loading point(s); the two Pfeiffer parameters and their uncertainty need at least 3 (10 or more spread over the pressure range are better)"
-            ),
-        });
-    }
-    let strain: Vec<f64> = points.iter().map(|p| p.strain).collect();
-    let pressure: Vec<f64> = points.iter().map(|p| p.pressure).collect();
-    let positive = pressure.iter().filter(|p| **p > 0.0).count();
-    if positive < 2 {
-        return Err(CalibrateError::TooFewPoints {
-            origin: origin.to_string(),
-            message: "fewer than 2 rows with a positive pressure; nothing to fit".into(),
-        });
-    }
-    let max_pressure = pressure.iter().cloned().fold(0.0, f64::max);
-    let weight: Vec<f64> = match options.weighting {
-        Weighting::Absolute => vec![1.0; n],
-        Weighting::Relative => pressure
-            .iter()
-            .map(|p| 1.0 / p.max(Weighting::RELATIVE_FLOOR * max_pressure))
-            .collect(),
-    };
-    let start = log_linear_start(&strain, &pressure).ok_or_else(|| CalibrateError::FitFailed {
-        origin: origin.to_string(),
-        message: "no log-linear start: pressure does not rise with strain".into(),
-    })?;
-    let model = PfeifferModel {
-        strain: &strain,
-        pressure: &pressure,
-        weight: &weight,
-    };
-    let solution = levenberg_marquardt::minimise(
-        &model,
-        DVector::from_vec(vec![start.0, start.1]),
-        &LmOptions::default(),
-    )
-    .ok_or_else(|| CalibrateError::FitFailed {
-        origin: origin.to_string(),
-        message: "the start values are outside the law's domain".into(),
-    })?;
-    let (k1, k2) = (solution.parameters[0], solution.parameters[1]);
-    if !solution.converged {
-        warnings.push(format!(
-            "the fit stopped after {} iterations without meeting its tolerance; treat the result with care",
-            solution.iterations
-        ));
-    }
-
-    let (k1_se, k2_se, correlation) = parameter_uncertainty(&solution, &mut warnings);
-
-    let mut fit_points: Vec<FitPoint> = points
-        .iter()
-        .map(|p| {
-            let fitted = pfeiffer_pressure(k1, k2, p.strain);
-            FitPoint {
-                line: p.line,
-                strain: p.strain,
-                pressure: p.pressure,
-                fitted,
-                residual: fitted - p.pressure,
-                studentized: None,
-            }
-        })
-        .collect();
-    let r_squared = weighted_r_squared(&weight, &fit_points);
-    let ssr: f64 = fit_points.iter().map(|p| p.residual * p.residual).sum();
-    let rms_residual = (ssr / n as f64).sqrt();
-    let outlier_lines = flag_outliers(&mut fit_points, &weight, &solution.jacobian, &mut warnings);
-
-    quality_warnings(
-        options,
-        &fit_points,
-        r_squared,
-        [(k1, k1_se), (k2, k2_se)],
-        &mut warnings,
-    );
-
-    Ok(PfeifferFit {
-        k1,
-        k2,
-        k1_standard_error: k1_se,
-        k2_standard_error: k2_se,
-        correlation,
-        r_squared,
-        rms_residual,
-        weighting: options.weighting,
-        start,
-        iterations: solution.iterations,
-        points: fit_points,
-        dropped_unloading,
-        outliers: outlier_lines,
-        warnings,
-    })
+/// The measured points as the least-squares sum sees them.
+struct FitData {
+    strain: Vec<f64>,
+    pressure: Vec<f64>,
+    /// Weight of each residual ([`Weighting`]).
+    weight: Vec<f64>,
 }
 
-/// Standard errors of K1 and K2 and their correlation: covariance = s²·(JᵀJ)⁻¹ with s² from
-/// the weighted residuals (as SciPy's curve_fit does with absolute_sigma=False). NaN, with a
-/// warning, when the data cannot separate the parameters.
+impl FitData {
+    /// At least 3 points, 2 of them at a positive pressure; weights by `weighting`.
+    fn new(
+        origin: &str,
+        points: &[StackPoint],
+        weighting: Weighting,
+    ) -> Result<FitData, CalibrateError> {
+        let n = points.len();
+        if n < 3 {
+            return Err(CalibrateError::TooFewPoints {
+                origin: origin.to_string(),
+                message: format!(
+                    "{n} loading point(s); the two Pfeiffer parameters and their uncertainty need at least 3 (10 or more spread over the pressure range are better)"
+                ),
+            });
+        }
+        let strain: Vec<f64> = points.iter().map(|p| p.strain).collect();
+        let pressure: Vec<f64> = points.iter().map(|p| p.pressure).collect();
+        let positive = pressure.iter().filter(|p| **p > 0.0).count();
+        if positive < 2 {
+            return Err(CalibrateError::TooFewPoints {
+                origin: origin.to_string(),
+                message: "fewer than 2 rows with a positive pressure; nothing to fit".into(),
+            });
+        }
+        let max_pressure = pressure.iter().cloned().fold(0.0, f64::max);
+        let weight: Vec<f64> = match weighting {
+            Weighting::Absolute => vec![1.0; n],
+            Weighting::Relative => pressure
+                .iter()
+                .map(|p| 1.0 / p.max(Weighting::RELATIVE_FLOOR * max_pressure))
+                .collect(),
+        };
+        Ok(FitData {
+            strain,
+            pressure,
+            weight,
+        })
+    }
+
+    /// Levenberg–Marquardt from the log-linear start; returns the start and the solution.
+    fn solve(
+        &self,
+        origin: &str,
+    ) -> Result<((f64, f64), levenberg_marquardt::LmSolution), CalibrateError> {
+        let start = log_linear_start(&self.strain, &self.pressure).ok_or_else(|| {
+            CalibrateError::FitFailed {
+                origin: origin.to_string(),
+                message: "no log-linear start: pressure does not rise with strain".into(),
+            }
+        })?;
+        let model = PfeifferModel {
+            strain: &self.strain,
+            pressure: &self.pressure,
+            weight: &self.weight,
+        };
+        let solution = levenberg_marquardt::minimise(
+            &model,
+            DVector::from_vec(vec![start.0, start.1]),
+            &LmOptions::default(),
+        )
+        .ok_or_else(|| CalibrateError::FitFailed {
+            origin: origin.to_string(),
+            message: "the start values are outside the law's domain".into(),
+        })?;
+        Ok((start, solution))
+    }
+}
+
+/// Standard errors of K1 and K2 and their correlation. Covariance = s²·(JᵀJ)⁻¹ with s² from
+/// the weighted residuals (as SciPy's curve_fit does with absolute_sigma=False); NaN with a
+/// warning when JᵀJ is singular.
 fn parameter_uncertainty(
     solution: &levenberg_marquardt::LmSolution,
+    n: usize,
     warnings: &mut Vec<String>,
 ) -> (f64, f64, f64) {
-    let dof = (solution.residuals.len() - 2) as f64;
+    let dof = (n - 2) as f64;
     let s2 = solution.residuals.norm_squared() / dof;
     let normal = solution.jacobian.transpose() * &solution.jacobian;
     match normal.try_inverse() {
@@ -473,22 +444,17 @@ fn parameter_uncertainty(
 }
 
 /// R² of the weighted sum the fit minimised (see `PfeifferFit::r_squared`).
-fn weighted_r_squared(weight: &[f64], points: &[FitPoint]) -> f64 {
+fn weighted_r_squared(weight: &[f64], pressure: &[f64], fit_points: &[FitPoint]) -> f64 {
     let w2: Vec<f64> = weight.iter().map(|w| w * w).collect();
-    let mean = w2
-        .iter()
-        .zip(points)
-        .map(|(w, p)| w * p.pressure)
-        .sum::<f64>()
-        / w2.iter().sum::<f64>();
+    let mean = w2.iter().zip(pressure).map(|(w, p)| w * p).sum::<f64>() / w2.iter().sum::<f64>();
     let sst: f64 = w2
         .iter()
-        .zip(points)
-        .map(|(w, p)| w * (p.pressure - mean) * (p.pressure - mean))
+        .zip(pressure)
+        .map(|(w, p)| w * (p - mean) * (p - mean))
         .sum();
     let weighted_ssr: f64 = w2
         .iter()
-        .zip(points)
+        .zip(fit_points)
         .map(|(w, p)| w * p.residual * p.residual)
         .sum();
     if sst > 0.0 {
@@ -498,8 +464,9 @@ fn weighted_r_squared(weight: &[f64], points: &[FitPoint]) -> f64 {
     }
 }
 
-/// Set each point's studentized residual and warn of the outliers (beyond
-/// `OUTLIER_STUDENTIZED` and more than a factor of 2 off); their line numbers.
+/// Set each point's studentized residual and flag the outliers (beyond
+/// [`OUTLIER_STUDENTIZED`] and off by more than [`OUTLIER_FACTOR_SHARE`]) with a warning each;
+/// returns their lines.
 fn flag_outliers(
     fit_points: &mut [FitPoint],
     weight: &[f64],
@@ -543,16 +510,11 @@ fn flag_outliers(
     flagged.iter().map(|&(i, _)| fit_points[i].line).collect()
 }
 
-/// Warnings on the fit's quality: few points, a poor R², a parameter whose standard error is
-/// large against its value (`[(K1, se), (K2, se)]`), residuals in long same-sign runs.
-fn quality_warnings(
-    options: &FitOptions,
-    fit_points: &[FitPoint],
-    r_squared: f64,
-    [(k1, k1_se), (k2, k2_se)]: [(f64, f64); 2],
-    warnings: &mut Vec<String>,
-) {
-    let n = fit_points.len();
+/// Warnings on the fit as a whole: few points, a poor R², a poorly determined parameter,
+/// residuals that run in long same-sign stretches.
+fn quality_warnings(fit: &PfeifferFit, options: &FitOptions, warnings: &mut Vec<String>) {
+    let n = fit.points.len();
+    let r_squared = fit.r_squared;
     if n < options.few_points {
         warnings.push(format!(
             "only {n} loading points; the uncertainties are rough — {} or more spread over the pressure range are better",
@@ -565,7 +527,10 @@ fn quality_warnings(
             options.min_r_squared
         ));
     }
-    for (name, value, se) in [("K1", k1, k1_se), ("K2", k2, k2_se)] {
+    for (name, value, se) in [
+        ("K1", fit.k1, fit.k1_standard_error),
+        ("K2", fit.k2, fit.k2_standard_error),
+    ] {
         if se.is_finite() && se > options.max_relative_standard_error * value.abs() {
             warnings.push(format!(
                 "{name} is poorly determined: its standard error is {:.0} % of its value",
@@ -573,13 +538,76 @@ fn quality_warnings(
             ));
         }
     }
-    if let Some(z) = runs_test_z(fit_points)
+    if let Some(z) = runs_test_z(&fit.points)
         && z < -2.58
     {
         warnings.push(format!(
             "the residuals run in long same-sign stretches (runs test z = {z:.1}): the law misses the curve's shape systematically; check the residuals table"
         ));
     }
+}
+
+/// Fit Pfeiffer's law to points already known to be a loading branch.
+pub fn fit_points(
+    origin: &str,
+    points: &[StackPoint],
+    options: &FitOptions,
+    dropped_unloading: usize,
+    mut warnings: Vec<String>,
+) -> Result<PfeifferFit, CalibrateError> {
+    let n = points.len();
+    let data = FitData::new(origin, points, options.weighting)?;
+    let (start, solution) = data.solve(origin)?;
+    let (k1, k2) = (solution.parameters[0], solution.parameters[1]);
+    if !solution.converged {
+        warnings.push(format!(
+            "the fit stopped after {} iterations without meeting its tolerance; treat the result with care",
+            solution.iterations
+        ));
+    }
+    let (k1_se, k2_se, correlation) = parameter_uncertainty(&solution, n, &mut warnings);
+    let mut fit_points: Vec<FitPoint> = points
+        .iter()
+        .map(|p| {
+            let fitted = pfeiffer_pressure(k1, k2, p.strain);
+            FitPoint {
+                line: p.line,
+                strain: p.strain,
+                pressure: p.pressure,
+                fitted,
+                residual: fitted - p.pressure,
+                studentized: None,
+            }
+        })
+        .collect();
+    let r_squared = weighted_r_squared(&data.weight, &data.pressure, &fit_points);
+    let ssr: f64 = fit_points.iter().map(|p| p.residual * p.residual).sum();
+    let rms_residual = (ssr / n as f64).sqrt();
+    let outliers = flag_outliers(
+        &mut fit_points,
+        &data.weight,
+        &solution.jacobian,
+        &mut warnings,
+    );
+    let mut fit = PfeifferFit {
+        k1,
+        k2,
+        k1_standard_error: k1_se,
+        k2_standard_error: k2_se,
+        correlation,
+        r_squared,
+        rms_residual,
+        weighting: options.weighting,
+        start,
+        iterations: solution.iterations,
+        points: fit_points,
+        dropped_unloading,
+        outliers,
+        warnings: Vec::new(),
+    };
+    quality_warnings(&fit, options, &mut warnings);
+    fit.warnings = warnings;
+    Ok(fit)
 }
 
 /// Wald–Wolfowitz runs test on the residual signs (Wald & Wolfowitz, Ann. Math. Stat. 11, 1940):

@@ -219,7 +219,8 @@ fn diameter_at(value: f64, system: UnitSystem) -> String {
     format!("⌀ {}", length(2.0 * value, system))
 }
 
-/// The summary table printed by default.
+/// The summary table printed by default: the figures, the failure mechanisms' margins, the
+/// solver's and the air film's rows, the zones, the warnings.
 pub fn summary_table(
     title: &str,
     problem: &model::WindingProblem,
@@ -229,7 +230,7 @@ pub fn summary_table(
 ) -> String {
     let mut t = String::new();
     t.push_str(&format!("Wound-roll stresses: {title}\n\n"));
-    let mut rows = profile_rows(problem, profile, system);
+    let mut rows = figure_rows(problem, profile, system);
     rows.extend(mechanism_rows(profile, mechanics, system));
     rows.extend(solver_and_air_rows(profile, system));
     let width = rows
@@ -250,21 +251,19 @@ pub fn summary_table(
     t
 }
 
-/// The rows of the stress profile itself: wraps, build, pressures, stresses, strain, bands.
-fn profile_rows(
+/// The summary figures: wraps and grid, build, core and peak pressure, hoop compression, core
+/// strain, the compressive low-pressure band, the soft outer share.
+fn figure_rows(
     problem: &model::WindingProblem,
     profile: &Profile,
     system: UnitSystem,
 ) -> Vec<(&'static str, String)> {
     let s = &profile.summary;
-    let solver = &profile.solver;
-    let resolution = if solver.grid.is_per_layer() {
+    let grid = &profile.solver.grid;
+    let resolution = if grid.is_per_layer() {
         "per layer".to_string()
     } else {
-        format!(
-            "grouped, {} wraps per element",
-            solver.grid.layers_per_element
-        )
+        format!("grouped, {} wraps per element", grid.layers_per_element)
     };
     vec![
         (
@@ -324,7 +323,8 @@ fn profile_rows(
     ]
 }
 
-/// The grid check (core pressure with the elements halved) and the entrained air film.
+/// The grid check (core pressure change with the elements halved) and the entrained air film,
+/// when the solve has them.
 fn solver_and_air_rows(profile: &Profile, system: UnitSystem) -> Vec<(&'static str, String)> {
     let mut rows = Vec::new();
     if let Some(change) = profile.solver.group_halving_change {
@@ -355,7 +355,7 @@ fn solver_and_air_rows(profile: &Profile, system: UnitSystem) -> Vec<(&'static s
     rows
 }
 
-/// The table of zones: diameters, pressures and the most compressive tangential stress.
+/// The zone statistics: diameters, pressure range and mean, most compressive hoop stress.
 fn zone_table(profile: &Profile, system: UnitSystem) -> String {
     let mut t = String::new();
     t.push_str(&format!(
