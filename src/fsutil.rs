@@ -113,17 +113,21 @@ pub fn read_text_limited(path: &Path, what: &'static str, limit: u64) -> Result<
 static SAVE_COUNTER: AtomicU64 = AtomicU64::new(0);
 
 /// Failure to save a file; the previous file (if any) is left untouched.
+///
+/// Each message names its cause once: the I/O error is part of the text and deliberately not
+/// also the error's `source()`, since `anyhow`'s `{:#}` and the CLI's "caused by" list print
+/// the chain and would show the cause a second time.
 #[derive(Debug, thiserror::Error)]
 pub enum SaveError {
-    #[error("cannot write temporary file {path}: {source}")]
+    #[error("cannot write temporary file {path}: {error}")]
     WriteTemp {
         path: PathBuf,
-        source: std::io::Error,
+        error: std::io::Error,
     },
-    #[error("cannot replace {path} with the new version: {source}")]
+    #[error("cannot replace {path} with the new version: {error}")]
     Rename {
         path: PathBuf,
-        source: std::io::Error,
+        error: std::io::Error,
     },
     #[error("{path} is read-only; not replaced (make it writable or save under another name)")]
     ReadOnly { path: PathBuf },
@@ -131,10 +135,10 @@ pub enum SaveError {
         "{path} is not a regular file (a pipe, device or folder); not written (save to a file instead)"
     )]
     NotRegular { path: PathBuf },
-    #[error("{path} is a symbolic link that cannot be followed: {source}")]
+    #[error("{path} is a symbolic link that cannot be followed: {error}")]
     BrokenLink {
         path: PathBuf,
-        source: std::io::Error,
+        error: std::io::Error,
     },
 }
 
@@ -143,9 +147,9 @@ pub enum SaveError {
 fn save_target(path: &Path) -> Result<(PathBuf, Option<std::fs::Permissions>), SaveError> {
     let target = match std::fs::symlink_metadata(path) {
         Ok(meta) if meta.file_type().is_symlink() => {
-            std::fs::canonicalize(path).map_err(|source| SaveError::BrokenLink {
+            std::fs::canonicalize(path).map_err(|error| SaveError::BrokenLink {
                 path: path.to_path_buf(),
-                source,
+                error,
             })?
         }
         _ => path.to_path_buf(),
@@ -234,19 +238,19 @@ pub fn save_atomic(path: &Path, contents: &[u8]) -> Result<(), SaveError> {
         file.sync_all()?;
         Ok(())
     };
-    if let Err(source) = write() {
+    if let Err(error) = write() {
         let _ = crate::signals::finish_registered(&temp, || std::fs::remove_file(&temp));
-        return Err(SaveError::WriteTemp { path: temp, source });
+        return Err(SaveError::WriteTemp { path: temp, error });
     }
     let renamed = crate::signals::finish_registered(&temp, || {
         std::fs::rename(&temp, &target).inspect_err(|_| {
             let _ = std::fs::remove_file(&temp);
         })
     });
-    if let Err(source) = renamed {
+    if let Err(error) = renamed {
         return Err(SaveError::Rename {
             path: target.clone(),
-            source,
+            error,
         });
     }
     // Make the rename itself durable where the platform allows syncing a folder; the new file
@@ -296,6 +300,13 @@ mod tests {
             std::fs::metadata(path).unwrap().permissions().mode() & 0o7777
         }
 
+        fn is_symlink(path: &Path) -> bool {
+            std::fs::symlink_metadata(path)
+                .unwrap()
+                .file_type()
+                .is_symlink()
+        }
+
         #[test]
         fn saving_over_a_file_keeps_its_permission_bits() {
             let dir = tempfile::tempdir().unwrap();
@@ -335,12 +346,7 @@ mod tests {
             let link = dir.path().join("link.yaml");
             std::os::unix::fs::symlink(&real, &link).unwrap();
             save_atomic(&link, b"new").unwrap();
-            assert!(
-                std::fs::symlink_metadata(&link)
-                    .unwrap()
-                    .file_type()
-                    .is_symlink()
-            );
+            assert!(is_symlink(&link));
             assert_eq!(std::fs::read(&real).unwrap(), b"new");
             assert_eq!(mode(&real), 0o600);
             assert_eq!(std::fs::read_dir(&real_dir).unwrap().count(), 1);
@@ -353,12 +359,35 @@ mod tests {
             std::os::unix::fs::symlink(dir.path().join("gone.yaml"), &link).unwrap();
             let error = save_atomic(&link, b"new").unwrap_err();
             assert!(matches!(error, SaveError::BrokenLink { .. }), "{error:?}");
-            assert!(
-                std::fs::symlink_metadata(&link)
-                    .unwrap()
-                    .file_type()
-                    .is_symlink()
-            );
+            assert!(is_symlink(&link));
+        }
+
+        #[test]
+        fn a_save_error_names_its_cause_once() {
+            // The chain `anyhow` prints with `{:#}` (and the CLI's exit message) must carry the
+            // operating system's words once, not once in the message and again as the source.
+            let dir = tempfile::tempdir().unwrap();
+            let link = dir.path().join("link.yaml");
+            std::os::unix::fs::symlink(dir.path().join("gone.yaml"), &link).unwrap();
+            let cause = std::fs::canonicalize(&link).unwrap_err().to_string();
+            let error = save_atomic(&link, b"new").unwrap_err();
+            assert!(std::error::Error::source(&error).is_none());
+            let chain = format!("{:#}", anyhow::Error::new(error));
+            assert_eq!(chain.matches(cause.as_str()).count(), 1, "{chain}");
+
+            // A folder that cannot be written: the temporary file cannot be made. Skipped
+            // where the tests run as root (root writes anyway).
+            let locked = dir.path().join("locked");
+            std::fs::create_dir(&locked).unwrap();
+            std::fs::set_permissions(&locked, std::fs::Permissions::from_mode(0o555)).unwrap();
+            if let Err(error) = save_atomic(&locked.join("case.yaml"), b"new") {
+                assert!(matches!(error, SaveError::WriteTemp { .. }), "{error:?}");
+                let chain = format!("{:#}", anyhow::Error::new(error));
+                // EACCES, the error a folder without write permission gives.
+                let os_words = std::io::Error::from_raw_os_error(13).to_string();
+                assert_eq!(chain.matches(os_words.as_str()).count(), 1, "{chain}");
+            }
+            std::fs::set_permissions(&locked, std::fs::Permissions::from_mode(0o755)).unwrap();
         }
 
         #[test]

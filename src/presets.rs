@@ -109,47 +109,43 @@ pub struct CorePreset {
 const INCH: f64 = 0.0254;
 const PLI: f64 = 4.448_221_615_260_5 / INCH;
 
+/// Newsprint: also the base of the engine's soft reference web, which differs only in the
+/// sources of its caliper and Pfeiffer constants.
+const NEWSPRINT: WebPreset = WebPreset {
+    id: "newsprint",
+    name: "Newsprint-like paper (about 45 g/m²)",
+    material: WebMaterial::Paper,
+    thickness: sourced(
+        76e-6,
+        "common practice: newsprint caliper about 3 mil (76 µm)",
+    ),
+    tangential_modulus: sourced(4.5e9, MEMORY),
+    k1: sourced(5e3, PFEIFFER_MEMORY),
+    k2: sourced(50.0, PFEIFFER_MEMORY),
+    poisson_ratio: sourced(0.01, STACK_POISSON),
+    friction: sourced(0.4, "(from memory) paper-to-paper static friction 0.3–0.5"),
+    kinetic_friction: sourced(0.19, GOOD_1999_KINETIC),
+    density: sourced(590.0, "computed: 45 g/m² over the 76 µm caliper"),
+    roughness: sourced(4e-6, "(from memory) uncoated mechanical paper, Rq a few µm"),
+    strength: sourced(
+        2.3e3,
+        "(from memory) MD tensile index about 50 N·m/g at 45 g/m²",
+    ),
+    typical_tension: sourced(1.5 * PLI, PAPER_TENSION_RULE),
+};
+
+/// Source of the engine's reference web values.
+const ENGINE_REFERENCE: &str = "rolltriage reference web used by the engine tests";
+
 const WEB_PRESETS: [WebPreset; 9] = [
-    WebPreset {
-        id: "newsprint",
-        name: "Newsprint-like paper (about 45 g/m²)",
-        material: WebMaterial::Paper,
-        thickness: sourced(
-            76e-6,
-            "common practice: newsprint caliper about 3 mil (76 µm)",
-        ),
-        tangential_modulus: sourced(4.5e9, MEMORY),
-        k1: sourced(5e3, PFEIFFER_MEMORY),
-        k2: sourced(50.0, PFEIFFER_MEMORY),
-        poisson_ratio: sourced(0.01, STACK_POISSON),
-        friction: sourced(0.4, "(from memory) paper-to-paper static friction 0.3–0.5"),
-        kinetic_friction: sourced(0.19, GOOD_1999_KINETIC),
-        density: sourced(590.0, "computed: 45 g/m² over the 76 µm caliper"),
-        roughness: sourced(4e-6, "(from memory) uncoated mechanical paper, Rq a few µm"),
-        strength: sourced(
-            2.3e3,
-            "(from memory) MD tensile index about 50 N·m/g at 45 g/m²",
-        ),
-        typical_tension: sourced(1.5 * PLI, PAPER_TENSION_RULE),
-    },
+    NEWSPRINT,
     WebPreset {
         id: "soft_paper_reference",
         name: "Soft paper-like reference web (engine checks; not a measured grade)",
-        material: WebMaterial::Paper,
-        thickness: sourced(76e-6, "rolltriage reference web used by the engine tests"),
-        tangential_modulus: sourced(4.5e9, MEMORY),
-        k1: sourced(5e3, "rolltriage reference web used by the engine tests"),
-        k2: sourced(50.0, "rolltriage reference web used by the engine tests"),
-        poisson_ratio: sourced(0.01, STACK_POISSON),
-        friction: sourced(0.4, "(from memory) paper-to-paper static friction 0.3–0.5"),
-        kinetic_friction: sourced(0.19, GOOD_1999_KINETIC),
-        density: sourced(590.0, "computed: 45 g/m² over the 76 µm caliper"),
-        roughness: sourced(4e-6, "(from memory) uncoated mechanical paper, Rq a few µm"),
-        strength: sourced(
-            2.3e3,
-            "(from memory) MD tensile index about 50 N·m/g at 45 g/m²",
-        ),
-        typical_tension: sourced(1.5 * PLI, PAPER_TENSION_RULE),
+        thickness: sourced(76e-6, ENGINE_REFERENCE),
+        k1: sourced(5e3, ENGINE_REFERENCE),
+        k2: sourced(50.0, ENGINE_REFERENCE),
+        ..NEWSPRINT
     },
     WebPreset {
         id: "coated_paper",
@@ -305,55 +301,69 @@ const PAPER_CORE_STRENGTH: &str =
 
 const ISOTROPIC_CORE: &str = "isotropic material: radial modulus equals the hoop modulus";
 
+/// A spiral-wound paperboard core: the wall's moduli, Poisson ratio and strength are the same
+/// for every size, so a paper core states only its diameters and the crush estimate that
+/// follows from them.
+const fn paper_core(
+    id: &'static str,
+    name: &'static str,
+    [inside_diameter, outside_diameter]: [Sourced; 2],
+    crush_pressure: f64,
+) -> CorePreset {
+    CorePreset {
+        id,
+        name,
+        material: CoreMaterial::Paper,
+        inside_diameter,
+        outside_diameter,
+        modulus: sourced(2e9, PAPER_CORE_MODULUS),
+        radial_modulus: sourced(40e6, PAPER_CORE_RADIAL),
+        poisson_ratio: sourced(0.3, MEMORY),
+        compressive_strength: sourced(20e6, PAPER_CORE_STRENGTH),
+        crush_pressure: sourced(crush_pressure, PAPER_CORE_CRUSH),
+    }
+}
+
+const BORE_3IN: Sourced = sourced(3.0 * INCH, "common practice: 3 in (76.2 mm) bore");
+const BORE_6IN: Sourced = sourced(6.0 * INCH, "common practice: 6 in (152.4 mm) bore");
+
 const CORE_PRESETS: [CorePreset; 7] = [
-    CorePreset {
-        id: "paper_3in",
-        name: "Paper core, 3 in bore, 1/2 in wall",
-        material: CoreMaterial::Paper,
-        inside_diameter: sourced(3.0 * INCH, "common practice: 3 in (76.2 mm) bore"),
-        outside_diameter: sourced(4.0 * INCH, "common practice: 1/2 in wall"),
-        modulus: sourced(2e9, PAPER_CORE_MODULUS),
-        radial_modulus: sourced(40e6, PAPER_CORE_RADIAL),
-        poisson_ratio: sourced(0.3, MEMORY),
-        compressive_strength: sourced(20e6, PAPER_CORE_STRENGTH),
-        crush_pressure: sourced(2.7e6, PAPER_CORE_CRUSH),
-    },
-    CorePreset {
-        id: "paper_3in_thin",
-        name: "Paper core, 3 in bore, 1/4 in wall",
-        material: CoreMaterial::Paper,
-        inside_diameter: sourced(3.0 * INCH, "common practice: 3 in (76.2 mm) bore"),
-        outside_diameter: sourced(3.5 * INCH, "common practice: 1/4 in wall"),
-        modulus: sourced(2e9, PAPER_CORE_MODULUS),
-        radial_modulus: sourced(40e6, PAPER_CORE_RADIAL),
-        poisson_ratio: sourced(0.3, MEMORY),
-        compressive_strength: sourced(20e6, PAPER_CORE_STRENGTH),
-        crush_pressure: sourced(1.8e6, PAPER_CORE_CRUSH),
-    },
-    CorePreset {
-        id: "paper_6in",
-        name: "Paper core, 6 in bore, 1/2 in wall",
-        material: CoreMaterial::Paper,
-        inside_diameter: sourced(6.0 * INCH, "common practice: 6 in (152.4 mm) bore"),
-        outside_diameter: sourced(7.0 * INCH, "common practice: 1/2 in wall"),
-        modulus: sourced(2e9, PAPER_CORE_MODULUS),
-        radial_modulus: sourced(40e6, PAPER_CORE_RADIAL),
-        poisson_ratio: sourced(0.3, MEMORY),
-        compressive_strength: sourced(20e6, PAPER_CORE_STRENGTH),
-        crush_pressure: sourced(1.8e6, PAPER_CORE_CRUSH),
-    },
-    CorePreset {
-        id: "paper_6in_heavy",
-        name: "Paper core, 6 in bore, 3/4 in wall",
-        material: CoreMaterial::Paper,
-        inside_diameter: sourced(6.0 * INCH, "common practice: 6 in (152.4 mm) bore"),
-        outside_diameter: sourced(7.5 * INCH, "common practice: 3/4 in wall"),
-        modulus: sourced(2e9, PAPER_CORE_MODULUS),
-        radial_modulus: sourced(40e6, PAPER_CORE_RADIAL),
-        poisson_ratio: sourced(0.3, MEMORY),
-        compressive_strength: sourced(20e6, PAPER_CORE_STRENGTH),
-        crush_pressure: sourced(2.6e6, PAPER_CORE_CRUSH),
-    },
+    paper_core(
+        "paper_3in",
+        "Paper core, 3 in bore, 1/2 in wall",
+        [
+            BORE_3IN,
+            sourced(4.0 * INCH, "common practice: 1/2 in wall"),
+        ],
+        2.7e6,
+    ),
+    paper_core(
+        "paper_3in_thin",
+        "Paper core, 3 in bore, 1/4 in wall",
+        [
+            BORE_3IN,
+            sourced(3.5 * INCH, "common practice: 1/4 in wall"),
+        ],
+        1.8e6,
+    ),
+    paper_core(
+        "paper_6in",
+        "Paper core, 6 in bore, 1/2 in wall",
+        [
+            BORE_6IN,
+            sourced(7.0 * INCH, "common practice: 1/2 in wall"),
+        ],
+        1.8e6,
+    ),
+    paper_core(
+        "paper_6in_heavy",
+        "Paper core, 6 in bore, 3/4 in wall",
+        [
+            BORE_6IN,
+            sourced(7.5 * INCH, "common practice: 3/4 in wall"),
+        ],
+        2.6e6,
+    ),
     CorePreset {
         id: "steel_6in",
         name: "Steel core or spool, 6 in bore, 1/4 in wall",

@@ -234,13 +234,7 @@ impl Case {
 
     /// Resolve, naming `origin` (usually the file name) in every message.
     pub fn resolve_as(&self, origin: &str) -> Result<ResolvedCase, CaseError> {
-        resolve::Resolver {
-            origin: origin.to_string(),
-            assumed: Vec::new(),
-            named_web: None,
-            named_core: None,
-        }
-        .resolve(self)
+        resolve::Resolver::new(origin).resolve(self)
     }
 
     /// Resolve a case read from a file whose text is `text`, naming `origin` and, where the
@@ -261,46 +255,18 @@ impl CaseError {
     /// Add the line of the field this error is about, found in the case file's `text`, after
     /// the origin ("case.yaml: line 3: winding.speed: ..."). Errors about fields that are not
     /// written in the file (a preset's value, a missing key) are returned unchanged.
-    pub fn located(self, text: &str) -> CaseError {
-        let at_line = |origin: String, field: &str| match yaml_guard::field_line(text, field) {
-            Some(line) => format!("{origin}: line {line}"),
-            None => origin,
-        };
-        match self {
-            CaseError::Quantity { origin, error } => {
-                let field = error.field().to_string();
-                CaseError::Quantity {
-                    origin: at_line(origin, &field),
-                    error,
-                }
+    pub fn located(mut self, text: &str) -> CaseError {
+        let at_line = |origin: &mut String, field: &str| {
+            if let Some(line) = yaml_guard::field_line(text, field) {
+                *origin = format!("{origin}: line {line}");
             }
-            CaseError::OutOfRange {
-                origin,
-                field,
-                given,
-                accepted,
-            } => CaseError::OutOfRange {
-                origin: at_line(origin, &field),
-                field,
-                given,
-                accepted,
-            },
-            CaseError::UnknownName {
-                origin,
-                field,
-                what,
-                given,
-                suggestion,
-                accepted,
-            } => CaseError::UnknownName {
-                origin: at_line(origin, &field),
-                field,
-                what,
-                given,
-                suggestion,
-                accepted,
-            },
-            other => other,
+        };
+        match &mut self {
+            CaseError::Quantity { origin, error } => at_line(origin, error.field()),
+            CaseError::OutOfRange { origin, field, .. }
+            | CaseError::UnknownName { origin, field, .. } => at_line(origin, field),
+            _ => {}
         }
+        self
     }
 }

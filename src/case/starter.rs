@@ -42,6 +42,18 @@ fn choice_line(indent: &str, field: &Field, value: &str, separator: &str) -> Str
     format!("{indent}{}: {value}  # {list}\n", field.key())
 }
 
+/// The opening lines of the web or core section: the preset it starts from (`[id, name]`) and
+/// its material kind with the accepted words.
+fn section_head(
+    section: &str,
+    [id, name]: [&str; 2],
+    material: &Field,
+    material_id: &str,
+) -> String {
+    format!("{section}:\n  preset: {id}  # {name}\n")
+        + &choice_line("  ", material, material_id, ",")
+}
+
 /// A complete starting case for `web` and `core`, as commented YAML: every value written out
 /// with its unit and, in a comment, where it came from. Edit the values you know.
 pub fn starter_yaml(web: &WebPreset, core: &CorePreset) -> String {
@@ -59,12 +71,11 @@ pub fn starter_yaml(web: &WebPreset, core: &CorePreset) -> String {
         reg::DESCRIPTION.key(),
         reg::DESCRIPTION.help
     ));
-    out.push_str(&format!("web:\n  preset: {}  # {}\n", web.id, web.name));
-    out.push_str(&choice_line(
-        "  ",
+    out.push_str(&section_head(
+        "web",
+        [web.id, web.name],
         &reg::WEB_MATERIAL,
         web.material.id(),
-        ",",
     ));
     for field in [&reg::WEB_THICKNESS, &reg::WEB_WIDTH, &reg::WEB_MODULUS] {
         out.push_str(&default_line("  ", field, web, core));
@@ -84,12 +95,11 @@ pub fn starter_yaml(web: &WebPreset, core: &CorePreset) -> String {
     ] {
         out.push_str(&default_line("  ", field, web, core));
     }
-    out.push_str(&format!("core:\n  preset: {}  # {}\n", core.id, core.name));
-    out.push_str(&choice_line(
-        "  ",
+    out.push_str(&section_head(
+        "core",
+        [core.id, core.name],
         &reg::CORE_MATERIAL,
         core.material.id(),
-        ",",
     ));
     for field in reg::section("core") {
         if matches!(field.default, DefaultValue::CorePreset(_)) {

@@ -6,7 +6,9 @@ use rolltriage::calibrate::{
     self, FitOptions, MaterialEntry, MaterialLibrary, PfeifferFit, StackReadOptions, StackTest,
     Weighting,
 };
-use rolltriage::units::{QuantityKind, UnitSystem, format_quantity, parse_quantity};
+use rolltriage::units::{QuantityKind, format_quantity, parse_quantity};
+
+use super::units_arg::UnitsArg;
 
 #[derive(Debug, clap::Args)]
 pub struct CalibrateArgs {
@@ -68,12 +70,6 @@ pub struct StackArgs {
 pub enum WeightingArg {
     Absolute,
     Relative,
-}
-
-#[derive(Debug, Clone, Copy, PartialEq, Eq, clap::ValueEnum)]
-pub enum UnitsArg {
-    Si,
-    Us,
 }
 
 pub fn run(args: &CalibrateArgs) -> anyhow::Result<()> {
@@ -181,11 +177,7 @@ fn warn_on_caliper_mismatch(
 const PSI: f64 = 4.448_221_615_260_5 / (0.0254 * 0.0254);
 
 fn pressure_text(pa: f64, units: UnitsArg) -> String {
-    let system = match units {
-        UnitsArg::Si => UnitSystem::Si,
-        UnitsArg::Us => UnitSystem::Us,
-    };
-    format_quantity(pa, QuantityKind::Stress, system)
+    format_quantity(pa, QuantityKind::Stress, units.system())
 }
 
 /// The fit as a plain-text report: parameters, quality, warnings, residuals.
@@ -237,32 +229,22 @@ pub fn render_fit(test: &StackTest, fit: &PfeifferFit, units: UnitsArg) -> Strin
         let _ = writeln!(out, "warning: {w}");
     }
     let _ = writeln!(out);
-    let unit = match units {
-        UnitsArg::Si => "kPa",
-        UnitsArg::Us => "psi",
+    let (unit, scale) = match units {
+        UnitsArg::Si => ("kPa", 1e3),
+        UnitsArg::Us => ("psi", PSI),
     };
-    let scale = match units {
-        UnitsArg::Si => 1e3,
-        UnitsArg::Us => PSI,
-    };
-    let _ = writeln!(
-        out,
-        "{:>6} {:>10} {:>14} {:>14} {:>14}",
-        "line",
-        "strain",
-        format!("measured {unit}"),
-        format!("fitted {unit}"),
-        format!("residual {unit}")
-    );
+    // Three pressure columns of the same width: measured, fitted, residual.
+    let heads =
+        ["measured", "fitted", "residual"].map(|h| format!("{:>14}", format!("{h} {unit}")));
+    let _ = writeln!(out, "{:>6} {:>10} {}", "line", "strain", heads.join(" "));
     for p in &fit.points {
+        let pressures = [p.pressure, p.fitted, p.residual].map(|v| format!("{:>14.4}", v / scale));
         let _ = writeln!(
             out,
-            "{:>6} {:>10.5} {:>14.4} {:>14.4} {:>14.4}",
+            "{:>6} {:>10.5} {}",
             p.line,
             p.strain,
-            p.pressure / scale,
-            p.fitted / scale,
-            p.residual / scale
+            pressures.join(" ")
         );
     }
     out

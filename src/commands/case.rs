@@ -7,7 +7,9 @@ use anyhow::{Context, bail};
 use rolltriage::case::{Case, ResolvedCase, ValueOrigin, starter_yaml};
 use rolltriage::diagnose::{self, rules::RuleBase};
 use rolltriage::presets::{self, Sourced};
-use rolltriage::units::{QuantityKind, UnitSystem, format_quantity};
+use rolltriage::units::{QuantityKind, format_quantity};
+
+use super::units_arg::UnitsArg;
 
 const EXAMPLES: &str = "\
 Examples:
@@ -72,12 +74,6 @@ pub struct PresetsArgs {
     /// Print the presets as JSON (values in SI) instead of text.
     #[arg(long)]
     pub json: bool,
-}
-
-#[derive(Debug, Clone, Copy, PartialEq, Eq, clap::ValueEnum)]
-pub enum UnitsArg {
-    Si,
-    Us,
 }
 
 pub fn run(args: &CaseArgs) -> anyhow::Result<()> {
@@ -203,6 +199,7 @@ fn check(args: &CheckArgs) -> anyhow::Result<()> {
 }
 
 fn list_presets(args: &PresetsArgs) -> anyhow::Result<()> {
+    use QuantityKind as Q;
     let mut out = super::output::stdout();
     if args.json {
         let all = serde_json::json!({
@@ -213,10 +210,7 @@ fn list_presets(args: &PresetsArgs) -> anyhow::Result<()> {
         writeln!(out, "{}", serde_json::to_string_pretty(&all)?)?;
         return Ok(());
     }
-    let system = match args.units {
-        UnitsArg::Si => UnitSystem::Si,
-        UnitsArg::Us => UnitSystem::Us,
-    };
+    let system = args.units.system();
     let show = |out: &mut super::output::Stdout,
                 label: &str,
                 value: Sourced,
@@ -234,83 +228,42 @@ fn list_presets(args: &PresetsArgs) -> anyhow::Result<()> {
     )?;
     for p in presets::web_presets() {
         writeln!(out, "\n  {}  — {} [{}]", p.id, p.name, p.material)?;
-        show(
-            &mut out,
-            "thickness",
-            p.thickness,
-            Some(QuantityKind::Length),
-        )?;
-        show(
-            &mut out,
-            "tangential modulus",
-            p.tangential_modulus,
-            Some(QuantityKind::Stress),
-        )?;
-        show(&mut out, "Pfeiffer K1", p.k1, Some(QuantityKind::Stress))?;
-        show(&mut out, "Pfeiffer K2", p.k2, None)?;
-        show(&mut out, "Poisson ratio", p.poisson_ratio, None)?;
-        show(&mut out, "static friction", p.friction, None)?;
-        show(&mut out, "kinetic friction", p.kinetic_friction, None)?;
-        show(&mut out, "density (kg/m³)", p.density, None)?;
-        show(
-            &mut out,
-            "roughness (RMS)",
-            p.roughness,
-            Some(QuantityKind::Length),
-        )?;
-        show(
-            &mut out,
-            "strength",
-            p.strength,
-            Some(QuantityKind::ForcePerWidth),
-        )?;
-        show(
-            &mut out,
-            "typical tension",
-            p.typical_tension,
-            Some(QuantityKind::ForcePerWidth),
-        )?;
+        let rows = [
+            ("thickness", p.thickness, Some(Q::Length)),
+            ("tangential modulus", p.tangential_modulus, Some(Q::Stress)),
+            ("Pfeiffer K1", p.k1, Some(Q::Stress)),
+            ("Pfeiffer K2", p.k2, None),
+            ("Poisson ratio", p.poisson_ratio, None),
+            ("static friction", p.friction, None),
+            ("kinetic friction", p.kinetic_friction, None),
+            ("density (kg/m³)", p.density, None),
+            ("roughness (RMS)", p.roughness, Some(Q::Length)),
+            ("strength", p.strength, Some(Q::ForcePerWidth)),
+            ("typical tension", p.typical_tension, Some(Q::ForcePerWidth)),
+        ];
+        for (label, value, kind) in rows {
+            show(&mut out, label, value, kind)?;
+        }
     }
     writeln!(out, "\nCore presets:")?;
     for p in presets::core_presets() {
         writeln!(out, "\n  {}  — {} [{}]", p.id, p.name, p.material)?;
-        show(
-            &mut out,
-            "inside diameter",
-            p.inside_diameter,
-            Some(QuantityKind::Length),
-        )?;
-        show(
-            &mut out,
-            "outside diameter",
-            p.outside_diameter,
-            Some(QuantityKind::Length),
-        )?;
-        show(
-            &mut out,
-            "hoop modulus",
-            p.modulus,
-            Some(QuantityKind::Stress),
-        )?;
-        show(
-            &mut out,
-            "radial modulus",
-            p.radial_modulus,
-            Some(QuantityKind::Stress),
-        )?;
-        show(&mut out, "Poisson ratio", p.poisson_ratio, None)?;
-        show(
-            &mut out,
-            "compressive strength",
-            p.compressive_strength,
-            Some(QuantityKind::Stress),
-        )?;
-        show(
-            &mut out,
-            "crush pressure",
-            p.crush_pressure,
-            Some(QuantityKind::Stress),
-        )?;
+        let rows = [
+            ("inside diameter", p.inside_diameter, Some(Q::Length)),
+            ("outside diameter", p.outside_diameter, Some(Q::Length)),
+            ("hoop modulus", p.modulus, Some(Q::Stress)),
+            ("radial modulus", p.radial_modulus, Some(Q::Stress)),
+            ("Poisson ratio", p.poisson_ratio, None),
+            (
+                "compressive strength",
+                p.compressive_strength,
+                Some(Q::Stress),
+            ),
+            ("crush pressure", p.crush_pressure, Some(Q::Stress)),
+        ];
+        for (label, value, kind) in rows {
+            show(&mut out, label, value, kind)?;
+        }
     }
     writeln!(
         out,

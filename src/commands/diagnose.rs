@@ -51,7 +51,7 @@ pub struct DiagnoseArgs {
     /// Units of the measured-evidence lines and reasons in the text output: si or us (in, ft,
     /// psi). Default: the units the measurements are typed in (SI when they say nothing).
     #[arg(long, value_enum)]
-    pub units: Option<super::case::UnitsArg>,
+    pub units: Option<super::units_arg::UnitsArg>,
 }
 
 /// The rule base: `--rules DIR` or the shipped one.

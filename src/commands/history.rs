@@ -589,10 +589,7 @@ fn confirm(store_args: &StoreArgs, args: &ConfirmArgs) -> anyhow::Result<()> {
     let version = store.add_version(
         args.id,
         |previous| {
-            let mut next = previous.clone();
-            next.recorded_at = history::now_utc();
-            next.change = "confirmed".into();
-            next.app_version = env!("CARGO_PKG_VERSION").into();
+            let mut next = next_version(previous, "confirmed");
             next.complaint.confirmed_causes.push(cause.clone());
             if next.complaint.status_or_open() != "closed" {
                 next.complaint.status = Some("cause_confirmed".into());
@@ -617,6 +614,16 @@ fn confirm(store_args: &StoreArgs, args: &ConfirmArgs) -> anyhow::Result<()> {
     write_stdout(&out)
 }
 
+/// A copy of the latest version stamped as a new one made by `change` (now, this build); the
+/// caller changes its complaint record.
+fn next_version(previous: &history::StoredVersion, change: &str) -> history::StoredVersion {
+    let mut next = previous.clone();
+    next.recorded_at = history::now_utc();
+    next.change = change.into();
+    next.app_version = env!("CARGO_PKG_VERSION").into();
+    next
+}
+
 fn status(store_args: &StoreArgs, args: &StatusArgs) -> anyhow::Result<()> {
     check_status(&args.status)?;
     let mut store = store_args.open_existing()?;
@@ -624,10 +631,7 @@ fn status(store_args: &StoreArgs, args: &StatusArgs) -> anyhow::Result<()> {
     let version = store.add_version(
         args.id,
         |previous| {
-            let mut next = previous.clone();
-            next.recorded_at = history::now_utc();
-            next.change = "status".into();
-            next.app_version = env!("CARGO_PKG_VERSION").into();
+            let mut next = next_version(previous, "status");
             next.complaint.status = Some(wanted.clone());
             Ok(next)
         },

@@ -12,7 +12,6 @@ use rolltriage::case::measurements::{
     BendInput, EndLineInput, HardnessInput, LanesInput, MeasurementsInput, ReadingInput, SetInput,
 };
 use rolltriage::evidence::{self, FitOptions};
-use rolltriage::units::UnitSystem;
 
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Default, clap::ValueEnum)]
 pub enum Format {
@@ -45,21 +44,20 @@ pub struct CompareArgs {
     /// Units of the text output: si (mm, kPa, N/m) or us (in, ft, psi, pli). JSON stays SI.
     /// Default: the units the measurements are typed in (SI when they say nothing).
     #[arg(long, value_enum)]
-    pub units: Option<super::case::UnitsArg>,
+    pub units: Option<super::units_arg::UnitsArg>,
 }
 
 /// The units of the evidence text: `--units` when given, else the units most of the case's
 /// measurements are typed in ("39.8 in", "35000 ft", "1150 lb" read as US), else SI.
-pub fn chosen_units(given: Option<super::case::UnitsArg>, case: &Case) -> UnitSystem {
+pub fn chosen_units(given: Option<super::units_arg::UnitsArg>, case: &Case) -> rolltriage::units::UnitSystem {
     match given {
-        Some(super::case::UnitsArg::Si) => UnitSystem::Si,
-        Some(super::case::UnitsArg::Us) => UnitSystem::Us,
-        None => typed_units(case).unwrap_or(UnitSystem::Si),
+        Some(units) => units.system(),
+        None => typed_units(case).unwrap_or(rolltriage::units::UnitSystem::Si),
     }
 }
 
 /// The units the case's `measurements:` section is typed in; `None` without units there.
-pub fn typed_units(case: &Case) -> Option<UnitSystem> {
+pub fn typed_units(case: &Case) -> Option<rolltriage::units::UnitSystem> {
     fn texts(value: &serde_json::Value, out: &mut Vec<String>) {
         match value {
             serde_json::Value::String(s) => out.push(s.clone()),

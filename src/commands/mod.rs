@@ -15,3 +15,4 @@ pub mod stress;
 pub mod taper;
 pub mod train;
 pub mod tui;
+pub mod units_arg;

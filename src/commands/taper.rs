@@ -7,6 +7,8 @@ use anyhow::Context;
 use rolltriage::taper_design::{self, DesignOptions, Limit, TaperDesign, TaperLimits, TaperShape};
 use rolltriage::units::{QuantityKind, UnitSystem, format_quantity, parse_quantity};
 
+use super::units_arg::UnitsArg;
+
 #[derive(Debug, clap::Args)]
 pub struct TaperArgs {
     /// The case file (web, core, roll, current winding settings).
@@ -51,12 +53,6 @@ pub enum KindArg {
     Hyperbolic,
 }
 
-#[derive(Debug, Clone, Copy, PartialEq, Eq, clap::ValueEnum)]
-pub enum UnitsArg {
-    Si,
-    Us,
-}
-
 pub fn run(args: &TaperArgs) -> anyhow::Result<()> {
     // The errors name the file (and the field's line) themselves.
     let (case, text) = rolltriage::case::Case::load_with_text(&args.case)?;
@@ -85,10 +81,7 @@ pub fn run(args: &TaperArgs) -> anyhow::Result<()> {
         .with_context(|| format!("taper design for {}", args.case.display()))?;
     let what = format!("the taper design for {}", args.case.display());
     rolltriage::finite::ensure_finite(&what, &design)?;
-    let system = match args.units {
-        UnitsArg::Si => UnitSystem::Si,
-        UnitsArg::Us => UnitSystem::Us,
-    };
+    let system = args.units.system();
     if args.json {
         let value = serde_json::json!({
             "case": args.case.display().to_string(),

@@ -10,6 +10,8 @@
 pub mod experience;
 mod migrate;
 pub mod past;
+mod records;
+mod rows;
 pub mod similar;
 mod sql;
 mod store;
@@ -19,10 +21,11 @@ use std::path::{Path, PathBuf};
 use std::time::Duration;
 
 pub use past::{PastComplaint, similar_past};
-pub use store::{
-    ComplaintFacts, ComplaintSummary, Entry, Filter, ScanRow, StatusChange, Store, StoredComplaint,
+pub use records::{
+    ComplaintFacts, ComplaintSummary, Entry, Filter, ScanRow, StatusChange, StoredComplaint,
     StoredVersion,
 };
+pub use store::Store;
 
 /// Newest schema version this build knows (the highest migration in `migrations/`).
 pub const SCHEMA_VERSION: i64 = migrate::LATEST;

@@ -125,18 +125,12 @@ impl CoreStiffness {
                 poisson_ratio,
             } => modulus / ((b * b + a * a) / (b * b - a * a) - poisson_ratio),
             CoreStiffness::Tube {
-                inner_radius,
-                outer_radius,
                 hoop_modulus,
-                radial_modulus,
                 poisson_ratio,
-                support,
-            } => {
-                let k = (hoop_modulus / radial_modulus).sqrt();
-                let (ratio, _) =
-                    tube_solution(inner_radius / outer_radius, k, poisson_ratio, support);
+                ..
+            } => self.wall_solution().map_or(f64::NAN, |(ratio, _)| {
                 hoop_modulus / (ratio - poisson_ratio)
-            }
+            }),
             CoreStiffness::Measured { stiffness } => stiffness,
         }
     }
@@ -144,20 +138,25 @@ impl CoreStiffness {
     /// Hoop stresses at the wall per unit external pressure, for the tube forms; `None` for a
     /// rigid or measured core (no wall to judge).
     pub fn wall_stress(&self) -> Option<WallStress> {
-        match *self {
+        self.wall_solution().map(|(_, wall)| wall)
+    }
+
+    /// The tube forms' solution per unit external pressure: the ratio that sets the effective
+    /// stiffness and the wall's hoop stresses (an isotropic hollow core as a free tube with
+    /// equal moduli); `None` for a rigid or measured core. Always `Some` for a `Tube`.
+    fn wall_solution(&self) -> Option<(f64, WallStress)> {
+        let (inner_radius, outer_radius, k, poisson_ratio, support) = match *self {
             CoreStiffness::Hollow {
                 inner_radius,
                 outer_radius,
                 poisson_ratio,
                 ..
-            } => Some(
-                tube_solution(
-                    inner_radius / outer_radius,
-                    1.0,
-                    poisson_ratio,
-                    CoreSupport::Free,
-                )
-                .1,
+            } => (
+                inner_radius,
+                outer_radius,
+                1.0,
+                poisson_ratio,
+                CoreSupport::Free,
             ),
             CoreStiffness::Tube {
                 inner_radius,
@@ -168,10 +167,16 @@ impl CoreStiffness {
                 support,
             } => {
                 let k = (hoop_modulus / radial_modulus).sqrt();
-                Some(tube_solution(inner_radius / outer_radius, k, poisson_ratio, support).1)
+                (inner_radius, outer_radius, k, poisson_ratio, support)
             }
-            CoreStiffness::Rigid | CoreStiffness::Measured { .. } => None,
-        }
+            CoreStiffness::Rigid | CoreStiffness::Measured { .. } => return None,
+        };
+        Some(tube_solution(
+            inner_radius / outer_radius,
+            k,
+            poisson_ratio,
+            support,
+        ))
     }
 
     /// How the bore is held (free for every form but a tube on a shaft).
@@ -184,38 +189,21 @@ impl CoreStiffness {
 
     /// The same core with its moduli (or measured stiffness) multiplied by `factor`.
     pub fn scaled(&self, factor: f64) -> CoreStiffness {
-        match *self {
-            CoreStiffness::Rigid => CoreStiffness::Rigid,
-            CoreStiffness::Hollow {
-                inner_radius,
-                outer_radius,
-                modulus,
-                poisson_ratio,
-            } => CoreStiffness::Hollow {
-                inner_radius,
-                outer_radius,
-                modulus: modulus * factor,
-                poisson_ratio,
-            },
+        let mut scaled = *self;
+        match &mut scaled {
+            CoreStiffness::Rigid => {}
+            CoreStiffness::Hollow { modulus, .. } => *modulus *= factor,
             CoreStiffness::Tube {
-                inner_radius,
-                outer_radius,
                 hoop_modulus,
                 radial_modulus,
-                poisson_ratio,
-                support,
-            } => CoreStiffness::Tube {
-                inner_radius,
-                outer_radius,
-                hoop_modulus: hoop_modulus * factor,
-                radial_modulus: radial_modulus * factor,
-                poisson_ratio,
-                support,
-            },
-            CoreStiffness::Measured { stiffness } => CoreStiffness::Measured {
-                stiffness: stiffness * factor,
-            },
+                ..
+            } => {
+                *hoop_modulus *= factor;
+                *radial_modulus *= factor;
+            }
+            CoreStiffness::Measured { stiffness } => *stiffness *= factor,
         }
+        scaled
     }
 
     /// Coefficient c of the core boundary condition r·δσr'(rc) = c·δσr(rc) for a web with

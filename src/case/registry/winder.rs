@@ -10,25 +10,53 @@ use DefaultValue::{Fixed, Required, Rule};
 use FieldKind::{List, Number, Quantity, Section};
 use QuantityKind as Q;
 
-pub const TAPER_POINTS: Field = Field {
-    example: "100 mm: 3 pli; 1000 mm: 2 pli",
-    form: Some("Tension programme"),
-    accepted_also: "for `programme` only; diameters within the roll and increasing from the core outward",
-    help: "Tension programme, as winder recipes store it: the tension at each diameter, interpolated linearly and held beyond the first and last point; the tension at the core is the programme's.",
-    ..plain("winding.taper.points", "Tension programme", List)
-};
+/// A programme stored as a table against diameter (the tension and nip programmes), with its
+/// own form in the terminal UI: `[path, label]`, an example, the extra acceptance rule, help.
+const fn programme(
+    [path, label]: [&'static str; 2],
+    example: &'static str,
+    accepted_also: &'static str,
+    help: &'static str,
+) -> Field {
+    Field {
+        example,
+        form: Some(label),
+        accepted_also,
+        help,
+        ..plain(path, label, List)
+    }
+}
 
-pub const POINT_DIAMETER: Field = Field {
-    accepted_also: "within the roll (core outside diameter to roll diameter)",
-    default: Required,
-    help: "Roll diameter of this point of the programme.",
-    example: "300 mm",
-    ..plain(
+/// The diameter of one point of a programme (required): `[path, label]`.
+const fn point_diameter(
+    [path, label]: [&'static str; 2],
+    accepted_also: &'static str,
+    example: &'static str,
+) -> Field {
+    Field {
+        accepted_also,
+        default: Required,
+        help: "Roll diameter of this point of the programme.",
+        example,
+        ..plain(path, label, Quantity(Q::Length))
+    }
+}
+
+pub const TAPER_POINTS: Field = programme(
+    ["winding.taper.points", "Tension programme"],
+    "100 mm: 3 pli; 1000 mm: 2 pli",
+    "for `programme` only; diameters within the roll and increasing from the core outward",
+    "Tension programme, as winder recipes store it: the tension at each diameter, interpolated linearly and held beyond the first and last point; the tension at the core is the programme's.",
+);
+
+pub const POINT_DIAMETER: Field = point_diameter(
+    [
         "winding.taper.points[].diameter",
         "Tension programme diameter",
-        Quantity(Q::Length),
-    )
-};
+    ],
+    "within the roll (core outside diameter to roll diameter)",
+    "300 mm",
+);
 
 pub const POINT_TENSION: Field = Field {
     range: Some(above(0.0, 1e6, Q::ForcePerWidth)),
@@ -43,25 +71,18 @@ pub const POINT_TENSION: Field = Field {
     )
 };
 
-pub const NIP_PROGRAMME: Field = Field {
-    example: "400 mm: 5 pli; 800 mm: 3 pli",
-    form: Some("Nip programme"),
-    accepted_also: "diameters within the roll, increasing; replaces `nip_load`",
-    help: "Nip (rider) load as a table against diameter, interpolated linearly and held beyond its ends.",
-    ..plain("winding.nip_programme", "Nip programme", List)
-};
+pub const NIP_PROGRAMME: Field = programme(
+    ["winding.nip_programme", "Nip programme"],
+    "400 mm: 5 pli; 800 mm: 3 pli",
+    "diameters within the roll, increasing; replaces `nip_load`",
+    "Nip (rider) load as a table against diameter, interpolated linearly and held beyond its ends.",
+);
 
-pub const NIP_POINT_DIAMETER: Field = Field {
-    accepted_also: "within the roll",
-    default: Required,
-    help: "Roll diameter of this point of the programme.",
-    example: "400 mm",
-    ..plain(
-        "winding.nip_programme[].diameter",
-        "Nip programme diameter",
-        Quantity(Q::Length),
-    )
-};
+pub const NIP_POINT_DIAMETER: Field = point_diameter(
+    ["winding.nip_programme[].diameter", "Nip programme diameter"],
+    "within the roll",
+    "400 mm",
+);
 
 pub const NIP_POINT_LOAD: Field = Field {
     range: Some(from(0.0, 1e5, Q::ForcePerWidth)),

@@ -7,6 +7,7 @@ use crate::units::QuantityKind;
 use super::super::registry as reg;
 use super::super::{CaseError, ResolvedCore, ResolvedRoll, ResolvedWeb, WindingInput};
 use super::Resolver;
+use super::winding::OutwardList;
 
 /// What the winder adds to the winding settings.
 pub(super) struct WinderSettings {
@@ -71,7 +72,7 @@ impl Resolver {
     }
 
     fn nip_programme(
-        &self,
+        &mut self,
         winding: &WindingInput,
         core: &ResolvedCore,
         roll: &ResolvedRoll,
@@ -84,30 +85,23 @@ impl Resolver {
                 "winding.nip_load and winding.nip_programme are both given; keep one (the programme gives the load at each diameter)",
             ));
         }
-        let mut points = Vec::with_capacity(winding.nip_programme.len());
-        let mut last = None;
-        for (index, point) in winding.nip_programme.iter().enumerate() {
-            let field = format!("winding.nip_programme[{index}]");
-            let radius = self.radius_after(
-                &format!("{field}.diameter"),
-                &point.diameter,
-                last,
-                "point",
-                core,
-                roll,
-            )?;
-            last = Some(radius);
-            let load_field = format!("{field}.nip_load");
-            let load = self
-                .quantity(
-                    &load_field,
-                    Some(&point.nip_load),
-                    QuantityKind::ForcePerWidth,
-                )?
-                .unwrap_or(f64::NAN);
-            let load = self.check(&load_field, load, &reg::NIP_POINT_LOAD.range())?;
-            points.push((radius, load));
-        }
+        let list = OutwardList::new("winding.nip_programme", "point", core, roll);
+        let points = self.read_outward(
+            list,
+            &winding.nip_programme,
+            |point| ("diameter", &point.diameter),
+            |this, field, point| {
+                let load_field = format!("{field}.nip_load");
+                let load = this
+                    .quantity(
+                        &load_field,
+                        Some(&point.nip_load),
+                        QuantityKind::ForcePerWidth,
+                    )?
+                    .unwrap_or(f64::NAN);
+                this.check(&load_field, load, &reg::NIP_POINT_LOAD.range())
+            },
+        )?;
         Ok(Some(NipProgramme { points }))
     }
 

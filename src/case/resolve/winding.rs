@@ -57,41 +57,12 @@ impl Resolver {
         };
         let (diameter, length) = match (diameter, length) {
             (Some(d), given_length) => {
-                let d = self.check(reg::ROLL_DIAMETER.path, d, &diameter_range)?;
-                self.note_preset_copy(&reg::ROLL_DIAMETER, d);
-                if d <= core.outside_diameter {
-                    return Err(self.out_of_range(
-                        reg::ROLL_DIAMETER.path,
-                        diameter_range.show(d),
-                        format!(
-                            "larger than the core outside diameter {} (the core is bigger than the roll)",
-                            reg::CORE_OUTSIDE.range().show(core.outside_diameter)
-                        ),
-                    ));
-                }
-                if d < core.outside_diameter + 2.0 * h {
-                    return Err(self.out_of_range(
-                        reg::ROLL_DIAMETER.path,
-                        diameter_range.show(d),
-                        format!(
-                            "at least one layer over the core: {} or more",
-                            diameter_range.show(core.outside_diameter + 2.0 * h)
-                        ),
-                    ));
-                }
+                let d = self.given_roll_diameter(d, core, h)?;
                 // The length derived from a given diameter is informational (the model works
                 // on radii); it is listed as computed so no report calls it given.
                 let length = match given_length {
                     Some(l) => l,
-                    None => {
-                        let l = length_of(d);
-                        self.computed(
-                            reg::ROLL_LENGTH.path,
-                            length_range.show(l),
-                            "computed from the diameters and the caliper: L = π(R² − rc²)/h",
-                        );
-                        l
-                    }
+                    None => self.computed_length(length_of(d)),
                 };
                 (d, length)
             }
@@ -124,13 +95,7 @@ impl Resolver {
                     ));
                 }
                 let d = self.assumed(reg::ROLL_DIAMETER.path, &diameter_range, fallback, "");
-                let l = length_of(d);
-                self.computed(
-                    reg::ROLL_LENGTH.path,
-                    length_range.show(l),
-                    "computed from the diameters and the caliper: L = π(R² − rc²)/h",
-                );
-                (d, l)
+                (d, self.computed_length(length_of(d)))
             }
         };
         self.at_most_max_layers(
@@ -144,6 +109,49 @@ impl Resolver {
             outer_diameter: diameter,
             length,
         })
+    }
+
+    /// A given roll diameter: in range and at least one layer of caliper `h` over the core.
+    fn given_roll_diameter(
+        &mut self,
+        d: f64,
+        core: &ResolvedCore,
+        h: f64,
+    ) -> Result<f64, CaseError> {
+        let diameter_range = reg::ROLL_DIAMETER.range();
+        let d = self.check(reg::ROLL_DIAMETER.path, d, &diameter_range)?;
+        self.note_preset_copy(&reg::ROLL_DIAMETER, d);
+        if d <= core.outside_diameter {
+            return Err(self.out_of_range(
+                reg::ROLL_DIAMETER.path,
+                diameter_range.show(d),
+                format!(
+                    "larger than the core outside diameter {} (the core is bigger than the roll)",
+                    reg::CORE_OUTSIDE.range().show(core.outside_diameter)
+                ),
+            ));
+        }
+        if d < core.outside_diameter + 2.0 * h {
+            return Err(self.out_of_range(
+                reg::ROLL_DIAMETER.path,
+                diameter_range.show(d),
+                format!(
+                    "at least one layer over the core: {} or more",
+                    diameter_range.show(core.outside_diameter + 2.0 * h)
+                ),
+            ));
+        }
+        Ok(d)
+    }
+
+    /// A wound length computed from the diameters, recorded as computed.
+    fn computed_length(&mut self, length: f64) -> f64 {
+        self.computed(
+            reg::ROLL_LENGTH.path,
+            reg::ROLL_LENGTH.range().show(length),
+            "computed from the diameters and the caliper: L = π(R² − rc²)/h",
+        );
+        length
     }
 
     /// A given wound length: in range and at least one wrap around the core.
@@ -212,30 +220,53 @@ impl Resolver {
         Ok(self.check(field, d, &range)? / 2.0)
     }
 
-    /// The diameter of a list entry (a programme point, a taper step) inside the wound part of
-    /// the roll and larger than the entry before it (`previous`, a radius; `None` for the first
-    /// entry), returned as a radius. `what` names the entries in the message ("point", "step").
-    pub(super) fn radius_after(
+    /// Read a list whose entries each start at a diameter, from the core outward: `diameter`
+    /// gives an entry's diameter key and text, `value` reads the rest of the entry given its
+    /// field path. The entries as (radius, value), in order; the first bad entry's error.
+    pub(super) fn read_outward<T, V>(
+        &mut self,
+        mut list: OutwardList,
+        entries: &[T],
+        diameter: impl Fn(&T) -> (&'static str, &QuantityText),
+        mut value: impl FnMut(&mut Self, &str, &T) -> Result<V, CaseError>,
+    ) -> Result<Vec<(f64, V)>, CaseError> {
+        let mut out = Vec::with_capacity(entries.len());
+        for entry in entries {
+            let (key, text) = diameter(entry);
+            let (field, radius) = self.next_outward(&mut list, key, text)?;
+            out.push((radius, value(self, &field, entry)?));
+        }
+        Ok(out)
+    }
+
+    /// The next entry of a list that goes from the core outward: its field path
+    /// (`winding.taper.steps[2]`) and the radius of its diameter (written under `key`), which
+    /// must lie inside the wound part of the roll and above the entry before it.
+    fn next_outward(
         &self,
-        field: &str,
+        list: &mut OutwardList,
+        key: &str,
         value: &QuantityText,
-        previous: Option<f64>,
-        what: &str,
-        core: &ResolvedCore,
-        roll: &ResolvedRoll,
-    ) -> Result<f64, CaseError> {
-        let radius = self.radius_in_roll(field, value, core, roll)?;
-        match previous {
-            Some(last) if radius <= last => Err(self.out_of_range(
-                field,
+    ) -> Result<(String, f64), CaseError> {
+        let field = format!("{}[{}]", list.path, list.count);
+        let diameter_field = format!("{field}.{key}");
+        let radius = self.radius_in_roll(&diameter_field, value, list.core, list.roll)?;
+        if let Some(last) = list.last
+            && radius <= last
+        {
+            let what = list.what;
+            return Err(self.out_of_range(
+                &diameter_field,
                 reg::CORE_OUTSIDE.range().show(2.0 * radius),
                 format!(
                     "larger than the previous {what}'s diameter {} (list {what}s from the core outward)",
                     reg::CORE_OUTSIDE.range().show(2.0 * last)
                 ),
-            )),
-            _ => Ok(radius),
+            ));
         }
+        list.last = Some(radius);
+        list.count += 1;
+        Ok((field, radius))
     }
 
     fn tension_below_strength(
@@ -617,24 +648,18 @@ impl Resolver {
                 "winding.taper.points is empty; a tension programme needs at least one point",
             ));
         }
-        let mut points = Vec::with_capacity(taper.points.len());
-        let mut last_radius = None;
-        for (index, point) in taper.points.iter().enumerate() {
-            let field = format!("winding.taper.points[{index}]");
-            let radius = self.radius_after(
-                &format!("{field}.diameter"),
-                &point.diameter,
-                last_radius,
-                "point",
-                core,
-                roll,
-            )?;
-            last_radius = Some(radius);
-            let tension =
-                self.band_tension(&field, &point.tension, web, &reg::POINT_TENSION.range())?;
-            points.push(TensionStep { radius, tension });
-        }
-        Ok(Taper::Programme { points })
+        let list = OutwardList::new("winding.taper.points", "point", core, roll);
+        let points = self.read_outward(
+            list,
+            &taper.points,
+            |point| ("diameter", &point.diameter),
+            |this, field, point| {
+                this.band_tension(field, &point.tension, web, &reg::POINT_TENSION.range())
+            },
+        )?;
+        Ok(Taper::Programme {
+            points: tension_steps(points),
+        })
     }
 
     /// The steps of a `steps` taper, diameters turned into radii.
@@ -654,22 +679,55 @@ impl Resolver {
             return Err(self
                 .invalid("winding.taper.steps is empty; a `steps` taper needs at least one step"));
         }
-        let mut steps = Vec::with_capacity(taper.steps.len());
-        let mut last_radius = None;
-        for (index, step) in taper.steps.iter().enumerate() {
-            let field = format!("winding.taper.steps[{index}]");
-            let radius = self.radius_after(
-                &format!("{field}.from_diameter"),
-                &step.from_diameter,
-                last_radius,
-                "step",
-                core,
-                roll,
-            )?;
-            last_radius = Some(radius);
-            let tension = self.band_tension(&field, &step.tension, web, &reg::TENSION.range())?;
-            steps.push(TensionStep { radius, tension });
-        }
-        Ok(Taper::Steps { steps })
+        let list = OutwardList::new("winding.taper.steps", "step", core, roll);
+        let steps = self.read_outward(
+            list,
+            &taper.steps,
+            |step| ("from_diameter", &step.from_diameter),
+            |this, field, step| this.band_tension(field, &step.tension, web, &reg::TENSION.range()),
+        )?;
+        Ok(Taper::Steps {
+            steps: tension_steps(steps),
+        })
     }
+}
+
+/// A list of entries that each start at a diameter, read from the core outward (taper steps,
+/// the tension programme, the nip programme); see [`Resolver::read_outward`].
+pub(super) struct OutwardList<'a> {
+    /// The list's field path, e.g. `winding.taper.steps`.
+    path: &'static str,
+    /// What one entry is called in messages ("step", "point").
+    what: &'static str,
+    core: &'a ResolvedCore,
+    roll: &'a ResolvedRoll,
+    /// Entries read so far, and the radius of the last one.
+    count: usize,
+    last: Option<f64>,
+}
+
+impl<'a> OutwardList<'a> {
+    pub(super) fn new(
+        path: &'static str,
+        what: &'static str,
+        core: &'a ResolvedCore,
+        roll: &'a ResolvedRoll,
+    ) -> Self {
+        OutwardList {
+            path,
+            what,
+            core,
+            roll,
+            count: 0,
+            last: None,
+        }
+    }
+}
+
+/// (radius, tension) pairs as the model's tension steps.
+fn tension_steps(entries: Vec<(f64, f64)>) -> Vec<TensionStep> {
+    entries
+        .into_iter()
+        .map(|(radius, tension)| TensionStep { radius, tension })
+        .collect()
 }
