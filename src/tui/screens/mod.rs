@@ -134,9 +134,12 @@ fn help_line_widget(app: &App, theme: Theme) -> Paragraph<'static> {
     Paragraph::new(Line::from(spans))
 }
 
-/// Scroll offset that keeps logical line `target` (and the line after it) of a wrapped
-/// paragraph in a box `width`×`height` (inside its borders) in view. Word wrapping can take a
-/// row more than the estimate, hence the spare line.
+/// Rows `line` takes when word-wrapped to `width` cells (an estimate: word wrapping can take a
+/// row more, hence the spare line in [`scroll_to_keep`]).
+fn rows(line: &Line, width: u16) -> usize {
+    line.width().div_ceil(usize::from(width).max(1)).max(1)
+}
+
 /// Scroll so that lines `first..=last` show (a remedy with its cautions below it): their end
 /// comes into view, but never so far that `first` scrolls off the top.
 pub fn scroll_to_keep_block(
@@ -146,43 +149,41 @@ pub fn scroll_to_keep_block(
     width: u16,
     height: u16,
 ) -> u16 {
-    let width_rows = usize::from(width).max(1);
-    let rows = |l: &Line| l.width().div_ceil(width_rows).max(1);
-    let before_first: usize = lines.iter().take(first).map(rows).sum();
+    let before_first: usize = lines.iter().take(first).map(|l| rows(l, width)).sum();
     let to_end = scroll_to_keep(lines, last.max(first), width, height);
     (usize::from(to_end).min(before_first)) as u16
 }
 
+/// Scroll offset that keeps logical line `target` (and the line after it) of a wrapped
+/// paragraph in a box `width`×`height` (inside its borders) in view.
 pub fn scroll_to_keep(lines: &[Line], target: usize, width: u16, height: u16) -> u16 {
-    let width = usize::from(width).max(1);
-    let rows = |l: &Line| l.width().div_ceil(width).max(1);
-    let before: usize = lines.iter().take(target).map(rows).sum();
-    let here = lines.get(target).map_or(1, rows);
+    let before: usize = lines.iter().take(target).map(|l| rows(l, width)).sum();
+    let here = lines.get(target).map_or(1, |l| rows(l, width));
     (before + here + 1).saturating_sub(usize::from(height)) as u16
 }
 
-/// Draw `lines` word-wrapped inside `block`, scrolled so that logical line `target` stays in
-/// view (`None`: from the top).
-/// Like [`render_scrolled`], keeping the block `first..=last` in view.
-pub fn render_scrolled_block<'a>(
+/// Draw `lines` word-wrapped inside `block`, scrolled so that lines `first..=last` stay in view
+/// and then `past` rows further (clamped at the end). Returns how many rows past the kept block
+/// the pane could scroll, so keys can clamp to it.
+pub fn render_scrolled_past<'a>(
     lines: Vec<Line<'a>>,
     (first, last): (usize, usize),
+    past: u16,
     block: Block<'a>,
     area: Rect,
     buf: &mut Buffer,
-) {
-    let scroll = scroll_to_keep_block(
-        &lines,
-        first,
-        last,
-        area.width.saturating_sub(2),
-        area.height.saturating_sub(2),
-    );
+) -> u16 {
+    let (width, height) = (area.width.saturating_sub(2), area.height.saturating_sub(2));
+    let keep = scroll_to_keep_block(&lines, first, last, width, height);
+    let total: usize = lines.iter().map(|l| rows(l, width)).sum();
+    let most = u16::try_from(total.saturating_sub(usize::from(height))).unwrap_or(u16::MAX);
+    let reach = most.saturating_sub(keep);
     Paragraph::new(lines)
         .wrap(Wrap { trim: false })
-        .scroll((scroll, 0))
+        .scroll((keep.saturating_add(past.min(reach)), 0))
         .block(block)
         .render(area, buf);
+    reach
 }
 
 /// Word-wrap `line` to `width` cells with its continuation rows indented by `indent` spaces
@@ -227,6 +228,8 @@ pub fn hang(line: Line<'static>, width: usize, indent: usize) -> Vec<Line<'stati
     out
 }
 
+/// Draw `lines` word-wrapped inside `block`, scrolled so that logical line `target` stays in
+/// view (`None`: from the top).
 pub fn render_scrolled<'a>(
     lines: Vec<Line<'a>>,
     target: Option<usize>,
