@@ -15,3 +15,4 @@ mod screens;
 mod smoke;
 mod state;
 mod story_history;
+mod wrap;

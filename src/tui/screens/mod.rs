@@ -9,7 +9,7 @@ pub mod what_if;
 
 use ratatui::buffer::Buffer;
 use ratatui::layout::{Constraint, Layout, Rect};
-use ratatui::text::{Line, Span};
+use ratatui::text::{Line, Span, Text};
 use ratatui::widgets::{Block, Paragraph, Widget, Wrap};
 
 use super::app::{App, Screen, tab_labels};
@@ -54,9 +54,7 @@ impl Widget for AppView<'_> {
                 )),
                 Line::from("Enlarge the window, or press Ctrl-Q to quit."),
             ];
-            Paragraph::new(lines)
-                .wrap(ratatui::widgets::Wrap { trim: true })
-                .render(area, buf);
+            wrapped(lines, true).render(area, buf);
             return;
         }
         let [header, body, status, help_line] = Layout::vertical([
@@ -121,6 +119,22 @@ impl Widget for AppView<'_> {
         for popup in &app.popups {
             popup.render(session, theme, area, buf);
         }
+        plain_spaces(area, buf);
+    }
+}
+
+/// The no-break spaces that kept numbers with their units while wrapping are drawn as plain
+/// spaces: the terminal shows the same, and text copied off the screen has ordinary spaces.
+fn plain_spaces(area: Rect, buf: &mut Buffer) {
+    let no_break = crate::units::NO_BREAK.to_string();
+    for y in area.top()..area.bottom() {
+        for x in area.left()..area.right() {
+            if let Some(cell) = buf.cell_mut((x, y))
+                && cell.symbol() == no_break
+            {
+                cell.set_symbol(" ");
+            }
+        }
     }
 }
 
@@ -132,6 +146,26 @@ fn help_line_widget(app: &App, theme: Theme) -> Paragraph<'static> {
         spans.push(Span::raw(format!(" {what}  ")));
     }
     Paragraph::new(Line::from(spans))
+}
+
+/// A word-wrapped paragraph of `text` whose numbers keep their units on the same row (see
+/// [`keep_units`]): every wrapped text of the screens and popups is drawn through it.
+pub fn wrapped<'a>(text: impl Into<Text<'a>>, trim: bool) -> Paragraph<'a> {
+    let mut text = text.into();
+    for line in &mut text.lines {
+        keep_units(line);
+    }
+    Paragraph::new(text).wrap(Wrap { trim })
+}
+
+/// Join each number in `line` to its unit with a no-break space ("2.6 pli" stays whole when
+/// wrapped): ratatui's word wrapping and [`hang`] break only at plain spaces.
+pub fn keep_units(line: &mut Line) {
+    for span in &mut line.spans {
+        if let std::borrow::Cow::Owned(joined) = crate::units::keep_with_unit(&span.content) {
+            span.content = joined.into();
+        }
+    }
 }
 
 /// Rows `line` takes when word-wrapped to `width` cells (an estimate: word wrapping can take a
@@ -178,8 +212,7 @@ pub fn render_scrolled_past<'a>(
     let total: usize = lines.iter().map(|l| rows(l, width)).sum();
     let most = u16::try_from(total.saturating_sub(usize::from(height))).unwrap_or(u16::MAX);
     let reach = most.saturating_sub(keep);
-    Paragraph::new(lines)
-        .wrap(Wrap { trim: false })
+    wrapped(lines, false)
         .scroll((keep.saturating_add(past.min(reach)), 0))
         .block(block)
         .render(area, buf);
@@ -189,7 +222,8 @@ pub fn render_scrolled_past<'a>(
 /// Word-wrap `line` to `width` cells with its continuation rows indented by `indent` spaces
 /// (styles kept), so a wrapped cause or reason reads as one item. Breaks only at plain spaces:
 /// a number joined to its unit by a no-break space stays with it.
-pub fn hang(line: Line<'static>, width: usize, indent: usize) -> Vec<Line<'static>> {
+pub fn hang(mut line: Line<'static>, width: usize, indent: usize) -> Vec<Line<'static>> {
+    keep_units(&mut line);
     if width <= indent + 8 || line.width() <= width {
         return vec![line];
     }
@@ -245,8 +279,7 @@ pub fn render_scrolled<'a>(
             area.height.saturating_sub(2),
         )
     });
-    Paragraph::new(lines)
-        .wrap(Wrap { trim: false })
+    wrapped(lines, false)
         .scroll((scroll, 0))
         .block(block)
         .render(area, buf);

@@ -5,7 +5,7 @@
 use ratatui::buffer::Buffer;
 use ratatui::layout::{Constraint, Layout, Rect};
 use ratatui::text::{Line, Span};
-use ratatui::widgets::{Block, Paragraph, Widget, Wrap};
+use ratatui::widgets::{Block, Widget};
 
 use super::plot::{Band, Glyph, ReferenceLine, Series, ZonePlot, legend};
 use super::{compact_length, compact_stress};
@@ -156,8 +156,7 @@ impl Component for ResultsScreen {
         let (state, app) = (self, ctx);
         let Some(outcome) = app.latest_outcome() else {
             let text = waiting_text(app).unwrap_or_default();
-            Paragraph::new(text)
-                .wrap(Wrap { trim: true })
+            super::wrapped(text, true)
                 .block(Block::bordered().title(" Results "))
                 .render(area, buf);
             return;
@@ -180,9 +179,7 @@ impl Component for ResultsScreen {
                 )),
             );
         }
-        Paragraph::new(summary_lines)
-            .wrap(Wrap { trim: true })
-            .render(summary, buf);
+        super::wrapped(summary_lines, true).render(summary, buf);
         render_plots(
             &outcome.profile,
             None,
@@ -203,8 +200,7 @@ impl Component for ResultsScreen {
                 state.reach.set((cause_reach, remedy_reach));
             }
             Err(error) => {
-                Paragraph::new(format!("No diagnosis: {error}"))
-                    .wrap(Wrap { trim: true })
+                super::wrapped(format!("No diagnosis: {error}"), true)
                     .block(Block::bordered().title(" Ranked causes "))
                     .render(lists, buf);
             }

@@ -4,7 +4,7 @@
 use ratatui::buffer::Buffer;
 use ratatui::layout::{Constraint, Layout, Rect};
 use ratatui::text::{Line, Span};
-use ratatui::widgets::{Block, Paragraph, Widget, Wrap};
+use ratatui::widgets::{Block, Widget};
 
 use super::results::render_plots;
 use super::{compact_stress, sig3};
@@ -720,8 +720,7 @@ fn render_choices(state: &WhatIfScreen, app: &Session, theme: Theme, area: Rect,
             .unwrap_or("Enter applies the remedy's setting change");
         lines.push(Line::from(Span::styled(step_help, theme.dim())));
     }
-    Paragraph::new(lines)
-        .wrap(Wrap { trim: true })
+    super::wrapped(lines, true)
         .block(Block::bordered().title(" Change one setting "))
         .render(area, buf);
 }
@@ -810,8 +809,7 @@ fn render_comparison(
     } else {
         " Before → after  (a keeps the change, r resets) "
     };
-    Paragraph::new(text)
-        .wrap(Wrap { trim: false })
+    super::wrapped(text, false)
         .scroll((scroll, 0))
         .block(Block::bordered().title(title))
         .render(compare, buf);
@@ -849,8 +847,7 @@ fn render_comparison(
         ),
         _ => {
             let text = super::results::waiting_text(app).unwrap_or_default();
-            Paragraph::new(text)
-                .wrap(Wrap { trim: true })
+            super::wrapped(text, true)
                 .block(Block::bordered())
                 .render(plots, buf);
         }
