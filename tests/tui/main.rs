@@ -11,6 +11,7 @@ mod tui_support;
 mod job;
 mod measure;
 mod operator;
+mod plot_labels;
 mod screens;
 mod smoke;
 mod state;

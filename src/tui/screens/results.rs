@@ -7,7 +7,7 @@ use ratatui::layout::{Constraint, Layout, Rect};
 use ratatui::text::{Line, Span};
 use ratatui::widgets::{Block, Widget};
 
-use super::plot::{Band, Glyph, ReferenceLine, Series, ZonePlot, legend};
+use super::plot::{Band, Drawn, Glyph, ReferenceLine, Series, ZonePlot, legend};
 use super::{compact_length, compact_stress};
 use crate::diagnose::Diagnosis;
 use crate::model::Profile;
@@ -339,6 +339,7 @@ pub fn assumed_line(outcome: &SolveOutcome, theme: Theme, width: u16) -> Line<'s
 }
 
 /// The two plots side by side; with `before`, the earlier profile is overlaid in bullets.
+/// Returns where each plot put its labels and curves.
 pub fn render_plots(
     profile: &Profile,
     before: Option<&Profile>,
@@ -347,7 +348,7 @@ pub fn render_plots(
     theme: Theme,
     area: Rect,
     buf: &mut Buffer,
-) {
+) -> [Drawn; 2] {
     let [left, right] =
         Layout::horizontal([Constraint::Percentage(50), Constraint::Percentage(50)]).areas(area);
     let bands: Vec<Band> = profile
@@ -409,7 +410,7 @@ pub fn render_plots(
             style: theme.limit_line(),
         });
     }
-    ZonePlot {
+    let pressure = ZonePlot {
         block: Block::bordered().title(title("Interlayer pressure")),
         series: curves(|p| &p.pressure),
         bands: bands.clone(),
@@ -419,8 +420,8 @@ pub fn render_plots(
         band_style: theme.zone_label(),
         axis_style: theme.dim(),
     }
-    .render(left, buf);
-    ZonePlot {
+    .draw(left, buf);
+    let hoop = ZonePlot {
         block: Block::bordered().title(title("Hoop stress σθ")),
         series: curves(|p| &p.tangential_stress),
         bands,
@@ -430,7 +431,8 @@ pub fn render_plots(
         band_style: theme.zone_label(),
         axis_style: theme.dim(),
     }
-    .render(right, buf);
+    .draw(right, buf);
+    [pressure, hoop]
 }
 
 fn belief_bar(belief: f64) -> String {

@@ -827,24 +827,28 @@ fn render_comparison(
         return;
     }
     match (before, after) {
-        (Some(before), Some(after)) => render_plots(
-            &after.profile,
-            Some(&before.profile),
-            after.resolved.core.crush_pressure,
-            app.units,
-            theme,
-            plots,
-            buf,
-        ),
-        (Some(before), None) => render_plots(
-            &before.profile,
-            None,
-            before.resolved.core.crush_pressure,
-            app.units,
-            theme,
-            plots,
-            buf,
-        ),
+        (Some(before), Some(after)) => {
+            render_plots(
+                &after.profile,
+                Some(&before.profile),
+                after.resolved.core.crush_pressure,
+                app.units,
+                theme,
+                plots,
+                buf,
+            );
+        }
+        (Some(before), None) => {
+            render_plots(
+                &before.profile,
+                None,
+                before.resolved.core.crush_pressure,
+                app.units,
+                theme,
+                plots,
+                buf,
+            );
+        }
         _ => {
             let text = super::results::waiting_text(app).unwrap_or_default();
             super::wrapped(text, true)
