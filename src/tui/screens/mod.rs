@@ -271,18 +271,8 @@ pub fn render_scrolled<'a>(
     area: Rect,
     buf: &mut Buffer,
 ) {
-    let scroll = target.map_or(0, |target| {
-        scroll_to_keep(
-            &lines,
-            target,
-            area.width.saturating_sub(2),
-            area.height.saturating_sub(2),
-        )
-    });
-    wrapped(lines, false)
-        .scroll((scroll, 0))
-        .block(block)
-        .render(area, buf);
+    let target = target.unwrap_or(0);
+    render_scrolled_past(lines, (target, target), 0, block, area, buf);
 }
 
 /// A centred rectangle `width`×`height` inside `area` (clipped to it).
