@@ -190,6 +190,14 @@ fn training_picker() {
         screen.contains(&app.session.walkthroughs[0].walkthrough.title),
         "{screen}"
     );
+    // Every row shows its level whole: a long title is cut with "…", not the level.
+    let shown = app.session.walkthroughs.len().min(16);
+    for loaded in &app.session.walkthroughs[..shown] {
+        let level = format!("[{}]", loaded.walkthrough.level.as_deref().unwrap_or(""));
+        let start: String = loaded.walkthrough.title.chars().take(20).collect();
+        let row = screen.lines().find(|l| l.contains(&start)).unwrap();
+        assert!(row.contains(&level), "{row}\n{screen}");
+    }
 }
 
 #[test]
