@@ -711,6 +711,49 @@ pub fn web_length(value: f64, units: UnitSystem) -> String {
     }
 }
 
+/// The no-break space that joins a number to its unit in text meant to be word-wrapped.
+pub const NO_BREAK: char = '\u{a0}';
+
+/// `text` with each plain space between a number and a unit symbol ("2.6 pli", "495 kPa",
+/// "80 %", "150 m/min") made a no-break space, so word wrapping (the terminal UI, browsers)
+/// never puts the unit on the next line. The one place that knows which words are units: the
+/// symbols [`parse_quantity`] accepts, and "%". Text without such a pair comes back borrowed.
+/// Only for display: files, JSON and CSV keep plain spaces (the parser reads both).
+pub fn keep_with_unit(text: &str) -> std::borrow::Cow<'_, str> {
+    let mut joins = Vec::new();
+    let mut previous = None;
+    for (at, c) in text.char_indices() {
+        if c == ' ' && previous.is_some_and(|p: char| p.is_ascii_digit()) {
+            let rest = &text[at + 1..];
+            let word = rest.split(char::is_whitespace).next().unwrap_or("");
+            // A unit may end a clause: "10 %;", "2.6 pli)", "495 kPa.".
+            let word = word.trim_end_matches([',', ';', ':', ')', ']', '.', '!', '?']);
+            if !word.is_empty() && is_unit_symbol(word) {
+                joins.push(at);
+            }
+        }
+        previous = Some(c);
+    }
+    if joins.is_empty() {
+        return std::borrow::Cow::Borrowed(text);
+    }
+    let mut out = String::with_capacity(text.len() + joins.len());
+    let mut from = 0;
+    for at in joins {
+        out.push_str(&text[from..at]);
+        out.push(NO_BREAK);
+        from = at + 1;
+    }
+    out.push_str(&text[from..]);
+    std::borrow::Cow::Owned(out)
+}
+
+/// Whether `word` is a unit symbol as printed or accepted ("kPa", "m/min", "%", "µm").
+fn is_unit_symbol(word: &str) -> bool {
+    let key = word.to_lowercase();
+    UNITS.iter().any(|u| u.symbols.contains(&key.as_str()))
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
@@ -740,6 +783,24 @@ mod tests {
         assert_eq!(format_number(-0.00001234567), "-1.235e-5");
         assert_eq!(format_number(2.0e12), "2e12");
         assert_eq!(format_number(0.0), "0");
+    }
+
+    #[test]
+    fn numbers_keep_their_units() {
+        let text = "raise 2.6 pli to 3 pli (495 kPa, 80 %; 150 m/min) in 2 steps";
+        let joined = keep_with_unit(text);
+        assert_eq!(
+            joined,
+            "raise 2.6\u{a0}pli to 3\u{a0}pli (495\u{a0}kPa, 80\u{a0}%; 150\u{a0}m/min) in 2 steps"
+        );
+        assert!(matches!(
+            keep_with_unit("no numbers here"),
+            std::borrow::Cow::Borrowed(_)
+        ));
+        // Text copied from a screen parses like typed text.
+        let copied = format!("2.6{NO_BREAK}pli");
+        let value = parse_quantity("t", &copied, QuantityKind::ForcePerWidth).unwrap();
+        assert!((value - 2.6 * NEWTONS_PER_METRE_PER_PLI).abs() < 1e-9);
     }
 
     #[test]

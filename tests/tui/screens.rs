@@ -190,6 +190,14 @@ fn training_picker() {
         screen.contains(&app.session.walkthroughs[0].walkthrough.title),
         "{screen}"
     );
+    // Every row shows its level whole: a long title is cut with "…", not the level.
+    let shown = app.session.walkthroughs.len().min(16);
+    for loaded in &app.session.walkthroughs[..shown] {
+        let level = format!("[{}]", loaded.walkthrough.level.as_deref().unwrap_or(""));
+        let start: String = loaded.walkthrough.title.chars().take(20).collect();
+        let row = screen.lines().find(|l| l.contains(&start)).unwrap();
+        assert!(row.contains(&level), "{row}\n{screen}");
+    }
 }
 
 #[test]
@@ -383,4 +391,90 @@ symptoms:
     let report = std::fs::read_to_string(&path).unwrap();
     assert!(report.contains("What the answer rests on"), "{report}");
     assert!(report.contains(&cli.lines(3)[0]), "{report}");
+}
+
+/// In a small window the sections below the lists are reached by scrolling on: ↓ past the last
+/// cause (or End) shows "What the answer rests on" to its last line, and End in the remedies
+/// shows the last remedy's cautions; ↑ comes back. Wrapped remedy lines hang under their text.
+#[test]
+fn results_scroll_to_what_the_answer_rests_on_and_the_cautions() {
+    let case = rolltriage::case::Case::from_yaml_str(
+        r#"
+title: Small roll, presets only
+web: {preset: newsprint}
+core: {preset: paper_3in}
+roll: {diameter: "130 mm"}
+winding: {tension: "1 pli"}
+symptoms:
+  - {id: telescoping, where: outside}
+"#,
+        "small roll",
+    )
+    .unwrap();
+    let rules = rolltriage::diagnose::rules::RuleBase::embedded().unwrap();
+    let solved = rolltriage::tui::job::run_pipeline(&case, None, &rules, &mut |_| true).unwrap();
+    let rests_on = solved
+        .sensitivity
+        .as_ref()
+        .expect("a sensitivity run")
+        .lines(3);
+    let diagnosis = solved.diagnosis.as_ref().unwrap();
+    let last_remedy = diagnosis.remedies.last().expect("remedies");
+    let last_caution = diagnosis
+        .cautions_of(last_remedy)
+        .last()
+        .map(|c| c.title.clone());
+    // The end of a wrapped line: its last word, which must show when scrolled to the end.
+    let last_word = |text: &str| text.split_whitespace().last().unwrap_or("").to_string();
+    for (w, h) in [(80, 24), (120, 40)] {
+        let mut app = app();
+        app.set_case(case.clone(), Some("cases/small.yaml".into()));
+        finish_requests(&mut app, &solved, &solved);
+        let top = draw(&app, w, h);
+        let mut heading_seen = false;
+        for _ in 0..60 {
+            app.handle_key(Key::Down);
+            heading_seen |= draw(&app, w, h).contains("What the answer rests on");
+        }
+        let end = draw(&app, w, h);
+        insta::assert_snapshot!(format!("results_rests_on_end_{w}x{h}"), end);
+        assert!(heading_seen, "the heading never scrolled into view");
+        let last = rests_on.last().unwrap();
+        assert!(
+            end.contains(&last_word(last)),
+            "missing the end of {last}:\n{end}"
+        );
+        // ↑ scrolls back a row at a time, then moves the selection.
+        for _ in 0..60 {
+            app.handle_key(Key::Up);
+        }
+        assert_eq!(draw(&app, w, h), top);
+
+        app.handle_key(Key::Right);
+        app.handle_key(Key::End);
+        let end = draw(&app, w, h);
+        insta::assert_snapshot!(format!("results_remedies_end_{w}x{h}"), end);
+        if let Some(title) = &last_caution {
+            assert!(end.contains(title.as_str()), "missing {title}:\n{end}");
+        }
+        assert!(end.contains(&last_word(&last_remedy.text)), "{end}");
+        // Wrapped remedy lines hang under their text: no row of the pane starts in its
+        // first column with a word's continuation.
+        // Rows are quoted: the pane's border is at cell w/2, its first column the next.
+        let half = usize::from(w / 2);
+        let title = end
+            .lines()
+            .position(|l| l.contains("Remedies, in the order"))
+            .unwrap();
+        for row in end.lines().skip(title + 1) {
+            if row.chars().nth(half + 1) != Some('│') {
+                continue;
+            }
+            let first = row.chars().nth(half + 2);
+            assert!(
+                !first.is_some_and(|c| c.is_lowercase()),
+                "unindented continuation: {row}\n{end}"
+            );
+        }
+    }
 }

@@ -3,7 +3,7 @@
 use ratatui::buffer::Buffer;
 use ratatui::layout::Rect;
 use ratatui::text::{Line, Span};
-use ratatui::widgets::{Block, Clear, Paragraph, Widget, Wrap};
+use ratatui::widgets::{Block, Clear, Widget};
 
 use crate::tui::component::{ANY, Action, Binding, Component, Handled, PendingAction};
 use crate::tui::event::Key;
@@ -65,8 +65,7 @@ impl Component for ConfirmPopup {
         ];
         let rect = centred(area, 60, 7);
         Clear.render(rect, buf);
-        Paragraph::new(lines)
-            .wrap(Wrap { trim: false })
+        crate::tui::screens::wrapped(lines, false)
             .block(Block::bordered().title(" Unsaved changes "))
             .render(rect, buf);
     }

@@ -490,16 +490,17 @@ impl Component for HistoryPopup {
                 }
                 paragraph.render(body, buf);
             }
-            HistoryView::Complaint => Paragraph::new(self.complaint_lines(ctx, theme))
-                .wrap(Wrap { trim: false })
-                .scroll((self.scroll, 0))
-                .render(body, buf),
-            HistoryView::Similar => {
-                Paragraph::new(self.similar_lines(theme, usize::from(body.width)))
-                    .wrap(Wrap { trim: false })
+            HistoryView::Complaint => {
+                crate::tui::screens::wrapped(self.complaint_lines(ctx, theme), false)
                     .scroll((self.scroll, 0))
                     .render(body, buf)
             }
+            HistoryView::Similar => crate::tui::screens::wrapped(
+                self.similar_lines(theme, usize::from(body.width)),
+                false,
+            )
+            .scroll((self.scroll, 0))
+            .render(body, buf),
         }
     }
 }

@@ -6,7 +6,7 @@ use std::path::PathBuf;
 use ratatui::buffer::Buffer;
 use ratatui::layout::Rect;
 use ratatui::text::{Line, Span};
-use ratatui::widgets::{Block, Clear, Paragraph, Widget, Wrap};
+use ratatui::widgets::{Block, Clear, Widget};
 
 use super::prompt::{PathPrompt, path_prompt};
 use crate::tui::component::{ANY, Action, Binding, Component, Handled, OpenPurpose};
@@ -114,8 +114,7 @@ impl Component for OpenPopup {
             )));
         }
         Clear.render(rect, buf);
-        Paragraph::new(lines)
-            .wrap(Wrap { trim: false })
+        crate::tui::screens::wrapped(lines, false)
             .block(Block::bordered().title(title))
             .render(rect, buf);
     }

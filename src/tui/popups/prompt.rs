@@ -6,7 +6,7 @@ use std::path::PathBuf;
 use ratatui::buffer::Buffer;
 use ratatui::layout::Rect;
 use ratatui::text::{Line, Span};
-use ratatui::widgets::{Block, Clear, Paragraph, Widget, Wrap};
+use ratatui::widgets::{Block, Clear, Widget};
 
 use crate::tui::component::{ANY, Action, Binding, Component, Handled};
 use crate::tui::event::Key;
@@ -151,8 +151,7 @@ impl Component for FilePopup {
         lines.push(Line::from(Span::styled(note, theme.dim())));
         let rect = centred(area, 64, 6);
         Clear.render(rect, buf);
-        Paragraph::new(lines)
-            .wrap(Wrap { trim: false })
+        crate::tui::screens::wrapped(lines, false)
             .block(Block::bordered().title(title))
             .render(rect, buf);
     }

@@ -56,11 +56,16 @@ impl Component for TrainingPopup {
             } else {
                 theme.plain()
             };
-            let level = w.level.as_deref().unwrap_or("");
-            lines.push(Line::from(Span::styled(
-                format!(" {} [{level}]", w.title),
-                style,
-            )));
+            // A title too long for the box is cut with "…" so its level stays in view.
+            let level = format!(" [{}]", w.level.as_deref().unwrap_or(""));
+            let room = usize::from(rect.width.saturating_sub(3)).saturating_sub(level.len());
+            let title = if w.title.chars().count() > room {
+                let cut: String = w.title.chars().take(room.saturating_sub(1)).collect();
+                format!("{}…", cut.trim_end())
+            } else {
+                w.title.clone()
+            };
+            lines.push(Line::from(Span::styled(format!(" {title}{level}"), style)));
         }
         Clear.render(rect, buf);
         Paragraph::new(lines)

@@ -4,7 +4,7 @@
 use ratatui::buffer::Buffer;
 use ratatui::layout::Rect;
 use ratatui::text::{Line, Span};
-use ratatui::widgets::{Block, Clear, Paragraph, Widget, Wrap};
+use ratatui::widgets::{Block, Clear, Widget};
 
 use crate::tui::component::{Action, Binding, Component, Handled};
 use crate::tui::event::Key;
@@ -278,8 +278,7 @@ fn render(run: &WalkthroughRun, theme: Theme, area: Rect, buf: &mut Buffer) {
     );
     let rect = centred(area, 78, area.height.saturating_sub(2));
     Clear.render(rect, buf);
-    Paragraph::new(lines)
-        .wrap(Wrap { trim: false })
+    crate::tui::screens::wrapped(lines, false)
         .scroll((run.scroll, 0))
         .block(Block::bordered().title(format!(
             " {} — {stage} · Esc leaves ",

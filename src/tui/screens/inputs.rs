@@ -5,7 +5,7 @@
 use ratatui::buffer::Buffer;
 use ratatui::layout::{Constraint, Layout, Rect};
 use ratatui::text::{Line, Span};
-use ratatui::widgets::{Block, Paragraph, Widget, Wrap};
+use ratatui::widgets::{Block, Widget};
 
 use crate::tui::component::{Action, Binding, Component, Handled};
 use crate::tui::event::Key;
@@ -240,8 +240,7 @@ fn render(state: &InputsScreen, app: &Session, theme: Theme, area: Rect, buf: &m
             )));
         }
     }
-    Paragraph::new(lines)
-        .wrap(Wrap { trim: false })
+    super::wrapped(lines, false)
         .block(Block::bordered().title(" Roll and winding inputs — entered, assumed or blank "))
         .render(table, buf);
 
@@ -286,8 +285,7 @@ fn render(state: &InputsScreen, app: &Session, theme: Theme, area: Rect, buf: &m
             theme.dim(),
         )),
     ];
-    Paragraph::new(info_lines)
-        .wrap(Wrap { trim: true })
+    super::wrapped(info_lines, true)
         .block(Block::bordered())
         .render(info, buf);
 }

@@ -9,7 +9,7 @@ pub mod what_if;
 
 use ratatui::buffer::Buffer;
 use ratatui::layout::{Constraint, Layout, Rect};
-use ratatui::text::{Line, Span};
+use ratatui::text::{Line, Span, Text};
 use ratatui::widgets::{Block, Paragraph, Widget, Wrap};
 
 use super::app::{App, Screen, tab_labels};
@@ -54,9 +54,7 @@ impl Widget for AppView<'_> {
                 )),
                 Line::from("Enlarge the window, or press Ctrl-Q to quit."),
             ];
-            Paragraph::new(lines)
-                .wrap(ratatui::widgets::Wrap { trim: true })
-                .render(area, buf);
+            wrapped(lines, true).render(area, buf);
             return;
         }
         let [header, body, status, help_line] = Layout::vertical([
@@ -121,6 +119,22 @@ impl Widget for AppView<'_> {
         for popup in &app.popups {
             popup.render(session, theme, area, buf);
         }
+        plain_spaces(area, buf);
+    }
+}
+
+/// The no-break spaces that kept numbers with their units while wrapping are drawn as plain
+/// spaces: the terminal shows the same, and text copied off the screen has ordinary spaces.
+fn plain_spaces(area: Rect, buf: &mut Buffer) {
+    let no_break = crate::units::NO_BREAK.to_string();
+    for y in area.top()..area.bottom() {
+        for x in area.left()..area.right() {
+            if let Some(cell) = buf.cell_mut((x, y))
+                && cell.symbol() == no_break
+            {
+                cell.set_symbol(" ");
+            }
+        }
     }
 }
 
@@ -134,9 +148,32 @@ fn help_line_widget(app: &App, theme: Theme) -> Paragraph<'static> {
     Paragraph::new(Line::from(spans))
 }
 
-/// Scroll offset that keeps logical line `target` (and the line after it) of a wrapped
-/// paragraph in a box `width`×`height` (inside its borders) in view. Word wrapping can take a
-/// row more than the estimate, hence the spare line.
+/// A word-wrapped paragraph of `text` whose numbers keep their units on the same row (see
+/// [`keep_units`]): every wrapped text of the screens and popups is drawn through it.
+pub fn wrapped<'a>(text: impl Into<Text<'a>>, trim: bool) -> Paragraph<'a> {
+    let mut text = text.into();
+    for line in &mut text.lines {
+        keep_units(line);
+    }
+    Paragraph::new(text).wrap(Wrap { trim })
+}
+
+/// Join each number in `line` to its unit with a no-break space ("2.6 pli" stays whole when
+/// wrapped): ratatui's word wrapping and [`hang`] break only at plain spaces.
+pub fn keep_units(line: &mut Line) {
+    for span in &mut line.spans {
+        if let std::borrow::Cow::Owned(joined) = crate::units::keep_with_unit(&span.content) {
+            span.content = joined.into();
+        }
+    }
+}
+
+/// Rows `line` takes when word-wrapped to `width` cells (an estimate: word wrapping can take a
+/// row more, hence the spare line in [`scroll_to_keep`]).
+fn rows(line: &Line, width: u16) -> usize {
+    line.width().div_ceil(usize::from(width).max(1)).max(1)
+}
+
 /// Scroll so that lines `first..=last` show (a remedy with its cautions below it): their end
 /// comes into view, but never so far that `first` scrolls off the top.
 pub fn scroll_to_keep_block(
@@ -146,49 +183,47 @@ pub fn scroll_to_keep_block(
     width: u16,
     height: u16,
 ) -> u16 {
-    let width_rows = usize::from(width).max(1);
-    let rows = |l: &Line| l.width().div_ceil(width_rows).max(1);
-    let before_first: usize = lines.iter().take(first).map(rows).sum();
+    let before_first: usize = lines.iter().take(first).map(|l| rows(l, width)).sum();
     let to_end = scroll_to_keep(lines, last.max(first), width, height);
     (usize::from(to_end).min(before_first)) as u16
 }
 
+/// Scroll offset that keeps logical line `target` (and the line after it) of a wrapped
+/// paragraph in a box `width`×`height` (inside its borders) in view.
 pub fn scroll_to_keep(lines: &[Line], target: usize, width: u16, height: u16) -> u16 {
-    let width = usize::from(width).max(1);
-    let rows = |l: &Line| l.width().div_ceil(width).max(1);
-    let before: usize = lines.iter().take(target).map(rows).sum();
-    let here = lines.get(target).map_or(1, rows);
+    let before: usize = lines.iter().take(target).map(|l| rows(l, width)).sum();
+    let here = lines.get(target).map_or(1, |l| rows(l, width));
     (before + here + 1).saturating_sub(usize::from(height)) as u16
 }
 
-/// Draw `lines` word-wrapped inside `block`, scrolled so that logical line `target` stays in
-/// view (`None`: from the top).
-/// Like [`render_scrolled`], keeping the block `first..=last` in view.
-pub fn render_scrolled_block<'a>(
+/// Draw `lines` word-wrapped inside `block`, scrolled so that lines `first..=last` stay in view
+/// and then `past` rows further (clamped at the end). Returns how many rows past the kept block
+/// the pane could scroll, so keys can clamp to it.
+pub fn render_scrolled_past<'a>(
     lines: Vec<Line<'a>>,
     (first, last): (usize, usize),
+    past: u16,
     block: Block<'a>,
     area: Rect,
     buf: &mut Buffer,
-) {
-    let scroll = scroll_to_keep_block(
-        &lines,
-        first,
-        last,
-        area.width.saturating_sub(2),
-        area.height.saturating_sub(2),
-    );
-    Paragraph::new(lines)
-        .wrap(Wrap { trim: false })
-        .scroll((scroll, 0))
+) -> u16 {
+    let (width, height) = (area.width.saturating_sub(2), area.height.saturating_sub(2));
+    let keep = scroll_to_keep_block(&lines, first, last, width, height);
+    let total: usize = lines.iter().map(|l| rows(l, width)).sum();
+    let most = u16::try_from(total.saturating_sub(usize::from(height))).unwrap_or(u16::MAX);
+    let reach = most.saturating_sub(keep);
+    wrapped(lines, false)
+        .scroll((keep.saturating_add(past.min(reach)), 0))
         .block(block)
         .render(area, buf);
+    reach
 }
 
 /// Word-wrap `line` to `width` cells with its continuation rows indented by `indent` spaces
 /// (styles kept), so a wrapped cause or reason reads as one item. Breaks only at plain spaces:
 /// a number joined to its unit by a no-break space stays with it.
-pub fn hang(line: Line<'static>, width: usize, indent: usize) -> Vec<Line<'static>> {
+pub fn hang(mut line: Line<'static>, width: usize, indent: usize) -> Vec<Line<'static>> {
+    keep_units(&mut line);
     if width <= indent + 8 || line.width() <= width {
         return vec![line];
     }
@@ -227,6 +262,8 @@ pub fn hang(line: Line<'static>, width: usize, indent: usize) -> Vec<Line<'stati
     out
 }
 
+/// Draw `lines` word-wrapped inside `block`, scrolled so that logical line `target` stays in
+/// view (`None`: from the top).
 pub fn render_scrolled<'a>(
     lines: Vec<Line<'a>>,
     target: Option<usize>,
@@ -234,19 +271,8 @@ pub fn render_scrolled<'a>(
     area: Rect,
     buf: &mut Buffer,
 ) {
-    let scroll = target.map_or(0, |target| {
-        scroll_to_keep(
-            &lines,
-            target,
-            area.width.saturating_sub(2),
-            area.height.saturating_sub(2),
-        )
-    });
-    Paragraph::new(lines)
-        .wrap(Wrap { trim: false })
-        .scroll((scroll, 0))
-        .block(block)
-        .render(area, buf);
+    let target = target.unwrap_or(0);
+    render_scrolled_past(lines, (target, target), 0, block, area, buf);
 }
 
 /// A centred rectangle `width`×`height` inside `area` (clipped to it).

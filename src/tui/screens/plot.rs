@@ -51,6 +51,40 @@ pub struct ZonePlot<'a> {
     pub axis_style: Style,
 }
 
+/// Where a plot put its words and its curves, in buffer cells: what the layout test checks
+/// (no label on a curve or on another label).
+#[derive(Debug, Clone, Default, PartialEq)]
+pub struct Drawn {
+    /// Each label as (column, row, text).
+    pub labels: Vec<(u16, u16, String)>,
+    /// Cells holding a curve glyph.
+    pub curve: Vec<(u16, u16)>,
+}
+
+impl Drawn {
+    /// The cells of each label.
+    pub fn label_cells(&self) -> impl Iterator<Item = Vec<(u16, u16)>> + '_ {
+        self.labels.iter().map(|(x, y, text)| {
+            (0..text.chars().count() as u16)
+                .map(|i| (x + i, *y))
+                .collect()
+        })
+    }
+
+    fn put(&mut self, buf: &mut Buffer, x: u16, y: u16, text: &str, style: Style) {
+        buf.set_string(x, y, text, style);
+        self.labels.push((x, y, text.to_string()));
+    }
+
+    /// Whether `text` at (x, y) would cover a curve cell.
+    fn on_curve(&self, x: u16, y: u16, text: &str) -> bool {
+        let end = x + text.chars().count() as u16;
+        self.curve
+            .iter()
+            .any(|&(cx, cy)| cy == y && cx >= x && cx < end)
+    }
+}
+
 const BRAILLE_BITS: [[u8; 4]; 2] = [[0x01, 0x02, 0x04, 0x40], [0x08, 0x10, 0x20, 0x80]];
 
 fn range_of(values: impl Iterator<Item = f64>) -> Option<(f64, f64)> {
@@ -158,7 +192,7 @@ impl ZonePlot<'_> {
     }
 
     /// Bands: dotted background in alternate bands, a boundary mark, labels on the top row.
-    fn draw_bands(&self, f: &Frame, label_row: u16, buf: &mut Buffer) {
+    fn draw_bands(&self, f: &Frame, label_row: u16, buf: &mut Buffer, drawn: &mut Drawn) {
         let band_of = |x: f64| self.bands.iter().position(|b| x >= b.from && x <= b.to);
         let mut spans: Vec<(usize, usize, usize)> = Vec::new(); // band, first col, last col
         for c in 0..f.w {
@@ -192,7 +226,8 @@ impl ZonePlot<'_> {
                 text => text,
             };
             let offset = (width.saturating_sub(text.chars().count())) / 2;
-            buf.set_string(
+            drawn.put(
+                buf,
                 f.plot.x + (first + offset) as u16,
                 label_row,
                 &text,
@@ -201,7 +236,7 @@ impl ZonePlot<'_> {
         }
     }
 
-    /// Reference lines with their labels at the right end.
+    /// Reference lines across the plot.
     fn draw_lines(&self, f: &Frame, shown: &[&ReferenceLine], buf: &mut Buffer) {
         for line in shown {
             if let Some(r) = f.row_of(line.y) {
@@ -210,16 +245,48 @@ impl ZonePlot<'_> {
                         .set_char(line.glyph)
                         .set_style(line.style);
                 }
-                if !line.label.is_empty() && line.label.chars().count() + 2 < f.w {
-                    let x = f.plot.right() - line.label.chars().count() as u16;
-                    buf.set_string(x, f.plot.y + r as u16, &line.label, line.style);
-                }
+            }
+        }
+    }
+
+    /// Each reference line's label on its line where the curves leave room: the right end,
+    /// else the left end, else the row above or below; never over a curve (drawn after them).
+    fn draw_line_labels(
+        &self,
+        f: &Frame,
+        shown: &[&ReferenceLine],
+        buf: &mut Buffer,
+        drawn: &mut Drawn,
+    ) {
+        for line in shown {
+            let Some(r) = f.row_of(line.y) else { continue };
+            let len = line.label.chars().count();
+            if line.label.is_empty() || len + 2 >= f.w {
+                continue;
+            }
+            let row = f.plot.y + r as u16;
+            let (left, right) = (f.plot.x, f.plot.right() - len as u16);
+            let rows = [Some(row), row.checked_sub(1), row.checked_add(1)];
+            let spot = rows
+                .into_iter()
+                .flatten()
+                .filter(|y| (f.plot.y..f.plot.bottom()).contains(y))
+                .flat_map(|y| [(right, y), (left, y)])
+                .find(|&(x, y)| {
+                    let taken = drawn
+                        .label_cells()
+                        .flatten()
+                        .any(|(lx, ly)| ly == y && lx >= x && lx < x + len as u16);
+                    !taken && !drawn.on_curve(x, y, &line.label)
+                });
+            if let Some((x, y)) = spot {
+                drawn.put(buf, x, y, &line.label, line.style);
             }
         }
     }
 
     /// Curves: comparison bullets first, then the braille curve on top.
-    fn draw_curves(&self, f: &Frame, buf: &mut Buffer) {
+    fn draw_curves(&self, f: &Frame, buf: &mut Buffer, drawn: &mut Drawn) {
         let (w, h) = (f.w, f.h);
         for series in self.series.iter().filter(|s| s.glyph == Glyph::Bullet) {
             for pair in series.points.windows(2) {
@@ -229,12 +296,12 @@ impl ZonePlot<'_> {
                     let t = s as f64 / steps as f64;
                     let c = ((ax + t * (bx - ax)) / 2.0) as usize;
                     let r = ((ay + t * (by - ay)) / 4.0) as usize;
-                    buf[(
+                    let cell = (
                         f.plot.x + c.min(w - 1) as u16,
                         f.plot.y + r.min(h - 1) as u16,
-                    )]
-                        .set_char('•')
-                        .set_style(series.style);
+                    );
+                    buf[cell].set_char('•').set_style(series.style);
+                    drawn.curve.push(cell);
                 }
             }
         }
@@ -259,16 +326,23 @@ impl ZonePlot<'_> {
             for (i, bits) in cells.iter().enumerate() {
                 if *bits != 0 {
                     let ch = char::from_u32(0x2800 + u32::from(*bits)).unwrap_or('•');
-                    buf[(f.plot.x + (i % w) as u16, f.plot.y + (i / w) as u16)]
-                        .set_char(ch)
-                        .set_style(series.style);
+                    let cell = (f.plot.x + (i % w) as u16, f.plot.y + (i / w) as u16);
+                    buf[cell].set_char(ch).set_style(series.style);
+                    drawn.curve.push(cell);
                 }
             }
         }
     }
 
     /// Axes: y labels at top, bottom and zero; x labels at both ends and the middle.
-    fn draw_axes(&self, f: &Frame, inner: Rect, y_label_width: u16, buf: &mut Buffer) {
+    fn draw_axes(
+        &self,
+        f: &Frame,
+        inner: Rect,
+        y_label_width: u16,
+        buf: &mut Buffer,
+        drawn: &mut Drawn,
+    ) {
         let mut y_marks = vec![(0usize, f.y1), (f.h - 1, f.y0)];
         if let Some(r) = f.row_of(0.0)
             && r != 0
@@ -280,30 +354,41 @@ impl ZonePlot<'_> {
             let text = (self.format_y)(v);
             let x =
                 inner.x + y_label_width - 1 - (text.chars().count() as u16).min(y_label_width - 1);
-            buf.set_string(x, f.plot.y + r as u16, &text, self.axis_style);
+            drawn.put(buf, x, f.plot.y + r as u16, &text, self.axis_style);
         }
         let bottom = inner.bottom() - 1;
         let left = (self.format_x)(f.x0);
         let right = (self.format_x)(f.x1);
         let middle = format!("⌀ {}", (self.format_x)((f.x0 + f.x1) / 2.0));
-        buf.set_string(f.plot.x, bottom, &left, self.axis_style);
+        drawn.put(buf, f.plot.x, bottom, &left, self.axis_style);
         let rx = f.plot.right().saturating_sub(right.chars().count() as u16);
-        buf.set_string(rx, bottom, &right, self.axis_style);
+        // The right end's label only with a free cell after the left one.
+        if rx > f.plot.x + left.chars().count() as u16 {
+            drawn.put(buf, rx, bottom, &right, self.axis_style);
+        }
         let mid_len = middle.chars().count() as u16;
         let mx = f.plot.x + f.plot.width.saturating_sub(mid_len) / 2;
         if mx > f.plot.x + left.chars().count() as u16 && mx + mid_len < rx {
-            buf.set_string(mx, bottom, &middle, self.axis_style);
+            drawn.put(buf, mx, bottom, &middle, self.axis_style);
         }
     }
 }
 
 impl Widget for ZonePlot<'_> {
     fn render(self, area: Rect, buf: &mut Buffer) {
+        self.draw(area, buf);
+    }
+}
+
+impl ZonePlot<'_> {
+    /// Draw the plot and say where its labels and curves went.
+    pub fn draw(&self, area: Rect, buf: &mut Buffer) -> Drawn {
+        let mut drawn = Drawn::default();
         let inner = self.block.inner(area);
         self.block.clone().render(area, buf);
         if inner.width < 16 || inner.height < 5 {
             Paragraph::new("(enlarge the window to see this plot)").render(inner, buf);
-            return;
+            return drawn;
         }
         let Some((x0, x1)) = range_of(
             self.series
@@ -312,7 +397,7 @@ impl Widget for ZonePlot<'_> {
                 .chain(self.bands.iter().flat_map(|b| [b.from, b.to])),
         ) else {
             Paragraph::new("no data").render(inner, buf);
-            return;
+            return drawn;
         };
         let x1 = if x1 > x0 { x1 } else { x0 + 1.0 };
         let ((y0, y1), shown_lines, off_plot) = self.y_range();
@@ -329,7 +414,7 @@ impl Widget for ZonePlot<'_> {
             height: inner.height.saturating_sub(2),
         };
         if plot.width < 4 || plot.height < 2 {
-            return;
+            return drawn;
         }
         let frame = Frame {
             plot,
@@ -340,18 +425,20 @@ impl Widget for ZonePlot<'_> {
             y0,
             y1,
         };
-        self.draw_bands(&frame, inner.y, buf);
+        self.draw_bands(&frame, inner.y, buf, &mut drawn);
         // Reference lines far off the plot are named on the bottom border, right-aligned.
         if let Some(line) = off_plot.first() {
             let text = format!(" ↑ {} {} ", line.label, (self.format_y)(line.y));
             let x = inner.right().saturating_sub(text.chars().count() as u16);
             if area.bottom() > inner.bottom() && x > inner.x {
-                buf.set_string(x, area.bottom() - 1, &text, line.style);
+                drawn.put(buf, x, area.bottom() - 1, &text, line.style);
             }
         }
         self.draw_lines(&frame, &shown_lines, buf);
-        self.draw_curves(&frame, buf);
-        self.draw_axes(&frame, inner, y_label_width, buf);
+        self.draw_curves(&frame, buf, &mut drawn);
+        self.draw_line_labels(&frame, &shown_lines, buf, &mut drawn);
+        self.draw_axes(&frame, inner, y_label_width, buf, &mut drawn);
+        drawn
     }
 }
 

@@ -5,9 +5,9 @@
 use ratatui::buffer::Buffer;
 use ratatui::layout::{Constraint, Layout, Rect};
 use ratatui::text::{Line, Span};
-use ratatui::widgets::{Block, Paragraph, Widget, Wrap};
+use ratatui::widgets::{Block, Widget};
 
-use super::plot::{Band, Glyph, ReferenceLine, Series, ZonePlot, legend};
+use super::plot::{Band, Drawn, Glyph, ReferenceLine, Series, ZonePlot, legend};
 use super::{compact_length, compact_stress};
 use crate::diagnose::Diagnosis;
 use crate::model::Profile;
@@ -26,6 +26,7 @@ pub const KEYS: &[Binding] = &[
     Binding::line(ANY, "←→", "pane"),
     Binding::both(ANY, "Enter", "reasons/try", "Enter on a cause", "show its reasons: indicator, value, threshold"),
     Binding::help("Enter on a remedy", "try it on the What-if screen"),
+    Binding::help("↓ past the last / PgUp PgDn End", "scroll on: what the answer rests on, the cautions"),
 ];
 
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
@@ -42,6 +43,15 @@ pub struct ResultsScreen {
     /// Cause IDs whose reasons are shown.
     pub expanded: std::collections::BTreeSet<String>,
     pub remedy: usize,
+    /// Rows each pane is scrolled past what keeps its selection in view (↓ past the last item,
+    /// PgDn, End): how the sections below the lists ("What the answer rests on", the last
+    /// remedy's cautions) are reached in a small window.
+    pub cause_past: u16,
+    pub remedy_past: u16,
+    /// How far past its selection each pane could scroll when last drawn (causes, remedies):
+    /// keys clamp to it so ↑ answers at once after pressing ↓ or End too often. A cache of
+    /// the last frame's layout, not state the screen depends on.
+    pub reach: std::cell::Cell<(u16, u16)>,
 }
 
 impl ResultsScreen {
@@ -49,6 +59,46 @@ impl ResultsScreen {
     pub fn on_new_baseline(&mut self) {
         self.cause = 0;
         self.remedy = 0;
+        self.cause_past = 0;
+        self.remedy_past = 0;
+    }
+
+    /// The focused pane's selection, item count, extra scroll and how far it can scroll.
+    fn pane(&mut self, causes: usize, remedies: usize) -> (&mut usize, usize, &mut u16, u16) {
+        let (cause_reach, remedy_reach) = self.reach.get();
+        match self.focus {
+            ResultsFocus::Causes => (&mut self.cause, causes, &mut self.cause_past, cause_reach),
+            ResultsFocus::Remedies => (
+                &mut self.remedy,
+                remedies,
+                &mut self.remedy_past,
+                remedy_reach,
+            ),
+        }
+    }
+
+    /// ↑ ↓ PgUp PgDn Home End in the focused pane: ↓ on the last item scrolls on.
+    fn scroll(&mut self, key: Key, causes: usize, remedies: usize) {
+        let (selected, count, past, reach) = self.pane(causes, remedies);
+        let last = count.saturating_sub(1);
+        match key {
+            Key::Up if *past > 0 => *past = (*past).min(reach).saturating_sub(1),
+            Key::Up => *selected = selected.saturating_sub(1),
+            Key::Down if *selected >= last => *past = past.saturating_add(1).min(reach),
+            Key::Down => *selected += 1,
+            Key::PageDown => *past = past.saturating_add(5).min(reach),
+            Key::PageUp => *past = (*past).min(reach).saturating_sub(5),
+            Key::End => {
+                *selected = last;
+                // The frame clamps it; ↑ clamps to the drawn reach first.
+                *past = u16::MAX;
+            }
+            Key::Home => {
+                *selected = 0;
+                *past = 0;
+            }
+            _ => {}
+        }
     }
 
     fn enter(&mut self, ctx: &mut Session) {
@@ -92,16 +142,9 @@ impl Component for ResultsScreen {
         match key {
             Key::Left => self.focus = ResultsFocus::Causes,
             Key::Right => self.focus = ResultsFocus::Remedies,
-            Key::Up => match self.focus {
-                ResultsFocus::Causes => self.cause = self.cause.saturating_sub(1),
-                ResultsFocus::Remedies => self.remedy = self.remedy.saturating_sub(1),
-            },
-            Key::Down => match self.focus {
-                ResultsFocus::Causes => self.cause = (self.cause + 1).min(causes.saturating_sub(1)),
-                ResultsFocus::Remedies => {
-                    self.remedy = (self.remedy + 1).min(remedies.saturating_sub(1))
-                }
-            },
+            Key::Up | Key::Down | Key::PageUp | Key::PageDown | Key::Home | Key::End => {
+                self.scroll(key, causes, remedies)
+            }
             Key::Enter | Key::Char(' ') => self.enter(ctx),
             Key::Char('w') => ctx.push(Action::GoTo(Screen::WhatIf)),
             _ => return Handled::No,
@@ -113,8 +156,7 @@ impl Component for ResultsScreen {
         let (state, app) = (self, ctx);
         let Some(outcome) = app.latest_outcome() else {
             let text = waiting_text(app).unwrap_or_default();
-            Paragraph::new(text)
-                .wrap(Wrap { trim: true })
+            super::wrapped(text, true)
                 .block(Block::bordered().title(" Results "))
                 .render(area, buf);
             return;
@@ -137,9 +179,7 @@ impl Component for ResultsScreen {
                 )),
             );
         }
-        Paragraph::new(summary_lines)
-            .wrap(Wrap { trim: true })
-            .render(summary, buf);
+        super::wrapped(summary_lines, true).render(summary, buf);
         render_plots(
             &outcome.profile,
             None,
@@ -155,12 +195,12 @@ impl Component for ResultsScreen {
                 .areas(lists);
         match &outcome.diagnosis {
             Ok(diagnosis) => {
-                render_causes(state, app, diagnosis, theme, causes, buf);
-                render_remedies(state, diagnosis, theme, remedies, buf);
+                let cause_reach = render_causes(state, app, diagnosis, theme, causes, buf);
+                let remedy_reach = render_remedies(state, diagnosis, theme, remedies, buf);
+                state.reach.set((cause_reach, remedy_reach));
             }
             Err(error) => {
-                Paragraph::new(format!("No diagnosis: {error}"))
-                    .wrap(Wrap { trim: true })
+                super::wrapped(format!("No diagnosis: {error}"), true)
                     .block(Block::bordered().title(" Ranked causes "))
                     .render(lists, buf);
             }
@@ -297,6 +337,7 @@ pub fn assumed_line(outcome: &SolveOutcome, theme: Theme, width: u16) -> Line<'s
 }
 
 /// The two plots side by side; with `before`, the earlier profile is overlaid in bullets.
+/// Returns where each plot put its labels and curves.
 pub fn render_plots(
     profile: &Profile,
     before: Option<&Profile>,
@@ -305,7 +346,7 @@ pub fn render_plots(
     theme: Theme,
     area: Rect,
     buf: &mut Buffer,
-) {
+) -> [Drawn; 2] {
     let [left, right] =
         Layout::horizontal([Constraint::Percentage(50), Constraint::Percentage(50)]).areas(area);
     let bands: Vec<Band> = profile
@@ -367,7 +408,7 @@ pub fn render_plots(
             style: theme.limit_line(),
         });
     }
-    ZonePlot {
+    let pressure = ZonePlot {
         block: Block::bordered().title(title("Interlayer pressure")),
         series: curves(|p| &p.pressure),
         bands: bands.clone(),
@@ -377,8 +418,8 @@ pub fn render_plots(
         band_style: theme.zone_label(),
         axis_style: theme.dim(),
     }
-    .render(left, buf);
-    ZonePlot {
+    .draw(left, buf);
+    let hoop = ZonePlot {
         block: Block::bordered().title(title("Hoop stress σθ")),
         series: curves(|p| &p.tangential_stress),
         bands,
@@ -388,7 +429,8 @@ pub fn render_plots(
         band_style: theme.zone_label(),
         axis_style: theme.dim(),
     }
-    .render(right, buf);
+    .draw(right, buf);
+    [pressure, hoop]
 }
 
 fn belief_bar(belief: f64) -> String {
@@ -403,7 +445,7 @@ fn render_causes(
     theme: Theme,
     area: Rect,
     buf: &mut Buffer,
-) {
+) -> u16 {
     let focus = state.focus == ResultsFocus::Causes;
     let factor = app.latest_outcome().map_or(1.0, |o| {
         crate::report::AssumedShare::of(&o.resolved).factor()
@@ -452,10 +494,14 @@ fn render_causes(
             }
             for reason in &cause.reasons {
                 let sign = if reason.weight >= 0.0 { "+" } else { "−" };
-                let mut test = reason.test.clone();
-                if let Some(zone) = &reason.zone {
-                    test.push_str(&format!(" [{zone}]"));
-                }
+                // The indicator in words ("low-pressure band (outer zone)"); the prior and the
+                // site history have no test to name: their text says it all.
+                let plain = reason.test == "prior" || reason.test == "site_history";
+                let test = if plain {
+                    String::new()
+                } else {
+                    crate::diagnose::words::indicator_label(&reason.test, reason.zone.as_deref())
+                };
                 let mut detail = String::new();
                 if let Some(value) = &reason.value {
                     // Measured evidence quotes the measurement in the session's units.
@@ -471,7 +517,14 @@ fn render_causes(
                 lines.push(Line::from(vec![
                     Span::styled(format!("   {sign}{:.2} ", reason.weight.abs()), theme.key()),
                     Span::raw(format!("{test}{detail}")),
-                    Span::styled(format!(" — {}", reason.text), theme.dim()),
+                    Span::styled(
+                        if plain {
+                            reason.text.clone()
+                        } else {
+                            format!(" — {}", reason.text)
+                        },
+                        theme.dim(),
+                    ),
                 ]));
             }
         }
@@ -514,13 +567,14 @@ fn render_causes(
             hung.extend(super::hang(line, width, 2));
         }
     }
-    super::render_scrolled(
+    super::render_scrolled_past(
         hung,
-        Some(hung_target),
+        (hung_target, hung_target),
+        state.cause_past,
         Block::bordered().title(" Ranked causes "),
         area,
         buf,
-    );
+    )
 }
 
 /// Plain words for a remedy group ID (the one name the CLI and reports use too).
@@ -534,7 +588,7 @@ fn render_remedies(
     theme: Theme,
     area: Rect,
     buf: &mut Buffer,
-) {
+) -> u16 {
     let focus = state.focus == ResultsFocus::Remedies;
     let mut lines: Vec<Line> = Vec::new();
     let mut target = 0;
@@ -617,11 +671,34 @@ fn render_remedies(
     if diagnosis.remedies.is_empty() {
         lines.push(Line::from("No remedies listed."));
     }
-    super::render_scrolled_block(
-        lines,
-        (target, target_end.max(target)),
+    // Wrapped lines hang under their text: a remedy under its words (past "12. "), its
+    // "for:", effect and caution lines under theirs.
+    let width = usize::from(area.width.saturating_sub(2));
+    let mut hung: Vec<Line> = Vec::new();
+    let (mut hung_target, mut hung_end) = (0, 0);
+    for (i, line) in lines.into_iter().enumerate() {
+        if i == target {
+            hung_target = hung.len();
+        }
+        let first = line.spans.first().map_or("", |s| s.content.as_ref());
+        let indent = if first.starts_with("    ⚠") {
+            6
+        } else if first.starts_with("    for: ") {
+            9
+        } else {
+            4
+        };
+        hung.extend(super::hang(line, width, indent));
+        if i == target_end.max(target) {
+            hung_end = hung.len() - 1;
+        }
+    }
+    super::render_scrolled_past(
+        hung,
+        (hung_target, hung_end),
+        state.remedy_past,
         Block::bordered().title(" Remedies, in the order to try "),
         area,
         buf,
-    );
+    )
 }

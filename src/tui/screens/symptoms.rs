@@ -4,7 +4,7 @@
 use ratatui::buffer::Buffer;
 use ratatui::layout::{Constraint, Layout, Rect};
 use ratatui::text::{Line, Span};
-use ratatui::widgets::{Block, Paragraph, Widget, Wrap};
+use ratatui::widgets::{Block, Paragraph, Widget};
 
 use crate::case::ObservedSymptom;
 use crate::tui::catalogue::{Catalogue, Match, SymptomInfo, plain_name};
@@ -316,8 +316,7 @@ fn render(state: &SymptomsScreen, app: &Session, theme: Theme, area: Rect, buf: 
             .collect::<Vec<_>>()
             .join(", ")
     };
-    Paragraph::new(picked_text)
-        .wrap(Wrap { trim: true })
+    super::wrapped(picked_text, true)
         .block(Block::bordered().title(" Picked "))
         .render(picked, buf);
 

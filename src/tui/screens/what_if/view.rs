@@ -1,0 +1,219 @@
+//! Drawing the what-if screen: the settings and remedies to try, the before → after table and
+//! the plots (after over before).
+
+use ratatui::buffer::Buffer;
+use ratatui::layout::Rect;
+use ratatui::text::{Line, Span};
+use ratatui::widgets::{Block, Widget};
+
+use super::compare::{comparison, design_rows};
+use super::{DESIGNING, WhatIfScreen};
+use crate::diagnose::what_if::Setting;
+use crate::tui::screens::results::render_plots;
+use crate::tui::session::Session;
+use crate::tui::theme::Theme;
+
+/// Settings, then remedies that are one setting change.
+pub(super) fn render_choices(
+    state: &WhatIfScreen,
+    app: &Session,
+    theme: Theme,
+    area: Rect,
+    buf: &mut Buffer,
+) {
+    let mut lines = Vec::new();
+    for (row, setting) in Setting::ALL.iter().enumerate() {
+        let steps = state
+            .change
+            .filter(|c| c.setting == *setting)
+            .map_or(0, |c| c.steps);
+        let style = if row == state.row {
+            theme.selected()
+        } else {
+            theme.plain()
+        };
+        let shown = if steps == 0 {
+            "as is".to_string()
+        } else {
+            format!("{steps:+} step")
+        };
+        lines.push(Line::from(vec![
+            Span::styled(format!("‹ {:<12} › ", setting.label()), style),
+            Span::styled(shown, if steps == 0 { theme.dim() } else { theme.key() }),
+        ]));
+    }
+    let remedies = app.what_if_remedies();
+    if !remedies.is_empty() {
+        lines.push(Line::from(Span::styled(
+            "Try a remedy (Enter):",
+            theme.title(),
+        )));
+    }
+    for (i, (id, text)) in remedies.iter().enumerate() {
+        let row = Setting::ALL.len() + i;
+        let style = if row == state.row {
+            theme.selected()
+        } else {
+            theme.plain()
+        };
+        let mark = if state.remedy.as_deref() == Some(id) {
+            "▶"
+        } else {
+            "•"
+        };
+        lines.push(Line::from(Span::styled(format!("{mark} {text}"), style)));
+    }
+    if let (Some(text), Some(setting)) = (&state.typing, Setting::ALL.get(state.row)) {
+        lines.push(Line::from(vec![
+            Span::styled(format!("{}: ", setting.label()), theme.title()),
+            Span::styled(format!("{text}▏"), theme.key()),
+        ]));
+        lines.push(Line::from(Span::styled(
+            "type a value with its unit, Enter tries it, Esc cancels",
+            theme.dim(),
+        )));
+    } else {
+        let step_help = Setting::ALL
+            .get(state.row)
+            .map(|s| s.step_text())
+            .unwrap_or("Enter applies the remedy's setting change");
+        lines.push(Line::from(Span::styled(step_help, theme.dim())));
+    }
+    crate::tui::screens::wrapped(lines, true)
+        .block(Block::bordered().title(" Change one setting "))
+        .render(area, buf);
+}
+
+/// The before/after table and the plots (after over before).
+pub(super) fn render_comparison(
+    state: &WhatIfScreen,
+    app: &Session,
+    theme: Theme,
+    compare: Rect,
+    plots: Rect,
+    buf: &mut Buffer,
+) {
+    let before = app.current_outcome();
+    let after = state.outcome.as_ref().map(|(_, o)| o.as_ref());
+    let mut text: Vec<Line> = Vec::new();
+    match &state.description {
+        Some(description) => {
+            text.push(Line::from(Span::styled(description.clone(), theme.title())))
+        }
+        None => text.push(Line::from("Pick a setting with ↑↓ and change it with ←→.")),
+    }
+    if let Some(error) = &state.error {
+        text.push(Line::from(Span::styled(error.clone(), theme.error())));
+    }
+    if let Some(running) = app.running_what_if {
+        let frame =
+            crate::tui::screens::SPINNER[(app.tick as usize) % crate::tui::screens::SPINNER.len()];
+        if state.design.is_none() && state.description.as_deref() == Some(DESIGNING) {
+            // The design reports no fraction: the spinner shows it is working.
+            text.push(Line::from(format!(
+                "{frame} designing… many solves; keys still work"
+            )));
+        } else {
+            text.push(Line::from(format!(
+                "{frame} re-solving… {:.0} %",
+                running.fraction * 100.0
+            )));
+        }
+    } else if before.is_none() && state.change.is_some() {
+        text.push(Line::from("waiting for the case's own solve…"));
+    }
+    let design = state.design.as_ref().map(|(_, d)| d.as_ref());
+    let rows = match (before, after, design) {
+        (Some(before), Some(after), _) => Some(comparison(before, after, app.units)),
+        (_, None, Some(design)) => Some(design_rows(design, app.units)),
+        _ => None,
+    };
+    if let Some(rows) = rows {
+        let last_header = if design.is_some() && after.is_none() {
+            "allowed"
+        } else {
+            "change"
+        };
+        let width = usize::from(compare.width.saturating_sub(2));
+        let name_width = width.saturating_sub(33).clamp(10, 48);
+        text.push(Line::from(Span::styled(
+            format!(
+                "{:<name_width$} {:>10} {:>10} {:>10}",
+                "", "before", "after", last_header
+            ),
+            theme.dim(),
+        )));
+        for [name, b, a, c] in rows {
+            if b.is_empty() && a.is_empty() && c.is_empty() {
+                text.push(Line::from(Span::styled(name, theme.dim())));
+                continue;
+            }
+            // A name too long for its column gets a line of its own: words, never cut.
+            let name = if name.chars().count() > name_width {
+                text.push(Line::from(name));
+                String::new()
+            } else {
+                name
+            };
+            text.push(Line::from(format!(
+                "{name:<name_width$} {b:>10} {a:>10} {c:>10}"
+            )));
+        }
+    }
+    // Keep the last rows reachable but never scroll past them.
+    let visible = usize::from(compare.height.saturating_sub(2));
+    let most = u16::try_from(text.len().saturating_sub(visible)).unwrap_or(u16::MAX);
+    let scroll = state.scroll.min(most);
+    let title = if most > 0 {
+        " Before → after  (PgUp/PgDn: more) "
+    } else {
+        " Before → after  (a keeps the change, r resets) "
+    };
+    crate::tui::screens::wrapped(text, false)
+        .scroll((scroll, 0))
+        .block(Block::bordered().title(title))
+        .render(compare, buf);
+
+    if let (None, Some(design)) = (after, design) {
+        render_plots(
+            &design.after.profile,
+            Some(&design.before.profile),
+            before.map_or(f64::NAN, |b| b.resolved.core.crush_pressure),
+            app.units,
+            theme,
+            plots,
+            buf,
+        );
+        return;
+    }
+    match (before, after) {
+        (Some(before), Some(after)) => {
+            render_plots(
+                &after.profile,
+                Some(&before.profile),
+                after.resolved.core.crush_pressure,
+                app.units,
+                theme,
+                plots,
+                buf,
+            );
+        }
+        (Some(before), None) => {
+            render_plots(
+                &before.profile,
+                None,
+                before.resolved.core.crush_pressure,
+                app.units,
+                theme,
+                plots,
+                buf,
+            );
+        }
+        _ => {
+            let text = crate::tui::screens::results::waiting_text(app).unwrap_or_default();
+            crate::tui::screens::wrapped(text, true)
+                .block(Block::bordered())
+                .render(plots, buf);
+        }
+    }
+}
