@@ -2,7 +2,7 @@
 
 use std::fmt::Write;
 
-use super::document::{RemedyEntry, ReportDocument};
+use super::document::{MarginsSection, RemedyEntry, ReportDocument};
 
 /// Markdown table cells may not contain pipes or line breaks.
 fn cell(text: &str) -> String {
@@ -175,6 +175,7 @@ fn write_report(out: &mut String, doc: &ReportDocument) -> std::fmt::Result {
         writeln!(out, "> Warning: {warning}")?;
         writeln!(out)?;
     }
+    write_margins(out, &doc.margins)?;
 
     if let Some(measured) = &doc.measured {
         writeln!(out, "## Measured on the roll, against the model")?;
@@ -315,4 +316,34 @@ fn write_report(out: &mut String, doc: &ReportDocument) -> std::fmt::Result {
         writeln!(out, "- {limit}")?;
     }
     Ok(())
+}
+
+/// "Margins against each failure": one row per mechanism.
+fn write_margins(out: &mut String, margins: &MarginsSection) -> std::fmt::Result {
+    if margins.rows.is_empty() {
+        return Ok(());
+    }
+    writeln!(out, "## Margins against each failure")?;
+    writeln!(out)?;
+    writeln!(
+        out,
+        "| Failure | Smallest margin | Where | Demand / capacity | Verdict |"
+    )?;
+    writeln!(out, "|---|---|---|---|---|")?;
+    for row in &margins.rows {
+        writeln!(
+            out,
+            "| {} | {} | {} | {}: {} / {} | {} |",
+            cell(&row.mechanism),
+            row.margin_text,
+            cell(&row.where_text),
+            cell(&row.measures),
+            cell(&row.demand.text),
+            cell(&row.capacity.text),
+            cell(&row.verdict_text)
+        )?;
+    }
+    writeln!(out)?;
+    writeln!(out, "{}", margins.note())?;
+    writeln!(out)
 }

@@ -15,9 +15,9 @@ pub mod plots;
 mod prepare;
 
 pub use document::{
-    ASSUMED_DISCOUNT, AssumedShare, CaseSummary, CauseEntry, InputLine, MODEL_LIMITS,
-    MeasuredSection, ProfilePoint, Quantity, ReasonEntry, RemedyComparisonSummary, RemedyEntry,
-    ReportDocument, StressSummary, ZoneSummary, build_document,
+    ASSUMED_DISCOUNT, AssumedShare, CaseSummary, CauseEntry, InputLine, MODEL_LIMITS, MarginLine,
+    MarginsSection, MeasuredSection, ProfilePoint, Quantity, ReasonEntry, RemedyComparisonSummary,
+    RemedyEntry, ReportDocument, StressSummary, ZoneSummary, build_document, margins_section,
 };
 pub use prepare::{PrepareOptions, Solved, comparison, prepare, prepare_from_path, solved_report};
 
