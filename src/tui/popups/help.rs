@@ -49,6 +49,7 @@ pub fn sections() -> Vec<(&'static str, Vec<Hint>)> {
         ("Complaint & story (F7)", help_entries(super::story::KEYS)),
         ("Complaint history (F8)", help_entries(super::history::KEYS)),
         ("Measurements (F9)", help_entries(super::measure::KEYS)),
+        ("Margins (F10)", help_entries(super::margins::KEYS)),
         ("Reading the plots", PLOT_LEGEND.to_vec()),
     ]
 }

@@ -5,6 +5,7 @@ pub mod calibrate;
 pub mod confirm;
 pub mod help;
 pub mod history;
+pub mod margins;
 pub mod measure;
 pub mod measure_view;
 pub mod open;
@@ -20,6 +21,7 @@ pub use calibrate::{CalibratePopup, StackFit};
 pub use confirm::ConfirmPopup;
 pub use help::HelpPopup;
 pub use history::{HistoryPopup, HistoryView};
+pub use margins::MarginsPopup;
 pub use measure::MeasurePopup;
 pub use open::OpenPopup;
 pub use prompt::{FilePopup, FilePurpose, PathPrompt};
@@ -51,6 +53,8 @@ pub enum Popup {
     History(Box<HistoryPopup>),
     /// Measurements on the bad roll, and measured against computed.
     Measure(Box<MeasurePopup>),
+    /// Margins against each failure mechanism of the solved roll.
+    Margins(MarginsPopup),
 }
 
 /// Run `$body` with `$p` bound to the popup's own component.
@@ -67,6 +71,7 @@ macro_rules! each_popup {
             Popup::Story($p) => $body,
             Popup::History($p) => $body,
             Popup::Measure($p) => $body,
+            Popup::Margins($p) => $body,
         }
     };
 }
