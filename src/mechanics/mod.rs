@@ -59,12 +59,13 @@ pub struct Events {
 }
 
 /// Default start-up and normal stop ramp (s): `(from memory)` typical of production winders,
-/// assumed when the case gives no acceleration time.
-pub const DEFAULT_RAMP_TIME: f64 = 20.0;
+/// assumed when the case gives no acceleration time; the resolver lists it as assumed with its
+/// source ([`crate::presets::DEFAULT_RAMP_TIME`]).
+pub const DEFAULT_RAMP_TIME: f64 = crate::presets::DEFAULT_RAMP_TIME.value;
 
 /// Default emergency stop time (s): `(from memory)` a few seconds on production winders,
-/// assumed.
-pub const DEFAULT_EMERGENCY_STOP_TIME: f64 = 4.0;
+/// assumed and listed so ([`crate::presets::DEFAULT_EMERGENCY_STOP_TIME`]).
+pub const DEFAULT_EMERGENCY_STOP_TIME: f64 = crate::presets::DEFAULT_EMERGENCY_STOP_TIME.value;
 
 /// Default dynamic factor on roll weight in handling (see [`Events::shock_factor`]); the case
 /// field `winding.handling_shock_factor` overrides it, and the resolver lists this default as

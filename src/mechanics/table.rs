@@ -147,12 +147,23 @@ pub struct MarginRow {
 
 impl MarginRow {
     fn from_margins(mechanism: Mechanism, m: &InterfaceMargins) -> MarginRow {
-        let at = m.min_index.min(m.radius.len().saturating_sub(1));
+        let mut at = m.min_index.min(m.radius.len().saturating_sub(1));
+        // Past the cap every margin reads the same: show the interface nearest to failing.
+        if m.min_margin >= MARGIN_CAP && m.has_demand {
+            let load = |i: usize| m.demand[i] / m.capacity[i].max(f64::MIN_POSITIVE);
+            at = (0..m.radius.len())
+                .max_by(|a, b| load(*a).total_cmp(&load(*b)))
+                .unwrap_or(at);
+        }
         MarginRow {
             mechanism,
             margin: m.min_margin,
-            radius: m.min_radius,
-            band: m.band,
+            radius: m.radius.get(at).copied().unwrap_or(m.min_radius),
+            band: if at == m.min_index {
+                m.band
+            } else {
+                (m.radius[at], m.radius[at])
+            },
             demand: m.demand.get(at).copied().unwrap_or(0.0),
             capacity: m.capacity.get(at).copied().unwrap_or(0.0),
             has_demand: m.has_demand,

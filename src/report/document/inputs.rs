@@ -202,8 +202,37 @@ pub fn input_lines(resolved: &ResolvedCase, units: UnitSystem) -> Vec<InputLine>
     if let Some(t) = winding.recipe_tension {
         lines.push(("winding.recipe_tension".into(), q(t, ForcePerWidth)));
     }
-    if let Some(t) = winding.acceleration_time {
-        lines.push(("winding.acceleration_time".into(), format!("{t} s")));
+    // The events of the slip and telescoping checks, as the mechanics take them (given, or
+    // the default the resolver lists as assumed).
+    let events = crate::mechanics::MechanicsInputs::from_case(resolved);
+    let seconds = |t: f64| format!("{} s", round_sig(t, 4));
+    lines.extend([
+        (
+            "winding.acceleration_time".into(),
+            seconds(events.events.start_ramp_time),
+        ),
+        (
+            "winding.stop_time".into(),
+            seconds(events.events.normal_stop_time),
+        ),
+        (
+            "winding.emergency_stop_time".into(),
+            seconds(events.events.emergency_stop_time),
+        ),
+        (
+            "winding.unwind_tension".into(),
+            q(
+                events.events.unwind_tension.unwrap_or(events.outer_tension),
+                ForcePerWidth,
+            ),
+        ),
+        (
+            "winding.handling_shock_factor".into(),
+            format!("{}", round_sig(events.events.shock_factor, 3)),
+        ),
+    ]);
+    if let Some(rating) = core.shaft_torque_rating {
+        lines.push(("core.shaft_torque_rating".into(), q(rating, Torque)));
     }
     lines
         .into_iter()

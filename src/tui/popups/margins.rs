@@ -45,8 +45,8 @@ impl Component for MarginsPopup {
     }
 
     fn render(&self, ctx: &Session, theme: Theme, area: Rect, buf: &mut Buffer) {
-        let rect = centred(area, 110, area.height.saturating_sub(2));
-        let width = usize::from(rect.width.saturating_sub(2));
+        let outer = centred(area, 110, area.height.saturating_sub(2));
+        let width = usize::from(outer.width.saturating_sub(2));
         let lines = match ctx.latest_outcome() {
             None => vec![Line::from(Span::styled(
                 "No solved roll yet: the margins appear once the roll is solved (Ctrl-R solves \
@@ -69,6 +69,16 @@ impl Component for MarginsPopup {
                 lines
             }
         };
+        // As tall as the table (wrapped lines counted), at most the screen.
+        let needed: usize = lines
+            .iter()
+            .map(|l| l.width().div_ceil(width.max(1)).max(1))
+            .sum();
+        let rect = centred(
+            area,
+            outer.width,
+            (needed as u16).saturating_add(2).min(outer.height),
+        );
         let room = usize::from(rect.height.saturating_sub(2));
         let last_start = lines.len().saturating_sub(room) as u16;
         let scroll = self.scroll.min(last_start);
@@ -121,7 +131,11 @@ fn table_lines(section: &MarginsSection, theme: Theme, width: usize) -> Vec<Line
         ));
     }
     lines.push(Line::from(""));
-    lines.push(Line::from(Span::styled(section.note(), theme.dim())));
+    lines.extend(hang(
+        Line::from(Span::styled(format!(" {}", section.note()), theme.dim())),
+        width,
+        1,
+    ));
     lines
 }
 
