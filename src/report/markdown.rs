@@ -3,19 +3,20 @@
 use std::fmt::Write;
 
 use super::document::{MarginsSection, RemedyEntry, ReportDocument};
+use super::text_chart::TextCharts;
 
 /// Markdown table cells may not contain pipes or line breaks.
 fn cell(text: &str) -> String {
     text.replace('|', "\\|").replace('\n', " ")
 }
 
-pub(super) fn render(doc: &ReportDocument) -> String {
+pub(super) fn render(doc: &ReportDocument, charts: &TextCharts) -> String {
     let mut out = String::new();
-    let _ = write_report(&mut out, doc);
+    let _ = write_report(&mut out, doc, charts);
     out
 }
 
-fn write_report(out: &mut String, doc: &ReportDocument) -> std::fmt::Result {
+fn write_report(out: &mut String, doc: &ReportDocument, charts: &TextCharts) -> std::fmt::Result {
     let case = &doc.case;
     writeln!(out, "# Roll complaint report: {}", case.title)?;
     writeln!(out)?;
@@ -171,6 +172,8 @@ fn write_report(out: &mut String, doc: &ReportDocument) -> std::fmt::Result {
         }
         writeln!(out)?;
     }
+    writeln!(out, "{}", charts.pressure)?;
+    writeln!(out, "{}", charts.hoop)?;
     for warning in &stress.warnings {
         writeln!(out, "> Warning: {warning}")?;
         writeln!(out)?;
@@ -196,6 +199,9 @@ fn write_report(out: &mut String, doc: &ReportDocument) -> std::fmt::Result {
             writeln!(out, "- {line}")?;
         }
         writeln!(out)?;
+        if let Some(chart) = &charts.hardness {
+            writeln!(out, "{chart}")?;
+        }
     }
 
     writeln!(out, "## Likely causes")?;

@@ -13,6 +13,7 @@ pub mod measured_plot;
 mod past_section;
 pub mod plots;
 mod prepare;
+pub mod text_chart;
 
 pub use document::{
     ASSUMED_DISCOUNT, AssumedShare, CaseSummary, CauseEntry, InputLine, MODEL_LIMITS, MarginLine,
@@ -167,7 +168,7 @@ pub enum ReportError {
 pub fn render(input: &ReportInput, format: Format) -> Result<String, ReportError> {
     let document = build_document(input)?;
     match format {
-        Format::Markdown => Ok(markdown::render(&document)),
+        Format::Markdown => Ok(markdown::render(&document, &text_chart::charts(input)?)),
         Format::Json => json::render(&document),
         Format::Html => {
             let pressure = plots::pressure_svg(input)?;
