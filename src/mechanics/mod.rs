@@ -245,6 +245,27 @@ fn margin(capacity: f64, demand: f64) -> f64 {
     }
 }
 
+/// A simple centre-wound roll's inputs for the unit tests: core ⌀ 100 mm, outside ⌀ 1 m,
+/// 700 kg/m³, μ 0.4, standing still (no inertia), 200 N/m at the outside.
+#[cfg(test)]
+pub(crate) fn sample_inputs(shaft_torque_rating: Option<f64>) -> MechanicsInputs {
+    MechanicsInputs {
+        core_radius: 0.05,
+        outer_radius: 0.5,
+        density: 700.0,
+        friction: 0.4,
+        method: WindingMethod::Centre,
+        speed: 0.0,
+        outer_tension: 200.0,
+        events: Events {
+            shaft_torque_rating,
+            ..Events::default()
+        },
+        tangential_modulus: 4e9,
+        radial_stiffness: RadialStiffness::Constant { modulus: 1e7 },
+    }
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;

@@ -318,25 +318,9 @@ pub fn margin_table(
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::mechanics::Events;
-    use crate::model::{RadialStiffness, WindingMethod};
 
     fn inputs(rating: Option<f64>) -> MechanicsInputs {
-        MechanicsInputs {
-            core_radius: 0.05,
-            outer_radius: 0.5,
-            density: 700.0,
-            friction: 0.4,
-            method: WindingMethod::Centre,
-            speed: 0.0,
-            outer_tension: 200.0,
-            events: Events {
-                shaft_torque_rating: rating,
-                ..Events::default()
-            },
-            tangential_modulus: 4e9,
-            radial_stiffness: RadialStiffness::Constant { modulus: 1e7 },
-        }
+        crate::mechanics::sample_inputs(rating)
     }
 
     fn roll(hoop: f64) -> Profile {

@@ -177,15 +177,10 @@ fn series(
 
 /// The SVG plot of the series.
 fn draw(series: HardnessSeries) -> Result<HardnessPlot, ReportError> {
-    let HardnessSeries {
-        readings,
-        computed,
-        x_range,
-        y_range,
-        x_unit,
-        y_desc,
-        caption,
-    } = series;
+    let x_unit = series.x_unit;
+    let (readings, computed) = (series.readings, series.computed);
+    let (x_range, y_range) = (series.x_range, series.y_range);
+    let (y_desc, caption) = (series.y_desc, series.caption);
     let mut svg = String::new();
     {
         let root = SVGBackend::with_string(&mut svg, PLOT_SIZE).into_drawing_area();

@@ -56,16 +56,13 @@ pub fn sections() -> Vec<(&'static str, Vec<Hint>)> {
 
 impl Component for HelpPopup {
     fn on_key(&mut self, key: Key, ctx: &mut Session) -> Handled {
-        match key {
-            Key::Up => self.scroll = self.scroll.saturating_sub(1),
-            Key::Down => self.scroll = self.scroll.saturating_add(1).min(200),
-            Key::PageUp => self.scroll = self.scroll.saturating_sub(10),
-            Key::PageDown => self.scroll = self.scroll.saturating_add(10).min(200),
-            Key::Home => self.scroll = 0,
-            Key::Esc | Key::F(1) | Key::Char('?') | Key::Char('q') | Key::Enter => {
-                ctx.push(Action::Close)
-            }
-            _ => {}
+        if !super::scroll_key(&mut self.scroll, key, 200)
+            && matches!(
+                key,
+                Key::Esc | Key::F(1) | Key::Char('?') | Key::Char('q') | Key::Enter
+            )
+        {
+            ctx.push(Action::Close);
         }
         Handled::Yes
     }

@@ -28,14 +28,11 @@ pub const KEYS: &[Binding] = &[
 
 impl Component for MarginsPopup {
     fn on_key(&mut self, key: Key, ctx: &mut Session) -> Handled {
-        match key {
-            Key::Up => self.scroll = self.scroll.saturating_sub(1),
-            Key::Down => self.scroll = self.scroll.saturating_add(1).min(100),
-            Key::PageUp => self.scroll = self.scroll.saturating_sub(10),
-            Key::PageDown => self.scroll = self.scroll.saturating_add(10).min(100),
-            Key::Home => self.scroll = 0,
-            Key::Esc | Key::F(10) | Key::Char('q') => ctx.push(Action::Close),
-            _ => {}
+        let closes = matches!(key, Key::Esc | Key::F(10) | Key::Char('q'));
+        if closes {
+            ctx.push(Action::Close);
+        } else {
+            super::scroll_key(&mut self.scroll, key, 100);
         }
         Handled::Yes
     }

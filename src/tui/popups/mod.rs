@@ -76,6 +76,20 @@ macro_rules! each_popup {
     };
 }
 
+/// The scrolling keys of a text popup (↑↓ PgUp PgDn Home) applied to `scroll`, at most `max`;
+/// false for any other key.
+pub fn scroll_key(scroll: &mut u16, key: Key, max: u16) -> bool {
+    *scroll = match key {
+        Key::Up => scroll.saturating_sub(1),
+        Key::Down => scroll.saturating_add(1).min(max),
+        Key::PageUp => scroll.saturating_sub(10),
+        Key::PageDown => scroll.saturating_add(10).min(max),
+        Key::Home => 0,
+        _ => return false,
+    };
+    true
+}
+
 impl Popup {
     /// Show why the popup's request failed (file prompts).
     pub fn show_error(&mut self, error: String) {
