@@ -337,72 +337,95 @@ pub fn fit_pfeiffer(test: &StackTest, options: &FitOptions) -> Result<PfeifferFi
     )
 }
 
-/// Fit Pfeiffer's law to points already known to be a loading branch.
-pub fn fit_points(
-    origin: &str,
-    points: &[StackPoint],
-    options: &FitOptions,
-    dropped_unloading: usize,
-    mut warnings: Vec<String>,
-) -> Result<PfeifferFit, CalibrateError> {
-    let n = points.len();
-    if n < 3 {
-        return Err(CalibrateError::TooFewPoints {
-            origin: origin.to_string(),
-            message: format!(
-                "{n} loading point(s); the two Pfeiffer parameters and their uncertainty need at least 3 (10 or more spread over the pressure range are better)"
-            ),
-        });
-    }
-    let strain: Vec<f64> = points.iter().map(|p| p.strain).collect();
-    let pressure: Vec<f64> = points.iter().map(|p| p.pressure).collect();
-    let positive = pressure.iter().filter(|p| **p > 0.0).count();
-    if positive < 2 {
-        return Err(CalibrateError::TooFewPoints {
-            origin: origin.to_string(),
-            message: "fewer than 2 rows with a positive pressure; nothing to fit".into(),
-        });
-    }
-    let max_pressure = pressure.iter().cloned().fold(0.0, f64::max);
-    let weight: Vec<f64> = match options.weighting {
-        Weighting::Absolute => vec![1.0; n],
-        Weighting::Relative => pressure
-            .iter()
-            .map(|p| 1.0 / p.max(Weighting::RELATIVE_FLOOR * max_pressure))
-            .collect(),
-    };
-    let start = log_linear_start(&strain, &pressure).ok_or_else(|| CalibrateError::FitFailed {
-        origin: origin.to_string(),
-        message: "no log-linear start: pressure does not rise with strain".into(),
-    })?;
-    let model = PfeifferModel {
-        strain: &strain,
-        pressure: &pressure,
-        weight: &weight,
-    };
-    let solution = levenberg_marquardt::minimise(
-        &model,
-        DVector::from_vec(vec![start.0, start.1]),
-        &LmOptions::default(),
-    )
-    .ok_or_else(|| CalibrateError::FitFailed {
-        origin: origin.to_string(),
-        message: "the start values are outside the law's domain".into(),
-    })?;
-    let (k1, k2) = (solution.parameters[0], solution.parameters[1]);
-    if !solution.converged {
-        warnings.push(format!(
-            "the fit stopped after {} iterations without meeting its tolerance; treat the result with care",
-            solution.iterations
-        ));
+/// The measured points as the least-squares sum sees them.
+struct FitData {
+    strain: Vec<f64>,
+    pressure: Vec<f64>,
+    /// Weight of each residual ([`Weighting`]).
+    weight: Vec<f64>,
+}
+
+impl FitData {
+    /// At least 3 points, 2 of them at a positive pressure; weights by `weighting`.
+    fn new(
+        origin: &str,
+        points: &[StackPoint],
+        weighting: Weighting,
+    ) -> Result<FitData, CalibrateError> {
+        let n = points.len();
+        if n < 3 {
+            return Err(CalibrateError::TooFewPoints {
+                origin: origin.to_string(),
+                message: format!(
+                    "{n} loading point(s); the two Pfeiffer parameters and their uncertainty need at least 3 (10 or more spread over the pressure range are better)"
+                ),
+            });
+        }
+        let strain: Vec<f64> = points.iter().map(|p| p.strain).collect();
+        let pressure: Vec<f64> = points.iter().map(|p| p.pressure).collect();
+        let positive = pressure.iter().filter(|p| **p > 0.0).count();
+        if positive < 2 {
+            return Err(CalibrateError::TooFewPoints {
+                origin: origin.to_string(),
+                message: "fewer than 2 rows with a positive pressure; nothing to fit".into(),
+            });
+        }
+        let max_pressure = pressure.iter().cloned().fold(0.0, f64::max);
+        let weight: Vec<f64> = match weighting {
+            Weighting::Absolute => vec![1.0; n],
+            Weighting::Relative => pressure
+                .iter()
+                .map(|p| 1.0 / p.max(Weighting::RELATIVE_FLOOR * max_pressure))
+                .collect(),
+        };
+        Ok(FitData {
+            strain,
+            pressure,
+            weight,
+        })
     }
 
-    // Covariance = s²·(JᵀJ)⁻¹ with s² from the weighted residuals (as SciPy's curve_fit does
-    // with absolute_sigma=False).
+    /// Levenberg–Marquardt from the log-linear start; returns the start and the solution.
+    fn solve(
+        &self,
+        origin: &str,
+    ) -> Result<((f64, f64), levenberg_marquardt::LmSolution), CalibrateError> {
+        let start = log_linear_start(&self.strain, &self.pressure).ok_or_else(|| {
+            CalibrateError::FitFailed {
+                origin: origin.to_string(),
+                message: "no log-linear start: pressure does not rise with strain".into(),
+            }
+        })?;
+        let model = PfeifferModel {
+            strain: &self.strain,
+            pressure: &self.pressure,
+            weight: &self.weight,
+        };
+        let solution = levenberg_marquardt::minimise(
+            &model,
+            DVector::from_vec(vec![start.0, start.1]),
+            &LmOptions::default(),
+        )
+        .ok_or_else(|| CalibrateError::FitFailed {
+            origin: origin.to_string(),
+            message: "the start values are outside the law's domain".into(),
+        })?;
+        Ok((start, solution))
+    }
+}
+
+/// Standard errors of K1 and K2 and their correlation. Covariance = s²·(JᵀJ)⁻¹ with s² from
+/// the weighted residuals (as SciPy's curve_fit does with absolute_sigma=False); NaN with a
+/// warning when JᵀJ is singular.
+fn parameter_uncertainty(
+    solution: &levenberg_marquardt::LmSolution,
+    n: usize,
+    warnings: &mut Vec<String>,
+) -> (f64, f64, f64) {
     let dof = (n - 2) as f64;
     let s2 = solution.residuals.norm_squared() / dof;
     let normal = solution.jacobian.transpose() * &solution.jacobian;
-    let (k1_se, k2_se, correlation) = match normal.try_inverse() {
+    match normal.try_inverse() {
         Some(inv) => {
             let v1 = (s2 * inv[(0, 0)]).max(0.0);
             let v2 = (s2 * inv[(1, 1)]).max(0.0);
@@ -417,48 +440,45 @@ pub fn fit_points(
             warnings.push("the parameters cannot be separated by these data (singular JᵀJ); no uncertainty available".into());
             (f64::NAN, f64::NAN, f64::NAN)
         }
-    };
+    }
+}
 
-    let mut fit_points: Vec<FitPoint> = points
-        .iter()
-        .map(|p| {
-            let fitted = pfeiffer_pressure(k1, k2, p.strain);
-            FitPoint {
-                line: p.line,
-                strain: p.strain,
-                pressure: p.pressure,
-                fitted,
-                residual: fitted - p.pressure,
-                studentized: None,
-            }
-        })
-        .collect();
-    // R² of the weighted sum the fit minimised (see `PfeifferFit::r_squared`).
+/// R² of the weighted sum the fit minimised (see `PfeifferFit::r_squared`).
+fn weighted_r_squared(weight: &[f64], pressure: &[f64], fit_points: &[FitPoint]) -> f64 {
     let w2: Vec<f64> = weight.iter().map(|w| w * w).collect();
-    let mean = w2.iter().zip(&pressure).map(|(w, p)| w * p).sum::<f64>() / w2.iter().sum::<f64>();
+    let mean = w2.iter().zip(pressure).map(|(w, p)| w * p).sum::<f64>() / w2.iter().sum::<f64>();
     let sst: f64 = w2
         .iter()
-        .zip(&pressure)
+        .zip(pressure)
         .map(|(w, p)| w * (p - mean) * (p - mean))
         .sum();
     let weighted_ssr: f64 = w2
         .iter()
-        .zip(&fit_points)
+        .zip(fit_points)
         .map(|(w, p)| w * p.residual * p.residual)
         .sum();
-    let r_squared = if sst > 0.0 {
+    if sst > 0.0 {
         1.0 - weighted_ssr / sst
     } else {
         f64::NAN
-    };
-    let ssr: f64 = fit_points.iter().map(|p| p.residual * p.residual).sum();
-    let rms_residual = (ssr / n as f64).sqrt();
+    }
+}
+
+/// Set each point's studentized residual and flag the outliers (beyond
+/// [`OUTLIER_STUDENTIZED`] and off by more than [`OUTLIER_FACTOR_SHARE`]) with a warning each;
+/// returns their lines.
+fn flag_outliers(
+    fit_points: &mut [FitPoint],
+    weight: &[f64],
+    jacobian: &DMatrix<f64>,
+    warnings: &mut Vec<String>,
+) -> Vec<usize> {
     let weighted: Vec<f64> = weight
         .iter()
-        .zip(&fit_points)
+        .zip(fit_points.iter())
         .map(|(w, p)| w * p.residual)
         .collect();
-    let studentized = studentized_residuals(&weighted, &solution.jacobian);
+    let studentized = studentized_residuals(&weighted, jacobian);
     for (point, t) in fit_points.iter_mut().zip(&studentized) {
         point.studentized = t.filter(|t| t.is_finite());
     }
@@ -487,8 +507,14 @@ pub fn fit_points(
             stress(p.fitted),
         ));
     }
-    let outlier_lines = flagged.iter().map(|&(i, _)| fit_points[i].line).collect();
+    flagged.iter().map(|&(i, _)| fit_points[i].line).collect()
+}
 
+/// Warnings on the fit as a whole: few points, a poor R², a poorly determined parameter,
+/// residuals that run in long same-sign stretches.
+fn quality_warnings(fit: &PfeifferFit, options: &FitOptions, warnings: &mut Vec<String>) {
+    let n = fit.points.len();
+    let r_squared = fit.r_squared;
     if n < options.few_points {
         warnings.push(format!(
             "only {n} loading points; the uncertainties are rough — {} or more spread over the pressure range are better",
@@ -501,7 +527,10 @@ pub fn fit_points(
             options.min_r_squared
         ));
     }
-    for (name, value, se) in [("K1", k1, k1_se), ("K2", k2, k2_se)] {
+    for (name, value, se) in [
+        ("K1", fit.k1, fit.k1_standard_error),
+        ("K2", fit.k2, fit.k2_standard_error),
+    ] {
         if se.is_finite() && se > options.max_relative_standard_error * value.abs() {
             warnings.push(format!(
                 "{name} is poorly determined: its standard error is {:.0} % of its value",
@@ -509,15 +538,58 @@ pub fn fit_points(
             ));
         }
     }
-    if let Some(z) = runs_test_z(&fit_points)
+    if let Some(z) = runs_test_z(&fit.points)
         && z < -2.58
     {
         warnings.push(format!(
             "the residuals run in long same-sign stretches (runs test z = {z:.1}): the law misses the curve's shape systematically; check the residuals table"
         ));
     }
+}
 
-    Ok(PfeifferFit {
+/// Fit Pfeiffer's law to points already known to be a loading branch.
+pub fn fit_points(
+    origin: &str,
+    points: &[StackPoint],
+    options: &FitOptions,
+    dropped_unloading: usize,
+    mut warnings: Vec<String>,
+) -> Result<PfeifferFit, CalibrateError> {
+    let n = points.len();
+    let data = FitData::new(origin, points, options.weighting)?;
+    let (start, solution) = data.solve(origin)?;
+    let (k1, k2) = (solution.parameters[0], solution.parameters[1]);
+    if !solution.converged {
+        warnings.push(format!(
+            "the fit stopped after {} iterations without meeting its tolerance; treat the result with care",
+            solution.iterations
+        ));
+    }
+    let (k1_se, k2_se, correlation) = parameter_uncertainty(&solution, n, &mut warnings);
+    let mut fit_points: Vec<FitPoint> = points
+        .iter()
+        .map(|p| {
+            let fitted = pfeiffer_pressure(k1, k2, p.strain);
+            FitPoint {
+                line: p.line,
+                strain: p.strain,
+                pressure: p.pressure,
+                fitted,
+                residual: fitted - p.pressure,
+                studentized: None,
+            }
+        })
+        .collect();
+    let r_squared = weighted_r_squared(&data.weight, &data.pressure, &fit_points);
+    let ssr: f64 = fit_points.iter().map(|p| p.residual * p.residual).sum();
+    let rms_residual = (ssr / n as f64).sqrt();
+    let outliers = flag_outliers(
+        &mut fit_points,
+        &data.weight,
+        &solution.jacobian,
+        &mut warnings,
+    );
+    let mut fit = PfeifferFit {
         k1,
         k2,
         k1_standard_error: k1_se,
@@ -530,9 +602,12 @@ pub fn fit_points(
         iterations: solution.iterations,
         points: fit_points,
         dropped_unloading,
-        outliers: outlier_lines,
-        warnings,
-    })
+        outliers,
+        warnings: Vec::new(),
+    };
+    quality_warnings(&fit, options, &mut warnings);
+    fit.warnings = warnings;
+    Ok(fit)
 }
 
 /// Wald–Wolfowitz runs test on the residual signs (Wald & Wolfowitz, Ann. Math. Stat. 11, 1940):

@@ -217,6 +217,21 @@ pub fn read_stack_file(path: &Path) -> Result<String, CalibrateError> {
     })
 }
 
+/// The columns the fit reads, found from the header row.
+struct Columns {
+    /// Strain or height column (0-based) and how to read it.
+    x_index: usize,
+    x_kind: Abscissa,
+    x_header: String,
+    /// Pressure column (0-based) and its SI factor.
+    p_index: usize,
+    p_factor: f64,
+    p_header: String,
+}
+
+/// One data row as read: line, strain or height in the file's unit, pressure in Pa.
+type RawRow = (usize, f64, f64);
+
 /// Parse a stack-compression CSV. `origin` names the file in messages.
 pub fn parse_stack_csv(
     text: &str,
@@ -236,12 +251,7 @@ pub fn parse_stack_csv(
     };
     let metadata = read_metadata(text);
     let mut notes = Vec::new();
-    // The header row decides the separator (see the module docs).
-    let semicolons = text
-        .lines()
-        .map(str::trim)
-        .find(|l| !l.is_empty() && !l.starts_with('#'))
-        .is_some_and(|header| header.contains(';'));
+    let semicolons = header_uses_semicolons(text);
     if semicolons {
         notes.push(
             "read as semicolon-separated (a spreadsheet export); decimal commas read as decimal points"
@@ -254,6 +264,40 @@ pub fn parse_stack_csv(
         .trim(csv::Trim::All)
         .flexible(true)
         .from_reader(text.as_bytes());
+    let headers = read_headers(&mut reader, origin)?;
+    let columns = find_columns(&headers, origin, &mut notes)?;
+    let (initial_height, layers) = height_and_layers(&metadata, options, origin)?;
+    let rows = read_rows(&mut reader, headers.len(), &columns, origin, semicolons)?;
+    let initial_height =
+        settle_initial_height(columns.x_kind, initial_height, &rows, origin, &mut notes)?;
+    let points = rows
+        .into_iter()
+        .map(|row| checked_point(row, &columns, initial_height, origin))
+        .collect::<Result<Vec<_>, _>>()?;
+    Ok(StackTest {
+        origin: origin.to_string(),
+        points,
+        initial_height,
+        layers,
+        metadata,
+        notes,
+    })
+}
+
+/// The header row decides the separator (see the module docs): a semicolon in it makes the
+/// file semicolon-separated.
+fn header_uses_semicolons(text: &str) -> bool {
+    text.lines()
+        .map(str::trim)
+        .find(|l| !l.is_empty() && !l.starts_with('#'))
+        .is_some_and(|header| header.contains(';'))
+}
+
+/// The header row; an error when the file has none.
+fn read_headers(
+    reader: &mut csv::Reader<&[u8]>,
+    origin: &str,
+) -> Result<csv::StringRecord, CalibrateError> {
     let headers = reader
         .headers()
         .map_err(|e| CalibrateError::Csv {
@@ -268,7 +312,16 @@ pub fn parse_stack_csv(
             message: "the file has no header row; expected e.g. \"strain,pressure [kPa]\"".into(),
         });
     }
+    Ok(headers)
+}
 
+/// Find the strain or height column and the pressure column with their units; other columns
+/// are noted as not used. The last matching column of each kind wins.
+fn find_columns(
+    headers: &csv::StringRecord,
+    origin: &str,
+    notes: &mut Vec<String>,
+) -> Result<Columns, CalibrateError> {
     let mut abscissa: Option<(usize, Abscissa)> = None;
     let mut pressure: Option<(usize, f64)> = None;
     for (index, header) in headers.iter().enumerate() {
@@ -283,19 +336,7 @@ pub fn parse_stack_csv(
         };
         match name.as_str() {
             "strain" | "compressive strain" => {
-                let factor = match unit.as_deref() {
-                    None | Some("") | Some("-") | Some("1") | Some("fraction") => 1.0,
-                    Some("%") => 0.01,
-                    Some(other) => {
-                        return Err(CalibrateError::Header {
-                            origin: origin.to_string(),
-                            column,
-                            message: format!(
-                                "strain unit \"{other}\" is not known; accepted: none or \"-\" (a fraction), \"%\""
-                            ),
-                        });
-                    }
-                };
+                let factor = strain_factor(unit.as_deref(), origin, column)?;
                 abscissa = Some((index, Abscissa::Strain(factor)));
             }
             "height" | "stack height" | "thickness" | "stack thickness" => {
@@ -325,10 +366,38 @@ pub fn parse_stack_csv(
             message: "no pressure column; expected a header such as \"pressure [kPa]\" or \"pressure [psi]\"".into(),
         });
     };
-    let x_header = headers.get(x_index).unwrap_or("").to_string();
-    let p_header = headers.get(p_index).unwrap_or("").to_string();
+    Ok(Columns {
+        x_index,
+        x_kind,
+        x_header: headers.get(x_index).unwrap_or("").to_string(),
+        p_index,
+        p_factor,
+        p_header: headers.get(p_index).unwrap_or("").to_string(),
+    })
+}
 
-    // Initial height: option, then metadata; layers likewise.
+/// Factor of a strain column's unit to a fraction: none, "-", "1" or "fraction" is 1, "%" is
+/// 0.01.
+fn strain_factor(unit: Option<&str>, origin: &str, column: usize) -> Result<f64, CalibrateError> {
+    match unit {
+        None | Some("") | Some("-") | Some("1") | Some("fraction") => Ok(1.0),
+        Some("%") => Ok(0.01),
+        Some(other) => Err(CalibrateError::Header {
+            origin: origin.to_string(),
+            column,
+            message: format!(
+                "strain unit \"{other}\" is not known; accepted: none or \"-\" (a fraction), \"%\""
+            ),
+        }),
+    }
+}
+
+/// Initial height and layer count: the option, then the file's metadata comment.
+fn height_and_layers(
+    metadata: &BTreeMap<String, String>,
+    options: &StackReadOptions,
+    origin: &str,
+) -> Result<(Option<f64>, Option<usize>), CalibrateError> {
     let mut initial_height = options.initial_height;
     if initial_height.is_none()
         && let Some(text) = metadata.get("initial_height")
@@ -360,9 +429,19 @@ pub fn parse_stack_csv(
             message: "the layer count must be at least 1".into(),
         });
     }
+    Ok((initial_height, layers))
+}
 
-    // Raw rows.
-    let mut rows: Vec<(usize, f64, f64)> = Vec::new();
+/// The data rows as numbers (blank rows skipped): a row with more cells than the header, or a
+/// cell that is not a finite number, is an error naming its line and column.
+fn read_rows(
+    reader: &mut csv::Reader<&[u8]>,
+    header_columns: usize,
+    columns: &Columns,
+    origin: &str,
+    decimal_comma: bool,
+) -> Result<Vec<RawRow>, CalibrateError> {
+    let mut rows: Vec<RawRow> = Vec::new();
     for record in reader.records() {
         let record = record.map_err(|e| CalibrateError::Csv {
             origin: origin.to_string(),
@@ -372,31 +451,42 @@ pub fn parse_stack_csv(
         if record.iter().all(|f| f.trim().is_empty()) {
             continue;
         }
-        if record.len() > headers.len() {
+        if record.len() > header_columns {
             return Err(CalibrateError::Value {
                 origin: origin.to_string(),
                 line,
-                column: headers.len() + 1,
+                column: header_columns + 1,
                 header: "beyond the header".to_string(),
                 message: format!(
                     "the row has {} cells but the header names {} columns; if the numbers use a decimal comma (\"0,05\"), write them with a decimal point, quote them, or separate the cells with semicolons",
                     record.len(),
-                    headers.len()
+                    header_columns
                 ),
             });
         }
         let field = |index: usize, header: &str| -> Result<f64, CalibrateError> {
             let text = record.get(index).unwrap_or("");
-            parse_number(origin, line, index + 1, header, text, semicolons)
+            parse_number(origin, line, index + 1, header, text, decimal_comma)
         };
-        let x = field(x_index, &x_header)?;
-        let p = field(p_index, &p_header)? * p_factor;
+        let x = field(columns.x_index, &columns.x_header)?;
+        let p = field(columns.p_index, &columns.p_header)? * columns.p_factor;
         rows.push((line, x, p));
     }
+    Ok(rows)
+}
 
+/// The initial height of height data: given, or taken from a first row at zero pressure; it
+/// must be a positive length. Strain data keep whatever was given.
+fn settle_initial_height(
+    x_kind: Abscissa,
+    given: Option<f64>,
+    rows: &[RawRow],
+    origin: &str,
+    notes: &mut Vec<String>,
+) -> Result<Option<f64>, CalibrateError> {
     let initial_height = match x_kind {
-        Abscissa::Strain(_) => initial_height,
-        Abscissa::Height(f) => match initial_height {
+        Abscissa::Strain(_) => given,
+        Abscissa::Height(f) => match given {
             Some(h) => Some(h),
             None => match rows.first() {
                 Some(&(line, h, 0.0)) => {
@@ -424,76 +514,63 @@ pub fn parse_stack_csv(
             message: format!("initial height {h0} m must be a positive length"),
         });
     }
+    Ok(initial_height)
+}
 
-    let mut points = Vec::with_capacity(rows.len());
-    for (line, x, p) in rows {
-        let strain = match x_kind {
-            Abscissa::Strain(f) => x * f,
-            Abscissa::Height(f) => {
-                let h = x * f;
-                let h0 = initial_height.unwrap_or(h);
-                if h <= 0.0 {
-                    return Err(CalibrateError::Value {
-                        origin: origin.to_string(),
-                        line,
-                        column: x_index + 1,
-                        header: x_header.clone(),
-                        message: format!("height {x} must be positive"),
-                    });
-                }
-                (h0 - h) / h0
+/// One row as a point: heights become strain against the initial height; strain must lie in
+/// [0, 1) and pressure must not be negative.
+fn checked_point(
+    (line, x, p): RawRow,
+    columns: &Columns,
+    initial_height: Option<f64>,
+    origin: &str,
+) -> Result<StackPoint, CalibrateError> {
+    let x_error = |message: String| CalibrateError::Value {
+        origin: origin.to_string(),
+        line,
+        column: columns.x_index + 1,
+        header: columns.x_header.clone(),
+        message,
+    };
+    let strain = match columns.x_kind {
+        Abscissa::Strain(f) => x * f,
+        Abscissa::Height(f) => {
+            let h = x * f;
+            let h0 = initial_height.unwrap_or(h);
+            if h <= 0.0 {
+                return Err(x_error(format!("height {x} must be positive")));
             }
-        };
-        if strain < 0.0 {
-            return Err(CalibrateError::Value {
-                origin: origin.to_string(),
-                line,
-                column: x_index + 1,
-                header: x_header.clone(),
-                message: match x_kind {
-                    Abscissa::Height(_) => format!(
-                        "height {x} is above the initial height, which gives a negative strain ({strain:.4}); accepted: heights at or below the initial height"
-                    ),
-                    Abscissa::Strain(_) => format!(
-                        "negative strain {x}; accepted: 0 ≤ strain < 1 (compression positive)"
-                    ),
-                },
-            });
+            (h0 - h) / h0
         }
-        if strain >= 1.0 {
-            return Err(CalibrateError::Value {
-                origin: origin.to_string(),
-                line,
-                column: x_index + 1,
-                header: x_header.clone(),
-                message: format!(
-                    "strain {strain} is not below 1; if the column is in percent write \"strain [%]\""
-                ),
-            });
-        }
-        if p < 0.0 {
-            return Err(CalibrateError::Value {
-                origin: origin.to_string(),
-                line,
-                column: p_index + 1,
-                header: p_header.clone(),
-                message: "negative pressure; accepted: pressure ≥ 0 (compression positive)".into(),
-            });
-        }
-        points.push(StackPoint {
+    };
+    if strain < 0.0 {
+        return Err(x_error(match columns.x_kind {
+            Abscissa::Height(_) => format!(
+                "height {x} is above the initial height, which gives a negative strain ({strain:.4}); accepted: heights at or below the initial height"
+            ),
+            Abscissa::Strain(_) => {
+                format!("negative strain {x}; accepted: 0 ≤ strain < 1 (compression positive)")
+            }
+        }));
+    }
+    if strain >= 1.0 {
+        return Err(x_error(format!(
+            "strain {strain} is not below 1; if the column is in percent write \"strain [%]\""
+        )));
+    }
+    if p < 0.0 {
+        return Err(CalibrateError::Value {
+            origin: origin.to_string(),
             line,
-            strain,
-            pressure: p,
+            column: columns.p_index + 1,
+            header: columns.p_header.clone(),
+            message: "negative pressure; accepted: pressure ≥ 0 (compression positive)".into(),
         });
     }
-
-    Ok(StackTest {
-        origin: origin.to_string(),
-        points,
-        initial_height,
-        layers,
-        metadata,
-        notes,
+    Ok(StackPoint {
+        line,
+        strain,
+        pressure: p,
     })
 }
 

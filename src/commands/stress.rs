@@ -232,7 +232,8 @@ fn diameter_band(band: (f64, f64), system: UnitSystem) -> String {
     }
 }
 
-/// The summary table printed by default.
+/// The summary table printed by default: the figures, the failure mechanisms' margins, the
+/// solver's and the air film's rows, the zones, the warnings.
 pub fn summary_table(
     title: &str,
     problem: &model::WindingProblem,
@@ -240,19 +241,44 @@ pub fn summary_table(
     mechanics: &rolltriage::mechanics::MechanicsInputs,
     system: UnitSystem,
 ) -> String {
-    let s = &profile.summary;
-    let solver = &profile.solver;
     let mut t = String::new();
     t.push_str(&format!("Wound-roll stresses: {title}\n\n"));
-    let resolution = if solver.grid.is_per_layer() {
+    let mut rows = figure_rows(problem, profile, system);
+    rows.extend(mechanism_rows(profile, mechanics, system));
+    rows.extend(solver_and_air_rows(profile, system));
+    let width = rows
+        .iter()
+        .map(|(k, _)| k.chars().count())
+        .max()
+        .unwrap_or(0);
+    for (k, v) in rows {
+        t.push_str(&format!("  {k:<width$}  {v}\n"));
+    }
+    t.push_str(&zone_table(profile, system));
+    if !profile.warnings.is_empty() {
+        t.push_str("\nWarnings:\n");
+        for w in &profile.warnings {
+            t.push_str(&format!("  - {w}\n"));
+        }
+    }
+    t
+}
+
+/// The summary figures: wraps and grid, build, core and peak pressure, hoop compression, core
+/// strain, the compressive low-pressure band, the soft outer share.
+fn figure_rows(
+    problem: &model::WindingProblem,
+    profile: &Profile,
+    system: UnitSystem,
+) -> Vec<(&'static str, String)> {
+    let s = &profile.summary;
+    let grid = &profile.solver.grid;
+    let resolution = if grid.is_per_layer() {
         "per layer".to_string()
     } else {
-        format!(
-            "grouped, {} wraps per element",
-            solver.grid.layers_per_element
-        )
+        format!("grouped, {} wraps per element", grid.layers_per_element)
     };
-    let rows: Vec<(&str, String)> = vec![
+    vec![
         (
             "Wraps",
             format!(
@@ -307,10 +333,14 @@ pub fn summary_table(
             "Outer zones below 25 % of peak pressure",
             format!("{:.0} %", 100.0 * s.outer_low_pressure_share),
         ),
-    ];
-    let mut rows = rows;
-    rows.extend(mechanism_rows(profile, mechanics, system));
-    if let Some(change) = solver.group_halving_change {
+    ]
+}
+
+/// The grid check (core pressure change with the elements halved) and the entrained air film,
+/// when the solve has them.
+fn solver_and_air_rows(profile: &Profile, system: UnitSystem) -> Vec<(&'static str, String)> {
+    let mut rows = Vec::new();
+    if let Some(change) = profile.solver.group_halving_change {
         rows.push((
             "Core pressure change, elements halved",
             format!("{:.2} % (check: below 1 %)", 100.0 * change),
@@ -335,14 +365,12 @@ pub fn summary_table(
             ),
         ));
     }
-    let width = rows
-        .iter()
-        .map(|(k, _)| k.chars().count())
-        .max()
-        .unwrap_or(0);
-    for (k, v) in rows {
-        t.push_str(&format!("  {k:<width$}  {v}\n"));
-    }
+    rows
+}
+
+/// The zone statistics: diameters, pressure range and mean, most compressive hoop stress.
+fn zone_table(profile: &Profile, system: UnitSystem) -> String {
+    let mut t = String::new();
     t.push_str(&format!(
         "\nZones (build fractions: core < {:.0} %, inner < {:.0} %, middle < {:.0} %, outer, \
          surface = outermost tensile wraps)\n",
@@ -376,12 +404,6 @@ pub fn summary_table(
             stress(p.max, system),
             min_t
         ));
-    }
-    if !profile.warnings.is_empty() {
-        t.push_str("\nWarnings:\n");
-        for w in &profile.warnings {
-            t.push_str(&format!("  - {w}\n"));
-        }
     }
     t
 }
