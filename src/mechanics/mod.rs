@@ -245,6 +245,11 @@ fn margin(capacity: f64, demand: f64) -> f64 {
     }
 }
 
+/// The interfaces of a profile: every node but the outside (node 0 is the core/web interface).
+fn interfaces(profile: &Profile) -> std::ops::Range<usize> {
+    0..profile.radius.len().saturating_sub(1)
+}
+
 /// A simple centre-wound roll's inputs for the unit tests: core ⌀ 100 mm, outside ⌀ 1 m,
 /// 700 kg/m³, μ 0.4, standing still (no inertia), 200 N/m at the outside.
 #[cfg(test)]
@@ -291,9 +296,4 @@ mod tests {
         assert!(!unloaded.has_demand);
         assert_eq!(unloaded.band, (1.0, 1.0));
     }
-}
-
-/// The interfaces of a profile: every node but the outside (node 0 is the core/web interface).
-fn interfaces(profile: &Profile) -> std::ops::Range<usize> {
-    0..profile.radius.len().saturating_sub(1)
 }
