@@ -15,7 +15,7 @@
 use std::collections::BTreeMap;
 
 use super::indicators::{Indicators, format_value};
-use super::rules::{Comparison, RuleBase, Test};
+use super::rules::{Comparison, RuleBase, Scope, Test};
 use super::{RankedCause, Reason};
 use crate::case::ResolvedCase;
 use crate::model::ZoneName;
@@ -36,6 +36,15 @@ pub fn combine(factors: &[f64]) -> f64 {
         return 0.0;
     }
     (positive + negative) / (1.0 - smaller)
+}
+
+/// One symptom's belief in a cause from all the factors that hold (`all`) and those of them
+/// about the cause itself (`about_cause`: the prior and the evidence of scope `cause`).
+/// Evidence scoped to the symptom may take the symptom's support away, down to no belief, but
+/// not below what the evidence about the cause says (see `rules::Scope`). Monotone
+/// non-decreasing in every factor: the maximum and minimum of monotone functions are monotone.
+pub fn symptom_belief(all: &[f64], about_cause: &[f64]) -> f64 {
+    combine(all).max(combine(about_cause).min(0.0))
 }
 
 /// Does `test` hold for this case? `None` when it cannot be decided (indicator not computed,
@@ -150,6 +159,7 @@ pub fn rank(
         };
         for rule in &symptom.rules {
             let mut factors = vec![rule.prior];
+            let mut about_cause = vec![rule.prior];
             let mut reasons = vec![Reason {
                 symptom: symptom.id.clone(),
                 test: "prior".into(),
@@ -169,6 +179,9 @@ pub fn rank(
                     continue;
                 }
                 factors.push(evidence.weight);
+                if evidence.scope == Scope::Cause {
+                    about_cause.push(evidence.weight);
+                }
                 let (test, zone) = test_name(&evidence.test);
                 reasons.push(Reason {
                     symptom: symptom.id.clone(),
@@ -181,7 +194,7 @@ pub fn rank(
                 });
             }
             let entry = per_cause.entry(rule.cause.as_str()).or_default();
-            entry.0.push(combine(&factors));
+            entry.0.push(symptom_belief(&factors, &about_cause));
             entry.1.extend(reasons);
         }
     }
@@ -216,6 +229,20 @@ mod tests {
         assert!((combine(&[0.6, -0.4]) - 0.2 / 0.6).abs() < 1e-12);
         assert!((combine(&[-0.6, -0.5]) + 0.8).abs() < 1e-12);
         assert_eq!(combine(&[]), 0.0);
+    }
+
+    // Scoped evidence: prior 0.3 and −0.7 combine to (0.3 − 0.7)/(1 − 0.3) = −0.571…; scoped to
+    // the symptom it stops at no belief; about the cause it stays. Scoped evidence never lowers
+    // a symptom below its cause-level belief, and positive beliefs are untouched.
+    #[test]
+    fn symptom_scoped_evidence_stops_at_no_belief() {
+        assert!((combine(&[0.3, -0.7]) + 0.4 / 0.7).abs() < 1e-12);
+        assert_eq!(symptom_belief(&[0.3, -0.7], &[0.3]), 0.0);
+        assert!((symptom_belief(&[0.3, -0.7], &[0.3, -0.7]) + 0.4 / 0.7).abs() < 1e-12);
+        // A cause-level −0.5 with a scoped −0.7: the cause-level belief −0.2/0.7 is the floor.
+        let floor = combine(&[0.3, -0.5]);
+        assert!((symptom_belief(&[0.3, -0.5, -0.7], &[0.3, -0.5]) - floor).abs() < 1e-12);
+        assert!((symptom_belief(&[0.6, -0.2], &[0.6]) - combine(&[0.6, -0.2])).abs() < 1e-12);
     }
 
     #[test]

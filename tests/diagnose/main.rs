@@ -11,6 +11,7 @@ mod fixtures;
 mod cli;
 mod evidence_compare;
 mod evidence_units;
+mod field_scenarios;
 mod markdown;
 mod properties;
 mod rules_consistency;

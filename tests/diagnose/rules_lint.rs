@@ -242,3 +242,20 @@ fn missing_catalogue_and_unknown_caution_are_errors() {
         "{m}"
     );
 }
+
+#[test]
+fn unknown_scope_is_an_error_with_the_closest_word() {
+    let files = shipped_files();
+    let m = error_of(&replace(
+        &files,
+        "crushed_core.yaml",
+        "scope: symptom",
+        "scope: symptoms",
+    ));
+    assert!(
+        m.contains("crushed_core.yaml:")
+            && m.contains("unknown scope `symptoms`")
+            && m.contains("did you mean `symptom`"),
+        "{m}"
+    );
+}

@@ -121,6 +121,52 @@ pub(super) fn did_you_mean<'a, I: IntoIterator<Item = &'a str>>(
     }
 }
 
+/// Where a name refers to a catalogue entry: the file, its text, the line to search from and
+/// what the message starts with (`remedy `x`: `, or nothing).
+pub(super) struct Site<'a> {
+    file: &'a str,
+    text: &'a str,
+    after: usize,
+    owner: &'a str,
+}
+
+impl<'a> Site<'a> {
+    pub(super) fn new(file: &'a str, text: &'a str, after: usize, owner: &'a str) -> Self {
+        Site {
+            file,
+            text,
+            after,
+            owner,
+        }
+    }
+}
+
+/// Reports `name` (a `kind`, e.g. `remedy`) unless `catalogue` (read from `catalogue_file`)
+/// holds it, at the first line naming it after `site.after`, with the closest valid name.
+/// Returns whether it is there.
+pub(super) fn check_listed<V>(
+    name: &str,
+    kind: &str,
+    catalogue: &BTreeMap<String, V>,
+    catalogue_file: &str,
+    site: &Site,
+    problems: &mut Problems,
+) -> bool {
+    if catalogue.contains_key(name) {
+        return true;
+    }
+    problems.add(
+        site.file,
+        line_of_after(site.text, name, site.after),
+        &format!(
+            "{}{kind} `{name}` is not in {catalogue_file}{}",
+            site.owner,
+            did_you_mean(name, catalogue.keys().map(String::as_str))
+        ),
+    );
+    false
+}
+
 pub(super) fn check_remedy(
     id: &str,
     file: &str,
@@ -128,16 +174,15 @@ pub(super) fn check_remedy(
     base: &RuleBase,
     problems: &mut Problems,
 ) {
-    if !base.remedies.contains_key(id) {
-        problems.add(
-            file,
-            line_of(text, id),
-            &format!(
-                "remedy `{id}` is not in remedies.yaml{}",
-                did_you_mean(id, base.remedies.keys().map(String::as_str))
-            ),
-        );
-    }
+    let site = Site::new(file, text, 0, "");
+    check_listed(
+        id,
+        "remedy",
+        &base.remedies,
+        "remedies.yaml",
+        &site,
+        problems,
+    );
 }
 
 pub(super) fn compile_remedy(
@@ -177,18 +222,17 @@ pub(super) fn compile_remedy(
             Cost::High
         }
     };
+    let owner = format!("remedy `{id}`: ");
+    let site = Site::new(file, text, line, &owner);
     for caution in &raw.cautions {
-        if !base.cautions.contains_key(caution) {
-            problems.add(
-                file,
-                line_of_after(text, caution, line),
-                &format!(
-                    "remedy `{id}`: caution `{caution}` is not in cautions.yaml{}",
-                    did_you_mean(caution, base.cautions.keys().map(String::as_str))
-                ),
-            );
-            ok = false;
-        }
+        ok &= check_listed(
+            caution,
+            "caution",
+            &base.cautions,
+            "cautions.yaml",
+            &site,
+            problems,
+        );
     }
     let mut changes = Vec::new();
     for change in raw.change {
@@ -397,18 +441,17 @@ pub(super) fn compile_symptom(
                 ),
             );
         }
+        let owner = format!("cause `{}`: ", rule.cause);
+        let site = Site::new(file, text, line, &owner);
         for remedy in &rule.remedies {
-            if !base.remedies.contains_key(remedy) {
-                problems.add(
-                    file,
-                    line_of_after(text, remedy, line),
-                    &format!(
-                        "cause `{}`: remedy `{remedy}` is not in remedies.yaml{}",
-                        rule.cause,
-                        did_you_mean(remedy, base.remedies.keys().map(String::as_str))
-                    ),
-                );
-            }
+            check_listed(
+                remedy,
+                "remedy",
+                &base.remedies,
+                "remedies.yaml",
+                &site,
+                problems,
+            );
         }
         let mut evidence = Vec::new();
         let mut evidence_line = line;
@@ -643,9 +686,26 @@ pub(super) fn compile_evidence(
     if ev.zone.is_some() && !matches!(test, Test::Indicator { .. }) {
         problems.add(file, line, "`zone` belongs to indicator evidence only");
     }
+    let scope = match ev.scope.as_deref() {
+        None | Some("cause") => Scope::Cause,
+        Some("symptom") => Scope::Symptom,
+        Some(other) => {
+            problems.add(
+                file,
+                line,
+                &format!(
+                    "unknown scope `{other}`; accepted: {}{}",
+                    Scope::IDS.join(", "),
+                    did_you_mean(other, Scope::IDS)
+                ),
+            );
+            Scope::Cause
+        }
+    };
     (problems.list.len() == before).then(|| Evidence {
         test,
         weight: ev.weight,
+        scope,
         says: ev.says.trim().to_string(),
     })
 }

@@ -246,12 +246,35 @@ pub enum Test {
     Place(Vec<vocabulary::Place>),
 }
 
+/// What a piece of evidence weighs: the cause itself, or the cause as the explanation of the
+/// rule's symptom only.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
+pub enum Scope {
+    /// The cause itself, whatever the symptom (`scope: cause`, the default): a symptom's belief
+    /// pushed below zero counts against the cause for every observed symptom.
+    #[default]
+    Cause,
+    /// The cause as the explanation of this rule's symptom only (`scope: symptom`): the evidence
+    /// can take this symptom's support for the cause away, down to no belief, but never counts
+    /// against the support other observed symptoms give the cause. For example "taper hardly
+    /// moves the core pressure" says missing taper did not crush the core; it says nothing
+    /// against missing taper as the cause of stars in the same roll.
+    Symptom,
+}
+
+impl Scope {
+    /// The words a rule file may use, in the order of the variants.
+    pub const IDS: [&'static str; 2] = ["cause", "symptom"];
+}
+
 /// One piece of evidence: a test and the certainty factor it adds when it holds.
 #[derive(Debug, Clone, PartialEq)]
 pub struct Evidence {
     pub test: Test,
     /// Certainty factor in −1..=1 (negative = evidence against).
     pub weight: f64,
+    /// Whom the weight is about (see [`Scope`]).
+    pub scope: Scope,
     pub says: String,
 }
 

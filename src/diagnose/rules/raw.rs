@@ -163,5 +163,8 @@ pub(super) struct RawEvidence {
     #[serde(default)]
     pub(super) place: Option<OneOrMany>,
     pub(super) weight: f64,
+    /// `cause` (default) or `symptom`: see [`super::Scope`].
+    #[serde(default)]
+    pub(super) scope: Option<String>,
     pub(super) says: String,
 }
