@@ -436,6 +436,17 @@ pub const DEFAULT_SHOCK_FACTOR: Sourced = sourced(
     2.0,
     "suddenly applied load without drop height: twice the static stress (closed form of the energy balance, strength-of-materials texts such as Gere & Timoshenko, from memory)",
 );
+/// Run-up time to line speed, and normal stop time, when a case gives none (s): the start-up and
+/// stop events of the layer-slip check (docs/theory.md §5).
+pub const DEFAULT_RAMP_TIME: Sourced = sourced(
+    20.0,
+    "typical run-up of a production winder (from memory); start-up and normal-stop slip checks",
+);
+/// Emergency stop time when a case gives none (s), web tension taken as lost.
+pub const DEFAULT_EMERGENCY_STOP_TIME: Sourced = sourced(
+    4.0,
+    "a few seconds on production winders (from memory); web tension taken as lost",
+);
 pub const DEFAULT_SPEED: Sourced =
     sourced(5.0, "common practice: a moderate 300 m/min rewinding speed");
 /// Web width used when a case gives none (m). Stresses are per unit width, so it only scales

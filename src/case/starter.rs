@@ -26,6 +26,31 @@ fn default_line(indent: &str, field: &Field, web: &WebPreset, core: &CorePreset)
     }
 }
 
+/// The events of the layer-slip check (docs/theory.md §5), written with the defaults the
+/// mechanics would assume; the unwind tension as the winding tension.
+fn event_lines(web: &WebPreset, core: &CorePreset) -> String {
+    use crate::presets::{DEFAULT_EMERGENCY_STOP_TIME, DEFAULT_RAMP_TIME};
+    let ramp = DEFAULT_RAMP_TIME;
+    let mut out = value_line("  ", &reg::ACCELERATION, ramp.value, ramp.source);
+    out.push_str(&value_line("  ", &reg::STOP_TIME, ramp.value, ramp.source));
+    let emergency = DEFAULT_EMERGENCY_STOP_TIME;
+    out.push_str(&value_line(
+        "  ",
+        &reg::EMERGENCY_STOP_TIME,
+        emergency.value,
+        emergency.source,
+    ));
+    if let Some((tension, _)) = reg::TENSION.preset_value(Some(web), Some(core)) {
+        out.push_str(&value_line(
+            "  ",
+            &reg::UNWIND_TENSION,
+            tension.value,
+            "the customer's unwind tension; here the winding tension",
+        ));
+    }
+    out
+}
+
 /// A choice written with its accepted words as the comment ("a, b or c").
 fn choice_line(indent: &str, field: &Field, value: &str, separator: &str) -> String {
     let words = match field.kind {
@@ -129,6 +154,7 @@ pub fn starter_yaml(web: &WebPreset, core: &CorePreset) -> String {
     out.push_str(&default_line("  ", &reg::NIP_PLATEAU, web, core));
     out.push_str(&default_line("  ", &reg::SPEED, web, core));
     out.push_str(&default_line("  ", &reg::SHOCK_FACTOR, web, core));
+    out.push_str(&event_lines(web, core));
     out.push_str("  # upsets:  # bands wound at a different tension, e.g. after a splice\n");
     out.push_str(
         "  #   - {from_diameter: \"600 mm\", to_diameter: \"620 mm\", tension: \"3 pli\"}\n",

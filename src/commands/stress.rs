@@ -219,6 +219,19 @@ fn diameter_at(value: f64, system: UnitSystem) -> String {
     format!("⌀ {}", length(2.0 * value, system))
 }
 
+/// "⌀ 310 mm" or, for a band, "⌀ 310 mm–340 mm".
+fn diameter_band(band: (f64, f64), system: UnitSystem) -> String {
+    if band.1 > band.0 {
+        format!(
+            "{}–{}",
+            diameter_at(band.0, system),
+            length(2.0 * band.1, system)
+        )
+    } else {
+        diameter_at(band.0, system)
+    }
+}
+
 /// The summary table printed by default: the figures, the failure mechanisms' margins, the
 /// solver's and the air film's rows, the zones, the warnings.
 pub fn summary_table(
@@ -411,8 +424,8 @@ fn mechanism_rows(
             "Starring margin (wrap buckling)",
             // The margin is capped: a capped value with some compression is "far above 1",
             // not "no compression" (newsprint: −24 kPa against a buckling stress of ~75 MPa).
-            if starring.demand.iter().all(|d| *d <= 0.0) {
-                "no wrap in hoop compression".to_string()
+            if !starring.has_demand {
+                "no hoop compression: starring cannot start".to_string()
             } else if starring.min_margin >= rolltriage::mechanics::MARGIN_CAP {
                 format!(
                     "over {:.0} (hoop compression far below the buckling stress on the stack)",
@@ -422,7 +435,7 @@ fn mechanism_rows(
                 format!(
                     "{:.2} at {} (buckling stress on the stack / hoop compression; below 1 = wraps buckle)",
                     starring.min_margin,
-                    diameter_at(starring.min_radius, system),
+                    diameter_band(starring.band, system),
                 )
             },
         ),

@@ -17,6 +17,7 @@
 //! listed in [`Events`], stated as assumed. Layer above `model`: nothing here solves, it reads profiles.
 
 pub mod starring;
+pub mod table;
 pub mod telescoping;
 pub mod torque;
 
@@ -58,12 +59,13 @@ pub struct Events {
 }
 
 /// Default start-up and normal stop ramp (s): `(from memory)` typical of production winders,
-/// assumed when the case gives no acceleration time.
-pub const DEFAULT_RAMP_TIME: f64 = 20.0;
+/// assumed when the case gives no acceleration time; the resolver lists it as assumed with its
+/// source ([`crate::presets::DEFAULT_RAMP_TIME`]).
+pub const DEFAULT_RAMP_TIME: f64 = crate::presets::DEFAULT_RAMP_TIME.value;
 
 /// Default emergency stop time (s): `(from memory)` a few seconds on production winders,
-/// assumed.
-pub const DEFAULT_EMERGENCY_STOP_TIME: f64 = 4.0;
+/// assumed and listed so ([`crate::presets::DEFAULT_EMERGENCY_STOP_TIME`]).
+pub const DEFAULT_EMERGENCY_STOP_TIME: f64 = crate::presets::DEFAULT_EMERGENCY_STOP_TIME.value;
 
 /// Default dynamic factor on roll weight in handling (see [`Events::shock_factor`]); the case
 /// field `winding.handling_shock_factor` overrides it, and the resolver lists this default as
@@ -163,26 +165,69 @@ pub struct InterfaceMargins {
     /// Smallest capacity / demand (capped at [`MARGIN_CAP`]) and its radius (m).
     pub min_margin: f64,
     pub min_radius: f64,
+    /// Index of the smallest margin in `radius`.
+    #[serde(skip)]
+    pub min_index: usize,
+    /// The weakest band (inner and outer radius, m): the run of neighbouring interfaces around
+    /// the smallest margin that fail (margin below 1) when it fails, else whose margin is within
+    /// [`BAND_SPREAD`] of the smallest. What a reader looks for on the roll end.
+    pub band: (f64, f64),
+    /// True when some interface carries demand. For starring: some wrap is in hoop compression;
+    /// false means starring cannot start, whatever the margin's cap says.
+    pub has_demand: bool,
 }
+
+/// The weakest band of a mechanism that holds: the interfaces whose margin is within this factor
+/// of the smallest (10 %, a reading aid, not a criterion).
+pub const BAND_SPREAD: f64 = 1.1;
 
 impl InterfaceMargins {
     fn new(radius: Vec<f64>, demand: Vec<f64>, capacity: Vec<f64>) -> InterfaceMargins {
         let mut min_margin = MARGIN_CAP;
-        let mut min_radius = radius.first().copied().unwrap_or(0.0);
+        let mut min_index = 0;
         for i in 0..radius.len() {
             let m = margin(capacity[i], demand[i]);
             if m < min_margin {
                 min_margin = m;
-                min_radius = radius[i];
+                min_index = i;
             }
         }
-        InterfaceMargins {
+        let min_radius = radius.get(min_index).copied().unwrap_or(0.0);
+        let mut margins = InterfaceMargins {
+            band: (min_radius, min_radius),
+            has_demand: demand.iter().any(|d| *d > 0.0),
             radius,
             demand,
             capacity,
             min_margin,
             min_radius,
+            min_index,
+        };
+        margins.band = margins.weakest_band(min_index);
+        margins
+    }
+
+    /// Inner and outer radius of the run of interfaces around `at` that share the weakness of
+    /// the smallest margin (see [`InterfaceMargins::band`]).
+    fn weakest_band(&self, at: usize) -> (f64, f64) {
+        if self.radius.is_empty() || self.min_margin >= MARGIN_CAP {
+            return (self.min_radius, self.min_radius);
         }
+        let limit = if self.min_margin < 1.0 {
+            1.0
+        } else {
+            self.min_margin * BAND_SPREAD
+        };
+        let weak = |i: usize| self.margin_at(i) < limit || i == at;
+        let mut inner = at;
+        while inner > 0 && weak(inner - 1) {
+            inner -= 1;
+        }
+        let mut outer = at;
+        while outer + 1 < self.radius.len() && weak(outer + 1) {
+            outer += 1;
+        }
+        (self.radius[inner], self.radius[outer])
     }
 
     /// Margin at interface `i`.
@@ -203,4 +248,52 @@ fn margin(capacity: f64, demand: f64) -> f64 {
 /// The interfaces of a profile: every node but the outside (node 0 is the core/web interface).
 fn interfaces(profile: &Profile) -> std::ops::Range<usize> {
     0..profile.radius.len().saturating_sub(1)
+}
+
+/// A simple centre-wound roll's inputs for the unit tests: core ⌀ 100 mm, outside ⌀ 1 m,
+/// 700 kg/m³, μ 0.4, standing still (no inertia), 200 N/m at the outside.
+#[cfg(test)]
+pub(crate) fn sample_inputs(shaft_torque_rating: Option<f64>) -> MechanicsInputs {
+    MechanicsInputs {
+        core_radius: 0.05,
+        outer_radius: 0.5,
+        density: 700.0,
+        friction: 0.4,
+        method: WindingMethod::Centre,
+        speed: 0.0,
+        outer_tension: 200.0,
+        events: Events {
+            shaft_torque_rating,
+            ..Events::default()
+        },
+        tangential_modulus: 4e9,
+        radial_stiffness: RadialStiffness::Constant { modulus: 1e7 },
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    /// The weakest band of a failing mechanism is the run of failing interfaces around the
+    /// smallest margin; of a holding one, the run within 10 % of the smallest (hand-worked).
+    #[test]
+    fn weakest_band_around_the_smallest_margin() {
+        let radius = vec![1.0, 2.0, 3.0, 4.0, 5.0, 6.0];
+        let demand = vec![1.0; 6];
+        let failing = InterfaceMargins::new(
+            radius.clone(),
+            demand.clone(),
+            vec![2.0, 0.9, 0.5, 0.8, 1.5, 0.7],
+        );
+        assert_eq!((failing.min_margin, failing.min_radius), (0.5, 3.0));
+        assert_eq!(failing.band, (2.0, 4.0));
+        assert!(failing.has_demand);
+        let holding = InterfaceMargins::new(radius, demand, vec![3.0, 2.1, 2.0, 2.15, 2.3, 2.0]);
+        assert_eq!(holding.min_radius, 3.0);
+        assert_eq!(holding.band, (2.0, 4.0));
+        let unloaded = InterfaceMargins::new(vec![1.0, 2.0], vec![0.0, 0.0], vec![1.0, 1.0]);
+        assert!(!unloaded.has_demand);
+        assert_eq!(unloaded.band, (1.0, 1.0));
+    }
 }

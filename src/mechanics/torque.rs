@@ -200,22 +200,8 @@ mod tests {
             radius,
             ..Profile::default()
         };
-        let inputs = MechanicsInputs {
-            core_radius: 0.05,
-            outer_radius: 0.5,
-            density: 700.0,
-            friction: 0.4,
-            method: WindingMethod::Centre,
-            speed: 0.0,
-            outer_tension: 200.0,
-            events: Events {
-                shaft_torque_rating: Some(50.0),
-                ..Events::default()
-            },
-            // Not read by the torque check (starring only).
-            tangential_modulus: 4e9,
-            radial_stiffness: crate::model::RadialStiffness::Constant { modulus: 1e7 },
-        };
+        // Not read by the torque check: the starring inputs.
+        let inputs = crate::mechanics::sample_inputs(Some(50.0));
         let check = torque_check(&profile, &inputs);
         let margin = check.shaft_margin.expect("a rating was given");
         assert!((margin - 0.5).abs() < 1e-12, "{margin}");

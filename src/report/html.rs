@@ -2,7 +2,7 @@
 
 use std::fmt::Write;
 
-use super::document::{RemedyEntry, ReportDocument};
+use super::document::{MarginsSection, RemedyEntry, ReportDocument};
 use super::measured_plot::HardnessPlot;
 
 /// Escape text for HTML element content and attribute values.
@@ -256,6 +256,8 @@ fn write_report(
     )?;
     writeln!(out, "</figure>")?;
 
+    write_margins(out, &doc.margins)?;
+
     if let Some(measured) = &doc.measured {
         writeln!(
             out,
@@ -435,4 +437,38 @@ fn write_report(
     writeln!(out, "</body>")?;
     writeln!(out, "</html>")?;
     Ok(())
+}
+
+/// "Margins against each failure": one row per mechanism, failing rows marked.
+fn write_margins(out: &mut String, margins: &MarginsSection) -> std::fmt::Result {
+    if margins.rows.is_empty() {
+        return Ok(());
+    }
+    writeln!(out, "<h2 id=\"margins\">Margins against each failure</h2>")?;
+    writeln!(out, "<table id=\"margins-table\">")?;
+    writeln!(
+        out,
+        "<tr><th>Failure</th><th>Smallest margin</th><th>Where</th><th>Demand / capacity</th>\
+         <th>Verdict</th></tr>"
+    )?;
+    for row in &margins.rows {
+        let class = if row.verdict == "fails" {
+            " class=\"worse\""
+        } else {
+            ""
+        };
+        writeln!(
+            out,
+            "<tr{class}><td>{}</td><td>{}</td><td>{}</td><td>{}: {} / {}</td><td>{}</td></tr>",
+            escape(&row.mechanism),
+            escape(&row.margin_text),
+            escape(&row.where_text),
+            escape(&row.measures),
+            escape(&row.demand.text),
+            escape(&row.capacity.text),
+            escape(&row.verdict_text)
+        )?;
+    }
+    writeln!(out, "</table>")?;
+    writeln!(out, "<p>{}</p>", escape(margins.note()))
 }

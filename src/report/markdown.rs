@@ -2,20 +2,21 @@
 
 use std::fmt::Write;
 
-use super::document::{RemedyEntry, ReportDocument};
+use super::document::{MarginsSection, RemedyEntry, ReportDocument};
+use super::text_chart::TextCharts;
 
 /// Markdown table cells may not contain pipes or line breaks.
 fn cell(text: &str) -> String {
     text.replace('|', "\\|").replace('\n', " ")
 }
 
-pub(super) fn render(doc: &ReportDocument) -> String {
+pub(super) fn render(doc: &ReportDocument, charts: &TextCharts) -> String {
     let mut out = String::new();
-    let _ = write_report(&mut out, doc);
+    let _ = write_report(&mut out, doc, charts);
     out
 }
 
-fn write_report(out: &mut String, doc: &ReportDocument) -> std::fmt::Result {
+fn write_report(out: &mut String, doc: &ReportDocument, charts: &TextCharts) -> std::fmt::Result {
     let case = &doc.case;
     writeln!(out, "# Roll complaint report: {}", case.title)?;
     writeln!(out)?;
@@ -171,10 +172,13 @@ fn write_report(out: &mut String, doc: &ReportDocument) -> std::fmt::Result {
         }
         writeln!(out)?;
     }
+    writeln!(out, "{}", charts.pressure)?;
+    writeln!(out, "{}", charts.hoop)?;
     for warning in &stress.warnings {
         writeln!(out, "> Warning: {warning}")?;
         writeln!(out)?;
     }
+    write_margins(out, &doc.margins)?;
 
     if let Some(measured) = &doc.measured {
         writeln!(out, "## Measured on the roll, against the model")?;
@@ -195,6 +199,9 @@ fn write_report(out: &mut String, doc: &ReportDocument) -> std::fmt::Result {
             writeln!(out, "- {line}")?;
         }
         writeln!(out)?;
+        if let Some(chart) = &charts.hardness {
+            writeln!(out, "{chart}")?;
+        }
     }
 
     writeln!(out, "## Likely causes")?;
@@ -315,4 +322,34 @@ fn write_report(out: &mut String, doc: &ReportDocument) -> std::fmt::Result {
         writeln!(out, "- {limit}")?;
     }
     Ok(())
+}
+
+/// "Margins against each failure": one row per mechanism.
+fn write_margins(out: &mut String, margins: &MarginsSection) -> std::fmt::Result {
+    if margins.rows.is_empty() {
+        return Ok(());
+    }
+    writeln!(out, "## Margins against each failure")?;
+    writeln!(out)?;
+    writeln!(
+        out,
+        "| Failure | Smallest margin | Where | Demand / capacity | Verdict |"
+    )?;
+    writeln!(out, "|---|---|---|---|---|")?;
+    for row in &margins.rows {
+        writeln!(
+            out,
+            "| {} | {} | {} | {}: {} / {} | {} |",
+            cell(&row.mechanism),
+            row.margin_text,
+            cell(&row.where_text),
+            cell(&row.measures),
+            cell(&row.demand.text),
+            cell(&row.capacity.text),
+            cell(&row.verdict_text)
+        )?;
+    }
+    writeln!(out)?;
+    writeln!(out, "{}", margins.note())?;
+    writeln!(out)
 }

@@ -43,19 +43,7 @@ enum Scale {
 
 /// The hardness plot of the report input; `None` when the case has no comparable readings.
 pub fn hardness_svg(input: &ReportInput) -> Result<Option<HardnessPlot>, ReportError> {
-    let Some(hardness) = input
-        .diagnosis
-        .evidence
-        .as_ref()
-        .and_then(|e| e.hardness.as_ref())
-        .filter(|h| !h.points.is_empty())
-    else {
-        return Ok(None);
-    };
-    if input.profile.radius.is_empty() {
-        return Err(ReportError::EmptyProfile);
-    }
-    draw(hardness, &input.profile, input.units).map(Some)
+    hardness_series(input)?.map(draw).transpose()
 }
 
 fn plot_error(error: impl std::fmt::Display) -> ReportError {
@@ -96,11 +84,41 @@ fn scaled_pressure(scale: &Scale, pressure: f64) -> f64 {
     }
 }
 
-fn draw(
+/// The readings and the computed curve on one scale, in plot units (x: roll diameter), with
+/// their ranges, axis words and caption: what the SVG plot and the Markdown report's text chart
+/// both draw.
+pub(super) struct HardnessSeries {
+    pub(super) readings: Vec<(f64, f64)>,
+    pub(super) computed: Vec<(f64, f64)>,
+    pub(super) x_range: std::ops::Range<f64>,
+    pub(super) y_range: std::ops::Range<f64>,
+    pub(super) x_unit: AxisUnit,
+    pub(super) y_desc: String,
+    pub(super) caption: String,
+}
+
+/// The hardness series of the report input; `None` when the case has no comparable readings.
+pub(super) fn hardness_series(input: &ReportInput) -> Result<Option<HardnessSeries>, ReportError> {
+    let Some(hardness) = input
+        .diagnosis
+        .evidence
+        .as_ref()
+        .and_then(|e| e.hardness.as_ref())
+        .filter(|h| !h.points.is_empty())
+    else {
+        return Ok(None);
+    };
+    if input.profile.radius.is_empty() {
+        return Err(ReportError::EmptyProfile);
+    }
+    series(hardness, &input.profile, input.units).map(Some)
+}
+
+fn series(
     hardness: &HardnessComparison,
     profile: &Profile,
     units: crate::units::UnitSystem,
-) -> Result<HardnessPlot, ReportError> {
+) -> Result<HardnessSeries, ReportError> {
     let x_unit = length_unit(units);
     let scale = scale_of(hardness, units);
     let readings: Vec<(f64, f64)> = hardness
@@ -134,6 +152,35 @@ fn draw(
         Scale::Shape { .. } => "Softest 0 … hardest 1".to_string(),
     };
 
+    let caption = match scale {
+        Scale::Calibrated(_) => "Hardness readings turned into interlayer pressure through the \
+             tester calibration (points), over the computed interlayer pressure (line), against \
+             roll diameter."
+            .to_string(),
+        Scale::Shape { .. } => "Hardness readings (points) over the computed interlayer pressure \
+             (line), against roll diameter. Without a tester calibration both are scaled to \
+             compare shapes: the softest reading is 0 and the hardest 1; the computed pressure \
+             is 0 at its lowest and 1 at its highest value at the reading diameters, so the line \
+             can leave 0 … 1 between them."
+            .to_string(),
+    };
+    Ok(HardnessSeries {
+        readings,
+        computed,
+        x_range,
+        y_range,
+        x_unit,
+        y_desc,
+        caption,
+    })
+}
+
+/// The SVG plot of the series.
+fn draw(series: HardnessSeries) -> Result<HardnessPlot, ReportError> {
+    let x_unit = series.x_unit;
+    let (readings, computed) = (series.readings, series.computed);
+    let (x_range, y_range) = (series.x_range, series.y_range);
+    let (y_desc, caption) = (series.y_desc, series.caption);
     let mut svg = String::new();
     {
         let root = SVGBackend::with_string(&mut svg, PLOT_SIZE).into_drawing_area();
@@ -190,18 +237,6 @@ fn draw(
         draw_key(&key_area, &key).map_err(plot_error)?;
         root.present().map_err(plot_error)?;
     }
-    let caption = match scale {
-        Scale::Calibrated(_) => "Hardness readings turned into interlayer pressure through the \
-             tester calibration (points), over the computed interlayer pressure (line), against \
-             roll diameter."
-            .to_string(),
-        Scale::Shape { .. } => "Hardness readings (points) over the computed interlayer pressure \
-             (line), against roll diameter. Without a tester calibration both are scaled to \
-             compare shapes: the softest reading is 0 and the hardest 1; the computed pressure \
-             is 0 at its lowest and 1 at its highest value at the reading diameters, so the line \
-             can leave 0 … 1 between them."
-            .to_string(),
-    };
     Ok(HardnessPlot { svg, caption })
 }
 

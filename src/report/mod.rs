@@ -13,11 +13,12 @@ pub mod measured_plot;
 mod past_section;
 pub mod plots;
 mod prepare;
+pub mod text_chart;
 
 pub use document::{
-    ASSUMED_DISCOUNT, AssumedShare, CaseSummary, CauseEntry, InputLine, MODEL_LIMITS,
-    MeasuredSection, ProfilePoint, Quantity, ReasonEntry, RemedyComparisonSummary, RemedyEntry,
-    ReportDocument, StressSummary, ZoneSummary, build_document,
+    ASSUMED_DISCOUNT, AssumedShare, CaseSummary, CauseEntry, InputLine, MODEL_LIMITS, MarginLine,
+    MarginsSection, MeasuredSection, ProfilePoint, Quantity, ReasonEntry, RemedyComparisonSummary,
+    RemedyEntry, ReportDocument, StressSummary, ZoneSummary, build_document, margins_section,
 };
 pub use prepare::{PrepareOptions, Solved, comparison, prepare, prepare_from_path, solved_report};
 
@@ -167,7 +168,7 @@ pub enum ReportError {
 pub fn render(input: &ReportInput, format: Format) -> Result<String, ReportError> {
     let document = build_document(input)?;
     match format {
-        Format::Markdown => Ok(markdown::render(&document)),
+        Format::Markdown => Ok(markdown::render(&document, &text_chart::charts(input)?)),
         Format::Json => json::render(&document),
         Format::Html => {
             let pressure = plots::pressure_svg(input)?;

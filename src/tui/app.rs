@@ -12,8 +12,8 @@ use crate::units::UnitSystem;
 pub use super::component::{OpenPurpose, PendingAction, Screen};
 pub use super::popups::{
     CalibratePopup, ConfirmPopup, FilePopup, FilePurpose, HelpPopup, HistoryPopup, HistoryView,
-    MeasurePopup, OpenPopup, PathPrompt, Popup, StackFit, StoryPopup, TrainingPopup, WalkStage,
-    WalkthroughRun,
+    MarginsPopup, MeasurePopup, OpenPopup, PathPrompt, Popup, StackFit, StoryPopup, TrainingPopup,
+    WalkStage, WalkthroughRun,
 };
 pub use super::screens::inputs::InputsScreen;
 pub use super::screens::results::{ResultsFocus, ResultsScreen};
@@ -44,6 +44,7 @@ pub const GLOBAL_KEYS: &[Binding] = &[
     Binding::help("F7", "the complaint's story and the complaint record"),
     Binding::help("F8", "the plant's complaint history, similar complaints"),
     Binding::help("F9", "measurements on the roll, against the computed"),
+    Binding::help("F10", "margins against each failure (telescoping, slip, starring, core crush)"),
     Binding::both(ANY, "^Q", "quit", "Ctrl-Q (q off text)", "quit — asks when there are unsaved changes"),
 ];
 
@@ -359,6 +360,7 @@ impl App {
                 let popup = MeasurePopup::open(&self.session);
                 self.popups.push(Popup::Measure(Box::new(popup)));
             }
+            Key::F(10) => self.popups.push(Popup::Margins(MarginsPopup::default())),
             Key::Ctrl('u') => {
                 self.session.units = match self.session.units {
                     UnitSystem::Si => UnitSystem::Us,

@@ -666,6 +666,17 @@ fn event_inputs_reach_the_mechanics() {
         "/tests/fixtures/complete_newsprint.yaml"
     ))
     .unwrap();
+    // The fixture gives every event; take them out to see the defaults.
+    let event_keys = [
+        "  stop_time:",
+        "  emergency_stop_time:",
+        "  unwind_tension:",
+    ];
+    let text: String = text
+        .lines()
+        .filter(|l| !event_keys.iter().any(|k| l.starts_with(k)))
+        .map(|l| format!("{l}\n"))
+        .collect();
     let plain = Case::from_yaml_str(&text, "plain.yaml")
         .unwrap()
         .resolve()
@@ -674,6 +685,25 @@ fn event_inputs_reach_the_mechanics() {
     assert_eq!(events.normal_stop_time, 20.0);
     assert_eq!(events.emergency_stop_time, DEFAULT_EMERGENCY_STOP_TIME);
     assert_eq!(events.unwind_tension, None);
+    // Each default the mechanics take is listed as assumed, like any other left-out value.
+    for (path, value) in [
+        ("winding.stop_time", "20 s"),
+        ("winding.emergency_stop_time", "4 s"),
+        ("winding.unwind_tension", "as wound at the outside"),
+    ] {
+        let assumed = plain.assumed.iter().find(|a| a.field == path);
+        assert!(
+            assumed.is_some_and(|a| a.is_default() && a.value == value),
+            "{path}: {assumed:?}"
+        );
+    }
+    let report_lines = rolltriage::report::AssumedShare::of(&plain);
+    assert!(
+        report_lines
+            .labels
+            .iter()
+            .any(|l| l == "Emergency stop time")
+    );
 
     let with = text.replace(
         "acceleration_time: 20",

@@ -126,3 +126,35 @@ fn calibrated_readings_share_the_pressure_axis() {
         assert!((drawn - e).abs() < 0.02, "{drawn} vs {e}");
     }
 }
+
+/// The Markdown report's text charts of the soft measured case: pressure, hoop stress and the
+/// hardness readings (o) over the computed pressure (*), on the scale of the SVG plot; the
+/// readings sit on the chart where the SVG has its circles (same series). A case without
+/// measurements has no hardness chart.
+#[test]
+fn markdown_text_charts_of_the_soft_measured_case() {
+    use rolltriage::report::text_chart;
+    let input = input("harbour_newsprint_soft_measured.yaml");
+    let charts = text_chart::charts(&input).unwrap();
+    let hardness = charts
+        .hardness
+        .clone()
+        .expect("the case has hardness readings");
+    let plot = measured_plot::hardness_svg(&input).unwrap().unwrap();
+    // One mark per reading (they fall in different columns), as the SVG has one circle each.
+    let block = hardness.split("```text").nth(1).unwrap_or_default();
+    assert_eq!(
+        block.matches('o').count(),
+        circles(&plot.svg).len(),
+        "{hardness}"
+    );
+    insta::assert_snapshot!("markdown_pressure_chart", charts.pressure);
+    insta::assert_snapshot!("markdown_hoop_chart", charts.hoop);
+    insta::assert_snapshot!("markdown_hardness_chart", hardness);
+    let markdown = render(&input, Format::Markdown).unwrap();
+    assert!(markdown.contains(&charts.pressure));
+    assert!(markdown.contains(&charts.hoop));
+    assert!(markdown.contains(&hardness));
+    let plain = text_chart::charts(&self::input("harbour_newsprint_telescoping.yaml")).unwrap();
+    assert!(plain.hardness.is_none());
+}

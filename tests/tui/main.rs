@@ -9,6 +9,7 @@ mod fixtures;
 mod tui_support;
 
 mod job;
+mod margins;
 mod measure;
 mod operator;
 mod plot_labels;

@@ -528,8 +528,10 @@ pub const TEMPERATURE: Field = Field {
 pub const ACCELERATION: Field = Field {
     form: Some("Run-up time (s)"),
     range: Some(plain_above(0.0, 3600.0)),
-    default: Rule("not used"),
-    help: "Time to reach line speed in seconds (acceleration torque check).",
+    default: Rule(
+        "20 s for the layer-slip check (assumed; docs/theory.md §5); the acceleration-torque share needs a given time",
+    ),
+    help: "Time to reach line speed in seconds (acceleration torque and layer-slip checks).",
     example: "20",
     ..plain("winding.acceleration_time", "Time to line speed", Number)
 };

@@ -502,6 +502,12 @@ impl Resolver {
         // Listed as assumed when not given; the mechanics take the same default.
         let shock_given = winding.handling_shock_factor;
         self.number_or(&reg::SHOCK_FACTOR, shock_given, None, None)?;
+        self.assume_events(
+            acceleration_time,
+            stop_time,
+            emergency_stop_time,
+            unwind_tension,
+        );
         Ok(ResolvedWinding {
             handling_shock_factor: shock_given,
             stop_time,
@@ -521,7 +527,40 @@ impl Resolver {
         })
     }
 
-    /// The tension upset bands, diameters turned into radii.
+    /// The slip-check events the case leaves out, listed as assumed with the defaults the
+    /// mechanics take (`mechanics::Events`, docs/theory.md §5).
+    fn assume_events(
+        &mut self,
+        run_up: Option<f64>,
+        stop: Option<f64>,
+        emergency: Option<f64>,
+        unwind: Option<f64>,
+    ) {
+        use crate::presets::{DEFAULT_EMERGENCY_STOP_TIME, DEFAULT_RAMP_TIME};
+        let seconds = |t: f64| format!("{t} s");
+        if run_up.is_none() {
+            let value = seconds(DEFAULT_RAMP_TIME.value);
+            self.assume(reg::ACCELERATION.path, value, "", DEFAULT_RAMP_TIME.source);
+        }
+        if stop.is_none() {
+            let (value, source) = match run_up {
+                Some(t) => (seconds(t), "the run-up time"),
+                None => (seconds(DEFAULT_RAMP_TIME.value), DEFAULT_RAMP_TIME.source),
+            };
+            self.assume(reg::STOP_TIME.path, value, "", source);
+        }
+        if emergency.is_none() {
+            let value = seconds(DEFAULT_EMERGENCY_STOP_TIME.value);
+            let source = DEFAULT_EMERGENCY_STOP_TIME.source;
+            self.assume(reg::EMERGENCY_STOP_TIME.path, value, "", source);
+        }
+        if unwind.is_none() {
+            let value = "as wound at the outside".to_string();
+            let source = "default: the tension the outside was wound at";
+            self.assume(reg::UNWIND_TENSION.path, value, "", source);
+        }
+    }
+
     fn upsets(
         &mut self,
         winding: &WindingInput,

@@ -49,22 +49,20 @@ pub fn sections() -> Vec<(&'static str, Vec<Hint>)> {
         ("Complaint & story (F7)", help_entries(super::story::KEYS)),
         ("Complaint history (F8)", help_entries(super::history::KEYS)),
         ("Measurements (F9)", help_entries(super::measure::KEYS)),
+        ("Margins (F10)", help_entries(super::margins::KEYS)),
         ("Reading the plots", PLOT_LEGEND.to_vec()),
     ]
 }
 
 impl Component for HelpPopup {
     fn on_key(&mut self, key: Key, ctx: &mut Session) -> Handled {
-        match key {
-            Key::Up => self.scroll = self.scroll.saturating_sub(1),
-            Key::Down => self.scroll = self.scroll.saturating_add(1).min(200),
-            Key::PageUp => self.scroll = self.scroll.saturating_sub(10),
-            Key::PageDown => self.scroll = self.scroll.saturating_add(10).min(200),
-            Key::Home => self.scroll = 0,
-            Key::Esc | Key::F(1) | Key::Char('?') | Key::Char('q') | Key::Enter => {
-                ctx.push(Action::Close)
-            }
-            _ => {}
+        if !super::scroll_key(&mut self.scroll, key, 200)
+            && matches!(
+                key,
+                Key::Esc | Key::F(1) | Key::Char('?') | Key::Char('q') | Key::Enter
+            )
+        {
+            ctx.push(Action::Close);
         }
         Handled::Yes
     }

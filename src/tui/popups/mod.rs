@@ -6,6 +6,7 @@ pub mod confirm;
 pub mod edit_field;
 pub mod help;
 pub mod history;
+pub mod margins;
 pub mod measure;
 pub mod measure_rows;
 pub mod measure_view;
@@ -22,6 +23,7 @@ pub use calibrate::{CalibratePopup, StackFit};
 pub use confirm::ConfirmPopup;
 pub use help::HelpPopup;
 pub use history::{HistoryPopup, HistoryView};
+pub use margins::MarginsPopup;
 pub use measure::MeasurePopup;
 pub use open::OpenPopup;
 pub use prompt::{FilePopup, FilePurpose, PathPrompt};
@@ -53,6 +55,8 @@ pub enum Popup {
     History(Box<HistoryPopup>),
     /// Measurements on the bad roll, and measured against computed.
     Measure(Box<MeasurePopup>),
+    /// Margins against each failure mechanism of the solved roll.
+    Margins(MarginsPopup),
 }
 
 /// Run `$body` with `$p` bound to the popup's own component.
@@ -69,8 +73,23 @@ macro_rules! each_popup {
             Popup::Story($p) => $body,
             Popup::History($p) => $body,
             Popup::Measure($p) => $body,
+            Popup::Margins($p) => $body,
         }
     };
+}
+
+/// The scrolling keys of a text popup (↑↓ PgUp PgDn Home) applied to `scroll`, at most `max`;
+/// false for any other key.
+pub fn scroll_key(scroll: &mut u16, key: Key, max: u16) -> bool {
+    *scroll = match key {
+        Key::Up => scroll.saturating_sub(1),
+        Key::Down => scroll.saturating_add(1).min(max),
+        Key::PageUp => scroll.saturating_sub(10),
+        Key::PageDown => scroll.saturating_add(10).min(max),
+        Key::Home => 0,
+        _ => return false,
+    };
+    true
 }
 
 impl Popup {
