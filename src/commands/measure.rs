@@ -49,7 +49,10 @@ pub struct CompareArgs {
 
 /// The units of the evidence text: `--units` when given, else the units most of the case's
 /// measurements are typed in ("39.8 in", "35000 ft", "1150 lb" read as US), else SI.
-pub fn chosen_units(given: Option<super::units_arg::UnitsArg>, case: &Case) -> rolltriage::units::UnitSystem {
+pub fn chosen_units(
+    given: Option<super::units_arg::UnitsArg>,
+    case: &Case,
+) -> rolltriage::units::UnitSystem {
     match given {
         Some(units) => units.system(),
         None => typed_units(case).unwrap_or(rolltriage::units::UnitSystem::Si),
