@@ -11,6 +11,7 @@ mod tui_support;
 mod job;
 mod margins;
 mod measure;
+mod numbering;
 mod operator;
 mod plot_labels;
 mod screens;

@@ -461,6 +461,9 @@ fn render_causes(
             "No cause stands out for these symptoms and inputs.",
         ));
     }
+    // Numbers right-aligned to the widest with a space after the marker, so "▸ 9." and
+    // "▸10." never run together and the bars stay in one column.
+    let number_width = diagnosis.causes.len().to_string().len() + 1;
     for (i, cause) in diagnosis.causes.iter().enumerate() {
         let selected = i == state.cause;
         if selected {
@@ -476,7 +479,7 @@ fn render_causes(
         lines.push(Line::from(vec![
             Span::styled(
                 format!(
-                    "{marker}{:>2}. {} {:>3.0}% ",
+                    "{marker}{:>number_width$}. {} {:>3.0}% ",
                     i + 1,
                     belief_bar(cause.belief * factor),
                     cause.belief * factor * 100.0
@@ -545,7 +548,8 @@ fn render_causes(
         {
             8
         } else {
-            16
+            // Under the title: marker, number, ". ", bar, " ", percentage.
+            14 + number_width
         };
         hung.extend(super::hang(line, width, indent));
     }
