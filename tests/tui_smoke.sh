@@ -79,7 +79,8 @@ screen | grep -qF "Interlayer pressure" || fail "no pressure plot"
 screen | grep -qF "crush rating" || fail "no core crush rating line"
 # Expand the first cause's reasons.
 T send-keys -t smoke Enter
-wait_for "▾ 1."
+# (numbers right-align to the widest: "▾ 1." or "▾  1." with ten causes or more)
+wait_for "▾ "
 
 # Quit: the case changed, so the UI asks; discard and leave.
 T send-keys -t smoke C-q

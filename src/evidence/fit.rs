@@ -70,7 +70,7 @@ pub struct Estimate {
 /// One datum of the fit: measured against fitted.
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct FitResidual {
-    /// "mean radial compression" or "pressure at Ø 612 mm".
+    /// "mean radial compression" or "pressure at ⌀ 612 mm".
     pub what: String,
     /// SI (share or Pa).
     pub measured: f64,
@@ -441,7 +441,7 @@ fn fit_once(
                 what: match d {
                     Datum::Compression { .. } => "mean radial compression".into(),
                     Datum::Pressure { radius, .. } => {
-                        format!("pressure at Ø {:.0} mm", 2e3 * radius)
+                        format!("pressure at ⌀ {:.0} mm", 2e3 * radius)
                     }
                 },
                 measured,
@@ -531,7 +531,7 @@ impl InverseEstimate {
                 };
                 let what = match (units, r.diameter) {
                     (UnitSystem::Us, Some(d)) => {
-                        format!("pressure at Ø {}", compact_length(d, units))
+                        format!("pressure at ⌀ {}", compact_length(d, units))
                     }
                     _ => r.what.clone(),
                 };

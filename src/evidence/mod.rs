@@ -314,7 +314,7 @@ fn diameter_note(d: &DensityComparison, units: UnitSystem) -> String {
     )
 }
 
-/// "Ø …" of the softest reading, the computed lowest pressure, the hardest reading and the
+/// "⌀ …" of the softest reading, the computed lowest pressure, the hardest reading and the
 /// computed highest pressure.
 fn extremes(h: &HardnessComparison, units: UnitSystem) -> [String; 4] {
     [
@@ -323,7 +323,7 @@ fn extremes(h: &HardnessComparison, units: UnitSystem) -> [String; 4] {
         h.hardest_diameter,
         h.computed_hardest_diameter,
     ]
-    .map(|d| format!("Ø {}", mm(d, units)))
+    .map(|d| format!("⌀ {}", mm(d, units)))
 }
 
 /// "hard lanes [1, 5], soft lanes [3], both edges hard".
@@ -373,13 +373,13 @@ impl Evidence {
         if let Some(d) = &self.density {
             let detail = match (d.measured_density, d.computed_density) {
                 (Some(m), Some(c)) => format!(
-                    "measured {m:.0} kg/m³ (Ø {} for {}), computed {c:.0} kg/m³ (Ø {})",
+                    "measured {m:.0} kg/m³ (⌀ {} for {}), computed {c:.0} kg/m³ (⌀ {})",
                     mm(d.measured_diameter, units),
                     web_length(d.length, units),
                     mm(d.computed_diameter, units)
                 ),
                 _ => format!(
-                    "measured Ø {} for {} (compression {}), computed Ø {} (compression {})",
+                    "measured ⌀ {} for {} (compression {}), computed ⌀ {} (compression {})",
                     mm(d.measured_diameter, units),
                     web_length(d.length, units),
                     pct(d.measured_compression),
@@ -414,7 +414,7 @@ impl Evidence {
             if let Some(dip) = h.unexplained_dip {
                 let detail = match &h.soft_band {
                     Some(b) => format!(
-                        "soft band at Ø {}: readings dip {} of their range, computed pressure {}",
+                        "soft band at ⌀ {}: readings dip {} of their range, computed pressure {}",
                         mm(b.diameter, units),
                         pct(b.depth),
                         pct(b.computed_depth)
@@ -445,7 +445,7 @@ impl Evidence {
                     "slip_location_match",
                     if agrees { 1.0 } else { 0.0 },
                     format!(
-                        "bends at {:.0}–{:.0} % of the build; computed weakest interface at Ø {} ({:.0} % of the build)",
+                        "bends at {:.0}–{:.0} % of the build; computed weakest interface at ⌀ {} ({:.0} % of the build)",
                         a * 100.0,
                         b * 100.0,
                         mm(s.weakest_diameter, units),
@@ -526,7 +526,7 @@ impl Evidence {
         let mut out = Vec::new();
         if let Some(d) = &self.density {
             let mut line = format!(
-                "Roll size: {} wound to Ø {} measured; the model predicts Ø {}. Mean radial \
+                "Roll size: {} wound to ⌀ {} measured; the model predicts ⌀ {}. Mean radial \
                  compression {} measured (± {}), {} computed; wound density measured/computed {:.3}.",
                 web_length(d.length, units),
                 mm(d.measured_diameter, units),
@@ -570,14 +570,14 @@ impl Evidence {
             ));
             if let Some(b) = &h.soft_band {
                 line.push_str(&format!(
-                    " Soft band at Ø {} the model does not have.",
+                    " Soft band at ⌀ {} the model does not have.",
                     mm(b.diameter, units)
                 ));
             }
             out.push(line);
             for p in &h.points {
                 out.push(format!(
-                    "  Ø {:>8}  reading {:>7}  {}computed {}",
+                    "  ⌀ {:>8}  reading {:>7}  {}computed {}",
                     mm(p.diameter, units),
                     p.reading,
                     p.measured_pressure
@@ -607,7 +607,7 @@ impl Evidence {
         if let Some(s) = &self.end_line {
             let mut line = format!(
                 "Line on the roll end: {}{}. The model's weakest interface (lowest friction torque) \
-                 is at Ø {}, weak from Ø {} to Ø {}",
+                 is at ⌀ {}, weak from ⌀ {} to ⌀ {}",
                 bend_words(&s.observed, units),
                 s.offset
                     .map(|o| format!(", offset {}", mm(o, units)))
@@ -720,7 +720,7 @@ impl Evidence {
         if let Some(h) = &self.hardness {
             for p in &h.points {
                 row(
-                    format!("Hardness at Ø {}", mm(p.diameter, units)),
+                    format!("Hardness at ⌀ {}", mm(p.diameter, units)),
                     match p.measured_pressure {
                         Some(m) => format!("{} (≈ {})", p.reading, kpa(m, units)),
                         None => format!("{} (tester scale)", p.reading),
@@ -748,7 +748,7 @@ impl Evidence {
             row(
                 "Line on the roll end".into(),
                 bend_words(&s.observed, units),
-                format!("weakest interface at Ø {}", mm(s.weakest_diameter, units)),
+                format!("weakest interface at ⌀ {}", mm(s.weakest_diameter, units)),
             );
         }
         if let Some(c) = &self.core_bore {
@@ -778,7 +778,7 @@ fn bend_words(place: &BendPlace, units: UnitSystem) -> String {
             from_diameter,
             to_diameter,
         } => format!(
-            "bends in a band from Ø {} to Ø {}",
+            "bends in a band from ⌀ {} to ⌀ {}",
             mm(*from_diameter, units),
             mm(*to_diameter, units)
         ),

@@ -26,8 +26,8 @@ fn compare(units: Option<&str>) -> String {
 #[test]
 fn us_units_print_inches_feet_psi_and_pli_and_no_si_units() {
     let text = compare(Some("us"));
-    // The case's roll was measured at Ø 1000 mm: 1000 / 25.4 = 39.37 in.
-    assert!(text.contains("wound to Ø 39.4 in measured"), "{text}");
+    // The case's roll was measured at ⌀ 1000 mm: 1000 / 25.4 = 39.37 in.
+    assert!(text.contains("wound to ⌀ 39.4 in measured"), "{text}");
     assert!(text.contains(" ft wound"), "{text}");
     assert!(text.contains(" psi"), "{text}");
     assert!(text.contains(" pli at the core"), "{text}");
@@ -83,15 +83,15 @@ fn diagnose_reasons_quote_the_measurement_in_the_chosen_units() {
     let si = run(&["diagnose", &case]);
     // 1000 mm = 39.37 in; 10700 m / 0.3048 = 35105 ft; 984 mm = 38.7 in.
     assert!(
-        si.contains("density_deviation = -2.9 (measured Ø 1000 mm for 10700 m"),
+        si.contains("density_deviation = -2.9 (measured ⌀ 1000 mm for 10700 m"),
         "{si}"
     );
     let us = run(&["diagnose", &case, "--units", "us"]);
     assert!(
-        us.contains("density_deviation = -2.9 (measured Ø 39.4 in for 35105 ft"),
+        us.contains("density_deviation = -2.9 (measured ⌀ 39.4 in for 35105 ft"),
         "{us}"
     );
-    assert!(us.contains("computed Ø 38.7 in"), "{us}");
+    assert!(us.contains("computed ⌀ 38.7 in"), "{us}");
     // The reasons and the evidence lines carry no SI length; the what-if lines are the
     // remedies' own (left as they are).
     for line in us.lines().filter(|l| !l.contains("what-if")) {
@@ -102,7 +102,7 @@ fn diagnose_reasons_quote_the_measurement_in_the_chosen_units() {
     // JSON stays SI.
     let json = run(&["diagnose", &case, "--format", "json"]);
     assert!(
-        json.contains("measured Ø 1000 mm for 10700 m"),
+        json.contains("measured ⌀ 1000 mm for 10700 m"),
         "JSON not SI"
     );
 }
@@ -114,18 +114,18 @@ fn a_case_typed_in_inches_and_feet_is_answered_in_inches_and_feet() {
     let case = case.to_str().unwrap();
     let diagnosed = run(&["diagnose", case]);
     assert!(
-        diagnosed.contains("measured Ø 39.4 in for 35105 ft"),
+        diagnosed.contains("measured ⌀ 39.4 in for 35105 ft"),
         "{diagnosed}"
     );
     assert!(
-        diagnosed.contains("Roll size: 35105 ft wound to Ø 39.4 in"),
+        diagnosed.contains("Roll size: 35105 ft wound to ⌀ 39.4 in"),
         "{diagnosed}"
     );
     let compared = run(&["compare", case, "--no-fit"]);
-    assert!(compared.contains("Softest at Ø 37.4 in"), "{compared}");
+    assert!(compared.contains("Softest at ⌀ 37.4 in"), "{compared}");
     // --units still decides when given.
     let si = run(&["compare", case, "--no-fit", "--units", "si"]);
-    assert!(si.contains("Roll size: 10700 m wound to Ø 1000 mm"), "{si}");
+    assert!(si.contains("Roll size: 10700 m wound to ⌀ 1000 mm"), "{si}");
     // The report follows the typed units too (Markdown, reasons and the measured section).
     let report = folder.path().join("report.md");
     run(&[
@@ -136,8 +136,8 @@ fn a_case_typed_in_inches_and_feet_is_answered_in_inches_and_feet() {
         "--no-what-if",
     ]);
     let text = std::fs::read_to_string(&report).unwrap();
-    assert!(text.contains("Ø 39.4 in for 35105 ft"), "{text}");
-    assert!(!text.contains("Ø 1000 mm"), "{text}");
+    assert!(text.contains("⌀ 39.4 in for 35105 ft"), "{text}");
+    assert!(!text.contains("⌀ 1000 mm"), "{text}");
 }
 
 /// Each conversion of the evidence texts, against NIST SP 811 appendix B factors:
@@ -177,8 +177,8 @@ fn evidence_details_convert_each_quantity() {
     };
     let us = detail(UnitSystem::Us);
     for said in [
-        "Ø 40 in for 10000 ft",
-        "Ø 39 in",
+        "⌀ 40 in for 10000 ft",
+        "⌀ 39 in",
         "0.02 in measured",
         "0.01 in computed",
         "100 psi",
@@ -187,8 +187,8 @@ fn evidence_details_convert_each_quantity() {
     }
     let si = detail(UnitSystem::Si);
     for said in [
-        "Ø 1016 mm for 3048 m",
-        "Ø 991 mm",
+        "⌀ 1016 mm for 3048 m",
+        "⌀ 991 mm",
         "0.51 mm measured",
         "0.25 mm computed",
         "689 kPa",
@@ -199,7 +199,7 @@ fn evidence_details_convert_each_quantity() {
     let reason = format!("0.979 ({})", evidence.indicators()[0].detail);
     let local = evidence.localise(&reason, UnitSystem::Us);
     assert!(
-        local.starts_with("0.979 (measured Ø 40 in for 10000 ft"),
+        local.starts_with("0.979 (measured ⌀ 40 in for 10000 ft"),
         "{local}"
     );
     assert_eq!(evidence.localise(&reason, UnitSystem::Si), reason);

@@ -288,7 +288,7 @@ fn the_inverse_estimate_is_the_one_compare_prints() {
     app.handle_key(Key::F(9));
     app.handle_key(Key::Char('v'));
     let screen = draw(&app, 120, 40);
-    for said in ["pli at the core", "35105 ft wound to Ø 39.4 in"] {
+    for said in ["pli at the core", "35105 ft wound to ⌀ 39.4 in"] {
         assert!(screen.contains(said), "{said} missing:\n{screen}");
     }
     assert!(!screen.contains(" mm"), "SI left in US units:\n{screen}");

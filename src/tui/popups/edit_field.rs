@@ -6,7 +6,7 @@
 use ratatui::buffer::Buffer;
 use ratatui::layout::Rect;
 use ratatui::text::{Line, Span};
-use ratatui::widgets::{Block, Clear, Paragraph, Widget, Wrap};
+use ratatui::widgets::{Block, Clear, Paragraph, Widget};
 
 use crate::tui::event::Key;
 use crate::tui::theme::Theme;
@@ -148,10 +148,8 @@ impl Frame {
         ))
     }
 
-    /// Draw the detail lines, wrapped.
+    /// Draw the detail lines, wrapped as the screens wrap (a number keeps its unit on its row).
     pub fn render_detail(&self, lines: Vec<Line<'_>>, buf: &mut Buffer) {
-        Paragraph::new(lines)
-            .wrap(Wrap { trim: false })
-            .render(self.detail, buf);
+        crate::tui::screens::wrapped(lines, false).render(self.detail, buf);
     }
 }

@@ -12,7 +12,7 @@
 use ratatui::buffer::Buffer;
 use ratatui::layout::Rect;
 use ratatui::text::{Line, Span};
-use ratatui::widgets::{Paragraph, Widget, Wrap};
+use ratatui::widgets::Widget;
 
 use crate::evidence::HardnessComparison;
 use crate::model::Profile;
@@ -93,8 +93,8 @@ pub fn plot_rows(
 
 fn diameter(metres: f64, units: UnitSystem) -> String {
     match units {
-        UnitSystem::Si => format!("Ø {:.0} mm", metres * 1e3),
-        UnitSystem::Us => format!("Ø {}", compact_length(metres, units)),
+        UnitSystem::Si => format!("⌀ {:.0} mm", metres * 1e3),
+        UnitSystem::Us => format!("⌀ {}", compact_length(metres, units)),
     }
 }
 
@@ -223,14 +223,16 @@ pub fn render(ctx: &Session, scroll: u16, theme: Theme, area: Rect, buf: &mut Bu
             theme.dim(),
         ))),
     }
-    Paragraph::new(lines)
-        .wrap(Wrap { trim: false })
+    // Through the screens' wrap so that a number keeps its unit on the same row.
+    crate::tui::screens::wrapped(lines, false)
         .scroll((scroll, 0))
         .render(area, buf);
 }
 
 fn text_only(text: &str, theme: Theme, area: Rect, buf: &mut Buffer) {
-    Paragraph::new(Line::from(Span::styled(text.to_string(), theme.dim())))
-        .wrap(Wrap { trim: false })
-        .render(area, buf);
+    crate::tui::screens::wrapped(
+        Line::from(Span::styled(text.to_string(), theme.dim())),
+        false,
+    )
+    .render(area, buf);
 }

@@ -96,13 +96,20 @@ fn range_of(values: impl Iterator<Item = f64>) -> Option<(f64, f64)> {
         })
 }
 
-/// A short label for a band `width` cells wide.
+/// A short label for a band `width` cells wide: the name, else its abbreviation (a whole
+/// short form with its full stop, never a cut word such as "sur"), else its initial in capitals.
 fn fitted_label(label: &str, width: usize) -> String {
-    let len = label.chars().count();
-    if len <= width {
+    let short = match label {
+        "surface" => "surf.",
+        "middle" => "mid.",
+        "outer" => "out.",
+        "inner" => "inn.",
+        _ => "",
+    };
+    if label.chars().count() <= width {
         label.to_string()
-    } else if width >= 3 {
-        label.chars().take(3).collect()
+    } else if !short.is_empty() && short.chars().count() <= width {
+        short.to_string()
     } else if width >= 1 {
         label.chars().take(1).collect::<String>().to_uppercase()
     } else {
@@ -450,4 +457,33 @@ pub fn legend(items: &[(&str, &str)]) -> Line<'static> {
         .collect::<Vec<_>>()
         .join("  ");
     Line::from(text)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::fitted_label;
+
+    /// A zone name that does not fit shows whole: the name, its abbreviation or its initial.
+    #[test]
+    fn zone_labels_are_never_cut_words() {
+        assert_eq!(fitted_label("surface", 7), "surface");
+        assert_eq!(fitted_label("surface", 6), "surf.");
+        assert_eq!(fitted_label("surface", 4), "S");
+        assert_eq!(fitted_label("outer", 4), "out.");
+        assert_eq!(fitted_label("outer", 3), "O");
+        assert_eq!(fitted_label("middle", 5), "mid.");
+        assert_eq!(fitted_label("core", 3), "C");
+        assert_eq!(fitted_label("surface", 0), "");
+        for name in ["core", "inner", "middle", "outer", "surface"] {
+            for width in 0..9 {
+                let shown = fitted_label(name, width);
+                assert!(shown.chars().count() <= width, "{name} in {width}: {shown}");
+                let whole = shown == name
+                    || shown.ends_with('.')
+                    || (shown.chars().count() == 1 && shown.chars().all(char::is_uppercase))
+                    || shown.is_empty();
+                assert!(whole, "{name} in {width} cells shows a cut word {shown:?}");
+            }
+        }
+    }
 }

@@ -61,7 +61,12 @@ pub(super) fn render_choices(
         } else {
             "•"
         };
-        lines.push(Line::from(Span::styled(format!("{mark} {text}"), style)));
+        // A long remedy wraps under its text, not back under the mark (as the results lists).
+        lines.extend(crate::tui::screens::hang(
+            Line::from(Span::styled(format!("{mark} {text}"), style)),
+            usize::from(area.width.saturating_sub(2)),
+            2,
+        ));
     }
     if let (Some(text), Some(setting)) = (&state.typing, Setting::ALL.get(state.row)) {
         lines.push(Line::from(vec![
