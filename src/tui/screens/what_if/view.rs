@@ -84,7 +84,8 @@ pub(super) fn render_choices(
             .unwrap_or("Enter applies the remedy's setting change");
         lines.push(Line::from(Span::styled(step_help, theme.dim())));
     }
-    crate::tui::screens::wrapped(lines, true)
+    // No trimming: it would strip the hanging indent of a wrapped remedy.
+    crate::tui::screens::wrapped(lines, false)
         .block(Block::bordered().title(" Change one setting "))
         .render(area, buf);
 }
