@@ -282,6 +282,9 @@ fn write_report(
             writeln!(out, "<li>{}</li>", escape(line))?;
         }
         writeln!(out, "</ul>")?;
+        if let Some(estimate) = &measured.estimate {
+            write_estimate(out, estimate)?;
+        }
         if let Some(plot) = hardness_plot {
             writeln!(out, "<figure id=\"hardness-plot\">")?;
             writeln!(out, "{}", plot.svg)?;
@@ -471,4 +474,17 @@ fn write_margins(out: &mut String, margins: &MarginsSection) -> std::fmt::Result
     }
     writeln!(out, "</table>")?;
     writeln!(out, "<p>{}</p>", escape(margins.note()))
+}
+
+/// What the roll says about its winding: the inverse estimate's lines, residuals nested.
+fn write_estimate(out: &mut String, estimate: &super::EstimateSection) -> std::fmt::Result {
+    writeln!(out, "<h3 id=\"estimate\">What the roll says about its winding</h3>")?;
+    writeln!(out, "<ul>")?;
+    for line in &estimate.lines {
+        match line.strip_prefix("  ") {
+            Some(detail) => writeln!(out, "<li class=\"detail\">{}</li>", escape(detail))?,
+            None => writeln!(out, "<li>{}</li>", escape(line))?,
+        }
+    }
+    writeln!(out, "</ul>")
 }

@@ -199,6 +199,9 @@ fn write_report(out: &mut String, doc: &ReportDocument, charts: &TextCharts) -> 
             writeln!(out, "- {line}")?;
         }
         writeln!(out)?;
+        if let Some(estimate) = &measured.estimate {
+            write_estimate(out, estimate)?;
+        }
         if let Some(chart) = &charts.hardness {
             writeln!(out, "{chart}")?;
         }
@@ -351,5 +354,18 @@ fn write_margins(out: &mut String, margins: &MarginsSection) -> std::fmt::Result
     }
     writeln!(out)?;
     writeln!(out, "{}", margins.note())?;
+    writeln!(out)
+}
+
+/// What the roll says about its winding: the inverse estimate's lines, residuals nested.
+fn write_estimate(out: &mut String, estimate: &super::EstimateSection) -> std::fmt::Result {
+    writeln!(out, "### What the roll says about its winding")?;
+    writeln!(out)?;
+    for line in &estimate.lines {
+        match line.strip_prefix("  ") {
+            Some(detail) => writeln!(out, "  - {detail}")?,
+            None => writeln!(out, "- {line}")?,
+        }
+    }
     writeln!(out)
 }

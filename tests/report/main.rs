@@ -6,5 +6,6 @@
 mod demo;
 #[path = "../shared/fixtures.rs"]
 mod fixtures;
+mod estimate;
 mod measured_plot;
 mod render;
