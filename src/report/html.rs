@@ -282,14 +282,14 @@ fn write_report(
             writeln!(out, "<li>{}</li>", escape(line))?;
         }
         writeln!(out, "</ul>")?;
-        if let Some(estimate) = &measured.estimate {
-            write_estimate(out, estimate)?;
-        }
         if let Some(plot) = hardness_plot {
             writeln!(out, "<figure id=\"hardness-plot\">")?;
             writeln!(out, "{}", plot.svg)?;
             writeln!(out, "<figcaption>{}</figcaption>", escape(&plot.caption))?;
             writeln!(out, "</figure>")?;
+        }
+        if let Some(estimate) = &measured.estimate {
+            write_estimate(out, estimate)?;
         }
     }
     writeln!(out, "<h2 id=\"causes\">Likely causes</h2>")?;
@@ -478,7 +478,10 @@ fn write_margins(out: &mut String, margins: &MarginsSection) -> std::fmt::Result
 
 /// What the roll says about its winding: the inverse estimate's lines, residuals nested.
 fn write_estimate(out: &mut String, estimate: &super::EstimateSection) -> std::fmt::Result {
-    writeln!(out, "<h3 id=\"estimate\">What the roll says about its winding</h3>")?;
+    writeln!(
+        out,
+        "<h3 id=\"estimate\">What the roll says about its winding</h3>"
+    )?;
     writeln!(out, "<ul>")?;
     for line in &estimate.lines {
         match line.strip_prefix("  ") {

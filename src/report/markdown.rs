@@ -199,11 +199,11 @@ fn write_report(out: &mut String, doc: &ReportDocument, charts: &TextCharts) -> 
             writeln!(out, "- {line}")?;
         }
         writeln!(out)?;
-        if let Some(estimate) = &measured.estimate {
-            write_estimate(out, estimate)?;
-        }
         if let Some(chart) = &charts.hardness {
             writeln!(out, "{chart}")?;
+        }
+        if let Some(estimate) = &measured.estimate {
+            write_estimate(out, estimate)?;
         }
     }
 

@@ -63,7 +63,13 @@ fn report_estimate_equals_the_compare_command() {
     assert!(html.contains("<h3 id=\"estimate\">What the roll says about its winding</h3>"));
     for line in lines {
         assert!(markdown.contains(&format!("- {line}\n")), "{line}");
-        let escaped = line.replace('&', "&amp;").replace('<', "&lt;").replace('>', "&gt;");
+        // The HTML escapes as the report's writer does (& < > " ').
+        let escaped = line
+            .replace('&', "&amp;")
+            .replace('<', "&lt;")
+            .replace('>', "&gt;")
+            .replace('"', "&quot;")
+            .replace('\'', "&#39;");
         assert!(html.contains(&format!("{escaped}</li>")), "{line}");
     }
 }

@@ -4,8 +4,8 @@
 //! linked once per area instead of once per file. See DEVELOPERS.md, "Tests".
 
 mod demo;
+mod estimate;
 #[path = "../shared/fixtures.rs"]
 mod fixtures;
-mod estimate;
 mod measured_plot;
 mod render;
