@@ -46,6 +46,26 @@ fn write_report(
     tangential_svg: &str,
     hardness_plot: Option<&HardnessPlot>,
 ) -> std::fmt::Result {
+    write_head(out, doc)?;
+    write_case(out, doc)?;
+    write_sensitivity(out, doc)?;
+    write_complaint(out, doc)?;
+    super::past_section::html(out, doc)?;
+    write_stress(out, doc, pressure_svg, tangential_svg)?;
+    write_margins(out, &doc.margins)?;
+    write_measured(out, doc, hardness_plot)?;
+    write_causes(out, doc)?;
+    write_remedies(out, doc)?;
+    write_remedy_comparison(out, doc)?;
+    write_cautions(out, doc)?;
+    write_model_limits(out, doc)?;
+    writeln!(out, "</body>")?;
+    writeln!(out, "</html>")?;
+    Ok(())
+}
+
+/// The document head and the title, with when, by what and from which file the report was made.
+fn write_head(out: &mut String, doc: &ReportDocument) -> std::fmt::Result {
     let case = &doc.case;
     writeln!(out, "<!DOCTYPE html>")?;
     writeln!(out, "<html lang=\"en\">")?;
@@ -76,7 +96,12 @@ fn write_report(
             .map(|f| format!(" from <code>{}</code>", escape(f)))
             .unwrap_or_default()
     )?;
+    Ok(())
+}
 
+/// "Case": description, symptoms, answers, notes and the inputs, given or assumed.
+fn write_case(out: &mut String, doc: &ReportDocument) -> std::fmt::Result {
+    let case = &doc.case;
     writeln!(out, "<h2 id=\"case\">Case</h2>")?;
     if let Some(description) = &case.description {
         writeln!(out, "<p>{}</p>", escape(description))?;
@@ -132,6 +157,11 @@ fn write_report(
         "<p>{}</p>",
         escape(&super::document::assumed_summary(&case.inputs))
     )?;
+    Ok(())
+}
+
+/// "What the answer rests on": the assumed inputs the ranking depends on most.
+fn write_sensitivity(out: &mut String, doc: &ReportDocument) -> std::fmt::Result {
     if let Some(sensitivity) = &doc.sensitivity {
         writeln!(out, "<h3 id=\"rests-on\">What the answer rests on</h3>")?;
         let mut in_list = false;
@@ -157,7 +187,11 @@ fn write_report(
             writeln!(out, "</ul>")?;
         }
     }
+    Ok(())
+}
 
+/// "Complaint record": the case's complaint lines, when it has any.
+fn write_complaint(out: &mut String, doc: &ReportDocument) -> std::fmt::Result {
     if !doc.complaint.is_empty() {
         writeln!(out, "<h2 id=\"complaint\">Complaint record</h2>")?;
         writeln!(out, "<table id=\"complaint-record\">")?;
@@ -171,8 +205,16 @@ fn write_report(
         }
         writeln!(out, "</table>")?;
     }
-    super::past_section::html(out, doc)?;
+    Ok(())
+}
 
+/// "Stress inside the roll": the summary figures, zones, warnings and the two plots.
+fn write_stress(
+    out: &mut String,
+    doc: &ReportDocument,
+    pressure_svg: &str,
+    tangential_svg: &str,
+) -> std::fmt::Result {
     let stress = &doc.stress;
     writeln!(out, "<h2 id=\"stress\">Stress inside the roll</h2>")?;
     writeln!(out, "<table id=\"stress-summary\">")?;
@@ -255,9 +297,15 @@ fn write_report(
          scale.{after_note}</figcaption>"
     )?;
     writeln!(out, "</figure>")?;
+    Ok(())
+}
 
-    write_margins(out, &doc.margins)?;
-
+/// "Measured on the roll, against the model", with the hardness plot and the inverse estimate of the wound-in tension.
+fn write_measured(
+    out: &mut String,
+    doc: &ReportDocument,
+    hardness_plot: Option<&HardnessPlot>,
+) -> std::fmt::Result {
     if let Some(measured) = &doc.measured {
         writeln!(
             out,
@@ -288,7 +336,15 @@ fn write_report(
             writeln!(out, "<figcaption>{}</figcaption>", escape(&plot.caption))?;
             writeln!(out, "</figure>")?;
         }
+        if let Some(estimate) = &measured.estimate {
+            write_estimate(out, estimate)?;
+        }
     }
+    Ok(())
+}
+
+/// "Likely causes": each cause with its mechanism and the reasons for and against it.
+fn write_causes(out: &mut String, doc: &ReportDocument) -> std::fmt::Result {
     writeln!(out, "<h2 id=\"causes\">Likely causes</h2>")?;
     if doc.causes.is_empty() {
         writeln!(out, "<p>No cause reached a positive belief.</p>")?;
@@ -327,7 +383,11 @@ fn write_report(
         }
         writeln!(out, "</ul>")?;
     }
+    Ok(())
+}
 
+/// "Remedies, in the order to try", with predicted effects and cautions.
+fn write_remedies(out: &mut String, doc: &ReportDocument) -> std::fmt::Result {
     writeln!(
         out,
         "<h2 id=\"remedies\">Remedies, in the order to try</h2>"
@@ -383,7 +443,11 @@ fn write_report(
     if open_list {
         writeln!(out, "</ol>")?;
     }
+    Ok(())
+}
 
+/// "What if": the chosen remedy applied and re-solved, before against after.
+fn write_remedy_comparison(out: &mut String, doc: &ReportDocument) -> std::fmt::Result {
     if let Some(comparison) = &doc.remedy_comparison {
         writeln!(
             out,
@@ -408,7 +472,11 @@ fn write_report(
         }
         writeln!(out, "</table>")?;
     }
+    Ok(())
+}
 
+/// "Cautions": the diagnosis' cautions, or the general one when there are none.
+fn write_cautions(out: &mut String, doc: &ReportDocument) -> std::fmt::Result {
     writeln!(out, "<h2 id=\"cautions\">Cautions</h2>")?;
     writeln!(out, "<ul>")?;
     if doc.cautions.is_empty() {
@@ -427,15 +495,17 @@ fn write_report(
         )?;
     }
     writeln!(out, "</ul>")?;
+    Ok(())
+}
 
+/// "Limits of the model".
+fn write_model_limits(out: &mut String, doc: &ReportDocument) -> std::fmt::Result {
     writeln!(out, "<h2 id=\"limits\">Limits of the model</h2>")?;
     writeln!(out, "<ul>")?;
     for limit in &doc.model_limits {
         writeln!(out, "<li>{}</li>", escape(limit))?;
     }
     writeln!(out, "</ul>")?;
-    writeln!(out, "</body>")?;
-    writeln!(out, "</html>")?;
     Ok(())
 }
 
@@ -471,4 +541,20 @@ fn write_margins(out: &mut String, margins: &MarginsSection) -> std::fmt::Result
     }
     writeln!(out, "</table>")?;
     writeln!(out, "<p>{}</p>", escape(margins.note()))
+}
+
+/// What the roll says about its winding: the inverse estimate's lines, residuals nested.
+fn write_estimate(out: &mut String, estimate: &super::EstimateSection) -> std::fmt::Result {
+    writeln!(
+        out,
+        "<h3 id=\"estimate\">What the roll says about its winding</h3>"
+    )?;
+    writeln!(out, "<ul>")?;
+    for line in &estimate.lines {
+        match line.strip_prefix("  ") {
+            Some(detail) => writeln!(out, "<li class=\"detail\">{}</li>", escape(detail))?,
+            None => writeln!(out, "<li>{}</li>", escape(line))?,
+        }
+    }
+    writeln!(out, "</ul>")
 }

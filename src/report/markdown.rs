@@ -17,6 +17,24 @@ pub(super) fn render(doc: &ReportDocument, charts: &TextCharts) -> String {
 }
 
 fn write_report(out: &mut String, doc: &ReportDocument, charts: &TextCharts) -> std::fmt::Result {
+    write_title(out, doc)?;
+    write_case(out, doc)?;
+    write_sensitivity(out, doc)?;
+    write_complaint(out, doc)?;
+    super::past_section::markdown(out, doc)?;
+    write_stress(out, doc, charts)?;
+    write_margins(out, &doc.margins)?;
+    write_measured(out, doc, charts)?;
+    write_causes(out, doc)?;
+    write_remedies(out, doc)?;
+    write_remedy_comparison(out, doc)?;
+    write_cautions(out, doc)?;
+    write_model_limits(out, doc)?;
+    Ok(())
+}
+
+/// The title and the line saying when, by what and from which file the report was made.
+fn write_title(out: &mut String, doc: &ReportDocument) -> std::fmt::Result {
     let case = &doc.case;
     writeln!(out, "# Roll complaint report: {}", case.title)?;
     writeln!(out)?;
@@ -33,7 +51,12 @@ fn write_report(out: &mut String, doc: &ReportDocument, charts: &TextCharts) -> 
             .unwrap_or_default()
     )?;
     writeln!(out)?;
+    Ok(())
+}
 
+/// "Case": description, symptoms, answers, notes and the inputs, given or assumed.
+fn write_case(out: &mut String, doc: &ReportDocument) -> std::fmt::Result {
+    let case = &doc.case;
     writeln!(out, "## Case")?;
     writeln!(out)?;
     if let Some(description) = &case.description {
@@ -82,6 +105,11 @@ fn write_report(out: &mut String, doc: &ReportDocument, charts: &TextCharts) -> 
     writeln!(out)?;
     writeln!(out, "{}", super::document::assumed_summary(&case.inputs))?;
     writeln!(out)?;
+    Ok(())
+}
+
+/// "What the answer rests on": the assumed inputs the ranking depends on most.
+fn write_sensitivity(out: &mut String, doc: &ReportDocument) -> std::fmt::Result {
     if let Some(sensitivity) = &doc.sensitivity {
         writeln!(out, "### What the answer rests on")?;
         writeln!(out)?;
@@ -101,6 +129,11 @@ fn write_report(out: &mut String, doc: &ReportDocument, charts: &TextCharts) -> 
             writeln!(out)?;
         }
     }
+    Ok(())
+}
+
+/// "Complaint record": the case's complaint lines, when it has any.
+fn write_complaint(out: &mut String, doc: &ReportDocument) -> std::fmt::Result {
     // After the case's inputs, so "### Inputs" stays under "## Case" (as in the HTML).
     if !doc.complaint.is_empty() {
         writeln!(out, "## Complaint record")?;
@@ -110,8 +143,11 @@ fn write_report(out: &mut String, doc: &ReportDocument, charts: &TextCharts) -> 
         }
         writeln!(out)?;
     }
-    super::past_section::markdown(out, doc)?;
+    Ok(())
+}
 
+/// "Stress inside the roll": the summary figures, zones, text charts and warnings.
+fn write_stress(out: &mut String, doc: &ReportDocument, charts: &TextCharts) -> std::fmt::Result {
     let stress = &doc.stress;
     writeln!(out, "## Stress inside the roll")?;
     writeln!(out)?;
@@ -178,8 +214,11 @@ fn write_report(out: &mut String, doc: &ReportDocument, charts: &TextCharts) -> 
         writeln!(out, "> Warning: {warning}")?;
         writeln!(out)?;
     }
-    write_margins(out, &doc.margins)?;
+    Ok(())
+}
 
+/// "Measured on the roll, against the model", with the inverse estimate of the wound-in tension.
+fn write_measured(out: &mut String, doc: &ReportDocument, charts: &TextCharts) -> std::fmt::Result {
     if let Some(measured) = &doc.measured {
         writeln!(out, "## Measured on the roll, against the model")?;
         writeln!(out)?;
@@ -202,8 +241,15 @@ fn write_report(out: &mut String, doc: &ReportDocument, charts: &TextCharts) -> 
         if let Some(chart) = &charts.hardness {
             writeln!(out, "{chart}")?;
         }
+        if let Some(estimate) = &measured.estimate {
+            write_estimate(out, estimate)?;
+        }
     }
+    Ok(())
+}
 
+/// "Likely causes": each cause with its mechanism and the reasons for and against it.
+fn write_causes(out: &mut String, doc: &ReportDocument) -> std::fmt::Result {
     writeln!(out, "## Likely causes")?;
     writeln!(out)?;
     if doc.causes.is_empty() {
@@ -238,7 +284,11 @@ fn write_report(out: &mut String, doc: &ReportDocument, charts: &TextCharts) -> 
         }
         writeln!(out)?;
     }
+    Ok(())
+}
 
+/// "Remedies, in the order to try", with predicted effects and cautions.
+fn write_remedies(out: &mut String, doc: &ReportDocument) -> std::fmt::Result {
     writeln!(out, "## Remedies, in the order to try")?;
     writeln!(out)?;
     let merged: Vec<_> = doc.remedies.iter().map(|e| e.remedy.clone()).collect();
@@ -284,7 +334,11 @@ fn write_report(out: &mut String, doc: &ReportDocument, charts: &TextCharts) -> 
         }
     }
     writeln!(out)?;
+    Ok(())
+}
 
+/// "What if": the chosen remedy applied and re-solved, before against after.
+fn write_remedy_comparison(out: &mut String, doc: &ReportDocument) -> std::fmt::Result {
     if let Some(comparison) = &doc.remedy_comparison {
         writeln!(out, "## What if: {}", comparison.remedy_text.trim())?;
         writeln!(out)?;
@@ -301,7 +355,11 @@ fn write_report(out: &mut String, doc: &ReportDocument, charts: &TextCharts) -> 
         }
         writeln!(out)?;
     }
+    Ok(())
+}
 
+/// "Cautions": the diagnosis' cautions, or the general one when there are none.
+fn write_cautions(out: &mut String, doc: &ReportDocument) -> std::fmt::Result {
     writeln!(out, "## Cautions")?;
     writeln!(out)?;
     if doc.cautions.is_empty() {
@@ -315,7 +373,11 @@ fn write_report(out: &mut String, doc: &ReportDocument, charts: &TextCharts) -> 
         writeln!(out, "- **{}**: {}", caution.title, caution.text.trim())?;
     }
     writeln!(out)?;
+    Ok(())
+}
 
+/// "Limits of the model".
+fn write_model_limits(out: &mut String, doc: &ReportDocument) -> std::fmt::Result {
     writeln!(out, "## Limits of the model")?;
     writeln!(out)?;
     for limit in &doc.model_limits {
@@ -351,5 +413,18 @@ fn write_margins(out: &mut String, margins: &MarginsSection) -> std::fmt::Result
     }
     writeln!(out)?;
     writeln!(out, "{}", margins.note())?;
+    writeln!(out)
+}
+
+/// What the roll says about its winding: the inverse estimate's lines, residuals nested.
+fn write_estimate(out: &mut String, estimate: &super::EstimateSection) -> std::fmt::Result {
+    writeln!(out, "### What the roll says about its winding")?;
+    writeln!(out)?;
+    for line in &estimate.lines {
+        match line.strip_prefix("  ") {
+            Some(detail) => writeln!(out, "  - {detail}")?,
+            None => writeln!(out, "- {line}")?,
+        }
+    }
     writeln!(out)
 }

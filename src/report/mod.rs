@@ -16,9 +16,10 @@ mod prepare;
 pub mod text_chart;
 
 pub use document::{
-    ASSUMED_DISCOUNT, AssumedShare, CaseSummary, CauseEntry, InputLine, MODEL_LIMITS, MarginLine,
-    MarginsSection, MeasuredSection, ProfilePoint, Quantity, ReasonEntry, RemedyComparisonSummary,
-    RemedyEntry, ReportDocument, StressSummary, ZoneSummary, build_document, margins_section,
+    ASSUMED_DISCOUNT, AssumedShare, CaseSummary, CauseEntry, EstimateSection, InputLine,
+    MODEL_LIMITS, MarginLine, MarginsSection, MeasuredSection, ProfilePoint, Quantity, ReasonEntry,
+    RemedyComparisonSummary, RemedyEntry, ReportDocument, StressSummary, ZoneSummary,
+    build_document, margins_section,
 };
 pub use prepare::{PrepareOptions, Solved, comparison, prepare, prepare_from_path, solved_report};
 
@@ -131,6 +132,10 @@ pub struct ReportInput {
     pub sensitivity: Option<crate::diagnose::sensitivity::Sensitivity>,
     /// Similar past complaints from a history store (`report --history`); `None` without one.
     pub similar_past: Option<Vec<crate::history::PastComplaint>>,
+    /// The inverse estimate of the wound-in tension from the measurements (as `rolltriage
+    /// compare` and the UI's F9 page show it), or why it could not be made; `None` without
+    /// measurements or when not worked out.
+    pub estimate: Option<Result<crate::evidence::InverseEstimate, String>>,
 }
 
 impl ReportInput {
@@ -140,6 +145,15 @@ impl ReportInput {
             sensitivity: Some(sensitivity),
             ..self
         }
+    }
+
+    /// The same input with the inverse estimate from the measurements attached (`None` leaves
+    /// it out).
+    pub fn with_estimate(
+        self,
+        estimate: Option<Result<crate::evidence::InverseEstimate, String>>,
+    ) -> Self {
+        ReportInput { estimate, ..self }
     }
 }
 

@@ -79,6 +79,10 @@ pub fn prepare(
         &mut |_| true,
     )
     .map_err(report_error)?;
+    let estimate = resolved
+        .measurements
+        .as_ref()
+        .map(|measurements| inverse_estimate(measurements, &resolved, options.solver));
     let meta = match &options.date {
         Some(date) => ReportMeta::dated(date, options.source_file.clone()),
         None => ReportMeta::now(options.source_file.clone()),
@@ -94,7 +98,25 @@ pub fn prepare(
         meta,
         options.units,
     )
-    .with_sensitivity(sensitivity))
+    .with_sensitivity(sensitivity)
+    .with_estimate(estimate))
+}
+
+/// `evidence::estimate` with the default fit options, as `rolltriage compare` and the UI's F9
+/// page run it. Like the F9 page, a failed fit does not stop the report: its reason is kept
+/// so the report says why the roll's tension could not be estimated.
+fn inverse_estimate(
+    measurements: &crate::evidence::Measurements,
+    resolved: &ResolvedCase,
+    solver: SolverOptions,
+) -> Result<crate::evidence::InverseEstimate, String> {
+    crate::evidence::estimate(
+        measurements,
+        &resolved.problem(solver),
+        &solve,
+        &crate::evidence::FitOptions::default(),
+    )
+    .map_err(|e| e.to_string())
 }
 
 /// A case already resolved, solved and diagnosed (e.g. by the terminal UI's background job).
@@ -124,6 +146,7 @@ pub fn solved_report(
         units,
         sensitivity: None,
         similar_past: None,
+        estimate: None,
     }
 }
 

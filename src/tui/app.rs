@@ -622,6 +622,8 @@ impl App {
         if let Some(sensitivity) = &outcome.sensitivity {
             input = input.with_sensitivity(sensitivity.clone());
         }
+        // The inverse estimate the F9 page shows, when the job made it for the case as written.
+        input = input.with_estimate(outcome.estimate.clone());
         // Similar past complaints the history screen found for this very case (no store
         // access here: exporting stays on the UI thread).
         input.similar_past = session

@@ -4,6 +4,7 @@
 //! linked once per area instead of once per file. See DEVELOPERS.md, "Tests".
 
 mod demo;
+mod estimate;
 #[path = "../shared/fixtures.rs"]
 mod fixtures;
 mod measured_plot;

@@ -255,6 +255,7 @@ fn fixture(with_remedy: bool) -> ReportInput {
         units: UnitSystem::Si,
         sensitivity: Some(fixture_sensitivity()),
         similar_past: None,
+        estimate: None,
     }
 }
 

@@ -186,6 +186,44 @@ pub struct MeasuredSection {
     pub lines: Vec<String>,
     /// The full comparison, for other systems.
     pub evidence: crate::evidence::Evidence,
+    /// What the roll says about its winding: the inverse estimate of the wound-in tension;
+    /// absent when it was not worked out.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub estimate: Option<EstimateSection>,
+}
+
+/// The inverse estimate of the wound-in tension in the report's units, as `rolltriage compare`
+/// prints it, or the reason it could not be made.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct EstimateSection {
+    /// Plain-words lines; lines indented by two spaces detail the line before (fit residuals).
+    pub lines: Vec<String>,
+    /// Why no estimate could be made; absent when one was.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub not_estimated: Option<String>,
+    /// The full estimate in SI units, for other systems; absent when none was made.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub fit: Option<crate::evidence::InverseEstimate>,
+}
+
+impl EstimateSection {
+    fn new(
+        estimate: &Result<crate::evidence::InverseEstimate, String>,
+        units: UnitSystem,
+    ) -> EstimateSection {
+        match estimate {
+            Ok(fit) => EstimateSection {
+                lines: fit.lines_in(units),
+                not_estimated: None,
+                fit: Some(fit.clone()),
+            },
+            Err(reason) => EstimateSection {
+                lines: vec![format!("Not estimated: {reason}")],
+                not_estimated: Some(reason.clone()),
+                fit: None,
+            },
+        }
+    }
 }
 
 /// At most this many profile points go into a report (enough to redraw the curves).
@@ -293,6 +331,10 @@ pub fn build_document(input: &ReportInput) -> Result<ReportDocument, ReportError
                 rows: e.rows_in(units),
                 lines: e.lines_in(units),
                 evidence: e.clone(),
+                estimate: input
+                    .estimate
+                    .as_ref()
+                    .map(|estimate| EstimateSection::new(estimate, units)),
             }),
         sensitivity: input.sensitivity.clone().filter(|s| !s.is_empty()),
     })
