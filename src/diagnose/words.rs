@@ -150,11 +150,17 @@ pub fn reason_tested(reason: &super::Reason) -> Option<String> {
             .map_or_else(|| answer.replace('_', " "), |c| c.text.trim().to_string());
         return Some(format!("{} {answer}", q.text.trim()));
     }
+    // Where on the roll the symptom shows: "seen at the core".
+    if reason.test == "place" {
+        let place = reason.value.as_deref().unwrap_or_default();
+        return Some(format!("seen at the {}", place.replace('_', " ")));
+    }
     let mut out = indicator_label(&reason.test, reason.zone.as_deref());
     if let Some(value) = &reason.value {
         out.push_str(&format!(" = {value}"));
     }
-    if let Some(threshold) = &reason.threshold {
+    // A rule that asks for one value ("= core") says nothing the value does not.
+    if let Some(threshold) = reason.threshold.as_ref().filter(|t| !t.starts_with("= ")) {
         out.push_str(&format!(" (rule: {})", threshold_words(threshold)));
     }
     Some(out)
