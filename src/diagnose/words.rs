@@ -192,6 +192,29 @@ mod tests {
     }
 
     #[test]
+    fn reasons_read_as_words() {
+        let reason = |test: &str, value: &str, threshold: &str| super::super::Reason {
+            symptom: "telescoping".into(),
+            test: test.into(),
+            zone: None,
+            value: Some(value.into()),
+            threshold: Some(threshold.into()),
+            weight: 0.35,
+            text: "Why.".into(),
+        };
+        let line = reason_plain(&reason("tension_to_usual", "0.333", "< 0.6"));
+        assert!(!line.contains("tension_to_usual") && !line.contains("[telescoping]"));
+        assert!(line.ends_with("tension / usual tension = 0.333 (rule: below 0.6) — Why."));
+        let line = reason_plain(&reason("telescoping.when", "handling", "= handling"));
+        assert!(
+            line.ends_with(
+                "When did the layers shift? when the roll was moved, lifted or unwound — Why."
+            ),
+            "{line}"
+        );
+    }
+
+    #[test]
     fn labels_read_as_words() {
         assert_eq!(indicator_title("wit_step"), "wound-in tension step");
         assert_eq!(
