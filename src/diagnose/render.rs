@@ -26,7 +26,43 @@ fn reason_line(r: &super::Reason) -> String {
     )
 }
 
-/// Plain text for the terminal.
+/// `text` with every pressure written in SI ("495 kPa", "1.2 MPa") in `units` instead: the
+/// what-if lines carry their values as text made in SI.
+fn pressures_in(text: &str, units: UnitSystem) -> String {
+    if units == UnitSystem::Si {
+        return text.to_string();
+    }
+    let words: Vec<&str> = text.split(' ').collect();
+    let mut out: Vec<String> = Vec::with_capacity(words.len());
+    let mut i = 0;
+    while i < words.len() {
+        let unit = words.get(i + 1).map(|w| {
+            let bare = w.trim_end_matches([',', ';', ':', ')', '.']);
+            (bare, &w[bare.len()..])
+        });
+        let scale = match unit {
+            Some(("Pa", _)) => Some(1.0),
+            Some(("kPa", _)) => Some(1e3),
+            Some(("MPa", _)) => Some(1e6),
+            _ => None,
+        };
+        match (scale, words[i].parse::<f64>(), unit) {
+            (Some(scale), Ok(value), Some((_, tail))) => {
+                out.push(format!(
+                    "{}{tail}",
+                    crate::units::compact_stress(value * scale, units)
+                ));
+                i += 2;
+            }
+            _ => {
+                out.push(words[i].to_string());
+                i += 1;
+            }
+        }
+    }
+    out.join(" ")
+}
+
 /// Plain text for the terminal; `verbose` adds the IDs of causes, remedies and cautions.
 pub fn render_text(title: &str, diagnosis: &Diagnosis, verbose: bool) -> String {
     render_text_in(title, diagnosis, verbose, UnitSystem::Si)
@@ -62,7 +98,13 @@ pub fn render_text_in(
                 _ => r.value.clone(),
             };
             let r = &super::Reason { value, ..r.clone() };
-            let _ = writeln!(out, "     {}", reason_line(r));
+            // IDs with --verbose, words otherwise.
+            let line = if verbose {
+                reason_line(r)
+            } else {
+                format!("{:+.2}  {}", r.weight, super::words::reason_plain(r))
+            };
+            let _ = writeln!(out, "     {line}");
         }
         out.push('\n');
     }
@@ -96,7 +138,7 @@ pub fn render_text_in(
                 None => (String::new(), String::new()),
             };
             if r.what_if.as_ref().is_some_and(|w| w.indicator.is_empty()) {
-                let _ = writeln!(out, "      what-if: {note}");
+                let _ = writeln!(out, "      what-if: {}", pressures_in(&note, units));
             } else if let Some(w) = &r.what_if {
                 let flag = if w.worse {
                     "  WARNING: makes it worse"
@@ -105,8 +147,10 @@ pub fn render_text_in(
                 };
                 let _ = writeln!(
                     out,
-                    "      what-if: {indicator} {} → {}{flag} ({note})",
-                    w.before, w.after,
+                    "      what-if: {indicator} {} → {}{flag} ({})",
+                    pressures_in(&w.before, units),
+                    pressures_in(&w.after, units),
+                    pressures_in(&note, units),
                 );
             }
         }
@@ -166,21 +210,17 @@ pub fn render_markdown(title: &str, diagnosis: &Diagnosis) -> String {
     for (i, c) in diagnosis.causes.iter().enumerate() {
         let _ = writeln!(out, "### {}. {} — belief {:.2}\n", i + 1, c.title, c.belief);
         let _ = writeln!(out, "{}\n", c.mechanism);
-        let _ = writeln!(
-            out,
-            "| weight | symptom | test | zone | value | threshold | why |"
-        );
-        let _ = writeln!(out, "|---:|---|---|---|---|---|---|");
+        let _ = writeln!(out, "| weight | symptom | tested | why |");
+        let _ = writeln!(out, "|---:|---|---|---|");
         for r in &c.reasons {
             let _ = writeln!(
                 out,
-                "| {:+.2} | {} | {} | {} | {} | {} | {} |",
+                "| {:+.2} | {} | {} | {} |",
                 r.weight,
-                r.symptom,
-                r.test,
-                r.zone.clone().unwrap_or_default(),
-                r.value.clone().unwrap_or_default(),
-                r.threshold.clone().unwrap_or_default().replace('|', "\\|"),
+                super::words::symptom_title(&r.symptom),
+                super::words::reason_tested(r)
+                    .unwrap_or_default()
+                    .replace('|', "\\|"),
                 r.text.replace('|', "\\|")
             );
         }
@@ -228,4 +268,23 @@ pub fn render_markdown(title: &str, diagnosis: &Diagnosis) -> String {
         out.push('\n');
     }
     out
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn what_if_pressures_follow_the_units() {
+        // 1 psi = 6894.757 Pa (NIST SP 811, appendix B).
+        assert_eq!(
+            pressures_in(
+                "577 kPa → 718 kPa (rule threshold: below 20 kPa)",
+                UnitSystem::Us
+            ),
+            "83.7 psi → 104 psi (rule threshold: below 2.9 psi)"
+        );
+        assert_eq!(pressures_in("0.735 → 0.49", UnitSystem::Us), "0.735 → 0.49");
+        assert_eq!(pressures_in("650 kPa", UnitSystem::Si), "650 kPa");
+    }
 }

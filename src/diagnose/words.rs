@@ -105,6 +105,77 @@ pub fn belief_label(cause_title: &str) -> String {
     format!("belief in '{cause_title}'")
 }
 
+/// The shipped rule base, read once, for the names of symptoms and the words of questions and
+/// answers. A reason from a rule only in a `--rules` folder falls back to its ID with spaces.
+fn shipped_rules() -> Option<&'static super::rules::RuleBase> {
+    static RULES: std::sync::OnceLock<Option<super::rules::RuleBase>> = std::sync::OnceLock::new();
+    RULES
+        .get_or_init(|| super::rules::RuleBase::embedded().ok())
+        .as_ref()
+}
+
+/// "telescoping" → "Telescoping": a symptom's name as the rule base gives it.
+pub fn symptom_title(id: &str) -> String {
+    shipped_rules()
+        .and_then(|r| r.symptom(id))
+        .map(|s| s.title.clone())
+        .unwrap_or_else(|| id.replace('_', " "))
+}
+
+/// A rule threshold in words: "< 0.6" → "below 0.6", "> 1" → "above 1".
+fn threshold_words(threshold: &str) -> String {
+    if let Some(t) = threshold.strip_prefix("< ") {
+        format!("below {t}")
+    } else if let Some(t) = threshold.strip_prefix("> ") {
+        format!("above {t}")
+    } else {
+        threshold.to_string()
+    }
+}
+
+/// What a reason tested, in words, without its explanation: "tension / usual tension = 0.333
+/// (rule: below 0.6)" for an indicator, "When did it give way? under handling" for an answer;
+/// `None` for the prior and the site history, whose text says it all. The value is taken as
+/// it stands (the caller localises measured evidence first).
+pub fn reason_tested(reason: &super::Reason) -> Option<String> {
+    if reason.test == "prior" || reason.test == "site_history" {
+        return None;
+    }
+    if let Some(q) = shipped_rules().and_then(|r| r.question(&reason.test)) {
+        let answer = reason.value.as_deref().unwrap_or_default();
+        let answer = q
+            .choices
+            .iter()
+            .find(|c| c.id == answer)
+            .map_or_else(|| answer.replace('_', " "), |c| c.text.trim().to_string());
+        return Some(format!("{} {answer}", q.text.trim()));
+    }
+    // Where on the roll the symptom shows: "seen at the core".
+    if reason.test == "place" {
+        let place = reason.value.as_deref().unwrap_or_default();
+        return Some(format!("seen at the {}", place.replace('_', " ")));
+    }
+    let mut out = indicator_label(&reason.test, reason.zone.as_deref());
+    if let Some(value) = &reason.value {
+        out.push_str(&format!(" = {value}"));
+    }
+    // A rule that asks for one value ("= core") says nothing the value does not.
+    if let Some(threshold) = reason.threshold.as_ref().filter(|t| !t.starts_with("= ")) {
+        out.push_str(&format!(" (rule: {})", threshold_words(threshold)));
+    }
+    Some(out)
+}
+
+/// One reason as a person reads it: "Telescoping: tension / usual tension = 0.333 (rule: below
+/// 0.6). Web tension is under 60 % ..." (without the weight, which each output places itself).
+pub fn reason_plain(reason: &super::Reason) -> String {
+    let symptom = symptom_title(&reason.symptom);
+    match reason_tested(reason) {
+        Some(tested) => format!("{symptom}: {tested} — {}", reason.text.trim()),
+        None => format!("{symptom}: {}", reason.text.trim()),
+    }
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
@@ -118,6 +189,29 @@ mod tests {
                 spec.id
             );
         }
+    }
+
+    #[test]
+    fn reasons_read_as_words() {
+        let reason = |test: &str, value: &str, threshold: &str| super::super::Reason {
+            symptom: "telescoping".into(),
+            test: test.into(),
+            zone: None,
+            value: Some(value.into()),
+            threshold: Some(threshold.into()),
+            weight: 0.35,
+            text: "Why.".into(),
+        };
+        let line = reason_plain(&reason("tension_to_usual", "0.333", "< 0.6"));
+        assert!(!line.contains("tension_to_usual") && !line.contains("[telescoping]"));
+        assert!(line.ends_with("tension / usual tension = 0.333 (rule: below 0.6) — Why."));
+        let line = reason_plain(&reason("telescoping.when", "handling", "= handling"));
+        assert!(
+            line.ends_with(
+                "When did the layers shift? when the roll was moved, lifted or unwound — Why."
+            ),
+            "{line}"
+        );
     }
 
     #[test]

@@ -362,24 +362,9 @@ fn write_causes(out: &mut String, doc: &ReportDocument) -> std::fmt::Result {
         }
         writeln!(out, "<ul>")?;
         for reason in &cause.reasons {
-            let mut tested = reason.test.clone();
-            if let Some(zone) = &reason.zone {
-                tested.push_str(&format!(" in the {zone} zone"));
-            }
-            let detail = match (&reason.value, &reason.threshold) {
-                (Some(value), Some(threshold)) => {
-                    format!("{tested} = {value}, rule: {threshold}")
-                }
-                (Some(value), None) => format!("{tested} = {value}"),
-                _ => format!("{tested}, from the {} rule", reason.symptom),
-            };
-            writeln!(
-                out,
-                "<li>{:+.2} — {} ({})</li>",
-                reason.weight,
-                escape(reason.text.trim()),
-                escape(&detail)
-            )?;
+            // The reason in words, made in one place for every output.
+            let plain = crate::diagnose::words::reason_plain(reason);
+            writeln!(out, "<li>{:+.2} — {}</li>", reason.weight, escape(&plain))?;
         }
         writeln!(out, "</ul>")?;
     }

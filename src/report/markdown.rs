@@ -268,18 +268,9 @@ fn write_causes(out: &mut String, doc: &ReportDocument) -> std::fmt::Result {
             writeln!(out)?;
         }
         for reason in &cause.reasons {
-            write!(out, "- {:+.2} — {}", reason.weight, reason.text.trim())?;
-            let mut tested = reason.test.clone();
-            if let Some(zone) = &reason.zone {
-                tested.push_str(&format!(" in the {zone} zone"));
-            }
-            match (&reason.value, &reason.threshold) {
-                (Some(value), Some(threshold)) => {
-                    write!(out, " ({tested} = {value}, rule: {threshold})")?
-                }
-                (Some(value), None) => write!(out, " ({tested} = {value})")?,
-                _ => write!(out, " ({tested}, from the {} rule)", reason.symptom)?,
-            }
+            // The reason in words, made in one place for every output.
+            let plain = crate::diagnose::words::reason_plain(reason);
+            write!(out, "- {:+.2} — {plain}", reason.weight)?;
             writeln!(out)?;
         }
         writeln!(out)?;
