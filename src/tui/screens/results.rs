@@ -497,29 +497,21 @@ fn render_causes(
             }
             for reason in &cause.reasons {
                 let sign = if reason.weight >= 0.0 { "+" } else { "−" };
-                // The indicator in words ("low-pressure band (outer zone)"); the prior and the
-                // site history have no test to name: their text says it all.
-                let plain = reason.test == "prior" || reason.test == "site_history";
-                let test = if plain {
-                    String::new()
-                } else {
-                    crate::diagnose::words::indicator_label(&reason.test, reason.zone.as_deref())
-                };
-                let mut detail = String::new();
-                if let Some(value) = &reason.value {
-                    // Measured evidence quotes the measurement in the session's units.
-                    let value = match &diagnosis.evidence {
-                        Some(e) => e.localise(value, app.units),
-                        None => value.clone(),
-                    };
-                    detail.push_str(&format!(" = {value}"));
+                // What was tested, in the same words as the command line and the reports
+                // (`words::reason_tested`): the indicator's title and value, or the question
+                // and the answer in words. The prior and the site history have no test to
+                // name: their text says it all. Measured evidence quotes the measurement in the
+                // session's units.
+                let mut shown = reason.clone();
+                if let (Some(e), Some(value)) = (&diagnosis.evidence, &reason.value) {
+                    shown.value = Some(e.localise(value, app.units));
                 }
-                if let Some(threshold) = &reason.threshold {
-                    detail.push_str(&format!(" (threshold {threshold})"));
-                }
+                let tested = crate::diagnose::words::reason_tested(&shown);
+                let plain = tested.is_none();
+                let test = tested.unwrap_or_default();
                 lines.push(Line::from(vec![
                     Span::styled(format!("   {sign}{:.2} ", reason.weight.abs()), theme.key()),
-                    Span::raw(format!("{test}{detail}")),
+                    Span::raw(test),
                     Span::styled(
                         if plain {
                             reason.text.clone()
