@@ -97,7 +97,14 @@ pub fn render_text_in(
                 (Some(e), Some(v)) => Some(e.localise(v, units)),
                 _ => r.value.clone(),
             };
-            let r = &super::Reason { value, ..r.clone() };
+            // A value or rule threshold that is a pressure follows the chosen units too.
+            let value = value.map(|v| pressures_in(&v, units));
+            let threshold = r.threshold.as_deref().map(|t| pressures_in(t, units));
+            let r = &super::Reason {
+                value,
+                threshold,
+                ..r.clone()
+            };
             // IDs with --verbose, words otherwise.
             let line = if verbose {
                 reason_line(r)

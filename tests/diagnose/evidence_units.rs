@@ -205,3 +205,23 @@ fn evidence_details_convert_each_quantity() {
     assert_eq!(evidence.localise(&reason, UnitSystem::Si), reason);
     assert_eq!(evidence.localise("no detail", UnitSystem::Us), "no detail");
 }
+
+/// A reason whose value and rule threshold are pressures follows `--units us` (1 psi =
+/// 6894.757 Pa, NIST SP 811 Appendix B): 39.8 kPa → 5.77 psi, 50 kPa → 7.25 psi; SI stays kPa.
+#[test]
+fn diagnose_pressure_reasons_follow_the_units() {
+    let case = format!(
+        "{}/cases/harbour_spunbond_soft_roll.yaml",
+        env!("CARGO_MANIFEST_DIR")
+    );
+    let si = run(&["diagnose", &case]);
+    assert!(
+        si.contains("mean pressure (middle zone) = 39.8 kPa (rule: below 50 kPa)"),
+        "{si}"
+    );
+    let us = run(&["diagnose", &case, "--units", "us"]);
+    assert!(
+        us.contains("mean pressure (middle zone) = 5.77 psi (rule: below 7.25 psi)"),
+        "{us}"
+    );
+}
