@@ -221,3 +221,18 @@ pub fn harbour_coated_no_taper_demo() -> ResolvedCase {
     let case = with_symptoms(case, &["starring", "crushed_core"]);
     at(at(case, "starring", "core"), "crushed_core", "core")
 }
+
+/// Run the built `rolltriage` with `args`, require success (the error output is the failure
+/// message) and return standard output.
+pub fn rolltriage_ok(args: &[&str]) -> String {
+    let out = std::process::Command::new(env!("CARGO_BIN_EXE_rolltriage"))
+        .args(args)
+        .output()
+        .unwrap();
+    assert!(
+        out.status.success(),
+        "{}",
+        String::from_utf8_lossy(&out.stderr)
+    );
+    String::from_utf8(out.stdout).unwrap()
+}

@@ -4,6 +4,8 @@
 
 use std::process::Command;
 
+use super::common::rolltriage_ok;
+
 fn compare(units: Option<&str>) -> String {
     let case = format!(
         "{}/cases/harbour_newsprint_soft_measured.yaml",
@@ -44,19 +46,6 @@ fn si_output_is_unchanged_and_the_default() {
     insta::assert_snapshot!("compare_soft_measured_si", text);
 }
 
-fn run(args: &[&str]) -> String {
-    let out = Command::new(env!("CARGO_BIN_EXE_rolltriage"))
-        .args(args)
-        .output()
-        .unwrap();
-    assert!(
-        out.status.success(),
-        "{}",
-        String::from_utf8_lossy(&out.stderr)
-    );
-    String::from_utf8(out.stdout).unwrap()
-}
-
 const MEASURED: &str = "cases/harbour_newsprint_soft_measured.yaml";
 
 /// The demo case with its measurements typed in inches and feet (1 in = 25.4 mm and
@@ -80,13 +69,13 @@ fn typed_in_inches(folder: &std::path::Path) -> std::path::PathBuf {
 #[test]
 fn diagnose_reasons_quote_the_measurement_in_the_chosen_units() {
     let case = format!("{}/{MEASURED}", env!("CARGO_MANIFEST_DIR"));
-    let si = run(&["diagnose", &case]);
+    let si = rolltriage_ok(&["diagnose", &case]);
     // 1000 mm = 39.37 in; 10700 m / 0.3048 = 35105 ft; 984 mm = 38.7 in.
     assert!(
         si.contains("density deviation = -2.9 (measured ⌀ 1000 mm for 10700 m"),
         "{si}"
     );
-    let us = run(&["diagnose", &case, "--units", "us"]);
+    let us = rolltriage_ok(&["diagnose", &case, "--units", "us"]);
     assert!(
         us.contains("density deviation = -2.9 (measured ⌀ 39.4 in for 35105 ft"),
         "{us}"
@@ -100,7 +89,7 @@ fn diagnose_reasons_quote_the_measurement_in_the_chosen_units() {
         }
     }
     // JSON stays SI.
-    let json = run(&["diagnose", &case, "--format", "json"]);
+    let json = rolltriage_ok(&["diagnose", &case, "--format", "json"]);
     assert!(
         json.contains("measured ⌀ 1000 mm for 10700 m"),
         "JSON not SI"
@@ -112,7 +101,7 @@ fn a_case_typed_in_inches_and_feet_is_answered_in_inches_and_feet() {
     let folder = tempfile::tempdir().unwrap();
     let case = typed_in_inches(folder.path());
     let case = case.to_str().unwrap();
-    let diagnosed = run(&["diagnose", case]);
+    let diagnosed = rolltriage_ok(&["diagnose", case]);
     assert!(
         diagnosed.contains("measured ⌀ 39.4 in for 35105 ft"),
         "{diagnosed}"
@@ -121,14 +110,14 @@ fn a_case_typed_in_inches_and_feet_is_answered_in_inches_and_feet() {
         diagnosed.contains("Roll size: 35105 ft wound to ⌀ 39.4 in"),
         "{diagnosed}"
     );
-    let compared = run(&["compare", case, "--no-fit"]);
+    let compared = rolltriage_ok(&["compare", case, "--no-fit"]);
     assert!(compared.contains("Softest at ⌀ 37.4 in"), "{compared}");
     // --units still decides when given.
-    let si = run(&["compare", case, "--no-fit", "--units", "si"]);
+    let si = rolltriage_ok(&["compare", case, "--no-fit", "--units", "si"]);
     assert!(si.contains("Roll size: 10700 m wound to ⌀ 1000 mm"), "{si}");
     // The report follows the typed units too (Markdown, reasons and the measured section).
     let report = folder.path().join("report.md");
-    run(&[
+    rolltriage_ok(&[
         "report",
         case,
         "-o",
@@ -214,12 +203,12 @@ fn diagnose_pressure_reasons_follow_the_units() {
         "{}/cases/harbour_spunbond_soft_roll.yaml",
         env!("CARGO_MANIFEST_DIR")
     );
-    let si = run(&["diagnose", &case]);
+    let si = rolltriage_ok(&["diagnose", &case]);
     assert!(
         si.contains("mean pressure (middle zone) = 39.8 kPa (rule: below 50 kPa)"),
         "{si}"
     );
-    let us = run(&["diagnose", &case, "--units", "us"]);
+    let us = rolltriage_ok(&["diagnose", &case, "--units", "us"]);
     assert!(
         us.contains("mean pressure (middle zone) = 5.77 psi (rule: below 7.25 psi)"),
         "{us}"

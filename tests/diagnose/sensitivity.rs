@@ -3,7 +3,8 @@
 //! `diagnose` command's text and JSON.
 
 use std::path::Path;
-use std::process::Command;
+
+use super::common::rolltriage_ok;
 
 use rolltriage::case::Case;
 use rolltriage::diagnose::rules::RuleBase;
@@ -67,36 +68,23 @@ fn fully_given_case_lists_nothing() {
     assert!(s.lines(3).is_empty());
 }
 
-fn rolltriage(args: &[&str]) -> String {
-    let out = Command::new(env!("CARGO_BIN_EXE_rolltriage"))
-        .args(args)
-        .output()
-        .unwrap();
-    assert!(
-        out.status.success(),
-        "{}",
-        String::from_utf8_lossy(&out.stderr)
-    );
-    String::from_utf8(out.stdout).unwrap()
-}
-
 #[test]
 fn diagnose_says_in_words_what_the_answer_rests_on() {
     let case = path("tests/fixtures/foil_friction_assumed.yaml");
     let case = case.to_str().unwrap();
-    let text = rolltriage(&["diagnose", case, "--no-what-if"]);
+    let text = rolltriage_ok(&["diagnose", case, "--no-what-if"]);
     assert!(text.contains("What the answer rests on"), "{text}");
     assert!(text.contains("Web-to-web friction: assumed 0.3"), "{text}");
     assert!(!text.contains("web.friction"), "{text}");
     // IDs in JSON only.
     let json: serde_json::Value =
-        serde_json::from_str(&rolltriage(&["diagnose", case, "--format", "json"])).unwrap();
+        serde_json::from_str(&rolltriage_ok(&["diagnose", case, "--format", "json"])).unwrap();
     assert_eq!(json["sensitivity"]["inputs"][0]["field"], "web.friction");
     // A fully given case: no section, and the JSON is the diagnosis alone.
     let demo = path("cases/harbour_newsprint_telescoping.yaml");
     let demo = demo.to_str().unwrap();
-    assert!(!rolltriage(&["diagnose", demo, "--no-what-if"]).contains("rests on"));
+    assert!(!rolltriage_ok(&["diagnose", demo, "--no-what-if"]).contains("rests on"));
     let json: serde_json::Value =
-        serde_json::from_str(&rolltriage(&["diagnose", demo, "--format", "json"])).unwrap();
+        serde_json::from_str(&rolltriage_ok(&["diagnose", demo, "--format", "json"])).unwrap();
     assert!(json.get("sensitivity").is_none());
 }
