@@ -6,10 +6,8 @@
 use std::path::Path;
 
 use crate::tui_support::{self, draw};
-use rolltriage::diagnose::rules::RuleBase;
 use rolltriage::tui::app::{App, OpenPurpose, Popup};
 use rolltriage::tui::event::Key;
-use rolltriage::tui::job::{JobMessage, run_pipeline};
 
 const CASE: &str = "cases/harbour_newsprint_telescoping.yaml";
 const SIZES: [(u16, u16); 2] = [(80, 24), (120, 40)];
@@ -20,23 +18,7 @@ fn solved() -> App {
     let path = Path::new(env!("CARGO_MANIFEST_DIR")).join(CASE);
     app.open_path(&path, OpenPurpose::WholeCase).unwrap();
     app.session.ensure_baseline();
-    let rules = RuleBase::embedded().unwrap();
-    for request in app.take_requests() {
-        let mut progress = |_: f64| true;
-        let result = run_pipeline(
-            &request.case,
-            request.resolved.as_deref(),
-            &rules,
-            &mut progress,
-        )
-        .map(Box::new);
-        app.on_job(JobMessage::Finished {
-            id: request.id,
-            purpose: request.purpose,
-            generation: request.generation,
-            result,
-        });
-    }
+    tui_support::solve_queued(&mut app);
     assert!(app.session.current_outcome().is_some(), "the demo solves");
     app
 }

@@ -11,10 +11,8 @@ use std::path::{Path, PathBuf};
 
 use crate::tui_support::draw;
 use rolltriage::case::Case;
-use rolltriage::diagnose::rules::RuleBase;
 use rolltriage::tui::app::{App, OpenPurpose, Popup};
 use rolltriage::tui::event::Key;
-use rolltriage::tui::job::{JobMessage, run_pipeline};
 use rolltriage::tui::popups::measure::{Field, MeasurePopup, Page, ROWS};
 
 const CASE: &str = "cases/harbour_newsprint_soft_measured.yaml";
@@ -29,27 +27,6 @@ fn opened(path: &Path) -> App {
     app.open_path(path, OpenPurpose::WholeCase).unwrap();
     app.session.take_requests();
     app
-}
-
-/// Run every queued solve on this thread, as the worker would, and hand back the results.
-fn solve(app: &mut App) {
-    let rules = RuleBase::embedded().unwrap();
-    for request in app.take_requests() {
-        let mut progress = |_: f64| true;
-        let result = run_pipeline(
-            &request.case,
-            request.resolved.as_deref(),
-            &rules,
-            &mut progress,
-        )
-        .map(Box::new);
-        app.on_job(JobMessage::Finished {
-            id: request.id,
-            purpose: request.purpose,
-            generation: request.generation,
-            result,
-        });
-    }
 }
 
 fn popup(app: &App) -> &MeasurePopup {
@@ -169,7 +146,7 @@ fn an_edit_feeds_the_triage_and_is_saved_back() {
     assert!(app.session.generation > generation);
     // The solve is queued for the worker, not run on the UI thread.
     assert!(app.session.running_baseline.is_some());
-    solve(&mut app);
+    tui_support::solve_queued(&mut app);
     let d = app
         .session
         .current_outcome()
@@ -240,7 +217,7 @@ fn measured_against_computed_draws_the_readings_on_the_profile() {
     assert_eq!(popup(&app).page, Page::Compare);
     // The opening solve was dropped by `opened`; ask again, as ^R does.
     app.session.solve_again();
-    solve(&mut app);
+    tui_support::solve_queued(&mut app);
     let screen = draw(&app, 120, 40);
     for said in [
         "Hardness along the radius against the computed pressure",
@@ -264,7 +241,7 @@ fn measured_against_computed_draws_the_readings_on_the_profile() {
 fn the_inverse_estimate_is_the_one_compare_prints() {
     let mut app = opened(&case_path());
     app.session.solve_again();
-    solve(&mut app);
+    tui_support::solve_queued(&mut app);
     let outcome = app.session.current_outcome().unwrap();
     let shown = outcome.estimate.clone().unwrap().unwrap();
     let resolved = Case::load(&case_path()).unwrap().resolve().unwrap();

@@ -374,3 +374,24 @@ pub fn draw(app: &App, width: u16, height: u16) -> String {
         .unwrap();
     terminal.backend().to_string()
 }
+
+/// Run every queued solve on this thread, as the worker would, and hand back the results.
+pub fn solve_queued(app: &mut App) {
+    let rules = rolltriage::diagnose::rules::RuleBase::embedded().unwrap();
+    for request in app.take_requests() {
+        let mut progress = |_: f64| true;
+        let result = rolltriage::tui::job::run_pipeline(
+            &request.case,
+            request.resolved.as_deref(),
+            &rules,
+            &mut progress,
+        )
+        .map(Box::new);
+        app.on_job(JobMessage::Finished {
+            id: request.id,
+            purpose: request.purpose,
+            generation: request.generation,
+            result,
+        });
+    }
+}
