@@ -142,13 +142,7 @@ pub fn reason_tested(reason: &super::Reason) -> Option<String> {
         return None;
     }
     if let Some(q) = shipped_rules().and_then(|r| r.question(&reason.test)) {
-        let answer = reason.value.as_deref().unwrap_or_default();
-        let answer = q
-            .choices
-            .iter()
-            .find(|c| c.id == answer)
-            .map_or_else(|| answer.replace('_', " "), |c| c.text.trim().to_string());
-        return Some(format!("{} {answer}", q.text.trim()));
+        return Some(answered(q, reason.value.as_deref().unwrap_or_default()));
     }
     // Where on the roll the symptom shows: "seen at the core".
     if reason.test == "place" {
@@ -166,6 +160,30 @@ pub fn reason_tested(reason: &super::Reason) -> Option<String> {
     Some(out)
 }
 
+/// A question and the answer given, in words: "When did the layers shift? when the roll was
+/// moved, lifted or unwound".
+fn answered(question: &super::rules::Question, answer: &str) -> String {
+    let answer = question
+        .choices
+        .iter()
+        .find(|c| c.id == answer)
+        .map_or_else(|| answer.replace('_', " "), |c| c.text.trim().to_string());
+    format!("{} {answer}", question.text.trim())
+}
+
+/// An answer of the case (`answers:` in the case file) in words, for reports; a question only
+/// in a `--rules` folder reads as its ID and answer with spaces.
+pub fn answer_plain(question: &str, answer: &str) -> String {
+    match shipped_rules().and_then(|r| r.question(question)) {
+        Some(q) => answered(q, answer),
+        None => format!(
+            "{}: {}",
+            question.replace(['_', '.'], " "),
+            answer.replace('_', " ")
+        ),
+    }
+}
+
 /// One reason as a person reads it: "Telescoping: tension / usual tension = 0.333 (rule: below
 /// 0.6). Web tension is under 60 % ..." (without the weight, which each output places itself).
 pub fn reason_plain(reason: &super::Reason) -> String {
@@ -179,6 +197,17 @@ pub fn reason_plain(reason: &super::Reason) -> String {
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    #[test]
+    fn an_answer_reads_as_the_question_and_the_choice_in_words() {
+        let plain = answer_plain("telescoping.when", "handling");
+        assert!(plain.starts_with("When did the layers shift?"), "{plain}");
+        assert!(
+            !plain.contains('_') && !plain.contains("telescoping.when"),
+            "{plain}"
+        );
+        assert_eq!(answer_plain("after_splice", "no"), "after splice: no");
+    }
 
     #[test]
     fn every_indicator_has_a_title() {

@@ -109,9 +109,10 @@ fn write_case(out: &mut String, doc: &ReportDocument) -> std::fmt::Result {
     writeln!(out, "<p>Observed symptoms:</p>")?;
     writeln!(out, "<ul>")?;
     for symptom in &case.symptoms {
-        write!(out, "<li><strong>{}</strong>", escape(&symptom.id))?;
+        let title = crate::diagnose::words::symptom_title(&symptom.id);
+        write!(out, "<li><strong>{}</strong>", escape(&title))?;
         if let Some(place) = &symptom.place {
-            write!(out, " (at {})", escape(place))?;
+            write!(out, " (at {})", escape(&place.replace('_', " ")))?;
         }
         if let Some(notes) = &symptom.notes {
             write!(out, ": {}", escape(notes.trim()))?;
@@ -123,7 +124,8 @@ fn write_case(out: &mut String, doc: &ReportDocument) -> std::fmt::Result {
         writeln!(out, "<p>Answers to the symptom questions:</p>")?;
         writeln!(out, "<ul>")?;
         for (question, answer) in &case.answers {
-            writeln!(out, "<li>{}: {}</li>", escape(question), escape(answer))?;
+            let words = crate::diagnose::words::answer_plain(question, answer);
+            writeln!(out, "<li>{}</li>", escape(&words))?;
         }
         writeln!(out, "</ul>")?;
     }

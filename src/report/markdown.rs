@@ -66,9 +66,13 @@ fn write_case(out: &mut String, doc: &ReportDocument) -> std::fmt::Result {
     writeln!(out, "Observed symptoms:")?;
     writeln!(out)?;
     for symptom in &case.symptoms {
-        write!(out, "- **{}**", symptom.id)?;
+        write!(
+            out,
+            "- **{}**",
+            crate::diagnose::words::symptom_title(&symptom.id)
+        )?;
         if let Some(place) = &symptom.place {
-            write!(out, " (at {place})")?;
+            write!(out, " (at {})", place.replace('_', " "))?;
         }
         if let Some(notes) = &symptom.notes {
             write!(out, ": {}", notes.trim())?;
@@ -80,7 +84,11 @@ fn write_case(out: &mut String, doc: &ReportDocument) -> std::fmt::Result {
         writeln!(out, "Answers to the symptom questions:")?;
         writeln!(out)?;
         for (question, answer) in &case.answers {
-            writeln!(out, "- {question}: {answer}")?;
+            writeln!(
+                out,
+                "- {}",
+                crate::diagnose::words::answer_plain(question, answer)
+            )?;
         }
         writeln!(out)?;
     }
