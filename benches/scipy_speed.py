@@ -7,6 +7,7 @@ Usage (from the repository root, after `cargo build --release --example solve_ro
     python3 benches/scipy_speed.py [layers]
 Not part of the test suite (lives in benches/, not tests/reference/).
 
+Each side runs REPEATS times (default 3) and the best run counts; the medians are printed too.
 Prints two ratios: wall clock (what an idle machine shows) and processor time (user + system,
 this process for SciPy, the child process for Rust), which stays meaningful on a shared machine
 where wall clock mostly measures the wait for a core. SOLVE_ROLL=PATH runs another build of the
@@ -51,13 +52,19 @@ def scipy_explicit(layers, rc=0.0762, h=23e-6, et=4.5e9, k1=1e4, k2=300.0, wit=1
 
 def main():
     layers = int(sys.argv[1]) if len(sys.argv) > 1 else 8000
-    start, cpu_start = time.perf_counter(), time.process_time()
-    p_scipy = scipy_explicit(layers)
-    t_scipy = time.perf_counter() - start
-    c_scipy = time.process_time() - cpu_start
+    repeats = int(os.environ.get("REPEATS", "3"))
+    # Best of several runs on both sides: one run of either is easily slowed by whatever else
+    # the machine does, and the slower side's noise would then decide the ratio.
+    scipy_runs, scipy_cpu = [], []
+    for _ in range(repeats):
+        start, cpu_start = time.perf_counter(), time.process_time()
+        p_scipy = scipy_explicit(layers)
+        scipy_runs.append(time.perf_counter() - start)
+        scipy_cpu.append(time.process_time() - cpu_start)
+    t_scipy, c_scipy = min(scipy_runs), min(scipy_cpu)
     binary = os.environ.get("SOLVE_ROLL") or ROOT / "target" / "release" / "examples" / "solve_roll"
     runs, cpu_runs = [], []
-    for _ in range(3):
+    for _ in range(repeats):
         before = resource.getrusage(resource.RUSAGE_CHILDREN)
         start = time.perf_counter()
         out = subprocess.run([str(binary), "film", "per_layer", "explicit"], check=True,
@@ -66,12 +73,15 @@ def main():
         after = resource.getrusage(resource.RUSAGE_CHILDREN)
         cpu_runs.append(after.ru_utime - before.ru_utime + after.ru_stime - before.ru_stime)
     t_rust, c_rust = min(runs), min(cpu_runs)
+    med = lambda xs: sorted(xs)[len(xs) // 2]
     p_rust = float(out.split("core pressure ")[1].split(" ")[0])
     print(f"layers {layers}: SciPy {t_scipy:.3f} s (core pressure {p_scipy:.6e} Pa), "
           f"Rust {t_rust:.3f} s incl. process start (core pressure {p_rust:.6e} Pa), "
           f"ratio {t_scipy / t_rust:.1f}x, relative difference {abs(p_rust - p_scipy) / p_scipy:.2e}")
     print(f"processor time: SciPy {c_scipy:.3f} s, Rust {c_rust:.3f} s incl. process start, "
           f"ratio {c_scipy / c_rust:.1f}x")
+    print(f"best of {repeats} each side; medians: SciPy {med(scipy_runs):.3f} s, "
+          f"Rust {med(runs):.3f} s, ratio {med(scipy_runs) / med(runs):.1f}x")
 
 
 if __name__ == "__main__":
