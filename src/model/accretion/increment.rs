@@ -399,11 +399,27 @@ fn advance_chain(
         x[3] = x4;
         (previous, current) = (x3, x4);
     }
-    for k in whole..out.len() {
-        let next = lower[k] * previous + diagonal[k] * current;
+    single_steps(
+        &lower[whole..],
+        &diagonal[whole..],
+        (previous, current),
+        &mut out[whole..],
+    )
+}
+
+/// The chain one node per step (the last nodes of a block that are not a whole four).
+#[inline(always)]
+fn single_steps(
+    lower: &[f64],
+    diagonal: &[f64],
+    (mut previous, mut current): (f64, f64),
+    out: &mut [f64],
+) -> (f64, f64) {
+    for ((q, p), x) in lower.iter().zip(diagonal).zip(out.iter_mut()) {
+        let next = q * previous + p * current;
         previous = current;
         current = next;
-        out[k] = next;
+        *x = next;
     }
     (previous, current)
 }
@@ -465,13 +481,14 @@ fn advance_chain_pairs(
         }
         below = x34;
     }
-    let mut previous = _mm_cvtsd_f64(below);
-    let mut current = _mm_cvtsd_f64(_mm_unpackhi_pd(below, below));
-    for k in whole..out.len() {
-        let next = lower[k] * previous + diagonal[k] * current;
-        previous = current;
-        current = next;
-        out[k] = next;
-    }
-    (previous, current)
+    let state = (
+        _mm_cvtsd_f64(below),
+        _mm_cvtsd_f64(_mm_unpackhi_pd(below, below)),
+    );
+    single_steps(
+        &lower[whole..],
+        &diagonal[whole..],
+        state,
+        &mut out[whole..],
+    )
 }
