@@ -425,12 +425,12 @@ fn single_steps(
 }
 
 /// [`advance_chain`] on register pairs: the coefficients of a step come as pairs (a_n, b_n) in
-/// the two lanes of one register, the four new values as pairs (x1, x2) and (x3, x4), with 9
-/// two-lane multiplications per four nodes instead of 18 scalar ones. Every lane does the
-/// multiplications and additions of [`advance_chain`] in the same order (no fused multiply-add),
-/// so the bits are the same. The compiler's own packing of the scalar version into four-lane
-/// registers put cross-lane shuffles (several cycles each) on the dependency path; here the
-/// path is one in-lane broadcast, one multiplication and one addition per four nodes.
+/// the two lanes of one register, the four new values as pairs (x1, x2) and (x3, x4): 9
+/// two-lane multiplications per four nodes. Every lane does the multiplications and additions
+/// of [`advance_chain`] in the same order (no fused multiply-add), so the bits are the same.
+/// The compiler packs the scalar version partly into four-lane registers, with cross-lane
+/// shuffles (several cycles each) on the dependency path; here the path is one in-lane
+/// broadcast, one multiplication and one addition per four nodes.
 #[cfg(target_arch = "x86_64")]
 #[target_feature(enable = "avx2")]
 #[inline]
