@@ -894,6 +894,20 @@ pub(super) fn file_base_name(f: &str) -> String {
         .unwrap_or_default()
 }
 
+/// The catalogue file `name` (found in the rule directory, or reported missing) with its
+/// parsed contents.
+fn parse_catalogue<'a, T: serde::de::DeserializeOwned>(
+    name: &str,
+    found: Option<&'a (String, String)>,
+    problems: &mut Problems,
+) -> Option<(&'a str, &'a str, T)> {
+    let Some((file, text)) = found else {
+        problems.add(name, 1, &format!("the rule directory has no {name}"));
+        return None;
+    };
+    parse::<T>(file, text, problems).map(|raw| (file.as_str(), text.as_str(), raw))
+}
+
 /// Reads the cause catalogue (`causes.yaml`, when found) into `base`; every cause of the
 /// vocabulary must be there. Returns `(file, text, remedy)` for each remedy a cause names, to
 /// check once the remedy catalogue is read.
@@ -903,17 +917,14 @@ pub(super) fn add_causes<'a>(
     problems: &mut Problems,
 ) -> Vec<(&'a str, &'a str, String)> {
     let mut remedy_refs = Vec::new();
-    let Some((file, text)) = found else {
-        problems.add("causes.yaml", 1, "the rule directory has no causes.yaml");
-        return remedy_refs;
-    };
-    let Some(raw) = parse::<RawCauseFile>(file, text, problems) else {
+    let Some((file, text, raw)) = parse_catalogue::<RawCauseFile>("causes.yaml", found, problems)
+    else {
         return remedy_refs;
     };
     base.sources.extend(raw.sources);
     for (id, cause) in raw.causes {
         for remedy in &cause.remedies {
-            remedy_refs.push((file.as_str(), text.as_str(), remedy.clone()));
+            remedy_refs.push((file, text, remedy.clone()));
         }
         base.causes.insert(
             id.clone(),
@@ -943,15 +954,8 @@ pub(super) fn add_cautions(
     found: Option<&(String, String)>,
     problems: &mut Problems,
 ) {
-    let Some((file, text)) = found else {
-        problems.add(
-            "cautions.yaml",
-            1,
-            "the rule directory has no cautions.yaml",
-        );
-        return;
-    };
-    let Some(raw) = parse::<RawCautionFile>(file, text, problems) else {
+    let Some((_, _, raw)) = parse_catalogue::<RawCautionFile>("cautions.yaml", found, problems)
+    else {
         return;
     };
     base.sources.extend(raw.sources);
@@ -974,15 +978,9 @@ pub(super) fn add_remedies(
     found: Option<&(String, String)>,
     problems: &mut Problems,
 ) {
-    let Some((file, text)) = found else {
-        problems.add(
-            "remedies.yaml",
-            1,
-            "the rule directory has no remedies.yaml",
-        );
-        return;
-    };
-    let Some(raw) = parse::<RawRemedyFile>(file, text, problems) else {
+    let Some((file, text, raw)) =
+        parse_catalogue::<RawRemedyFile>("remedies.yaml", found, problems)
+    else {
         return;
     };
     base.sources.extend(raw.sources);
