@@ -11,7 +11,9 @@
 //! Text is written as SVG `<text>` elements; plotters only estimates its width (no font crates),
 //! the browser picks the real font, so widths here are estimates with room to spare.
 
+use plotters::chart::MeshStyle;
 use plotters::coord::Shift;
+use plotters::coord::types::RangedCoordf64;
 use plotters::prelude::*;
 
 use super::{ReportError, ReportInput};
@@ -99,6 +101,25 @@ pub(super) fn stress_unit(largest: f64, system: UnitSystem) -> AxisUnit {
             size: 6894.757,
         },
     }
+}
+
+/// The plots' axes: no grid, grey axes and tick labels in the plots' fonts, tick labels
+/// without needless zeros, about 8 ticks across and 6 up.
+pub(super) fn plain_mesh<'m, 'a, 'b, DB: DrawingBackend>(
+    mesh: &'m mut MeshStyle<'a, 'b, RangedCoordf64, RangedCoordf64, DB>,
+) -> &'m mut MeshStyle<'a, 'b, RangedCoordf64, RangedCoordf64, DB> {
+    mesh.disable_mesh()
+        .axis_style(AXIS_COLOUR)
+        .label_style((FONT, TICK_FONT).into_font().color(&AXIS_COLOUR))
+        .axis_desc_style((FONT, DESC_FONT))
+        .x_label_formatter(&tick_text)
+        .y_label_formatter(&tick_text)
+        .x_labels(8)
+        .y_labels(6)
+}
+
+fn tick_text(value: &f64) -> String {
+    tick_label(*value)
 }
 
 /// A tick label without needless zeros: 250 not 250.0, 0.5 not 0.50, never "-0".
@@ -440,11 +461,7 @@ struct PanelOptions {
     crush_flag: bool,
 }
 
-type Chart<'a, 'b> = ChartContext<
-    'a,
-    SVGBackend<'b>,
-    Cartesian2d<plotters::coord::types::RangedCoordf64, plotters::coord::types::RangedCoordf64>,
->;
+type Chart<'a, 'b> = ChartContext<'a, SVGBackend<'b>, Cartesian2d<RangedCoordf64, RangedCoordf64>>;
 
 fn draw_panel(
     root: &DrawingArea<SVGBackend<'_>, Shift>,
@@ -473,17 +490,8 @@ fn draw_panel(
         .map_err(|e| err(&e))?;
     let x_desc = format!("Roll diameter ({})", frame.x_unit.name);
     let y_desc = format!("{} ({})", panel.name, y.name);
-    let tick = |v: &f64| tick_label(*v);
     let mut mesh = chart.configure_mesh();
-    mesh.disable_mesh()
-        .axis_style(AXIS_COLOUR)
-        .label_style((FONT, TICK_FONT).into_font().color(&AXIS_COLOUR))
-        .axis_desc_style((FONT, DESC_FONT))
-        .x_label_formatter(&tick)
-        .y_label_formatter(&tick)
-        .x_labels(8)
-        .y_labels(6)
-        .y_desc(y_desc);
+    plain_mesh(&mut mesh).y_desc(y_desc);
     if options.x_axis {
         mesh.x_desc(x_desc);
     } else {
