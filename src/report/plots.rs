@@ -516,31 +516,7 @@ fn draw_panel(
         label_zones(root, &chart, zones, frame.x_unit, y_range.end).map_err(|e| err(&e))?;
     }
 
-    let clamp = |points: Vec<(f64, f64)>| -> Vec<(f64, f64)> {
-        points
-            .into_iter()
-            .map(|(x, v)| match panel.side {
-                Side::Both => (x, v),
-                Side::Tension => (x, v.max(0.0)),
-                Side::Compression => (x, v.min(0.0)),
-            })
-            .collect()
-    };
-    let before = clamp(curve(frame.before, kind, frame.x_unit, y));
-    chart
-        .draw_series(LineSeries::new(before, BEFORE_COLOUR.stroke_width(2)))
-        .map_err(|e| err(&e))?;
-    if let Some(after) = frame.after {
-        let points = clamp(curve(after, kind, frame.x_unit, y));
-        chart
-            .draw_series(DashedLineSeries::new(
-                points,
-                9,
-                5,
-                AFTER_COLOUR.stroke_width(2),
-            ))
-            .map_err(|e| err(&e))?;
-    }
+    draw_curves(&mut chart, frame, panel)?;
 
     let core_x = frame.x_range.start;
     let span = frame.x_range.end - frame.x_range.start;
@@ -561,6 +537,41 @@ fn draw_panel(
             CRUSH_COLOUR.filled(),
         ))
         .map_err(|e| err(&e))?;
+    }
+    Ok(())
+}
+
+/// The case's curve (solid) and the remedy's (dashed), each kept to the panel's side of zero.
+fn draw_curves(
+    chart: &mut Chart<'_, '_>,
+    frame: &Frame<'_>,
+    panel: &Panel,
+) -> Result<(), ReportError> {
+    let kind = frame.kind;
+    let clamp = |points: Vec<(f64, f64)>| -> Vec<(f64, f64)> {
+        points
+            .into_iter()
+            .map(|(x, v)| match panel.side {
+                Side::Both => (x, v),
+                Side::Tension => (x, v.max(0.0)),
+                Side::Compression => (x, v.min(0.0)),
+            })
+            .collect()
+    };
+    let before = clamp(curve(frame.before, kind, frame.x_unit, panel.unit));
+    chart
+        .draw_series(LineSeries::new(before, BEFORE_COLOUR.stroke_width(2)))
+        .map_err(|e| plot_error(kind, e))?;
+    if let Some(after) = frame.after {
+        let points = clamp(curve(after, kind, frame.x_unit, panel.unit));
+        chart
+            .draw_series(DashedLineSeries::new(
+                points,
+                9,
+                5,
+                AFTER_COLOUR.stroke_width(2),
+            ))
+            .map_err(|e| plot_error(kind, e))?;
     }
     Ok(())
 }
