@@ -825,19 +825,9 @@ fn check_answers(
         );
     }
     let accepted: Vec<&str> = q.choices.iter().map(|c| c.id.as_str()).collect();
-    for v in values {
-        if !accepted.contains(&v.as_str()) {
-            problems.add(
-                file,
-                line,
-                &format!(
-                    "question `{question}`: answer `{v}` is not one of {}{}",
-                    accepted.join(", "),
-                    did_you_mean(v, accepted.iter().copied())
-                ),
-            );
-        }
-    }
+    refuse_unlisted(values, &accepted, file, line, problems, |v, list| {
+        format!("question `{question}`: answer `{v}` is not one of {list}")
+    });
 }
 
 /// Whom an evidence entry's weight goes to: the cause (default) or the whole symptom.
@@ -868,17 +858,26 @@ pub(super) fn check_words(
     line: usize,
     problems: &mut Problems,
 ) {
+    refuse_unlisted(values, accepted, file, line, problems, |v, list| {
+        format!("unknown {what} `{v}`; accepted: {list}")
+    });
+}
+
+/// Reports each of `values` not in `accepted`: `refused(value, accepted words joined)` and the
+/// closest accepted word.
+fn refuse_unlisted(
+    values: &[String],
+    accepted: &[&str],
+    file: &str,
+    line: usize,
+    problems: &mut Problems,
+    refused: impl Fn(&str, &str) -> String,
+) {
     for v in values {
         if !accepted.contains(&v.as_str()) {
-            problems.add(
-                file,
-                line,
-                &format!(
-                    "unknown {what} `{v}`; accepted: {}{}",
-                    accepted.join(", "),
-                    did_you_mean(v, accepted.iter().copied())
-                ),
-            );
+            let message = refused(v, &accepted.join(", "));
+            let hint = did_you_mean(v, accepted.iter().copied());
+            problems.add(file, line, &format!("{message}{hint}"));
         }
     }
 }
