@@ -364,68 +364,15 @@ impl Evidence {
     /// [`Evidence::indicators`] with the details' diameters, lengths and pressures in `units`
     /// (the values are the same; densities stay kg/m³, as in [`Evidence::lines_in`]).
     pub fn indicators_in(&self, units: UnitSystem) -> Vec<EvidenceIndicator> {
-        let mut out = Vec::new();
-        let mut push = |id: &'static str, value: f64, detail: String| {
-            if value.is_finite() {
-                out.push(EvidenceIndicator { id, value, detail });
-            }
-        };
+        let mut out = Indicators(Vec::new());
         if let Some(d) = &self.density {
-            let detail = match (d.measured_density, d.computed_density) {
-                (Some(m), Some(c)) => format!(
-                    "measured {m:.0} kg/m³ (⌀ {} for {}), computed {c:.0} kg/m³ (⌀ {})",
-                    mm(d.measured_diameter, units),
-                    web_length(d.length, units),
-                    mm(d.computed_diameter, units)
-                ),
-                _ => format!(
-                    "measured ⌀ {} for {} (compression {}), computed ⌀ {} (compression {})",
-                    mm(d.measured_diameter, units),
-                    web_length(d.length, units),
-                    pct(d.measured_compression),
-                    mm(d.computed_diameter, units),
-                    pct(d.computed_compression)
-                ),
-            };
-            push("measured_density_ratio", d.density_ratio, detail.clone());
-            if d.compression_uncertainty > 0.0 {
-                push(
-                    "density_deviation",
-                    (d.measured_compression - d.computed_compression) / d.compression_uncertainty,
-                    format!(
-                        "{detail}; compression {} ± {} measured, {} computed",
-                        pct(d.measured_compression),
-                        pct(d.compression_uncertainty),
-                        pct(d.computed_compression)
-                    ),
-                );
-            }
+            density_indicators(d, units, &mut out);
         }
         if let Some(h) = &self.hardness {
-            if let Some(rho) = h.rank_correlation {
-                push("hardness_shape_agreement", rho, {
-                    let [soft, model_soft, hard, model_hard] = extremes(h, units);
-                    format!(
-                        "softest reading at {soft}, computed lowest pressure at {model_soft}; \
-                             hardest at {hard}, computed at {model_hard}"
-                    )
-                });
-            }
-            if let Some(dip) = h.unexplained_dip {
-                let detail = match &h.soft_band {
-                    Some(b) => format!(
-                        "soft band at ⌀ {}: readings dip {} of their range, computed pressure {}",
-                        mm(b.diameter, units),
-                        pct(b.depth),
-                        pct(b.computed_depth)
-                    ),
-                    None => "no soft band the computed pressure does not have".into(),
-                };
-                push("hardness_soft_band", dip, detail);
-            }
+            hardness_indicators(h, units, &mut out);
         }
         if let Some(l) = &self.lanes {
-            push(
+            out.push(
                 "lane_hardness_spread",
                 l.spread,
                 format!(
@@ -435,34 +382,12 @@ impl Evidence {
             );
         }
         if let Some(s) = &self.end_line {
-            push(
-                "end_line_offset",
-                s.offset.unwrap_or(0.0),
-                format!("line on the roll end: {}", bend_words(&s.observed, units)),
-            );
-            if let (Some(agrees), Some((a, b))) = (s.agrees, s.observed_fractions) {
-                push(
-                    "slip_location_match",
-                    if agrees { 1.0 } else { 0.0 },
-                    format!(
-                        "bends at {:.0}–{:.0} % of the build; computed weakest interface at ⌀ {} ({:.0} % of the build)",
-                        a * 100.0,
-                        b * 100.0,
-                        mm(s.weakest_diameter, units),
-                        s.weakest_fraction * 100.0
-                    ),
-                );
-                push(
-                    "end_line_bend_position",
-                    0.5 * (a + b),
-                    format!("line on the roll end: {}", bend_words(&s.observed, units)),
-                );
-            }
+            end_line_indicators(s, units, &mut out);
         }
         if let Some(c) = &self.core_bore
             && let Some(ratio) = c.ratio
         {
-            push(
+            out.push(
                 "core_bore_ratio",
                 ratio,
                 format!(
@@ -474,27 +399,9 @@ impl Evidence {
             );
         }
         if let Some(s) = &self.set {
-            push(
-                "bad_roll_share",
-                s.bad_share,
-                format!("{} of {} rolls in the set bad", s.bad, s.rolls),
-            );
-            if let Some(e) = s.edge_share {
-                push(
-                    "bad_edge_share",
-                    e,
-                    format!("{} of the bad rolls at the two edge positions", pct(e)),
-                );
-            }
-            if let Some(p) = s.parent_share {
-                push(
-                    "bad_parent_share",
-                    p,
-                    format!("{} of the parent rolls looked at gave bad rolls", pct(p)),
-                );
-            }
+            set_indicators(s, &mut out);
         }
-        out
+        out.0
     }
 
     /// `text` (a reason quoting an indicator's detail, stored in SI as the JSON has it) with
@@ -525,136 +432,22 @@ impl Evidence {
     pub fn lines_in(&self, units: UnitSystem) -> Vec<String> {
         let mut out = Vec::new();
         if let Some(d) = &self.density {
-            let mut line = format!(
-                "Roll size: {} wound to ⌀ {} measured; the model predicts ⌀ {}. Mean radial \
-                 compression {} measured (± {}), {} computed; wound density measured/computed {:.3}.",
-                web_length(d.length, units),
-                mm(d.measured_diameter, units),
-                mm(d.computed_diameter, units),
-                pct(d.measured_compression),
-                pct(d.compression_uncertainty),
-                pct(d.computed_compression),
-                d.density_ratio
-            );
-            // Densities stay in kg/m³ in both systems: no US trade unit for wound density is usual.
-            if let (Some(m), Some(c)) = (d.measured_density, d.computed_density) {
-                line.push_str(&format!(" ({m:.0} against {c:.0} kg/m³.)"));
-            }
-            let gap = d.measured_compression - d.computed_compression;
-            if gap.abs() > 2.0 * d.compression_uncertainty {
-                line.push_str(if gap < 0.0 {
-                    " Larger than the model for its length: less wound-in tension than the \
-                     settings say (tension reading, entrained air, nip)."
-                } else {
-                    " Smaller than the model for its length: more wound-in tension than the \
-                     settings say."
-                });
-            } else {
-                line.push_str(" Within the measurement's uncertainty of the model.");
-            }
-            out.push(line);
+            out.push(density_line(d, units));
         }
         if let Some(h) = &self.hardness {
-            let mut line = match h.rank_correlation {
-                Some(rho) => format!(
-                    "Hardness along the radius: rank correlation with the computed pressure {rho:.2} \
-                     (1 = same shape)."
-                ),
-                None => {
-                    "Hardness along the radius: too few readings for a shape comparison.".into()
-                }
-            };
-            let [soft, model_soft, hard, model_hard] = extremes(h, units);
-            line.push_str(&format!(
-                " Softest at {soft} (model: {model_soft}), hardest at {hard} (model: {model_hard})."
-            ));
-            if let Some(b) = &h.soft_band {
-                line.push_str(&format!(
-                    " Soft band at ⌀ {} the model does not have.",
-                    mm(b.diameter, units)
-                ));
-            }
-            out.push(line);
-            for p in &h.points {
-                out.push(format!(
-                    "  ⌀ {:>8}  reading {:>7}  {}computed {}",
-                    mm(p.diameter, units),
-                    p.reading,
-                    p.measured_pressure
-                        .map(|m| format!("≈ {} measured, ", kpa(m, units)))
-                        .unwrap_or_default(),
-                    kpa(p.computed_pressure, units)
-                ));
-            }
+            out.extend(hardness_lines(h, units));
         }
         if let Some(l) = &self.lanes {
-            out.push(if l.spread < EVEN_LANES {
-                format!(
-                    "Hardness across the width: even (spread {} of the mean). The model cannot \
-                     compute lanes; these readings show none.",
-                    pct(l.spread)
-                )
-            } else {
-                format!(
-                    "Hardness across the width: spread {} of the mean; {}. The model cannot \
-                     compute lanes: hard and soft lanes point to caliper variation across the \
-                     width (gauge bands) or an uneven nip.",
-                    pct(l.spread),
-                    lane_words(l)
-                )
-            });
+            out.push(lanes_line(l));
         }
         if let Some(s) = &self.end_line {
-            let mut line = format!(
-                "Line on the roll end: {}{}. The model's weakest interface (lowest friction torque) \
-                 is at ⌀ {}, weak from ⌀ {} to ⌀ {}",
-                bend_words(&s.observed, units),
-                s.offset
-                    .map(|o| format!(", offset {}", mm(o, units)))
-                    .unwrap_or_default(),
-                mm(s.weakest_diameter, units),
-                mm(s.weak_band.0, units),
-                mm(s.weak_band.1, units)
-            );
-            line.push_str(match s.agrees {
-                Some(true) => ": the bend is where the model expects slip.",
-                Some(false) => ": the bend is not where the model expects slip.",
-                None => ".",
-            });
-            out.push(line);
+            out.push(end_line_line(s, units));
         }
         if let Some(c) = &self.core_bore {
-            out.push(match c.computed {
-                Some(comp) => format!(
-                    "Core bore: closed {} measured, {} computed (elastic, under {} on the core).",
-                    mm(c.measured, units),
-                    mm(comp, units),
-                    kpa(c.core_pressure, units)
-                ),
-                None => format!(
-                    "Core bore: closed {} measured; not computed for a core given by stiffness only.",
-                    mm(c.measured, units)
-                ),
-            });
+            out.push(core_bore_line(c, units));
         }
         if let Some(s) = &self.set {
-            out.push(format!(
-                "The set: {} of {} rolls bad ({}){}.",
-                s.bad,
-                s.rolls,
-                match s.pattern {
-                    SetPatternKind::AllRolls => "all of them: points to the settings",
-                    SetPatternKind::Edges =>
-                        "only edge positions: points to the web's profile or the trim",
-                    SetPatternKind::OneLane =>
-                        "one position: points to the web's profile or the slitter",
-                    SetPatternKind::SomeRolls => "some of them",
-                    SetPatternKind::NoneBad => "none",
-                },
-                s.parent_share
-                    .map(|p| format!("; {} of the parent rolls gave bad rolls", pct(p)))
-                    .unwrap_or_default()
-            ));
+            out.push(set_line(s));
         }
         // Notes are stored as SI text (JSON); the one that carries diameters is rebuilt in `units`.
         let si_note = self
@@ -667,6 +460,268 @@ impl Evidence {
         }));
         out
     }
+}
+
+/// Indicators being collected; a value that is not finite is left out (the rule stays neutral).
+struct Indicators(Vec<EvidenceIndicator>);
+
+impl Indicators {
+    fn push(&mut self, id: &'static str, value: f64, detail: String) {
+        if value.is_finite() {
+            self.0.push(EvidenceIndicator { id, value, detail });
+        }
+    }
+}
+
+/// `measured_density_ratio`, and `density_deviation` where the compression has an uncertainty.
+fn density_indicators(d: &DensityComparison, units: UnitSystem, out: &mut Indicators) {
+    let detail = match (d.measured_density, d.computed_density) {
+        (Some(m), Some(c)) => format!(
+            "measured {m:.0} kg/m³ (⌀ {} for {}), computed {c:.0} kg/m³ (⌀ {})",
+            mm(d.measured_diameter, units),
+            web_length(d.length, units),
+            mm(d.computed_diameter, units)
+        ),
+        _ => format!(
+            "measured ⌀ {} for {} (compression {}), computed ⌀ {} (compression {})",
+            mm(d.measured_diameter, units),
+            web_length(d.length, units),
+            pct(d.measured_compression),
+            mm(d.computed_diameter, units),
+            pct(d.computed_compression)
+        ),
+    };
+    out.push("measured_density_ratio", d.density_ratio, detail.clone());
+    if d.compression_uncertainty > 0.0 {
+        out.push(
+            "density_deviation",
+            (d.measured_compression - d.computed_compression) / d.compression_uncertainty,
+            format!(
+                "{detail}; compression {} ± {} measured, {} computed",
+                pct(d.measured_compression),
+                pct(d.compression_uncertainty),
+                pct(d.computed_compression)
+            ),
+        );
+    }
+}
+
+/// `hardness_shape_agreement` and `hardness_soft_band`, each where it could be computed.
+fn hardness_indicators(h: &HardnessComparison, units: UnitSystem, out: &mut Indicators) {
+    if let Some(rho) = h.rank_correlation {
+        out.push("hardness_shape_agreement", rho, {
+            let [soft, model_soft, hard, model_hard] = extremes(h, units);
+            format!(
+                "softest reading at {soft}, computed lowest pressure at {model_soft}; \
+                     hardest at {hard}, computed at {model_hard}"
+            )
+        });
+    }
+    if let Some(dip) = h.unexplained_dip {
+        let detail = match &h.soft_band {
+            Some(b) => format!(
+                "soft band at ⌀ {}: readings dip {} of their range, computed pressure {}",
+                mm(b.diameter, units),
+                pct(b.depth),
+                pct(b.computed_depth)
+            ),
+            None => "no soft band the computed pressure does not have".into(),
+        };
+        out.push("hardness_soft_band", dip, detail);
+    }
+}
+
+/// `end_line_offset`, and where the bend's place is known `slip_location_match` and
+/// `end_line_bend_position`.
+fn end_line_indicators(s: &SlipComparison, units: UnitSystem, out: &mut Indicators) {
+    out.push(
+        "end_line_offset",
+        s.offset.unwrap_or(0.0),
+        format!("line on the roll end: {}", bend_words(&s.observed, units)),
+    );
+    if let (Some(agrees), Some((a, b))) = (s.agrees, s.observed_fractions) {
+        out.push(
+            "slip_location_match",
+            if agrees { 1.0 } else { 0.0 },
+            format!(
+                "bends at {:.0}–{:.0} % of the build; computed weakest interface at ⌀ {} ({:.0} % of the build)",
+                a * 100.0,
+                b * 100.0,
+                mm(s.weakest_diameter, units),
+                s.weakest_fraction * 100.0
+            ),
+        );
+        out.push(
+            "end_line_bend_position",
+            0.5 * (a + b),
+            format!("line on the roll end: {}", bend_words(&s.observed, units)),
+        );
+    }
+}
+
+/// `bad_roll_share`, and the edge and parent-roll shares where they were looked at.
+fn set_indicators(s: &SetPattern, out: &mut Indicators) {
+    out.push(
+        "bad_roll_share",
+        s.bad_share,
+        format!("{} of {} rolls in the set bad", s.bad, s.rolls),
+    );
+    if let Some(e) = s.edge_share {
+        out.push(
+            "bad_edge_share",
+            e,
+            format!("{} of the bad rolls at the two edge positions", pct(e)),
+        );
+    }
+    if let Some(p) = s.parent_share {
+        out.push(
+            "bad_parent_share",
+            p,
+            format!("{} of the parent rolls looked at gave bad rolls", pct(p)),
+        );
+    }
+}
+
+/// The roll size line: measured diameter and compression against the model's, and what the
+/// gap says about the wound-in tension.
+fn density_line(d: &DensityComparison, units: UnitSystem) -> String {
+    let mut line = format!(
+        "Roll size: {} wound to ⌀ {} measured; the model predicts ⌀ {}. Mean radial \
+         compression {} measured (± {}), {} computed; wound density measured/computed {:.3}.",
+        web_length(d.length, units),
+        mm(d.measured_diameter, units),
+        mm(d.computed_diameter, units),
+        pct(d.measured_compression),
+        pct(d.compression_uncertainty),
+        pct(d.computed_compression),
+        d.density_ratio
+    );
+    // Densities stay in kg/m³ in both systems: no US trade unit for wound density is usual.
+    if let (Some(m), Some(c)) = (d.measured_density, d.computed_density) {
+        line.push_str(&format!(" ({m:.0} against {c:.0} kg/m³.)"));
+    }
+    let gap = d.measured_compression - d.computed_compression;
+    if gap.abs() > 2.0 * d.compression_uncertainty {
+        line.push_str(if gap < 0.0 {
+            " Larger than the model for its length: less wound-in tension than the \
+             settings say (tension reading, entrained air, nip)."
+        } else {
+            " Smaller than the model for its length: more wound-in tension than the \
+             settings say."
+        });
+    } else {
+        line.push_str(" Within the measurement's uncertainty of the model.");
+    }
+    line
+}
+
+/// Hardness along the radius: the shape comparison, then one indented line per reading.
+fn hardness_lines(h: &HardnessComparison, units: UnitSystem) -> Vec<String> {
+    let mut line = match h.rank_correlation {
+        Some(rho) => format!(
+            "Hardness along the radius: rank correlation with the computed pressure {rho:.2} \
+             (1 = same shape)."
+        ),
+        None => "Hardness along the radius: too few readings for a shape comparison.".into(),
+    };
+    let [soft, model_soft, hard, model_hard] = extremes(h, units);
+    line.push_str(&format!(
+        " Softest at {soft} (model: {model_soft}), hardest at {hard} (model: {model_hard})."
+    ));
+    if let Some(b) = &h.soft_band {
+        line.push_str(&format!(
+            " Soft band at ⌀ {} the model does not have.",
+            mm(b.diameter, units)
+        ));
+    }
+    let mut out = vec![line];
+    for p in &h.points {
+        out.push(format!(
+            "  ⌀ {:>8}  reading {:>7}  {}computed {}",
+            mm(p.diameter, units),
+            p.reading,
+            p.measured_pressure
+                .map(|m| format!("≈ {} measured, ", kpa(m, units)))
+                .unwrap_or_default(),
+            kpa(p.computed_pressure, units)
+        ));
+    }
+    out
+}
+
+/// Hardness across the width: even, or which lanes stand out (the model has no lanes).
+fn lanes_line(l: &LaneComparison) -> String {
+    if l.spread < EVEN_LANES {
+        format!(
+            "Hardness across the width: even (spread {} of the mean). The model cannot \
+             compute lanes; these readings show none.",
+            pct(l.spread)
+        )
+    } else {
+        format!(
+            "Hardness across the width: spread {} of the mean; {}. The model cannot \
+             compute lanes: hard and soft lanes point to caliper variation across the \
+             width (gauge bands) or an uneven nip.",
+            pct(l.spread),
+            lane_words(l)
+        )
+    }
+}
+
+/// The line drawn on the roll end against the model's weakest interface.
+fn end_line_line(s: &SlipComparison, units: UnitSystem) -> String {
+    let mut line = format!(
+        "Line on the roll end: {}{}. The model's weakest interface (lowest friction torque) \
+         is at ⌀ {}, weak from ⌀ {} to ⌀ {}",
+        bend_words(&s.observed, units),
+        s.offset
+            .map(|o| format!(", offset {}", mm(o, units)))
+            .unwrap_or_default(),
+        mm(s.weakest_diameter, units),
+        mm(s.weak_band.0, units),
+        mm(s.weak_band.1, units)
+    );
+    line.push_str(match s.agrees {
+        Some(true) => ": the bend is where the model expects slip.",
+        Some(false) => ": the bend is not where the model expects slip.",
+        None => ".",
+    });
+    line
+}
+
+/// The core bore's closing, measured against computed where the core allows it.
+fn core_bore_line(c: &CoreBoreComparison, units: UnitSystem) -> String {
+    match c.computed {
+        Some(comp) => format!(
+            "Core bore: closed {} measured, {} computed (elastic, under {} on the core).",
+            mm(c.measured, units),
+            mm(comp, units),
+            kpa(c.core_pressure, units)
+        ),
+        None => format!(
+            "Core bore: closed {} measured; not computed for a core given by stiffness only.",
+            mm(c.measured, units)
+        ),
+    }
+}
+
+/// Which rolls of the set were bad, and what that pattern points to.
+fn set_line(s: &SetPattern) -> String {
+    format!(
+        "The set: {} of {} rolls bad ({}){}.",
+        s.bad,
+        s.rolls,
+        match s.pattern {
+            SetPatternKind::AllRolls => "all of them: points to the settings",
+            SetPatternKind::Edges => "only edge positions: points to the web's profile or the trim",
+            SetPatternKind::OneLane => "one position: points to the web's profile or the slitter",
+            SetPatternKind::SomeRolls => "some of them",
+            SetPatternKind::NoneBad => "none",
+        },
+        s.parent_share
+            .map(|p| format!("; {} of the parent rolls gave bad rolls", pct(p)))
+            .unwrap_or_default()
+    )
 }
 
 /// One row of the measured-against-computed table of reports.

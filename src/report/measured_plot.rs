@@ -11,8 +11,8 @@
 use plotters::prelude::*;
 
 use super::plots::{
-    AXIS_COLOUR, AxisUnit, BEFORE_COLOUR, DESC_FONT, FONT, KEY_HEIGHT, KeyEntry, PLOT_SIZE,
-    RIGHT_MARGIN, TICK_FONT, draw_key, length_unit, stress_unit, tick_label,
+    AxisUnit, BEFORE_COLOUR, KEY_HEIGHT, KeyEntry, PLOT_SIZE, RIGHT_MARGIN, draw_key, length_unit,
+    plain_mesh, stress_unit,
 };
 use super::{ReportError, ReportInput};
 use crate::evidence::HardnessComparison;
@@ -195,17 +195,7 @@ fn draw(series: HardnessSeries) -> Result<HardnessPlot, ReportError> {
             .y_label_area_size(78)
             .build_cartesian_2d(x_range, y_range)
             .map_err(plot_error)?;
-        let tick = |v: &f64| tick_label(*v);
-        chart
-            .configure_mesh()
-            .disable_mesh()
-            .axis_style(AXIS_COLOUR)
-            .label_style((FONT, TICK_FONT).into_font().color(&AXIS_COLOUR))
-            .axis_desc_style((FONT, DESC_FONT))
-            .x_label_formatter(&tick)
-            .y_label_formatter(&tick)
-            .x_labels(8)
-            .y_labels(6)
+        plain_mesh(&mut chart.configure_mesh())
             .x_desc(format!("Roll diameter ({})", x_unit.name))
             .y_desc(y_desc)
             .draw()

@@ -11,7 +11,9 @@
 //! Text is written as SVG `<text>` elements; plotters only estimates its width (no font crates),
 //! the browser picks the real font, so widths here are estimates with room to spare.
 
+use plotters::chart::MeshStyle;
 use plotters::coord::Shift;
+use plotters::coord::types::RangedCoordf64;
 use plotters::prelude::*;
 
 use super::{ReportError, ReportInput};
@@ -99,6 +101,25 @@ pub(super) fn stress_unit(largest: f64, system: UnitSystem) -> AxisUnit {
             size: 6894.757,
         },
     }
+}
+
+/// The plots' axes: no grid, grey axes and tick labels in the plots' fonts, tick labels
+/// without needless zeros, about 8 ticks across and 6 up.
+pub(super) fn plain_mesh<'m, 'a, 'b, DB: DrawingBackend>(
+    mesh: &'m mut MeshStyle<'a, 'b, RangedCoordf64, RangedCoordf64, DB>,
+) -> &'m mut MeshStyle<'a, 'b, RangedCoordf64, RangedCoordf64, DB> {
+    mesh.disable_mesh()
+        .axis_style(AXIS_COLOUR)
+        .label_style((FONT, TICK_FONT).into_font().color(&AXIS_COLOUR))
+        .axis_desc_style((FONT, DESC_FONT))
+        .x_label_formatter(&tick_text)
+        .y_label_formatter(&tick_text)
+        .x_labels(8)
+        .y_labels(6)
+}
+
+fn tick_text(value: &f64) -> String {
+    tick_label(*value)
 }
 
 /// A tick label without needless zeros: 250 not 250.0, 0.5 not 0.50, never "-0".
@@ -229,14 +250,61 @@ pub fn stress_svg(
         return Err(ReportError::EmptyProfile);
     }
     let profiles: Vec<&Profile> = std::iter::once(before).chain(after).collect();
+    let (largest, smallest) = value_extremes(&profiles, kind);
+    let x_unit = length_unit(units);
+    let frame = Frame {
+        kind,
+        before,
+        after,
+        x_unit,
+        x_range: diameter_range(&profiles, x_unit),
+    };
+
+    // The crush rating applies at the core only; it widens the scale when it is within half as
+    // much again of the peak, and is flagged at the top edge when it is further off.
+    let rating = crush_pressure.filter(|c| *c > 0.0 && c.is_finite());
+    let crush = Crush {
+        rating,
+        on_scale: rating.filter(|c| *c <= 1.5 * largest.max(f64::MIN_POSITIVE)),
+    };
+    let panels = match kind {
+        PlotKind::Pressure => {
+            let top = largest.max(crush.on_scale.unwrap_or(0.0)).max(1.0);
+            vec![Panel {
+                low: 0.0,
+                high: top * 1.1,
+                unit: stress_unit(top, units),
+                name: "Interlayer pressure".to_string(),
+                side: Side::Both,
+            }]
+        }
+        PlotKind::Tangential => tangential_panels(largest, smallest, units),
+    };
+    let key = plot_key(kind, after.is_some(), &crush, smallest, units);
+    draw_plot(&frame, &panels, &key, &crush)
+}
+
+/// The core's rated crush pressure (when given and positive) and, when it fits the scale, the
+/// same value to draw as a bar at the core.
+struct Crush {
+    rating: Option<f64>,
+    on_scale: Option<f64>,
+}
+
+/// Largest value (at least 0) and smallest value (at most 0) of the finite values plotted.
+fn value_extremes(profiles: &[&Profile], kind: PlotKind) -> (f64, f64) {
     let (mut largest, mut smallest) = (0.0f64, 0.0f64);
-    for p in &profiles {
+    for p in profiles {
         for v in values(p, kind).iter().filter(|v| v.is_finite()) {
             largest = largest.max(*v);
             smallest = smallest.min(*v);
         }
     }
-    let x_unit = length_unit(units);
+    (largest, smallest)
+}
+
+/// The diameter axis: from the smallest core to the largest roll of the profiles, in `x_unit`.
+fn diameter_range(profiles: &[&Profile], x_unit: AxisUnit) -> std::ops::Range<f64> {
     let d_min = profiles
         .iter()
         .filter_map(|p| p.radius.first())
@@ -249,40 +317,24 @@ pub fn stress_svg(
         .fold(f64::NEG_INFINITY, |a, b| a.max(*b))
         * 2.0
         / x_unit.size;
-    let x_range = if d_max > d_min && d_min.is_finite() && d_max.is_finite() {
+    if d_max > d_min && d_min.is_finite() && d_max.is_finite() {
         d_min..d_max
     } else {
         d_min..d_min + 1.0
-    };
-    let frame = Frame {
-        kind,
-        before,
-        after,
-        x_unit,
-        x_range,
-    };
+    }
+}
 
-    // The crush rating applies at the core only; it widens the scale when it is within half as
-    // much again of the peak, and is flagged at the top edge when it is further off.
-    let crush = crush_pressure.filter(|c| *c > 0.0 && c.is_finite());
-    let crush_on_scale = crush.filter(|c| *c <= 1.5 * largest.max(f64::MIN_POSITIVE));
-    let panels = match kind {
-        PlotKind::Pressure => {
-            let top = largest.max(crush_on_scale.unwrap_or(0.0)).max(1.0);
-            vec![Panel {
-                low: 0.0,
-                high: top * 1.1,
-                unit: stress_unit(top, units),
-                name: "Interlayer pressure".to_string(),
-                side: Side::Both,
-            }]
-        }
-        PlotKind::Tangential => tangential_panels(largest, smallest, units),
-    };
-
-    // The axis names the quantity; the key only tells the curves apart.
+/// The key under the plot. The axis names the quantity; the key only tells the curves apart,
+/// gives the crush rating and says when no layer is in compression.
+fn plot_key(
+    kind: PlotKind,
+    with_after: bool,
+    crush: &Crush,
+    smallest: f64,
+    units: UnitSystem,
+) -> Vec<KeyEntry> {
     let mut key: Vec<KeyEntry> = Vec::new();
-    if after.is_some() {
+    if with_after {
         key.push(KeyEntry {
             text: "before".to_string(),
             colour: BEFORE_COLOUR,
@@ -297,11 +349,11 @@ pub fn stress_svg(
         });
     }
     if kind == PlotKind::Pressure
-        && let Some(c) = crush
+        && let Some(c) = crush.rating
     {
         let unit = stress_unit(c, units);
         let value = format!("{} {}", tick_label(c / unit.size), unit.name);
-        let text = if crush_on_scale.is_some() {
+        let text = if crush.on_scale.is_some() {
             format!("{LABEL_CRUSH} {value} (bar at the core)")
         } else {
             format!("▲ {LABEL_CRUSH} {value}, {LABEL_CRUSH_OFF_SCALE} (above the top of the plot)")
@@ -310,7 +362,7 @@ pub fn stress_svg(
             text,
             colour: CRUSH_COLOUR,
             dashed: false,
-            marker: crush_on_scale.is_none(),
+            marker: crush.on_scale.is_none(),
         });
     }
     if kind == PlotKind::Tangential && smallest >= 0.0 {
@@ -321,7 +373,17 @@ pub fn stress_svg(
             marker: true,
         });
     }
+    key
+}
 
+/// Lays out the panels (stacked when there are two) and the key, and writes the SVG.
+fn draw_plot(
+    frame: &Frame<'_>,
+    panels: &[Panel],
+    key: &[KeyEntry],
+    crush: &Crush,
+) -> Result<String, ReportError> {
+    let kind = frame.kind;
     let height = if panels.len() > 1 {
         SPLIT_PLOT_HEIGHT
     } else {
@@ -350,12 +412,14 @@ pub fn stress_svg(
                 x_axis: index == last,
                 // A gap between the panels keeps their two zero labels apart.
                 top_room: if index == 0 { top_room } else { 14 },
-                crush: crush_on_scale.filter(|_| index == 0 && kind == PlotKind::Pressure),
-                crush_flag: crush.is_some() && crush_on_scale.is_none() && index == 0,
+                crush: crush
+                    .on_scale
+                    .filter(|_| index == 0 && kind == PlotKind::Pressure),
+                crush_flag: crush.rating.is_some() && crush.on_scale.is_none() && index == 0,
             };
-            draw_panel(&root, area, &frame, panel, &options)?;
+            draw_panel(&root, area, frame, panel, &options)?;
         }
-        draw_key(&key_area, &key).map_err(|e| plot_error(kind, e))?;
+        draw_key(&key_area, key).map_err(|e| plot_error(kind, e))?;
         root.present().map_err(|e| plot_error(kind, e))?;
     }
     Ok(svg)
@@ -397,11 +461,7 @@ struct PanelOptions {
     crush_flag: bool,
 }
 
-type Chart<'a, 'b> = ChartContext<
-    'a,
-    SVGBackend<'b>,
-    Cartesian2d<plotters::coord::types::RangedCoordf64, plotters::coord::types::RangedCoordf64>,
->;
+type Chart<'a, 'b> = ChartContext<'a, SVGBackend<'b>, Cartesian2d<RangedCoordf64, RangedCoordf64>>;
 
 fn draw_panel(
     root: &DrawingArea<SVGBackend<'_>, Shift>,
@@ -430,17 +490,8 @@ fn draw_panel(
         .map_err(|e| err(&e))?;
     let x_desc = format!("Roll diameter ({})", frame.x_unit.name);
     let y_desc = format!("{} ({})", panel.name, y.name);
-    let tick = |v: &f64| tick_label(*v);
     let mut mesh = chart.configure_mesh();
-    mesh.disable_mesh()
-        .axis_style(AXIS_COLOUR)
-        .label_style((FONT, TICK_FONT).into_font().color(&AXIS_COLOUR))
-        .axis_desc_style((FONT, DESC_FONT))
-        .x_label_formatter(&tick)
-        .y_label_formatter(&tick)
-        .x_labels(8)
-        .y_labels(6)
-        .y_desc(y_desc);
+    plain_mesh(&mut mesh).y_desc(y_desc);
     if options.x_axis {
         mesh.x_desc(x_desc);
     } else {
@@ -465,31 +516,7 @@ fn draw_panel(
         label_zones(root, &chart, zones, frame.x_unit, y_range.end).map_err(|e| err(&e))?;
     }
 
-    let clamp = |points: Vec<(f64, f64)>| -> Vec<(f64, f64)> {
-        points
-            .into_iter()
-            .map(|(x, v)| match panel.side {
-                Side::Both => (x, v),
-                Side::Tension => (x, v.max(0.0)),
-                Side::Compression => (x, v.min(0.0)),
-            })
-            .collect()
-    };
-    let before = clamp(curve(frame.before, kind, frame.x_unit, y));
-    chart
-        .draw_series(LineSeries::new(before, BEFORE_COLOUR.stroke_width(2)))
-        .map_err(|e| err(&e))?;
-    if let Some(after) = frame.after {
-        let points = clamp(curve(after, kind, frame.x_unit, y));
-        chart
-            .draw_series(DashedLineSeries::new(
-                points,
-                9,
-                5,
-                AFTER_COLOUR.stroke_width(2),
-            ))
-            .map_err(|e| err(&e))?;
-    }
+    draw_curves(&mut chart, frame, panel)?;
 
     let core_x = frame.x_range.start;
     let span = frame.x_range.end - frame.x_range.start;
@@ -510,6 +537,41 @@ fn draw_panel(
             CRUSH_COLOUR.filled(),
         ))
         .map_err(|e| err(&e))?;
+    }
+    Ok(())
+}
+
+/// The case's curve (solid) and the remedy's (dashed), each kept to the panel's side of zero.
+fn draw_curves(
+    chart: &mut Chart<'_, '_>,
+    frame: &Frame<'_>,
+    panel: &Panel,
+) -> Result<(), ReportError> {
+    let kind = frame.kind;
+    let clamp = |points: Vec<(f64, f64)>| -> Vec<(f64, f64)> {
+        points
+            .into_iter()
+            .map(|(x, v)| match panel.side {
+                Side::Both => (x, v),
+                Side::Tension => (x, v.max(0.0)),
+                Side::Compression => (x, v.min(0.0)),
+            })
+            .collect()
+    };
+    let before = clamp(curve(frame.before, kind, frame.x_unit, panel.unit));
+    chart
+        .draw_series(LineSeries::new(before, BEFORE_COLOUR.stroke_width(2)))
+        .map_err(|e| plot_error(kind, e))?;
+    if let Some(after) = frame.after {
+        let points = clamp(curve(after, kind, frame.x_unit, panel.unit));
+        chart
+            .draw_series(DashedLineSeries::new(
+                points,
+                9,
+                5,
+                AFTER_COLOUR.stroke_width(2),
+            ))
+            .map_err(|e| plot_error(kind, e))?;
     }
     Ok(())
 }

@@ -15,7 +15,6 @@ mod compile;
 mod raw;
 
 use compile::*;
-use raw::*;
 
 /// A rule-base error naming file, line and the closest valid name.
 #[derive(Debug, thiserror::Error)]
@@ -349,115 +348,26 @@ impl RuleBase {
     pub fn from_files(files: &[(String, String)]) -> Result<RuleBase, RuleError> {
         let mut problems = Problems::default();
         let mut base = RuleBase::default();
-        let base_name = |f: &str| {
-            Path::new(f)
-                .file_name()
-                .map(|n| n.to_string_lossy().to_string())
-                .unwrap_or_default()
-        };
-        let find = |wanted: &str| files.iter().find(|(f, _)| base_name(f) == wanted);
+        let find = |wanted: &str| files.iter().find(|(f, _)| file_base_name(f) == wanted);
 
         // Catalogues first: symptom files refer to them.
-        let mut remedy_refs: Vec<(String, String, String)> = Vec::new(); // (file, text, remedy)
-        match find("causes.yaml") {
-            None => problems.add("causes.yaml", 1, "the rule directory has no causes.yaml"),
-            Some((file, text)) => {
-                if let Some(raw) = parse::<RawCauseFile>(file, text, &mut problems) {
-                    base.sources.extend(raw.sources);
-                    for (id, cause) in raw.causes {
-                        for remedy in &cause.remedies {
-                            remedy_refs.push((file.clone(), text.clone(), remedy.clone()));
-                        }
-                        base.causes.insert(
-                            id.clone(),
-                            CauseInfo {
-                                id,
-                                title: cause.title,
-                                mechanism: cause.mechanism,
-                                remedies: cause.remedies,
-                            },
-                        );
-                    }
-                    for required in vocabulary::CAUSE_IDS {
-                        if !base.causes.contains_key(required) {
-                            problems.add(
-                                file,
-                                1,
-                                &format!("cause `{required}` of the vocabulary is missing"),
-                            );
-                        }
-                    }
-                }
-            }
-        }
-        match find("cautions.yaml") {
-            None => problems.add(
-                "cautions.yaml",
-                1,
-                "the rule directory has no cautions.yaml",
-            ),
-            Some((file, text)) => {
-                if let Some(raw) = parse::<RawCautionFile>(file, text, &mut problems) {
-                    base.sources.extend(raw.sources);
-                    for (id, c) in raw.cautions {
-                        base.cautions.insert(
-                            id.clone(),
-                            CautionInfo {
-                                id,
-                                title: c.title,
-                                text: c.text,
-                            },
-                        );
-                    }
-                }
-            }
-        }
-        match find("remedies.yaml") {
-            None => problems.add(
-                "remedies.yaml",
-                1,
-                "the rule directory has no remedies.yaml",
-            ),
-            Some((file, text)) => {
-                if let Some(raw) = parse::<RawRemedyFile>(file, text, &mut problems) {
-                    base.sources.extend(raw.sources);
-                    for (id, r) in raw.remedies {
-                        if let Some(remedy) =
-                            compile_remedy(&id, r, file, text, &base, &mut problems)
-                        {
-                            base.remedies.insert(id, remedy);
-                        }
-                    }
-                }
-            }
-        }
-        for (file, text, remedy) in &remedy_refs {
-            check_remedy(remedy, file, text, &base, &mut problems);
+        let remedy_refs = add_causes(&mut base, find("causes.yaml"), &mut problems);
+        add_cautions(&mut base, find("cautions.yaml"), &mut problems);
+        add_remedies(&mut base, find("remedies.yaml"), &mut problems);
+        for (file, text, remedy) in remedy_refs {
+            check_remedy(&remedy, file, text, &base, &mut problems);
         }
 
         // Symptom files.
         for (file, text) in files {
-            let name = base_name(file);
+            let name = file_base_name(file);
             if matches!(
                 name.as_str(),
                 "causes.yaml" | "remedies.yaml" | "cautions.yaml"
             ) {
                 continue;
             }
-            let Some(raw) = parse::<RawSymptomFile>(file, text, &mut problems) else {
-                continue;
-            };
-            if let Some(symptom) = compile_symptom(raw, file, text, &base, &mut problems) {
-                if base.symptoms.iter().any(|s| s.id == symptom.id) {
-                    problems.add(
-                        file,
-                        line_of(text, &symptom.id),
-                        &format!("symptom `{}` is defined twice", symptom.id),
-                    );
-                } else {
-                    base.symptoms.push(symptom);
-                }
-            }
+            add_symptom(&mut base, file, text, &mut problems);
         }
         base.symptoms.sort_by_key(|s| {
             vocabulary::SYMPTOM_IDS

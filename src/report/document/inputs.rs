@@ -125,12 +125,28 @@ pub(super) fn case_summary(input: &ReportInput) -> CaseSummary {
 
 /// The resolved inputs as labelled lines, each marked when it was assumed.
 pub fn input_lines(resolved: &ResolvedCase, units: UnitSystem) -> Vec<InputLine> {
+    let mut lines = web_and_core_values(resolved, units);
+    lines.extend(winding_values(resolved, units));
+    lines.extend(event_values(resolved, units));
+    if let Some(rating) = resolved.core.shaft_torque_rating {
+        lines.push((
+            "core.shaft_torque_rating".into(),
+            format_quantity(rating, QuantityKind::Torque, units),
+        ));
+    }
+    lines
+        .into_iter()
+        .map(|(field, value)| input_line(resolved, field, value))
+        .collect()
+}
+
+/// `(field, value)` of the web's and the core's inputs.
+fn web_and_core_values(resolved: &ResolvedCase, units: UnitSystem) -> Vec<(String, String)> {
     use QuantityKind::*;
     let q = |value: f64, kind: QuantityKind| format_quantity(value, kind, units);
     let web = &resolved.web;
     let core = &resolved.core;
-    let winding = &resolved.winding;
-    let mut lines: Vec<(String, String)> = vec![
+    vec![
         ("web.material".into(), web.material.to_string()),
         ("web.thickness".into(), q(web.thickness, Length)),
         ("web.width".into(), q(web.width, Length)),
@@ -159,6 +175,15 @@ pub fn input_lines(resolved: &ResolvedCase, units: UnitSystem) -> Vec<InputLine>
             core_stiffness_text(&core.stiffness, units),
         ),
         ("core.crush_pressure".into(), q(core.crush_pressure, Stress)),
+    ]
+}
+
+/// `(field, value)` of the roll's size and the winder's settings, upsets and temperature.
+fn winding_values(resolved: &ResolvedCase, units: UnitSystem) -> Vec<(String, String)> {
+    use QuantityKind::*;
+    let q = |value: f64, kind: QuantityKind| format_quantity(value, kind, units);
+    let winding = &resolved.winding;
+    let mut lines: Vec<(String, String)> = vec![
         (
             "roll.diameter".into(),
             q(resolved.roll.outer_diameter, Length),
@@ -202,11 +227,15 @@ pub fn input_lines(resolved: &ResolvedCase, units: UnitSystem) -> Vec<InputLine>
     if let Some(t) = winding.recipe_tension {
         lines.push(("winding.recipe_tension".into(), q(t, ForcePerWidth)));
     }
-    // The events of the slip and telescoping checks, as the mechanics take them (given, or
-    // the default the resolver lists as assumed).
+    lines
+}
+
+/// `(field, value)` of the events of the slip and telescoping checks, as the mechanics take
+/// them (given, or the default the resolver lists as assumed).
+fn event_values(resolved: &ResolvedCase, units: UnitSystem) -> Vec<(String, String)> {
     let events = crate::mechanics::MechanicsInputs::from_case(resolved);
     let seconds = |t: f64| format!("{} s", round_sig(t, 4));
-    lines.extend([
+    vec![
         (
             "winding.acceleration_time".into(),
             seconds(events.events.start_ramp_time),
@@ -221,38 +250,35 @@ pub fn input_lines(resolved: &ResolvedCase, units: UnitSystem) -> Vec<InputLine>
         ),
         (
             "winding.unwind_tension".into(),
-            q(
+            format_quantity(
                 events.events.unwind_tension.unwrap_or(events.outer_tension),
-                ForcePerWidth,
+                QuantityKind::ForcePerWidth,
+                units,
             ),
         ),
         (
             "winding.handling_shock_factor".into(),
             format!("{}", round_sig(events.events.shock_factor, 3)),
         ),
-    ]);
-    if let Some(rating) = core.shaft_torque_rating {
-        lines.push(("core.shaft_torque_rating".into(), q(rating, Torque)));
+    ]
+}
+
+/// One input line: its label, and whether (and where from) the value was assumed.
+fn input_line(resolved: &ResolvedCase, field: String, value: String) -> InputLine {
+    let assumed = resolved.assumed.iter().find(|a| {
+        a.field == field
+            || a.field.starts_with(&format!("{field}."))
+            || (field == "roll.diameter" && a.field == "roll.outer_diameter")
+            || (field == "core.stiffness" && a.field == "core.modulus")
+    });
+    InputLine {
+        label: input_label(&field).to_string(),
+        value,
+        assumed: assumed.is_some_and(|a| a.origin != crate::case::ValueOrigin::Computed),
+        source: assumed.map(|a| a.source.clone()),
+        origin: assumed.map(|a| a.origin),
+        field,
     }
-    lines
-        .into_iter()
-        .map(|(field, value)| {
-            let assumed = resolved.assumed.iter().find(|a| {
-                a.field == field
-                    || a.field.starts_with(&format!("{field}."))
-                    || (field == "roll.diameter" && a.field == "roll.outer_diameter")
-                    || (field == "core.stiffness" && a.field == "core.modulus")
-            });
-            InputLine {
-                label: input_label(&field).to_string(),
-                value,
-                assumed: assumed.is_some_and(|a| a.origin != crate::case::ValueOrigin::Computed),
-                source: assumed.map(|a| a.source.clone()),
-                origin: assumed.map(|a| a.origin),
-                field,
-            }
-        })
-        .collect()
 }
 
 /// The plain-words label of an input line, from the case field registry (`winding.upsets[2]`

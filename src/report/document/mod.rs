@@ -237,32 +237,7 @@ pub fn build_document(input: &ReportInput) -> Result<ReportDocument, ReportError
     let units = input.units;
     let case = inputs::case_summary(input);
     let stress = stress_summary(&input.resolved, &input.profile, units);
-    let causes = input
-        .diagnosis
-        .causes
-        .iter()
-        .enumerate()
-        .map(|(index, cause)| CauseEntry {
-            rank: index + 1,
-            id: cause.id.clone(),
-            title: cause.title.clone(),
-            mechanism: cause.mechanism.clone(),
-            belief: round_sig(cause.belief, 4),
-            reasons: cause
-                .reasons
-                .iter()
-                .map(|r| ReasonEntry {
-                    weight: round_sig(r.weight, 4),
-                    // A measured-evidence reason quotes its measurement in the report's units.
-                    value: match (&input.diagnosis.evidence, &r.value) {
-                        (Some(e), Some(v)) => Some(e.localise(v, units)),
-                        _ => r.value.clone(),
-                    },
-                    ..r.clone()
-                })
-                .collect(),
-        })
-        .collect();
+    let causes = cause_entries(input, units);
     let remedies = input
         .diagnosis
         .remedies
@@ -298,46 +273,85 @@ pub fn build_document(input: &ReportInput) -> Result<ReportDocument, ReportError
         indicators,
         remedy_comparison,
         similar_past: input.similar_past.clone(),
-        complaint: input
-            .case
-            .complaint
-            .as_ref()
-            .map(|c| {
-                // Confirmed causes by their titles, as the ranking names them (plain words
-                // for a cause the ranking does not list).
-                let title = |id: &str| {
-                    input
-                        .diagnosis
-                        .causes
-                        .iter()
-                        .find(|c| c.id == id)
-                        .map(|c| c.title.clone())
-                        .unwrap_or_else(|| id.replace('_', " "))
-                };
-                c.lines_titled(&title)
-                    .into_iter()
-                    .map(|(label, value)| (label.to_string(), value))
-                    .collect()
-            })
-            .unwrap_or_default(),
+        complaint: complaint_lines(input),
         model_limits: MODEL_LIMITS.iter().map(|s| s.to_string()).collect(),
         profile: thin_profile(&input.profile, PROFILE_POINTS),
-        measured: input
-            .diagnosis
-            .evidence
-            .as_ref()
-            .filter(|e| !e.is_empty())
-            .map(|e| MeasuredSection {
-                rows: e.rows_in(units),
-                lines: e.lines_in(units),
-                evidence: e.clone(),
-                estimate: input
-                    .estimate
-                    .as_ref()
-                    .map(|estimate| EstimateSection::new(estimate, units)),
-            }),
+        measured: measured_section(input, units),
         sensitivity: input.sensitivity.clone().filter(|s| !s.is_empty()),
     })
+}
+
+/// The ranked causes, numbered, with their reasons.
+fn cause_entries(input: &ReportInput, units: UnitSystem) -> Vec<CauseEntry> {
+    input
+        .diagnosis
+        .causes
+        .iter()
+        .enumerate()
+        .map(|(index, cause)| CauseEntry {
+            rank: index + 1,
+            id: cause.id.clone(),
+            title: cause.title.clone(),
+            mechanism: cause.mechanism.clone(),
+            belief: round_sig(cause.belief, 4),
+            reasons: cause
+                .reasons
+                .iter()
+                .map(|r| ReasonEntry {
+                    weight: round_sig(r.weight, 4),
+                    // A measured-evidence reason quotes its measurement in the report's units.
+                    value: match (&input.diagnosis.evidence, &r.value) {
+                        (Some(e), Some(v)) => Some(e.localise(v, units)),
+                        _ => r.value.clone(),
+                    },
+                    ..r.clone()
+                })
+                .collect(),
+        })
+        .collect()
+}
+
+/// The complaint record's lines, confirmed causes by their titles as the ranking names them
+/// (plain words for a cause the ranking does not list); none without a record.
+fn complaint_lines(input: &ReportInput) -> Vec<(String, String)> {
+    input
+        .case
+        .complaint
+        .as_ref()
+        .map(|c| {
+            let title = |id: &str| {
+                input
+                    .diagnosis
+                    .causes
+                    .iter()
+                    .find(|c| c.id == id)
+                    .map(|c| c.title.clone())
+                    .unwrap_or_else(|| id.replace('_', " "))
+            };
+            c.lines_titled(&title)
+                .into_iter()
+                .map(|(label, value)| (label.to_string(), value))
+                .collect()
+        })
+        .unwrap_or_default()
+}
+
+/// Measured against computed, when the case has measurements.
+fn measured_section(input: &ReportInput, units: UnitSystem) -> Option<MeasuredSection> {
+    input
+        .diagnosis
+        .evidence
+        .as_ref()
+        .filter(|e| !e.is_empty())
+        .map(|e| MeasuredSection {
+            rows: e.rows_in(units),
+            lines: e.lines_in(units),
+            evidence: e.clone(),
+            estimate: input
+                .estimate
+                .as_ref()
+                .map(|estimate| EstimateSection::new(estimate, units)),
+        })
 }
 
 /// Every n-th point, always keeping the first and last.

@@ -434,18 +434,7 @@ pub fn set(m: &mut MeasurementsInput, field: Field, text: &str) -> Result<(), St
         }
         Field::Width => m.width = quantity("roll width", text, K::Length, false)?,
         Field::AmountUncertainty | Field::DiameterUncertainty | Field::CaliperUncertainty => {
-            let (label, kind) = match field {
-                Field::AmountUncertainty => ("length or weight uncertainty", K::Percent),
-                Field::DiameterUncertainty => ("diameter uncertainty", K::Length),
-                _ => ("caliper uncertainty", K::Percent),
-            };
-            let v = quantity(label, text, kind, false)?;
-            let u = m.uncertainty.get_or_insert_with(UncertaintyInput::default);
-            match field {
-                Field::AmountUncertainty => u.amount = v,
-                Field::DiameterUncertainty => u.diameter = v,
-                _ => u.caliper = v,
-            }
+            set_uncertainty(m, field, text)?
         }
         Field::Calibration => {
             let c = calibration(text)?;
@@ -488,33 +477,8 @@ pub fn set(m: &mut MeasurementsInput, field: Field, text: &str) -> Result<(), St
                 None => m.end_line = None,
             }
         }
-        Field::BandFrom | Field::BandTo | Field::Offset | Field::Direction if blank => {
-            if let Some(e) = m.end_line.as_mut() {
-                match field {
-                    Field::BandFrom => e.from_diameter = None,
-                    Field::BandTo => e.to_diameter = None,
-                    Field::Offset => e.offset = None,
-                    _ => e.direction = None,
-                }
-            }
-        }
-        Field::BandFrom | Field::BandTo | Field::Offset | Field::Direction
-            if m.end_line.is_none() =>
-        {
-            return Err("say first where the line bends (the row above)".into());
-        }
-        Field::BandFrom => {
-            end_mut(m).from_diameter = quantity("band from", text, K::Length, false)?
-        }
-        Field::BandTo => end_mut(m).to_diameter = quantity("band to", text, K::Length, false)?,
-        Field::Offset => end_mut(m).offset = quantity("offset", text, K::Length, true)?,
-        Field::Direction => {
-            let v = pick(
-                text,
-                &DIRECTIONS,
-                &[BendDirection::WithWinding, BendDirection::AgainstWinding],
-            )?;
-            end_mut(m).direction = v;
+        Field::BandFrom | Field::BandTo | Field::Offset | Field::Direction => {
+            set_end_line_detail(m, field, text)?
         }
         Field::CoreBore => {
             m.core_bore_reduction = quantity("core bore closing", text, K::Length, true)?
@@ -532,11 +496,73 @@ pub fn set(m: &mut MeasurementsInput, field: Field, text: &str) -> Result<(), St
         | Field::ParentRoll
         | Field::InParent
         | Field::ParentRolls
-        | Field::BadParentRolls
-            if m.set.is_none() && !blank =>
-        {
-            return Err("give the number of rolls in the set first".into());
+        | Field::BadParentRolls => set_roll_set(m, field, text)?,
+    }
+    tidy(m);
+    Ok(())
+}
+
+/// The amount, diameter or caliper uncertainty of the roll size.
+fn set_uncertainty(m: &mut MeasurementsInput, field: Field, text: &str) -> Result<(), String> {
+    use QuantityKind as K;
+    let (label, kind) = match field {
+        Field::AmountUncertainty => ("length or weight uncertainty", K::Percent),
+        Field::DiameterUncertainty => ("diameter uncertainty", K::Length),
+        _ => ("caliper uncertainty", K::Percent),
+    };
+    let v = quantity(label, text, kind, false)?;
+    let u = m.uncertainty.get_or_insert_with(UncertaintyInput::default);
+    match field {
+        Field::AmountUncertainty => u.amount = v,
+        Field::DiameterUncertainty => u.diameter = v,
+        _ => u.caliper = v,
+    }
+    Ok(())
+}
+
+/// The band, offset or direction of the line on the roll end; given only once the bend is.
+fn set_end_line_detail(m: &mut MeasurementsInput, field: Field, text: &str) -> Result<(), String> {
+    use QuantityKind as K;
+    if text.trim().is_empty() {
+        if let Some(e) = m.end_line.as_mut() {
+            match field {
+                Field::BandFrom => e.from_diameter = None,
+                Field::BandTo => e.to_diameter = None,
+                Field::Offset => e.offset = None,
+                _ => e.direction = None,
+            }
         }
+        return Ok(());
+    }
+    if m.end_line.is_none() {
+        return Err("say first where the line bends (the row above)".into());
+    }
+    match field {
+        Field::BandFrom => {
+            end_mut(m).from_diameter = quantity("band from", text, K::Length, false)?
+        }
+        Field::BandTo => end_mut(m).to_diameter = quantity("band to", text, K::Length, false)?,
+        Field::Offset => end_mut(m).offset = quantity("offset", text, K::Length, true)?,
+        _ => {
+            let v = pick(
+                text,
+                &DIRECTIONS,
+                &[BendDirection::WithWinding, BendDirection::AgainstWinding],
+            )?;
+            end_mut(m).direction = v;
+        }
+    }
+    Ok(())
+}
+
+/// The set's details besides its number of rolls (bad rolls, their positions, the parent
+/// roll); given only once the number of rolls is (a blank clears).
+fn set_roll_set(m: &mut MeasurementsInput, field: Field, text: &str) -> Result<(), String> {
+    let blank = text.trim().is_empty();
+    if m.set.is_none() && !blank {
+        return Err("give the number of rolls in the set first".into());
+    }
+    match field {
         Field::Bad => {
             if let Some(s) = m.set.as_mut() {
                 s.bad = if blank { 0 } else { count("bad rolls", text)? };
@@ -568,14 +594,13 @@ pub fn set(m: &mut MeasurementsInput, field: Field, text: &str) -> Result<(), St
                 s.parent_rolls = n;
             }
         }
-        Field::BadParentRolls => {
+        _ => {
             let n = optional_count("parent rolls with bad rolls", text)?;
             if let Some(s) = m.set.as_mut() {
                 s.bad_parent_rolls = n;
             }
         }
     }
-    tidy(m);
     Ok(())
 }
 

@@ -103,27 +103,7 @@ pub fn render(ctx: &Session, scroll: u16, theme: Theme, area: Rect, buf: &mut Bu
     let mut lines: Vec<Line> = Vec::new();
     let outcome = ctx.current_outcome().or(ctx.latest_outcome());
     let Some(outcome) = outcome else {
-        let text = if ctx.case.measurements.is_none() {
-            "Nothing measured yet: enter the measurements on the other page (v)."
-        } else if ctx.running_baseline.is_some() {
-            "Solving the case… the comparison shows when the solve is done."
-        } else {
-            match &ctx.baseline {
-                Some(b) => match &b.result {
-                    Err(e) => {
-                        return text_only(
-                            &format!("The case could not be solved: {e}"),
-                            theme,
-                            area,
-                            buf,
-                        );
-                    }
-                    Ok(_) => "",
-                },
-                None => "Not solved yet: ^R solves the case.",
-            }
-        };
-        return text_only(text, theme, area, buf);
+        return text_only(&why_no_solve(ctx), theme, area, buf);
     };
     if ctx.baseline_is_stale() {
         lines.push(Line::from(Span::styled(
@@ -145,58 +125,10 @@ pub fn render(ctx: &Session, scroll: u16, theme: Theme, area: Rect, buf: &mut Bu
             buf,
         );
     };
-    let width = usize::from(area.width);
     if let Some(h) = &evidence.hardness {
         let plot_height = if area.height >= 30 { 12 } else { 6 };
-        let label = 6;
-        if let Some(rows) = plot_rows(
-            &outcome.profile,
-            h,
-            width.saturating_sub(label + 1),
-            plot_height,
-        ) {
-            lines.push(Line::from(Span::styled(
-                "Hardness along the radius against the computed pressure (both scaled: softest reading 0, hardest 1)",
-                theme.title(),
-            )));
-            let last = rows.len() - 1;
-            for (i, row) in rows.into_iter().enumerate() {
-                let axis = match i {
-                    0 => "hard  ",
-                    i if i == last => "soft  ",
-                    _ => "      ",
-                };
-                lines.push(Line::from(vec![
-                    Span::styled(axis, theme.dim()),
-                    Span::styled(row, theme.curve()),
-                ]));
-            }
-            let (rc, ro) = (
-                outcome.profile.radius.first().copied().unwrap_or(0.0),
-                outcome.profile.radius.last().copied().unwrap_or(0.0),
-            );
-            let left = format!("{:label$}{}", "", diameter(2.0 * rc, ctx.units));
-            let right = diameter(2.0 * ro, ctx.units);
-            let middle = "diameter →";
-            let gap = width.saturating_sub(left.chars().count() + right.chars().count());
-            let pad = gap.saturating_sub(middle.chars().count()) / 2;
-            let axis = if gap > middle.chars().count() + 1 {
-                format!(
-                    "{left}{:pad$}{middle}{:rest$}{right}",
-                    "",
-                    "",
-                    rest = gap - pad - middle.chars().count()
-                )
-            } else {
-                format!("{left} {right}")
-            };
-            lines.push(Line::from(Span::styled(axis, theme.dim())));
-            lines.push(Line::from(Span::styled(
-                format!("{READING_MARK} hardness reading   {COMPUTED_MARK} computed pressure"),
-                theme.dim(),
-            )));
-            lines.push(Line::from(""));
-        }
+        let size = (usize::from(area.width), plot_height);
+        lines.extend(hardness_plot(&outcome.profile, h, size, ctx.units, theme));
     }
     lines.push(Line::from(Span::styled(
         "Measured against computed",
@@ -227,6 +159,88 @@ pub fn render(ctx: &Session, scroll: u16, theme: Theme, area: Rect, buf: &mut Bu
     crate::tui::screens::wrapped(lines, false)
         .scroll((scroll, 0))
         .render(area, buf);
+}
+
+/// What the page says while there is no solve to compare with.
+fn why_no_solve(ctx: &Session) -> String {
+    if ctx.case.measurements.is_none() {
+        "Nothing measured yet: enter the measurements on the other page (v).".into()
+    } else if ctx.running_baseline.is_some() {
+        "Solving the case… the comparison shows when the solve is done.".into()
+    } else {
+        match &ctx.baseline {
+            Some(b) => match &b.result {
+                Err(e) => format!("The case could not be solved: {e}"),
+                Ok(_) => String::new(),
+            },
+            None => "Not solved yet: ^R solves the case.".into(),
+        }
+    }
+}
+
+/// The hardness readings over the computed pressure as a character plot of `size` (width,
+/// height in rows) with its title, diameter axis and key; nothing when it cannot be drawn.
+fn hardness_plot(
+    profile: &Profile,
+    h: &HardnessComparison,
+    (width, plot_height): (usize, usize),
+    units: UnitSystem,
+    theme: Theme,
+) -> Vec<Line<'static>> {
+    let label = 6;
+    let Some(rows) = plot_rows(profile, h, width.saturating_sub(label + 1), plot_height) else {
+        return Vec::new();
+    };
+    let mut lines = vec![Line::from(Span::styled(
+        "Hardness along the radius against the computed pressure (both scaled: softest reading 0, hardest 1)",
+        theme.title(),
+    ))];
+    let last = rows.len() - 1;
+    for (i, row) in rows.into_iter().enumerate() {
+        let axis = match i {
+            0 => "hard  ",
+            i if i == last => "soft  ",
+            _ => "      ",
+        };
+        lines.push(Line::from(vec![
+            Span::styled(axis, theme.dim()),
+            Span::styled(row, theme.curve()),
+        ]));
+    }
+    let (rc, ro) = (
+        profile.radius.first().copied().unwrap_or(0.0),
+        profile.radius.last().copied().unwrap_or(0.0),
+    );
+    let left = format!("{:label$}{}", "", diameter(2.0 * rc, units));
+    let right = diameter(2.0 * ro, units);
+    lines.push(Line::from(Span::styled(
+        diameter_axis(&left, &right, width),
+        theme.dim(),
+    )));
+    lines.push(Line::from(Span::styled(
+        format!("{READING_MARK} hardness reading   {COMPUTED_MARK} computed pressure"),
+        theme.dim(),
+    )));
+    lines.push(Line::from(""));
+    lines
+}
+
+/// The plot's x axis: the core's diameter on the left, the roll's on the right and
+/// "diameter →" centred between them when there is room.
+fn diameter_axis(left: &str, right: &str, width: usize) -> String {
+    let middle = "diameter →";
+    let gap = width.saturating_sub(left.chars().count() + right.chars().count());
+    let pad = gap.saturating_sub(middle.chars().count()) / 2;
+    if gap > middle.chars().count() + 1 {
+        format!(
+            "{left}{:pad$}{middle}{:rest$}{right}",
+            "",
+            "",
+            rest = gap - pad - middle.chars().count()
+        )
+    } else {
+        format!("{left} {right}")
+    }
 }
 
 fn text_only(text: &str, theme: Theme, area: Rect, buf: &mut Buffer) {

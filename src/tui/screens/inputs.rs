@@ -171,6 +171,13 @@ fn accepted_text(kind: FieldKind) -> String {
 
 fn render(state: &InputsScreen, app: &Session, theme: Theme, area: Rect, buf: &mut Buffer) {
     let [table, info] = Layout::vertical([Constraint::Min(5), Constraint::Length(5)]).areas(area);
+    render_fields(state, app, theme, table, buf);
+    render_about(state, app, theme, info, buf);
+}
+
+/// The field table: the rows in view, each with its group, label, value and whether the value
+/// was entered, assumed or is blank; an error under the selected row.
+fn render_fields(state: &InputsScreen, app: &Session, theme: Theme, table: Rect, buf: &mut Buffer) {
     let inner_height = usize::from(table.height.saturating_sub(2)).max(1);
     // The error line under the selected field takes one row.
     let room = if state.error.is_some() {
@@ -188,29 +195,13 @@ fn render(state: &InputsScreen, app: &Session, theme: Theme, area: Rect, buf: &m
     let mut last_group = "";
     for (row, spec) in FIELDS.iter().enumerate().skip(first).take(room) {
         let selected = row == state.selected;
-        let entered = fields::get(&app.case, spec.path);
         let group = if spec.group != last_group || row == first {
             spec.group
         } else {
             ""
         };
         last_group = spec.group;
-        let (value, tag, tag_style) = match (&state.editing, selected, &entered) {
-            (Some(text), true, _) => (format!("{text}▏"), "typing", theme.key()),
-            (_, _, Some(text)) => (fields::value_words(spec, text), "entered", theme.good()),
-            _ => match app.assumed(spec.path) {
-                Some(assumed) => (
-                    format!(
-                        "{} ({})",
-                        fields::value_words(spec, &assumed.value),
-                        assumed.source
-                    ),
-                    "assumed",
-                    theme.assumed(),
-                ),
-                None => ("—".to_string(), "blank", theme.dim()),
-            },
-        };
+        let (value, tag, tag_style) = field_value(state, app, spec, selected, theme);
         let value: String = if value.chars().count() > value_width {
             let mut v: String = value.chars().take(value_width - 1).collect();
             v.push('…');
@@ -243,7 +234,39 @@ fn render(state: &InputsScreen, app: &Session, theme: Theme, area: Rect, buf: &m
     super::wrapped(lines, false)
         .block(Block::bordered().title(" Roll and winding inputs — entered, assumed or blank "))
         .render(table, buf);
+}
 
+/// A field's value in words with its tag and the tag's style: what is being typed, what was
+/// entered, what was assumed (and from where), or blank.
+fn field_value(
+    state: &InputsScreen,
+    app: &Session,
+    spec: &fields::FieldSpec,
+    selected: bool,
+    theme: Theme,
+) -> (String, &'static str, ratatui::style::Style) {
+    let entered = fields::get(&app.case, spec.path);
+    match (&state.editing, selected, &entered) {
+        (Some(text), true, _) => (format!("{text}▏"), "typing", theme.key()),
+        (_, _, Some(text)) => (fields::value_words(spec, text), "entered", theme.good()),
+        _ => match app.assumed(spec.path) {
+            Some(assumed) => (
+                format!(
+                    "{} ({})",
+                    fields::value_words(spec, &assumed.value),
+                    assumed.source
+                ),
+                "assumed",
+                theme.assumed(),
+            ),
+            None => ("—".to_string(), "blank", theme.dim()),
+        },
+    }
+}
+
+/// Under the table: what the selected field accepts (or which preset it holds), whether the
+/// inputs can be solved yet, and where to start from.
+fn render_about(state: &InputsScreen, app: &Session, theme: Theme, info: Rect, buf: &mut Buffer) {
     let spec = FIELDS[state.selected.min(FIELDS.len() - 1)];
     let resolved_line = match &app.resolved {
         Ok(resolved) => Line::from(Span::styled(

@@ -496,44 +496,15 @@ fn render_causes(
                 )));
             }
             for reason in &cause.reasons {
-                let sign = if reason.weight >= 0.0 { "+" } else { "−" };
-                // What was tested, in the same words as the command line and the reports
-                // (`words::reason_tested`): the indicator's title and value, or the question
-                // and the answer in words. The prior and the site history have no test to
-                // name: their text says it all. Measured evidence quotes the measurement in the
-                // session's units.
-                let mut shown = reason.clone();
-                if let (Some(e), Some(value)) = (&diagnosis.evidence, &reason.value) {
-                    shown.value = Some(e.localise(value, app.units));
-                }
-                let tested = crate::diagnose::words::reason_tested(&shown);
-                let plain = tested.is_none();
-                let test = tested.unwrap_or_default();
-                lines.push(Line::from(vec![
-                    Span::styled(format!("   {sign}{:.2} ", reason.weight.abs()), theme.key()),
-                    Span::raw(test),
-                    Span::styled(
-                        if plain {
-                            reason.text.clone()
-                        } else {
-                            format!(" — {}", reason.text)
-                        },
-                        theme.dim(),
-                    ),
-                ]));
+                lines.push(reason_line(reason, diagnosis, app.units, theme));
             }
         }
     }
     // Wrapped lines hang under their item: the cause title under the title, a reason under
     // its text.
     let width = usize::from(area.width.saturating_sub(2));
-    let mut hung: Vec<Line> = Vec::new();
-    let mut hung_target = 0;
-    for (i, line) in lines.into_iter().enumerate() {
-        if i == target {
-            hung_target = hung.len();
-        }
-        let indent = if line
+    let (mut hung, (hung_target, _)) = hang_lines(lines, width, (target, target), |line| {
+        if line
             .spans
             .first()
             .is_some_and(|s| s.content.starts_with("   "))
@@ -542,27 +513,9 @@ fn render_causes(
         } else {
             // Under the title: marker, number, ". ", bar, " ", percentage.
             14 + number_width
-        };
-        hung.extend(super::hang(line, width, indent));
-    }
-    // What the answer rests on (the job's sensitivity run, made when the case has assumed
-    // inputs): below the causes, in the command line's words.
-    let rests_on = app
-        .latest_outcome()
-        .and_then(|o| o.sensitivity.as_ref())
-        .map(|s| s.lines(MOVERS_SHOWN))
-        .unwrap_or_default();
-    if !rests_on.is_empty() {
-        hung.push(Line::from(""));
-        hung.push(Line::from(Span::styled(
-            "What the answer rests on",
-            theme.title(),
-        )));
-        for line in rests_on {
-            let line = Line::from(Span::styled(line, theme.dim()));
-            hung.extend(super::hang(line, width, 2));
         }
-    }
+    });
+    hung.extend(rests_on_lines(app, theme, width));
     super::render_scrolled_past(
         hung,
         (hung_target, hung_target),
@@ -571,6 +524,86 @@ fn render_causes(
         area,
         buf,
     )
+}
+
+/// One reason under an opened cause: its signed weight, what was tested and the reason's text.
+fn reason_line(
+    reason: &crate::diagnose::Reason,
+    diagnosis: &Diagnosis,
+    units: UnitSystem,
+    theme: Theme,
+) -> Line<'static> {
+    let sign = if reason.weight >= 0.0 { "+" } else { "−" };
+    // What was tested, in the same words as the command line and the reports
+    // (`words::reason_tested`): the indicator's title and value, or the question
+    // and the answer in words. The prior and the site history have no test to
+    // name: their text says it all. Measured evidence quotes the measurement in the
+    // session's units.
+    let mut shown = reason.clone();
+    if let (Some(e), Some(value)) = (&diagnosis.evidence, &reason.value) {
+        shown.value = Some(e.localise(value, units));
+    }
+    let tested = crate::diagnose::words::reason_tested(&shown);
+    let plain = tested.is_none();
+    let test = tested.unwrap_or_default();
+    Line::from(vec![
+        Span::styled(format!("   {sign}{:.2} ", reason.weight.abs()), theme.key()),
+        Span::raw(test),
+        Span::styled(
+            if plain {
+                reason.text.clone()
+            } else {
+                format!(" — {}", reason.text)
+            },
+            theme.dim(),
+        ),
+    ])
+}
+
+/// What the answer rests on (the job's sensitivity run, made when the case has assumed
+/// inputs): below the causes, in the command line's words; nothing without one.
+fn rests_on_lines(app: &Session, theme: Theme, width: usize) -> Vec<Line<'static>> {
+    let rests_on = app
+        .latest_outcome()
+        .and_then(|o| o.sensitivity.as_ref())
+        .map(|s| s.lines(MOVERS_SHOWN))
+        .unwrap_or_default();
+    let mut out = Vec::new();
+    if !rests_on.is_empty() {
+        out.push(Line::from(""));
+        out.push(Line::from(Span::styled(
+            "What the answer rests on",
+            theme.title(),
+        )));
+        for line in rests_on {
+            let line = Line::from(Span::styled(line, theme.dim()));
+            out.extend(super::hang(line, width, 2));
+        }
+    }
+    out
+}
+
+/// `lines` wrapped to `width`, each hanging at `indent(line)`, with where the selected item's
+/// first and last line (`target`, indices into `lines`) begin and end among the wrapped lines.
+fn hang_lines(
+    lines: Vec<Line<'static>>,
+    width: usize,
+    target: (usize, usize),
+    indent: impl Fn(&Line) -> usize,
+) -> (Vec<Line<'static>>, (usize, usize)) {
+    let mut hung: Vec<Line> = Vec::new();
+    let (mut hung_target, mut hung_end) = (0, 0);
+    for (i, line) in lines.into_iter().enumerate() {
+        if i == target.0 {
+            hung_target = hung.len();
+        }
+        let indent = indent(&line);
+        hung.extend(super::hang(line, width, indent));
+        if i == target.1.max(target.0) {
+            hung_end = hung.len() - 1;
+        }
+    }
+    (hung, (hung_target, hung_end))
 }
 
 /// Plain words for a remedy group ID (the one name the CLI and reports use too).
@@ -609,57 +642,7 @@ fn render_remedies(
         } else {
             theme.plain()
         };
-        let caution = if remedy.cautions.is_empty() {
-            ""
-        } else {
-            " ⚠"
-        };
-        lines.push(Line::from(vec![
-            Span::styled(format!("{:>2}. {}", i + 1, remedy.text), style),
-            Span::styled(caution.to_string(), theme.warn()),
-            Span::styled(
-                if remedy.cost.is_empty() {
-                    String::new()
-                } else {
-                    format!(" [cost {}]", remedy.cost)
-                },
-                theme.dim(),
-            ),
-        ]));
-        if !remedy.answers.is_empty() {
-            lines.push(Line::from(Span::styled(
-                format!("    for: {}", diagnosis.answers_text(remedy)),
-                theme.dim(),
-            )));
-        }
-        if let Some(what_if) = &remedy.what_if
-            && !what_if.indicator.is_empty()
-        {
-            lines.push(Line::from(Span::styled(
-                format!(
-                    "    {}: {} → {}{}",
-                    what_if.indicator_text(),
-                    what_if.before,
-                    what_if.after,
-                    if what_if.small_effect {
-                        " (predicted to do little)"
-                    } else {
-                        ""
-                    }
-                ),
-                if what_if.worse {
-                    theme.error()
-                } else {
-                    theme.good()
-                },
-            )));
-        }
-        for caution in diagnosis.cautions_of(remedy) {
-            lines.push(Line::from(vec![
-                Span::styled(format!("    ⚠ {}: ", caution.title), theme.warn()),
-                Span::raw(caution.text.clone()),
-            ]));
-        }
+        lines.extend(remedy_lines(i, remedy, diagnosis, style, theme));
         if selected {
             target_end = lines.len() - 1;
         }
@@ -670,31 +653,85 @@ fn render_remedies(
     // Wrapped lines hang under their text: a remedy under its words (past "12. "), its
     // "for:", effect and caution lines under theirs.
     let width = usize::from(area.width.saturating_sub(2));
-    let mut hung: Vec<Line> = Vec::new();
-    let (mut hung_target, mut hung_end) = (0, 0);
-    for (i, line) in lines.into_iter().enumerate() {
-        if i == target {
-            hung_target = hung.len();
-        }
+    let (hung, reach) = hang_lines(lines, width, (target, target_end), |line| {
         let first = line.spans.first().map_or("", |s| s.content.as_ref());
-        let indent = if first.starts_with("    ⚠") {
+        if first.starts_with("    ⚠") {
             6
         } else if first.starts_with("    for: ") {
             9
         } else {
             4
-        };
-        hung.extend(super::hang(line, width, indent));
-        if i == target_end.max(target) {
-            hung_end = hung.len() - 1;
         }
-    }
+    });
     super::render_scrolled_past(
         hung,
-        (hung_target, hung_end),
+        reach,
         state.remedy_past,
         Block::bordered().title(" Remedies, in the order to try "),
         area,
         buf,
     )
+}
+
+/// One remedy of the list (number `i`): its words, caution mark and cost, then the answers it
+/// is for, its predicted effect and its cautions in full.
+fn remedy_lines(
+    i: usize,
+    remedy: &crate::diagnose::MergedRemedy,
+    diagnosis: &Diagnosis,
+    style: ratatui::style::Style,
+    theme: Theme,
+) -> Vec<Line<'static>> {
+    let caution = if remedy.cautions.is_empty() {
+        ""
+    } else {
+        " ⚠"
+    };
+    let mut lines = vec![Line::from(vec![
+        Span::styled(format!("{:>2}. {}", i + 1, remedy.text), style),
+        Span::styled(caution.to_string(), theme.warn()),
+        Span::styled(
+            if remedy.cost.is_empty() {
+                String::new()
+            } else {
+                format!(" [cost {}]", remedy.cost)
+            },
+            theme.dim(),
+        ),
+    ])];
+    if !remedy.answers.is_empty() {
+        lines.push(Line::from(Span::styled(
+            format!("    for: {}", diagnosis.answers_text(remedy)),
+            theme.dim(),
+        )));
+    }
+    if let Some(what_if) = &remedy.what_if
+        && !what_if.indicator.is_empty()
+    {
+        lines.push(Line::from(Span::styled(
+            format!(
+                "    {}: {} → {}{}",
+                what_if.indicator_text(),
+                what_if.before,
+                what_if.after,
+                if what_if.small_effect {
+                    " (predicted to do little)"
+                } else {
+                    ""
+                }
+            ),
+            if what_if.worse {
+                theme.error()
+            } else {
+                theme.good()
+            },
+        )));
+    }
+    for caution in diagnosis.cautions_of(remedy) {
+        lines.push(Line::from(vec![
+            Span::styled(format!("    ⚠ {}: ", caution.title), theme.warn()),
+            Span::raw(caution.text.clone()),
+        ]));
+    }
+    lines
 }
