@@ -196,6 +196,7 @@ fn fixture(with_remedy: bool) -> ReportInput {
                     worse: false,
                     small_effect: false,
                     note: "More pressure in the body holds the layers.".into(),
+                    margins: vec![],
                     words: Default::default(),
                 }),
             },
