@@ -495,12 +495,11 @@ fn write_margin_comparison(
         };
         writeln!(
             out,
-            "<tr{class}><td>{}</td><td>{}</td><td>{}</td><td>{} → {}</td><td>{}{}</td></tr>",
+            "<tr{class}><td>{}</td><td>{}</td><td>{}</td><td>{}</td><td>{}{}</td></tr>",
             escape(&m.mechanism),
             escape(&m.before_text),
             escape(&m.after_text),
-            escape(&m.before_where),
-            escape(&m.after_where),
+            escape(&m.where_text()),
             escape(&m.verdict_text),
             escape(&change)
         )?;

@@ -374,12 +374,11 @@ fn write_margin_comparison(
     for m in margins {
         writeln!(
             out,
-            "| {} | {} | {} | {} → {} | {}{} |",
+            "| {} | {} | {} | {} | {}{} |",
             cell(&m.mechanism),
             m.before_text,
             m.after_text,
-            cell(&m.before_where),
-            cell(&m.after_where),
+            cell(&m.where_text()),
             cell(&m.verdict_text),
             if m.verdict_change.is_empty() {
                 String::new()

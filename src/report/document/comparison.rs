@@ -44,6 +44,17 @@ pub struct MarginComparison {
     pub verdict_change: String,
 }
 
+impl MarginComparison {
+    /// Where before → after, once when the place stays ("⌀ 946 mm").
+    pub fn where_text(&self) -> String {
+        if self.before_where == self.after_where {
+            self.after_where.clone()
+        } else {
+            format!("{} → {}", self.before_where, self.after_where)
+        }
+    }
+}
+
 /// The margins of two tables side by side, in the order of `before` (a mechanism missing after,
 /// such as the shaft row without a rating, is left out).
 pub fn margin_comparison(before: &[MarginLine], after: &[MarginLine]) -> Vec<MarginComparison> {

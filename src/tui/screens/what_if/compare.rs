@@ -145,11 +145,17 @@ fn margin_rows(before: &SolveOutcome, after: &SolveOutcome, units: UnitSystem) -
         } else {
             m.verdict_change.clone()
         };
-        rows.push([m.mechanism.clone(), m.before_text, m.after_text, change]);
+        rows.push([
+            m.mechanism.clone(),
+            m.before_text.clone(),
+            m.after_text.clone(),
+            change,
+        ]);
         if m.before_where != "—" || m.after_where != "—" {
             rows.push(text_row(&format!(
-                "  where: {} → {}; {}",
-                m.before_where, m.after_where, m.verdict_text
+                "  where: {}; {}",
+                m.where_text(),
+                m.verdict_text
             )));
         }
     }
