@@ -488,20 +488,14 @@ fn write_margin_comparison(
         } else {
             ""
         };
-        let change = if m.verdict_change.is_empty() {
-            String::new()
-        } else {
-            format!(" ({})", m.verdict_change)
-        };
         writeln!(
             out,
-            "<tr{class}><td>{}</td><td>{}</td><td>{}</td><td>{}</td><td>{}{}</td></tr>",
+            "<tr{class}><td>{}</td><td>{}</td><td>{}</td><td>{}</td><td>{}</td></tr>",
             escape(&m.mechanism),
             escape(&m.before_text),
             escape(&m.after_text),
             escape(&m.where_text()),
-            escape(&m.verdict_text),
-            escape(&change)
+            escape(&m.verdict_after_text())
         )?;
     }
     writeln!(out, "</table>")

@@ -374,17 +374,12 @@ fn write_margin_comparison(
     for m in margins {
         writeln!(
             out,
-            "| {} | {} | {} | {} | {}{} |",
+            "| {} | {} | {} | {} | {} |",
             cell(&m.mechanism),
             m.before_text,
             m.after_text,
             cell(&m.where_text()),
-            cell(&m.verdict_text),
-            if m.verdict_change.is_empty() {
-                String::new()
-            } else {
-                format!(" ({})", m.verdict_change)
-            }
+            cell(&m.verdict_after_text()),
         )?;
     }
     writeln!(out)

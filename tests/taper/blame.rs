@@ -82,5 +82,8 @@ fn an_approved_schedule_is_never_blamed_by_the_diagnosis_of_the_same_case() {
     }
     // The newsprint telescoping demo is the known blamed one (telescoping margin 0.41).
     assert!(blamed_as_wound >= 1);
-    assert!(approved >= 1, "no design met every limit: nothing was checked");
+    assert!(
+        approved >= 1,
+        "no design met every limit: nothing was checked"
+    );
 }

@@ -45,6 +45,15 @@ pub struct MarginComparison {
 }
 
 impl MarginComparison {
+    /// The verdict after with its change when it moved ("holds (now holds)").
+    pub fn verdict_after_text(&self) -> String {
+        if self.verdict_change.is_empty() {
+            self.verdict_text.clone()
+        } else {
+            format!("{} ({})", self.verdict_text, self.verdict_change)
+        }
+    }
+
     /// Where before → after, once when the place stays ("⌀ 946 mm").
     pub fn where_text(&self) -> String {
         if self.before_where == self.after_where {
