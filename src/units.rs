@@ -656,6 +656,16 @@ pub fn format_quantity(value: f64, kind: QuantityKind, system: UnitSystem) -> St
     format!("{} {symbol}", format_number(scaled))
 }
 
+/// Round to `digits` significant digits so JSON and snapshots do not carry float noise.
+pub fn round_sig(value: f64, digits: i32) -> f64 {
+    if value == 0.0 || !value.is_finite() {
+        return value;
+    }
+    let magnitude = value.abs().log10().floor() as i32;
+    let scale = 10f64.powi(digits - 1 - magnitude);
+    (value * scale).round() / scale
+}
+
 /// Three significant figures without trailing zeros ("412345", "1.25", "-0.5"): the compact
 /// numbers of plot axes, tables and taper amounts.
 pub fn sig3(value: f64) -> String {

@@ -647,12 +647,7 @@ pub fn radial_stiffness_input(fit: &PfeifferFit) -> crate::case::RadialStiffness
 
 /// Round to `digits` significant digits (keeps case files readable without losing the fit).
 pub fn significant(value: f64, digits: i32) -> f64 {
-    if value == 0.0 || !value.is_finite() {
-        return value;
-    }
-    let magnitude = value.abs().log10().floor() as i32;
-    let scale = 10f64.powi(digits - 1 - magnitude);
-    (value * scale).round() / scale
+    crate::units::round_sig(value, digits)
 }
 
 /// Write the fit into a case's `web.radial_stiffness` (in memory; the caller saves).

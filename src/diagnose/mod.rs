@@ -148,6 +148,10 @@ pub struct WhatIf {
     #[serde(default)]
     pub small_effect: bool,
     pub note: String,
+    /// The failure margins relevant to the causes the remedy answers that the change moves
+    /// (`what_if::margins`), from the mechanics layer's margins table; empty when none moves.
+    #[serde(default, skip_serializing_if = "Vec::is_empty")]
+    pub margins: Vec<what_if::MarginShift>,
     /// `indicator` and `note` in plain words for people (screens, text, reports); JSON keeps
     /// the IDs above. Empty on a what-if read back from JSON.
     #[serde(skip)]
@@ -169,6 +173,38 @@ impl WhatIf {
             self.indicator.replace('_', " ")
         } else {
             self.words.indicator.clone()
+        }
+    }
+
+    /// The moved margins in words, "; "-separated ("starring margin 0.80 → 1.30"); empty when
+    /// none moved.
+    pub fn margins_text(&self) -> String {
+        self.margins
+            .iter()
+            .map(|m| {
+                if m.words.is_empty() {
+                    format!(
+                        "{} {} → {}",
+                        m.mechanism.replace('_', " "),
+                        m.before,
+                        m.after
+                    )
+                } else {
+                    m.words.clone()
+                }
+            })
+            .collect::<Vec<_>>()
+            .join("; ")
+    }
+
+    /// `note` followed by the failure margins the change moves ("…; starring margin 0.80 →
+    /// 1.30"): the what-if line of the text output and the reports' remedy list.
+    pub fn with_margins(&self, note: &str) -> String {
+        let margins = self.margins_text();
+        match (note.is_empty(), margins.is_empty()) {
+            (_, true) => note.to_string(),
+            (true, false) => margins,
+            (false, false) => format!("{note}; {margins}"),
         }
     }
 

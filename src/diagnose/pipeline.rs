@@ -15,6 +15,7 @@ use super::{
     observed_symptoms, rank, remedies, rules::RuleBase, what_if,
 };
 use crate::case::{Case, ResolvedCase};
+use crate::mechanics::table::MarginTable;
 use crate::model::{ModelError, Profile, SolverOptions};
 
 /// Progress callback: called with the fraction done (0..=1); returning `false` cancels the work,
@@ -201,38 +202,46 @@ impl WhatIfContext<'_> {
             }
         }
         let solved = solve_all(&distinct, self.solver, progress)?;
-        let solved: Vec<Result<indicators::Indicators, ModelError>> = distinct
+        // Each changed case's indicators and margins table, read from its one solve.
+        let solved: Vec<Result<(indicators::Indicators, MarginTable), ModelError>> = distinct
             .iter()
             .zip(solved)
             .map(|(c, s)| {
                 s.map(|p| {
-                    indicators::Indicators::compute_after_change(c, &p, self.before.indicators)
+                    (
+                        indicators::Indicators::compute_after_change(c, &p, self.before.indicators),
+                        what_if::margins::table_of(c, &p),
+                    )
                 })
             })
             .collect();
+        let before_margins = what_if::margins::table_of(self.before.case, self.profile);
         let unchanged = indicators::Indicators::default();
         let mut after = Vec::with_capacity(remedies.len());
         for (remedy, changed_case) in remedies.iter_mut().zip(&changed) {
             match changed_case {
                 None => {
                     remedy.what_if = what_if::what_if(&self.before, remedy, self.solver);
-                    // A rating-only change keeps the stress state: its indicators are the
-                    // case's profile read against the new rating (no solve).
-                    after.push(
-                        self.before
-                            .rules
-                            .remedies
-                            .get(&remedy.id)
-                            .filter(|r| !r.changes.is_empty())
-                            .map(|r| {
-                                let c = what_if::apply_changes(self.before.case, &r.changes);
-                                indicators::Indicators::compute_after_change(
-                                    &c,
-                                    self.profile,
-                                    self.before.indicators,
-                                )
-                            }),
-                    );
+                    // A rating-only change keeps the stress state: its indicators and margins
+                    // are the case's profile read against the new rating (no solve).
+                    let rated = self
+                        .before
+                        .rules
+                        .remedies
+                        .get(&remedy.id)
+                        .filter(|r| !r.changes.is_empty())
+                        .map(|r| what_if::apply_changes(self.before.case, &r.changes));
+                    if let Some(c) = &rated {
+                        let margins = what_if::margins::table_of(c, self.profile);
+                        add_margins(remedy, &before_margins, &margins);
+                    }
+                    after.push(rated.map(|c| {
+                        indicators::Indicators::compute_after_change(
+                            &c,
+                            self.profile,
+                            self.before.indicators,
+                        )
+                    }));
                 }
                 Some(c) => {
                     // A changed case equal to the case was not solved: what_if_after answers
@@ -240,13 +249,27 @@ impl WhatIfContext<'_> {
                     let result = distinct
                         .iter()
                         .position(|d| *d == c)
-                        .map_or(Ok(&unchanged), |i| solved[i].as_ref());
-                    remedy.what_if = what_if::what_if_after(&self.before, remedy, c, result);
-                    after.push(result.ok().filter(|_| c != self.before.case).cloned());
+                        .map_or(Ok((&unchanged, None)), |i| {
+                            solved[i].as_ref().map(|(ind, table)| (ind, Some(table)))
+                        });
+                    let indicators = result.map(|(ind, _)| ind);
+                    remedy.what_if = what_if::what_if_after(&self.before, remedy, c, indicators);
+                    if let Ok((_, Some(margins))) = result {
+                        add_margins(remedy, &before_margins, margins);
+                    }
+                    after.push(indicators.ok().filter(|_| c != self.before.case).cloned());
                 }
             }
         }
         Ok(after)
+    }
+}
+
+/// The margins relevant to the causes `remedy` answers that its change moves, on its what-if
+/// row (a row with an indicator: a note-only row says why nothing was compared).
+fn add_margins(remedy: &mut super::MergedRemedy, before: &MarginTable, after: &MarginTable) {
+    if let Some(w) = remedy.what_if.as_mut().filter(|w| !w.indicator.is_empty()) {
+        w.margins = what_if::margins::shifts(&remedy.answers, &w.indicator, before, after);
     }
 }
 

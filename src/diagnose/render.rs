@@ -157,7 +157,7 @@ pub fn render_text_in(
                     "      what-if: {indicator} {} → {}{flag} ({})",
                     pressures_in(&w.before, units),
                     pressures_in(&w.after, units),
-                    pressures_in(&note, units),
+                    pressures_in(&w.with_margins(&note), units),
                 );
             }
         }
@@ -261,7 +261,7 @@ pub fn render_markdown(title: &str, diagnosis: &Diagnosis) -> String {
                     w.indicator_text(),
                     w.before,
                     w.after,
-                    w.note_text()
+                    w.with_margins(w.note_text())
                 );
             }
         }

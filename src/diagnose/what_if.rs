@@ -3,11 +3,13 @@
 //! back into a case file) live in [`apply`].
 
 pub mod apply;
+pub mod margins;
 
 pub use apply::{
     Setting, SettingStep, WhatIfError, apply_changes, apply_step, changes_setting, describe_change,
     keep_changes, trial_case, write_into_case,
 };
+pub use margins::MarginShift;
 
 use super::indicators::levers::LEVER_IDS;
 use super::indicators::{EVIDENCE_IDS, INPUT_INDICATORS, Indicators, format_value, indicator_spec};
@@ -225,6 +227,7 @@ pub fn what_if_after(
         after: String::new(),
         worse: false,
         small_effect: false,
+        margins: Vec::new(),
         words: WhatIfWords {
             indicator: String::new(),
             note: note.clone(),
@@ -306,6 +309,7 @@ pub fn what_if_after(
         after: after_text,
         worse,
         small_effect: false,
+        margins: Vec::new(),
         note: notes.ids.join("; "),
         words: WhatIfWords {
             indicator: indicator_words,
@@ -435,6 +439,7 @@ fn rating_only(before: &Before, changed: &ResolvedCase, remedy: &MergedRemedy) -
             .unwrap_or_default(),
         worse: false,
         small_effect: false,
+        margins: Vec::new(),
         note: format!(
             "rated crush pressure {} → {} for remedy {}",
             format_value(

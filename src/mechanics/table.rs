@@ -56,6 +56,17 @@ impl Mechanism {
         }
     }
 
+    /// The margin's name in a one-line text ("telescoping margin 0.80 → 1.30").
+    pub fn margin_name(self) -> String {
+        match self {
+            Mechanism::Telescoping => "telescoping margin".into(),
+            Mechanism::Slip(event) => format!("slip margin, {}", event.title()),
+            Mechanism::ShaftGrip => "grip margin of the chuck or shaft".into(),
+            Mechanism::Starring => "starring margin".into(),
+            Mechanism::CoreCrush => "core crush margin".into(),
+        }
+    }
+
     /// What happens when the margin is below 1.
     pub fn failure(self) -> &'static str {
         match self {
@@ -126,6 +137,33 @@ impl Verdict {
             Verdict::Holds => "holds",
             Verdict::NoDemand => "no_demand",
         }
+    }
+
+    /// The verdict of a stable ID (as [`Verdict::id`] writes it).
+    pub fn from_id(id: &str) -> Option<Verdict> {
+        [
+            Verdict::Fails,
+            Verdict::Close,
+            Verdict::Holds,
+            Verdict::NoDemand,
+        ]
+        .into_iter()
+        .find(|v| v.id() == id)
+    }
+
+    /// One word for narrow columns ("fails", "close", "holds", "unloaded").
+    pub fn word(self) -> &'static str {
+        match self {
+            Verdict::Fails => "fails",
+            Verdict::Close => "close",
+            Verdict::Holds => "holds",
+            Verdict::NoDemand => "unloaded",
+        }
+    }
+
+    /// A change of verdict in words ("now fails"); `None` when the verdict stays.
+    pub fn change_word(before: Verdict, after: Verdict) -> Option<String> {
+        (before != after).then(|| format!("now {}", after.word()))
     }
 }
 

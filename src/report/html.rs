@@ -411,7 +411,11 @@ fn write_remedies(out: &mut String, doc: &ReportDocument) -> std::fmt::Result {
                     " <span class=\"worse\">WORSE, do not apply without checking</span>"
                 )?;
             }
-            write!(out, ". {}", escape(what_if.note_text().trim()))?;
+            write!(
+                out,
+                ". {}",
+                escape(&what_if.with_margins(what_if.note_text().trim()))
+            )?;
         }
         for caution in doc
             .cautions
@@ -458,8 +462,43 @@ fn write_remedy_comparison(out: &mut String, doc: &ReportDocument) -> std::fmt::
             )?;
         }
         writeln!(out, "</table>")?;
+        write_margin_comparison(out, &comparison.margins)?;
     }
     Ok(())
+}
+
+/// The margins against each failure before and after the change; a row that fails after is
+/// marked.
+fn write_margin_comparison(
+    out: &mut String,
+    margins: &[super::MarginComparison],
+) -> std::fmt::Result {
+    if margins.is_empty() {
+        return Ok(());
+    }
+    writeln!(out, "<table id=\"comparison-margins\">")?;
+    writeln!(
+        out,
+        "<tr><th>Failure</th><th>Margin before</th><th>Margin after</th>\
+         <th>Where before → after</th><th>Verdict after</th></tr>"
+    )?;
+    for m in margins {
+        let class = if m.after_verdict == "fails" {
+            " class=\"worse\""
+        } else {
+            ""
+        };
+        writeln!(
+            out,
+            "<tr{class}><td>{}</td><td>{}</td><td>{}</td><td>{}</td><td>{}</td></tr>",
+            escape(&m.mechanism),
+            escape(&m.before_text),
+            escape(&m.after_text),
+            escape(&m.where_text()),
+            escape(&m.verdict_after_text())
+        )?;
+    }
+    writeln!(out, "</table>")
 }
 
 /// "Cautions": the diagnosis' cautions, or the general one when there are none.

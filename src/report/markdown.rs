@@ -316,7 +316,7 @@ fn write_remedies(out: &mut String, doc: &ReportDocument) -> std::fmt::Result {
                 } else {
                     ""
                 },
-                what_if.note_text().trim()
+                what_if.with_margins(what_if.note_text().trim())
             )?;
         }
         for caution in doc
@@ -353,8 +353,36 @@ fn write_remedy_comparison(out: &mut String, doc: &ReportDocument) -> std::fmt::
             )?;
         }
         writeln!(out)?;
+        write_margin_comparison(out, &comparison.margins)?;
     }
     Ok(())
+}
+
+/// The margins against each failure before and after the change.
+fn write_margin_comparison(
+    out: &mut String,
+    margins: &[super::MarginComparison],
+) -> std::fmt::Result {
+    if margins.is_empty() {
+        return Ok(());
+    }
+    writeln!(
+        out,
+        "| Failure | Margin before | Margin after | Where before → after | Verdict after |"
+    )?;
+    writeln!(out, "|---|---|---|---|---|")?;
+    for m in margins {
+        writeln!(
+            out,
+            "| {} | {} | {} | {} | {} |",
+            cell(&m.mechanism),
+            m.before_text,
+            m.after_text,
+            cell(&m.where_text()),
+            cell(&m.verdict_after_text()),
+        )?;
+    }
+    writeln!(out)
 }
 
 /// "Cautions": the diagnosis' cautions, or the general one when there are none.

@@ -17,9 +17,9 @@ pub mod text_chart;
 
 pub use document::{
     ASSUMED_DISCOUNT, AssumedShare, CaseSummary, CauseEntry, EstimateSection, InputLine,
-    MODEL_LIMITS, MarginLine, MarginsSection, MeasuredSection, ProfilePoint, Quantity, ReasonEntry,
-    RemedyComparisonSummary, RemedyEntry, ReportDocument, StressSummary, ZoneSummary,
-    build_document, margins_section,
+    MODEL_LIMITS, MarginComparison, MarginLine, MarginsSection, MeasuredSection, ProfilePoint,
+    Quantity, ReasonEntry, RemedyComparisonSummary, RemedyEntry, ReportDocument, StressSummary,
+    ZoneSummary, build_document, margin_comparison, margins_section,
 };
 pub use prepare::{PrepareOptions, Solved, comparison, prepare, prepare_from_path, solved_report};
 

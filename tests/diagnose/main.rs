@@ -20,3 +20,4 @@ mod rules_lint;
 mod scenario_table;
 mod scenarios;
 mod sensitivity;
+mod what_if_margins;

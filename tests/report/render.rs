@@ -196,6 +196,7 @@ fn fixture(with_remedy: bool) -> ReportInput {
                     worse: false,
                     small_effect: false,
                     note: "More pressure in the body holds the layers.".into(),
+                    margins: vec![],
                     words: Default::default(),
                 }),
             },
@@ -646,4 +647,34 @@ proptest::proptest! {
         proptest::prop_assert!((first - 2.0 * CORE_RADIUS).abs() < 1e-9);
         proptest::prop_assert!((last - 2.0 * OUTER_RADIUS).abs() < 1e-9);
     }
+}
+
+/// The what-if margins of a report are the two margins tables side by side: "before" is the
+/// report's own "Margins against each failure" row by row (one criterion, one function), and
+/// the core crush row is the rating over the core pressure of each solve (docs/theory.md §5.4:
+/// margin = rated crush pressure / core pressure).
+#[test]
+fn comparison_margins_pair_the_two_margins_tables() {
+    let input = fixture(true);
+    let doc = rolltriage::report::build_document(&input).unwrap();
+    let comparison = doc.remedy_comparison.as_ref().expect("remedy applied");
+    assert_eq!(comparison.margins.len(), doc.margins.rows.len());
+    for (m, row) in comparison.margins.iter().zip(&doc.margins.rows) {
+        assert_eq!(m.id, row.id);
+        assert_eq!(m.before, row.margin);
+        assert_eq!(m.before_text, row.margin_text);
+    }
+    let crush = comparison
+        .margins
+        .iter()
+        .find(|m| m.id == "core_crush")
+        .expect("core crush row");
+    let after_case = &input.remedy.as_ref().unwrap().after_case;
+    let expected =
+        after_case.core.crush_pressure / input.remedy.as_ref().unwrap().after.summary.core_pressure;
+    assert!(
+        (crush.after - expected).abs() <= 1e-3 * expected,
+        "{} {expected}",
+        crush.after
+    );
 }

@@ -85,9 +85,9 @@ pub const INDICATORS: &[IndicatorSpec] = &[
     ),
     spec(
         "starring_margin_position",
-        Dimension::Fraction,
+        Dimension::Length,
         ZoneUse::None,
-        "where the starring margin is smallest, as a share of the build from the core (0 = at the core)",
+        "roll diameter where the starring margin is smallest (the place the margins table names; absent when no wrap is in hoop compression)",
     ),
     spec(
         "min_tangential_stress",

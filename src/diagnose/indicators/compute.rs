@@ -287,13 +287,10 @@ impl Indicators {
         self.set("telescoping_margin", None, telescoping.min_margin);
         let starring = crate::mechanics::starring::buckling_margins(profile, &inputs);
         self.set("starring_margin", None, starring.min_margin);
-        // Where only when some wrap is in hoop compression (with none, the minimum is the cap).
-        if outer_r > core_r && starring.min_margin < crate::mechanics::MARGIN_CAP {
-            self.set(
-                "starring_margin_position",
-                None,
-                ((starring.min_radius - core_r) / (outer_r - core_r)).clamp(0.0, 1.0),
-            );
+        // Where, as the roll diameter the margins table and every view print; only when some
+        // wrap is in hoop compression (with none, the minimum is the cap and has no place).
+        if starring.min_margin < crate::mechanics::MARGIN_CAP {
+            self.set("starring_margin_position", None, 2.0 * starring.min_radius);
         }
     }
 }

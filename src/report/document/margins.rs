@@ -7,7 +7,7 @@ use serde::{Deserialize, Serialize};
 use super::{Quantity, round_sig};
 use crate::case::ResolvedCase;
 use crate::mechanics::MechanicsInputs;
-use crate::mechanics::table::{MarginRow, Measure, margin_table};
+use crate::mechanics::table::{MarginRow, Measure, Verdict, margin_table};
 use crate::model::Profile;
 use crate::units::{QuantityKind, UnitSystem, format_quantity};
 
@@ -45,6 +45,13 @@ pub struct MarginLine {
     /// Demand and capacity at the smallest margin; torques for the whole web width.
     pub demand: Quantity,
     pub capacity: Quantity,
+}
+
+impl MarginLine {
+    /// The verdict of the row (`NoDemand` for an ID not known, e.g. from an older JSON).
+    pub fn verdict_kind(&self) -> Verdict {
+        Verdict::from_id(&self.verdict).unwrap_or(Verdict::NoDemand)
+    }
 }
 
 impl MarginsSection {

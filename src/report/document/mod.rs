@@ -10,7 +10,7 @@ mod inputs;
 mod margins;
 mod stress;
 
-pub use comparison::RemedyComparisonSummary;
+pub use comparison::{MarginComparison, RemedyComparisonSummary, margin_comparison};
 pub use inputs::{ASSUMED_DISCOUNT, AssumedShare, CaseSummary, InputLine, assumed_summary};
 pub use margins::{MarginLine, MarginsSection, margins_section};
 pub use stress::{StressSummary, ZoneSummary, stress_summary};
@@ -76,15 +76,7 @@ fn si_unit(kind: QuantityKind) -> &'static str {
     }
 }
 
-/// Round to `digits` significant digits so JSON and snapshots do not carry float noise.
-pub(crate) fn round_sig(value: f64, digits: i32) -> f64 {
-    if value == 0.0 || !value.is_finite() {
-        return value;
-    }
-    let magnitude = value.abs().log10().floor() as i32;
-    let scale = 10f64.powi(digits - 1 - magnitude);
-    (value * scale).round() / scale
-}
+pub(crate) use crate::units::round_sig;
 
 impl ReportDocument {
     /// The causes a remedy answers, in words.

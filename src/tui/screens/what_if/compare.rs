@@ -120,9 +120,56 @@ pub fn comparison(
         }
         let indicators = rows.split_off(3);
         rows.extend(belief_rows);
+        rows.extend(margin_rows(before, after, units));
         rows.extend(indicators);
+    } else {
+        rows.extend(margin_rows(before, after, units));
     }
     rows
+}
+
+/// The failure margins before and after: a heading, then per failure its smallest margin and
+/// the change of verdict, and under it where the smallest margin sits before → after. The
+/// rows of the reports' comparison ([`crate::report::margin_comparison`]).
+fn margin_rows(before: &SolveOutcome, after: &SolveOutcome, units: UnitSystem) -> Vec<[String; 4]> {
+    let margins = crate::report::margin_comparison(
+        &crate::report::margins_section(&before.resolved, &before.profile, units).rows,
+        &crate::report::margins_section(&after.resolved, &after.profile, units).rows,
+    );
+    let mut rows = vec![text_row(
+        "Margins against each failure (capacity / demand):",
+    )];
+    for m in margins {
+        let change = if m.verdict_change.is_empty() {
+            "same".to_string()
+        } else {
+            m.verdict_change.clone()
+        };
+        rows.push([
+            m.mechanism.clone(),
+            m.before_text.clone(),
+            m.after_text.clone(),
+            change,
+        ]);
+        if m.before_where != "—" || m.after_where != "—" {
+            rows.push(text_row(&format!(
+                "  where: {}; {}",
+                m.where_text(),
+                m.verdict_text
+            )));
+        }
+    }
+    rows
+}
+
+/// A row of words alone (drawn dim across the table).
+fn text_row(text: &str) -> [String; 4] {
+    [
+        text.to_string(),
+        String::new(),
+        String::new(),
+        String::new(),
+    ]
 }
 
 /// Rows of (limit, before, after, allowed) for a taper design, then its explanation.
@@ -159,12 +206,7 @@ pub fn design_rows(
         ]);
     }
     for sentence in design.explanation.iter().take(4) {
-        rows.push([
-            sentence.clone(),
-            String::new(),
-            String::new(),
-            String::new(),
-        ]);
+        rows.push(text_row(sentence));
     }
     rows
 }

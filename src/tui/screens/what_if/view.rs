@@ -9,6 +9,8 @@ use ratatui::widgets::{Block, Widget};
 use super::compare::{comparison, design_rows};
 use super::{DESIGNING, WhatIfScreen};
 use crate::diagnose::what_if::Setting;
+use crate::taper_design::TaperDesign;
+use crate::tui::job::SolveOutcome;
 use crate::tui::screens::results::render_plots;
 use crate::tui::session::Session;
 use crate::tui::theme::Theme;
@@ -101,6 +103,33 @@ pub(super) fn render_comparison(
 ) {
     let before = app.current_outcome();
     let after = state.outcome.as_ref().map(|(_, o)| o.as_ref());
+    let design = state.design.as_ref().map(|(_, d)| d.as_ref());
+    let mut text = status_lines(state, app, theme, before.is_some());
+    let rows = match (before, after, design) {
+        (Some(before), Some(after), _) => Some(comparison(before, after, app.units)),
+        (_, None, Some(design)) => Some(design_rows(design, app.units)),
+        _ => None,
+    };
+    if let Some(rows) = rows {
+        let last_header = if design.is_some() && after.is_none() {
+            "allowed"
+        } else {
+            "change"
+        };
+        let width = usize::from(compare.width.saturating_sub(2));
+        text.extend(table_lines(rows, last_header, width, theme));
+    }
+    render_scrolled(text, state.scroll, compare, buf);
+    render_after_plots(app, before, after, design, theme, plots, buf);
+}
+
+/// What was changed, an error, and what is running: the lines above the table.
+fn status_lines(
+    state: &WhatIfScreen,
+    app: &Session,
+    theme: Theme,
+    has_before: bool,
+) -> Vec<Line<'static>> {
     let mut text: Vec<Line> = Vec::new();
     match &state.description {
         Some(description) => {
@@ -125,61 +154,74 @@ pub(super) fn render_comparison(
                 running.fraction * 100.0
             )));
         }
-    } else if before.is_none() && state.change.is_some() {
+    } else if !has_before && state.change.is_some() {
         text.push(Line::from("waiting for the case's own solve…"));
     }
-    let design = state.design.as_ref().map(|(_, d)| d.as_ref());
-    let rows = match (before, after, design) {
-        (Some(before), Some(after), _) => Some(comparison(before, after, app.units)),
-        (_, None, Some(design)) => Some(design_rows(design, app.units)),
-        _ => None,
-    };
-    if let Some(rows) = rows {
-        let last_header = if design.is_some() && after.is_none() {
-            "allowed"
-        } else {
-            "change"
-        };
-        let width = usize::from(compare.width.saturating_sub(2));
-        let name_width = width.saturating_sub(33).clamp(10, 48);
-        text.push(Line::from(Span::styled(
-            format!(
-                "{:<name_width$} {:>10} {:>10} {:>10}",
-                "", "before", "after", last_header
-            ),
-            theme.dim(),
-        )));
-        for [name, b, a, c] in rows {
-            if b.is_empty() && a.is_empty() && c.is_empty() {
-                text.push(Line::from(Span::styled(name, theme.dim())));
-                continue;
-            }
-            // A name too long for its column gets a line of its own: words, never cut.
-            let name = if name.chars().count() > name_width {
-                text.push(Line::from(name));
-                String::new()
-            } else {
-                name
-            };
-            text.push(Line::from(format!(
-                "{name:<name_width$} {b:>10} {a:>10} {c:>10}"
-            )));
+    text
+}
+
+/// The (what, before, after, change) rows as aligned lines `width` wide; a row of words alone
+/// is drawn dim across the table.
+fn table_lines(
+    rows: Vec<[String; 4]>,
+    last_header: &str,
+    width: usize,
+    theme: Theme,
+) -> Vec<Line<'static>> {
+    let name_width = width.saturating_sub(33).clamp(10, 48);
+    let mut text = vec![Line::from(Span::styled(
+        format!(
+            "{:<name_width$} {:>10} {:>10} {:>10}",
+            "", "before", "after", last_header
+        ),
+        theme.dim(),
+    ))];
+    for [name, b, a, c] in rows {
+        if b.is_empty() && a.is_empty() && c.is_empty() {
+            text.push(Line::from(Span::styled(name, theme.dim())));
+            continue;
         }
+        // A name too long for its column gets a line of its own: words, never cut.
+        let name = if name.chars().count() > name_width {
+            text.push(Line::from(name));
+            String::new()
+        } else {
+            name
+        };
+        text.push(Line::from(format!(
+            "{name:<name_width$} {b:>10} {a:>10} {c:>10}"
+        )));
     }
-    // Keep the last rows reachable but never scroll past them.
-    let visible = usize::from(compare.height.saturating_sub(2));
+    text
+}
+
+/// The comparison's lines in their bordered box, scrolled by `scroll` but never past the last
+/// rows.
+fn render_scrolled(text: Vec<Line<'static>>, scroll: u16, area: Rect, buf: &mut Buffer) {
+    let visible = usize::from(area.height.saturating_sub(2));
     let most = u16::try_from(text.len().saturating_sub(visible)).unwrap_or(u16::MAX);
-    let scroll = state.scroll.min(most);
     let title = if most > 0 {
         " Before → after  (PgUp/PgDn: more) "
     } else {
         " Before → after  (a keeps the change, r resets) "
     };
     crate::tui::screens::wrapped(text, false)
-        .scroll((scroll, 0))
+        .scroll((scroll.min(most), 0))
         .block(Block::bordered().title(title))
-        .render(compare, buf);
+        .render(area, buf);
+}
 
+/// The plots: a design's after over its before, a change's after over the case, the case alone
+/// before anything is tried, or what the solve is waiting for.
+fn render_after_plots(
+    app: &Session,
+    before: Option<&SolveOutcome>,
+    after: Option<&SolveOutcome>,
+    design: Option<&TaperDesign>,
+    theme: Theme,
+    plots: Rect,
+    buf: &mut Buffer,
+) {
     if let (None, Some(design)) = (after, design) {
         render_plots(
             &design.after.profile,
