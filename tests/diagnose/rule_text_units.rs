@@ -105,3 +105,83 @@ fn a_malformed_placeholder_is_an_error_naming_file_line_and_rule() {
     );
     assert!(error.contains("`{50 kPaa}` is not a quantity"), "{error}");
 }
+
+/// The shipped rules copied into a temporary folder, with telescoping renamed in the plant's own
+/// words and a question of the plant's own added.
+fn plant_rules() -> tempfile::TempDir {
+    let dir = tempfile::tempdir().unwrap();
+    let shipped = std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("rules");
+    for entry in std::fs::read_dir(&shipped).unwrap() {
+        let path = entry.unwrap().path();
+        std::fs::copy(&path, dir.path().join(path.file_name().unwrap())).unwrap();
+    }
+    let file = dir.path().join("telescoping.yaml");
+    let text = std::fs::read_to_string(&file).unwrap();
+    let edited = text
+        .replacen(
+            "title: Telescoping (layers slid sideways)",
+            "title: Coned roll (the plant's word)",
+            1,
+        )
+        .replacen(
+            "questions:\n",
+            "questions:\n  - id: telescoping.core_clamp\n    text: Was the roll carried with the core clamp?\n",
+            1,
+        )
+        .replacen(
+            "      - {indicator: tension_to_usual, below: 0.6, weight: 0.35,",
+            "      - {question: telescoping.core_clamp, is: \"yes\", weight: 0.1, says: \"Carried by the core clamp.\"}\n      - {indicator: tension_to_usual, below: 0.6, weight: 0.35,",
+            1,
+        );
+    assert_eq!(edited.matches("core_clamp").count(), 2, "{edited}");
+    std::fs::write(&file, edited).unwrap();
+    dir
+}
+
+#[test]
+fn a_rules_folder_names_its_symptoms_and_questions_in_its_own_words() {
+    let rules = plant_rules();
+    let rules = rules.path().to_str().unwrap();
+    let telescoping = case("harbour_newsprint_telescoping.yaml");
+    let text = rolltriage_ok(&[
+        "diagnose",
+        &telescoping,
+        "--rules",
+        rules,
+        "--answer",
+        "telescoping.core_clamp=yes",
+        "--top",
+        "0",
+        "--no-what-if",
+    ]);
+    assert!(
+        text.contains(
+            "Coned roll (the plant's word): Was the roll carried with the core clamp? yes — Carried by the core clamp."
+        ),
+        "{text}"
+    );
+    assert!(
+        !text.contains("Telescoping (layers slid sideways)"),
+        "{text}"
+    );
+    assert!(
+        !text.contains("core_clamp") && !text.contains("core clamp = yes"),
+        "{text}"
+    );
+    let report = rolltriage_ok(&[
+        "report",
+        &telescoping,
+        "--rules",
+        rules,
+        "--no-what-if",
+        "-o",
+        "-",
+    ]);
+    assert!(report.contains("Coned roll (the plant's word)"), "{report}");
+    // Without the folder the shipped words are back.
+    let shipped = rolltriage_ok(&["diagnose", &telescoping, "--no-what-if"]);
+    assert!(
+        shipped.contains("Telescoping (layers slid sideways):"),
+        "{shipped}"
+    );
+}
