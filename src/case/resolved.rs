@@ -161,6 +161,17 @@ impl AssumedValue {
 }
 
 impl ResolvedCase {
+    /// The mass of the wound web (kg), core left out: [`crate::model::winder::roll_mass`] with
+    /// the web's density and width and the roll's and core's outside diameters.
+    pub fn roll_mass(&self) -> f64 {
+        crate::model::winder::roll_mass(
+            self.web.density,
+            self.roll.outer_diameter / 2.0,
+            self.core.outside_diameter / 2.0,
+            self.web.width,
+        )
+    }
+
     /// The mechanics problem for this case.
     pub fn problem(&self, options: crate::model::SolverOptions) -> crate::model::WindingProblem {
         crate::model::WindingProblem {

@@ -5,6 +5,7 @@ use std::path::PathBuf;
 use anyhow::{Context, bail};
 use rolltriage::case::{Case, ObservedSymptom};
 use rolltriage::diagnose::{self, DiagnoseOptions, rules::RuleBase};
+use rolltriage::units::UnitSystem;
 
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Default, clap::ValueEnum)]
 pub enum Format {
@@ -54,14 +55,22 @@ pub struct DiagnoseArgs {
     pub units: Option<super::units_arg::UnitsArg>,
 }
 
-/// The rule base: `--rules DIR` or the shipped one.
+/// The rule base: `--rules DIR` or the shipped one, quantities in SI.
 pub fn load_rules(dir: Option<&PathBuf>) -> anyhow::Result<RuleBase> {
-    match dir {
-        Some(d) => {
-            RuleBase::load_dir(d).with_context(|| format!("loading rules from {}", d.display()))
-        }
-        None => RuleBase::embedded().context("loading the shipped rule base"),
-    }
+    load_rules_in(dir, UnitSystem::Si)
+}
+
+/// [`load_rules`] with the quantities in the rule texts (`{50 kPa}`) in `units`. The outputs
+/// take symptom titles and question words from the rule base loaded last (`words::use_rules`),
+/// so a symptom only in `--rules DIR` reads in that folder's words.
+pub fn load_rules_in(dir: Option<&PathBuf>, units: UnitSystem) -> anyhow::Result<RuleBase> {
+    let rules = match dir {
+        Some(d) => RuleBase::load_dir_in(d, units)
+            .with_context(|| format!("loading rules from {}", d.display()))?,
+        None => RuleBase::embedded_in(units).context("loading the shipped rule base")?,
+    };
+    diagnose::words::use_rules(&rules);
+    Ok(rules)
 }
 
 pub fn run(args: &DiagnoseArgs) -> anyhow::Result<()> {
@@ -69,6 +78,14 @@ pub fn run(args: &DiagnoseArgs) -> anyhow::Result<()> {
     // The errors name the file (and the field's line) themselves.
     let (mut case, text) = Case::load_with_text(&args.case)?;
     super::measure::apply_measure_args(&mut case, &args.measure)?;
+    let units = super::measure::chosen_units(args.units, &case);
+    // Quantities in the rule texts follow the units of the text output; JSON and Markdown
+    // keep SI like the rest of their values.
+    let rules = if args.format == Format::Text && units != UnitSystem::Si {
+        load_rules_in(args.rules.as_ref(), units)?
+    } else {
+        rules
+    };
     let mut resolved = case.resolve_in_file(&args.case.display().to_string(), &text)?;
     for word in &args.symptoms {
         let id = diagnose::resolve_symptom(&rules, word)
@@ -137,7 +154,6 @@ pub fn run(args: &DiagnoseArgs) -> anyhow::Result<()> {
     rolltriage::finite::ensure_finite(&what, &diagnosis)?;
     let text = match args.format {
         Format::Text => {
-            let units = super::measure::chosen_units(args.units, &case);
             diagnose::render::render_text_in(&resolved.title, &diagnosis, args.verbose, units)
                 + &diagnose::render::sensitivity_text(&sensitivity)
                 + &past

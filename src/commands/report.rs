@@ -88,11 +88,6 @@ pub fn run(args: &ReportArgs) -> anyhow::Result<()> {
             )
         })?,
     };
-    let rules = match &args.rules {
-        Some(dir) => RuleBase::load_dir(dir)
-            .with_context(|| format!("loading the rule base from {}", dir.display()))?,
-        None => RuleBase::embedded().context("loading the shipped rule base")?,
-    };
     let options = PrepareOptions {
         remedy: args.remedy.clone(),
         date: args.date.clone(),
@@ -108,6 +103,12 @@ pub fn run(args: &ReportArgs) -> anyhow::Result<()> {
         what_if: !args.no_what_if,
         ..PrepareOptions::default()
     };
+    // Quantities in the rule texts follow the report's units; JSON keeps SI.
+    let rule_units = match format {
+        Format::Json => UnitSystem::Si,
+        _ => options.units,
+    };
+    let rules = super::diagnose::load_rules_in(args.rules.as_ref(), rule_units)?;
     let mut input = prepare_from_path(&args.case, &rules, &options)
         .with_context(|| format!("preparing the report for {}", args.case.display()))?;
     if let Some(place) = &args.history {

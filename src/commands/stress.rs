@@ -172,7 +172,7 @@ pub fn run(args: &StressArgs) -> anyhow::Result<()> {
     let text = match args.format {
         Format::Table => {
             let mechanics = rolltriage::mechanics::MechanicsInputs::from_case(&resolved);
-            let mut t = summary_table(&resolved.title, &problem, &profile, &mechanics, system);
+            let mut t = summary_table(&resolved, &problem, &profile, &mechanics, system);
             let (converted, assumed): (Vec<_>, Vec<_>) =
                 resolved.assumed.iter().partition(|a| a.is_conversion());
             if !converted.is_empty() {
@@ -192,7 +192,8 @@ pub fn run(args: &StressArgs) -> anyhow::Result<()> {
         Format::Json => {
             let value = serde_json::json!({
                 "title": resolved.title,
-                "units": "SI: radius m, pressure Pa, tangential_stress Pa, wound_in_tension N/m",
+                "units": "SI: radius m, pressure Pa, tangential_stress Pa, wound_in_tension N/m, roll_mass kg",
+                "roll_mass": resolved.roll_mass(),
                 "profile": shown,
             });
             serde_json::to_string_pretty(&value)? + "\n"
@@ -235,15 +236,23 @@ fn diameter_band(band: (f64, f64), system: UnitSystem) -> String {
 /// The summary table printed by default: the figures, the failure mechanisms' margins, the
 /// solver's and the air film's rows, the zones, the warnings.
 pub fn summary_table(
-    title: &str,
+    resolved: &rolltriage::case::ResolvedCase,
     problem: &model::WindingProblem,
     profile: &Profile,
     mechanics: &rolltriage::mechanics::MechanicsInputs,
     system: UnitSystem,
 ) -> String {
     let mut t = String::new();
-    t.push_str(&format!("Wound-roll stresses: {title}\n\n"));
+    t.push_str(&format!("Wound-roll stresses: {}\n\n", resolved.title));
     let mut rows = figure_rows(problem, profile, system);
+    // The weight handling lifts and telescoping under handling loads, after the build.
+    rows.insert(
+        2,
+        (
+            "Roll weight (web, core left out)",
+            units::format_quantity(resolved.roll_mass(), QuantityKind::Mass, system),
+        ),
+    );
     rows.extend(mechanism_rows(profile, mechanics, system));
     rows.extend(solver_and_air_rows(profile, system));
     let width = rows

@@ -106,7 +106,7 @@ pub fn belief_label(cause_title: &str) -> String {
 }
 
 /// The shipped rule base, read once, for the names of symptoms and the words of questions and
-/// answers. A reason from a rule only in a `--rules` folder falls back to its ID with spaces.
+/// answers when no rule base was named with [`use_rules`].
 fn shipped_rules() -> Option<&'static super::rules::RuleBase> {
     static RULES: std::sync::OnceLock<Option<super::rules::RuleBase>> = std::sync::OnceLock::new();
     RULES
@@ -114,12 +114,34 @@ fn shipped_rules() -> Option<&'static super::rules::RuleBase> {
         .as_ref()
 }
 
-/// "telescoping" → "Telescoping": a symptom's name as the rule base gives it.
+/// The rule base a command diagnoses with (a `--rules` folder, or the shipped rules with their
+/// quantities in the chosen units), named once by the command that loaded it.
+static IN_USE: std::sync::RwLock<Option<std::sync::Arc<super::rules::RuleBase>>> =
+    std::sync::RwLock::new(None);
+
+/// Name the rule base whose words (symptom titles, questions and answers) the outputs use: a
+/// symptom or question only in a `--rules` folder then reads in that folder's own words, and
+/// quantities in question texts in the units it was loaded in. Without it, the shipped rules
+/// in SI. For commands and the terminal UI, which diagnose with one rule base at a time.
+pub fn use_rules(rules: &super::rules::RuleBase) {
+    if let Ok(mut in_use) = IN_USE.write() {
+        *in_use = Some(std::sync::Arc::new(rules.clone()));
+    }
+}
+
+/// `find` asked of the rule base in use first, then of the shipped one.
+fn from_rules<T>(find: impl Fn(&super::rules::RuleBase) -> Option<T>) -> Option<T> {
+    let in_use = IN_USE.read().ok().and_then(|r| r.clone());
+    in_use
+        .as_deref()
+        .and_then(&find)
+        .or_else(|| shipped_rules().and_then(&find))
+}
+
+/// "telescoping" → "Telescoping": a symptom's name as the rule base gives it (the rule file's
+/// `title:`); a symptom no rule base knows reads as its ID with spaces.
 pub fn symptom_title(id: &str) -> String {
-    shipped_rules()
-        .and_then(|r| r.symptom(id))
-        .map(|s| s.title.clone())
-        .unwrap_or_else(|| id.replace('_', " "))
+    from_rules(|r| r.symptom(id).map(|s| s.title.clone())).unwrap_or_else(|| id.replace('_', " "))
 }
 
 /// A rule threshold in words: "< 0.6" → "below 0.6", "> 1" → "above 1".
@@ -141,8 +163,11 @@ pub fn reason_tested(reason: &super::Reason) -> Option<String> {
     if reason.test == "prior" || reason.test == "site_history" {
         return None;
     }
-    if let Some(q) = shipped_rules().and_then(|r| r.question(&reason.test)) {
-        return Some(answered(q, reason.value.as_deref().unwrap_or_default()));
+    if let Some(plain) = from_rules(|r| {
+        r.question(&reason.test)
+            .map(|q| answered(q, reason.value.as_deref().unwrap_or_default()))
+    }) {
+        return Some(plain);
     }
     // Where on the roll the symptom shows: "seen at the core".
     if reason.test == "place" {
@@ -171,11 +196,11 @@ fn answered(question: &super::rules::Question, answer: &str) -> String {
     format!("{} {answer}", question.text.trim())
 }
 
-/// An answer of the case (`answers:` in the case file) in words, for reports; a question only
-/// in a `--rules` folder reads as its ID and answer with spaces.
+/// An answer of the case (`answers:` in the case file) in words, for reports; a question no
+/// rule base knows reads as its ID and answer with spaces.
 pub fn answer_plain(question: &str, answer: &str) -> String {
-    match shipped_rules().and_then(|r| r.question(question)) {
-        Some(q) => answered(q, answer),
+    match from_rules(|r| r.question(question).map(|q| answered(q, answer))) {
+        Some(plain) => plain,
         None => format!(
             "{}: {}",
             question.replace(['_', '.'], " "),

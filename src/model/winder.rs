@@ -263,6 +263,18 @@ pub fn roll_weight_per_width(density: f64, radius: f64, core_radius: f64) -> f64
     density * STANDARD_GRAVITY * area
 }
 
+/// Mass (kg) of the wound web of a roll: density `density` (kg/m³) times the volume of the
+/// hollow cylinder from `core_radius` to `outer_radius` over the width `width` (m),
+/// ρ·π·(R² − r²)·w (the closed form of a hollow cylinder's volume). Core and shaft are left out;
+/// air between the layers and compaction are not counted, so it is the weight of the web as
+/// wound, the one handling (lifting, standing a roll on end) and telescoping under handling
+/// read.
+pub fn roll_mass(density: f64, outer_radius: f64, core_radius: f64, width: f64) -> f64 {
+    let area =
+        std::f64::consts::PI * (outer_radius * outer_radius - core_radius * core_radius).max(0.0);
+    density * area * width
+}
+
 /// Centrifugal hoop stress of a spinning layer at surface speed `speed` (m/s): ρ·V² (Pa), the
 /// tension a free spinning ring needs to hold itself together (thin rotating ring).
 pub fn centrifugal_stress(density: f64, speed: f64) -> f64 {
@@ -315,6 +327,20 @@ mod tests {
         assert!(drums.validate(0.1).is_ok());
         assert!(drums.validate(0.05).is_err());
         assert!(drums.contact_angle(0.01).is_none());
+    }
+
+    #[test]
+    fn roll_mass_by_hand() {
+        // A newsprint-like roll by hand, ρ·π·(R² − r²)·w: ρ = 600 kg/m³, ⌀ 1000 mm on a
+        // ⌀ 100 mm core, 1.6 m wide: 960 · π · 0.2475 = 960 · 0.777544 = 746.44 kg.
+        let m = roll_mass(600.0, 0.5, 0.05, 1.6);
+        assert!((m - 746.44).abs() < 0.01, "{m}");
+        // No web, no mass; a core larger than the roll is not a negative mass.
+        assert_eq!(roll_mass(600.0, 0.05, 0.05, 1.6), 0.0);
+        assert_eq!(roll_mass(600.0, 0.04, 0.05, 1.6), 0.0);
+        // Consistent with the weight per width: m·g / w = ρ·g·π·(R² − r²).
+        let per_width = roll_weight_per_width(600.0, 0.5, 0.05);
+        assert!((m * STANDARD_GRAVITY / 1.6 - per_width).abs() < 1e-9);
     }
 
     #[test]

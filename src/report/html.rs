@@ -252,6 +252,13 @@ fn write_stress(
             "<tr><td>Air film / combined roughness, start → outside</td><td>{start} → {end}</td></tr>"
         )?;
     }
+    if let Some(weight) = &stress.roll_weight {
+        writeln!(
+            out,
+            "<tr><td>Roll weight (web, core left out)</td><td>{}</td></tr>",
+            escape(&weight.text)
+        )?;
+    }
     writeln!(out, "</table>")?;
     if !stress.zones.is_empty() {
         writeln!(out, "<table id=\"zones\">")?;

@@ -189,6 +189,13 @@ fn write_stress(out: &mut String, doc: &ReportDocument, charts: &TextCharts) -> 
             "| Air film / combined roughness, start → outside | {start} → {end} |"
         )?;
     }
+    if let Some(weight) = &stress.roll_weight {
+        writeln!(
+            out,
+            "| Roll weight (web, core left out) | {} |",
+            weight.text
+        )?;
+    }
     writeln!(
         out,
         "| Layers (elements × layers per element) | {} ({} × {}) |",

@@ -109,12 +109,48 @@ impl Budget {
         }
     }
 
-    /// The error of a search that ran out of budget before it settled.
-    pub fn exhausted(&self, solves: usize) -> TaperError {
+    /// The error of a search that ran out of budget before it settled, with the solves made.
+    pub fn exhausted(&self, done: SolveCount) -> TaperError {
         TaperError::BudgetUsedUp {
             wraps: self.layers,
-            solves,
-            budget: self.limit / 1_000_000,
+            done,
+            budget: self.limit as f64 / 1e6,
         }
+    }
+}
+
+/// The solves a design has made, by kind: what the budget paid for.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
+pub struct SolveCount {
+    /// Searched schedules solved on the search grid (those that failed to solve included).
+    pub searched: usize,
+    /// Schedules checked on the verification grid: the current one, each verified candidate, a
+    /// chosen fallback.
+    pub checks: usize,
+    /// Re-solves on the search grid of the current schedule and of each verified candidate, to
+    /// correct the search for its coarser grid.
+    pub corrections: usize,
+}
+
+impl SolveCount {
+    pub fn total(&self) -> usize {
+        self.searched + self.checks + self.corrections
+    }
+}
+
+impl std::fmt::Display for SolveCount {
+    /// "195 solves: 193 searched schedules, 1 check on the fine grid, 1 re-solve for the grid
+    /// corrections".
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        let plural =
+            |n: usize, one: &str, many: &str| format!("{n} {}", if n == 1 { one } else { many });
+        write!(
+            f,
+            "{}: {}, {} on the fine grid, {} for the grid corrections",
+            plural(self.total(), "solve", "solves"),
+            plural(self.searched, "searched schedule", "searched schedules"),
+            plural(self.checks, "check", "checks"),
+            plural(self.corrections, "re-solve", "re-solves"),
+        )
     }
 }

@@ -41,10 +41,11 @@ pub(super) fn choose(run: &mut DesignRun, searched: &Searched) -> Result<Choice,
         .iter()
         .max_by(|a, b| a.worst(k, &cx).total_cmp(&b.worst(k, &cx)))
         .unwrap_or(&run.trials[0]);
-    run.charge(run.verify, run.solves)?;
+    run.charge(run.verify)?;
     let schedule = run.schedule_of(t.start, t.fraction);
     let after = evaluate(cx.case, &schedule, cx.limits, run.verify)?;
     run.solves += 1;
+    run.done.checks += 1;
     Ok(Choice {
         trial: t,
         after,

@@ -272,12 +272,15 @@ pub enum TaperError {
     },
     /// The search used its budget before it settled on a schedule.
     #[error(
-        "the taper search on this {wraps}-wrap roll used its budget of {budget} million wrap-steps of solver work ({solves} solves) before it settled on a schedule; no design is given"
+        "the taper search on this {wraps}-wrap roll used its budget of {budget} million wrap-steps of solver work before it settled on a schedule ({done}); no design is given",
+        budget = crate::units::sig3(*budget)
     )]
     BudgetUsedUp {
         wraps: usize,
-        solves: usize,
-        budget: u64,
+        /// The solves made before the budget ran out, by kind.
+        done: super::budget::SolveCount,
+        /// Millions of wrap-steps.
+        budget: f64,
     },
     /// Every searched schedule failed to solve and no solver error was kept.
     #[error("the case cannot be designed for: no schedule could be solved")]

@@ -26,6 +26,9 @@ pub(super) struct DesignRun<'a> {
     pub trials: Vec<Trial>,
     /// The first solver error of a searched schedule (reported when no schedule solved at all).
     pub failure: Option<TaperError>,
+    /// Solves made so far by kind, for the message when the budget runs out (searched
+    /// schedules counted as they are solved, failures included).
+    pub done: budget::SolveCount,
 }
 
 impl<'a> DesignRun<'a> {
@@ -52,6 +55,7 @@ impl<'a> DesignRun<'a> {
             solves: 0,
             trials: Vec::new(),
             failure: None,
+            done: budget::SolveCount::default(),
         };
         let (nu, nv) = run.grid();
         run.budget.check_start(nu * nv + nv, search, verify)?;
@@ -63,13 +67,14 @@ impl<'a> DesignRun<'a> {
         (self.options.grid.0.max(3), self.options.grid.1.max(2))
     }
 
-    /// Charge a solve before it runs; an error (naming `solves`) once the budget is used up.
-    pub fn charge(&mut self, resolution: Resolution, solves: usize) -> Result<(), TaperError> {
+    /// Charge a solve before it runs; an error naming the solves made so far, by kind, once the
+    /// budget is used up.
+    pub fn charge(&mut self, resolution: Resolution) -> Result<(), TaperError> {
         let work = budget::solve_work(self.budget.layers, resolution);
         if self.budget.charge(work) {
             Ok(())
         } else {
-            Err(self.budget.exhausted(solves))
+            Err(self.budget.exhausted(self.done))
         }
     }
 
@@ -93,10 +98,11 @@ impl<'a> DesignRun<'a> {
 
     /// Check the case's own schedule at the verification resolution.
     pub fn check_current(&mut self) -> Result<Evaluation, TaperError> {
-        self.charge(self.verify, self.solves)?;
+        self.charge(self.verify)?;
         let case = self.cx.case;
         let before = evaluate(case, &case.winding.tension, self.cx.limits, self.verify)?;
         self.solves += 1;
+        self.done.checks += 1;
         Ok(before)
     }
 
@@ -111,9 +117,10 @@ impl<'a> DesignRun<'a> {
         {
             return Some(*t);
         }
-        if self.charge(self.search, self.trials.len()).is_err() {
+        if self.charge(self.search).is_err() {
             return None;
         }
+        self.done.searched += 1;
         let schedule = self.schedule_of(start, fraction);
         match evaluate(self.cx.case, &schedule, self.cx.limits, self.search) {
             Ok(e) => {

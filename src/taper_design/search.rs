@@ -174,13 +174,14 @@ fn scan_grid(run: &mut DesignRun, range: &StartRange) -> Result<(), TaperError> 
 
 /// First corrections: the current schedule at the search resolution against `before`.
 fn first_corrections(run: &mut DesignRun, before: &Evaluation) -> Result<Corrections, TaperError> {
-    run.charge(run.search, run.solves + run.trials.len())?;
+    run.charge(run.search)?;
     let case = run.cx.case;
     let k = match evaluate(case, &case.winding.tension, run.cx.limits, run.search) {
         Ok(e) => Corrections::between(&e.checks, &before.checks),
         Err(_) => Corrections::NONE,
     };
     run.solves += 1;
+    run.done.corrections += 1;
     Ok(k)
 }
 
@@ -190,14 +191,16 @@ fn verify_candidate(
     run: &mut DesignRun,
     candidate: Trial,
 ) -> Result<(Evaluation, Corrections), TaperError> {
-    run.charge(run.verify, run.solves + run.trials.len())?;
-    run.charge(run.search, run.solves + run.trials.len())?;
+    run.charge(run.verify)?;
+    run.charge(run.search)?;
     let schedule = run.schedule_of(candidate.start, candidate.fraction);
     let (case, limits) = (run.cx.case, run.cx.limits);
     let e = evaluate(case, &schedule, limits, run.verify)?;
     run.solves += 1;
+    run.done.checks += 1;
     let search_checks = evaluate(case, &schedule, limits, run.search)?.checks;
     run.solves += 1;
+    run.done.corrections += 1;
     let k = Corrections::between(&search_checks, &e.checks);
     Ok((e, k))
 }

@@ -105,10 +105,12 @@ pub fn build_app(options: &Options, rules: Arc<RuleBase>) -> Result<app::App, Tu
 /// Run the UI until the user quits. The terminal is restored on every exit path, panics
 /// included.
 pub fn run(options: &Options) -> Result<(), TuiError> {
+    // Quantities in the rule texts in the units the UI starts in.
     let rules = match &options.rules {
-        Some(dir) => RuleBase::load_dir(dir)?,
-        None => RuleBase::embedded()?,
+        Some(dir) => RuleBase::load_dir_in(dir, options.units)?,
+        None => RuleBase::embedded_in(options.units)?,
     };
+    crate::diagnose::words::use_rules(&rules);
     // Load the case before touching the terminal, so a bad file is a plain error message.
     let rules = Arc::new(rules);
     let mut app = build_app(options, Arc::clone(&rules))?;

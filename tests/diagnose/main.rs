@@ -15,6 +15,7 @@ mod evidence_units;
 mod field_scenarios;
 mod markdown;
 mod properties;
+mod rule_text_units;
 mod rules_consistency;
 mod rules_lint;
 mod scenario_table;

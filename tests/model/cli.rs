@@ -80,3 +80,25 @@ fn bad_options_fail_with_a_message() {
     assert_eq!(out.status.code(), Some(2));
     assert!(String::from_utf8_lossy(&out.stderr).contains("grouped:K"));
 }
+
+#[test]
+fn the_roll_weight_is_printed_in_the_table_and_the_json() {
+    // The demo case by hand, ρ·π·(R² − r²)·w (hollow cylinder): ρ = 590 kg/m³, ⌀ 1000 mm on a
+    // ⌀ 101.6 mm core, 1680 mm wide: 590 · 1.68 · π · (0.25 − 0.0508²) = 991.2 · 0.777291
+    // = 770.45 kg; / 0.45359237 kg per lb (NIST SP 811) = 1698.6 lb.
+    let text = String::from_utf8(stress(&["--resolution", "grouped:40"]).stdout).unwrap();
+    assert!(
+        text.contains("Roll weight (web, core left out)         770.5 kg"),
+        "{text}"
+    );
+    let us =
+        String::from_utf8(stress(&["--resolution", "grouped:40", "--units", "us"]).stdout).unwrap();
+    assert!(
+        us.contains("Roll weight (web, core left out)         1699 lb"),
+        "{us}"
+    );
+    let out = stress(&["--resolution", "grouped:40", "--format", "json"]);
+    let v: serde_json::Value = serde_json::from_slice(&out.stdout).unwrap();
+    let kg = v["roll_mass"].as_f64().unwrap();
+    assert!((kg - 770.45).abs() < 0.01, "{kg}");
+}

@@ -90,6 +90,14 @@ fn a_search_that_uses_its_budget_up_ends_with_a_message() {
             let text = error.to_string();
             assert!(text.contains("budget"), "{text}");
             assert!(text.contains("no design is given"), "{text}");
+            // The count names every solve the budget paid for, not only the searched
+            // schedules: the current schedule's check on the fine grid and the re-solves
+            // that correct the search for its coarser grid, adding up to the total, which
+            // cannot exceed the solves of the full design.
+            let done = solve_counts(&text);
+            assert_eq!(done[0], done[1] + done[2] + done[3], "{text}");
+            assert!(done[0] < full.solves, "{text}");
+            assert!(done[2] >= 1 && done[3] >= 1, "{text}");
         }
         other => panic!("expected BudgetUsedUp, got {other:?}"),
     }
@@ -99,6 +107,50 @@ fn a_search_that_uses_its_budget_up_ends_with_a_message() {
         ..DesignOptions::default()
     };
     assert_eq!(design_with(&case, &limits, &options).unwrap(), full);
+}
+
+/// The numbers of "(N solves: S searched schedules, C checks on the fine grid, R re-solves for
+/// the grid corrections)" in a budget message: [N, S, C, R].
+fn solve_counts(text: &str) -> [usize; 4] {
+    let inside = text.split('(').nth(1).unwrap().split(')').next().unwrap();
+    let numbers: Vec<usize> = inside
+        .split(|c: char| !c.is_ascii_digit())
+        .filter(|w| !w.is_empty())
+        .map(|w| w.parse().unwrap())
+        .collect();
+    assert_eq!(numbers.len(), 4, "{text}");
+    [numbers[0], numbers[1], numbers[2], numbers[3]]
+}
+
+#[test]
+fn a_budget_used_up_early_counts_the_current_schedule_check_too() {
+    let case = Case::load(&root().join("cases/harbour_coated_starring_no_taper.yaml"))
+        .unwrap()
+        .resolve()
+        .unwrap();
+    let limits = TaperLimits::default();
+    let full = design_with(&case, &limits, &DesignOptions::default()).unwrap();
+    // 60 % of the work: the search starts (the least search fits) and stops before it has
+    // verified a candidate; the current schedule was checked on the fine grid first.
+    let options = DesignOptions {
+        work_budget: full.work * 6 / 10,
+        ..DesignOptions::default()
+    };
+    let error = design_with(&case, &limits, &options).unwrap_err();
+    let text = error.to_string();
+    let [total, searched, checks, corrections] = solve_counts(&text);
+    assert_eq!(checks, 1, "{text}");
+    assert!(corrections <= 1, "{text}");
+    assert_eq!(total, searched + checks + corrections, "{text}");
+    // The budget as set, not rounded down to whole millions.
+    let millions = options.work_budget as f64 / 1e6;
+    assert!(
+        text.contains(&format!(
+            "budget of {} million",
+            rolltriage::units::sig3(millions)
+        )),
+        "{text}"
+    );
 }
 
 /// Prints the work of every demo case's design (run with `--ignored --nocapture`) to choose the

@@ -9,9 +9,11 @@ use std::path::Path;
 
 use super::indicators::{self, Dimension, ZoneUse};
 use crate::model::ZoneName;
+use crate::units::UnitSystem;
 use crate::vocabulary;
 
 mod compile;
+mod quantities;
 mod raw;
 
 use compile::*;
@@ -314,17 +316,27 @@ pub struct RuleBase {
 }
 
 impl RuleBase {
-    /// The rule base shipped inside the binary.
+    /// The rule base shipped inside the binary, its quantities in SI.
     pub fn embedded() -> Result<RuleBase, RuleError> {
+        RuleBase::embedded_in(UnitSystem::Si)
+    }
+
+    /// The shipped rule base with the quantities of its texts (`{50 kPa}`) in `units`.
+    pub fn embedded_in(units: UnitSystem) -> Result<RuleBase, RuleError> {
         let files: Vec<(String, String)> = EMBEDDED
             .iter()
             .map(|(name, text)| (format!("rules/{name}"), (*text).to_string()))
             .collect();
-        RuleBase::from_files(&files)
+        RuleBase::from_files_in(&files, units)
     }
 
-    /// Load a rule directory (overrides the shipped rules).
+    /// Load a rule directory (overrides the shipped rules), its quantities in SI.
     pub fn load_dir(path: &Path) -> Result<RuleBase, RuleError> {
+        RuleBase::load_dir_in(path, UnitSystem::Si)
+    }
+
+    /// [`RuleBase::load_dir`] with the quantities of the texts in `units`.
+    pub fn load_dir_in(path: &Path, units: UnitSystem) -> Result<RuleBase, RuleError> {
         let read_error = |e: std::io::Error| RuleError::Read {
             path: path.display().to_string(),
             message: e.to_string(),
@@ -340,12 +352,25 @@ impl RuleBase {
             )?;
             files.push((name.display().to_string(), text));
         }
-        RuleBase::from_files(&files)
+        RuleBase::from_files_in(&files, units)
     }
 
-    /// Compile a set of `(file name, text)` pairs. Every problem found is reported, each with
-    /// file and line.
+    /// Compile a set of `(file name, text)` pairs, quantities in SI. Every problem found is
+    /// reported, each with file and line.
     pub fn from_files(files: &[(String, String)]) -> Result<RuleBase, RuleError> {
+        RuleBase::from_files_in(files, UnitSystem::Si)
+    }
+
+    /// [`RuleBase::from_files`] with the quantities of the texts (`{50 kPa}`) in `units`.
+    pub fn from_files_in(
+        files: &[(String, String)],
+        units: UnitSystem,
+    ) -> Result<RuleBase, RuleError> {
+        RuleBase::compile_files(files).map(|base| quantities::in_units(base, units))
+    }
+
+    /// The compiled rule base with its texts as written (placeholders kept).
+    fn compile_files(files: &[(String, String)]) -> Result<RuleBase, RuleError> {
         let mut problems = Problems::default();
         let mut base = RuleBase::default();
         let find = |wanted: &str| files.iter().find(|(f, _)| file_base_name(f) == wanted);
@@ -377,6 +402,7 @@ impl RuleBase {
         });
         base.sources.sort();
         base.sources.dedup();
+        quantities::check(&base, files, &mut problems);
         problems.into_result(base)
     }
 

@@ -34,6 +34,10 @@ pub struct StressSummary {
     pub wound_in_tension_start: Quantity,
     pub wound_in_tension_end: Quantity,
     pub physical_layers: usize,
+    /// The wound web's weight, core left out (`ResolvedCase::roll_mass`); absent in documents
+    /// written before it was shown.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub roll_weight: Option<Quantity>,
     pub elements: usize,
     pub layers_per_element: usize,
     pub zones: Vec<ZoneSummary>,
@@ -94,6 +98,7 @@ pub fn stress_summary(
         wound_in_tension_start: Quantity::new(wit_start, ForcePerWidth, units),
         wound_in_tension_end: Quantity::new(wit_end, ForcePerWidth, units),
         physical_layers: s.physical_layers,
+        roll_weight: Some(Quantity::new(resolved.roll_mass(), Mass, units)),
         elements: profile.solver.elements,
         layers_per_element: profile.solver.grid.layers_per_element,
         zones,
