@@ -15,6 +15,7 @@
 //! limits on nesting depth (128) and alias expansion stop deep or "billion laughs" documents;
 //! duplicate keys are refused everywhere.
 
+pub mod edit;
 pub mod measurements;
 pub mod registry;
 mod resolve;
@@ -219,10 +220,48 @@ impl Case {
     }
 
     /// Save atomically (temporary file + rename): a failed save leaves the old file intact.
-    pub fn save(&self, path: &std::path::Path) -> Result<(), CaseError> {
-        let text = self.to_yaml_string()?;
-        crate::fsutil::save_atomic(path, text.as_bytes())?;
-        Ok(())
+    /// An existing case file is edited in place, keeping its comments and layout (see
+    /// [`edit`]); the answer says how the file was written.
+    pub fn save(&self, path: &std::path::Path) -> Result<SaveHow, CaseError> {
+        let plan = self.save_plan(path)?;
+        plan.write(path)?;
+        Ok(plan.how)
+    }
+
+    /// What [`Case::save`] would write to `path`, without writing: the text and how it was
+    /// made. Lets a caller ask before comments are dropped.
+    pub fn save_plan(&self, path: &std::path::Path) -> Result<SavePlan, CaseError> {
+        let old = match std::fs::metadata(path) {
+            Err(error) if error.kind() == std::io::ErrorKind::NotFound => None,
+            // A folder, pipe or device: the save refuses it with its own message.
+            Ok(meta) if !meta.is_file() => None,
+            _ => Some(Case::load_with_text(path).map(|(_, text)| text)),
+        };
+        let Some(old) = old else {
+            return Ok(SavePlan {
+                text: self.to_yaml_string()?,
+                how: SaveHow::New,
+            });
+        };
+        let edited = match &old {
+            Ok(text) => edit::edit_in_place(text, self),
+            Err(error) => Err(edit::NotInPlace(format!(
+                "it is not a readable case ({error})"
+            ))),
+        };
+        match edited {
+            Ok(text) => Ok(SavePlan {
+                text,
+                how: SaveHow::InPlace,
+            }),
+            Err(reason) => Ok(SavePlan {
+                text: self.to_yaml_string()?,
+                how: SaveHow::Rewritten {
+                    reason: reason.0,
+                    dropped_comments: old.as_deref().is_ok_and(edit::has_comments),
+                },
+            }),
+        }
     }
 
     /// Resolve units and presets into SI; lists the assumed values. Messages say "the case"
@@ -248,6 +287,37 @@ impl Case {
     pub fn load_resolved(path: &std::path::Path) -> Result<ResolvedCase, CaseError> {
         let (case, text) = Case::load_with_text(path)?;
         case.resolve_in_file(&path.display().to_string(), &text)
+    }
+}
+
+/// How [`Case::save`] wrote (or would write) a case file.
+#[derive(Debug, Clone, PartialEq, Eq)]
+pub enum SaveHow {
+    /// There was no file: the case was written in full.
+    New,
+    /// The file's text was edited in place: comments, order and untouched values are kept.
+    InPlace,
+    /// The file was written again from the case, because it could not be edited in place
+    /// (`reason`, in plain words: "it uses flow style …"); `dropped_comments` when it had
+    /// comments, which are then lost.
+    Rewritten {
+        reason: String,
+        dropped_comments: bool,
+    },
+}
+
+/// The text [`Case::save`] writes and how it was made ([`Case::save_plan`]).
+#[derive(Debug, Clone)]
+pub struct SavePlan {
+    pub text: String,
+    pub how: SaveHow,
+}
+
+impl SavePlan {
+    /// Write the text atomically to `path`.
+    pub fn write(&self, path: &std::path::Path) -> Result<(), CaseError> {
+        crate::fsutil::save_atomic(path, self.text.as_bytes())?;
+        Ok(())
     }
 }
 
