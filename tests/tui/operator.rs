@@ -198,7 +198,10 @@ fn a_file_that_cannot_be_edited_in_place_warns_before_its_comments_go() {
     app.handle_key(Key::Ctrl('s'));
     let status = app.session.status.clone().unwrap_or_default();
     assert!(status.contains("comments"), "{status}");
-    assert!(status.contains("flow style"), "the reason is given: {status}");
+    assert!(
+        status.contains("flow style"),
+        "the reason is given: {status}"
+    );
     assert!(app.session.dirty);
     assert!(std::fs::read_to_string(&path).unwrap().contains("# mine"));
     app.handle_key(Key::Ctrl('s'));
