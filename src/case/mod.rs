@@ -264,6 +264,25 @@ impl Case {
         }
     }
 
+    /// The unit system the case's quantities are mostly typed in ("3.5 pli", "48 mil", "1200
+    /// fpm", "40 in" are US; "900 m/min", "76 um" SI), counted over the web, core, roll,
+    /// winding and measurements sections; `None` when none is typed with a unit. A tie reads
+    /// as SI ([`crate::units::typed_system`]).
+    pub fn typed_units(&self) -> Option<crate::units::UnitSystem> {
+        let sections = [
+            serde_json::to_value(&self.web),
+            serde_json::to_value(&self.core),
+            serde_json::to_value(&self.roll),
+            serde_json::to_value(&self.winding),
+            serde_json::to_value(&self.measurements),
+        ];
+        let mut texts = Vec::new();
+        for section in sections.into_iter().flatten() {
+            quantity_texts(&section, &mut texts);
+        }
+        crate::units::typed_system(texts.iter().map(String::as_str))
+    }
+
     /// Resolve units and presets into SI; lists the assumed values. Messages say "the case"
     /// (the title is never echoed: it can be anything, of any length); use
     /// [`Case::resolve_as`] or [`Case::load_resolved`] to name the file instead.
@@ -287,6 +306,16 @@ impl Case {
     pub fn load_resolved(path: &std::path::Path) -> Result<ResolvedCase, CaseError> {
         let (case, text) = Case::load_with_text(path)?;
         case.resolve_in_file(&path.display().to_string(), &text)
+    }
+}
+
+/// Every string in `value` (quantities among them), for [`Case::typed_units`].
+pub fn quantity_texts(value: &serde_json::Value, out: &mut Vec<String>) {
+    match value {
+        serde_json::Value::String(s) => out.push(s.clone()),
+        serde_json::Value::Array(items) => items.iter().for_each(|v| quantity_texts(v, out)),
+        serde_json::Value::Object(map) => map.values().for_each(|v| quantity_texts(v, out)),
+        _ => {}
     }
 }
 

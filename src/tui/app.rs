@@ -132,11 +132,22 @@ impl App {
         }
     }
 
+    /// Show a case opened from a file in the units it is typed in (SI when it says nothing),
+    /// unless the user chose the units (`--units`, Ctrl-U).
+    pub fn follow_typed_units(&mut self, case: &Case) {
+        if !self.session.units_chosen {
+            self.session.units = case.typed_units().unwrap_or(UnitSystem::Si);
+        }
+    }
+
     /// Open a case file (the whole case, or only its inputs).
     pub fn open_path(&mut self, path: &Path, purpose: OpenPurpose) -> Result<(), AppError> {
         let loaded = Case::load(path)?;
         match purpose {
-            OpenPurpose::WholeCase => self.set_case(loaded, Some(path.to_path_buf())),
+            OpenPurpose::WholeCase => {
+                self.follow_typed_units(&loaded);
+                self.set_case(loaded, Some(path.to_path_buf()));
+            }
             OpenPurpose::InputsOnly => {
                 let case = &mut self.session.case;
                 case.web = loaded.web;
@@ -363,6 +374,7 @@ impl App {
             }
             Key::F(10) => self.popups.push(Popup::Margins(MarginsPopup::default())),
             Key::Ctrl('u') => {
+                self.session.units_chosen = true;
                 self.session.units = match self.session.units {
                     UnitSystem::Si => UnitSystem::Us,
                     UnitSystem::Us => UnitSystem::Si,

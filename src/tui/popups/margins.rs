@@ -6,7 +6,7 @@
 use ratatui::buffer::Buffer;
 use ratatui::layout::Rect;
 use ratatui::text::{Line, Span};
-use ratatui::widgets::{Block, Clear, Paragraph, Widget, Wrap};
+use ratatui::widgets::{Block, Clear, Widget};
 
 use crate::report::{MarginLine, MarginsSection};
 use crate::tui::component::{ANY, Action, Binding, Component, Handled};
@@ -81,8 +81,8 @@ impl Component for MarginsPopup {
         let scroll = self.scroll.min(last_start);
         let more = if scroll < last_start { " ↓ more" } else { "" };
         Clear.render(rect, buf);
-        Paragraph::new(lines)
-            .wrap(Wrap { trim: false })
+        // Wrapped as the screens wrap: a number keeps its unit on its row.
+        crate::tui::screens::wrapped(lines, false)
             .scroll((scroll, 0))
             .block(
                 Block::bordered()
