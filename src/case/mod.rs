@@ -322,7 +322,8 @@ pub fn quantity_texts(value: &serde_json::Value, out: &mut Vec<String>) {
 /// How [`Case::save`] wrote (or would write) a case file.
 #[derive(Debug, Clone, PartialEq, Eq)]
 pub enum SaveHow {
-    /// There was no file: the case was written in full.
+    /// The case was written in full as a new file (there was none, or the caller replaces
+    /// another file).
     New,
     /// The file's text was edited in place: comments, order and untouched values are kept.
     InPlace,

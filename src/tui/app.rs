@@ -527,7 +527,20 @@ impl App {
             self.session.set_status(message);
             return;
         }
-        let plan = match self.session.case.save_plan(path) {
+        // The file the case came from is edited in place; another file chosen with "save as"
+        // is replaced (its comments belong to another case).
+        let plan = if self.session.case_path.as_deref() == Some(path) {
+            self.session.case.save_plan(path)
+        } else {
+            self.session
+                .case
+                .to_yaml_string()
+                .map(|text| crate::case::SavePlan {
+                    text,
+                    how: crate::case::SaveHow::New,
+                })
+        };
+        let plan = match plan {
             Ok(plan) => plan,
             Err(error) => return self.session.set_status(format!("Not saved: {error}")),
         };

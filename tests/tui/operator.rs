@@ -360,3 +360,25 @@ fn the_inputs_that_move_the_ranking_are_named_when_known() {
         "{text}"
     );
 }
+
+#[test]
+fn save_as_over_another_file_replaces_it() {
+    // Its comments belong to another case: they are not carried into this one.
+    let folder = tempfile::tempdir().unwrap();
+    let other = folder.path().join("other.yaml");
+    std::fs::write(&other, "# reel 12, other grade\ntitle: Reel 12\n").unwrap();
+    let mut app = app();
+    app.session.case.title = "Reel 7".into();
+    app.session.dirty = true;
+    // Ctrl-S without a file asks for a name: clear the suggested one, type the other file.
+    app.handle_key(Key::Ctrl('s'));
+    for _ in 0..100 {
+        app.handle_key(Key::Backspace);
+    }
+    type_text(&mut app, other.to_str().unwrap());
+    app.handle_key(Key::Enter);
+    assert!(!app.session.dirty, "{:?}", app.session.status);
+    let text = std::fs::read_to_string(&other).unwrap();
+    assert!(!text.contains("reel 12"), "{text}");
+    assert_eq!(Case::load(&other).unwrap().title, "Reel 7");
+}
