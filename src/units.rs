@@ -391,6 +391,42 @@ pub fn typed_system<'a>(texts: impl IntoIterator<Item = &'a str>) -> Option<Unit
     }
 }
 
+/// `value` (internal units of `kind`) written in the unit of `typed`, the text a user typed
+/// for the same field ("3.5 pli" → "4.025 pli"), with the fewest digits that parse back to
+/// exactly `value` (or, where none does, to within one part in 10¹²); `None` when `typed` has
+/// no unit of that kind.
+/// Keeps a changed value in the unit the user chose when a case file is saved.
+pub fn in_typed_unit(value: f64, typed: &str, kind: QuantityKind) -> Option<String> {
+    if !value.is_finite() {
+        return None;
+    }
+    let (_, unit_text) = split_number(typed.trim())?;
+    let unit = find_unit(&normalise_unit(unit_text), kind).filter(|u| u.kind == kind)?;
+    let number = (value - unit.offset) / unit.factor;
+    // The typed separator and symbol as written ("3.5 pli", "76um", "80 %"). A product with
+    // the unit's factor cannot reach every binary number, so when no text parses back to
+    // exactly `value`, the shortest within one part in 10¹² (far below any measurement) does.
+    let close = |exact: bool| {
+        (1..=17).find_map(|digits| {
+            let text = format!("{}{unit_text}", shortest(number, digits));
+            let back = parse_quantity("", &text, kind).ok()?;
+            let near = (back - value).abs() <= 1e-12 * value.abs();
+            (back == value || (!exact && near)).then_some(text)
+        })
+    };
+    close(true).or_else(|| close(false))
+}
+
+/// `value` rounded to `digits` significant digits, written without trailing zeros or an
+/// exponent ("4.025", "0.0012", "120").
+fn shortest(value: f64, digits: usize) -> String {
+    let text = format!("{value:.prec$e}", prec = digits - 1);
+    // Display of an f64 never uses an exponent and gives the shortest digits of the rounded
+    // value.
+    let rounded: f64 = text.parse().unwrap_or(value);
+    format!("{rounded}")
+}
+
 /// Split "12.5e-3 mm" into its number text and unit text. `None` when it does not start with a
 /// plain decimal number (no "inf", "NaN", hex or thousands separators).
 fn split_number(text: &str) -> Option<(&str, &str)> {

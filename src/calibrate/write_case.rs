@@ -3,10 +3,11 @@
 //!
 //! The new case is checked with the case file's own validation before anything is written;
 //! a fit outside the accepted range is refused with the reason and the file is left as it
-//! was. The `web.radial_stiffness` lines are replaced in the file's text, so comments and
-//! layout elsewhere survive; the edit is then parsed back and must give exactly the case with
-//! the fit. Where the layout does not allow that (a flow-style `web: {...}`), the file is
-//! rewritten from its parsed form, which drops comments: that needs the caller's consent.
+//! was. The file is saved as every case file is ([`Case::save_plan`]): its text is edited in
+//! place, so comments and layout survive, and the edit is parsed back and must give exactly
+//! the case with the fit. Where the layout does not allow that (a flow-style `web: {...}`),
+//! the file is rewritten from its parsed form, which drops comments: that needs the caller's
+//! consent.
 
 use std::path::Path;
 
@@ -55,77 +56,6 @@ fn section_lines(input: &RadialStiffnessInput, indent: &str) -> String {
     text
 }
 
-fn indentation(line: &str) -> usize {
-    line.len() - line.trim_start_matches(' ').len()
-}
-
-fn is_blank_or_comment(line: &str) -> bool {
-    let t = line.trim();
-    t.is_empty() || t.starts_with('#')
-}
-
-/// Replace (or add) `web.radial_stiffness` in block-style YAML text. `None` when the text is
-/// not laid out as plain blocks the edit understands.
-fn edit_text(text: &str, input: &RadialStiffnessInput) -> Option<String> {
-    let lines: Vec<&str> = text.split_inclusive('\n').collect();
-    let web = lines.iter().position(|l| {
-        let t = l.trim_end();
-        t == "web:" || (t.starts_with("web:") && t[4..].trim_start().starts_with('#'))
-    })?;
-    // The web block: following lines indented more than zero (blank and comment lines inside).
-    let mut end = web + 1;
-    let mut child_indent = None;
-    for (i, line) in lines.iter().enumerate().skip(web + 1) {
-        if is_blank_or_comment(line) {
-            continue;
-        }
-        let ind = indentation(line);
-        if ind == 0 {
-            break;
-        }
-        child_indent.get_or_insert(ind);
-        end = i + 1;
-    }
-    let child_indent = child_indent?;
-    let pad = " ".repeat(child_indent);
-    let key = format!("{pad}radial_stiffness:");
-    let start = (web + 1..end)
-        .find(|&i| lines[i].starts_with(&key) && indentation(lines[i]) == child_indent);
-    let new_section = section_lines(input, &pad);
-    let mut out = String::with_capacity(text.len() + new_section.len());
-    match start {
-        Some(start) => {
-            // Its block: the following lines indented deeper (blank lines inside included).
-            let mut stop = start + 1;
-            for (i, line) in lines.iter().enumerate().take(end).skip(start + 1) {
-                if line.trim().is_empty() || indentation(line) > child_indent {
-                    stop = i + 1;
-                } else {
-                    break;
-                }
-            }
-            lines[..start].iter().for_each(|l| out.push_str(l));
-            out.push_str(&new_section);
-            lines[stop..].iter().for_each(|l| out.push_str(l));
-        }
-        None => {
-            lines[..end].iter().for_each(|l| out.push_str(l));
-            if !out.ends_with('\n') {
-                out.push('\n');
-            }
-            out.push_str(&new_section);
-            lines[end..].iter().for_each(|l| out.push_str(l));
-        }
-    }
-    Some(out)
-}
-
-/// True when the text has a YAML comment (a `#` at a line start or after a space).
-fn has_comments(text: &str) -> bool {
-    text.lines()
-        .any(|l| l.trim_start().starts_with('#') || l.contains(" #"))
-}
-
 /// Write `fit` into the case file at `path`. Refused, leaving the file untouched, when the
 /// case with the fit would not pass the case check (the reason names the field and its
 /// accepted range), and when comments would be lost without `drop_comments`.
@@ -163,21 +93,23 @@ pub fn write_fit_into_case(
             case_number(super::significant(fit.k2, 5))
         ))
     })?;
-    if let Some(edited) = edit_text(&text, &input)
-        && Case::from_yaml_str(&edited, &origin).is_ok_and(|c| c == case)
-    {
-        crate::fsutil::save_atomic(path, edited.as_bytes())?;
-        return Ok(CaseEdit::InPlace);
-    }
-    if has_comments(&text) && !drop_comments {
-        return Err(refused(format!(
-            "the fit is not written: the file's layout needs a full rewrite, which drops its comments; pass --drop-comments to accept that, or write these lines under web: yourself:\n{}",
-            section_lines(&input, "  ")
-        )));
-    }
-    case.save(path)
-        .map_err(|e| refused(format!("the fit is not written: {e}")))?;
-    Ok(CaseEdit::Rewritten)
+    let not_written = |e: crate::case::CaseError| refused(format!("the fit is not written: {e}"));
+    let plan = case.save_plan(path).map_err(not_written)?;
+    let edit = match &plan.how {
+        crate::case::SaveHow::InPlace => CaseEdit::InPlace,
+        crate::case::SaveHow::Rewritten {
+            dropped_comments: true,
+            ..
+        } if !drop_comments => {
+            return Err(refused(format!(
+                "the fit is not written: the file's layout needs a full rewrite, which drops its comments; pass --drop-comments to accept that, or write these lines under web: yourself:\n{}",
+                section_lines(&input, "  ")
+            )));
+        }
+        _ => CaseEdit::Rewritten,
+    };
+    plan.write(path).map_err(not_written)?;
+    Ok(edit)
 }
 
 #[cfg(test)]
@@ -203,16 +135,23 @@ mod tests {
         assert_eq!(case_number(0.0), "0");
     }
 
+    fn with_fit(text: &str) -> Result<String, crate::case::edit::NotInPlace> {
+        let mut case = Case::from_yaml_str(text, "t").unwrap();
+        case.web.radial_stiffness = Some(input());
+        crate::case::edit::edit_in_place(text, &case)
+    }
+
     #[test]
     fn the_section_is_replaced_and_comments_stay() {
         let text = "# my notes\ntitle: t\nweb:\n  material: paper  # grade A\n  radial_stiffness:\n    law: constant\n    modulus: 1 MPa\n\n  friction: 0.4\ncore:\n  material: rigid\n";
-        let edited = edit_text(text, &input()).unwrap();
+        let edited = with_fit(text).unwrap();
         assert!(edited.contains("# my notes"));
         assert!(edited.contains("# grade A"));
         assert!(
             edited.contains(
                 "  radial_stiffness:\n    law: pfeiffer\n    k1: 4.4 kPa\n    k2: 21.27\n"
-            )
+            ),
+            "{edited}"
         );
         assert!(!edited.contains("modulus: 1 MPa"));
         assert!(edited.contains("  friction: 0.4\ncore:"));
@@ -221,15 +160,16 @@ mod tests {
     #[test]
     fn the_section_is_added_when_missing() {
         let text = "title: t\nweb:\n  material: paper\ncore:\n  material: rigid\n";
-        let edited = edit_text(text, &input()).unwrap();
+        let edited = with_fit(text).unwrap();
         assert!(
-            edited.contains("web:\n  material: paper\n  radial_stiffness:\n    law: pfeiffer\n")
+            edited.contains("web:\n  material: paper\n  radial_stiffness:\n    law: pfeiffer\n"),
+            "{edited}"
         );
         assert!(edited.ends_with("core:\n  material: rigid\n"));
     }
 
     #[test]
     fn flow_style_is_not_edited() {
-        assert_eq!(edit_text("web: {material: paper}\n", &input()), None);
+        assert!(with_fit("title: t\nweb: {material: paper}\n").is_err());
     }
 }

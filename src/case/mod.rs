@@ -15,6 +15,7 @@
 //! limits on nesting depth (128) and alias expansion stop deep or "billion laughs" documents;
 //! duplicate keys are refused everywhere.
 
+pub mod edit;
 pub mod measurements;
 pub mod registry;
 mod resolve;
@@ -219,10 +220,67 @@ impl Case {
     }
 
     /// Save atomically (temporary file + rename): a failed save leaves the old file intact.
-    pub fn save(&self, path: &std::path::Path) -> Result<(), CaseError> {
-        let text = self.to_yaml_string()?;
-        crate::fsutil::save_atomic(path, text.as_bytes())?;
-        Ok(())
+    /// An existing case file is edited in place, keeping its comments and layout (see
+    /// [`edit`]); the answer says how the file was written.
+    pub fn save(&self, path: &std::path::Path) -> Result<SaveHow, CaseError> {
+        let plan = self.save_plan(path)?;
+        plan.write(path)?;
+        Ok(plan.how)
+    }
+
+    /// What [`Case::save`] would write to `path`, without writing: the text and how it was
+    /// made. Lets a caller ask before comments are dropped.
+    pub fn save_plan(&self, path: &std::path::Path) -> Result<SavePlan, CaseError> {
+        let old = match std::fs::metadata(path) {
+            Err(error) if error.kind() == std::io::ErrorKind::NotFound => None,
+            // A folder, pipe or device: the save refuses it with its own message.
+            Ok(meta) if !meta.is_file() => None,
+            _ => Some(Case::load_with_text(path).map(|(_, text)| text)),
+        };
+        let Some(old) = old else {
+            return Ok(SavePlan {
+                text: self.to_yaml_string()?,
+                how: SaveHow::New,
+            });
+        };
+        let edited = match &old {
+            Ok(text) => edit::edit_in_place(text, self),
+            Err(error) => Err(edit::NotInPlace(format!(
+                "it is not a readable case ({error})"
+            ))),
+        };
+        match edited {
+            Ok(text) => Ok(SavePlan {
+                text,
+                how: SaveHow::InPlace,
+            }),
+            Err(reason) => Ok(SavePlan {
+                text: self.to_yaml_string()?,
+                how: SaveHow::Rewritten {
+                    reason: reason.0,
+                    dropped_comments: old.as_deref().is_ok_and(edit::has_comments),
+                },
+            }),
+        }
+    }
+
+    /// The unit system the case's quantities are mostly typed in ("3.5 pli", "48 mil", "1200
+    /// fpm", "40 in" are US; "900 m/min", "76 um" SI), counted over the web, core, roll,
+    /// winding and measurements sections; `None` when none is typed with a unit. A tie reads
+    /// as SI ([`crate::units::typed_system`]).
+    pub fn typed_units(&self) -> Option<crate::units::UnitSystem> {
+        let sections = [
+            serde_json::to_value(&self.web),
+            serde_json::to_value(&self.core),
+            serde_json::to_value(&self.roll),
+            serde_json::to_value(&self.winding),
+            serde_json::to_value(&self.measurements),
+        ];
+        let mut texts = Vec::new();
+        for section in sections.into_iter().flatten() {
+            quantity_texts(&section, &mut texts);
+        }
+        crate::units::typed_system(texts.iter().map(String::as_str))
     }
 
     /// Resolve units and presets into SI; lists the assumed values. Messages say "the case"
@@ -248,6 +306,48 @@ impl Case {
     pub fn load_resolved(path: &std::path::Path) -> Result<ResolvedCase, CaseError> {
         let (case, text) = Case::load_with_text(path)?;
         case.resolve_in_file(&path.display().to_string(), &text)
+    }
+}
+
+/// Every string in `value` (quantities among them), for [`Case::typed_units`].
+pub fn quantity_texts(value: &serde_json::Value, out: &mut Vec<String>) {
+    match value {
+        serde_json::Value::String(s) => out.push(s.clone()),
+        serde_json::Value::Array(items) => items.iter().for_each(|v| quantity_texts(v, out)),
+        serde_json::Value::Object(map) => map.values().for_each(|v| quantity_texts(v, out)),
+        _ => {}
+    }
+}
+
+/// How [`Case::save`] wrote (or would write) a case file.
+#[derive(Debug, Clone, PartialEq, Eq)]
+pub enum SaveHow {
+    /// The case was written in full as a new file (there was none, or the caller replaces
+    /// another file).
+    New,
+    /// The file's text was edited in place: comments, order and untouched values are kept.
+    InPlace,
+    /// The file was written again from the case, because it could not be edited in place
+    /// (`reason`, in plain words: "it uses flow style …"); `dropped_comments` when it had
+    /// comments, which are then lost.
+    Rewritten {
+        reason: String,
+        dropped_comments: bool,
+    },
+}
+
+/// The text [`Case::save`] writes and how it was made ([`Case::save_plan`]).
+#[derive(Debug, Clone)]
+pub struct SavePlan {
+    pub text: String,
+    pub how: SaveHow,
+}
+
+impl SavePlan {
+    /// Write the text atomically to `path`.
+    pub fn write(&self, path: &std::path::Path) -> Result<(), CaseError> {
+        crate::fsutil::save_atomic(path, self.text.as_bytes())?;
+        Ok(())
     }
 }
 

@@ -214,12 +214,13 @@ fn duplicate_key_location(text: &str, message: &str) -> Option<(usize, usize)> {
 }
 
 /// One step of a field path: a key (`winding`) or a list index (`[2]`).
-enum PathStep<'a> {
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub(crate) enum PathStep<'a> {
     Key(&'a str),
     Index(usize),
 }
 
-fn path_steps(path: &str) -> Option<Vec<PathStep<'_>>> {
+pub(crate) fn path_steps(path: &str) -> Option<Vec<PathStep<'_>>> {
     let mut steps = Vec::new();
     for part in path.split('.') {
         let (key, mut rest) = match part.find('[') {
@@ -250,12 +251,33 @@ fn line_key(content: &str) -> Option<&str> {
     Some(key)
 }
 
+/// Where a field is written in block-style YAML text, found by indentation.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub(crate) struct Located {
+    /// 0-based index of the field's line (for a list item, its `-` line).
+    pub line: usize,
+    /// Column of the field's key (for a list item, of the first key after the `-`).
+    pub column: usize,
+    /// 0-based index one past the last line of its children (the line itself when it has
+    /// none); blank and comment lines after the last child are not included.
+    pub end: usize,
+    /// The indent of its children, when it has any.
+    pub children: Option<usize>,
+}
+
 /// The 1-based line where the field at `path` (`winding.speed`, `winding.taper.steps[1].at`,
 /// `symptoms[0].where`) is written in block-style YAML `text`; `None` when it is not written
 /// there (a preset's value, a missing key) or the file uses flow style. Found by indentation,
 /// which is how case files are written (`case new`, the UI's save, by hand).
 pub(crate) fn field_line(text: &str, path: &str) -> Option<usize> {
-    // (line number, indent, content) of every line that holds YAML.
+    let steps = path_steps(path).filter(|steps| !steps.is_empty())?;
+    locate(text, &steps).map(|at| at.line + 1)
+}
+
+/// Where the field at `steps` is written in block-style `text` (see [`field_line`]); the
+/// empty path is the whole document, at line 0.
+pub(crate) fn locate(text: &str, steps: &[PathStep<'_>]) -> Option<Located> {
+    // (line index, indent, content) of every line that holds YAML.
     let mut lines: Vec<(usize, usize, String)> = text
         .lines()
         .enumerate()
@@ -264,14 +286,14 @@ pub(crate) fn field_line(text: &str, path: &str) -> Option<usize> {
             if content.is_empty() || content.starts_with('#') || content.starts_with("---") {
                 return None;
             }
-            Some((i + 1, line.len() - content.len(), content.to_string()))
+            Some((i, line.len() - content.len(), content.to_string()))
         })
         .collect();
     let mut range = 0..lines.len();
-    let mut found = None;
-    for step in path_steps(path)? {
+    let mut found = (0, 0);
+    for step in steps {
         let indent = lines.get(range.start).filter(|_| !range.is_empty())?.1;
-        let at = match step {
+        let at = match *step {
             PathStep::Key(key) => range
                 .clone()
                 .find(|&j| lines[j].1 == indent && line_key(&lines[j].2) == Some(key))?,
@@ -286,7 +308,7 @@ pub(crate) fn field_line(text: &str, path: &str) -> Option<usize> {
                 let content = rest.trim_start();
                 lines[item].1 += 1 + rest.len() - content.len();
                 lines[item].2 = content.to_string();
-                found = Some(lines[item].0);
+                found = (lines[item].0, lines[item].1);
                 let end = (item + 1..range.end)
                     .find(|&j| lines[j].1 <= indent)
                     .unwrap_or(range.end);
@@ -298,7 +320,7 @@ pub(crate) fn field_line(text: &str, path: &str) -> Option<usize> {
                 continue;
             }
         };
-        found = Some(lines[at].0);
+        found = (lines[at].0, lines[at].1);
         // The children: deeper lines, and a list written at the key's own indent.
         let end = (at + 1..range.end)
             .find(|&j| {
@@ -307,7 +329,19 @@ pub(crate) fn field_line(text: &str, path: &str) -> Option<usize> {
             .unwrap_or(range.end);
         range = at + 1..end;
     }
-    found
+    let (line, column) = found;
+    let end = if range.is_empty() {
+        line + 1
+    } else {
+        (lines[range.end - 1].0 + 1).max(line + 1)
+    };
+    let children = (!range.is_empty()).then(|| lines[range.start].1);
+    Some(Located {
+        line,
+        column,
+        end,
+        children,
+    })
 }
 
 #[cfg(test)]

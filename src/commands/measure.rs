@@ -61,17 +61,9 @@ pub fn chosen_units(
 
 /// The units the case's `measurements:` section is typed in; `None` without units there.
 pub fn typed_units(case: &Case) -> Option<rolltriage::units::UnitSystem> {
-    fn texts(value: &serde_json::Value, out: &mut Vec<String>) {
-        match value {
-            serde_json::Value::String(s) => out.push(s.clone()),
-            serde_json::Value::Array(items) => items.iter().for_each(|v| texts(v, out)),
-            serde_json::Value::Object(map) => map.values().for_each(|v| texts(v, out)),
-            _ => {}
-        }
-    }
     let value = serde_json::to_value(case.measurements.as_ref()?).ok()?;
     let mut out = Vec::new();
-    texts(&value, &mut out);
+    rolltriage::case::quantity_texts(&value, &mut out);
     rolltriage::units::typed_system(out.iter().map(String::as_str))
 }
 

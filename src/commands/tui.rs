@@ -4,14 +4,6 @@ use std::path::PathBuf;
 
 use anyhow::Context;
 
-/// Unit system for figures on screen.
-#[derive(Debug, Clone, Copy, Default, PartialEq, Eq, clap::ValueEnum)]
-pub enum Units {
-    #[default]
-    Si,
-    Us,
-}
-
 #[derive(Debug, Default, clap::Args)]
 pub struct TuiArgs {
     /// Case file to open; without it the UI starts on a new case.
@@ -19,9 +11,10 @@ pub struct TuiArgs {
     /// Rule directory to use instead of the shipped rules.
     #[arg(long, value_name = "DIR")]
     pub rules: Option<PathBuf>,
-    /// Units for figures on screen (Ctrl-U switches while running).
-    #[arg(long, value_enum, default_value_t = Units::Si)]
-    pub units: Units,
+    /// Units for figures on screen (Ctrl-U switches while running). Default: the units the
+    /// case file is mostly typed in (US trade units for pli, mil, fpm, in; else SI).
+    #[arg(long, value_enum)]
+    pub units: Option<super::units_arg::UnitsArg>,
     /// Capture the mouse: wheel scrolls, a click on a tab switches screen.
     #[arg(long)]
     pub mouse: bool,
@@ -36,10 +29,7 @@ pub fn run(args: &TuiArgs) -> anyhow::Result<()> {
     let options = rolltriage::tui::Options {
         case: args.case.clone(),
         rules: args.rules.clone(),
-        units: match args.units {
-            Units::Si => rolltriage::units::UnitSystem::Si,
-            Units::Us => rolltriage::units::UnitSystem::Us,
-        },
+        units: args.units.map(super::units_arg::UnitsArg::system),
         mouse: args.mouse,
         history: args.history.clone(),
     };

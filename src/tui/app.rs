@@ -88,7 +88,8 @@ pub struct App {
     /// Open popups, the top one last; it gets every key.
     pub popups: Vec<Popup>,
     pub should_quit: bool,
-    /// The file whose comments the user was told a save drops (the next save goes ahead).
+    /// The file whose comments the user was told a save drops, because its layout cannot be
+    /// edited in place (the next save goes ahead).
     pub comments_warned: Option<PathBuf>,
     /// The seed walk-throughs shuffle their choices with; `None` takes one from the clock (a
     /// new order each time, shown in the popup so a trainer can repeat it). Tests fix it.
@@ -131,11 +132,22 @@ impl App {
         }
     }
 
+    /// Show a case opened from a file in the units it is typed in (SI when it says nothing),
+    /// unless the user chose the units (`--units`, Ctrl-U).
+    pub fn follow_typed_units(&mut self, case: &Case) {
+        if !self.session.units_chosen {
+            self.session.units = case.typed_units().unwrap_or(UnitSystem::Si);
+        }
+    }
+
     /// Open a case file (the whole case, or only its inputs).
     pub fn open_path(&mut self, path: &Path, purpose: OpenPurpose) -> Result<(), AppError> {
         let loaded = Case::load(path)?;
         match purpose {
-            OpenPurpose::WholeCase => self.set_case(loaded, Some(path.to_path_buf())),
+            OpenPurpose::WholeCase => {
+                self.follow_typed_units(&loaded);
+                self.set_case(loaded, Some(path.to_path_buf()));
+            }
             OpenPurpose::InputsOnly => {
                 let case = &mut self.session.case;
                 case.web = loaded.web;
@@ -362,6 +374,7 @@ impl App {
             }
             Key::F(10) => self.popups.push(Popup::Margins(MarginsPopup::default())),
             Key::Ctrl('u') => {
+                self.session.units_chosen = true;
                 self.session.units = match self.session.units {
                     UnitSystem::Si => UnitSystem::Us,
                     UnitSystem::Us => UnitSystem::Si,
@@ -514,19 +527,54 @@ impl App {
             self.session.set_status(message);
             return;
         }
-        match self.session.case.save(path) {
+        // The file the case came from is edited in place; another file chosen with "save as"
+        // is replaced (its comments belong to another case).
+        let plan = if self.session.case_path.as_deref() == Some(path) {
+            self.session.case.save_plan(path)
+        } else {
+            self.session
+                .case
+                .to_yaml_string()
+                .map(|text| crate::case::SavePlan {
+                    text,
+                    how: crate::case::SaveHow::New,
+                })
+        };
+        let plan = match plan {
+            Ok(plan) => plan,
+            Err(error) => return self.session.set_status(format!("Not saved: {error}")),
+        };
+        // Comments are kept by editing the file in place; when its layout does not allow
+        // that, say why once, and the next save goes ahead without them.
+        if let crate::case::SaveHow::Rewritten {
+            reason,
+            dropped_comments: true,
+        } = &plan.how
+            && self.comments_warned.as_deref() != Some(path)
+        {
+            self.comments_warned = Some(path.to_path_buf());
+            return self.session.set_status(format!(
+                "Not saved yet: {} has comments, but {reason}, so the whole file would be written again without them; ^S again saves that way (or save under another name)",
+                path.display()
+            ));
+        }
+        match plan.write(path) {
             Ok(()) => {
                 self.session.dirty = false;
                 self.session.case_path = Some(path.to_path_buf());
-                self.session.set_status(format!("Saved {}", path.display()));
+                let how = match plan.how {
+                    crate::case::SaveHow::InPlace => " (comments and layout kept)",
+                    _ => "",
+                };
+                self.session
+                    .set_status(format!("Saved {}{how}", path.display()));
             }
             Err(error) => self.session.set_status(format!("Not saved: {error}")),
         }
     }
 
     /// Why a save to `path` does not go ahead now, in plain words: a typed value that was not
-    /// accepted (saving would silently drop it), a folder that does not exist, or comments in
-    /// the file that the UI cannot keep (said once; the next save writes without them).
+    /// accepted (saving would silently drop it) or a folder that does not exist.
     fn save_refused(&mut self, path: &Path) -> Option<String> {
         if self.inputs.error.is_some()
             && let Some(text) = &self.inputs.editing
@@ -545,17 +593,6 @@ impl App {
             return Some(format!(
                 "Not saved: the folder {} does not exist",
                 folder.display()
-            ));
-        }
-        let has_comments = std::fs::read_to_string(path).is_ok_and(|text| {
-            text.lines()
-                .any(|l| l.trim_start().starts_with('#') || l.contains("  #"))
-        });
-        if has_comments && self.comments_warned.as_deref() != Some(path) {
-            self.comments_warned = Some(path.to_path_buf());
-            return Some(format!(
-                "Not saved yet: {} has comments the UI does not keep; ^S again saves without them (or save under another name)",
-                path.display()
             ));
         }
         None

@@ -43,7 +43,9 @@ pub struct Options {
     pub case: Option<PathBuf>,
     /// Rule directory overriding the shipped rules.
     pub rules: Option<PathBuf>,
-    pub units: crate::units::UnitSystem,
+    /// Units for figures on screen; `None` follows the case file (the units it is mostly
+    /// typed in, SI when it says nothing).
+    pub units: Option<crate::units::UnitSystem>,
     /// Capture the mouse (wheel scrolls, click on a tab switches screen).
     pub mouse: bool,
     /// The complaint history store as `--history` gives it (a SQLite path, a `postgres://`
@@ -86,7 +88,10 @@ pub fn build_app(options: &Options, rules: Arc<RuleBase>) -> Result<app::App, Tu
         web,
         core,
     );
-    app.session.units = options.units;
+    if let Some(units) = options.units {
+        app.session.units = units;
+        app.session.units_chosen = true;
+    }
     // Walk-throughs are optional extras: a broken one must not keep the UI from opening.
     app.session.walkthroughs = crate::training::library::embedded().unwrap_or_default();
     app.session.remedy_changes = rules
@@ -97,6 +102,7 @@ pub fn build_app(options: &Options, rules: Arc<RuleBase>) -> Result<app::App, Tu
     app.session.history = history_location(options.history.as_deref());
     if let Some(path) = &options.case {
         let case = crate::case::Case::load(path)?;
+        app.follow_typed_units(&case);
         app.set_case(case, Some(path.clone()));
     }
     Ok(app)

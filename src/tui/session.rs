@@ -44,6 +44,9 @@ pub struct Session {
     pub web_presets: Vec<String>,
     pub core_presets: Vec<String>,
     pub units: UnitSystem,
+    /// The units were chosen (`--units`, or Ctrl-U): opening a case no longer follows the
+    /// units it is typed in.
+    pub units_chosen: bool,
     pub baseline: Option<Baseline>,
     pub running_baseline: Option<Running>,
     pub running_what_if: Option<Running>,
@@ -89,6 +92,7 @@ impl Session {
             web_presets,
             core_presets,
             units: UnitSystem::Si,
+            units_chosen: false,
             baseline: None,
             running_baseline: None,
             running_what_if: None,

@@ -115,13 +115,19 @@ fn ctrl_s_on_the_users_own_case_saves_in_place() {
     let mut app = open(&mine);
     app.session.case.title = "Reel 7".into();
     app.session.dirty = true;
-    app.handle_key(Key::Ctrl('s'));
-    // The demo file holds comments, which the UI does not keep: the first Ctrl-S only warns
-    // and leaves the file as it was; the second saves.
-    assert!(!std::fs::read_to_string(&mine).unwrap().contains("Reel 7"));
+    let before = std::fs::read_to_string(&mine).unwrap();
     app.handle_key(Key::Ctrl('s'));
     assert!(app.popup().is_none(), "{:?}", app.session.status);
-    assert!(std::fs::read_to_string(&mine).unwrap().contains("Reel 7"));
+    // The file is edited in place: only the title line changed, its comments stay.
+    let after = std::fs::read_to_string(&mine).unwrap();
+    assert!(after.contains("title: Reel 7"), "{after}");
+    let changed: Vec<_> = before
+        .lines()
+        .zip(after.lines())
+        .filter(|(a, b)| a != b)
+        .collect();
+    assert_eq!(changed.len(), 1, "{changed:?}");
+    assert_eq!(before.lines().count(), after.lines().count());
 }
 
 #[test]

@@ -56,4 +56,10 @@ fn popup_shows_the_reports_margins() {
     for (w, h) in SIZES {
         insta::assert_snapshot!(format!("margins_{w}x{h}"), draw(&app, w, h));
     }
+    // Wrapped as the screens wrap: no width puts a unit on the row after its number.
+    for w in 60..=120 {
+        let screen = draw(&app, w, 40);
+        let split = crate::wrap::split_on_screen(&screen);
+        assert!(split.is_none(), "width {w}: {split:?}");
+    }
 }

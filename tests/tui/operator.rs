@@ -5,7 +5,7 @@
 use crate::tui_support;
 
 use crate::tui_support::draw;
-use rolltriage::case::QuantityText;
+use rolltriage::case::{Case, QuantityText};
 use rolltriage::diagnose::sensitivity::{InputSensitivity, Sensitivity};
 use rolltriage::tui::app::{App, Screen};
 use rolltriage::tui::event::Key;
@@ -158,23 +158,56 @@ fn saving_into_a_missing_folder_is_a_plain_message() {
 }
 
 #[test]
-fn saving_over_comments_warns_first() {
+fn saving_keeps_the_files_comments_and_layout() {
     let folder = tempfile::tempdir().unwrap();
     let path = folder.path().join("reel.yaml");
-    std::fs::write(&path, "# written by case new\ntitle: Reel\n").unwrap();
+    let text = "# written by case new\ntitle: Reel\nwinding:\n  # from the drive screen\n  tension: 3.5 pli  # J. Ruiz, 3 May\n\n  speed: 900 m/min\n";
+    std::fs::write(&path, text).unwrap();
     let mut app = app();
-    app.session.case_path = Some(path.clone());
+    app.set_case(Case::load(&path).unwrap(), Some(path.clone()));
+    // 4 pli as an SI number, as a what-if writes it (the factor itself is checked against
+    // NIST SP 811 in tests/case/units.rs).
+    let si = rolltriage::units::parse_quantity(
+        "",
+        "4 pli",
+        rolltriage::units::QuantityKind::ForcePerWidth,
+    )
+    .unwrap();
+    app.session.case.winding.tension = Some(QuantityText::Number(si));
+    app.session.dirty = true;
+    app.handle_key(Key::Ctrl('s'));
+    let status = app.session.status.clone().unwrap_or_default();
+    assert!(!app.session.dirty, "{status}");
+    assert!(status.contains("comments and layout kept"), "{status}");
+    assert_eq!(
+        std::fs::read_to_string(&path).unwrap(),
+        text.replace("3.5 pli", "4 pli"),
+        "only the value changed, in the unit the user typed"
+    );
+}
+
+#[test]
+fn a_file_that_cannot_be_edited_in_place_warns_before_its_comments_go() {
+    let folder = tempfile::tempdir().unwrap();
+    let path = folder.path().join("reel.yaml");
+    std::fs::write(&path, "# mine\ntitle: Reel\nwinding: {speed: 900 m/min}\n").unwrap();
+    let mut app = app();
+    app.set_case(Case::load(&path).unwrap(), Some(path.clone()));
+    app.session.case.winding.speed = Some(QuantityText::Text("1000 m/min".into()));
     app.session.dirty = true;
     app.handle_key(Key::Ctrl('s'));
     let status = app.session.status.clone().unwrap_or_default();
     assert!(status.contains("comments"), "{status}");
     assert!(
-        std::fs::read_to_string(&path)
-            .unwrap()
-            .contains("# written")
+        status.contains("flow style"),
+        "the reason is given: {status}"
     );
+    assert!(app.session.dirty);
+    assert!(std::fs::read_to_string(&path).unwrap().contains("# mine"));
     app.handle_key(Key::Ctrl('s'));
     assert!(!app.session.dirty, "{:?}", app.session.status);
+    let saved = Case::load(&path).unwrap();
+    assert_eq!(saved.winding.speed, app.session.case.winding.speed);
 }
 
 #[test]
@@ -326,4 +359,26 @@ fn the_inputs_that_move_the_ranking_are_named_when_known() {
         text.contains("moves the ranking most: Web-to-web friction"),
         "{text}"
     );
+}
+
+#[test]
+fn save_as_over_another_file_replaces_it() {
+    // Its comments belong to another case: they are not carried into this one.
+    let folder = tempfile::tempdir().unwrap();
+    let other = folder.path().join("other.yaml");
+    std::fs::write(&other, "# reel 12, other grade\ntitle: Reel 12\n").unwrap();
+    let mut app = app();
+    app.session.case.title = "Reel 7".into();
+    app.session.dirty = true;
+    // Ctrl-S without a file asks for a name: clear the suggested one, type the other file.
+    app.handle_key(Key::Ctrl('s'));
+    for _ in 0..100 {
+        app.handle_key(Key::Backspace);
+    }
+    type_text(&mut app, other.to_str().unwrap());
+    app.handle_key(Key::Enter);
+    assert!(!app.session.dirty, "{:?}", app.session.status);
+    let text = std::fs::read_to_string(&other).unwrap();
+    assert!(!text.contains("reel 12"), "{text}");
+    assert_eq!(Case::load(&other).unwrap().title, "Reel 7");
 }

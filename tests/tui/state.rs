@@ -865,3 +865,56 @@ fn esc_run_together_with_a_letter_is_esc_then_the_letter() {
     app.handle_event(rolltriage::tui::event::Event::Key(Key::Alt('c')));
     assert_eq!(app.symptoms.query, "c");
 }
+
+/// Opening a case shows it in the units it is typed in, unless `--units` or Ctrl-U chose.
+#[test]
+fn a_case_opens_in_the_units_it_is_typed_in() {
+    use rolltriage::tui::app::OpenPurpose;
+    use rolltriage::tui::{Options, build_app};
+    use rolltriage::units::UnitSystem;
+    let folder = tempfile::tempdir().unwrap();
+    let us = folder.path().join("us.yaml");
+    std::fs::write(
+        &us,
+        "title: t\nweb:\n  thickness: 3 mil\n  width: 60 in\nwinding:\n  tension: 2 pli\n  speed: 1200 fpm\n  nip_load: 1 kN/m\n",
+    )
+    .unwrap();
+    let si = folder.path().join("si.yaml");
+    std::fs::write(
+        &si,
+        "title: t\nweb:\n  thickness: 76 um\nwinding:\n  tension: 2 pli\n  speed: 900 m/min\n",
+    )
+    .unwrap();
+    let rules = std::sync::Arc::new(rolltriage::diagnose::rules::RuleBase::embedded().unwrap());
+    let open = |case: &std::path::Path, units: Option<UnitSystem>| {
+        let options = Options {
+            case: Some(case.to_path_buf()),
+            units,
+            ..Options::default()
+        };
+        build_app(&options, std::sync::Arc::clone(&rules)).unwrap()
+    };
+    assert_eq!(
+        open(&us, None).session.units,
+        UnitSystem::Us,
+        "4 US against 1 SI"
+    );
+    assert_eq!(
+        open(&si, None).session.units,
+        UnitSystem::Si,
+        "2 SI against 1 US"
+    );
+    assert_eq!(
+        open(&us, Some(UnitSystem::Si)).session.units,
+        UnitSystem::Si,
+        "--units wins"
+    );
+    // Opening another file from the UI follows that file, until Ctrl-U chose.
+    let mut app = open(&us, None);
+    app.open_path(&si, OpenPurpose::WholeCase).unwrap();
+    assert_eq!(app.session.units, UnitSystem::Si);
+    app.handle_key(Key::Ctrl('u'));
+    assert_eq!(app.session.units, UnitSystem::Us);
+    app.open_path(&si, OpenPurpose::WholeCase).unwrap();
+    assert_eq!(app.session.units, UnitSystem::Us, "the user's choice stays");
+}

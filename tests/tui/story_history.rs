@@ -397,6 +397,12 @@ fn history_lists_shows_finds_similar_and_adds() {
     for (w, h) in SIZES {
         insta::assert_snapshot!(format!("history_similar_{w}x{h}"), draw(&app, w, h));
     }
+    // The what-was-done lines wrap with their numbers and units together at every width.
+    for w in 50..=120 {
+        let screen = draw(&app, w, 40);
+        let split = crate::wrap::split_on_screen(&screen);
+        assert!(split.is_none(), "width {w}: {split:?}");
+    }
 
     // A report exported now carries them (read from the answer, not from the store again).
     app.handle_key(Key::Esc);

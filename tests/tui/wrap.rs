@@ -39,6 +39,19 @@ fn split(rows: &[String]) -> Option<String> {
     })
 }
 
+/// The first number split from its unit inside a drawn popup or screen (frame lines and the
+/// padding inside them removed), if any.
+pub fn split_on_screen(screen: &str) -> Option<String> {
+    let rows: Vec<String> = screen
+        .lines()
+        .map(|l| {
+            l.trim_matches(|c: char| c == '│' || c.is_whitespace())
+                .to_string()
+        })
+        .collect();
+    split(&rows)
+}
+
 #[test]
 fn wrapped_paragraphs_never_split_a_number_from_its_unit() {
     for width in 12..=100u16 {

@@ -7,7 +7,6 @@ use std::path::{Path, PathBuf};
 use ratatui::buffer::Buffer;
 use ratatui::layout::Rect;
 use ratatui::text::{Line, Span};
-use ratatui::widgets::{Block, Clear, Widget};
 
 use super::prompt::{PathPrompt, path_prompt};
 use crate::calibrate::{CalibrateError, FitOptions, PfeifferFit, StackReadOptions};
@@ -182,8 +181,5 @@ fn render(prompt: &CalibratePopup, app: &Session, theme: Theme, area: Rect, buf:
         }
     }
     let rect = centred(area, 76, area.height.saturating_sub(4).min(16));
-    Clear.render(rect, buf);
-    crate::tui::screens::wrapped(lines, false)
-        .block(Block::bordered().title(" Calibrate: stack-compression test "))
-        .render(rect, buf);
+    super::framed(lines, " Calibrate: stack-compression test ", rect, buf);
 }

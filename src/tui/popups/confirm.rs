@@ -3,7 +3,6 @@
 use ratatui::buffer::Buffer;
 use ratatui::layout::Rect;
 use ratatui::text::{Line, Span};
-use ratatui::widgets::{Block, Clear, Widget};
 
 use crate::tui::component::{ANY, Action, Binding, Component, Handled, PendingAction};
 use crate::tui::event::Key;
@@ -64,9 +63,6 @@ impl Component for ConfirmPopup {
             ]),
         ];
         let rect = centred(area, 60, 7);
-        Clear.render(rect, buf);
-        crate::tui::screens::wrapped(lines, false)
-            .block(Block::bordered().title(" Unsaved changes "))
-            .render(rect, buf);
+        super::framed(lines, " Unsaved changes ", rect, buf);
     }
 }

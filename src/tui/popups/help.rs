@@ -4,7 +4,6 @@
 use ratatui::buffer::Buffer;
 use ratatui::layout::Rect;
 use ratatui::text::{Line, Span};
-use ratatui::widgets::{Block, Clear, Paragraph, Widget};
 
 use crate::tui::component::{ANY, Action, Binding, Component, Handled, Hint, help_entries};
 use crate::tui::event::Key;
@@ -89,14 +88,12 @@ impl Component for HelpPopup {
                 ));
             }
         }
-        let room = usize::from(rect.height.saturating_sub(2));
-        let last_start = lines.len().saturating_sub(room) as u16;
-        let scroll = self.scroll.min(last_start);
-        let more = if scroll < last_start { " ↓ more" } else { "" };
-        Clear.render(rect, buf);
-        Paragraph::new(lines)
-            .scroll((scroll, 0))
-            .block(Block::bordered().title(format!(" Keys — ↑↓ scroll, Esc closes{more} ")))
-            .render(rect, buf);
+        super::framed_scrolled(
+            lines,
+            self.scroll,
+            "Keys — ↑↓ scroll, Esc closes",
+            rect,
+            buf,
+        );
     }
 }

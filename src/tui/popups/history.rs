@@ -6,7 +6,7 @@
 use ratatui::buffer::Buffer;
 use ratatui::layout::Rect;
 use ratatui::text::{Line, Span};
-use ratatui::widgets::{Block, Clear, Paragraph, Widget, Wrap};
+use ratatui::widgets::{Block, Clear, Paragraph, Widget};
 
 use crate::history::{ComplaintSummary, PastComplaint, StoredComplaint};
 use crate::tui::component::{Action, Binding, Component, Handled};
@@ -365,34 +365,13 @@ impl HistoryPopup {
 }
 
 /// `text` after `prefix`, word-wrapped to `width` with the continuation lines indented under
-/// the text (wrapped lines must not run back to the margin).
+/// the text (wrapped lines must not run back to the margin), a number kept with its unit.
 fn indented(prefix: &str, text: &str, width: usize) -> Vec<Line<'static>> {
-    let indent = prefix.chars().count();
-    let room = width.saturating_sub(indent).max(10);
-    let mut out = Vec::new();
-    let mut line = String::new();
-    for word in text.split_whitespace() {
-        let needed = line.chars().count() + usize::from(!line.is_empty()) + word.chars().count();
-        if !line.is_empty() && needed > room {
-            out.push(std::mem::take(&mut line));
-        }
-        if !line.is_empty() {
-            line.push(' ');
-        }
-        line.push_str(word);
-    }
-    out.push(line);
-    out.into_iter()
-        .enumerate()
-        .map(|(i, l)| {
-            let lead = if i == 0 {
-                prefix.to_string()
-            } else {
-                " ".repeat(indent)
-            };
-            Line::from(format!("{lead}{l}"))
-        })
-        .collect()
+    crate::tui::screens::hang(
+        Line::from(format!("{prefix}{text}")),
+        width,
+        prefix.chars().count(),
+    )
 }
 
 impl Component for HistoryPopup {
@@ -484,11 +463,12 @@ impl Component for HistoryPopup {
                 let (lines, selected) = self.list_lines(ctx, theme, usize::from(body.width));
                 let first = (selected + 2).saturating_sub(usize::from(body.height));
                 let no_store = matches!(self.list, Loaded::Failed(_));
-                let mut paragraph = Paragraph::new(lines).scroll((first as u16, 0));
-                if no_store {
-                    paragraph = paragraph.wrap(Wrap { trim: false });
-                }
-                paragraph.render(body, buf);
+                let paragraph = if no_store {
+                    crate::tui::screens::wrapped(lines, false)
+                } else {
+                    Paragraph::new(lines)
+                };
+                paragraph.scroll((first as u16, 0)).render(body, buf);
             }
             HistoryView::Complaint => {
                 crate::tui::screens::wrapped(self.complaint_lines(ctx, theme), false)

@@ -6,7 +6,6 @@
 use ratatui::buffer::Buffer;
 use ratatui::layout::Rect;
 use ratatui::text::{Line, Span};
-use ratatui::widgets::{Block, Clear, Paragraph, Widget, Wrap};
 
 use crate::report::{MarginLine, MarginsSection};
 use crate::tui::component::{ANY, Action, Binding, Component, Handled};
@@ -76,19 +75,14 @@ impl Component for MarginsPopup {
             outer.width,
             (needed as u16).saturating_add(2).min(outer.height),
         );
-        let room = usize::from(rect.height.saturating_sub(2));
-        let last_start = lines.len().saturating_sub(room) as u16;
-        let scroll = self.scroll.min(last_start);
-        let more = if scroll < last_start { " ↓ more" } else { "" };
-        Clear.render(rect, buf);
-        Paragraph::new(lines)
-            .wrap(Wrap { trim: false })
-            .scroll((scroll, 0))
-            .block(
-                Block::bordered()
-                    .title(format!(" Margins against each failure — Esc closes{more} ")),
-            )
-            .render(rect, buf);
+        // Wrapped as the screens wrap: a number keeps its unit on its row.
+        super::framed_scrolled(
+            lines,
+            self.scroll,
+            "Margins against each failure — Esc closes",
+            rect,
+            buf,
+        );
     }
 }
 

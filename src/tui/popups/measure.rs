@@ -20,6 +20,7 @@ use crate::tui::theme::Theme;
 
 use super::edit_field::{self, Typed};
 pub use super::measure_rows::{Field, ROWS, set, value};
+use super::{CHOICE, MOVE, TYPING};
 
 /// Which page the popup shows.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
@@ -58,9 +59,6 @@ pub const KEYS: &[Binding] = &[
     Binding::line(TYPING, "Esc", "cancel"),
 ];
 
-const MOVE: u8 = 1;
-const CHOICE: u8 = 2;
-const TYPING: u8 = 4;
 const COMPARE: u8 = 8;
 
 impl MeasurePopup {
@@ -204,15 +202,10 @@ impl Component for MeasurePopup {
     }
 
     fn mode(&self, _ctx: &Session) -> u8 {
-        if self.editing.is_some() {
-            TYPING
-        } else if self.page == Page::Compare {
-            COMPARE
-        } else if self.field().choices().is_some() {
-            MOVE | CHOICE
-        } else {
-            MOVE
+        if self.editing.is_none() && self.page == Page::Compare {
+            return COMPARE;
         }
+        super::field_mode(self.editing.is_some(), self.field().choices().is_some())
     }
 
     fn is_typing(&self) -> bool {

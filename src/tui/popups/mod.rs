@@ -78,6 +78,65 @@ macro_rules! each_popup {
     };
 }
 
+/// Modes of the status line of the popups that edit a list of fields (story, measurements):
+/// moving between fields, on a field with choices, typing into one.
+pub const MOVE: u8 = 1;
+pub const CHOICE: u8 = 2;
+pub const TYPING: u8 = 4;
+
+/// The status-line mode of a field-list popup: typing, or moving (with choices on a choice
+/// field).
+pub fn field_mode(typing: bool, choice: bool) -> u8 {
+    match (typing, choice) {
+        (true, _) => TYPING,
+        (false, true) => MOVE | CHOICE,
+        (false, false) => MOVE,
+    }
+}
+
+/// The frame of a popup: clear `rect`, draw a bordered box titled `title` and `lines` in it,
+/// wrapped as the screens wrap (a number keeps its unit on its row).
+pub fn framed(lines: Vec<ratatui::text::Line<'_>>, title: &str, rect: Rect, buf: &mut Buffer) {
+    framed_from(lines, 0, title.to_string(), rect, buf);
+}
+
+/// [`framed`], showing `lines` from `scroll` (at most so far that the last line is at the
+/// bottom); the title (" Keys — Esc closes") says "↓ more" while lines are below.
+pub fn framed_scrolled(
+    lines: Vec<ratatui::text::Line<'_>>,
+    scroll: u16,
+    title: &str,
+    rect: Rect,
+    buf: &mut Buffer,
+) {
+    let room = usize::from(rect.height.saturating_sub(2));
+    let last_start = lines.len().saturating_sub(room) as u16;
+    let scroll = scroll.min(last_start);
+    let more = if scroll < last_start { " ↓ more" } else { "" };
+    framed_from(
+        lines,
+        scroll,
+        format!(" {}{more} ", title.trim()),
+        rect,
+        buf,
+    );
+}
+
+fn framed_from(
+    lines: Vec<ratatui::text::Line<'_>>,
+    scroll: u16,
+    title: String,
+    rect: Rect,
+    buf: &mut Buffer,
+) {
+    use ratatui::widgets::{Block, Clear, Widget};
+    Clear.render(rect, buf);
+    crate::tui::screens::wrapped(lines, false)
+        .scroll((scroll, 0))
+        .block(Block::bordered().title(title))
+        .render(rect, buf);
+}
+
 /// The scrolling keys of a text popup (↑↓ PgUp PgDn Home) applied to `scroll`, at most `max`;
 /// false for any other key.
 pub fn scroll_key(scroll: &mut u16, key: Key, max: u16) -> bool {

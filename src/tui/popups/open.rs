@@ -6,7 +6,6 @@ use std::path::PathBuf;
 use ratatui::buffer::Buffer;
 use ratatui::layout::Rect;
 use ratatui::text::{Line, Span};
-use ratatui::widgets::{Block, Clear, Widget};
 
 use super::prompt::{PathPrompt, path_prompt};
 use crate::tui::component::{ANY, Action, Binding, Component, Handled, OpenPurpose};
@@ -113,10 +112,7 @@ impl Component for OpenPopup {
                 theme.dim(),
             )));
         }
-        Clear.render(rect, buf);
-        crate::tui::screens::wrapped(lines, false)
-            .block(Block::bordered().title(title))
-            .render(rect, buf);
+        super::framed(lines, title, rect, buf);
     }
 }
 

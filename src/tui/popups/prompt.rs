@@ -6,7 +6,6 @@ use std::path::PathBuf;
 use ratatui::buffer::Buffer;
 use ratatui::layout::Rect;
 use ratatui::text::{Line, Span};
-use ratatui::widgets::{Block, Clear, Widget};
 
 use crate::tui::component::{ANY, Action, Binding, Component, Handled};
 use crate::tui::event::Key;
@@ -150,9 +149,6 @@ impl Component for FilePopup {
         let mut lines = path_prompt("file: ", &prompt.input, prompt.error.as_deref(), theme);
         lines.push(Line::from(Span::styled(note, theme.dim())));
         let rect = centred(area, 64, 6);
-        Clear.render(rect, buf);
-        crate::tui::screens::wrapped(lines, false)
-            .block(Block::bordered().title(title))
-            .render(rect, buf);
+        super::framed(lines, title, rect, buf);
     }
 }

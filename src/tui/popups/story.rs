@@ -18,6 +18,7 @@ use crate::tui::session::Session;
 use crate::tui::theme::Theme;
 
 use super::edit_field::{self, Typed};
+use super::{CHOICE, MOVE, TYPING};
 
 /// A part of a confirmed cause.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
@@ -434,11 +435,6 @@ pub const KEYS: &[Binding] = &[
     Binding::line(TYPING, "Esc", "cancel"),
 ];
 
-/// Modes of the status line.
-const MOVE: u8 = 1;
-const CHOICE: u8 = 2;
-const TYPING: u8 = 4;
-
 impl StoryPopup {
     /// The field rows of the case as it stands.
     fn fields(ctx: &Session) -> Vec<Field> {
@@ -573,13 +569,10 @@ impl Component for StoryPopup {
     }
 
     fn mode(&self, ctx: &Session) -> u8 {
-        if self.editing.is_some() {
-            TYPING
-        } else if self.field(ctx).is_some_and(is_choice) {
-            MOVE | CHOICE
-        } else {
-            MOVE
-        }
+        super::field_mode(
+            self.editing.is_some(),
+            self.field(ctx).is_some_and(is_choice),
+        )
     }
 
     fn is_typing(&self) -> bool {

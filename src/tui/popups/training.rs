@@ -3,7 +3,6 @@
 use ratatui::buffer::Buffer;
 use ratatui::layout::Rect;
 use ratatui::text::{Line, Span};
-use ratatui::widgets::{Block, Clear, Paragraph, Widget};
 
 use crate::tui::component::{ANY, Action, Binding, Component, Handled, PendingAction};
 use crate::tui::event::Key;
@@ -67,9 +66,11 @@ impl Component for TrainingPopup {
             };
             lines.push(Line::from(Span::styled(format!(" {title}{level}"), style)));
         }
-        Clear.render(rect, buf);
-        Paragraph::new(lines)
-            .block(Block::bordered().title(" Training walk-throughs — Enter starts one "))
-            .render(rect, buf);
+        super::framed(
+            lines,
+            " Training walk-throughs — Enter starts one ",
+            rect,
+            buf,
+        );
     }
 }
