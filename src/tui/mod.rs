@@ -111,10 +111,19 @@ pub fn build_app(options: &Options, rules: Arc<RuleBase>) -> Result<app::App, Tu
 /// Run the UI until the user quits. The terminal is restored on every exit path, panics
 /// included.
 pub fn run(options: &Options) -> Result<(), TuiError> {
-    // Quantities in the rule texts in the units the UI starts in.
+    // Quantities in the rule texts in the units the UI starts in: the chosen ones, else those
+    // the case file is typed in (as `build_app` picks them; a case that does not load is
+    // reported there).
+    let start_units = options
+        .units
+        .or_else(|| {
+            let path = options.case.as_ref()?;
+            crate::case::Case::load(path).ok()?.typed_units()
+        })
+        .unwrap_or(crate::units::UnitSystem::Si);
     let rules = match &options.rules {
-        Some(dir) => RuleBase::load_dir_in(dir, options.units)?,
-        None => RuleBase::embedded_in(options.units)?,
+        Some(dir) => RuleBase::load_dir_in(dir, start_units)?,
+        None => RuleBase::embedded_in(start_units)?,
     };
     crate::diagnose::words::use_rules(&rules);
     // Load the case before touching the terminal, so a bad file is a plain error message.
