@@ -5,26 +5,10 @@ use std::sync::Arc;
 use std::time::{Duration, Instant};
 
 use rolltriage::case::Case;
+
+use crate::tui_support::small_presets_case;
 use rolltriage::diagnose::rules::RuleBase;
 use rolltriage::tui::job::{JobError, JobMessage, JobRequest, JobRunner, Purpose, Task};
-
-/// A small roll (core 101.6 mm, roll 130 mm: about 190 wraps of newsprint) so the solve is quick
-/// in a debug build.
-fn small_case() -> Case {
-    Case::from_yaml_str(
-        r#"
-title: Small test roll
-web: {preset: newsprint}
-core: {preset: paper_3in}
-roll: {diameter: "130 mm"}
-winding: {tension: "1 pli"}
-symptoms:
-  - {id: telescoping, where: outside}
-"#,
-        "small test roll",
-    )
-    .unwrap()
-}
 
 fn request(id: u64, case: Case) -> JobRequest {
     JobRequest {
@@ -58,7 +42,7 @@ fn a_solve_runs_off_the_calling_thread_and_reports_its_result() {
     let rules = Arc::new(RuleBase::embedded().unwrap());
     let mut runner = JobRunner::new(rules);
     let started = Instant::now();
-    runner.start(request(1, small_case()));
+    runner.start(request(1, small_presets_case()));
     // `start` returns at once: the work is on the worker thread.
     assert!(started.elapsed() < Duration::from_millis(500));
     match wait_for(&mut runner, 1) {
@@ -87,7 +71,7 @@ fn a_solve_runs_off_the_calling_thread_and_reports_its_result() {
 fn bad_inputs_come_back_as_an_error_message_not_a_panic() {
     let rules = Arc::new(RuleBase::embedded().unwrap());
     let mut runner = JobRunner::new(rules);
-    let mut case = small_case();
+    let mut case = small_presets_case();
     case.symptoms[0].id = "telescopng".into();
     runner.start(request(7, case));
     match wait_for(&mut runner, 7) {
@@ -107,8 +91,8 @@ fn bad_inputs_come_back_as_an_error_message_not_a_panic() {
 fn a_newer_request_replaces_the_older_one() {
     let rules = Arc::new(RuleBase::embedded().unwrap());
     let mut runner = JobRunner::new(rules);
-    runner.start(request(1, small_case()));
-    runner.start(request(2, small_case()));
+    runner.start(request(1, small_presets_case()));
+    runner.start(request(2, small_presets_case()));
     // The older one either stopped (cancelled) or finished first; the newer one always completes.
     match wait_for(&mut runner, 2) {
         JobMessage::Finished { result, .. } => assert!(result.is_ok()),
@@ -121,13 +105,17 @@ fn a_result_that_could_not_be_computed_comes_back_as_an_error_not_as_nan() {
     // Issue 14, item 3 in the terminal UI: a constant radial modulus of 1e-300 Pa gives NaN core
     // pressures (the command line refuses the result; the UI must too). Passed as an already
     // resolved case, as the what-if passes a changed one, so no input range stops it first.
-    let mut resolved = small_case().resolve().unwrap();
+    let mut resolved = small_presets_case().resolve().unwrap();
     resolved.web.radial_stiffness =
         rolltriage::model::RadialStiffness::Constant { modulus: 1e-300 };
     let rules = RuleBase::embedded().unwrap();
-    let error =
-        rolltriage::tui::job::run_pipeline(&small_case(), Some(&resolved), &rules, &mut |_| true)
-            .expect_err("NaN pressures are refused");
+    let error = rolltriage::tui::job::run_pipeline(
+        &small_presets_case(),
+        Some(&resolved),
+        &rules,
+        &mut |_| true,
+    )
+    .expect_err("NaN pressures are refused");
     assert!(matches!(error, JobError::NotFinite(_)), "{error:?}");
     let text = error.to_string();
     assert!(text.contains("the stress profile"), "{text}");

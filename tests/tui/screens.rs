@@ -339,19 +339,7 @@ fn inputs_screen_with_the_winder_rows() {
 /// on"), and an exported report carries the same section.
 #[test]
 fn results_say_what_the_answer_rests_on() {
-    let case = rolltriage::case::Case::from_yaml_str(
-        r#"
-title: Small roll, presets only
-web: {preset: newsprint}
-core: {preset: paper_3in}
-roll: {diameter: "130 mm"}
-winding: {tension: "1 pli"}
-symptoms:
-  - {id: telescoping, where: outside}
-"#,
-        "small roll",
-    )
-    .unwrap();
+    let case = small_presets_case();
     let rules = rolltriage::diagnose::rules::RuleBase::embedded().unwrap();
     let solved = rolltriage::tui::job::run_pipeline(&case, None, &rules, &mut |_| true).unwrap();
     assert!(!solved.resolved.assumed.is_empty());
@@ -398,19 +386,7 @@ symptoms:
 /// shows the last remedy's cautions; ↑ comes back. Wrapped remedy lines hang under their text.
 #[test]
 fn results_scroll_to_what_the_answer_rests_on_and_the_cautions() {
-    let case = rolltriage::case::Case::from_yaml_str(
-        r#"
-title: Small roll, presets only
-web: {preset: newsprint}
-core: {preset: paper_3in}
-roll: {diameter: "130 mm"}
-winding: {tension: "1 pli"}
-symptoms:
-  - {id: telescoping, where: outside}
-"#,
-        "small roll",
-    )
-    .unwrap();
+    let case = small_presets_case();
     let rules = rolltriage::diagnose::rules::RuleBase::embedded().unwrap();
     let solved = rolltriage::tui::job::run_pipeline(&case, None, &rules, &mut |_| true).unwrap();
     let rests_on = solved

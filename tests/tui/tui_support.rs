@@ -342,6 +342,24 @@ pub fn sample_case() -> Case {
 }
 
 /// Answer every queued baseline request with `outcome` (as the background job would).
+/// A small roll from presets only (core 101.6 mm, roll 130 mm: about 190 wraps of newsprint), so
+/// a real solve is quick even in a debug build and the answer rests on assumed inputs.
+pub fn small_presets_case() -> Case {
+    Case::from_yaml_str(
+        r#"
+title: Small roll, presets only
+web: {preset: newsprint}
+core: {preset: paper_3in}
+roll: {diameter: "130 mm"}
+winding: {tension: "1 pli"}
+symptoms:
+  - {id: telescoping, where: outside}
+"#,
+        "small roll",
+    )
+    .unwrap()
+}
+
 pub fn finish_requests(app: &mut App, baseline: &SolveOutcome, what_if: &SolveOutcome) {
     for request in app.take_requests() {
         let outcome = match request.purpose {
