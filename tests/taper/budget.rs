@@ -69,12 +69,7 @@ fn the_taper_command_on_a_huge_roll_ends_at_once_with_a_message() {
 
 #[test]
 fn a_search_that_uses_its_budget_up_ends_with_a_message() {
-    let case = Case::load(&root().join("cases/harbour_coated_starring_no_taper.yaml"))
-        .unwrap()
-        .resolve()
-        .unwrap();
-    let limits = TaperLimits::default();
-    let full = design_with(&case, &limits, &DesignOptions::default()).unwrap();
+    let (case, limits, full) = coated_roll_full_design();
     assert!(
         full.work > 0 && full.work <= DEFAULT_WORK_BUDGET / 2,
         "{}",
@@ -109,6 +104,22 @@ fn a_search_that_uses_its_budget_up_ends_with_a_message() {
     assert_eq!(design_with(&case, &limits, &options).unwrap(), full);
 }
 
+/// The coated-paper starring demo, the default limits and its design with the default budget:
+/// the run whose work the budget tests cut short.
+fn coated_roll_full_design() -> (
+    rolltriage::case::ResolvedCase,
+    TaperLimits,
+    rolltriage::taper_design::TaperDesign,
+) {
+    let case = Case::load(&root().join("cases/harbour_coated_starring_no_taper.yaml"))
+        .unwrap()
+        .resolve()
+        .unwrap();
+    let limits = TaperLimits::default();
+    let full = design_with(&case, &limits, &DesignOptions::default()).unwrap();
+    (case, limits, full)
+}
+
 /// The numbers of "(N solves: S searched schedules, C checks on the fine grid, R re-solves for
 /// the grid corrections)" in a budget message: [N, S, C, R].
 fn solve_counts(text: &str) -> [usize; 4] {
@@ -124,12 +135,7 @@ fn solve_counts(text: &str) -> [usize; 4] {
 
 #[test]
 fn a_budget_used_up_early_counts_the_current_schedule_check_too() {
-    let case = Case::load(&root().join("cases/harbour_coated_starring_no_taper.yaml"))
-        .unwrap()
-        .resolve()
-        .unwrap();
-    let limits = TaperLimits::default();
-    let full = design_with(&case, &limits, &DesignOptions::default()).unwrap();
+    let (case, limits, full) = coated_roll_full_design();
     // 60 % of the work: the search starts (the least search fits) and stops before it has
     // verified a candidate; the current schedule was checked on the fine grid first.
     let options = DesignOptions {
