@@ -82,6 +82,25 @@ pub fn preset_ids() -> (Vec<String>, Vec<String>) {
 
 /// Build the app for `options` without touching the terminal (also used by tests).
 pub fn build_app(options: &Options, rules: Arc<RuleBase>) -> Result<app::App, TuiError> {
+    let case = open_case(options)?;
+    Ok(build_app_with(options, rules, case))
+}
+
+/// The case file named in `options`, loaded (a bad file is a plain error, before any terminal
+/// work).
+fn open_case(options: &Options) -> Result<Option<crate::case::Case>, TuiError> {
+    Ok(match &options.case {
+        Some(path) => Some(crate::case::Case::load(path)?),
+        None => None,
+    })
+}
+
+/// The app for `options` with the case already loaded.
+fn build_app_with(
+    options: &Options,
+    rules: Arc<RuleBase>,
+    case: Option<crate::case::Case>,
+) -> app::App {
     let (web, core) = preset_ids();
     let mut app = app::App::new(
         catalogue::Catalogue::from_rules(Arc::clone(&rules)),
@@ -100,35 +119,31 @@ pub fn build_app(options: &Options, rules: Arc<RuleBase>) -> Result<app::App, Tu
         .map(|(id, remedy)| (id.clone(), remedy.changes.clone()))
         .collect();
     app.session.history = history_location(options.history.as_deref());
-    if let Some(path) = &options.case {
-        let case = crate::case::Case::load(path)?;
+    if let Some(case) = case {
         app.follow_typed_units(&case);
-        app.set_case(case, Some(path.clone()));
+        app.set_case(case, options.case.clone());
     }
-    Ok(app)
+    app
 }
 
 /// Run the UI until the user quits. The terminal is restored on every exit path, panics
 /// included.
 pub fn run(options: &Options) -> Result<(), TuiError> {
+    // Load the case before touching the terminal, so a bad file is a plain error message.
+    let case = open_case(options)?;
     // Quantities in the rule texts in the units the UI starts in: the chosen ones, else those
-    // the case file is typed in (as `build_app` picks them; a case that does not load is
-    // reported there).
+    // the case file is typed in (as `App::follow_typed_units` picks them).
     let start_units = options
         .units
-        .or_else(|| {
-            let path = options.case.as_ref()?;
-            crate::case::Case::load(path).ok()?.typed_units()
-        })
+        .or_else(|| case.as_ref()?.typed_units())
         .unwrap_or(crate::units::UnitSystem::Si);
     let rules = match &options.rules {
         Some(dir) => RuleBase::load_dir_in(dir, start_units)?,
         None => RuleBase::embedded_in(start_units)?,
     };
     crate::diagnose::words::use_rules(&rules);
-    // Load the case before touching the terminal, so a bad file is a plain error message.
     let rules = Arc::new(rules);
-    let mut app = build_app(options, Arc::clone(&rules))?;
+    let mut app = build_app_with(options, Arc::clone(&rules), case);
     let theme = theme::Theme::from_env();
     let mut jobs = job::JobRunner::new(Arc::clone(&rules));
     let history = history_job::HistoryRunner::new(rules);
